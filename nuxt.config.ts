@@ -1,0 +1,62 @@
+// Tidewright's Nuxt configuration. Runtime values are overridden by NUXT_* environment
+// variables (NUXT_DB_PATH, NUXT_SESSION_PASSWORD, ...); see README.md.
+export default defineNuxtConfig({
+  compatibilityDate: '2025-07-15',
+  modules: ['@nuxtjs/tailwindcss', '@pinia/nuxt', '@vueuse/nuxt', 'nuxt-auth-utils', 'nuxt-security'],
+  devtools: { enabled: false },
+  css: ['@fontsource/source-sans-3/400.css', '@fontsource/source-sans-3/600.css', '@fontsource/source-sans-3/700.css', '~/assets/css/main.css'],
+  app: {
+    head: {
+      htmlAttrs: { lang: 'en' },
+      title: 'Tidewright',
+      meta: [
+        { name: 'viewport', content: 'width=device-width, initial-scale=1' },
+        { name: 'description', content: 'Commissioning new reef aquariums, from empty tank to signed-off cycle.' },
+      ],
+      link: [{ rel: 'icon', type: 'image/svg+xml', href: '/favicon.svg' }],
+    },
+  },
+  runtimeConfig: {
+    dbPath: 'data/tidewright.sqlite',
+    migrationsDir: 'drizzle',
+    session: {
+      name: 'tidewright-session',
+      password: '',
+      maxAge: 60 * 60 * 24 * 7,
+      cookie: { sameSite: 'lax', httpOnly: true, secure: true },
+    },
+    signIn: { accountFailureLimit: 8, addressFailureLimit: 30, windowMinutes: 15 },
+  },
+  security: {
+    nonce: true,
+    headers: {
+      contentSecurityPolicy: {
+        'default-src': ["'self'"],
+        'base-uri': ["'none'"],
+        'connect-src': ["'self'"],
+        'font-src': ["'self'"],
+        'form-action': ["'self'"],
+        'frame-ancestors': ["'none'"],
+        'img-src': ["'self'", 'data:', 'blob:'],
+        'object-src': ["'none'"],
+        'script-src': ["'self'", "'strict-dynamic'", "'nonce-{{nonce}}'"],
+        'script-src-attr': ["'none'"],
+        // Vue binds inline style attributes (chart sizes, progress bars).
+        'style-src': ["'self'", "'unsafe-inline'"],
+        'upgrade-insecure-requests': false,
+      },
+      crossOriginEmbedderPolicy: false,
+      referrerPolicy: 'same-origin',
+      strictTransportSecurity: false,
+    },
+    // Sign-in throttling is Tidewright's own (per account and address); a global
+    // token bucket would refuse honest bursts such as a day's CSV import.
+    rateLimiter: false,
+    // Tidewright serves its own pages only; no other origin may call the API.
+    corsHandler: false,
+    // Input is validated with valibot and Vue escapes output; this filter would refuse
+    // honest notes that contain angle brackets.
+    xssValidator: false,
+  },
+  typescript: { strict: true, typeCheck: false },
+})

@@ -1,0 +1,10 @@
+import { IdParams } from '#shared/schemas/common'
+
+/** GET /api/tanks/:id — one tank the user may see. Returns TankView; 404 otherwise. */
+export default defineEventHandler(async (event) => {
+  const actor = await requireActor(event)
+  const { id } = await getValidatedRouterParams(event, valid(IdParams))
+  const tank = getTankView(actor, id)
+  if (!tank) throw createError({ statusCode: 404, statusMessage: 'Tank not found' })
+  return tank
+})

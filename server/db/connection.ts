@@ -1,0 +1,32 @@
+/**
+ * Opens Tidewright's SQLite database and applies migrations. Framework-free so the
+ * server, the scripts (migrate, seed, backup) and the test support share one path.
+ */
+import { mkdirSync } from 'node:fs'
+import { dirname, resolve } from 'node:path'
+import Database from 'better-sqlite3'
+import { drizzle, type BetterSQLite3Database } from 'drizzle-orm/better-sqlite3'
+import { migrate } from 'drizzle-orm/better-sqlite3/migrator'
+import * as schema from './schema'
+
+export type TidewrightDB = BetterSQLite3Database<typeof schema> & { $client: Database.Database }
+
+export const DEFAULT_DB_PATH = 'data/tidewright.sqlite'
+
+/** Opens (creating if needed) the database file with WAL, foreign keys and a busy timeout. */
+export function openDatabase(path: string): TidewrightDB {
+  const file = resolve(path)
+  mkdirSync(dirname(file), { recursive: true })
+  const sqlite = new Database(file)
+  sqlite.pragma('journal_mode = WAL')
+  sqlite.pragma('foreign_keys = ON')
+  // Writers queue briefly instead of surfacing SQLITE_BUSY under concurrent requests.
+  sqlite.pragma('busy_timeout = 5000')
+  sqlite.pragma('synchronous = NORMAL')
+  return drizzle(sqlite, { schema }) as TidewrightDB
+}
+
+/** Applies every migration in drizzle/ that the file has not seen yet. */
+export function migrateDatabase(db: TidewrightDB, migrationsFolder = resolve('drizzle')): void {
+  migrate(db, { migrationsFolder })
+}

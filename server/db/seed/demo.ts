@@ -1,0 +1,139 @@
+/**
+ * The demo company: Brinefield Aquarium Studio, its staff, three clients and four tanks
+ * at different points of commissioning. Every name here is invented. Histories are placed
+ * relative to `now`, so the demo always looks current.
+ */
+import { DEFAULT_PLAN_TEMPLATE } from '../../../shared/plan/default-template'
+import type { TidewrightDB } from '../connection'
+import { planStageRows } from '../plan-stages'
+import { clients, events, organisations, planStages, readings, sites, tanks, users } from '../schema'
+import { FISHLESS_CURVE, FISH_IN_CURVE, simulateHistory } from './histories'
+import { hashPasswordOffline } from './password'
+
+export const DEMO_PASSWORD = 'tidewright-demo'
+const DAY = 86_400_000
+
+export interface DemoIds {
+  organisationId: string
+  users: Record<'admin' | 'aquarist' | 'aquarist2' | 'supervisor' | 'client' | 'client2' | 'client3', string>
+  clients: Record<'lowe' | 'quayle' | 'hart', string>
+  tanks: Record<'lobby' | 'lounge' | 'nano' | 'study', string>
+}
+
+function daysAgo(now: Date, days: number, hour = 9): Date {
+  const d = new Date(now.getTime() - days * DAY)
+  d.setUTCHours(hour, 0, 0, 0)
+  return d
+}
+
+/** Marks the first `done` stages of a tank's plan as finished by `by`. */
+function finishStages(rows: (typeof planStages.$inferInsert)[], done: number, by: string, at: Date) {
+  return rows.map((row, i) => i >= done
+    ? (i === done ? { ...row, status: 'in-progress' as const } : row)
+    : {
+        ...row,
+        status: 'done' as const,
+        completedBy: by,
+        completedAt: new Date(at.getTime() + i * 3_600_000).toISOString(),
+        checklist: (row.checklist ?? []).map(item => ({ ...item, done: true, doneBy: by, doneAt: at.toISOString() })),
+      })
+}
+
+/** Inserts the whole demo company into an empty, migrated database. */
+export async function seedDemo(db: TidewrightDB, now = new Date()): Promise<DemoIds> {
+  const passwordHash = await hashPasswordOffline(DEMO_PASSWORD)
+  return db.transaction((tx) => {
+    const org = tx.insert(organisations).values({
+      name: 'Brinefield Aquarium Studio',
+      settings: { defaultUnits: 'us' },
+    }).returning().get()
+    const orgId = org.id
+
+    const client = (name: string, email: string, phone: string) =>
+      tx.insert(clients).values({ organisationId: orgId, name, email, phone }).returning().get().id
+    const lowe = client('Marguerite Lowe', 'client@tidewright.test', '+1 555 0142')
+    const quayle = client('Idris Quayle', 'client2@tidewright.test', '+1 555 0187')
+    const hart = client('Fenella Hart', 'client3@tidewright.test', '+1 555 0119')
+
+    const user = (email: string, name: string, role: 'admin' | 'aquarist' | 'supervisor' | 'client', clientId: string | null = null, units: 'us' | 'metric' = 'us') =>
+      tx.insert(users).values({ organisationId: orgId, email, name, role, passwordHash, clientId, units }).returning().get().id
+    const ids = {
+      admin: user('admin@tidewright.test', 'Odile Fairbanks', 'admin'),
+      aquarist: user('aquarist@tidewright.test', 'Teodor Nakamura-Reyes', 'aquarist'),
+      aquarist2: user('aquarist2@tidewright.test', 'Wren Castellanos', 'aquarist', null, 'metric'),
+      supervisor: user('supervisor@tidewright.test', 'Hollis Achterberg', 'supervisor'),
+      client: user('client@tidewright.test', 'Marguerite Lowe', 'client', lowe),
+      client2: user('client2@tidewright.test', 'Idris Quayle', 'client', quayle, 'metric'),
+      client3: user('client3@tidewright.test', 'Fenella Hart', 'client', hart),
+    }
+
+    const site = (clientId: string, label: string, address: string, roomNotes: string, accessNotes: string | null = null) =>
+      tx.insert(sites).values({ organisationId: orgId, clientId, label, address, roomNotes, accessNotes }).returning().get().id
+    const loweHome = site(lowe, 'Marlowe House', '14 Marlowe Lane, Eastbridge', 'Lounge, north wall, suspended timber floor', 'Key with the neighbour at no. 12')
+    const lowePractice = site(lowe, 'Lowe Family Dentistry', '3 Harbour Parade, Eastbridge', 'Reception lobby, concrete slab', 'Open 8-18 weekdays')
+    const quayleFlat = site(quayle, 'Quayside flat', 'Flat 6, 22 Quay Street, Westhollow', 'Living room, second floor, concrete floor')
+    const hartHouse = site(hart, 'Fernhill', '9 Fernhill Rise, Northmere', 'Study, ground floor, away from the window')
+
+    const tank = (values: typeof tanks.$inferInsert) => tx.insert(tanks).values(values).returning().get().id
+    const lobby = tank({
+      organisationId: orgId, clientId: lowe, siteId: lowePractice, name: 'Harbour Parade lobby reef',
+      shape: 'rectangular', dimensions: { lengthMm: 1500, widthMm: 600, heightMm: 600 }, volumeLitres: 540, sumpLitres: 120,
+      material: 'glass', waterSource: 'mixed', cycleMethod: 'fishless', status: 'planned',
+      aquaristId: ids.aquarist, supervisorId: ids.supervisor,
+    })
+    const loungeStart = daysAgo(now, 12)
+    const lounge = tank({
+      organisationId: orgId, clientId: lowe, siteId: loweHome, name: 'Marlowe lounge reef',
+      shape: 'bow-front', dimensions: { lengthMm: 1200, widthMm: 500, heightMm: 550, bowDepthMm: 100 }, volumeLitres: 330, sumpLitres: 80,
+      material: 'glass', waterSource: 'mixed', cycleMethod: 'fishless', status: 'cycling', cycleStartedAt: loungeStart.toISOString(),
+      aquaristId: ids.aquarist, supervisorId: ids.supervisor,
+    })
+    const nanoStart = daysAgo(now, 34)
+    const nano = tank({
+      organisationId: orgId, clientId: quayle, siteId: quayleFlat, name: 'Quay Street nano',
+      shape: 'cube', dimensions: { lengthMm: 450, widthMm: 450, heightMm: 450 }, volumeLitres: 91, sumpLitres: 0,
+      material: 'glass', waterSource: 'natural', cycleMethod: 'fishless', status: 'cycled', cycleStartedAt: nanoStart.toISOString(),
+      aquaristId: ids.aquarist, supervisorId: ids.supervisor,
+    })
+    const studyStart = daysAgo(now, 9)
+    const study = tank({
+      organisationId: orgId, clientId: hart, siteId: hartHouse, name: 'Fernhill study reef',
+      shape: 'rectangular', dimensions: { lengthMm: 900, widthMm: 450, heightMm: 500 }, volumeLitres: 202, sumpLitres: 0,
+      material: 'acrylic', waterSource: 'mixed', cycleMethod: 'fish-in', status: 'cycling', cycleStartedAt: studyStart.toISOString(),
+      aquaristId: ids.aquarist2, supervisorId: ids.supervisor,
+    })
+
+    tx.insert(planStages).values([
+      ...finishStages(planStageRows(lobby, DEFAULT_PLAN_TEMPLATE), 1, ids.aquarist, daysAgo(now, 2)),
+      ...finishStages(planStageRows(lounge, DEFAULT_PLAN_TEMPLATE), 6, ids.aquarist, daysAgo(now, 15)),
+      ...finishStages(planStageRows(nano, DEFAULT_PLAN_TEMPLATE), 7, ids.aquarist, daysAgo(now, 38)),
+      ...finishStages(planStageRows(study, DEFAULT_PLAN_TEMPLATE), 6, ids.aquarist2, daysAgo(now, 11)),
+    ]).run()
+
+    const addHistory = (tankId: string, enteredBy: string, history: ReturnType<typeof simulateHistory>) => {
+      if (history.length) tx.insert(readings).values(history.map(r => ({ tankId, enteredBy, ...r }))).run()
+    }
+    addHistory(lounge, ids.client, simulateHistory({ start: loungeStart, days: 12, curve: FISHLESS_CURVE, seed: 7, skip: [4] }))
+    addHistory(nano, ids.client2, simulateHistory({ start: nanoStart, days: 34, curve: FISHLESS_CURVE, seed: 11, hour: 19 }))
+    addHistory(study, ids.client3, simulateHistory({ start: studyStart, days: 10, curve: FISH_IN_CURVE, seed: 23, hour: 8, spikes: { 8: 0.55, 9: 0.45 } }))
+
+    const at = (start: Date, day: number, hour: number) => new Date(start.getTime() + day * DAY + (hour - start.getUTCHours()) * 3_600_000).toISOString()
+    tx.insert(events).values([
+      { tankId: lounge, at: at(loungeStart, 0, 10), kind: 'ammonia-dose', amount: 1.65, notes: 'Dosed to about 2 ppm NH3', enteredBy: ids.aquarist },
+      { tankId: lounge, at: at(loungeStart, 0, 10), kind: 'bacteria-dose', notes: 'Bottled nitrifying bacteria, full starter dose', enteredBy: ids.aquarist },
+      { tankId: nano, at: at(nanoStart, 0, 10), kind: 'ammonia-dose', amount: 1.65, notes: 'Dosed to about 2 ppm NH3', enteredBy: ids.aquarist },
+      { tankId: nano, at: at(nanoStart, 0, 10), kind: 'bacteria-dose', enteredBy: ids.aquarist },
+      { tankId: nano, at: at(nanoStart, 31, 20), kind: 'ammonia-dose', amount: 1.65, notes: 'Clearance test dose', enteredBy: ids.client2 },
+      { tankId: study, at: at(studyStart, 0, 11), kind: 'bacteria-dose', enteredBy: ids.aquarist2 },
+      { tankId: study, at: at(studyStart, 0, 12), kind: 'livestock-added', amount: 3, group: 'fish', notes: 'Three hardy damselfish', enteredBy: ids.aquarist2 },
+      { tankId: study, at: at(studyStart, 7, 19), kind: 'note', notes: 'Client fed heavily over the weekend', enteredBy: ids.client3 },
+    ]).run()
+
+    return {
+      organisationId: orgId,
+      users: ids,
+      clients: { lowe, quayle, hart },
+      tanks: { lobby, lounge, nano, study },
+    }
+  })
+}

@@ -1,0 +1,4 @@
+/** Brings the database schema up to date before the first request is served. */
+export default defineNitroPlugin(() => {
+  migrateDB()
+})

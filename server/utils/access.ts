@@ -1,0 +1,63 @@
+/**
+ * Who may see what, written once. Every route starts with requireActor; every query on
+ * tank-owned data goes through visibleTankCondition or findVisibleTank, so a row outside
+ * the actor's organisation (or, for a client, outside their own tanks) is simply not found.
+ */
+import { and, eq, isNull, type SQL } from 'drizzle-orm'
+import type { H3Event } from 'h3'
+import type { Role } from '#shared/types/roles'
+import { tanks, users } from '../db/schema'
+
+export interface Actor {
+  id: string
+  name: string
+  role: Role
+  organisationId: string
+  /** The client record a client account belongs to; null for staff. */
+  clientId: string | null
+  units: 'us' | 'metric'
+}
+
+/** 401 when signed out, 403 when the role may not use the route; the user is re-read so a deactivated account stops at once. */
+export async function requireActor(event: H3Event, roles?: readonly Role[]): Promise<Actor> {
+  const session = await getUserSession(event)
+  if (!session.user) throw createError({ statusCode: 401, statusMessage: 'Sign in to continue' })
+  const row = useDB().select().from(users).where(eq(users.id, session.user.id)).get()
+  if (!row || !row.active) {
+    await clearUserSession(event)
+    throw createError({ statusCode: 401, statusMessage: 'Sign in to continue' })
+  }
+  if (roles && !roles.includes(row.role)) throw createError({ statusCode: 403, statusMessage: 'Your role may not do this' })
+  return {
+    id: row.id,
+    name: row.name,
+    role: row.role,
+    organisationId: row.organisationId,
+    clientId: row.role === 'client' ? row.clientId : null,
+    units: row.units,
+  }
+}
+
+/** The WHERE condition for tanks the actor may see. A client without a client record sees none. */
+export function visibleTankCondition(actor: Actor): SQL {
+  const inOrganisation = and(eq(tanks.organisationId, actor.organisationId), isNull(tanks.archivedAt))!
+  if (actor.role !== 'client') return inOrganisation
+  return and(inOrganisation, eq(tanks.clientId, actor.clientId ?? '\u0000'))!
+}
+
+/** The tank row if the actor may see it, else undefined (the route answers 404). */
+export function findVisibleTank(actor: Actor, tankId: string) {
+  return useDB().select().from(tanks).where(and(eq(tanks.id, tankId), visibleTankCondition(actor))).get()
+}
+
+/** Like findVisibleTank but throws the 404 itself. */
+export function requireVisibleTank(actor: Actor, tankId: string) {
+  const tank = findVisibleTank(actor, tankId)
+  if (!tank) throw createError({ statusCode: 404, statusMessage: 'Tank not found' })
+  return tank
+}
+
+/** Staff who may change a tank: admins and aquarists of its organisation. */
+export function canManageTank(actor: Actor, tank: { organisationId: string }): boolean {
+  return tank.organisationId === actor.organisationId && (actor.role === 'admin' || actor.role === 'aquarist')
+}

@@ -1,0 +1,91 @@
+/** Reads tanks with their client, site, staff and stored phase, shaped for the API. */
+import { and, asc, desc, eq, or, sql, type SQL } from 'drizzle-orm'
+import { alias } from 'drizzle-orm/sqlite-core'
+import type { TankListQuery } from '#shared/schemas/tank-list'
+import type { CyclePhase, TankList, TankSummary, TankView } from '#shared/types/tanks'
+import { clients, sites, tankVerdicts, tanks, users } from '../db/schema'
+import { visibleTankCondition, type Actor } from './access'
+
+const aquarist = alias(users, 'aquarist')
+const supervisor = alias(users, 'supervisor')
+
+function baseQuery() {
+  return useDB().select({
+    tank: tanks,
+    clientName: clients.name,
+    siteLabel: sites.label,
+    aquaristName: aquarist.name,
+    supervisorName: supervisor.name,
+    phase: tankVerdicts.phase,
+  }).from(tanks)
+    .innerJoin(clients, eq(clients.id, tanks.clientId))
+    .leftJoin(sites, eq(sites.id, tanks.siteId))
+    .leftJoin(aquarist, eq(aquarist.id, tanks.aquaristId))
+    .leftJoin(supervisor, eq(supervisor.id, tanks.supervisorId))
+    .leftJoin(tankVerdicts, eq(tankVerdicts.tankId, tanks.id))
+}
+type Row = NonNullable<Awaited<ReturnType<ReturnType<typeof baseQuery>['get']>>>
+
+function toSummary(row: Row): TankSummary {
+  const t = row.tank
+  return {
+    id: t.id,
+    name: t.name,
+    status: t.status,
+    cycleMethod: t.cycleMethod,
+    volumeLitres: t.volumeLitres,
+    clientId: t.clientId,
+    clientName: row.clientName,
+    siteLabel: row.siteLabel,
+    aquaristName: row.aquaristName,
+    phase: (row.phase as CyclePhase | null) ?? null,
+    cycleStartedAt: t.cycleStartedAt,
+    updatedAt: t.updatedAt,
+  }
+}
+
+const SORT_COLUMNS = {
+  name: tanks.name,
+  status: tanks.status,
+  client: clients.name,
+  updated: tanks.updatedAt,
+} as const
+
+/** One page of the tanks the actor may see, filtered and sorted on the server. */
+export function listTanks(actor: Actor, query: TankListQuery): TankList {
+  const conditions: SQL[] = [visibleTankCondition(actor)]
+  if (query.status) conditions.push(eq(tanks.status, query.status))
+  if (query.clientId) conditions.push(eq(tanks.clientId, query.clientId))
+  if (query.q) {
+    const pattern = `%${query.q.replace(/[%_\\]/g, m => `\\${m}`)}%`
+    conditions.push(or(sql`${tanks.name} like ${pattern} escape '\\'`, sql`${clients.name} like ${pattern} escape '\\'`)!)
+  }
+  const where = and(...conditions)
+  const column = SORT_COLUMNS[query.sort]
+  const order = query.dir === 'asc' ? asc(column) : desc(column)
+  const rows = baseQuery().where(where).orderBy(order, asc(tanks.id))
+    .limit(query.pageSize).offset((query.page - 1) * query.pageSize).all()
+  const total = useDB().select({ n: sql<number>`count(*)` }).from(tanks)
+    .innerJoin(clients, eq(clients.id, tanks.clientId)).where(where).get()?.n ?? 0
+  return { items: rows.map(toSummary), total, page: query.page, pageSize: query.pageSize }
+}
+
+/** The full view of one tank, or undefined when the actor may not see it. */
+export function getTankView(actor: Actor, tankId: string): TankView | undefined {
+  const row = baseQuery().where(and(eq(tanks.id, tankId), visibleTankCondition(actor))).get()
+  if (!row) return undefined
+  const t = row.tank
+  return {
+    ...toSummary(row),
+    shape: t.shape,
+    dimensions: { ...t.dimensions },
+    sumpLitres: t.sumpLitres,
+    material: t.material,
+    waterSource: t.waterSource,
+    aquaristId: t.aquaristId,
+    supervisorId: t.supervisorId,
+    supervisorName: row.supervisorName,
+    kitBasis: t.kitBasis,
+    createdAt: t.createdAt,
+  }
+}

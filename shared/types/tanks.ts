@@ -1,0 +1,38 @@
+/** API response shapes for tanks. Values are canonical (litres, mm); the client converts for display. */
+export type TankStatus = 'planned' | 'building' | 'cycling' | 'cycled' | 'signed-off' | 'stocking'
+export type CyclePhase = 'not-started' | 'ammonia' | 'nitrite' | 'settling' | 'complete'
+
+export interface TankSummary {
+  id: string
+  name: string
+  status: TankStatus
+  cycleMethod: 'fishless' | 'fish-in'
+  volumeLitres: number
+  clientId: string
+  clientName: string
+  siteLabel: string | null
+  aquaristName: string | null
+  phase: CyclePhase | null
+  cycleStartedAt: string | null
+  updatedAt: string
+}
+
+export interface TankList {
+  items: TankSummary[]
+  total: number
+  page: number
+  pageSize: number
+}
+
+export interface TankView extends TankSummary {
+  shape: string
+  dimensions: Record<string, number | undefined>
+  sumpLitres: number
+  material: 'glass' | 'acrylic'
+  waterSource: 'natural' | 'mixed'
+  aquaristId: string | null
+  supervisorId: string | null
+  supervisorName: string | null
+  kitBasis: { ammonia: string; nitrite: string; nitrate: string }
+  createdAt: string
+}

@@ -1,0 +1,30 @@
+import type { Config } from 'tailwindcss'
+
+// Tidewright's own look: deep-water ink, a tide teal for action, warm sand surfaces,
+// and signal colours kept for water-quality meaning only.
+export default {
+  content: ['./app/**/*.{vue,ts}', './shared/**/*.ts'],
+  theme: {
+    extend: {
+      fontFamily: {
+        sans: ['"Source Sans 3"', 'system-ui', 'sans-serif'],
+      },
+      colors: {
+        ink: { DEFAULT: '#12303a', soft: '#35525c', faint: '#6b8189' },
+        tide: { 50: '#e8f5f4', 100: '#c9e8e5', 300: '#6fbdb6', 500: '#16808a', 600: '#0f6a73', 700: '#0b545c' },
+        sand: { 50: '#fbf8f2', 100: '#f4eee2', 200: '#e7dcc6', 300: '#d6c6a5' },
+        signal: { safe: '#3d7a45', caution: '#b7791f', danger: '#c0392b', info: '#2f6f9f' },
+      },
+      fontSize: {
+        'label': ['0.8125rem', { lineHeight: '1.1rem', letterSpacing: '0.02em' }],
+        'body': ['1rem', { lineHeight: '1.5rem' }],
+        'lead': ['1.125rem', { lineHeight: '1.65rem' }],
+        'title': ['1.5rem', { lineHeight: '2rem', fontWeight: '700' }],
+        'display': ['2rem', { lineHeight: '2.4rem', fontWeight: '700' }],
+      },
+      borderRadius: { card: '0.875rem' },
+      boxShadow: { card: '0 1px 2px rgba(18,48,58,0.08), 0 4px 16px rgba(18,48,58,0.06)' },
+    },
+  },
+  plugins: [],
+} satisfies Config
