@@ -1,0 +1,91 @@
+/**
+ * Filled weight of a tank and its footprint load, compared with the design live
+ * load of the International Residential Code (Table R301.5). The comparison is
+ * information for the site survey, never a structural verdict.
+ */
+
+import { seawaterDensity } from '../chemistry/seawater'
+import { STANDARD_GRAVITY, assertFinite, assertPositive, knPerM2ToPsf } from '../units'
+import { sandBulkDensity } from './substrate'
+import { shapeGeometry, tankVolume, type VolumeInput } from './volume'
+
+/** IRC Table R301.5 uniform live loads, psf. */
+export const IRC_LIVE_LOAD_PSF = { 'living-area': 40, 'sleeping-room': 30 } as const
+export type RoomUse = keyof typeof IRC_LIVE_LOAD_PSF
+
+/** Shell materials, density g/cm3: soda-lime glass and cast acrylic (from memory). */
+export const SHELL_DENSITY_G_CM3 = { glass: 2.5, acrylic: 1.19 } as const
+export type ShellMaterial = keyof typeof SHELL_DENSITY_G_CM3
+
+/** Shown with every footprint-load comparison. */
+export const LOAD_CAUTION
+  = 'This compares the average load under the footprint with the code\'s uniform design live load for the room. '
+    + 'It is not a structural assessment: joist span and direction, point loads under the stand, other furniture and '
+    + 'the condition of the floor all matter. Have a licensed structural engineer check the floor against local codes.'
+
+/** A tank, its contents and the room it stands in. */
+export interface WeightInput extends VolumeInput {
+  salinity: number
+  temperatureC: number
+  shellMaterial: ShellMaterial
+  /** Panel thickness, mm; the shell is estimated as bottom plus walls of this thickness. */
+  shellThicknessMm: number
+  /** Dry bulk density of the sand bed, g/cm3 (sand mass = bed volume x this). */
+  sandBulkDensityGCm3?: number
+  /** Stand, sump, equipment and anything else on the footprint, kg. */
+  otherKg?: number
+  /** Area the load spreads over (usually the stand's), cm^2; defaults to the tank's footprint. */
+  bearingAreaCm2?: number
+  roomUse?: RoomUse
+}
+
+/** Weight breakdown and footprint load compared with the code's live load. */
+export interface WeightResult {
+  waterKg: number
+  shellKg: number
+  sandKg: number
+  rockKg: number
+  otherKg: number
+  totalKg: number
+  bearingAreaM2: number
+  loadKnPerM2: number
+  loadPsf: number
+  designLiveLoadPsf: number
+  /** Footprint load over design live load; above 1 means the footprint load is higher than the code's figure. */
+  ratioToDesignLiveLoad: number
+  exceedsDesignLiveLoad: boolean
+  caution: string
+}
+
+/** Filled weight and footprint load of a tank, with the comparison's caution. */
+export function filledWeight(input: WeightInput): WeightResult {
+  const geometry = shapeGeometry(input.shape)
+  const volume = tankVolume(input)
+  assertPositive('shellThicknessMm', input.shellThicknessMm)
+  const sandBulk = input.sandBulkDensityGCm3 ?? sandBulkDensity()
+  assertFinite('sandBulkDensityGCm3', sandBulk, { min: 0.5, max: 3 })
+  const otherKg = input.otherKg ?? 0
+  assertFinite('otherKg', otherKg, { min: 0 })
+  const bearingAreaCm2 = input.bearingAreaCm2 ?? geometry.footprintCm2
+  assertPositive('bearingAreaCm2', bearingAreaCm2)
+
+  const waterKg = (volume.netL * seawaterDensity(input.salinity, input.temperatureC)) / 1000
+  const shellAreaCm2 = geometry.footprintCm2 + geometry.perimeterCm * geometry.heightCm
+  const shellKg = (shellAreaCm2 * (input.shellThicknessMm / 10) * SHELL_DENSITY_G_CM3[input.shellMaterial]) / 1000
+  const sandKg = (geometry.footprintCm2 * (input.sandDepthCm ?? 0) * sandBulk) / 1000
+  const rockKg = input.rockKg ?? 0
+  const totalKg = waterKg + shellKg + sandKg + rockKg + otherKg
+
+  const bearingAreaM2 = bearingAreaCm2 / 10000
+  const loadKnPerM2 = (totalKg * STANDARD_GRAVITY) / bearingAreaM2 / 1000
+  const loadPsf = knPerM2ToPsf(loadKnPerM2)
+  const designLiveLoadPsf = IRC_LIVE_LOAD_PSF[input.roomUse ?? 'living-area']
+  const ratio = loadPsf / designLiveLoadPsf
+  return {
+    waterKg, shellKg, sandKg, rockKg, otherKg, totalKg,
+    bearingAreaM2, loadKnPerM2, loadPsf, designLiveLoadPsf,
+    ratioToDesignLiveLoad: ratio,
+    exceedsDesignLiveLoad: ratio > 1,
+    caution: LOAD_CAUTION,
+  }
+}
