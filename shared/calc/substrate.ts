@@ -2,11 +2,11 @@
  * Substrate amount for a target sand-bed depth, as volume, mass and whole bags.
  */
 
-import { CM_PER_INCH, assertFinite, assertInRange, assertPositive } from '../units'
+import { MM_PER_INCH, assertFinite, assertInRange, assertPositive } from '../units'
 import { ARAGONITE_DENSITY_G_CM3, DEFAULT_SAND_POROSITY, shapeGeometry, type TankShape } from './volume'
 
-/** Sand bed depth, cm: 1-2 in (common practice, no published source). */
-export const SAND_BED_DEPTH_RANGE_CM = [1 * CM_PER_INCH, 2 * CM_PER_INCH] as const
+/** Sand bed depth, mm: 1-2 in (common practice, no published source). */
+export const SAND_BED_DEPTH_RANGE_MM = [1 * MM_PER_INCH, 2 * MM_PER_INCH] as const
 
 /** Dry bulk density of a sand bed, g/cm3, from its mineral density and pore fraction. */
 export function sandBulkDensity(mineralDensityGCm3 = ARAGONITE_DENSITY_G_CM3, porosity = DEFAULT_SAND_POROSITY): number {
@@ -18,8 +18,8 @@ export function sandBulkDensity(mineralDensityGCm3 = ARAGONITE_DENSITY_G_CM3, po
 /** A sand bed to plan. Give either a tank shape or a footprint area. */
 export interface SubstrateInput {
   shape?: TankShape
-  footprintCm2?: number
-  depthCm: number
+  footprintM2?: number
+  depthMm: number
   /** Dry bulk density, g/cm3; defaults to aragonite at 45 % porosity (about 1.61). */
   bulkDensityGCm3?: number
   /** Mass of sand per bag, kg. */
@@ -28,29 +28,30 @@ export interface SubstrateInput {
 
 /** Sand needed for the bed. */
 export interface SubstrateResult {
-  footprintCm2: number
+  footprintM2: number
   volumeL: number
   massKg: number
   /** Whole bags to buy. */
   bags: number
-  /** Bed depth the whole bags would give, cm. */
-  depthWithBagsCm: number
+  /** Bed depth the whole bags would give, mm. */
+  depthWithBagsMm: number
 }
 
-/** Volume, mass and bags of sand for a bed of `depthCm` over the tank's footprint. */
+/** Volume, mass and bags of sand for a bed of `depthMm` over the tank's footprint. */
 export function substrateAmount(input: SubstrateInput): SubstrateResult {
-  const footprintCm2 = input.shape ? shapeGeometry(input.shape).footprintCm2 : input.footprintCm2
-  if (footprintCm2 === undefined) throw new RangeError('shape or footprintCm2 is required')
-  assertPositive('footprintCm2', footprintCm2)
-  assertFinite('depthCm', input.depthCm, { min: 0 })
+  const footprintM2 = input.shape ? shapeGeometry(input.shape).footprintMm2 / 1e6 : input.footprintM2
+  if (footprintM2 === undefined) throw new RangeError('shape or footprintM2 is required')
+  assertPositive('footprintM2', footprintM2)
+  assertFinite('depthMm', input.depthMm, { min: 0 })
   assertPositive('bagKg', input.bagKg)
   const bulk = input.bulkDensityGCm3 ?? sandBulkDensity()
   assertInRange('bulkDensityGCm3', bulk, 0.5, 3)
 
-  const volumeL = (footprintCm2 * input.depthCm) / 1000
+  // m^2 x mm = litres
+  const volumeL = footprintM2 * input.depthMm
   const massKg = volumeL * bulk
   // Float noise must not buy an extra bag when the mass is an exact multiple.
   const bags = Math.ceil(massKg / input.bagKg - 1e-9)
-  const depthWithBagsCm = ((bags * input.bagKg) / bulk) * 1000 / footprintCm2
-  return { footprintCm2, volumeL, massKg, bags, depthWithBagsCm }
+  const depthWithBagsMm = (bags * input.bagKg) / bulk / footprintM2
+  return { footprintM2, volumeL, massKg, bags, depthWithBagsMm }
 }

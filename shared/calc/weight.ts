@@ -34,8 +34,8 @@ export interface WeightInput extends VolumeInput {
   sandBulkDensityGCm3?: number
   /** Stand, sump, equipment and anything else on the footprint, kg. */
   otherKg?: number
-  /** Area the load spreads over (usually the stand's), cm^2; defaults to the tank's footprint. */
-  bearingAreaCm2?: number
+  /** Area the load spreads over (usually the stand's), m^2; defaults to the tank's footprint. */
+  bearingAreaM2?: number
   roomUse?: RoomUse
 }
 
@@ -66,17 +66,17 @@ export function filledWeight(input: WeightInput): WeightResult {
   assertFinite('sandBulkDensityGCm3', sandBulk, { min: 0.5, max: 3 })
   const otherKg = input.otherKg ?? 0
   assertFinite('otherKg', otherKg, { min: 0 })
-  const bearingAreaCm2 = input.bearingAreaCm2 ?? geometry.footprintCm2
-  assertPositive('bearingAreaCm2', bearingAreaCm2)
+  const bearingAreaM2 = input.bearingAreaM2 ?? volume.footprintM2
+  assertPositive('bearingAreaM2', bearingAreaM2)
 
   const waterKg = (volume.netL * seawaterDensity(input.salinity, input.temperatureC)) / 1000
-  const shellAreaCm2 = geometry.footprintCm2 + geometry.perimeterCm * geometry.heightCm
-  const shellKg = (shellAreaCm2 * (input.shellThicknessMm / 10) * SHELL_DENSITY_G_CM3[input.shellMaterial]) / 1000
-  const sandKg = (geometry.footprintCm2 * (input.sandDepthCm ?? 0) * sandBulk) / 1000
+  // mm^3 x g/cm3 = mg; 1e6 mg per kg
+  const shellAreaMm2 = geometry.footprintMm2 + geometry.perimeterMm * geometry.heightMm
+  const shellKg = (shellAreaMm2 * input.shellThicknessMm * SHELL_DENSITY_G_CM3[input.shellMaterial]) / 1e6
+  const sandKg = (geometry.footprintMm2 * (input.sandDepthMm ?? 0) * sandBulk) / 1e6
   const rockKg = input.rockKg ?? 0
   const totalKg = waterKg + shellKg + sandKg + rockKg + otherKg
 
-  const bearingAreaM2 = bearingAreaCm2 / 10000
   const loadKnPerM2 = (totalKg * STANDARD_GRAVITY) / bearingAreaM2 / 1000
   const loadPsf = knPerM2ToPsf(loadKnPerM2)
   const designLiveLoadPsf = IRC_LIVE_LOAD_PSF[input.roomUse ?? 'living-area']

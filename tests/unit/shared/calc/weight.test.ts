@@ -2,11 +2,13 @@ import { describe, expect, it } from 'vitest'
 import fc from 'fast-check'
 import { IRC_LIVE_LOAD_PSF, LOAD_CAUTION, filledWeight, type WeightInput } from '../../../../shared/calc/weight'
 import { seawaterDensity } from '../../../../shared/chemistry/seawater'
-import { STANDARD_GRAVITY, inchesToCm, kgToPounds, knPerM2ToPsf } from '../../../../shared/units'
+import { STANDARD_GRAVITY, convertLength, kgToPounds, knPerM2ToPsf } from '../../../../shared/units'
+
+const inMm = (inches: number) => convertLength(inches, 'in', 'mm')
 
 const FC = { seed: 301, numRuns: 150 }
 const base: WeightInput = {
-  shape: { kind: 'rectangular', lengthCm: 120, widthCm: 50, heightCm: 50 },
+  shape: { kind: 'rectangular', lengthMm: 1200, widthMm: 500, heightMm: 500 },
   salinity: 35,
   temperatureC: 25,
   shellMaterial: 'glass',
@@ -16,13 +18,13 @@ const base: WeightInput = {
 describe('filled weight', () => {
   it('one US gallon of S 35 sea water at 25 C weighs 8.540 lb (reference.md §7, computed from EOS-80)', () => {
     // tolerance 0.0005 lb: printed to three decimals
-    const gallonBox = { kind: 'rectangular', lengthCm: inchesToCm(11), widthCm: inchesToCm(7), heightCm: inchesToCm(3) } as const
+    const gallonBox = { kind: 'rectangular', lengthMm: inMm(11), widthMm: inMm(7), heightMm: inMm(3) } as const
     const w = filledWeight({ ...base, shape: gallonBox })
     expect(Math.abs(kgToPounds(w.waterKg) - 8.54)).toBeLessThan(0.0005)
   })
 
   it('adds water, glass shell, sand and rock', () => {
-    const w = filledWeight({ ...base, sandDepthCm: 4, rockKg: 30, otherKg: 20 })
+    const w = filledWeight({ ...base, sandDepthMm: 40, rockKg: 30, otherKg: 20 })
     // glass 2.5 g/cm3 (from memory), bottom 6000 cm2 + walls 340 x 50 cm2, 1 cm thick
     expect(w.shellKg).toBeCloseTo((23000 * 2.5) / 1000, 9)
     expect(w.sandKg).toBeCloseTo((6000 * 4 * 2.93 * 0.55) / 1000, 9)
@@ -44,7 +46,7 @@ describe('footprint load compared with IRC Table R301.5', () => {
   })
 
   it('load is weight over bearing area, in kN/m2 and psf', () => {
-    const w = filledWeight({ ...base, bearingAreaCm2: 8000 })
+    const w = filledWeight({ ...base, bearingAreaM2: 0.8 })
     expect(w.loadKnPerM2).toBeCloseTo((w.totalKg * STANDARD_GRAVITY) / 0.8 / 1000, 9)
     expect(w.loadPsf).toBeCloseTo(knPerM2ToPsf(w.loadKnPerM2), 9)
     expect(w.ratioToDesignLiveLoad).toBeCloseTo(w.loadPsf / 40, 12)
@@ -57,7 +59,7 @@ describe('footprint load compared with IRC Table R301.5', () => {
   })
 
   it('a small tank on a wide stand does not exceed it, and still carries the caution', () => {
-    const w = filledWeight({ ...base, shape: { kind: 'cube', sideCm: 30 }, bearingAreaCm2: 20000 })
+    const w = filledWeight({ ...base, shape: { kind: 'cube', sideMm: 300 }, bearingAreaM2: 2 })
     expect(w.exceedsDesignLiveLoad).toBe(false)
     expect(w.caution).toBe(LOAD_CAUTION)
   })
@@ -78,7 +80,7 @@ describe('footprint load compared with IRC Table R301.5', () => {
 
   it('rejects bad inputs, naming them', () => {
     expect(() => filledWeight({ ...base, shellThicknessMm: 0 })).toThrow(/shellThicknessMm/)
-    expect(() => filledWeight({ ...base, bearingAreaCm2: -1 })).toThrow(/bearingAreaCm2/)
+    expect(() => filledWeight({ ...base, bearingAreaM2: -1 })).toThrow(/bearingAreaM2/)
     expect(() => filledWeight({ ...base, salinity: 60 })).toThrow(/salinity/)
     expect(() => filledWeight({ ...base, otherKg: Number.NaN })).toThrow(/otherKg/)
   })
