@@ -4,6 +4,8 @@ export default defineNuxtConfig({
   compatibilityDate: '2025-07-15',
   modules: ['@nuxtjs/tailwindcss', '@pinia/nuxt', '@vueuse/nuxt', 'nuxt-auth-utils', 'nuxt-security'],
   devtools: { enabled: false },
+  // Components live in one folder per area but are named by file alone: tanks/TankCard.vue is <TankCard>.
+  components: [{ path: '~/components', pathPrefix: false }],
   css: ['@fontsource/source-sans-3/400.css', '@fontsource/source-sans-3/600.css', '@fontsource/source-sans-3/700.css', '~/assets/css/main.css'],
   app: {
     head: {

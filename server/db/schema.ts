@@ -108,6 +108,8 @@ export const tanks = sqliteTable('tanks', {
   aquaristId: text('aquarist_id').references(() => users.id, { onDelete: 'set null' }),
   supervisorId: text('supervisor_id').references(() => users.id, { onDelete: 'set null' }),
   cycleStartedAt: text('cycle_started_at'),
+  /** Hour of day (0-23, the client's local time) the client usually tests; drives reminders. */
+  usualTestHour: integer('usual_test_hour'),
   kitBasis: text('kit_basis', { mode: 'json' }).$type<KitBasis>().notNull()
     .default(sql`'{"ammonia":"NH3","nitrite":"NO2","nitrate":"NO3"}'`),
   archivedAt: text('archived_at'),
@@ -165,8 +167,13 @@ export const readings = sqliteTable('readings', {
   /** A correction after sign-off is a new row pointing at the one it corrects. */
   correctsId: text('corrects_id'),
   correctionReason: text('correction_reason'),
+  /** For CSV imports: a hash of the source row, so re-importing a file adds nothing twice. */
+  importKey: text('import_key'),
   ...timestamps,
-}, t => [index('readings_tank_taken').on(t.tankId, t.takenAt)])
+}, t => [
+  index('readings_tank_taken').on(t.tankId, t.takenAt),
+  uniqueIndex('readings_tank_import_key').on(t.tankId, t.importKey),
+])
 
 export const events = sqliteTable('events', {
   id: id(),
@@ -178,6 +185,8 @@ export const events = sqliteTable('events', {
   group: text('group'),
   notes: text('notes'),
   enteredBy: text('entered_by').references(() => users.id, { onDelete: 'set null' }),
+  correctsId: text('corrects_id'),
+  correctionReason: text('correction_reason'),
   ...timestamps,
 }, t => [index('events_tank_at').on(t.tankId, t.at)])
 
@@ -209,3 +218,137 @@ export const signInFailures = sqliteTable('sign_in_failures', {
   key: text('key').notNull(),
   at: text('at').notNull(),
 }, t => [index('sign_in_failures_key_at').on(t.key, t.at)])
+
+export const ALERT_STATUSES = ['open', 'acknowledged', 'resolved'] as const
+
+/** The company's build-plan template, one row per stage; new tanks copy it. */
+export const planTemplateStages = sqliteTable('plan_template_stages', {
+  id: id(),
+  organisationId: text('organisation_id').notNull().references(() => organisations.id, { onDelete: 'cascade' }),
+  position: integer('position').notNull(),
+  key: text('key').notNull(),
+  title: text('title').notNull(),
+  checklist: text('checklist', { mode: 'json' }).$type<string[]>().notNull().default(sql`'[]'`),
+  ...timestamps,
+}, t => [uniqueIndex('plan_template_org_position').on(t.organisationId, t.position)])
+
+/** A stored file (photo or PDF). Bytes live in Nitro storage under `storageKey`, never at a public path. */
+export const uploads = sqliteTable('uploads', {
+  id: id(),
+  organisationId: text('organisation_id').notNull().references(() => organisations.id, { onDelete: 'cascade' }),
+  tankId: text('tank_id').notNull().references(() => tanks.id, { onDelete: 'cascade' }),
+  stageId: text('stage_id').references(() => planStages.id, { onDelete: 'set null' }),
+  readingId: text('reading_id').references(() => readings.id, { onDelete: 'set null' }),
+  /** Detected from the bytes (magic numbers), not from the file name. */
+  mimeType: text('mime_type').notNull(),
+  sizeBytes: integer('size_bytes').notNull(),
+  originalName: text('original_name').notNull(),
+  storageKey: text('storage_key').notNull(),
+  thumbnailKey: text('thumbnail_key'),
+  uploadedBy: text('uploaded_by').references(() => users.id, { onDelete: 'set null' }),
+  ...timestamps,
+}, t => [index('uploads_tank_idx').on(t.tankId), index('uploads_stage_idx').on(t.stageId)])
+
+/** One open alert per tank and kind; readings that raise or clear it are recorded. */
+export const alerts = sqliteTable('alerts', {
+  id: id(),
+  organisationId: text('organisation_id').notNull().references(() => organisations.id, { onDelete: 'cascade' }),
+  tankId: text('tank_id').notNull().references(() => tanks.id, { onDelete: 'cascade' }),
+  /** The rule id of the danger finding that opened it. */
+  kind: text('kind').notNull(),
+  status: text('status', { enum: ALERT_STATUSES }).notNull().default('open'),
+  message: text('message').notNull(),
+  openedByReadingId: text('opened_by_reading_id').references(() => readings.id, { onDelete: 'set null' }),
+  lastReadingId: text('last_reading_id').references(() => readings.id, { onDelete: 'set null' }),
+  detail: text('detail', { mode: 'json' }).$type<Record<string, unknown>>().notNull().default(sql`'{}'`),
+  openedAt: text('opened_at').notNull(),
+  acknowledgedAt: text('acknowledged_at'),
+  acknowledgedBy: text('acknowledged_by').references(() => users.id, { onDelete: 'set null' }),
+  acknowledgeNote: text('acknowledge_note'),
+  escalatedAt: text('escalated_at'),
+  resolvedAt: text('resolved_at'),
+  resolvedBy: text('resolved_by').references(() => users.id, { onDelete: 'set null' }),
+  resolveNote: text('resolve_note'),
+  /** Set while status is not resolved, so the unique index allows one open alert per kind. */
+  openKey: text('open_key'),
+  ...timestamps,
+}, t => [
+  uniqueIndex('alerts_one_open_per_kind').on(t.openKey),
+  index('alerts_tank_idx').on(t.tankId),
+  index('alerts_org_status_idx').on(t.organisationId, t.status),
+])
+
+/** In-app notices for one user. */
+export const notifications = sqliteTable('notifications', {
+  id: id(),
+  userId: text('user_id').notNull().references(() => users.id, { onDelete: 'cascade' }),
+  organisationId: text('organisation_id').notNull().references(() => organisations.id, { onDelete: 'cascade' }),
+  kind: text('kind').notNull(),
+  title: text('title').notNull(),
+  body: text('body').notNull(),
+  link: text('link'),
+  alertId: text('alert_id').references(() => alerts.id, { onDelete: 'set null' }),
+  readAt: text('read_at'),
+  ...timestamps,
+}, t => [index('notifications_user_read_idx').on(t.userId, t.readAt)])
+
+/** Transactional outbox: e-mail rows written with the change that caused them, delivered by a worker. */
+export const mailOutbox = sqliteTable('mail_outbox', {
+  id: id(),
+  organisationId: text('organisation_id'),
+  toAddress: text('to_address').notNull(),
+  subject: text('subject').notNull(),
+  textBody: text('text_body').notNull(),
+  htmlBody: text('html_body'),
+  kind: text('kind').notNull(),
+  /** Stable id sent as Message-ID so a retried delivery can be recognised downstream. */
+  messageId: text('message_id').notNull(),
+  status: text('status', { enum: ['pending', 'sending', 'sent', 'failed'] }).notNull().default('pending'),
+  attempts: integer('attempts').notNull().default(0),
+  nextAttemptAt: text('next_attempt_at').notNull().$defaultFn(now),
+  lastError: text('last_error'),
+  sentAt: text('sent_at'),
+  ...timestamps,
+}, t => [index('mail_outbox_due_idx').on(t.status, t.nextAttemptAt), uniqueIndex('mail_outbox_message_id').on(t.messageId)])
+
+/** Single-use links: invitations and password resets. Only a hash of the token is stored. */
+export const authTokens = sqliteTable('auth_tokens', {
+  id: id(),
+  userId: text('user_id').notNull().references(() => users.id, { onDelete: 'cascade' }),
+  purpose: text('purpose', { enum: ['invite', 'reset'] }).notNull(),
+  tokenHash: text('token_hash').notNull(),
+  expiresAt: text('expires_at').notNull(),
+  usedAt: text('used_at'),
+  ...timestamps,
+}, t => [uniqueIndex('auth_tokens_hash').on(t.tokenHash)])
+
+/** Which notices reach a user by e-mail; danger alerts to the assigned aquarist always do. */
+export const notificationPreferences = sqliteTable('notification_preferences', {
+  userId: text('user_id').primaryKey().references(() => users.id, { onDelete: 'cascade' }),
+  emailKinds: text('email_kinds', { mode: 'json' }).$type<Record<string, boolean>>().notNull().default(sql`'{}'`),
+  ...timestamps,
+})
+
+/** A supervisor's decision on a tank's cycle, with the verdict it was made against. Never rewritten. */
+export const signOffs = sqliteTable('sign_offs', {
+  id: id(),
+  organisationId: text('organisation_id').notNull().references(() => organisations.id, { onDelete: 'cascade' }),
+  tankId: text('tank_id').notNull().references(() => tanks.id, { onDelete: 'cascade' }),
+  requestedBy: text('requested_by').references(() => users.id, { onDelete: 'set null' }),
+  requestedAt: text('requested_at').notNull(),
+  requestNote: text('request_note'),
+  status: text('status', { enum: ['requested', 'approved', 'returned', 'reopened'] }).notNull().default('requested'),
+  decidedBy: text('decided_by').references(() => users.id, { onDelete: 'set null' }),
+  decidedAt: text('decided_at'),
+  decisionNote: text('decision_note'),
+  /** True when approved against the engine's verdict; a written reason is then required. */
+  override: integer('override', { mode: 'boolean' }).notNull().default(false),
+  /** The engine input and output at decision time, so the verdict can be reproduced. */
+  snapshot: text('snapshot', { mode: 'json' }).$type<Record<string, unknown>>(),
+  ruleSetVersion: text('rule_set_version'),
+  verificationCode: text('verification_code'),
+  reopenedBy: text('reopened_by').references(() => users.id, { onDelete: 'set null' }),
+  reopenedAt: text('reopened_at'),
+  reopenReason: text('reopen_reason'),
+  ...timestamps,
+}, t => [index('sign_offs_tank_idx').on(t.tankId), uniqueIndex('sign_offs_verification').on(t.verificationCode)])
