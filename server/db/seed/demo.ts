@@ -6,6 +6,7 @@
 import { DEFAULT_PLAN_TEMPLATE } from '../../../shared/plan/default-template'
 import type { TidewrightDB } from '../connection'
 import { planStageRows } from '../plan-stages'
+import { computeAndStoreVerdict } from '../verdicts'
 import { clients, events, organisations, planStages, readings, sites, tanks, users } from '../schema'
 import { FISHLESS_CURVE, FISH_IN_CURVE, simulateHistory } from './histories'
 import { hashPasswordOffline } from './password'
@@ -128,6 +129,8 @@ export async function seedDemo(db: TidewrightDB, now = new Date()): Promise<Demo
       { tankId: study, at: at(studyStart, 0, 12), kind: 'livestock-added', amount: 3, group: 'fish', notes: 'Three hardy damselfish', enteredBy: ids.aquarist2 },
       { tankId: study, at: at(studyStart, 7, 19), kind: 'note', notes: 'Client fed heavily over the weekend', enteredBy: ids.client3 },
     ]).run()
+
+    for (const tankId of [lobby, lounge, nano, study]) computeAndStoreVerdict(tx as unknown as TidewrightDB, tankId, now)
 
     return {
       organisationId: orgId,
