@@ -1,0 +1,22 @@
+import type { Role } from '#shared/types/roles'
+
+export interface NavLink {
+  to: string
+  label: string
+  roles: readonly Role[]
+}
+
+const EVERYONE: readonly Role[] = ['admin', 'aquarist', 'supervisor', 'client']
+const STAFF: readonly Role[] = ['admin', 'aquarist', 'supervisor']
+
+/** The main navigation, one line per destination; each feature adds its own line. */
+export const NAV_LINKS: readonly NavLink[] = [
+  { to: '/', label: 'Tanks', roles: EVERYONE },
+]
+
+/** The links a role sees, with the client's wording for their own tanks. */
+export function navLinksFor(role: Role | undefined): NavLink[] {
+  if (!role) return []
+  return NAV_LINKS.filter(link => link.roles.includes(role))
+    .map(link => (link.to === '/' && role === 'client' ? { ...link, label: 'My tanks' } : link))
+}
