@@ -237,6 +237,18 @@ function flagFor(field: (typeof MEASURED_FIELDS)[number], value: number): EntryF
   return null
 }
 
+/** The alarm flags of stored canonical values (e.g. for the history table). */
+export function flagsForValues(values: CanonicalValues): EntryFlag[] {
+  const flags: EntryFlag[] = []
+  for (const field of MEASURED_FIELDS) {
+    const value = values[field]
+    if (value === null) continue
+    const flag = flagFor(field, value)
+    if (flag) flags.push(flag)
+  }
+  return flags
+}
+
 /**
  * Converts one entry to canonical values, or lists a message per field for values that
  * cannot be real. Alarming but possible values come back as `flags`.
