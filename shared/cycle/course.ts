@@ -68,7 +68,7 @@ export interface Course {
   /** First test with ammonia at zero after ammonia had been above zero. */
   readonly ammoniaFallen: TimedReading | null
   readonly doses: readonly DoseOutcome[]
-  /** Doses whose window is still open at `now`. */
+  /** Undiluted doses whose window is still open at `now`. */
   readonly openDoses: readonly DoseOutcome[]
   readonly restarts: readonly RunRestart[]
   readonly latestNitrate: TimedReading | null
@@ -224,7 +224,8 @@ class CourseScan {
   }
 
   result(nowMs: number): Course {
-    const open = this.pending.filter((dose) => nowMs <= dose.t + this.s.windowMs)
+    // A diluted dose can no longer prove anything, so it is not a test under way.
+    const open = this.pending.filter((dose) => !dose.diluted && nowMs <= dose.t + this.s.windowMs)
     const run = this.run
     return {
       completion: run?.completion ?? null,

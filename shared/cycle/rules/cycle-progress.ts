@@ -34,9 +34,13 @@ function ammoniaStage(ctx: RuleContext): RuleResult {
     const since = ctx.sourceT === null ? '' : ` since ${formatWhen(ctx.sourceT)}`
     return report('info', `The ammonia source is in${since}, but ammonia has not been tested since. Test ammonia and nitrite now.`, [])
   }
+  // Ammonia back after it had fallen is a new load outrunning bacteria that exist, not bacteria still to grow.
+  const why = ctx.course.ammoniaFallen !== null && ctx.course.ammoniaFallen.t < test.t
+    ? 'is back up after it had fallen: the bacteria have not caught up with the load'
+    : 'has not started to fall: the first bacteria are still growing'
   return report(
     'info',
-    `Ammonia is ${mgN(test.ammoniaN ?? 0)} (test of ${formatWhen(test.t)}) and has not started to fall: the first bacteria are still growing. Keep testing ammonia and nitrite every day.`,
+    `Ammonia is ${mgN(test.ammoniaN ?? 0)} (test of ${formatWhen(test.t)}) and ${why}. Keep testing ammonia and nitrite every day.`,
     [test],
   )
 }
@@ -60,7 +64,7 @@ function settlingStage(ctx: RuleContext): RuleResult {
   const span = run.last.t - run.first.t
   return report(
     'info',
-    `Ammonia and nitrite read zero: ${run.zeroTests} zero test(s) over ${formatDuration(span)} since ${formatWhen(run.first.t)}; the cycle needs at least ${th.stableMinTests} over ${th.stableSpanHours} h, with nitrate present and the proof described below.`,
+    `Ammonia and nitrite read zero: ${run.zeroTests} zero test(s) over ${formatDuration(span)} since ${formatWhen(run.first.t)}; the cycle needs at least ${th.stableMinTests} over ${th.stableSpanHours} h, with nitrate present and proof that the tank processes ammonia.`,
     [run.first, run.last],
   )
 }
