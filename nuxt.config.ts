@@ -60,5 +60,7 @@ export default defineNuxtConfig({
     // honest notes that contain angle brackets.
     xssValidator: false,
   },
+  // main.css carries the @tailwind layers; the module must not inject a second copy.
+  tailwindcss: { cssPath: false },
   typescript: { strict: true, typeCheck: false },
 })
