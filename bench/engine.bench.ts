@@ -29,7 +29,7 @@ export interface BenchRow {
 }
 
 /** A textbook-shaped course (mg/L as N) shifted per tank, so the fleet is not one tank repeated. */
-function course(day: number, shift: number): { ammoniaN: number; nitriteN: number; nitrateN: number } {
+function course(day: number, shift: number): { ammoniaN: number, nitriteN: number, nitrateN: number } {
   const d = day - shift
   const ammoniaN = d < 0 ? 0 : d < 10 ? 1.6 * (1 - d / 10) : 0
   const nitriteN = d > 4 && d < 22 ? 1.5 * Math.max(0, 1 - Math.abs(d - 13) / 9) : 0
@@ -111,7 +111,8 @@ function withTempDb<T>(name: string, body: (db: Db) => T): T {
   const db = createDb(path)
   try {
     return body(db)
-  } finally {
+  }
+  finally {
     db.close()
     for (const suffix of ['', '-wal', '-shm']) rmSync(path + suffix, { force: true })
   }
@@ -181,7 +182,7 @@ export async function runEngineBench(): Promise<BenchRow[]> {
 }
 
 function printTable(rows: readonly BenchRow[]): void {
-  const width = Math.max(...rows.map((r) => r.name.length))
+  const width = Math.max(...rows.map(r => r.name.length))
   for (const r of rows) {
     const value = r.unit === 'ratio' ? r.value.toFixed(2) : r.value >= 100 ? r.value.toFixed(0) : r.value.toFixed(1)
     console.log(`${r.name.padEnd(width)}  ${value.padStart(10)} ${r.unit}`)

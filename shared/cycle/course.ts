@@ -44,9 +44,9 @@ export interface Completion {
 }
 
 /** Why the count of zero tests restarted. */
-export type RunRestart =
-  | { readonly reason: 'gap'; readonly from: TimedReading; readonly to: TimedReading; readonly beforeCompletion: true }
-  | { readonly reason: 'water-change'; readonly event: CycleEvent; readonly t: number; readonly beforeCompletion: true }
+export type RunRestart
+  = | { readonly reason: 'gap', readonly from: TimedReading, readonly to: TimedReading, readonly beforeCompletion: true }
+    | { readonly reason: 'water-change', readonly event: CycleEvent, readonly t: number, readonly beforeCompletion: true }
 
 /** The current run of consecutive zero tests. */
 export interface ZeroRun {
@@ -122,7 +122,8 @@ class CourseScan {
       const dose: MutableDose = { event, t, clearedBy: null, diluted: false, lastInWindow: null }
       this.pending.push(dose)
       this.doses.push(dose)
-    } else if (event.kind === 'water-change') {
+    }
+    else if (event.kind === 'water-change') {
       for (const dose of this.pending) dose.diluted = true
       if (!this.completed) {
         this.run = null
@@ -225,7 +226,7 @@ class CourseScan {
 
   result(nowMs: number): Course {
     // A diluted dose can no longer prove anything, so it is not a test under way.
-    const open = this.pending.filter((dose) => !dose.diluted && nowMs <= dose.t + this.s.windowMs)
+    const open = this.pending.filter(dose => !dose.diluted && nowMs <= dose.t + this.s.windowMs)
     const run = this.run
     return {
       completion: run?.completion ?? null,
@@ -243,7 +244,7 @@ class CourseScan {
 
 /** Follows the cycle through the ordered history. Events at the same instant as a test come first. */
 export function traceCourse(history: History, thresholds: Thresholds, method: CycleMethod, nowMs: number): Course {
-  const livestock = history.events.find((e) => e.event.kind === 'livestock-added')
+  const livestock = history.events.find(e => e.event.kind === 'livestock-added')
   const scan = new CourseScan({
     thresholds,
     method,

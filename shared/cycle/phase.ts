@@ -20,7 +20,7 @@ export function firstSourceTime(history: History, tank: CycleTank, startedMs: nu
     }
   }
   // Ammonia nobody logged (rock, food, tap water) still feeds the bacteria.
-  const shown = history.readings.find((r) => (r.ammoniaN ?? 0) > thresholds.ammoniaZeroN || (r.nitriteN ?? 0) > thresholds.nitriteZeroN)
+  const shown = history.readings.find(r => (r.ammoniaN ?? 0) > thresholds.ammoniaZeroN || (r.nitriteN ?? 0) > thresholds.nitriteZeroN)
   if (shown) first = Math.min(first, shown.t)
   return Number.isFinite(first) ? first : null
 }

@@ -55,7 +55,7 @@ function retestAfterAdding(ctx: RuleContext): RuleResult {
   const added = lastLivestock(ctx)
   if (added === undefined) return NOTHING
   const th = ctx.thresholds
-  const tested = ctx.history.readings.some((r) => r.t > added.t && r.ammoniaN !== undefined)
+  const tested = ctx.history.readings.some(r => r.t > added.t && r.ammoniaN !== undefined)
   if (tested || ctx.nowMs > added.t + th.livestockWatchDays * DAY_MS) return NOTHING
   const dueBy = added.t + th.retestHours * HOUR_MS
   return report(

@@ -54,7 +54,7 @@ function round(value: number): number {
   return Math.round(value * 100) / 100
 }
 
-function curve(k: HistoryKnobs, day: number): { ammoniaN: number; nitriteN: number; nitrateN: number } {
+function curve(k: HistoryKnobs, day: number): { ammoniaN: number, nitriteN: number, nitrateN: number } {
   const ammoniaN = day < k.ammoniaEnd ? k.peakA * (1 - day / k.ammoniaEnd) : 0
   const nitriteStart = k.ammoniaEnd / 2
   const nitriteEnd = k.ammoniaEnd + k.nitriteLag

@@ -18,20 +18,20 @@ describe('evaluateCycle input handling', () => {
     const input = textbookFishless().input(22)
     const v = evaluateCycle({ ...input, readings: [...input.readings, { id: 'bad', takenAt: 'not a date', ammoniaN: 3, nitriteN: 3 }] })
     expect(v.phase).toBe('complete')
-    expect(v.findings.find((f) => f.ruleId === 'input.ignored')?.message).toMatch(/bad/)
+    expect(v.findings.find(f => f.ruleId === 'input.ignored')?.message).toMatch(/bad/)
   })
 
   it('drops a negative value but keeps the rest of the test', () => {
     const input = textbookFishless().input(22)
-    const readings = input.readings.map((r) => (r.id === 'r022-09' ? { ...r, nitrateN: -1 } : r))
+    const readings = input.readings.map(r => (r.id === 'r022-09' ? { ...r, nitrateN: -1 } : r))
     const v = evaluateCycle({ ...input, readings })
     expect(v.phase).toBe('complete')
-    expect(v.findings.find((f) => f.ruleId === 'input.ignored')?.readingIds).toEqual(['r022-09'])
+    expect(v.findings.find(f => f.ruleId === 'input.ignored')?.readingIds).toEqual(['r022-09'])
   })
 
   it('judges as of now: later tests change nothing, so an old verdict can be reproduced', () => {
     const full = textbookFishless().input(10)
-    const upToNow = { ...full, readings: full.readings.filter((r) => Date.parse(r.takenAt) <= Date.parse(full.now)) }
+    const upToNow = { ...full, readings: full.readings.filter(r => Date.parse(r.takenAt) <= Date.parse(full.now)) }
     expect(upToNow.readings.length).toBeLessThan(full.readings.length)
     expect(evaluateCycle(full)).toEqual(evaluateCycle(upToNow))
   })
@@ -67,7 +67,7 @@ describe('free ammonia conditions', () => {
     const v = evaluateCycle(log.input(1, 10))
     // Emerson (1975) + Khoo (1977) via the chemistry library, against EPA (1989) acute 0.233 mg/L NH3.
     expect(freeAmmonia(2.5, { pH: 8.3, temperatureC: 27, salinity: 34 })).toBeGreaterThan(DEFAULT_THRESHOLDS.freeAmmoniaAcuteN)
-    const free = v.findings.find((f) => f.ruleId.startsWith('ammonia.free-'))
+    const free = v.findings.find(f => f.ruleId.startsWith('ammonia.free-'))
     expect(free?.ruleId).toBe('ammonia.free-acute')
     expect(free?.readingIds).toEqual(['r001-07', 'kit'])
     expect(free?.message).toMatch(/pH 8.3, 27 C, salinity 34/)
@@ -88,7 +88,7 @@ describe('free ammonia conditions', () => {
 
   it('ignores free ammonia in a fishless tank: nothing is there to harm', () => {
     const v = evaluateCycle(textbookFishless().input(2))
-    expect(ruleIds(v).filter((id) => id.startsWith('ammonia.'))).toEqual([])
+    expect(ruleIds(v).filter(id => id.startsWith('ammonia.'))).toEqual([])
   })
 })
 
@@ -122,14 +122,14 @@ describe('mergeActions', () => {
       { kind: 'water-change', message: 'large', waterChangePercent: 45 },
       { kind: 'retest', message: 'a', dueBy: at(2) },
     ])
-    expect(merged.map((a) => a.message)).toEqual(['large', 'a', 'check'])
+    expect(merged.map(a => a.message)).toEqual(['large', 'a', 'check'])
   })
 
   it('merges the ammonia and nitrite water changes of one verdict into one', () => {
     const log = fishInWithSpike()
     log.readings.push({ id: 'both', takenAt: at(12, 10), ammoniaN: 0.5, nitriteN: 2.4, pH: 8.1, temperatureC: 25, salinity: 34 })
     const v = evaluateCycle(log.input(12, 11))
-    const changes = v.actions.filter((a) => a.kind === 'water-change')
+    const changes = v.actions.filter(a => a.kind === 'water-change')
     expect(changes).toHaveLength(1)
     // Nitrite 2.4 down to 0.8 x 1.0 needs two thirds of the water: more than the ammonia needs.
     expect(changes[0]?.waterChangePercent).toBeCloseTo((100 * (2.4 - 0.8 * DEFAULT_THRESHOLDS.nitriteHighWithAnimalsN)) / 2.4, 6)

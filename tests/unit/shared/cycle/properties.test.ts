@@ -12,7 +12,7 @@ const RUNS = { seed: 20261201, numRuns: 300 }
 function latestWith(input: CycleInput, key: 'ammoniaN' | 'nitriteN'): CycleReading | undefined {
   const now = Date.parse(input.now)
   return input.readings
-    .filter((r) => r[key] !== undefined && Date.parse(r.takenAt) <= now)
+    .filter(r => r[key] !== undefined && Date.parse(r.takenAt) <= now)
     .sort((a, b) => Date.parse(a.takenAt) - Date.parse(b.takenAt) || (a.id < b.id ? -1 : a.id > b.id ? 1 : 0))
     .at(-1)
 }
@@ -61,7 +61,7 @@ describe('cycle engine properties', () => {
   it('never completes a tank whose tests never rose', () => {
     fc.assert(fc.property(historyArb, (knobs) => {
       const input = toInput(knobs)
-      const flat = { ...input, readings: input.readings.map((r) => ({ ...r, ...(r.ammoniaN === undefined ? {} : { ammoniaN: Math.min(r.ammoniaN, 0.05) }), ...(r.nitriteN === undefined ? {} : { nitriteN: Math.min(r.nitriteN, 0.05) }) })) }
+      const flat = { ...input, readings: input.readings.map(r => ({ ...r, ...(r.ammoniaN === undefined ? {} : { ammoniaN: Math.min(r.ammoniaN, 0.05) }), ...(r.nitriteN === undefined ? {} : { nitriteN: Math.min(r.nitriteN, 0.05) }) })) }
       expect(evaluateCycle(flat).phase).not.toBe('complete')
     }), RUNS)
   })
@@ -124,10 +124,10 @@ describe('cycle engine properties', () => {
   })
 
   it('only reports rules the registry lists, each finding naming the readings it rests on', () => {
-    const ids = new Set(RULES.map((r) => r.id))
+    const ids = new Set(RULES.map(r => r.id))
     fc.assert(fc.property(historyArb, (knobs) => {
       const input = toInput(knobs)
-      const readingIds = new Set(input.readings.map((r) => r.id))
+      const readingIds = new Set(input.readings.map(r => r.id))
       for (const f of evaluateCycle(input).findings) {
         expect(ids.has(f.ruleId)).toBe(true)
         for (const id of f.readingIds) expect(readingIds.has(id)).toBe(true)

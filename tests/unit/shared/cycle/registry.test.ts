@@ -4,7 +4,7 @@ import { COMMON_PRACTICE } from '../../../../shared/cycle/rules/rule'
 
 describe('rule registry', () => {
   it('lists every rule once, with a description and a source', () => {
-    const ids = RULES.map((r) => r.id)
+    const ids = RULES.map(r => r.id)
     expect(new Set(ids).size).toBe(ids.length)
     expect(RULES).toHaveLength(FINDING_RULES.length + READINESS_RULES.length)
     for (const rule of RULES) {

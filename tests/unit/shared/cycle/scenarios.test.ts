@@ -27,12 +27,12 @@ describe('textbook fishless cycle', () => {
     const settled = evaluateCycle(log.input(19))
     expect(settled.completedOn).toBeNull()
     expect(ruleIds(settled)).toContain('cycle.clearance-test')
-    const clearance = settled.actions.find((a) => a.kind === 'clearance-test')
+    const clearance = settled.actions.find(a => a.kind === 'clearance-test')
     expect(clearance?.dueBy).toBe(at(20, 12))
     const underWay = evaluateCycle(log.input(20, 15))
     expect(underWay.phase).toBe('settling')
-    expect(underWay.findings.find((f) => f.ruleId === 'cycle.clearance-test')?.message).toMatch(/under way/)
-    expect(underWay.actions.find((a) => a.kind === 'retest')?.dueBy).toBe(at(21, 10))
+    expect(underWay.findings.find(f => f.ruleId === 'cycle.clearance-test')?.message).toMatch(/under way/)
+    expect(underWay.actions.find(a => a.kind === 'retest')?.dueBy).toBe(at(21, 10))
   })
 
   it('is complete on the test that cleared the day-20 dose', () => {
@@ -40,7 +40,7 @@ describe('textbook fishless cycle', () => {
     expect(v.phase).toBe('complete')
     expect(v.completedOn).toBe(at(21))
     expect(ruleIds(v)).toContain('cycle.complete')
-    expect(v.findings.find((f) => f.ruleId === 'cycle.complete')?.readingIds).toEqual(['r018-09', 'r021-09'])
+    expect(v.findings.find(f => f.ruleId === 'cycle.complete')?.readingIds).toEqual(['r018-09', 'r021-09'])
     expect(v.ruleSetVersion).toBe(RULE_SET_VERSION)
   })
 
@@ -84,15 +84,15 @@ describe('fish-in cycle with a spike', () => {
   it('calls the day-5 spike a danger and sizes the water change with the dilution calculator', () => {
     const v = evaluateCycle(log.input(5, 10))
     expect(v.phase).toBe('ammonia')
-    const danger = v.findings.find((f) => f.ruleId === 'ammonia.action-threshold')
+    const danger = v.findings.find(f => f.ruleId === 'ammonia.action-threshold')
     expect(danger?.severity).toBe('danger')
     expect(danger?.readingIds).toEqual(['r005-09'])
-    const change = v.actions.find((a) => a.kind === 'water-change')
+    const change = v.actions.find(a => a.kind === 'water-change')
     const target = T.waterChangeTargetFraction * T.ammoniaActionN
     expect(change?.waterChangePercent).toBeCloseTo(waterChangePercentToReach({ current: 0.6, target }), 10)
     // Independent check: after that change total ammonia is under the 0.5 ppm-as-NH3 action level.
     expect(0.6 * (1 - (change?.waterChangePercent ?? 0) / 100)).toBeLessThan(T.ammoniaActionN)
-    expect(v.actions.find((a) => a.kind === 'retest')?.dueBy).toBe(at(5, 22))
+    expect(v.actions.find(a => a.kind === 'retest')?.dueBy).toBe(at(5, 22))
   })
 
   it('grades free ammonia against the EPA saltwater criteria', () => {
@@ -117,7 +117,7 @@ describe('fish-in cycle with a spike', () => {
     const v = evaluateCycle(log.input(12))
     expect(v.phase).toBe('nitrite')
     expect(ruleIds(v)).toContain('nitrite.high-with-animals')
-    expect(v.actions.find((a) => a.kind === 'water-change')?.waterChangePercent).toBeGreaterThan(0)
+    expect(v.actions.find(a => a.kind === 'water-change')?.waterChangePercent).toBeGreaterThan(0)
   })
 
   it('completes on the third zero test, without a clearance dose', () => {
@@ -140,10 +140,10 @@ describe('stalled cycle', () => {
     const v = evaluateCycle(nitriteStall(30).input(30))
     expect(v.phase).toBe('nitrite')
     expect(v.completedOn).toBeNull()
-    const stall = v.findings.find((f) => f.ruleId === 'cycle.stalled')
+    const stall = v.findings.find(f => f.ruleId === 'cycle.stalled')
     expect(stall?.severity).toBe('caution')
     expect(stall?.message).toMatch(/Nitrite has stayed above/)
-    expect(v.actions.find((a) => a.kind === 'check-stall')?.message).toMatch(/pH/)
+    expect(v.actions.find(a => a.kind === 'check-stall')?.message).toMatch(/pH/)
     expect(v.readiness.fish.allowed).toBe(false)
   })
 })
@@ -155,7 +155,7 @@ describe('all zeros because nothing was ever fed', () => {
     expect(v.completedOn).toBeNull()
     expect(ruleIds(v)).toEqual(['cycle.not-started'])
     expect(v.findings[0]?.readingIds).toHaveLength(14)
-    expect(v.actions.map((a) => a.kind)).toEqual(['start-cycle'])
+    expect(v.actions.map(a => a.kind)).toEqual(['start-cycle'])
     for (const group of Object.values(v.readiness)) expect(group.allowed).toBe(false)
   })
 
@@ -183,7 +183,7 @@ describe('a missing week of tests', () => {
     expect(v.phase).toBe('complete')
     // Without the gap rule the day-24 test would have completed it.
     expect(v.completedOn).toBe(at(25))
-    expect(v.findings.find((f) => f.ruleId === 'testing.gap')?.readingIds).toEqual(['r015-09', 'r023-09'])
+    expect(v.findings.find(f => f.ruleId === 'testing.gap')?.readingIds).toEqual(['r015-09', 'r023-09'])
     const lenient = evaluateCycle(log.input(25, 12, { zeroRunMaxGapHours: 240 }))
     expect(lenient.completedOn).toBe(at(24))
     expect(ruleIds(lenient)).not.toContain('testing.gap')
@@ -198,7 +198,7 @@ describe('a water change mid-cycle', () => {
     expect(v.phase).toBe('settling')
     expect(v.completedOn).toBeNull()
     expect(ruleIds(v)).toEqual(expect.arrayContaining(['water-change.dilution', 'cycle.clearance-failed']))
-    expect(v.findings.find((f) => f.ruleId === 'cycle.clearance-failed')?.message).toMatch(/water change/)
+    expect(v.findings.find(f => f.ruleId === 'cycle.clearance-failed')?.message).toMatch(/water change/)
   })
 
   it('completes on the test that cleared the second dose', () => {
@@ -225,7 +225,7 @@ describe('a crash after livestock', () => {
     const v = evaluateCycle(log.input(22, 16))
     expect(v.phase).toBe('complete')
     expect(ruleIds(v)).toContain('livestock.retest')
-    expect(v.actions.find((a) => a.kind === 'retest')?.dueBy).toBe(at(23, 14))
+    expect(v.actions.find(a => a.kind === 'retest')?.dueBy).toBe(at(23, 14))
   })
 
   it('is complete again after three zero tests, with no clearance dose asked of a stocked tank', () => {
