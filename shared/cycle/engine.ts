@@ -36,7 +36,7 @@ function buildContext(input: CycleInput): RuleContext {
   const history = buildHistory(input.readings, input.events ?? [], nowMs)
   const course = traceCourse(history, thresholds, input.tank.cycleMethod, nowMs)
   const latest = latestValues(history.readings)
-  const sourceT = firstSourceTime(history, input.tank, startedMs, thresholds)
+  const sourceT = firstSourceTime(history, input.tank, startedMs, thresholds, nowMs)
   const phase = decidePhase({ history, course, latest, thresholds, sourceT })
   const livestock = history.events.filter(e => e.event.kind === 'livestock-added')
   return { tank: input.tank, startedMs, nowMs, thresholds, history, course, phase, latest, sourceT, livestock }

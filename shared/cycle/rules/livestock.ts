@@ -10,7 +10,7 @@ import type { TimedEvent, TimedReading } from '../history'
 import { COMMON_PRACTICE, NOTHING, report, type CycleRule, type RuleResult } from './rule'
 
 function fishPresent(ctx: RuleContext): RuleResult {
-  if (ctx.tank.cycleMethod !== 'fish-in' || ctx.phase === 'complete') return NOTHING
+  if (ctx.tank.cycleMethod !== 'fish-in' || ctx.phase === 'complete' || ctx.startedMs > ctx.nowMs) return NOTHING
   return report(
     'info',
     `Fish are already in this tank (fish-in cycle, since ${formatWhen(ctx.startedMs)}). Feed lightly, test ammonia every day, and add no more livestock until the cycle is complete.`,

@@ -50,7 +50,7 @@ function cycleComplete(ctx: ReadinessContext): readonly string[] {
 }
 
 function fishAlreadyIn(ctx: ReadinessContext, group: LivestockGroup): readonly string[] {
-  if (group !== 'fish' || ctx.tank.cycleMethod !== 'fish-in' || ctx.phase === 'complete') return []
+  if (group !== 'fish' || ctx.tank.cycleMethod !== 'fish-in' || ctx.phase === 'complete' || ctx.startedMs > ctx.nowMs) return []
   return ['Fish are already in the tank from the fish-in cycle; add no more until the cycle is complete.']
 }
 

@@ -38,6 +38,8 @@ describe('evaluateCycle input handling', () => {
 
   it('has a fish-in tank cycling from its start, and overdue for a test after 36 h without one', () => {
     const log = new TankLog('fish-in')
+    // The tank starts on day 0 at 08:00; an hour before, nothing is in it yet.
+    expect(evaluateCycle(log.input(0, 7)).phase).toBe('not-started')
     expect(evaluateCycle(log.input(1, 6)).phase).toBe('ammonia')
     expect(ruleIds(evaluateCycle(log.input(1, 6)))).not.toContain('testing.overdue')
     expect(ruleIds(evaluateCycle(log.input(2, 8)))).toContain('testing.overdue')

@@ -3,8 +3,9 @@ import { describe, expect, it } from 'vitest'
 import { evaluateCycle } from '../../../../shared/cycle/engine'
 import { RULES } from '../../../../shared/cycle/registry'
 import { DEFAULT_THRESHOLDS } from '../../../../shared/cycle/thresholds'
-import type { CycleInput, CycleReading, Thresholds, Verdict } from '../../../../shared/cycle/types'
+import { LIVESTOCK_GROUPS, type CycleInput, type CycleReading, type Thresholds, type Verdict } from '../../../../shared/cycle/types'
 import { historyArb, shuffled, toInput } from './arbitraries'
+import { at } from './tank-log'
 
 const RUNS = { seed: 20261201, numRuns: 300 }
 
@@ -121,6 +122,33 @@ describe('cycle engine properties', () => {
       if (stricter.completedOn !== null) strictCompletions += 1
     }), RUNS)
     expect(strictCompletions).toBeGreaterThan(5)
+  })
+
+  it('never throws on odd input, and always answers for every group', () => {
+    const value = fc.option(fc.oneof(fc.double({ min: -5, max: 60 }), fc.constantFrom(Number.NaN, Infinity, 0, 1e6)), { nil: undefined })
+    const when = fc.oneof(fc.integer({ min: -5, max: 80 }).map(d => at(d, d % 24 < 0 ? 0 : d % 24)), fc.constantFrom('', 'garbage', '2026-13-45'))
+    const readingArb = fc.record({
+      id: fc.string({ maxLength: 4 }), takenAt: when, ammoniaN: value, nitriteN: value, nitrateN: value,
+      pH: value, temperatureC: value, salinity: value, alkalinityDkh: value, calciumMgL: value, magnesiumMgL: value,
+    })
+    const eventArb = fc.record({
+      id: fc.string({ maxLength: 4 }),
+      at: when,
+      kind: fc.constantFrom('ammonia-dose' as const, 'bacteria-dose' as const, 'water-change' as const, 'livestock-added' as const, 'note' as const),
+      amount: value,
+      group: fc.option(fc.constantFrom(...LIVESTOCK_GROUPS), { nil: undefined }),
+    })
+    fc.assert(fc.property(
+      fc.array(readingArb, { maxLength: 40 }), fc.array(eventArb, { maxLength: 6 }), fc.constantFrom('fishless' as const, 'fish-in' as const), fc.integer({ min: 0, max: 90 }),
+      (readings, events, cycleMethod, nowDay) => {
+        const v = evaluateCycle({ tank: { volumeLitres: 300, cycleMethod, startedAt: at(0, 8) }, readings, events, now: at(nowDay) })
+        expect(Object.keys(v.readiness).sort()).toEqual([...LIVESTOCK_GROUPS].sort())
+        for (const action of v.actions) {
+          if (action.waterChangePercent !== undefined) expect(action.waterChangePercent).toBeGreaterThanOrEqual(0)
+          if (action.waterChangePercent !== undefined) expect(action.waterChangePercent).toBeLessThanOrEqual(100)
+        }
+      },
+    ), RUNS)
   })
 
   it('only reports rules the registry lists, each finding naming the readings it rests on', () => {
