@@ -5,7 +5,7 @@
 
 import { latestNitrogen } from '../snapshot'
 import { formatDuration, formatWhen, HOUR_MS, toIso } from '../time'
-import { mgN } from '../words'
+import { mgN, mgNWithIon } from '../words'
 import type { RuleContext } from '../context'
 import { COMMON_PRACTICE, NOTHING, report, type CycleRule, type RuleResult } from './rule'
 
@@ -21,7 +21,7 @@ function notStarted(ctx: RuleContext): RuleResult {
     tests,
     [{
       kind: 'start-cycle',
-      message: `Dose ammonia to about ${mgN(ctx.thresholds.clearanceDoseN)} (about 2 ppm on a kit that reads as NH3), add bottled nitrifying bacteria, and log both; then test ammonia and nitrite every day.`,
+      message: `Dose ammonia to about ${mgNWithIon(ctx.thresholds.clearanceDoseN, 'NH3')}, add bottled nitrifying bacteria, and log both; then test ammonia and nitrite every day.`,
       dueBy: toIso(ctx.nowMs),
     }],
   )

@@ -5,7 +5,7 @@
 
 import { animalsInAt, type RuleContext } from '../context'
 import { formatWhen, HOUR_MS, toIso } from '../time'
-import { mgN } from '../words'
+import { mgN, mgNWithIon } from '../words'
 import type { DoseOutcome } from '../course'
 import { COMMON_PRACTICE, NOTHING, report, type CycleRule, type RuleResult } from './rule'
 
@@ -14,7 +14,7 @@ function needsClearance(ctx: RuleContext): boolean {
 }
 
 function doseWords(ctx: RuleContext): string {
-  return `about ${mgN(ctx.thresholds.clearanceDoseN)} (about 2 ppm on a kit that reads as NH3)`
+  return `about ${mgNWithIon(ctx.thresholds.clearanceDoseN, 'NH3')}`
 }
 
 function unproven(ctx: RuleContext): RuleResult {
