@@ -9,6 +9,11 @@ import { crashAfterLivestock, fishInWithSpike, missingWeek, neverFed, nitriteSta
 
 const T = DEFAULT_THRESHOLDS
 
+// Check values below that come from trade practice (common practice, no published source):
+// zero = 0.05 mg/L as N on hobby kits, three zero tests over 48 h, nitrate present above 0.5 mg/L as N,
+// a clearance dose cleared within about a day (30 h), 36 h between tests while cycling, a stall after
+// 14 days of high flat nitrite, stony corals about 30 days after completion (reference.md section 9).
+
 describe('textbook fishless cycle', () => {
   const log = textbookFishless()
 
@@ -174,8 +179,11 @@ describe('a missing week of tests', () => {
 
   it('warns while the tests are missing', () => {
     const v = evaluateCycle(log.input(20))
+    expect(v.phase).toBe('settling')
+    expect(v.completedOn).toBeNull()
     expect(ruleIds(v)).toContain('testing.overdue')
     expect(v.actions[0]?.kind).toBe('test-now')
+    expect(v.readiness.fish.allowed).toBe(false)
   })
 
   it('restarts the count of zero tests after the gap and says so', () => {
@@ -183,6 +191,8 @@ describe('a missing week of tests', () => {
     expect(v.phase).toBe('complete')
     // Without the gap rule the day-24 test would have completed it.
     expect(v.completedOn).toBe(at(25))
+    expect(v.readiness.fish).toEqual({ allowed: true, earliest: at(25), blockers: [] })
+    expect(v.readiness['lps-coral'].earliest).toBe(at(55))
     expect(v.findings.find(f => f.ruleId === 'testing.gap')?.readingIds).toEqual(['r015-09', 'r023-09'])
     const lenient = evaluateCycle(log.input(25, 12, { zeroRunMaxGapHours: 240 }))
     expect(lenient.completedOn).toBe(at(24))
@@ -199,12 +209,16 @@ describe('a water change mid-cycle', () => {
     expect(v.completedOn).toBeNull()
     expect(ruleIds(v)).toEqual(expect.arrayContaining(['water-change.dilution', 'cycle.clearance-failed']))
     expect(v.findings.find(f => f.ruleId === 'cycle.clearance-failed')?.message).toMatch(/water change/)
+    expect(v.readiness.fish.allowed).toBe(false)
+    expect(v.readiness.fish.blockers).toEqual(['Not yet: ammonia and nitrite read low, but the cycle is not yet proven.'])
   })
 
   it('completes on the test that cleared the second dose', () => {
     const v = evaluateCycle(log.input(19))
     expect(v.phase).toBe('complete')
     expect(v.completedOn).toBe(at(19))
+    expect(v.findings.find(f => f.ruleId === 'cycle.complete')?.message).toMatch(/dose of 2026-03-20 10:00 UTC was cleared/)
+    expect(v.readiness.invertebrates).toEqual({ allowed: true, earliest: at(19), blockers: [] })
   })
 })
 
