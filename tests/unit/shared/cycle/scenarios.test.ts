@@ -5,7 +5,7 @@ import { evaluateCycle } from '../../../../shared/cycle/engine'
 import { DEFAULT_THRESHOLDS } from '../../../../shared/cycle/thresholds'
 import { RULE_SET_VERSION } from '../../../../shared/cycle/registry'
 import { at, ruleIds, STEADY_WATER } from './tank-log'
-import { crashAfterLivestock, fishInWithSpike, missingWeek, neverFed, nitriteStall, textbookFishless, waterChangeMidCycle } from './scenarios'
+import { crashAfterLivestock, DOSE_2PPM_N, fishInWithSpike, missingWeek, neverFed, nitriteStall, textbookFishless, waterChangeMidCycle } from './scenarios'
 
 const T = DEFAULT_THRESHOLDS
 
@@ -80,6 +80,43 @@ describe('textbook fishless cycle', () => {
     expect(v.readiness.fish.allowed).toBe(true)
     expect(v.readiness['lps-coral'].allowed).toBe(false)
     expect(v.readiness['lps-coral'].blockers.join(' ')).toMatch(/ranged 33.2-34.9/)
+  })
+})
+
+describe('clearance tests', () => {
+  /** The textbook tank up to its day-20 morning test, before the clearance dose. */
+  function beforeClearance() {
+    const log = textbookFishless()
+    log.readings.splice(log.readings.findIndex(r => r.id === 'r021-09'))
+    return log
+  }
+
+  it('accepts a test that shows the dose mid-way, once the next one reads zero in time', () => {
+    const log = beforeClearance()
+      .test(20, { ammoniaN: 1.6, nitriteN: 0, nitrateN: 1.9 }, 12)
+      .test(21, { ammoniaN: 0, nitriteN: 0, nitrateN: 3.2 })
+    const during = evaluateCycle(log.input(20, 13))
+    expect(during.phase).toBe('settling')
+    expect(during.completedOn).toBeNull()
+    const v = evaluateCycle(log.input(21, 12))
+    expect(v.phase).toBe('complete')
+    expect(v.completedOn).toBe(at(21))
+  })
+
+  it('does not accept a dose still showing after 30 h, and asks for another', () => {
+    const log = beforeClearance()
+      .test(21, { ammoniaN: 0.4, nitriteN: 0.2, nitrateN: 2.3 })
+      .test(22, { ammoniaN: 0, nitriteN: 0, nitrateN: 3.1 })
+    const failed = evaluateCycle(log.input(22))
+    expect(failed.phase).toBe('settling')
+    expect(failed.completedOn).toBeNull()
+    expect(ruleIds(failed)).toEqual(expect.arrayContaining(['cycle.clearance-failed', 'cycle.clearance-test']))
+    expect(failed.findings.find(f => f.ruleId === 'cycle.clearance-failed')?.readingIds).toEqual(['r021-09'])
+    expect(failed.readiness.fish.allowed).toBe(false)
+    log.dose(23, DOSE_2PPM_N).test(23, { ammoniaN: 0, nitriteN: 0, nitrateN: 3.1 }).test(24, { ammoniaN: 0, nitriteN: 0, nitrateN: 4.6 })
+    const passed = evaluateCycle(log.input(24))
+    // Zero tests on days 22, 23 and 24 after the failed one, and the day-23 dose cleared.
+    expect(passed.completedOn).toBe(at(24))
   })
 })
 
