@@ -39,6 +39,8 @@ export const historyArb = fc.record({
   salinity: fc.constantFrom(34, 34, 35, 29),
   days: fc.array(dayArb, { minLength: DAYS, maxLength: DAYS }),
   clearanceAfter: fc.option(fc.integer({ min: 0, max: 6 }), { freq: 4 }),
+  /** Hours after the clearance dose of an extra test that still shows it (as careful clients do). */
+  clearanceCheck: fc.option(fc.record({ hours: fc.integer({ min: 1, max: 34 }), ammoniaN: fc.constantFrom(0.08, 0.5, 1.6), nitriteN: fc.constantFrom(0, 0.1) }), { freq: 2 }),
   doses: fc.array(fc.record({ when: eventArb, amount: fc.constantFrom(undefined, 0.4, 1.6) }), { maxLength: 3 }),
   waterChanges: fc.array(eventArb, { maxLength: 2 }),
   livestock: fc.array(fc.record({ when: eventArb, group: fc.constantFrom(...LIVESTOCK_GROUPS) }), { maxLength: 2 }),
@@ -97,6 +99,11 @@ export function toInput(k: HistoryKnobs, thresholds?: Partial<Thresholds>): Cycl
   for (let day = 1; day <= DAYS; day += 1) {
     const r = reading(k, day)
     if (r) readings.push(r)
+  }
+  if (k.clearanceAfter !== null && k.clearanceCheck !== null) {
+    const day = k.ammoniaEnd + k.nitriteLag + k.clearanceAfter
+    const check = k.clearanceCheck
+    readings.push({ id: 'r-check', takenAt: at(day, 10 + check.hours), ammoniaN: check.ammoniaN, nitriteN: check.nitriteN, nitrateN: k.nitrateMax })
   }
   return {
     tank: { volumeLitres: 300, cycleMethod: k.method, startedAt: at(0, 8) },

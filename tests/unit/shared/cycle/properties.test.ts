@@ -8,6 +8,8 @@ import { historyArb, shuffled, toInput } from './arbitraries'
 import { at } from './tank-log'
 
 const RUNS = { seed: 20261201, numRuns: 300 }
+// Generous per-test limit: a busy machine must not turn a slow run into a failure (nothing here is timed).
+const LIMIT_MS = 60_000
 
 /** The latest reading carrying `key`, ordered as the contract says: by takenAt, then id. */
 function latestWith(input: CycleInput, key: 'ammoniaN' | 'nitriteN'): CycleReading | undefined {
@@ -22,7 +24,7 @@ function time(iso: string | null): number {
   return iso === null ? Number.NaN : Date.parse(iso)
 }
 
-describe('cycle engine properties', () => {
+describe('cycle engine properties', { timeout: LIMIT_MS }, () => {
   it('does not depend on the order of readings and events', () => {
     fc.assert(fc.property(historyArb, fc.integer(), (knobs, seed) => {
       const input = toInput(knobs)
