@@ -279,6 +279,13 @@ describe('a crash after livestock', () => {
     expect(v.actions.find(a => a.kind === 'retest')?.dueBy).toBe(at(23, 14))
   })
 
+  it('drops the re-test advice once ammonia is back down, but the tank still has to prove itself', () => {
+    const v = evaluateCycle(log.input(26))
+    expect(v.phase).toBe('nitrite')
+    expect(ruleIds(v)).toContain('cycle.lost')
+    expect(ruleIds(v)).not.toContain('livestock.ammonia-rise')
+  })
+
   it('is complete again after three zero tests, with no clearance dose asked of a stocked tank', () => {
     const v = evaluateCycle(log.input(29))
     expect(v.phase).toBe('complete')
