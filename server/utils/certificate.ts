@@ -6,7 +6,7 @@
 import fontkit from '@pdf-lib/fontkit'
 import { PDFDocument, rgb, type PDFFont, type PDFPage } from 'pdf-lib'
 import { celsiusToFahrenheit, litresToUsGallons } from '#shared/units'
-import { finalReadings, stockingSteps, type FinalReadingKey } from '#shared/sign-off/plan'
+import { datedAcclimation, finalReadings, stockingSteps, type FinalReadingKey } from '#shared/sign-off/plan'
 import type { SignOffSnapshot } from '#shared/types/sign-off'
 
 export interface CertificateFacts {
@@ -46,7 +46,7 @@ const READING_LABELS: Record<FinalReadingKey, string> = {
   nitrateN: 'Nitrate',
   pH: 'pH (NBS)',
   temperatureC: 'Temperature',
-  salinity: 'Salinity',
+  salinity: 'Salinity (practical)',
   alkalinityDkh: 'Alkalinity',
   calciumMgL: 'Calcium',
   magnesiumMgL: 'Magnesium',
@@ -58,7 +58,7 @@ export function formatFinalValue(key: FinalReadingKey, value: number, units: 'us
     case 'ammoniaN': case 'nitriteN': case 'nitrateN': return `${value.toFixed(2)} mg/L as N`
     case 'pH': return value.toFixed(2)
     case 'temperatureC': return units === 'us' ? `${celsiusToFahrenheit(value).toFixed(1)} °F` : `${value.toFixed(1)} °C`
-    case 'salinity': return `${value.toFixed(1)} (practical salinity)`
+    case 'salinity': return value.toFixed(1)
     case 'alkalinityDkh': return `${value.toFixed(1)} dKH`
     case 'calciumMgL': case 'magnesiumMgL': return `${Math.round(value)} mg/L`
   }
@@ -183,6 +183,10 @@ export async function renderCertificate(facts: CertificateFacts): Promise<Uint8A
     const when = step.allowed ? `from ${certificateDate(step.earliest ?? facts.signedAt)}` : step.earliest ? `not before ${certificateDate(step.earliest)}` : 'not yet'
     w.text(`${step.order}. ${step.label} — ${when}${step.blockers.length && !step.allowed ? `: ${step.blockers.join(' ')}` : ''}`, { size: 9.5 })
   }
+  const lighting = datedAcclimation(facts.signedAt)
+  const first = lighting[0]!
+  const last = lighting.at(-1)!
+  w.text(`Lighting: hold the plateau at ${first.plateauPercent} % from ${certificateDate(first.from)} and raise it weekly to ${last.plateauPercent} % by ${certificateDate(last.from)} (${lighting.map(l => `${l.plateauPercent} %`).join(', ')}).`, { size: 9.5, gap: 2 })
   w.text('Caution: animal welfare comes first. Acclimate every animal to the tank\'s temperature and salinity, and ask a qualified aquarist if anything looks wrong.', { size: 8.5, color: SOFT })
 
   // Verification box at the bottom of the page.
