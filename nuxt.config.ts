@@ -62,6 +62,8 @@ export default defineNuxtConfig({
     // honest notes that contain angle brackets.
     xssValidator: false,
   },
+  // main.css carries the @tailwind layers; the module must not inject a second copy.
+  tailwindcss: { cssPath: false },
   nitro: {
     // The certificate PDF embeds our own font; only the two faces it uses are bundled.
     serverAssets: [{

@@ -10,7 +10,7 @@ import type { TimedEvent, TimedReading } from '../history'
 import { COMMON_PRACTICE, NOTHING, report, type CycleRule, type RuleResult } from './rule'
 
 function fishPresent(ctx: RuleContext): RuleResult {
-  if (ctx.tank.cycleMethod !== 'fish-in' || ctx.phase === 'complete') return NOTHING
+  if (ctx.tank.cycleMethod !== 'fish-in' || ctx.phase === 'complete' || ctx.startedMs > ctx.nowMs) return NOTHING
   return report(
     'info',
     `Fish are already in this tank (fish-in cycle, since ${formatWhen(ctx.startedMs)}). Feed lightly, test ammonia every day, and add no more livestock until the cycle is complete.`,
@@ -55,7 +55,7 @@ function retestAfterAdding(ctx: RuleContext): RuleResult {
   const added = lastLivestock(ctx)
   if (added === undefined) return NOTHING
   const th = ctx.thresholds
-  const tested = ctx.history.readings.some((r) => r.t > added.t && r.ammoniaN !== undefined)
+  const tested = ctx.history.readings.some(r => r.t > added.t && r.ammoniaN !== undefined)
   if (tested || ctx.nowMs > added.t + th.livestockWatchDays * DAY_MS) return NOTHING
   const dueBy = added.t + th.retestHours * HOUR_MS
   return report(
