@@ -80,6 +80,7 @@ export function tankEvidence(actor: Actor, tankId: string, now = new Date()): Ev
       mimeType: u.mimeType,
       sizeBytes: u.sizeBytes,
       originalName: u.originalName,
+      hasThumbnail: !!u.thumbnailKey,
       uploadedByName: name(u.uploadedBy),
       createdAt: u.createdAt,
     })),
@@ -95,6 +96,7 @@ export function tankEvidence(actor: Actor, tankId: string, now = new Date()): Ev
       resolveNote: a.resolveNote,
     })),
     signOffs: signOffHistory(tankId).map(r => toSignOffRecordWithSnapshot(r, names)),
+    lockedUntil: currentApprovedSignOff(tankId)?.decidedAt ?? null,
     canDecide: maySignOff(actor, tankRow) && !!pendingRequest(tankId),
     canReopen: maySignOff(actor, tankRow) && !!currentApprovedSignOff(tankId),
   }

@@ -123,7 +123,7 @@ export function requestSignOff(actor: Actor, tank: TankRow, note: string, now = 
 export function reviewQueue(actor: Actor, now = new Date()): ReviewItem[] {
   const conditions = [eq(signOffs.status, 'requested'), visibleTankCondition(actor)]
   if (actor.role === 'supervisor') conditions.push(eq(tanks.supervisorId, actor.id))
-  const rows = useDB().select({ signOff: signOffs, tank: tanks, clientName: clients.name, phase: tankVerdicts.phase })
+  const rows = useDB().select({ signOff: signOffs, tank: tanks, clientName: clients.name, phase: tankVerdicts.phase, verdict: tankVerdicts.verdict })
     .from(signOffs)
     .innerJoin(tanks, eq(tanks.id, signOffs.tankId))
     .innerJoin(clients, eq(clients.id, tanks.clientId))
@@ -138,7 +138,7 @@ export function reviewQueue(actor: Actor, now = new Date()): ReviewItem[] {
     for (const c of counted) alertCounts.set(c.tankId, c.n)
   }
   const names = userNames(actor.organisationId)
-  return rows.map(({ signOff, tank, clientName, phase }) => ({
+  return rows.map(({ signOff, tank, clientName, phase, verdict }) => ({
     signOffId: signOff.id,
     tankId: tank.id,
     tankName: tank.name,
@@ -150,6 +150,8 @@ export function reviewQueue(actor: Actor, now = new Date()): ReviewItem[] {
     phase: (phase as CyclePhase | null) ?? null,
     daysCycling: tank.cycleStartedAt ? Math.max(0, Math.floor((now.getTime() - Date.parse(tank.cycleStartedAt)) / 86_400_000)) : null,
     openAlerts: alertCounts.get(tank.id) ?? 0,
+    // The stored verdict, so the queue need not re-run the engine per tank; the decision re-evaluates.
+    overrideGrounds: overrideGrounds({ phase: (phase ?? 'not-started') as CyclePhase, findings: ((verdict as Verdict | null)?.findings ?? []) }, alertCounts.get(tank.id) ?? 0),
   }))
 }
 

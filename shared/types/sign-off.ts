@@ -49,6 +49,8 @@ export interface ReviewItem {
   phase: CyclePhase | null
   daysCycling: number | null
   openAlerts: number
+  /** Why approving now would go against the stored verdict; empty when the engine agrees. */
+  overrideGrounds: string[]
 }
 
 export interface StockingPlanView {
@@ -129,6 +131,8 @@ export interface EvidenceUpload {
   mimeType: string
   sizeBytes: number
   originalName: string
+  /** An image preview exists at /api/uploads/:id/thumbnail; the file itself is /api/uploads/:id. */
+  hasThumbnail: boolean
   uploadedByName: string | null
   createdAt: string
 }
@@ -157,6 +161,8 @@ export interface Evidence {
   uploads: EvidenceUpload[]
   alerts: EvidenceAlert[]
   signOffs: SignOffRecordWithSnapshot[]
+  /** Readings and events at or before this time are locked by the sign-off; null when none stands. */
+  lockedUntil: string | null
   canDecide: boolean
   canReopen: boolean
 }

@@ -78,7 +78,8 @@ describe('the review queue', () => {
     expect(times).toEqual([...times].sort())
     const lounge = body.find(i => i.tankId === midCycle)!
     expect(lounge).toMatchObject({ phase: expect.not.stringMatching(/^complete$/), openAlerts: 1, daysCycling: 12 })
-    expect(body.find(i => i.tankId === complete)).toMatchObject({ phase: 'complete', openAlerts: 0, daysCycling: 34, clientName: 'Idris Quayle' })
+    expect(lounge.overrideGrounds.join(' ')).toMatch(/not complete.*1 danger alert is not resolved/)
+    expect(body.find(i => i.tankId === complete)).toMatchObject({ phase: 'complete', openAlerts: 0, daysCycling: 34, clientName: 'Idris Quayle', overrideGrounds: [] })
   })
 
   it('is empty for a supervisor with no tanks, and refused to aquarists and clients', async () => {
