@@ -5,19 +5,19 @@ import { evaluateCycle } from '../../shared/cycle/engine'
 import { RULE_SET_VERSION } from '../../shared/cycle/registry'
 import type { Evidence, ReviewItem, SignOffRecordWithSnapshot, SignOffState, VerifyResult } from '../../shared/types/sign-off'
 import { openDatabase, type TidewrightDB } from '../../server/db/connection'
-import { alerts, auditLog, readings, signOffs, tanks, users } from '../../server/db/schema'
-import { hashPasswordOffline } from '../../server/db/seed/password'
-import { OTHER_AQUARIST_EMAIL, PASSWORD } from '../support/fixtures'
+import { alerts, auditLog, readings, signOffs, tanks } from '../../server/db/schema'
+import { OTHER_AQUARIST_EMAIL } from '../support/fixtures'
 import { ApiClient, signedIn } from '../support/http'
-import { copyTank } from '../support/sign-off-tanks'
+import { SIGN_OFF_COMPANY, SIGN_OFF_USERS, seedSignOffCompany, type SignOffCompany } from '../support/sign-off-tanks'
 
 const { demo } = inject('fixtures')
 let db: TidewrightDB
-/** A copy of the nano (cycle complete), a copy of the lounge (mid-cycle), and one to return. */
+let company: SignOffCompany
+/** Copies of the demo nano (cycle complete; one to sign, one to return) and lounge (mid-cycle). */
 let complete: string
 let midCycle: string
 let toReturn: string
-const OTHER_SUPERVISOR = 'supervisor2@tidewright.test'
+const U = SIGN_OFF_USERS
 
 const pdfText = (bytes: Buffer) => execFileSync('pdftotext', ['-layout', '-', '-'], { input: bytes }).toString('utf8')
 
@@ -28,30 +28,28 @@ async function download(api: ApiClient, path: string): Promise<{ status: number,
 
 beforeAll(async () => {
   db = openDatabase(inject('dbPath'))
-  complete = copyTank(db, demo.tanks.nano, 'Sign-off test nano', { status: 'cycling' })
-  midCycle = copyTank(db, demo.tanks.lounge, 'Sign-off test lounge')
-  toReturn = copyTank(db, demo.tanks.nano, 'Sign-off test returned nano', { status: 'cycling' })
-  db.insert(users).values({ organisationId: demo.organisationId, email: OTHER_SUPERVISOR, name: 'Ysolde Marchetti', role: 'supervisor', passwordHash: await hashPasswordOffline(PASSWORD) }).run()
+  company = await seedSignOffCompany(db, demo.tanks)
+  ;({ complete, toReturn, midCycle } = company.tanks)
 })
 afterAll(() => db?.$client.close())
 
 describe('asking for sign-off', () => {
   it('lets the aquarist ask when the engine judges the cycle complete; the tank becomes cycled', async () => {
-    const aquarist = await signedIn('aquarist@tidewright.test')
+    const aquarist = await signedIn(U.aquarist.email)
     const response = await aquarist.post(`/api/tanks/${complete}/sign-off-requests`, { note: 'Zero for a week' })
     expect(response.status).toBe(201)
-    expect(response.body).toMatchObject({ status: 'requested', requestNote: 'Zero for a week', requestedByName: 'Teodor Nakamura-Reyes' })
+    expect(response.body).toMatchObject({ status: 'requested', requestNote: 'Zero for a week', requestedByName: U.aquarist.name })
     expect(db.select().from(tanks).where(eq(tanks.id, complete)).get()?.status).toBe('cycled')
     expect((await aquarist.post(`/api/tanks/${complete}/sign-off-requests`, {})).status).toBe(409)
     expect((await aquarist.post(`/api/tanks/${toReturn}/sign-off-requests`, {})).status).toBe(201)
   })
 
   it('refuses a request while the cycle is not complete (409), from a client (403), signed out (401), from another company (404)', async () => {
-    const aquarist = await signedIn('aquarist@tidewright.test')
+    const aquarist = await signedIn(U.aquarist.email)
     const notDone = await aquarist.post(`/api/tanks/${midCycle}/sign-off-requests`, {})
     expect(notDone.status).toBe(409)
     expect(notDone.body.statusMessage).toContain('not judge this cycle complete')
-    expect((await (await signedIn('client2@tidewright.test')).post(`/api/tanks/${complete}/sign-off-requests`, {})).status).toBe(403)
+    expect((await (await signedIn(U.client.email)).post(`/api/tanks/${complete}/sign-off-requests`, {})).status).toBe(403)
     expect((await new ApiClient().post(`/api/tanks/${complete}/sign-off-requests`, {})).status).toBe(401)
     expect((await (await signedIn(OTHER_AQUARIST_EMAIL)).post(`/api/tanks/${complete}/sign-off-requests`, {})).status).toBe(404)
     const bad = await aquarist.post(`/api/tanks/${complete}/sign-off-requests`, { note: 42 })
@@ -63,38 +61,41 @@ describe('asking for sign-off', () => {
 describe('the review queue', () => {
   beforeAll(() => {
     // The lounge copy regressed after its request: it waits with an open danger alert.
-    db.insert(signOffs).values({ organisationId: demo.organisationId, tankId: midCycle, requestedBy: demo.users.aquarist, requestedAt: new Date().toISOString(), status: 'requested' }).run()
-    db.insert(alerts).values({ organisationId: demo.organisationId, tankId: midCycle, kind: 'ammonia-danger', message: 'Total ammonia is high', openedAt: new Date().toISOString(), openKey: `${midCycle}:ammonia-danger` }).run()
+    db.insert(signOffs).values({ organisationId: company.organisationId, tankId: midCycle, requestedBy: company.users.aquarist, requestedAt: new Date().toISOString(), status: 'requested' }).run()
+    db.insert(alerts).values({ organisationId: company.organisationId, tankId: midCycle, kind: 'ammonia-danger', message: 'Total ammonia is high', openedAt: new Date().toISOString(), openKey: `${midCycle}:ammonia-danger` }).run()
   })
 
   it('shows the supervisor their waiting tanks oldest first, with phase, days cycling and open alerts', async () => {
-    const { status, body } = await (await signedIn('supervisor@tidewright.test')).get<ReviewItem[]>('/api/reviews')
+    const { status, body } = await (await signedIn(U.supervisor.email)).get<ReviewItem[]>('/api/reviews')
     expect(status).toBe(200)
     const ids = body.map(i => i.tankId)
-    expect(ids).toEqual(expect.arrayContaining([demo.tanks.nano, complete, toReturn, midCycle]))
-    expect(ids.indexOf(demo.tanks.nano)).toBeLessThan(ids.indexOf(complete))
+    expect(ids).toEqual(expect.arrayContaining([complete, toReturn, midCycle]))
+    expect(ids).not.toContain(demo.tanks.nano)
+    expect(ids.indexOf(complete)).toBeLessThan(ids.indexOf(toReturn))
     expect(ids.indexOf(complete)).toBeLessThan(ids.indexOf(midCycle))
     const times = body.map(i => i.requestedAt)
     expect(times).toEqual([...times].sort())
     const lounge = body.find(i => i.tankId === midCycle)!
     expect(lounge).toMatchObject({ phase: expect.not.stringMatching(/^complete$/), openAlerts: 1, daysCycling: 12 })
     expect(lounge.overrideGrounds.join(' ')).toMatch(/not complete.*1 danger alert is not resolved/)
-    expect(body.find(i => i.tankId === complete)).toMatchObject({ phase: 'complete', openAlerts: 0, daysCycling: 34, clientName: 'Idris Quayle', overrideGrounds: [] })
+    expect(body.find(i => i.tankId === complete)).toMatchObject({ phase: 'complete', openAlerts: 0, daysCycling: 34, clientName: U.client.name, overrideGrounds: [] })
   })
 
   it('is empty for a supervisor with no tanks, and refused to aquarists and clients', async () => {
-    expect((await (await signedIn(OTHER_SUPERVISOR)).get('/api/reviews')).body).toEqual([])
-    expect((await (await signedIn('aquarist@tidewright.test')).get('/api/reviews')).status).toBe(403)
-    expect((await (await signedIn('client2@tidewright.test')).get('/api/reviews')).status).toBe(403)
+    expect((await (await signedIn(U.supervisor2.email)).get('/api/reviews')).body).toEqual([])
+    const otherCompany = await (await signedIn('supervisor@tidewright.test')).get<ReviewItem[]>('/api/reviews')
+    expect(otherCompany.body.map(i => i.tankId)).toEqual([demo.tanks.nano])
+    expect((await (await signedIn(U.aquarist.email)).get('/api/reviews')).status).toBe(403)
+    expect((await (await signedIn(U.client.email)).get('/api/reviews')).status).toBe(403)
     expect((await new ApiClient().get('/api/reviews')).status).toBe(401)
   })
 })
 
 describe('the evidence', () => {
   it('brings the tank, the verdict, readings, events, stages, alerts and sign-offs together for staff', async () => {
-    const { status, body } = await (await signedIn('supervisor@tidewright.test')).get<Evidence>(`/api/tanks/${midCycle}/evidence`)
+    const { status, body } = await (await signedIn(U.supervisor.email)).get<Evidence>(`/api/tanks/${midCycle}/evidence`)
     expect(status).toBe(200)
-    expect(body.tank.name).toBe('Sign-off test lounge')
+    expect(body.tank.name).toBe('Saltmarsh test lounge')
     expect(body.readings.length).toBe(db.select().from(readings).where(eq(readings.tankId, midCycle)).all().length)
     expect(body.events.map(e => e.kind)).toEqual(['ammonia-dose', 'bacteria-dose'])
     expect(body.stages).toHaveLength(0)
@@ -108,14 +109,14 @@ describe('the evidence', () => {
   })
 
   it('is for staff only (403 for a client) and 404 for another company', async () => {
-    expect((await (await signedIn('client2@tidewright.test')).get(`/api/tanks/${complete}/evidence`)).status).toBe(403)
+    expect((await (await signedIn(U.client.email)).get(`/api/tanks/${complete}/evidence`)).status).toBe(403)
     expect((await (await signedIn(OTHER_AQUARIST_EMAIL)).get(`/api/tanks/${complete}/evidence`)).status).toBe(404)
   })
 })
 
 describe('the decision', () => {
   it('may be made only by the tank\'s supervisor or an admin', async () => {
-    for (const email of ['aquarist@tidewright.test', 'client2@tidewright.test', OTHER_AQUARIST_EMAIL, OTHER_SUPERVISOR]) {
+    for (const email of [U.aquarist.email, U.client.email, OTHER_AQUARIST_EMAIL, U.supervisor2.email]) {
       const response = await (await signedIn(email)).post(`/api/tanks/${complete}/sign-off/decision`, { decision: 'approve' })
       expect(response.status, email).toBe(403)
     }
@@ -123,14 +124,14 @@ describe('the decision', () => {
   })
 
   it('refuses an override without a written reason (400), then records it with the reason', async () => {
-    const supervisor = await signedIn('supervisor@tidewright.test')
+    const supervisor = await signedIn(U.supervisor.email)
     const refused = await supervisor.post(`/api/tanks/${midCycle}/sign-off/decision`, { decision: 'approve', note: '' })
     expect(refused.status).toBe(400)
     expect(refused.body.data.issues).toEqual([{ field: 'note', message: expect.stringContaining('write why') }])
     expect(db.select().from(tanks).where(eq(tanks.id, midCycle)).get()?.status).toBe('cycling')
     const { status, body } = await supervisor.post<SignOffRecordWithSnapshot>(`/api/tanks/${midCycle}/sign-off/decision`, { decision: 'approve', note: 'Client moving abroad; tank handed to a public aquarium team who will finish the cycle.' })
     expect(status).toBe(200)
-    expect(body).toMatchObject({ status: 'approved', override: true, decidedByName: 'Hollis Achterberg' })
+    expect(body).toMatchObject({ status: 'approved', override: true, decidedByName: U.supervisor.name })
     expect(body.snapshot?.overrideGrounds.join(' ')).toMatch(/not complete/)
     expect(body.snapshot?.overrideGrounds.join(' ')).toMatch(/1 danger alert is not resolved/)
     const audit = db.select().from(auditLog).where(eq(auditLog.entityId, body.id)).all().map(a => a.action)
@@ -140,7 +141,7 @@ describe('the decision', () => {
   })
 
   it('approves with the engine: stores input and verdict so the same rule set reproduces it exactly', async () => {
-    const supervisor = await signedIn('supervisor@tidewright.test')
+    const supervisor = await signedIn(U.supervisor.email)
     const { status, body } = await supervisor.post<SignOffRecordWithSnapshot>(`/api/tanks/${complete}/sign-off/decision`, { decision: 'approve' })
     expect(status).toBe(200)
     expect(body).toMatchObject({ status: 'approved', override: false, ruleSetVersion: RULE_SET_VERSION })
@@ -156,14 +157,14 @@ describe('the decision', () => {
   })
 
   it('returns a tank with a note (required) and sends it back to cycling', async () => {
-    const admin = await signedIn('admin@tidewright.test')
+    const admin = await signedIn(U.admin.email)
     const noNote = await admin.post(`/api/tanks/${toReturn}/sign-off/decision`, { decision: 'return' })
     expect(noNote.status).toBe(400)
     expect(noNote.body.data.issues[0].field).toBe('note')
     expect((await admin.post(`/api/tanks/${toReturn}/sign-off/decision`, { decision: 'maybe' })).status).toBe(400)
     const { status, body } = await admin.post<SignOffRecordWithSnapshot>(`/api/tanks/${toReturn}/sign-off/decision`, { decision: 'return', note: 'Photo of the leak test is missing.' })
     expect(status).toBe(200)
-    expect(body).toMatchObject({ status: 'returned', decisionNote: 'Photo of the leak test is missing.', decidedByName: 'Odile Fairbanks' })
+    expect(body).toMatchObject({ status: 'returned', decisionNote: 'Photo of the leak test is missing.', decidedByName: U.admin.name })
     expect(db.select().from(tanks).where(eq(tanks.id, toReturn)).get()?.status).toBe('cycling')
     expect(db.select().from(signOffs).where(eq(signOffs.id, body.id)).get()?.verificationCode).toBeNull()
   })
@@ -171,16 +172,16 @@ describe('the decision', () => {
 
 describe('the locked record', () => {
   it('refuses to write livestock back-dated into the signed period (409), accepts it after', async () => {
-    const aquarist = await signedIn('aquarist@tidewright.test')
+    const aquarist = await signedIn(U.aquarist.email)
     const early = await aquarist.post(`/api/tanks/${complete}/start-stocking`, { livestock: { group: 'invertebrates', count: 5, at: new Date(Date.now() - 3 * 86_400_000).toISOString() } })
     expect(early.status).toBe(409)
     expect(early.body.statusMessage).toMatch(/signed off on .* can no longer be changed/)
     expect(db.select().from(tanks).where(eq(tanks.id, complete)).get()?.status).toBe('signed-off')
-    expect((await (await signedIn('client2@tidewright.test')).post(`/api/tanks/${complete}/start-stocking`, {})).status).toBe(403)
+    expect((await (await signedIn(U.client.email)).post(`/api/tanks/${complete}/start-stocking`, {})).status).toBe(403)
   })
 
   it('corrects a locked reading with a new linked entry and a reason; the original stays', async () => {
-    const supervisor = await signedIn('supervisor@tidewright.test')
+    const supervisor = await signedIn(U.supervisor.email)
     const original = db.select().from(readings).where(eq(readings.tankId, complete)).all().find(r => r.ammoniaN !== null)!
     const noReason = await supervisor.post(`/api/tanks/${complete}/readings/${original.id}/corrections`, { ammoniaN: 0.1 })
     expect(noReason.status).toBe(400)
@@ -197,11 +198,11 @@ describe('the locked record', () => {
     expect(evidence.body.readings.find(r => r.id === original.id)?.correctedById).toBe(body.id)
     expect(db.select().from(auditLog).where(eq(auditLog.entityId, body.id)).get()?.action).toBe('reading.correct')
     expect((await supervisor.post(`/api/tanks/${complete}/readings/${demo.tanks.lounge}/corrections`, { reason: 'No such reading' })).status).toBe(404)
-    expect((await (await signedIn('client2@tidewright.test')).post(`/api/tanks/${complete}/readings/${original.id}/corrections`, { reason: 'Mine' })).status).toBe(403)
+    expect((await (await signedIn(U.client.email)).post(`/api/tanks/${complete}/readings/${original.id}/corrections`, { reason: 'Mine' })).status).toBe(403)
   })
 
   it('corrects an event the same way', async () => {
-    const aquarist = await signedIn('aquarist@tidewright.test')
+    const aquarist = await signedIn(U.aquarist.email)
     const evidence = await aquarist.get<Evidence>(`/api/tanks/${complete}/evidence`)
     const dose = evidence.body.events.find(e => e.kind === 'ammonia-dose')!
     const { status, body } = await aquarist.post(`/api/tanks/${complete}/events/${dose.id}/corrections`, { amount: 1.5, reason: 'Dose was 1.5, not 1.65' })
@@ -223,15 +224,15 @@ describe('the certificate', () => {
   let code = ''
 
   it('is a one-page PDF the client can download, naming tank, client, supervisor, plan and a code', async () => {
-    const client = await signedIn('client2@tidewright.test')
+    const client = await signedIn(U.client.email)
     const { status, type, bytes } = await download(client, `/api/tanks/${complete}/certificate.pdf`)
     expect(status).toBe(200)
     expect(type).toBe('application/pdf')
     expect(bytes.subarray(0, 5).toString()).toBe('%PDF-')
     const text = pdfText(bytes)
-    expect(text).toContain('Sign-off test nano')
-    expect(text).toContain('Idris Quayle')
-    expect(text).toContain('Hollis Achterberg')
+    expect(text).toContain('Saltmarsh test nano')
+    expect(text).toContain(U.client.name)
+    expect(text).toContain(U.supervisor.name)
     expect(text).toContain('Fishless cycle')
     expect(text).toContain('Total ammonia')
     expect(text).toContain('Soft corals')
@@ -244,15 +245,15 @@ describe('the certificate', () => {
   })
 
   it('shows an override on the certificate', async () => {
-    const { bytes } = await download(await signedIn('supervisor@tidewright.test'), `/api/tanks/${midCycle}/certificate.pdf`)
+    const { bytes } = await download(await signedIn(U.supervisor.email), `/api/tanks/${midCycle}/certificate.pdf`)
     const text = pdfText(bytes)
     expect(text).toContain('Signed against the engine')
     expect(text).toContain('public aquarium')
   })
 
   it('is not for another client, nor for a tank without a current sign-off', async () => {
-    expect((await download(await signedIn('client@tidewright.test'), `/api/tanks/${complete}/certificate.pdf`)).status).toBe(404)
-    expect((await download(await signedIn('client2@tidewright.test'), `/api/tanks/${demo.tanks.nano}/certificate.pdf`)).status).toBe(404)
+    expect((await download(await signedIn(U.client2.email), `/api/tanks/${complete}/certificate.pdf`)).status).toBe(404)
+    expect((await download(await signedIn(U.client.email), `/api/tanks/${toReturn}/certificate.pdf`)).status).toBe(404)
     expect((await download(new ApiClient(), `/api/tanks/${complete}/certificate.pdf`)).status).toBe(401)
   })
 
@@ -260,7 +261,7 @@ describe('the certificate', () => {
     const anyone = new ApiClient()
     const { status, body } = await anyone.get<VerifyResult>(`/api/verify/${code}`)
     expect(status).toBe(200)
-    expect(body).toEqual({ valid: true, status: 'approved', tankName: 'Sign-off test nano', company: 'Brinefield Aquarium Studio', signedAt: expect.any(String), supervisorName: 'Hollis Achterberg', reopenedAt: null })
+    expect(body).toEqual({ valid: true, status: 'approved', tankName: 'Saltmarsh test nano', company: SIGN_OFF_COMPANY, signedAt: expect.any(String), supervisorName: U.supervisor.name, reopenedAt: null })
     const last = code.at(-1)!
     const tampered = code.slice(0, -1) + (last === 'A' ? 'B' : 'A')
     expect((await anyone.get(`/api/verify/${tampered}`)).status).toBe(404)
@@ -269,15 +270,15 @@ describe('the certificate', () => {
   })
 
   it('reopening (with a reason, by the supervisor) unlocks the record and the code then reads reopened', async () => {
-    const supervisor = await signedIn('supervisor@tidewright.test')
-    expect((await (await signedIn('aquarist@tidewright.test')).post(`/api/tanks/${complete}/sign-off/reopen`, { reason: 'Because' })).status).toBe(403)
+    const supervisor = await signedIn(U.supervisor.email)
+    expect((await (await signedIn(U.aquarist.email)).post(`/api/tanks/${complete}/sign-off/reopen`, { reason: 'Because' })).status).toBe(403)
     expect((await supervisor.post(`/api/tanks/${complete}/sign-off/reopen`, {})).status).toBe(400)
     const { status, body } = await supervisor.post(`/api/tanks/${complete}/sign-off/reopen`, { reason: 'Client reports a cloudy tank; re-test before stocking.' })
     expect(status).toBe(200)
-    expect(body).toMatchObject({ status: 'reopened', reopenedByName: 'Hollis Achterberg' })
+    expect(body).toMatchObject({ status: 'reopened', reopenedByName: U.supervisor.name })
     expect(db.select().from(tanks).where(eq(tanks.id, complete)).get()?.status).toBe('cycling')
     expect((await new ApiClient().get<VerifyResult>(`/api/verify/${code}`)).body).toMatchObject({ valid: false, status: 'reopened' })
-    expect((await download(await signedIn('client2@tidewright.test'), `/api/tanks/${complete}/certificate.pdf`)).status).toBe(404)
+    expect((await download(await signedIn(U.client.email), `/api/tanks/${complete}/certificate.pdf`)).status).toBe(404)
     expect(db.select().from(auditLog).where(and(eq(auditLog.entityId, body.id), eq(auditLog.action, 'sign-off.reopen'))).get()).toBeDefined()
     const state = await supervisor.get<SignOffState>(`/api/tanks/${complete}/sign-off`)
     expect(state.body).toMatchObject({ lockedUntil: null, canReopen: false, hasCertificate: false })
@@ -286,10 +287,10 @@ describe('the certificate', () => {
 
 describe('after sign-off', () => {
   it('shows the client the livestock and lighting plan, and the tank moves to stocking', async () => {
-    const client = await signedIn('client2@tidewright.test')
+    const client = await signedIn(U.client.email)
     const db2 = db
-    // The override-approved lounge copy belongs to client@; give the plan check to its own client.
-    const own = await signedIn('client@tidewright.test')
+    // The override-approved lounge copy belongs to the second client.
+    const own = await signedIn(U.client2.email)
     const { body } = await own.get<SignOffState>(`/api/tanks/${midCycle}/sign-off`)
     expect(body.tankStatus).toBe('signed-off')
     expect(body.plan?.steps.map(s => s.group)).toEqual(['fish', 'invertebrates', 'soft-coral', 'lps-coral', 'sps-coral'])
@@ -297,7 +298,7 @@ describe('after sign-off', () => {
     expect(body.plan?.lighting[0]).toMatchObject({ week: 0, plateauPercent: 30 })
     expect(body.canStartStocking).toBe(false)
     expect((await client.get(`/api/tanks/${midCycle}/sign-off`)).status).toBe(404)
-    const aquarist = await signedIn('aquarist@tidewright.test')
+    const aquarist = await signedIn(U.aquarist.email)
     const started = await aquarist.post(`/api/tanks/${midCycle}/start-stocking`, { livestock: { group: 'fish', count: 2, notes: 'Two small gobies' } })
     expect(started.status).toBe(200)
     expect(started.body.status).toBe('stocking')
