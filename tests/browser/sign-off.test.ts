@@ -56,6 +56,8 @@ describe('sign-off, from request to certificate', () => {
     const { page, context, problems } = await openPage(browser, 375)
     await signInThroughForm(page, 'supervisor@tidewright.test')
     await page.goto('/reviews')
+    await expect.poll(() => page.getByText('Photo added; ready again.').isVisible()).toBe(true)
+    await screenshot(page, 'reviews-375')
     await page.getByRole('list', { name: 'Review queue' }).getByRole('link', { name: /Quay Street nano/ }).click()
     await page.waitForURL(new RegExp(`/reviews/${nano}`))
     await expect.poll(() => page.getByText('Photo added; ready again.').first().isVisible()).toBe(true)
