@@ -5,7 +5,7 @@ import { evaluateCycle } from '../../shared/cycle/engine'
 import { RULE_SET_VERSION } from '../../shared/cycle/registry'
 import type { Evidence, ReviewItem, SignOffRecordWithSnapshot, SignOffState, VerifyResult } from '../../shared/types/sign-off'
 import { openDatabase, type TidewrightDB } from '../../server/db/connection'
-import { alerts, auditLog, readings, signOffs, tanks } from '../../server/db/schema'
+import { alerts, auditLog, events, readings, signOffs, tanks } from '../../server/db/schema'
 import { OTHER_AQUARIST_EMAIL } from '../support/fixtures'
 import { ApiClient, signedIn } from '../support/http'
 import { SIGN_OFF_COMPANY, SIGN_OFF_USERS, seedSignOffCompany, type SignOffCompany } from '../support/sign-off-tanks'
@@ -288,7 +288,6 @@ describe('the certificate', () => {
 describe('after sign-off', () => {
   it('shows the client the livestock and lighting plan, and the tank moves to stocking', async () => {
     const client = await signedIn(U.client.email)
-    const db2 = db
     // The override-approved lounge copy belongs to the second client.
     const own = await signedIn(U.client2.email)
     const { body } = await own.get<SignOffState>(`/api/tanks/${midCycle}/sign-off`)
@@ -302,7 +301,19 @@ describe('after sign-off', () => {
     const started = await aquarist.post(`/api/tanks/${midCycle}/start-stocking`, { livestock: { group: 'fish', count: 2, notes: 'Two small gobies' } })
     expect(started.status).toBe(200)
     expect(started.body.status).toBe('stocking')
-    expect(db2.select().from(tanks).where(eq(tanks.id, midCycle)).get()?.status).toBe('stocking')
+    expect(db.select().from(tanks).where(eq(tanks.id, midCycle)).get()?.status).toBe('stocking')
     expect((await aquarist.post(`/api/tanks/${midCycle}/start-stocking`, {})).status).toBe(409)
+  })
+
+  it('a returned tank can be asked for again; livestock logged after the sign-off moves it to stocking', async () => {
+    const aquarist = await signedIn(U.aquarist.email)
+    expect((await aquarist.post(`/api/tanks/${toReturn}/sign-off-requests`, { note: 'Leak-test photo added' })).status).toBe(201)
+    expect((await (await signedIn(U.supervisor.email)).post(`/api/tanks/${toReturn}/sign-off/decision`, { decision: 'approve' })).status).toBe(200)
+    expect(db.select().from(tanks).where(eq(tanks.id, toReturn)).get()?.status).toBe('signed-off')
+    // Livestock written by another route (as the events form does), then any change runs the tank-data hook.
+    const fish = db.insert(events).values({ tankId: toReturn, at: new Date(Date.now() + 60_000).toISOString(), kind: 'livestock-added', group: 'fish', amount: 2 }).returning().get()
+    expect(db.select().from(tanks).where(eq(tanks.id, toReturn)).get()?.status).toBe('signed-off')
+    expect((await aquarist.post(`/api/tanks/${toReturn}/events/${fish.id}/corrections`, { amount: 3, reason: 'Three went in, not two' })).status).toBe(201)
+    expect(db.select().from(tanks).where(eq(tanks.id, toReturn)).get()?.status).toBe('stocking')
   })
 })
