@@ -2,11 +2,12 @@
 import { and, asc, desc, eq, isNotNull, isNull, sql, type SQL } from 'drizzle-orm'
 import type { ClientListQuery } from '#shared/schemas/clients'
 import type { ClientList, ClientSummary, ClientView, SiteView } from '#shared/types/clients'
-import { clients, sites, tanks } from '../db/schema'
+import { clients, sites } from '../db/schema'
 import type { Actor } from './access'
 
-const tankCount = sql<number>`(select count(*) from ${tanks} where ${tanks.clientId} = ${clients.id} and ${tanks.archivedAt} is null)`
-const siteCount = sql<number>`(select count(*) from ${sites} where ${sites.clientId} = ${clients.id} and ${sites.archivedAt} is null)`
+// Written out in full: drizzle drops table names from columns in single-table selects, which would break the correlation.
+const tankCount = sql<number>`(select count(*) from "tanks" t where t."client_id" = "clients"."id" and t."archived_at" is null)`
+const siteCount = sql<number>`(select count(*) from "sites" s where s."client_id" = "clients"."id" and s."archived_at" is null)`
 
 const SORT = { name: clients.name, updated: clients.updatedAt, tanks: tankCount } as const
 
