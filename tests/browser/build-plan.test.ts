@@ -142,4 +142,18 @@ describe('building a tank through its plan', () => {
     expect(problems).toEqual([])
     await context.close()
   })
+
+  it('staff see the tank table with each tank\'s current stage, sortable (1280 px)', async () => {
+    const { page, context, problems } = await openPage(browser, 1280)
+    await signInThroughForm(page, 'supervisor@tidewright.test')
+    const table = page.getByRole('table', { name: 'Tanks' })
+    await expect.poll(() => table.getByRole('row').count()).toBe(5)
+    await table.getByRole('button', { name: 'Current stage' }).click()
+    await expect.poll(() => table.getByRole('row').nth(1).textContent()).toContain('Harbour Parade lobby reef')
+    expect(await table.getByRole('row').nth(1).textContent()).toContain('Leak test')
+    expect(await page.getByRole('link', { name: 'New tank' }).count()).toBe(0)
+    await screenshot(page, 'tank-table-1280')
+    expect(problems).toEqual([])
+    await context.close()
+  })
 })
