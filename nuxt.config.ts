@@ -67,7 +67,7 @@ export default defineNuxtConfig({
   },
   nitro: {
     // Uploaded files: never under public/, served only through /api/uploads/:id after an access check.
-    // Production may swap in unstorage's S3-compatible driver here (see DEVELOPERS.md, "Uploads").
+    // The directory comes from NUXT_UPLOADS_DIR at start; S3-compatible storage: DEVELOPERS.md, "Uploads".
     storage: {
       uploads: { driver: 'fs', base: './data/uploads' },
     },

@@ -1,4 +1,6 @@
-import { beforeAll, describe, expect, it } from 'vitest'
+import { existsSync } from 'node:fs'
+import { dirname, join } from 'node:path'
+import { beforeAll, describe, expect, inject, it } from 'vitest'
 import sharp from 'sharp'
 import { ApiClient, signedIn } from '../support/http'
 import { auditRows, seedScratchCompany, type ScratchCompany } from '../support/company'
@@ -38,6 +40,10 @@ describe('stage uploads', () => {
     expect(view).toMatchObject({ mimeType: 'image/png', sizeBytes: png.length, originalName: 'leak test.png', hasThumbnail: true })
     const plan = await api.get<PlanView>(`/api/tanks/${tankId}/stages`)
     expect(plan.body.stages[1]!.uploads.map(u => u.id)).toEqual([view.id])
+    // Stored by the fs driver under NUXT_UPLOADS_DIR (the test run's temporary directory), not under public/.
+    const stored = join(dirname(inject('dbPath')), 'uploads', co.organisationId, tankId, view.id)
+    expect(existsSync(stored)).toBe(true)
+    expect(existsSync(`${stored}.thumb`)).toBe(true)
     const client = await signedIn(co.emails.client)
     const original = await client.request('GET', `/api/uploads/${view.id}`)
     expect(original.status).toBe(200)
@@ -54,6 +60,7 @@ describe('stage uploads', () => {
       expect((await outsider.get(`/api/uploads/${view.id}/thumbnail`)).status, email).toBe(404)
     }
     expect((await new ApiClient().get(`/api/uploads/${view.id}`)).status).toBe(401)
+    expect((await client.get('/api/uploads/..%2F..%2Fetc%2Fpasswd')).status).toBe(400)
     expect(auditRows(view.id).map(r => r.action)).toEqual(['upload.create'])
   })
 
