@@ -72,5 +72,7 @@ export default defineNuxtConfig({
       uploads: { driver: 'fs', base: './data/uploads' },
     },
   },
+  // main.css carries the @tailwind layers; the module must not inject a second copy.
+  tailwindcss: { cssPath: false },
   typescript: { strict: true, typeCheck: false },
 })
