@@ -22,6 +22,8 @@ export default defineNuxtConfig({
   },
   runtimeConfig: {
     dbPath: 'data/tidewright.sqlite',
+    /** Where uploaded photos and PDFs are kept by the fs driver (NUXT_UPLOADS_DIR). */
+    uploadsDir: 'data/uploads',
     migrationsDir: 'drizzle',
     session: {
       name: 'tidewright-session',
@@ -56,11 +58,21 @@ export default defineNuxtConfig({
     // Sign-in throttling is Tidewright's own (per account and address); a global
     // token bucket would refuse honest bursts such as a day's CSV import.
     rateLimiter: false,
+    // Uploads are checked by server/utils/uploads.ts (10 MB, with a clear message); this outer
+    // limit sits just above it so the app's own check answers first.
+    requestSizeLimiter: { maxRequestSizeInBytes: 2_000_000, maxUploadFileRequestInBytes: 10 * 1024 * 1024 + 128 * 1024 },
     // Tidewright serves its own pages only; no other origin may call the API.
     corsHandler: false,
     // Input is validated with valibot and Vue escapes output; this filter would refuse
     // honest notes that contain angle brackets.
     xssValidator: false,
+  },
+  nitro: {
+    // Uploaded files: never under public/, served only through /api/uploads/:id after an access check.
+    // The directory comes from NUXT_UPLOADS_DIR at start; S3-compatible storage: DEVELOPERS.md, "Uploads".
+    storage: {
+      uploads: { driver: 'fs', base: './data/uploads' },
+    },
   },
   // main.css carries the @tailwind layers; the module must not inject a second copy.
   tailwindcss: { cssPath: false },
