@@ -5,26 +5,7 @@
  */
 import type { Actor } from './access'
 import { canManageTank } from './access'
-import { and, desc, eq } from 'drizzle-orm'
-import { signOffs } from '../db/schema'
-
-/** End of the signed-off period: the decision time of the tank's current approved sign-off. */
-function signedOffUntil(tankId: string): string | null {
-  return useDB().select({ decidedAt: signOffs.decidedAt }).from(signOffs)
-    .where(and(eq(signOffs.tankId, tankId), eq(signOffs.status, 'approved')))
-    .orderBy(desc(signOffs.decidedAt)).get()?.decidedAt ?? null
-}
-
-/** 409 when an entry at `at` falls inside the signed-off period: it is corrected by a linked entry instead. */
-function assertOutsideSignedPeriod(tankId: string, at: string): void {
-  const until = signedOffUntil(tankId)
-  if (!until) return
-  const t = Date.parse(at)
-  if (Number.isNaN(t) || t <= Date.parse(until)) {
-    const message = `This entry falls in the period signed off on ${until.slice(0, 10)} and can no longer be changed. Add a correction with a reason instead.`
-    throw createError({ statusCode: 409, statusMessage: message, message, data: { lockedUntil: until } })
-  }
-}
+import { assertEntryUnlocked, lockedUntil } from './sign-off-lock'
 
 /** A client may fix their own entries for this long after entering them. */
 export const CLIENT_EDIT_WINDOW_MS = 24 * 3_600_000
@@ -56,23 +37,23 @@ export function editRefusal(actor: Actor, tank: { id: string, organisationId: st
 
 /**
  * Throws 403 unless the actor may edit or delete this reading or event now, and 409 when
- * the entry lies in a signed-off period. An edit that moves the entry to another time also
+ * the entry lies in a signed-off period (server/utils/sign-off-lock.ts). An edit that moves the entry to another time also
  * calls assertWritableAt with the new time.
  */
 export function assertEditable(actor: Actor, tank: { id: string, organisationId: string }, entry: EditableEntry, now = new Date()): void {
   const refusal = editRefusal(actor, tank, entry, now)
   if (refusal) throw createError({ statusCode: 403, statusMessage: refusal })
-  assertOutsideSignedPeriod(tank.id, entry.at)
+  assertEntryUnlocked(tank.id, entry.at)
 }
 
 /** A new or moved entry may not be written into a signed-off period (409). */
 export function assertWritableAt(tankId: string, at: string): void {
-  assertOutsideSignedPeriod(tankId, at)
+  assertEntryUnlocked(tankId, at)
 }
 
 /** The end of the tank's signed-off period, or null. */
 export function tankLockedUntil(tankId: string): string | null {
-  return signedOffUntil(tankId)
+  return lockedUntil(tankId)
 }
 
 /** 400 with field messages from the shared entry conversion. */

@@ -15,5 +15,6 @@ export interface TankChange {
  */
 export function onTankDataChanged(tankId: string, change: TankChange = {}): Verdict | undefined {
   const verdict = refreshVerdict(tankId, change.now)
+  advanceToStockingIfLivestock(tankId)
   return verdict
 }

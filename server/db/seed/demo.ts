@@ -7,7 +7,7 @@ import { DEFAULT_PLAN_TEMPLATE } from '../../../shared/plan/default-template'
 import type { TidewrightDB } from '../connection'
 import { planStageRows } from '../plan-stages'
 import { computeAndStoreVerdict } from '../verdicts'
-import { clients, events, organisations, planStages, readings, sites, tanks, users } from '../schema'
+import { clients, events, organisations, planStages, readings, signOffs, sites, tanks, users } from '../schema'
 import { FISHLESS_CURVE, FISH_IN_CURVE, simulateHistory } from './histories'
 import { hashPasswordOffline } from './password'
 
@@ -131,6 +131,12 @@ export async function seedDemo(db: TidewrightDB, now = new Date()): Promise<Demo
     ]).run()
 
     for (const tankId of [lobby, lounge, nano, study]) computeAndStoreVerdict(tx as unknown as TidewrightDB, tankId, now)
+
+    // 'cycled' means awaiting sign-off: the nano's aquarist has asked the supervisor to sign it.
+    tx.insert(signOffs).values({
+      organisationId: orgId, tankId: nano, requestedBy: ids.aquarist, requestedAt: new Date(now.getTime() - 2 * 3_600_000).toISOString(),
+      requestNote: 'Clearance dose processed; ammonia and nitrite have read zero since. Ready for review.', status: 'requested',
+    }).run()
 
     return {
       organisationId: orgId,
