@@ -12,6 +12,10 @@ const STAFF: readonly Role[] = ['admin', 'aquarist', 'supervisor']
 /** The main navigation, one line per destination; each feature adds its own line. */
 export const NAV_LINKS: readonly NavLink[] = [
   { to: '/', label: 'Tanks', roles: EVERYONE },
+  { to: '/alerts', label: 'Alerts', roles: STAFF },
+  { to: '/notifications', label: 'Notifications', roles: EVERYONE },
+  { to: '/people/invite', label: 'Invite', roles: ['admin', 'aquarist'] },
+  { to: '/admin/mail', label: 'Caught mail', roles: ['admin'] },
 ]
 
 /** The links a role sees, with the client's wording for their own tanks. */
