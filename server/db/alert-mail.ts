@@ -53,9 +53,11 @@ export function measuredLines(reading: MeasuredReading | null, units: 'us' | 'me
 
 /** The suggested actions, the water change first with its percentage. */
 export function actionLines(actions: readonly CycleAction[]): string[] {
-  return actions.slice(0, 3).map(a => a.kind === 'water-change' && a.waterChangePercent !== undefined
-    ? `${a.message} (change about ${formatPercent(a.waterChangePercent)} of the water)`
-    : a.message)
+  return actions.slice(0, 3).map((a) => {
+    if (a.kind !== 'water-change' || a.waterChangePercent === undefined) return a.message
+    const percent = formatPercent(a.waterChangePercent)
+    return a.message.includes(percent) ? a.message : `${a.message} (change about ${percent} of the water)`
+  })
 }
 
 function compose(subject: string, intro: string, input: AlertMailInput, closing: string): MailWords {
