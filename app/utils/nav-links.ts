@@ -13,7 +13,6 @@ const STAFF: readonly Role[] = ['admin', 'aquarist', 'supervisor']
 export const NAV_LINKS: readonly NavLink[] = [
   { to: '/', label: 'Tanks', roles: EVERYONE },
   { to: '/alerts', label: 'Alerts', roles: STAFF },
-  { to: '/notifications', label: 'Notifications', roles: EVERYONE },
   { to: '/people/invite', label: 'Invite', roles: ['admin', 'aquarist'] },
   { to: '/admin/mail', label: 'Caught mail', roles: ['admin'] },
 ]

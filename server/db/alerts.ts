@@ -115,7 +115,7 @@ export function syncAlertsInDb(db: TidewrightDB, tankId: string, verdict: Verdic
       }).where(eq(alerts.id, alert.id)).returning().get()
       result.resolved.push(row)
       if (aquarist?.active) {
-        const body = `The alert "${alert.message}" was cleared by a later reading on ${tank.name}.`
+        const body = `A later reading cleared the danger alert on ${tank.name}. Keep testing as the verdict asks.`
         writeNotice(t, {
           userId: aquarist.id, organisationId: tank.organisationId, kind: 'alert-resolved', title: `Cleared on ${tank.name}`,
           body, link: tankLink(tankId), alertId: alert.id,
