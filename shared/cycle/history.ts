@@ -31,7 +31,7 @@ export interface TimedEvent {
 export interface History {
   readonly readings: readonly TimedReading[]
   readonly events: readonly TimedEvent[]
-  /** Readings left out: unparseable time, or taken after `now`. Sorted. */
+  /** Readings left out because their time does not parse. Sorted. */
   readonly ignoredReadingIds: readonly string[]
   /** Readings that kept their time but lost a value that was negative or not a number. Sorted. */
   readonly repairedReadingIds: readonly string[]
@@ -53,7 +53,7 @@ function compareStrings(a: string, b: string): number {
 }
 
 function valueKey(reading: TimedReading): string {
-  return VALUE_KEYS.map((key) => String(reading[key] ?? '')).join('|')
+  return VALUE_KEYS.map(key => String(reading[key] ?? '')).join('|')
 }
 
 function compareReadings(a: TimedReading, b: TimedReading): number {
@@ -68,7 +68,7 @@ function compareEvents(a: TimedEvent, b: TimedEvent): number {
     || compareStrings(a.event.group ?? '', b.event.group ?? '')
 }
 
-function sanitize(raw: CycleReading, t: number): { reading: TimedReading; repaired: boolean } {
+function sanitize(raw: CycleReading, t: number): { reading: TimedReading, repaired: boolean } {
   const values: Partial<Record<NumericKey, number>> = {}
   let repaired = false
   for (const key of VALUE_KEYS) {
@@ -87,11 +87,12 @@ export function buildHistory(readings: readonly CycleReading[], events: readonly
   const repaired: string[] = []
   for (const raw of readings) {
     const t = parseTime(raw.takenAt)
-    // A reading after `now` is in the verdict's future: leaving it out keeps old verdicts reproducible.
-    if (!Number.isFinite(t) || t > nowMs) {
+    if (!Number.isFinite(t)) {
       ignored.push(raw.id)
       continue
     }
+    // A reading after `now` is in the verdict's future: leaving it out keeps old verdicts reproducible.
+    if (t > nowMs) continue
     const result = sanitize(raw, t)
     kept.push(result.reading)
     if (result.repaired) repaired.push(raw.id)

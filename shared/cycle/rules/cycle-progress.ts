@@ -5,13 +5,13 @@
 
 import { latestNitrogen } from '../snapshot'
 import { formatDuration, formatWhen, HOUR_MS, toIso } from '../time'
-import { mgN } from '../words'
+import { mgN, mgNWithIon } from '../words'
 import type { RuleContext } from '../context'
 import { COMMON_PRACTICE, NOTHING, report, type CycleRule, type RuleResult } from './rule'
 
 function notStarted(ctx: RuleContext): RuleResult {
   if (ctx.phase !== 'not-started') return NOTHING
-  const tests = ctx.history.readings.filter((r) => r.ammoniaN !== undefined || r.nitriteN !== undefined)
+  const tests = ctx.history.readings.filter(r => r.ammoniaN !== undefined || r.nitriteN !== undefined)
   const zeros = tests.length > 0
     ? ` All ${tests.length} ammonia and nitrite tests read zero because nothing is feeding the bacteria yet; zero readings before the cycle starts prove nothing.`
     : ''
@@ -21,7 +21,7 @@ function notStarted(ctx: RuleContext): RuleResult {
     tests,
     [{
       kind: 'start-cycle',
-      message: `Dose ammonia to about ${mgN(ctx.thresholds.clearanceDoseN)} (about 2 ppm on a kit that reads as NH3), add bottled nitrifying bacteria, and log both; then test ammonia and nitrite every day.`,
+      message: `Dose ammonia to about ${mgNWithIon(ctx.thresholds.clearanceDoseN, 'NH3')}, add bottled nitrifying bacteria, and log both; then test ammonia and nitrite every day.`,
       dueBy: toIso(ctx.nowMs),
     }],
   )
@@ -34,9 +34,13 @@ function ammoniaStage(ctx: RuleContext): RuleResult {
     const since = ctx.sourceT === null ? '' : ` since ${formatWhen(ctx.sourceT)}`
     return report('info', `The ammonia source is in${since}, but ammonia has not been tested since. Test ammonia and nitrite now.`, [])
   }
+  // Ammonia back after it had fallen is a new load outrunning bacteria that exist, not bacteria still to grow.
+  const why = ctx.course.ammoniaFallen !== null && ctx.course.ammoniaFallen.t < test.t
+    ? 'is back up after it had fallen: the bacteria have not caught up with the load'
+    : 'has not started to fall: the first bacteria are still growing'
   return report(
     'info',
-    `Ammonia is ${mgN(test.ammoniaN ?? 0)} (test of ${formatWhen(test.t)}) and has not started to fall: the first bacteria are still growing. Keep testing ammonia and nitrite every day.`,
+    `Ammonia is ${mgN(test.ammoniaN ?? 0)} (test of ${formatWhen(test.t)}) and ${why}. Keep testing ammonia and nitrite every day.`,
     [test],
   )
 }
@@ -60,7 +64,7 @@ function settlingStage(ctx: RuleContext): RuleResult {
   const span = run.last.t - run.first.t
   return report(
     'info',
-    `Ammonia and nitrite read zero: ${run.zeroTests} zero test(s) over ${formatDuration(span)} since ${formatWhen(run.first.t)}; the cycle needs at least ${th.stableMinTests} over ${th.stableSpanHours} h, with nitrate present and the proof described below.`,
+    `Ammonia and nitrite read zero: ${run.zeroTests} zero test(s) over ${formatDuration(span)} since ${formatWhen(run.first.t)}; the cycle needs at least ${th.stableMinTests} over ${th.stableSpanHours} h, with nitrate present and proof that the tank processes ammonia.`,
     [run.first, run.last],
   )
 }
@@ -95,7 +99,7 @@ function lost(ctx: RuleContext): RuleResult {
   const values = [
     by.ammoniaN !== undefined ? `ammonia ${mgN(by.ammoniaN)}` : null,
     by.nitriteN !== undefined ? `nitrite ${mgN(by.nitriteN)}` : null,
-  ].filter((v) => v !== null).join(', ')
+  ].filter(v => v !== null).join(', ')
   return report(
     'caution',
     `The cycle was complete on ${formatWhen(last.reading.t)}, but the test of ${formatWhen(by.t)} shows ${values}. The tank has to prove itself again: zero ammonia and nitrite for ${ctx.thresholds.stableSpanHours} h.`,

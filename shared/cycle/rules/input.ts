@@ -12,7 +12,7 @@ function ignored(ctx: RuleContext): RuleResult {
   if (ignoredReadingIds.length > 0) {
     hits.push({
       severity: 'info',
-      message: `${ignoredReadingIds.length} test(s) were left out: the time did not read as a date, or is later than this verdict (${ignoredReadingIds.join(', ')}).`,
+      message: `${ignoredReadingIds.length} test(s) were left out because their time did not read as a date (${ignoredReadingIds.join(', ')}).`,
       readings: [],
     })
   }
@@ -20,7 +20,7 @@ function ignored(ctx: RuleContext): RuleResult {
     hits.push({
       severity: 'info',
       message: `${repairedReadingIds.length} test(s) had a value that was negative or not a number; that value was left out.`,
-      readings: readings.filter((r) => repairedReadingIds.includes(r.id)),
+      readings: readings.filter(r => repairedReadingIds.includes(r.id)),
     })
   }
   return { hits, actions: [] }
@@ -30,7 +30,7 @@ function ignored(ctx: RuleContext): RuleResult {
 export const INPUT_RULES: readonly CycleRule[] = [
   {
     id: 'input.ignored',
-    description: 'Tests with an unreadable time or a time after the verdict are left out; negative or non-numeric values are dropped.',
+    description: 'Tests with an unreadable time are left out and negative or non-numeric values dropped, and the verdict says so. (Tests after the verdict time are silently outside it.)',
     source: COMMON_PRACTICE,
     severities: ['info'],
     evaluate: ignored,

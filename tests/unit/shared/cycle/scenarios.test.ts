@@ -1,0 +1,295 @@
+import { describe, expect, it } from 'vitest'
+import { freeAmmonia } from '../../../../shared/chemistry/ammonia'
+import { waterChangePercentToReach } from '../../../../shared/calc/water-change'
+import { evaluateCycle } from '../../../../shared/cycle/engine'
+import { DEFAULT_THRESHOLDS } from '../../../../shared/cycle/thresholds'
+import { RULE_SET_VERSION } from '../../../../shared/cycle/registry'
+import { at, ruleIds, STEADY_WATER } from './tank-log'
+import { crashAfterLivestock, DOSE_2PPM_N, fishInWithSpike, missingWeek, neverFed, nitriteStall, textbookFishless, waterChangeMidCycle } from './scenarios'
+
+const T = DEFAULT_THRESHOLDS
+
+// Check values below that come from trade practice (common practice, no published source):
+// zero = 0.05 mg/L as N on hobby kits, three zero tests over 48 h, nitrate present above 0.5 mg/L as N,
+// a clearance dose cleared within about a day (30 h), 36 h between tests while cycling, a stall after
+// 14 days of high flat nitrite, stony corals about 30 days after completion (reference.md section 9).
+
+describe('textbook fishless cycle', () => {
+  const log = textbookFishless()
+
+  it('follows ammonia -> nitrite -> settling as the tests come in', () => {
+    expect(evaluateCycle(log.input(1)).phase).toBe('ammonia')
+    // Day 4: ammonia 1.3 is not yet a quarter below its 1.6 peak.
+    expect(evaluateCycle(log.input(4)).phase).toBe('ammonia')
+    // Day 5: ammonia 1.0 has fallen by more than a quarter while nitrite is up.
+    expect(evaluateCycle(log.input(5)).phase).toBe('nitrite')
+    // Day 11: ammonia from the feeding dose on day 10 does not send the tank back to the ammonia stage.
+    expect(evaluateCycle(log.input(11)).phase).toBe('nitrite')
+    expect(evaluateCycle(log.input(19)).phase).toBe('settling')
+  })
+
+  it('asks for a clearance test once ammonia and nitrite read zero, and says when one is under way', () => {
+    const settled = evaluateCycle(log.input(19))
+    expect(settled.completedOn).toBeNull()
+    expect(ruleIds(settled)).toContain('cycle.clearance-test')
+    const clearance = settled.actions.find(a => a.kind === 'clearance-test')
+    expect(clearance?.dueBy).toBe(at(20, 12))
+    const underWay = evaluateCycle(log.input(20, 15))
+    expect(underWay.phase).toBe('settling')
+    expect(underWay.findings.find(f => f.ruleId === 'cycle.clearance-test')?.message).toMatch(/under way/)
+    expect(underWay.actions.find(a => a.kind === 'retest')?.dueBy).toBe(at(21, 10))
+  })
+
+  it('is complete on the test that cleared the day-20 dose', () => {
+    const v = evaluateCycle(log.input(22))
+    expect(v.phase).toBe('complete')
+    expect(v.completedOn).toBe(at(21))
+    expect(ruleIds(v)).toContain('cycle.complete')
+    expect(v.findings.find(f => f.ruleId === 'cycle.complete')?.readingIds).toEqual(['r018-09', 'r021-09'])
+    expect(v.ruleSetVersion).toBe(RULE_SET_VERSION)
+  })
+
+  it('lets fish, invertebrates and soft corals in at completion and holds stony corals for 30 days', () => {
+    const v = evaluateCycle(log.input(22))
+    expect(v.readiness.fish).toEqual({ allowed: true, earliest: at(21), blockers: [] })
+    expect(v.readiness.invertebrates.allowed).toBe(true)
+    expect(v.readiness['soft-coral'].allowed).toBe(true)
+    expect(ruleIds(v)).toContain('readiness.soft-coral-young-tank')
+    for (const group of ['lps-coral', 'sps-coral'] as const) {
+      // 30 days after completion (reference.md section 9: about a month; common practice, no published source).
+      expect(v.readiness[group].allowed).toBe(false)
+      expect(v.readiness[group].earliest).toBe(at(51))
+      expect(v.readiness[group].blockers.join(' ')).toMatch(/wait 30 days/)
+    }
+  })
+
+  it('allows stony corals after the wait when salinity has held steady', () => {
+    const later = textbookFishless()
+    for (let day = 45; day <= 52; day += 1) later.test(day, { ammoniaN: 0, nitriteN: 0, nitrateN: 3, salinity: day % 2 ? 34.2 : 34.6 })
+    expect(evaluateCycle(later.input(50)).readiness['lps-coral'].allowed).toBe(false)
+    const v = evaluateCycle(later.input(52))
+    expect(v.readiness['lps-coral']).toEqual({ allowed: true, earliest: at(51), blockers: [] })
+    expect(v.readiness['sps-coral'].allowed).toBe(true)
+    expect(ruleIds(v)).not.toContain('readiness.soft-coral-young-tank')
+  })
+
+  it('keeps stony corals out while salinity swings, with the reason', () => {
+    const swinging = textbookFishless()
+    for (let day = 45; day <= 52; day += 1) swinging.test(day, { ammoniaN: 0, nitriteN: 0, nitrateN: 3, salinity: day % 2 ? 33.2 : 34.9 })
+    const v = evaluateCycle(swinging.input(52))
+    expect(v.readiness.fish.allowed).toBe(true)
+    expect(v.readiness['lps-coral'].allowed).toBe(false)
+    expect(v.readiness['lps-coral'].blockers.join(' ')).toMatch(/ranged 33.2-34.9/)
+  })
+})
+
+describe('clearance tests', () => {
+  /** The textbook tank up to its day-20 morning test, before the clearance dose. */
+  function beforeClearance() {
+    const log = textbookFishless()
+    log.readings.splice(log.readings.findIndex(r => r.id === 'r021-09'))
+    return log
+  }
+
+  it('accepts a test that shows the dose mid-way, once the next one reads zero in time', () => {
+    const log = beforeClearance()
+      .test(20, { ammoniaN: 1.6, nitriteN: 0, nitrateN: 1.9 }, 12)
+      .test(21, { ammoniaN: 0, nitriteN: 0, nitrateN: 3.2 })
+    const during = evaluateCycle(log.input(20, 13))
+    expect(during.phase).toBe('settling')
+    expect(during.completedOn).toBeNull()
+    const v = evaluateCycle(log.input(21, 12))
+    expect(v.phase).toBe('complete')
+    expect(v.completedOn).toBe(at(21))
+  })
+
+  it('does not accept a dose still showing after 30 h, and asks for another', () => {
+    const log = beforeClearance()
+      .test(21, { ammoniaN: 0.4, nitriteN: 0.2, nitrateN: 2.3 })
+      .test(22, { ammoniaN: 0, nitriteN: 0, nitrateN: 3.1 })
+    const failed = evaluateCycle(log.input(22))
+    expect(failed.phase).toBe('settling')
+    expect(failed.completedOn).toBeNull()
+    expect(ruleIds(failed)).toEqual(expect.arrayContaining(['cycle.clearance-failed', 'cycle.clearance-test']))
+    expect(failed.findings.find(f => f.ruleId === 'cycle.clearance-failed')?.readingIds).toEqual(['r021-09'])
+    expect(failed.readiness.fish.allowed).toBe(false)
+    log.dose(23, DOSE_2PPM_N).test(23, { ammoniaN: 0, nitriteN: 0, nitrateN: 3.1 }).test(24, { ammoniaN: 0, nitriteN: 0, nitrateN: 4.6 })
+    const passed = evaluateCycle(log.input(24))
+    // Zero tests on days 22, 23 and 24 after the failed one, and the day-23 dose cleared.
+    expect(passed.completedOn).toBe(at(24))
+  })
+})
+
+describe('fish-in cycle with a spike', () => {
+  const log = fishInWithSpike()
+
+  it('calls the day-5 spike a danger and sizes the water change with the dilution calculator', () => {
+    const v = evaluateCycle(log.input(5, 10))
+    expect(v.phase).toBe('ammonia')
+    const danger = v.findings.find(f => f.ruleId === 'ammonia.action-threshold')
+    expect(danger?.severity).toBe('danger')
+    expect(danger?.readingIds).toEqual(['r005-09'])
+    const change = v.actions.find(a => a.kind === 'water-change')
+    const target = T.waterChangeTargetFraction * T.ammoniaActionN
+    expect(change?.waterChangePercent).toBeCloseTo(waterChangePercentToReach({ current: 0.6, target }), 10)
+    // Independent check: after that change total ammonia is under the 0.5 ppm-as-NH3 action level.
+    expect(0.6 * (1 - (change?.waterChangePercent ?? 0) / 100)).toBeLessThan(T.ammoniaActionN)
+    expect(v.actions.find(a => a.kind === 'retest')?.dueBy).toBe(at(5, 22))
+  })
+
+  it('grades free ammonia against the EPA saltwater criteria', () => {
+    const v = evaluateCycle(log.input(5, 10))
+    const free = freeAmmonia(0.6, { pH: STEADY_WATER.pH, temperatureC: STEADY_WATER.temperatureC, salinity: STEADY_WATER.salinity })
+    // US EPA (1989) EPA 440/5-88-004: chronic 0.035 mg/L NH3, acute 0.233 mg/L NH3.
+    const expected = free > T.freeAmmoniaAcuteN ? 'ammonia.free-acute' : free > T.freeAmmoniaChronicN ? 'ammonia.free-chronic' : null
+    expect(expected).not.toBeNull()
+    expect(ruleIds(v)).toContain(expected)
+  })
+
+  it('notes the fish already in and keeps every group out while cycling', () => {
+    const v = evaluateCycle(log.input(5, 10))
+    expect(ruleIds(v)).toContain('livestock.fish-present')
+    expect(v.readiness.fish.allowed).toBe(false)
+    expect(v.readiness.fish.blockers.join(' ')).toMatch(/Fish are already in the tank/)
+    expect(v.readiness.fish.blockers.join(' ')).toMatch(/Total ammonia is 0.6/)
+  })
+
+  it('treats the fall right after the water change as dilution, and cautions on nitrite with fish in', () => {
+    expect(evaluateCycle(log.input(6)).phase).toBe('ammonia')
+    const v = evaluateCycle(log.input(12))
+    expect(v.phase).toBe('nitrite')
+    expect(ruleIds(v)).toContain('nitrite.high-with-animals')
+    expect(v.actions.find(a => a.kind === 'water-change')?.waterChangePercent).toBeGreaterThan(0)
+  })
+
+  it('completes on the third zero test, without a clearance dose', () => {
+    const v = evaluateCycle(log.input(21))
+    expect(v.phase).toBe('complete')
+    expect(v.completedOn).toBe(at(20))
+    expect(ruleIds(v)).not.toContain('livestock.fish-present')
+    expect(v.readiness.fish.allowed).toBe(true)
+  })
+})
+
+describe('stalled cycle', () => {
+  it('is not a stall after a week of high nitrite', () => {
+    const v = evaluateCycle(nitriteStall(12).input(12))
+    expect(v.phase).toBe('nitrite')
+    expect(ruleIds(v)).not.toContain('cycle.stalled')
+  })
+
+  it('is a stall after two weeks of high, flat nitrite, with what to check', () => {
+    const v = evaluateCycle(nitriteStall(30).input(30))
+    expect(v.phase).toBe('nitrite')
+    expect(v.completedOn).toBeNull()
+    const stall = v.findings.find(f => f.ruleId === 'cycle.stalled')
+    expect(stall?.severity).toBe('caution')
+    expect(stall?.message).toMatch(/Nitrite has stayed above/)
+    expect(v.actions.find(a => a.kind === 'check-stall')?.message).toMatch(/pH/)
+    expect(v.readiness.fish.allowed).toBe(false)
+  })
+})
+
+describe('all zeros because nothing was ever fed', () => {
+  it('has not started, however many zero tests there are', () => {
+    const v = evaluateCycle(neverFed().input(14))
+    expect(v.phase).toBe('not-started')
+    expect(v.completedOn).toBeNull()
+    expect(ruleIds(v)).toEqual(['cycle.not-started'])
+    expect(v.findings[0]?.readingIds).toHaveLength(14)
+    expect(v.actions.map(a => a.kind)).toEqual(['start-cycle'])
+    for (const group of Object.values(v.readiness)) expect(group.allowed).toBe(false)
+  })
+
+  it('stays unproven with nitrate present and bacteria dosed: zeros are not proof', () => {
+    const log = neverFed().bacteria(0)
+    for (let day = 15; day <= 20; day += 1) log.test(day, { ammoniaN: 0, nitriteN: 0, nitrateN: 2 })
+    const v = evaluateCycle(log.input(20))
+    expect(v.phase).toBe('settling')
+    expect(v.completedOn).toBeNull()
+    expect(ruleIds(v)).toContain('cycle.unproven')
+  })
+})
+
+describe('a missing week of tests', () => {
+  const log = missingWeek()
+
+  it('warns while the tests are missing', () => {
+    const v = evaluateCycle(log.input(20))
+    expect(v.phase).toBe('settling')
+    expect(v.completedOn).toBeNull()
+    expect(ruleIds(v)).toContain('testing.overdue')
+    expect(v.actions[0]?.kind).toBe('test-now')
+    expect(v.readiness.fish.allowed).toBe(false)
+  })
+
+  it('restarts the count of zero tests after the gap and says so', () => {
+    const v = evaluateCycle(log.input(25))
+    expect(v.phase).toBe('complete')
+    // Without the gap rule the day-24 test would have completed it.
+    expect(v.completedOn).toBe(at(25))
+    expect(v.readiness.fish).toEqual({ allowed: true, earliest: at(25), blockers: [] })
+    expect(v.readiness['lps-coral'].earliest).toBe(at(55))
+    expect(v.findings.find(f => f.ruleId === 'testing.gap')?.readingIds).toEqual(['r015-09', 'r023-09'])
+    const lenient = evaluateCycle(log.input(25, 12, { zeroRunMaxGapHours: 240 }))
+    expect(lenient.completedOn).toBe(at(24))
+    expect(ruleIds(lenient)).not.toContain('testing.gap')
+  })
+})
+
+describe('a water change mid-cycle', () => {
+  const log = waterChangeMidCycle()
+
+  it('does not count a dose diluted by a water change as cleared', () => {
+    const v = evaluateCycle(log.input(17, 20))
+    expect(v.phase).toBe('settling')
+    expect(v.completedOn).toBeNull()
+    expect(ruleIds(v)).toEqual(expect.arrayContaining(['water-change.dilution', 'cycle.clearance-failed']))
+    expect(v.findings.find(f => f.ruleId === 'cycle.clearance-failed')?.message).toMatch(/water change/)
+    expect(v.readiness.fish.allowed).toBe(false)
+    expect(v.readiness.fish.blockers).toEqual(['Not yet: ammonia and nitrite read low, but the cycle is not yet proven.'])
+  })
+
+  it('completes on the test that cleared the second dose', () => {
+    const v = evaluateCycle(log.input(19))
+    expect(v.phase).toBe('complete')
+    expect(v.completedOn).toBe(at(19))
+    expect(v.findings.find(f => f.ruleId === 'cycle.complete')?.message).toMatch(/dose of 2026-03-20 10:00 UTC was cleared/)
+    expect(v.readiness.invertebrates).toEqual({ allowed: true, earliest: at(19), blockers: [] })
+  })
+})
+
+describe('a crash after livestock', () => {
+  const log = crashAfterLivestock()
+
+  it('loses the completion when ammonia jumps after the fish go in', () => {
+    const v = evaluateCycle(log.input(23))
+    expect(v.phase).toBe('ammonia')
+    expect(v.completedOn).toBeNull()
+    expect(ruleIds(v)).toEqual(expect.arrayContaining(['cycle.lost', 'ammonia.action-threshold', 'livestock.ammonia-rise']))
+    expect(v.findings[0]?.severity).toBe('danger')
+    expect(v.actions[0]?.kind).toBe('water-change')
+    for (const group of Object.values(v.readiness)) expect(group.allowed).toBe(false)
+  })
+
+  it('asks for an ammonia test the day the fish go in', () => {
+    const v = evaluateCycle(log.input(22, 16))
+    expect(v.phase).toBe('complete')
+    expect(ruleIds(v)).toContain('livestock.retest')
+    expect(v.actions.find(a => a.kind === 'retest')?.dueBy).toBe(at(23, 14))
+  })
+
+  it('drops the re-test advice once ammonia is back down, but the tank still has to prove itself', () => {
+    const v = evaluateCycle(log.input(26))
+    expect(v.phase).toBe('nitrite')
+    expect(ruleIds(v)).toContain('cycle.lost')
+    expect(ruleIds(v)).not.toContain('livestock.ammonia-rise')
+  })
+
+  it('is complete again after three zero tests, with no clearance dose asked of a stocked tank', () => {
+    const v = evaluateCycle(log.input(29))
+    expect(v.phase).toBe('complete')
+    expect(v.completedOn).toBe(at(29))
+    expect(v.readiness['lps-coral'].earliest).toBe(at(59))
+  })
+})
