@@ -5,7 +5,7 @@
  */
 import type { Chart, Plugin } from 'chart.js'
 
-export interface ChartSpan { from: number, to: number, color: string }
+export interface ChartSpan { from: number, to: number, color: string, label?: string }
 export interface ChartBand { from: number, to: number, color: string, axis?: string }
 export interface ChartLine { y: number, color: string, label: string, axis?: string }
 export interface ChartMarker { x: number, color: string, label: string }
@@ -29,6 +29,11 @@ function draw(chart: Chart, options: BandsOptions) {
     if (right <= left) continue
     ctx.fillStyle = span.color
     ctx.fillRect(left, area.top, right - left, area.bottom - area.top)
+    if (span.label && right - left > 40) {
+      ctx.fillStyle = '#6b8189'
+      ctx.font = '11px "Source Sans 3", system-ui, sans-serif'
+      ctx.fillText(span.label, left + 4, area.bottom - 4)
+    }
   }
   for (const band of options.bands ?? []) {
     const y = scales[band.axis ?? 'y']
