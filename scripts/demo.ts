@@ -31,5 +31,8 @@ const server = spawn(process.execPath, ['.output/server/index.mjs'], {
     ...(catcher ? { NUXT_SMTP_HOST: '127.0.0.1', NUXT_SMTP_PORT: String(catcher.port), NUXT_DEV_MAIL: '1', NUXT_DEV_MAIL_FILE: catcher.file } : {}),
   },
 })
-server.on('exit', (code) => { void catcher?.close(); process.exit(code ?? 0) })
+server.on('exit', (code) => {
+  void catcher?.close()
+  process.exit(code ?? 0)
+})
 for (const signal of ['SIGINT', 'SIGTERM'] as const) process.on(signal, () => server.kill(signal))

@@ -72,9 +72,11 @@ export function parseMail(raw: string): Pick<CaughtMail, 'headers' | 'text' | 'h
       if (type.startsWith('text/html')) html = decoded
       else if (type.startsWith('text/plain')) text = decoded
     }
-  } else if ((headers['content-type'] ?? 'text/plain').toLowerCase().startsWith('text/html')) {
+  }
+  else if ((headers['content-type'] ?? 'text/plain').toLowerCase().startsWith('text/html')) {
     html = decodeBody(headers, body)
-  } else {
+  }
+  else {
     text = decodeBody(headers, body)
   }
   return {
@@ -194,5 +196,5 @@ if (import.meta.url === pathToFileURL(process.argv[1] ?? '').href) {
     file: process.env.MAIL_CATCHER_FILE ?? 'data/mail-caught.jsonl',
   })
   console.log(`Tidewright mail catcher: smtp://127.0.0.1:${catcher.port}, messages in ${catcher.file}`)
-  for (const signal of ['SIGINT', 'SIGTERM'] as const) process.on(signal, () => { catcher.close().then(() => process.exit(0)) })
+  for (const signal of ['SIGINT', 'SIGTERM'] as const) process.on(signal, () => void catcher.close().then(() => process.exit(0)))
 }

@@ -45,6 +45,8 @@ export function useNoticeStream(onChange?: () => void) {
 export async function useNotificationList() {
   const { unread } = useUnreadNotices()
   const result = await useFetch<NotificationList>('/api/notifications', { key: 'notifications', headers: useRequestHeaders(['cookie']) })
-  watch(() => result.data.value?.unread, (value) => { if (value !== undefined) unread.value = value }, { immediate: true })
+  watch(() => result.data.value?.unread, (value) => {
+    if (value !== undefined) unread.value = value
+  }, { immediate: true })
   return result
 }

@@ -78,7 +78,10 @@ export function runTestReminders(db: TidewrightDB, now: Date, baseUrl: string): 
               userId: client.id, organisationId: org.id, kind: 'test-reminder', title: `Test due: ${tank.name}`, body, link: `/tanks/${tank.id}`,
               email: { subject: `Reminder: today's test for ${tank.name}`, text: `${body}\n\n${url}`, html: plainHtml([body], { href: url, label: `Enter today's test` }), messageId: `<reminder-${tank.id}-${client.id}-${today.date}@mail.tidewright.invalid>` },
             }, now)
-            if (notice.created) { out.reminded.push({ tankId: tank.id, userId: client.id }); out.notifiedUserIds.push(client.id) }
+            if (notice.created) {
+              out.reminded.push({ tankId: tank.id, userId: client.id })
+              out.notifiedUserIds.push(client.id)
+            }
           }
         }
         // Days without a test: the whole days since the last one, and today once it is past due.
@@ -92,7 +95,10 @@ export function runTestReminders(db: TidewrightDB, now: Date, baseUrl: string): 
             userId: aquarist.id, organisationId: org.id, kind: 'tests-missed', title: `Tests missed: ${tank.name}`, body, link: `/tanks/${tank.id}`,
             email: { subject: `${tank.name}: ${missed} days without a test`, text: `${body}\n\n${url}`, html: plainHtml([body], { href: url, label: `Open ${tank.name}` }), messageId: `<missed-${tank.id}-${gap}@mail.tidewright.invalid>` },
           }, now)
-          if (notice.created) { out.aquaristsTold.push({ tankId: tank.id, userId: aquarist.id, missedDays: missed }); out.notifiedUserIds.push(aquarist.id) }
+          if (notice.created) {
+            out.aquaristsTold.push({ tankId: tank.id, userId: aquarist.id, missedDays: missed })
+            out.notifiedUserIds.push(aquarist.id)
+          }
         }
       })
     }

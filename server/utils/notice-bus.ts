@@ -16,5 +16,5 @@ export function announceNotices(userIds: readonly string[]): void {
 /** Calls `listener` whenever the user's notices change; returns the unsubscribe function. */
 export function onNoticesChanged(userId: string, listener: () => void): () => void {
   bus.on(`user:${userId}`, listener)
-  return () => { bus.off(`user:${userId}`, listener) }
+  return () => void bus.off(`user:${userId}`, listener)
 }

@@ -107,7 +107,7 @@ describe('password reset', () => {
     const before = (await caughtMail()).filter(m => m.envelopeTo.includes(email) && /reset/i.test(m.subject)).length
     const answer = await new ApiClient().post('/api/auth/forgot-password', { email })
     expect(answer.status).toBe(200)
-    const mail = await waitForMail('reset e-mail', all => {
+    const mail = await waitForMail('reset e-mail', (all) => {
       const resets = all.filter(m => m.envelopeTo.includes(email) && /reset/i.test(m.subject))
       return resets.length > before && resets.at(-1)
     })

@@ -4,8 +4,12 @@ import { ApiClient } from '../support/http'
 import { launchBrowser, openPage, screenshot, signInThroughForm } from '../support/browser'
 
 let browser: Browser
-beforeAll(async () => { browser = await launchBrowser() })
-afterAll(async () => { await browser?.close() })
+beforeAll(async () => {
+  browser = await launchBrowser()
+})
+afterAll(async () => {
+  await browser?.close()
+})
 
 const { demo } = inject('fixtures')
 const study = demo.tanks.study
@@ -25,7 +29,9 @@ describe('live notifications', () => {
     const bell = aquarist.page.getByRole('link', { name: /^Notifications/ })
     await expect.poll(() => bell.getAttribute('aria-label')).toMatch(/unread/)
     const before = Number(await aquarist.page.getByTestId('unread-badge').textContent())
-    await aquarist.page.evaluate(() => { (window as unknown as { notReloaded: boolean }).notReloaded = true })
+    await aquarist.page.evaluate(() => {
+      (window as unknown as { notReloaded: boolean }).notReloaded = true
+    })
     await screenshot(aquarist.page, 'bell-before-1280')
 
     const client = await openPage(browser, 375)

@@ -6,9 +6,9 @@
 export default defineEventHandler(async (event) => {
   const actor = await requireActor(event)
   const stream = createEventStream(event)
-  const push = () => { stream.push({ event: 'unread', data: JSON.stringify({ unread: unreadCount(actor.id) }) }).catch(() => undefined) }
+  const push = () => void stream.push({ event: 'unread', data: JSON.stringify({ unread: unreadCount(actor.id) }) }).catch(() => undefined)
   const unsubscribe = onNoticesChanged(actor.id, push)
-  const keepAlive = setInterval(() => { stream.pushComment('keep-alive').catch(() => undefined) }, 25_000)
+  const keepAlive = setInterval(() => void stream.pushComment('keep-alive').catch(() => undefined), 25_000)
   stream.onClosed(async () => {
     unsubscribe()
     clearInterval(keepAlive)
