@@ -8,7 +8,7 @@ export default defineEventHandler(async (event) => {
   const stream = createEventStream(event)
   const push = () => void stream.push({ event: 'unread', data: JSON.stringify({ unread: unreadCount(actor.id) }) }).catch(() => undefined)
   const unsubscribe = onNoticesChanged(actor.id, push)
-  const keepAlive = setInterval(() => void stream.pushComment('keep-alive').catch(() => undefined), 25_000)
+  const keepAlive = setInterval(() => void stream.push({ event: 'ping', data: '1' }).catch(() => undefined), 25_000)
   stream.onClosed(async () => {
     unsubscribe()
     clearInterval(keepAlive)
