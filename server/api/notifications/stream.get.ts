@@ -1,6 +1,6 @@
 /**
  * GET /api/notifications/stream — server-sent events for the signed-in user: an `unread`
- * event with { unread } at once and whenever their notices change; a comment every 25 s
+ * event with { unread } at once and whenever their notices change; a `ping` event every 25 s
  * keeps proxies from closing the stream.
  */
 export default defineEventHandler(async (event) => {
