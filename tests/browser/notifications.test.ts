@@ -110,6 +110,20 @@ describe('live notifications', () => {
     await context.close()
   })
 
+  it('the admin reads the caught mail, including the seeded alert\'s e-mail (1280 px)', async () => {
+    const { page, context, problems } = await openPage(browser, 1280)
+    await signInThroughForm(page, 'admin@tidewright.test')
+    await page.getByRole('link', { name: 'Caught mail' }).click()
+    await page.waitForURL(/\/admin\/mail$/)
+    const message = page.getByRole('button', { name: /Danger on Fernhill study reef/ }).first()
+    await expect.poll(() => message.isVisible()).toBe(true)
+    await message.click()
+    await expect.poll(() => page.getByText('What to do:').first().isVisible()).toBe(true)
+    await screenshot(page, 'caught-mail-1280')
+    expect(problems).toEqual([])
+    await context.close()
+  })
+
   it('the set-password page refuses a used or unknown link plainly', async () => {
     const { page, context } = await openPage(browser, 375)
     await page.goto('/reset-password?token=AAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAA')
