@@ -1,5 +1,7 @@
 // Tidewright's Nuxt configuration. Runtime values are overridden by NUXT_* environment
 // variables (NUXT_DB_PATH, NUXT_SESSION_PASSWORD, ...); see README.md.
+import { fileURLToPath } from 'node:url'
+
 export default defineNuxtConfig({
   compatibilityDate: '2025-07-15',
   modules: ['@nuxtjs/tailwindcss', '@pinia/nuxt', '@vueuse/nuxt', 'nuxt-auth-utils', 'nuxt-security'],
@@ -20,6 +22,8 @@ export default defineNuxtConfig({
   },
   runtimeConfig: {
     dbPath: 'data/tidewright.sqlite',
+    /** Where uploaded photos and PDFs are kept by the fs driver (NUXT_UPLOADS_DIR). */
+    uploadsDir: 'data/uploads',
     migrationsDir: 'drizzle',
     session: {
       name: 'tidewright-session',
@@ -67,6 +71,9 @@ export default defineNuxtConfig({
     // Sign-in throttling is Tidewright's own (per account and address); a global
     // token bucket would refuse honest bursts such as a day's CSV import.
     rateLimiter: false,
+    // Uploads are checked by server/utils/uploads.ts (10 MB, with a clear message); this outer
+    // limit sits just above it so the app's own check answers first.
+    requestSizeLimiter: { maxRequestSizeInBytes: 2_000_000, maxUploadFileRequestInBytes: 10 * 1024 * 1024 + 128 * 1024 },
     // Tidewright serves its own pages only; no other origin may call the API.
     corsHandler: false,
     // Input is validated with valibot and Vue escapes output; this filter would refuse
@@ -79,6 +86,19 @@ export default defineNuxtConfig({
     '/api/tanks/*/readings/import': {
       security: { requestSizeLimiter: { maxRequestSizeInBytes: 24_000_000, maxUploadFileRequestInBytes: 24_000_000 } },
     },
+  },
+  nitro: {
+    // Uploaded files: never under public/, served only through /api/uploads/:id after an access check.
+    // The directory comes from NUXT_UPLOADS_DIR at start; S3-compatible storage: DEVELOPERS.md, "Uploads".
+    storage: {
+      uploads: { driver: 'fs', base: './data/uploads' },
+    },
+    // The certificate PDF embeds our own font; only the two faces it uses are bundled.
+    serverAssets: [{
+      baseName: 'fonts',
+      dir: fileURLToPath(new URL('./node_modules/@fontsource/source-sans-3/files', import.meta.url)),
+      pattern: 'source-sans-3-latin-{400,700}-normal.woff',
+    }],
   },
   // main.css carries the @tailwind layers; the module must not inject a second copy.
   tailwindcss: { cssPath: false },

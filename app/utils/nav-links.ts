@@ -12,6 +12,9 @@ const STAFF: readonly Role[] = ['admin', 'aquarist', 'supervisor']
 /** The main navigation, one line per destination; each feature adds its own line. */
 export const NAV_LINKS: readonly NavLink[] = [
   { to: '/', label: 'Tanks', roles: EVERYONE },
+  { to: '/clients', label: 'Clients', roles: STAFF },
+  { to: '/plan-template', label: 'Plan template', roles: ['admin'] },
+  { to: '/reviews', label: 'Reviews', roles: ['admin', 'supervisor'] },
   { to: '/alerts', label: 'Alerts', roles: STAFF },
   { to: '/people/invite', label: 'Invite', roles: ['admin', 'aquarist'] },
   { to: '/admin/mail', label: 'Caught mail', roles: ['admin'] },
