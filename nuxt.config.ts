@@ -87,6 +87,8 @@ export default defineNuxtConfig({
       security: { requestSizeLimiter: { maxRequestSizeInBytes: 24_000_000, maxUploadFileRequestInBytes: 24_000_000 } },
     },
   },
+  // main.css carries the @tailwind layers; the module must not inject a second copy.
+  tailwindcss: { cssPath: false },
   nitro: {
     // Uploaded files: never under public/, served only through /api/uploads/:id after an access check.
     // The directory comes from NUXT_UPLOADS_DIR at start; S3-compatible storage: DEVELOPERS.md, "Uploads".
@@ -100,7 +102,5 @@ export default defineNuxtConfig({
       pattern: 'source-sans-3-latin-{400,700}-normal.woff',
     }],
   },
-  // main.css carries the @tailwind layers; the module must not inject a second copy.
-  tailwindcss: { cssPath: false },
   typescript: { strict: true, typeCheck: false },
 })
