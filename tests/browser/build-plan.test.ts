@@ -78,7 +78,7 @@ describe('building a tank through its plan', () => {
     await leak.getByRole('button', { name: 'Filled now' }).click()
     await expect.poll(() => leak.getByRole('button', { name: 'Checked now' }).isEnabled()).toBe(true)
     await leak.getByRole('button', { name: 'Checked now' }).click()
-    await expect.poll(() => leak.textContent()).toMatch(/Elapsed0\.0 h/)
+    await expect.poll(() => leak.textContent()).toMatch(/Elapsed\s*0\.0 h/)
     await leak.getByLabel('Leak test result').selectOption('pass')
     await expect.poll(() => leak.getByLabel('Leak test result').isEnabled()).toBe(true)
     await leak.getByRole('button', { name: 'Mark stage done' }).click()
