@@ -3,12 +3,10 @@
 import { fileURLToPath } from 'node:url'
 
 export default defineNuxtConfig({
-  compatibilityDate: '2025-07-15',
   modules: ['@nuxtjs/tailwindcss', '@pinia/nuxt', '@vueuse/nuxt', 'nuxt-auth-utils', 'nuxt-security'],
-  devtools: { enabled: false },
   // Components live in one folder per area but are named by file alone: tanks/TankCard.vue is <TankCard>.
   components: [{ path: '~/components', pathPrefix: false }],
-  css: ['@fontsource/source-sans-3/400.css', '@fontsource/source-sans-3/600.css', '@fontsource/source-sans-3/700.css', '~/assets/css/main.css'],
+  devtools: { enabled: false },
   app: {
     head: {
       htmlAttrs: { lang: 'en' },
@@ -20,6 +18,7 @@ export default defineNuxtConfig({
       link: [{ rel: 'icon', type: 'image/svg+xml', href: '/favicon.svg' }],
     },
   },
+  css: ['@fontsource/source-sans-3/400.css', '@fontsource/source-sans-3/600.css', '@fontsource/source-sans-3/700.css', '~/assets/css/main.css'],
   runtimeConfig: {
     dbPath: 'data/tidewright.sqlite',
     /** Where uploaded photos and PDFs are kept by the fs driver (NUXT_UPLOADS_DIR). */
@@ -46,22 +45,44 @@ export default defineNuxtConfig({
       baseUrl: 'http://localhost:3000',
     },
   },
+  routeRules: {
+    // A year of twice-daily readings is ~50 kB; bulk imports of 100,000 rows are ~8 MB.
+    // Only the import route accepts large bodies; everything else keeps the 2 MB default.
+    '/api/tanks/*/readings/import': {
+      security: { requestSizeLimiter: { maxRequestSizeInBytes: 24_000_000, maxUploadFileRequestInBytes: 24_000_000 } },
+    },
+  },
+  compatibilityDate: '2025-07-15',
+  nitro: {
+    // Uploaded files: never under public/, served only through /api/uploads/:id after an access check.
+    // The directory comes from NUXT_UPLOADS_DIR at start; S3-compatible storage: DEVELOPERS.md, "Uploads".
+    storage: {
+      uploads: { driver: 'fs', base: './data/uploads' },
+    },
+    // The certificate PDF embeds our own font; only the two faces it uses are bundled.
+    serverAssets: [{
+      baseName: 'fonts',
+      dir: fileURLToPath(new URL('./node_modules/@fontsource/source-sans-3/files', import.meta.url)),
+      pattern: 'source-sans-3-latin-{400,700}-normal.woff',
+    }],
+  },
+  typescript: { strict: true, typeCheck: false },
   security: {
     nonce: true,
     headers: {
       contentSecurityPolicy: {
-        'default-src': ["'self'"],
-        'base-uri': ["'none'"],
-        'connect-src': ["'self'"],
-        'font-src': ["'self'"],
-        'form-action': ["'self'"],
-        'frame-ancestors': ["'none'"],
-        'img-src': ["'self'", 'data:', 'blob:'],
-        'object-src': ["'none'"],
-        'script-src': ["'self'", "'strict-dynamic'", "'nonce-{{nonce}}'"],
-        'script-src-attr': ["'none'"],
+        'default-src': ['\'self\''],
+        'base-uri': ['\'none\''],
+        'connect-src': ['\'self\''],
+        'font-src': ['\'self\''],
+        'form-action': ['\'self\''],
+        'frame-ancestors': ['\'none\''],
+        'img-src': ['\'self\'', 'data:', 'blob:'],
+        'object-src': ['\'none\''],
+        'script-src': ['\'self\'', '\'strict-dynamic\'', '\'nonce-{{nonce}}\''],
+        'script-src-attr': ['\'none\''],
         // Vue binds inline style attributes (chart sizes, progress bars).
-        'style-src': ["'self'", "'unsafe-inline'"],
+        'style-src': ['\'self\'', '\'unsafe-inline\''],
         'upgrade-insecure-requests': false,
       },
       crossOriginEmbedderPolicy: false,
@@ -80,27 +101,6 @@ export default defineNuxtConfig({
     // honest notes that contain angle brackets.
     xssValidator: false,
   },
-  routeRules: {
-    // A year of twice-daily readings is ~50 kB; bulk imports of 100,000 rows are ~8 MB.
-    // Only the import route accepts large bodies; everything else keeps the 2 MB default.
-    '/api/tanks/*/readings/import': {
-      security: { requestSizeLimiter: { maxRequestSizeInBytes: 24_000_000, maxUploadFileRequestInBytes: 24_000_000 } },
-    },
-  },
   // main.css carries the @tailwind layers; the module must not inject a second copy.
   tailwindcss: { cssPath: false },
-  nitro: {
-    // Uploaded files: never under public/, served only through /api/uploads/:id after an access check.
-    // The directory comes from NUXT_UPLOADS_DIR at start; S3-compatible storage: DEVELOPERS.md, "Uploads".
-    storage: {
-      uploads: { driver: 'fs', base: './data/uploads' },
-    },
-    // The certificate PDF embeds our own font; only the two faces it uses are bundled.
-    serverAssets: [{
-      baseName: 'fonts',
-      dir: fileURLToPath(new URL('./node_modules/@fontsource/source-sans-3/files', import.meta.url)),
-      pattern: 'source-sans-3-latin-{400,700}-normal.woff',
-    }],
-  },
-  typescript: { strict: true, typeCheck: false },
 })
