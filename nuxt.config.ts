@@ -28,6 +28,8 @@ export default defineNuxtConfig({
       cookie: { sameSite: 'lax', httpOnly: true, secure: true },
     },
     signIn: { accountFailureLimit: 8, addressFailureLimit: 30, windowMinutes: 15 },
+    // NUXT_BENCH_ROUTES=1 enables the benchmark floor routes under server/api/bench (npm run bench only).
+    benchRoutes: false,
   },
   security: {
     nonce: true,
