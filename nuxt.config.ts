@@ -20,6 +20,8 @@ export default defineNuxtConfig({
   },
   runtimeConfig: {
     dbPath: 'data/tidewright.sqlite',
+    /** Where uploaded photos and PDFs are kept by the fs driver (NUXT_UPLOADS_DIR). */
+    uploadsDir: 'data/uploads',
     migrationsDir: 'drizzle',
     session: {
       name: 'tidewright-session',
@@ -61,6 +63,13 @@ export default defineNuxtConfig({
     // Input is validated with valibot and Vue escapes output; this filter would refuse
     // honest notes that contain angle brackets.
     xssValidator: false,
+  },
+  nitro: {
+    // Uploaded files: never under public/, served only through /api/uploads/:id after an access check.
+    // Production may swap in unstorage's S3-compatible driver here (see DEVELOPERS.md, "Uploads").
+    storage: {
+      uploads: { driver: 'fs', base: './data/uploads' },
+    },
   },
   typescript: { strict: true, typeCheck: false },
 })

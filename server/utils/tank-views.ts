@@ -3,11 +3,19 @@ import { and, asc, desc, eq, or, sql, type SQL } from 'drizzle-orm'
 import { alias } from 'drizzle-orm/sqlite-core'
 import type { TankListQuery } from '#shared/schemas/tank-list'
 import type { CyclePhase, TankList, TankSummary, TankView } from '#shared/types/tanks'
-import { clients, sites, tankVerdicts, tanks, users } from '../db/schema'
+import { clients, planStages, sites, tankVerdicts, tanks, users } from '../db/schema'
 import { visibleTankCondition, type Actor } from './access'
 
 const aquarist = alias(users, 'aquarist')
 const supervisor = alias(users, 'supervisor')
+
+// The first stage that is neither done nor skipped: where the build stands.
+const open = sql`${planStages.tankId} = ${tanks.id} and ${planStages.status} not in ('done', 'skipped')`
+const currentStageKey = sql<string | null>`(select ${planStages.key} from ${planStages} where ${open} order by ${planStages.position} limit 1)`
+const currentStageTitle = sql<string | null>`(select ${planStages.title} from ${planStages} where ${open} order by ${planStages.position} limit 1)`
+const currentStagePosition = sql<number>`coalesce((select ${planStages.position} from ${planStages} where ${open} order by ${planStages.position} limit 1), 100000)`
+const stagesDone = sql<number>`(select count(*) from ${planStages} where ${planStages.tankId} = ${tanks.id} and ${planStages.status} in ('done', 'skipped'))`
+const stagesTotal = sql<number>`(select count(*) from ${planStages} where ${planStages.tankId} = ${tanks.id})`
 
 function baseQuery() {
   return useDB().select({
@@ -17,6 +25,10 @@ function baseQuery() {
     aquaristName: aquarist.name,
     supervisorName: supervisor.name,
     phase: tankVerdicts.phase,
+    currentStageKey,
+    currentStageTitle,
+    stagesDone,
+    stagesTotal,
   }).from(tanks)
     .innerJoin(clients, eq(clients.id, tanks.clientId))
     .leftJoin(sites, eq(sites.id, tanks.siteId))
@@ -39,6 +51,10 @@ function toSummary(row: Row): TankSummary {
     siteLabel: row.siteLabel,
     aquaristName: row.aquaristName,
     phase: (row.phase as CyclePhase | null) ?? null,
+    currentStageKey: row.currentStageKey ?? null,
+    currentStageTitle: row.currentStageTitle ?? null,
+    stagesDone: Number(row.stagesDone ?? 0),
+    stagesTotal: Number(row.stagesTotal ?? 0),
     cycleStartedAt: t.cycleStartedAt,
     updatedAt: t.updatedAt,
   }
@@ -49,6 +65,7 @@ const SORT_COLUMNS = {
   status: tanks.status,
   client: clients.name,
   updated: tanks.updatedAt,
+  stage: currentStagePosition,
 } as const
 
 /** One page of the tanks the actor may see, filtered and sorted on the server. */
@@ -56,6 +73,8 @@ export function listTanks(actor: Actor, query: TankListQuery): TankList {
   const conditions: SQL[] = [visibleTankCondition(actor)]
   if (query.status) conditions.push(eq(tanks.status, query.status))
   if (query.clientId) conditions.push(eq(tanks.clientId, query.clientId))
+  if (query.stage === 'complete') conditions.push(sql`${currentStageKey} is null`)
+  else if (query.stage) conditions.push(sql`${currentStageKey} = ${query.stage}`)
   if (query.q) {
     const pattern = `%${query.q.replace(/[%_\\]/g, m => `\\${m}`)}%`
     conditions.push(or(sql`${tanks.name} like ${pattern} escape '\\'`, sql`${clients.name} like ${pattern} escape '\\'`)!)

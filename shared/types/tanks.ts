@@ -13,6 +13,11 @@ export interface TankSummary {
   siteLabel: string | null
   aquaristName: string | null
   phase: CyclePhase | null
+  /** The first stage of the build plan that is neither done nor skipped; null when all are. */
+  currentStageKey: string | null
+  currentStageTitle: string | null
+  stagesDone: number
+  stagesTotal: number
   cycleStartedAt: string | null
   updatedAt: string
 }

@@ -32,7 +32,7 @@ export async function setup(project: TestProject) {
   migrateDatabase(db)
   const fixtures = await seedFixtures(db)
   db.$client.close()
-  server = await startServer({ dbPath })
+  server = await startServer({ dbPath, env: { NUXT_UPLOADS_DIR: join(dir, 'uploads') } })
   project.provide('baseURL', server.baseURL)
   project.provide('dbPath', dbPath)
   project.provide('fixtures', fixtures)

@@ -1,0 +1,22 @@
+import { eq } from 'drizzle-orm'
+import { ClientPatchSchema } from '#shared/schemas/clients'
+import { IdParams } from '#shared/schemas/common'
+import { clients } from '../../db/schema'
+
+/** PATCH /api/clients/:id — edits a client's name and contact details. Returns ClientView. */
+export default defineEventHandler(async (event) => {
+  const actor = await requireActor(event, ['admin', 'aquarist'])
+  const { id } = await getValidatedRouterParams(event, valid(IdParams))
+  const input = await readValidatedBody(event, valid(ClientPatchSchema))
+  const before = requireClient(actor, id)
+  const changes: Partial<typeof clients.$inferInsert> = {}
+  if (input.name !== undefined) changes.name = input.name
+  if (input.email !== undefined) changes.email = input.email || null
+  if (input.phone !== undefined) changes.phone = input.phone || null
+  if (input.notes !== undefined) changes.notes = input.notes || null
+  if (Object.keys(changes).length) {
+    const after = useDB().update(clients).set(changes).where(eq(clients.id, id)).returning().get()
+    writeAudit(actor, { action: 'client.update', entity: 'client', entityId: id, before, after })
+  }
+  return clientView(actor, id)
+})

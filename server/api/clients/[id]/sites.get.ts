@@ -1,0 +1,12 @@
+import { asc, eq } from 'drizzle-orm'
+import { STAFF_ROLES } from '#shared/types/roles'
+import { IdParams } from '#shared/schemas/common'
+import { sites } from '../../../db/schema'
+
+/** GET /api/clients/:id/sites — the client's sites, archived ones included. Returns SiteView[]. */
+export default defineEventHandler(async (event) => {
+  const actor = await requireActor(event, STAFF_ROLES)
+  const { id } = await getValidatedRouterParams(event, valid(IdParams))
+  requireClient(actor, id)
+  return useDB().select().from(sites).where(eq(sites.clientId, id)).orderBy(asc(sites.label), asc(sites.id)).all().map(toSiteView)
+})

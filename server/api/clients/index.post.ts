@@ -1,0 +1,18 @@
+import { ClientCreateSchema } from '#shared/schemas/clients'
+import { clients } from '../../db/schema'
+
+/** POST /api/clients — adds a client record (no sign-in account). Returns ClientView with status 201. */
+export default defineEventHandler(async (event) => {
+  const actor = await requireActor(event, ['admin', 'aquarist'])
+  const input = await readValidatedBody(event, valid(ClientCreateSchema))
+  const row = useDB().insert(clients).values({
+    organisationId: actor.organisationId,
+    name: input.name,
+    email: input.email || null,
+    phone: input.phone || null,
+    notes: input.notes || null,
+  }).returning().get()
+  writeAudit(actor, { action: 'client.create', entity: 'client', entityId: row.id, after: row })
+  setResponseStatus(event, 201)
+  return clientView(actor, row.id)
+})

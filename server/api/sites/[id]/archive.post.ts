@@ -1,0 +1,18 @@
+import { eq } from 'drizzle-orm'
+import * as v from 'valibot'
+import { IdParams } from '#shared/schemas/common'
+import { sites } from '../../../db/schema'
+
+const ArchiveSchema = v.object({ archived: v.optional(v.boolean('archived is true or false.'), true) })
+
+/** POST /api/sites/:id/archive — archives a site (or restores it with `{ archived: false }`). Returns SiteView. */
+export default defineEventHandler(async (event) => {
+  const actor = await requireActor(event, ['admin', 'aquarist'])
+  const { id } = await getValidatedRouterParams(event, valid(IdParams))
+  const { archived } = await readValidatedBody(event, valid(ArchiveSchema))
+  const before = requireSite(actor, id)
+  if (!!before.archivedAt === archived) return toSiteView(before)
+  const after = useDB().update(sites).set({ archivedAt: archived ? new Date().toISOString() : null }).where(eq(sites.id, id)).returning().get()
+  writeAudit(actor, { action: archived ? 'site.archive' : 'site.restore', entity: 'site', entityId: id, before, after })
+  return toSiteView(after)
+})

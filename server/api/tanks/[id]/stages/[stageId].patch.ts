@@ -1,0 +1,36 @@
+import { eq } from 'drizzle-orm'
+import { StageParams, StagePatchSchema } from '#shared/schemas/plan'
+import { planStages, tanks } from '../../../../db/schema'
+
+/**
+ * PATCH /api/tanks/:id/stages/:stageId — changes a stage's status, ticks, notes or helper values.
+ * Starting a stage moves a planned tank to building; finishing the water fill starts the cycle.
+ * Returns the tank's PlanView.
+ */
+export default defineEventHandler(async (event) => {
+  const actor = await requireActor(event, ['admin', 'aquarist'])
+  const { id, stageId } = await getValidatedRouterParams(event, valid(StageParams))
+  const patch = await readValidatedBody(event, valid(StagePatchSchema))
+  const tank = requireVisibleTank(actor, id)
+  const stage = findStage(tank.id, stageId)
+  if (!stage) throw createError({ statusCode: 404, statusMessage: 'Stage not found' })
+  const now = new Date()
+  const changes = applyStagePatch(actor, stage, patch, now)
+  const tankChanges = tankStatusAfterStage(tank, stage.key, changes.status, now)
+  const db = useDB()
+  const { after, tankAfter } = db.transaction((tx) => {
+    const after = Object.keys(changes).length
+      ? tx.update(planStages).set(changes).where(eq(planStages.id, stage.id)).returning().get()
+      : stage
+    const tankAfter = Object.keys(tankChanges).length
+      ? tx.update(tanks).set(tankChanges).where(eq(tanks.id, tank.id)).returning().get()
+      : undefined
+    return { after, tankAfter }
+  })
+  if (Object.keys(changes).length) writeAudit(actor, { action: 'plan-stage.update', entity: 'plan_stage', entityId: stage.id, before: stage, after })
+  if (tankAfter) {
+    writeAudit(actor, { action: 'tank.status', entity: 'tank', entityId: tank.id, before: { status: tank.status, cycleStartedAt: tank.cycleStartedAt }, after: { status: tankAfter.status, cycleStartedAt: tankAfter.cycleStartedAt } })
+    onTankDataChanged(tank.id, { actor, now })
+  }
+  return planView(actor, tankAfter ?? tank)
+})

@@ -1,0 +1,140 @@
+/**
+ * Receiving, storing and serving files (stage photos now, reading photos later).
+ * Bytes live in Nitro storage (`useStorage('uploads')`, see nuxt.config and
+ * server/plugins/02.uploads-storage.ts), never at a public path; rows in `uploads`.
+ */
+import type { H3Event } from 'h3'
+import sharp from 'sharp'
+import { uploads } from '../db/schema'
+import type { Actor } from './access'
+import { detectFileType, fileTypeProblem, type AcceptedMimeType } from './file-type'
+
+/** Largest accepted file. */
+export const MAX_UPLOAD_BYTES = 10 * 1024 * 1024
+/** Room for the multipart boundaries and headers around the file. */
+const MULTIPART_OVERHEAD_BYTES = 64 * 1024
+/** Longest side of a thumbnail, px. */
+export const THUMBNAIL_SIZE_PX = 480
+
+export interface ReceivedFile {
+  bytes: Buffer
+  name: string
+  mimeType: AcceptedMimeType
+  /** The other (text) fields of the form. */
+  fields: Record<string, string>
+}
+
+function tooLarge(): never {
+  throw createError({ statusCode: 413, statusMessage: 'File too large', data: { issues: [{ field: 'file', message: `Files are at most ${MAX_UPLOAD_BYTES / 1024 / 1024} MB.` }] } })
+}
+
+function refused(statusCode: 400 | 415, message: string): never {
+  throw createError({ statusCode, statusMessage: statusCode === 415 ? 'Unsupported file' : 'Validation Error', data: { issues: [{ field: 'file', message }] } })
+}
+
+/** Reads the request body but stops keeping it past the limit; the rest is drained so the 413 reaches the sender. */
+async function readCappedBody(event: H3Event, limit: number): Promise<Buffer> {
+  const declared = Number(getRequestHeader(event, 'content-length') ?? 'NaN')
+  const chunks: Buffer[] = []
+  let total = 0
+  let over = Number.isFinite(declared) && declared > limit
+  for await (const chunk of event.node.req) {
+    total += (chunk as Buffer).length
+    if (total > limit) over = true
+    if (!over) chunks.push(chunk as Buffer)
+    // Do not drain forever for a sender that never stops.
+    else if (total > limit * 4) {
+      event.node.req.destroy()
+      break
+    }
+  }
+  if (over) tooLarge()
+  return Buffer.concat(chunks)
+}
+
+/**
+ * Receives one file from a multipart form (field `file`): 413 past the size limit,
+ * 415 when the content is not an accepted type or the name's extension lies about it.
+ */
+export async function receiveUpload(event: H3Event): Promise<ReceivedFile> {
+  const contentType = getRequestHeader(event, 'content-type') ?? ''
+  if (!contentType.startsWith('multipart/form-data')) refused(400, 'Send the file as multipart/form-data in the field "file".')
+  const body = await readCappedBody(event, MAX_UPLOAD_BYTES + MULTIPART_OVERHEAD_BYTES)
+  // h3's multipart parser reads the body from here once it has been read.
+  ;(event.node.req as unknown as { body?: Buffer }).body = body
+  const parts = await readMultipartFormData(event)
+  const filePart = parts?.find(p => p.name === 'file' && p.filename !== undefined)
+  if (!filePart) refused(400, 'Choose a file to upload.')
+  if (filePart.data.length === 0) refused(400, 'The file is empty.')
+  if (filePart.data.length > MAX_UPLOAD_BYTES) tooLarge()
+  const detected = detectFileType(filePart.data)
+  const problem = fileTypeProblem(filePart.filename ?? '', detected)
+  if (problem || !detected) refused(415, problem ?? 'Unsupported file.')
+  const fields: Record<string, string> = {}
+  for (const part of parts ?? []) {
+    if (part.filename === undefined && part.name) fields[part.name] = part.data.toString('utf8').slice(0, 2000)
+  }
+  const name = (filePart.filename ?? 'file').replace(/[\u0000-\u001F\\/]/g, '_').slice(-120) || 'file'
+  return { bytes: filePart.data, name, mimeType: detected, fields }
+}
+
+/** A small WebP preview of an image, or 415 when the bytes do not decode as the image they claim to be. */
+async function thumbnailOf(bytes: Buffer): Promise<Buffer> {
+  try {
+    return await sharp(bytes, { limitInputPixels: 100_000_000 })
+      .rotate()
+      .resize(THUMBNAIL_SIZE_PX, THUMBNAIL_SIZE_PX, { fit: 'inside', withoutEnlargement: true })
+      .webp({ quality: 75 })
+      .toBuffer()
+  }
+  catch {
+    refused(415, 'The image could not be read. It may be damaged; try saving it again.')
+  }
+}
+
+/** Where an upload is attached. */
+export interface UploadTarget {
+  tankId: string
+  stageId?: string | null
+  readingId?: string | null
+}
+
+/** Stores the bytes (and an image's thumbnail), records the row and audits it. Returns the row. */
+export async function storeUpload(actor: Actor, target: UploadTarget, file: ReceivedFile) {
+  const id = crypto.randomUUID()
+  const storageKey = `${actor.organisationId}:${target.tankId}:${id}`
+  const thumbnail = file.mimeType.startsWith('image/') ? await thumbnailOf(file.bytes) : null
+  const storage = useStorage('uploads')
+  await storage.setItemRaw(storageKey, file.bytes)
+  const thumbnailKey = thumbnail ? `${storageKey}.thumb` : null
+  if (thumbnail && thumbnailKey) await storage.setItemRaw(thumbnailKey, thumbnail)
+  const row = useDB().insert(uploads).values({
+    id,
+    organisationId: actor.organisationId,
+    tankId: target.tankId,
+    stageId: target.stageId ?? null,
+    readingId: target.readingId ?? null,
+    mimeType: file.mimeType,
+    sizeBytes: file.bytes.length,
+    originalName: file.name,
+    storageKey,
+    thumbnailKey,
+    uploadedBy: actor.id,
+  }).returning().get()
+  writeAudit(actor, { action: 'upload.create', entity: 'upload', entityId: row.id, after: { tankId: row.tankId, stageId: row.stageId, readingId: row.readingId, mimeType: row.mimeType, sizeBytes: row.sizeBytes, originalName: row.originalName } })
+  return row
+}
+
+/** Sends stored bytes with headers that keep the browser from guessing or caching them publicly. */
+export async function sendStoredFile(event: H3Event, key: string, mimeType: string, downloadName: string) {
+  const bytes = await useStorage('uploads').getItemRaw<Buffer>(key)
+  if (!bytes) throw createError({ statusCode: 404, statusMessage: 'File not found' })
+  setResponseHeaders(event, {
+    'content-type': mimeType,
+    'content-length': String(bytes.length),
+    'cache-control': 'private, max-age=300',
+    'x-content-type-options': 'nosniff',
+    'content-disposition': `${mimeType === 'application/pdf' ? 'attachment' : 'inline'}; filename="${downloadName.replace(/[^\w.-]/g, '_')}"`,
+  })
+  return bytes
+}

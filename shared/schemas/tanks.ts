@@ -1,0 +1,67 @@
+import * as v from 'valibot'
+
+export const TANK_SHAPE_NAMES = ['rectangular', 'cube', 'cylinder', 'bow-front', 'corner', 'hexagonal'] as const
+
+/** Which inside dimensions each shape needs, in the order the form asks for them. */
+export const SHAPE_DIMENSIONS = {
+  'rectangular': ['lengthMm', 'widthMm', 'heightMm'],
+  'cube': ['sideMm'],
+  'cylinder': ['diameterMm', 'heightMm'],
+  'bow-front': ['lengthMm', 'widthMm', 'bowDepthMm', 'heightMm'],
+  'corner': ['radiusMm', 'heightMm'],
+  'hexagonal': ['sideMm', 'heightMm'],
+} as const
+
+const mm = (label: string) => v.optional(v.pipe(
+  v.number(`${label} must be a number.`),
+  v.finite(`${label} must be a number.`),
+  v.minValue(0, `${label} cannot be negative.`),
+  v.maxValue(10_000, `${label} is at most 10 m.`),
+))
+
+/** Inside dimensions in millimetres (the form converts from the user's units). */
+export const DimensionsSchema = v.strictObject({
+  lengthMm: mm('Length'),
+  widthMm: mm('Width'),
+  heightMm: mm('Height'),
+  diameterMm: mm('Diameter'),
+  radiusMm: mm('Side length'),
+  sideMm: mm('Side'),
+  bowDepthMm: mm('Bow depth'),
+}, 'Unknown dimension.')
+
+const optionalId = (message: string) => v.optional(v.nullable(v.pipe(v.string(), v.uuid(message))))
+
+const TankFields = {
+  name: v.pipe(v.string('Name the tank.'), v.trim(), v.minLength(1, 'Name the tank.'), v.maxLength(120, 'That name is too long.')),
+  clientId: v.pipe(v.string('Choose a client.'), v.uuid('Choose a client.')),
+  siteId: optionalId('Choose a site.'),
+  shape: v.picklist(TANK_SHAPE_NAMES, 'Choose a shape.'),
+  dimensions: DimensionsSchema,
+  sumpLitres: v.optional(v.pipe(v.number('Sump volume must be a number.'), v.finite('Sump volume must be a number.'), v.minValue(0, 'Sump volume cannot be negative.'), v.maxValue(20_000, 'Sump volume is at most 20,000 L.')), 0),
+  material: v.optional(v.picklist(['glass', 'acrylic'], 'Glass or acrylic.'), 'glass'),
+  waterSource: v.optional(v.picklist(['natural', 'mixed'], 'Natural seawater or mixed salt.'), 'mixed'),
+  cycleMethod: v.optional(v.picklist(['fishless', 'fish-in'], 'Fishless or fish-in.'), 'fishless'),
+  aquaristId: optionalId('Choose an aquarist.'),
+  supervisorId: optionalId('Choose a supervisor.'),
+}
+
+/** POST /api/tanks body and the tank form. The server computes volumeLitres from the dimensions. */
+export const TankCreateSchema = v.object(TankFields)
+export type TankInput = v.InferOutput<typeof TankCreateSchema>
+
+/** PATCH /api/tanks/:id body: any field; shape and dimensions travel together. */
+export const TankPatchSchema = v.pipe(
+  v.partial(v.object({
+    ...TankFields,
+    sumpLitres: v.pipe(v.number('Sump volume must be a number.'), v.finite('Sump volume must be a number.'), v.minValue(0, 'Sump volume cannot be negative.'), v.maxValue(20_000, 'Sump volume is at most 20,000 L.')),
+    material: v.picklist(['glass', 'acrylic'], 'Glass or acrylic.'),
+    waterSource: v.picklist(['natural', 'mixed'], 'Natural seawater or mixed salt.'),
+    cycleMethod: v.picklist(['fishless', 'fish-in'], 'Fishless or fish-in.'),
+  })),
+  v.forward(
+    v.check(input => (input.shape === undefined) === (input.dimensions === undefined), 'Send the shape and its dimensions together.'),
+    ['dimensions'],
+  ),
+)
+export type TankPatch = v.InferOutput<typeof TankPatchSchema>
