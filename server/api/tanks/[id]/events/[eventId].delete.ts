@@ -1,0 +1,20 @@
+import { eq } from 'drizzle-orm'
+import { EventParams } from '#shared/schemas/reading'
+import { events } from '../../../../db/schema'
+
+/** DELETE /api/tanks/:id/events/:eventId — removes an event (kept in the audit log). Returns 204. */
+export default defineEventHandler(async (event) => {
+  const actor = await requireActor(event, ENTRY_ROLES)
+  const { id, eventId } = await getValidatedRouterParams(event, valid(EventParams))
+  const tank = requireVisibleTank(actor, id)
+  const existing = requireEvent(tank.id, eventId)
+  assertEditable(actor, tank, { enteredBy: existing.enteredBy, createdAt: existing.createdAt, at: existing.at })
+  const db = useDB()
+  db.transaction(() => {
+    db.delete(events).where(eq(events.id, existing.id)).run()
+    writeAudit(actor, { action: 'event.delete', entity: 'event', entityId: existing.id, before: existing })
+  })
+  onTankDataChanged(tank.id, { actor })
+  setResponseStatus(event, 204)
+  return null
+})

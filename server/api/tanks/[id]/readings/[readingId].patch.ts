@@ -1,0 +1,31 @@
+import { eq } from 'drizzle-orm'
+import { ReadingParams, ReadingPatchSchema } from '#shared/schemas/reading'
+import { entryFromStored, toCanonicalReading } from '#shared/readings/entry'
+import type { ReadingSaved } from '#shared/types/readings'
+import { readings } from '../../../../db/schema'
+
+/**
+ * PATCH /api/tanks/:id/readings/:readingId — corrects a reading: the given fields replace
+ * what was typed (null clears one), the rest is kept. Clients may fix their own entries
+ * for 24 h; older changes are staff's. Returns ReadingSaved.
+ */
+export default defineEventHandler(async (event): Promise<ReadingSaved> => {
+  const actor = await requireActor(event, ENTRY_ROLES)
+  const { id, readingId } = await getValidatedRouterParams(event, valid(ReadingParams))
+  const tank = requireVisibleTank(actor, id)
+  const existing = requireReading(tank.id, readingId)
+  assertEditable(actor, tank, { enteredBy: existing.enteredBy, createdAt: existing.createdAt, at: existing.takenAt })
+  const patch = await readValidatedBody(event, valid(ReadingPatchSchema))
+  const start = entryFromStored(existing, tank.kitBasis, actor.units === 'us' ? 'F' : 'C')
+  const merged = { ...start, ...Object.fromEntries(Object.entries(patch).filter(([, value]) => value !== undefined)) }
+  const result = toCanonicalReading(merged)
+  if (!result.ok) fieldError(result.issues)
+  const db = useDB()
+  const row = db.transaction(() => {
+    const updated = db.update(readings).set(readingColumns(result.reading)).where(eq(readings.id, existing.id)).returning().get()
+    writeAudit(actor, { action: 'reading.update', entity: 'reading', entityId: existing.id, before: existing, after: updated })
+    return updated
+  })
+  const verdict = onTankDataChanged(tank.id, { readingId: row.id, actor })
+  return { reading: toReadingView(row, userName(row.enteredBy ?? '') , actor, tank), flags: result.reading.flags, phase: verdict?.phase ?? null }
+})

@@ -1,0 +1,38 @@
+import { eq } from 'drizzle-orm'
+import { IdParams } from '#shared/schemas/common'
+import { ReadingInputSchema } from '#shared/schemas/reading'
+import { toCanonicalReading } from '#shared/readings/entry'
+import type { ReadingSaved } from '#shared/types/readings'
+import { readings, tanks } from '../../../../db/schema'
+
+/**
+ * POST /api/tanks/:id/readings — records one test session in canonical units and
+ * re-evaluates the tank. Values outside physical bounds are 400 per field; alarming ones
+ * are stored and returned in `flags`. Returns ReadingSaved (201).
+ */
+export default defineEventHandler(async (event): Promise<ReadingSaved> => {
+  const actor = await requireActor(event, ENTRY_ROLES)
+  const { id } = await getValidatedRouterParams(event, valid(IdParams))
+  const tank = requireVisibleTank(actor, id)
+  const input = await readValidatedBody(event, valid(ReadingInputSchema))
+  const result = toCanonicalReading(input)
+  if (!result.ok) fieldError(result.issues)
+  const db = useDB()
+  const row = db.transaction(() => {
+    const inserted = db.insert(readings).values({ tankId: tank.id, enteredBy: actor.id, ...readingColumns(result.reading) }).returning().get()
+    if (input.photoUploadId && !attachTestPhoto(tank, inserted.id, input.photoUploadId)) {
+      fieldError([{ field: 'photoUploadId', message: 'That photo was not found for this tank.' }])
+    }
+    writeAudit(actor, { action: 'reading.create', entity: 'reading', entityId: inserted.id, after: inserted })
+    const basis = input.basis
+    const current = tank.kitBasis
+    if (input.rememberBasis && (basis.ammonia !== current.ammonia || basis.nitrite !== current.nitrite || basis.nitrate !== current.nitrate)) {
+      db.update(tanks).set({ kitBasis: basis }).where(eq(tanks.id, tank.id)).run()
+      writeAudit(actor, { action: 'tank.kit-basis', entity: 'tank', entityId: tank.id, before: current, after: basis })
+    }
+    return inserted
+  })
+  const verdict = onTankDataChanged(tank.id, { readingId: row.id, actor })
+  setResponseStatus(event, 201)
+  return { reading: toReadingView(row, actor.name, actor, tank), flags: result.reading.flags, phase: verdict?.phase ?? null }
+})

@@ -1,0 +1,43 @@
+/**
+ * Who may change a reading or an event, written once. Every edit and delete of a
+ * reading or event goes through assertEditable, so later rules (a signed-off period
+ * locks its readings) are added here and apply everywhere.
+ */
+import type { Actor } from './access'
+import { canManageTank } from './access'
+
+/** A client may fix their own entries for this long after entering them. */
+export const CLIENT_EDIT_WINDOW_MS = 24 * 3_600_000
+
+/** Roles that may enter readings and events: staff who manage tanks, and the tank's client. */
+export const ENTRY_ROLES = ['admin', 'aquarist', 'client'] as const
+
+export interface EditableEntry {
+  enteredBy: string | null
+  createdAt: string
+  /** The reading's takenAt or the event's at: what a period lock will compare. */
+  at: string
+}
+
+/** Why the actor may not change the entry now, or null if they may. */
+export function editRefusal(actor: Actor, tank: { id: string, organisationId: string }, entry: EditableEntry, now = new Date()): string | null {
+  if (actor.role === 'client') {
+    if (entry.enteredBy !== actor.id) return 'You can change only the entries you made. Ask your aquarist to correct this one.'
+    if (now.getTime() - Date.parse(entry.createdAt) > CLIENT_EDIT_WINDOW_MS) return 'Entries can be fixed for 24 hours. Ask your aquarist to correct this one.'
+    return null
+  }
+  if (!canManageTank(actor, tank)) return 'Your role may not change entries.'
+  // A sign-off lock check belongs here: refuse when entry.at falls inside a signed period.
+  return null
+}
+
+/** Throws 403 unless the actor may edit or delete this reading or event now. */
+export function assertEditable(actor: Actor, tank: { id: string, organisationId: string }, entry: EditableEntry, now = new Date()): void {
+  const refusal = editRefusal(actor, tank, entry, now)
+  if (refusal) throw createError({ statusCode: 403, statusMessage: refusal })
+}
+
+/** 400 with field messages from the shared entry conversion. */
+export function fieldError(issues: { field: string, message: string }[]): never {
+  throw createError({ statusCode: 400, statusMessage: 'Validation Error', message: issues.map(i => `${i.field}: ${i.message}`).join('; '), data: { issues } })
+}

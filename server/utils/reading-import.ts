@@ -1,0 +1,115 @@
+/**
+ * CSV import of readings: parse, map, convert every row with the same entry rules as the
+ * form, then write all valid rows in one transaction with one prepared statement. Each row
+ * carries a hash of its normalised content (readings.import_key, unique per tank), so
+ * importing the same file again adds nothing.
+ */
+import { createHash, randomUUID } from 'node:crypto'
+import Papa from 'papaparse'
+import type { ReadingImportInput } from '#shared/schemas/reading'
+import { guessMapping, rowToEntry } from '#shared/readings/csv'
+import { MEASURED_FIELDS, toCanonicalReading, type CanonicalReading } from '#shared/readings/entry'
+import type { ImportPreview, ImportRowError } from '#shared/types/readings'
+
+/** At most this many row errors are reported; the count is always complete. */
+const MAX_REPORTED_ERRORS = 200
+const PREVIEW_ROWS = 20
+
+export interface ImportPlan {
+  headers: string[]
+  mapping: Record<string, string>
+  rowCount: number
+  rows: { row: number, reading: CanonicalReading, key: string }[]
+  errors: ImportRowError[]
+  errorCount: number
+  duplicates: number
+}
+
+/** The import key: a hash of the row's canonical content, so the same test imported twice is one reading. */
+export function importKeyOf(reading: CanonicalReading): string {
+  // Nine significant digits: beyond any instrument, yet stable across float noise in the conversions.
+  const normalised = [reading.takenAt, ...MEASURED_FIELDS.map(f => (reading.values[f] === null ? '' : Number(reading.values[f]!.toPrecision(9)))), reading.notes ?? '']
+  return createHash('sha256').update(JSON.stringify(normalised)).digest('hex').slice(0, 32)
+}
+
+/** Parses and converts the whole file without writing anything. */
+export function planImport(tankId: string, input: ReadingImportInput): ImportPlan {
+  const parsed = Papa.parse<Record<string, string>>(input.csv, { header: true, skipEmptyLines: 'greedy', transformHeader: h => h.trim() })
+  const headers = parsed.meta.fields ?? []
+  const mapping = guessMapping(headers, input.mapping) as Record<string, string>
+  if (!mapping.takenAt) {
+    fieldError([{ field: 'mapping.takenAt', message: 'Choose the column that holds the date and time of each test.' }])
+  }
+  const existing = new Set<string>(
+    (useDB().$client.prepare('SELECT import_key FROM readings WHERE tank_id = ? AND import_key IS NOT NULL').pluck().all(tankId) as string[]),
+  )
+  const now = new Date()
+  const options = { basis: input.basis, temperatureUnit: input.temperatureUnit, salinityMode: input.salinityMode, sgBasis: input.sgBasis }
+  const rows: ImportPlan['rows'] = []
+  const errors: ImportRowError[] = []
+  let errorCount = 0
+  let duplicates = 0
+  const seen = new Set<string>()
+  const report = (row: number, issues: { field: string, message: string }[]) => {
+    errorCount++
+    for (const issue of issues) if (errors.length < MAX_REPORTED_ERRORS) errors.push({ row, field: issue.field, message: issue.message })
+  }
+  parsed.data.forEach((cells, index) => {
+    const row = index + 2 // the header is row 1, as a spreadsheet numbers it
+    const mapped = rowToEntry(cells, mapping, options)
+    if ('issues' in mapped) return report(row, mapped.issues)
+    const result = toCanonicalReading(mapped.entry, now)
+    if (!result.ok) return report(row, result.issues)
+    const key = importKeyOf(result.reading)
+    if (existing.has(key) || seen.has(key)) { duplicates++; return }
+    seen.add(key)
+    rows.push({ row, reading: result.reading, key })
+  })
+  return { headers, mapping, rowCount: parsed.data.length, rows, errors, errorCount, duplicates }
+}
+
+const INSERT_SQL = `INSERT INTO readings (id, tank_id, taken_at, entered_by, ammonia_n, nitrite_n, nitrate_n, ph, temperature_c, salinity,
+  alkalinity_dkh, calcium_mg_l, magnesium_mg_l, phosphate_mg_l, notes, entered, import_key, created_at, updated_at)
+  VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?)
+  ON CONFLICT (tank_id, import_key) DO NOTHING`
+
+/** Writes the planned rows in one transaction; returns how many were new. */
+export function writeImport(tankId: string, actorId: string, plan: ImportPlan): number {
+  const sqlite = useDB().$client
+  const insert = sqlite.prepare(INSERT_SQL)
+  const stamp = new Date().toISOString()
+  return sqlite.transaction(() => {
+    let inserted = 0
+    for (const { reading, key } of plan.rows) {
+      const v = reading.values
+      inserted += insert.run(randomUUID(), tankId, reading.takenAt, actorId, v.ammoniaN, v.nitriteN, v.nitrateN, v.pH, v.temperatureC, v.salinity,
+        v.alkalinityDkh, v.calciumMgL, v.magnesiumMgL, v.phosphateMgL, reading.notes, JSON.stringify({ ...reading.entered, source: 'csv' }), key, stamp, stamp).changes
+    }
+    return inserted
+  })()
+}
+
+/** The answer of the import route. */
+export function toPreview(plan: ImportPlan, dryRun: boolean, inserted: number): ImportPreview {
+  return {
+    headers: plan.headers,
+    mapping: plan.mapping,
+    rows: plan.rowCount,
+    valid: plan.rows.length,
+    duplicates: plan.duplicates,
+    errorRows: plan.errorCount,
+    errors: plan.errors,
+    preview: plan.rows.slice(0, PREVIEW_ROWS).map(({ row, reading }) => ({
+      row,
+      takenAt: reading.takenAt,
+      ammoniaN: reading.values.ammoniaN,
+      nitriteN: reading.values.nitriteN,
+      nitrateN: reading.values.nitrateN,
+      pH: reading.values.pH,
+      temperatureC: reading.values.temperatureC,
+      salinity: reading.values.salinity,
+    })),
+    dryRun,
+    inserted,
+  }
+}

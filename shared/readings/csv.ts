@@ -1,0 +1,135 @@
+/**
+ * CSV rows to reading entries: guessing which column holds what, and turning one row
+ * into the same entry the form sends, so imported rows pass the same bounds and flags.
+ */
+import type { ImportTarget, ReadingImportInput } from '../schemas/reading'
+import { IMPORT_TARGETS } from '../schemas/reading'
+import type { EntryIssue, ReadingEntry } from './entry'
+
+/** Header words each target is recognised by (lower case, punctuation removed). */
+const HEADER_HINTS: Record<ImportTarget, string[]> = {
+  takenAt: ['takenat', 'taken', 'date', 'datetime', 'time', 'when', 'timestamp'],
+  ammonia: ['ammoniamgln', 'ammonian', 'ammonia', 'nh3', 'nh4', 'tan', 'totalammonia'],
+  nitrite: ['nitritemgln', 'nitriten', 'nitrite', 'no2'],
+  nitrate: ['nitratemgln', 'nitraten', 'nitrate', 'no3'],
+  pH: ['ph'],
+  temperature: ['temperaturec', 'temperaturef', 'temperature', 'temp', 'tempc', 'tempf'],
+  salinity: ['salinitypractical', 'salinity', 'sal', 'sg', 'specificgravity', 'conductivity'],
+  alkalinityDkh: ['alkalinitydkh', 'alkalinity', 'alk', 'dkh', 'kh'],
+  calciumMgL: ['calciummgl', 'calcium', 'ca'],
+  magnesiumMgL: ['magnesiummgl', 'magnesium', 'mg'],
+  phosphateMgL: ['phosphatemgl', 'phosphate', 'po4'],
+  notes: ['notes', 'note', 'comment', 'comments'],
+}
+
+const normalise = (header: string) => header.toLowerCase().replace(/[^a-z0-9]/g, '')
+
+/** Which header holds each target, from the header names alone; explicit choices win. */
+export function guessMapping(headers: readonly string[], chosen: Partial<Record<ImportTarget, string>> = {}): Partial<Record<ImportTarget, string>> {
+  const mapping: Partial<Record<ImportTarget, string>> = {}
+  const used = new Set<string>()
+  for (const target of IMPORT_TARGETS) {
+    const explicit = chosen[target]
+    if (explicit !== undefined && headers.includes(explicit)) {
+      mapping[target] = explicit
+      used.add(explicit)
+    }
+  }
+  for (const target of IMPORT_TARGETS) {
+    if (chosen[target] !== undefined) continue
+    const hints = HEADER_HINTS[target]
+    const match = headers.find(h => !used.has(h) && hints.includes(normalise(h)))
+    if (match !== undefined) {
+      mapping[target] = match
+      used.add(match)
+    }
+  }
+  return mapping
+}
+
+/** A date-time cell: ISO 8601, or "YYYY-MM-DD HH:MM[:SS]" read as UTC. */
+export function parseCsvTime(cell: string): string | null {
+  const text = cell.trim()
+  if (!text) return null
+  const spaced = /^\d{4}-\d{2}-\d{2}[ T]\d{2}:\d{2}(:\d{2}(\.\d+)?)?$/.test(text) ? `${text.replace(' ', 'T')}Z` : text
+  const dateOnly = /^\d{4}-\d{2}-\d{2}$/.test(text) ? `${text}T12:00:00Z` : spaced
+  const t = Date.parse(dateOnly)
+  return Number.isFinite(t) ? new Date(t).toISOString() : null
+}
+
+type Options = Pick<ReadingImportInput, 'basis' | 'temperatureUnit' | 'salinityMode' | 'sgBasis'>
+
+const NUMERIC: readonly ImportTarget[] = ['ammonia', 'nitrite', 'nitrate', 'pH', 'temperature', 'salinity', 'alkalinityDkh', 'calciumMgL', 'magnesiumMgL', 'phosphateMgL']
+
+/** One CSV row (header -> cell) as a reading entry, or the messages for the cells that are not numbers or times. */
+export function rowToEntry(row: Record<string, string | undefined>, mapping: Partial<Record<ImportTarget, string>>, options: Options): { entry: ReadingEntry } | { issues: EntryIssue[] } {
+  const issues: EntryIssue[] = []
+  const cell = (target: ImportTarget) => {
+    const header = mapping[target]
+    return header === undefined ? '' : (row[header] ?? '').trim()
+  }
+  const takenAt = parseCsvTime(cell('takenAt'))
+  if (!takenAt) issues.push({ field: 'takenAt', message: 'Not a date and time.' })
+  const numbers: Partial<Record<ImportTarget, number | null>> = {}
+  for (const target of NUMERIC) {
+    const text = cell(target)
+    if (!text) { numbers[target] = null; continue }
+    const value = Number(text)
+    if (!Number.isFinite(value)) issues.push({ field: target, message: 'Not a number.' })
+    else numbers[target] = value
+  }
+  if (issues.length) return { issues }
+  const notes = cell('notes')
+  return {
+    entry: {
+      takenAt: takenAt!,
+      ammonia: numbers.ammonia,
+      nitrite: numbers.nitrite,
+      nitrate: numbers.nitrate,
+      basis: options.basis,
+      pH: numbers.pH,
+      temperature: numbers.temperature,
+      temperatureUnit: options.temperatureUnit,
+      salinity: numbers.salinity,
+      salinityMode: options.salinityMode,
+      sgBasis: options.sgBasis,
+      alkalinityDkh: numbers.alkalinityDkh,
+      calciumMgL: numbers.calciumMgL,
+      magnesiumMgL: numbers.magnesiumMgL,
+      phosphateMgL: numbers.phosphateMgL,
+      notes: notes || null,
+    },
+  }
+}
+
+/** Export column order; the header names say the canonical unit. */
+export const EXPORT_COLUMNS = [
+  ['taken_at', 'takenAt'],
+  ['ammonia_mg_l_n', 'ammoniaN'],
+  ['nitrite_mg_l_n', 'nitriteN'],
+  ['nitrate_mg_l_n', 'nitrateN'],
+  ['ph', 'pH'],
+  ['temperature_c', 'temperatureC'],
+  ['salinity_practical', 'salinity'],
+  ['alkalinity_dkh', 'alkalinityDkh'],
+  ['calcium_mg_l', 'calciumMgL'],
+  ['magnesium_mg_l', 'magnesiumMgL'],
+  ['phosphate_mg_l', 'phosphateMgL'],
+  ['notes', 'notes'],
+] as const
+
+/** The mapping for a file Tidewright exported itself: canonical units, basis N, C, practical salinity. */
+export const EXPORT_MAPPING: Partial<Record<ImportTarget, string>> = {
+  takenAt: 'taken_at',
+  ammonia: 'ammonia_mg_l_n',
+  nitrite: 'nitrite_mg_l_n',
+  nitrate: 'nitrate_mg_l_n',
+  pH: 'ph',
+  temperature: 'temperature_c',
+  salinity: 'salinity_practical',
+  alkalinityDkh: 'alkalinity_dkh',
+  calciumMgL: 'calcium_mg_l',
+  magnesiumMgL: 'magnesium_mg_l',
+  phosphateMgL: 'phosphate_mg_l',
+  notes: 'notes',
+}

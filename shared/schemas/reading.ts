@@ -1,0 +1,126 @@
+/**
+ * Input schemas for readings, events and CSV import: the form and the handlers parse
+ * with the same schemas. Shapes and types only; physical bounds and unit conversion
+ * are in shared/readings/entry.ts (they depend on the basis and unit chosen).
+ */
+import * as v from 'valibot'
+import { SG_BASES } from '../chemistry/seawater'
+
+const SG_KEYS = Object.keys(SG_BASES) as [keyof typeof SG_BASES, ...(keyof typeof SG_BASES)[]]
+
+const measured = (label: string) => v.nullish(v.pipe(v.number(`${label} must be a number.`), v.finite(`${label} must be a number.`)))
+const isoTime = (message: string) => v.pipe(v.string(message), v.maxLength(40, message), v.check(s => Number.isFinite(Date.parse(s)), message))
+
+export const KitBasisSchema = v.object({
+  ammonia: v.picklist(['NH3', 'NH4', 'N'], 'Ammonia basis is NH3, NH4 or N.'),
+  nitrite: v.picklist(['NO2', 'N'], 'Nitrite basis is NO2 or N.'),
+  nitrate: v.picklist(['NO3', 'N'], 'Nitrate basis is NO3 or N.'),
+})
+
+const readingEntries = {
+  takenAt: isoTime('Give the date and time the test was taken.'),
+  ammonia: measured('Ammonia'),
+  nitrite: measured('Nitrite'),
+  nitrate: measured('Nitrate'),
+  basis: KitBasisSchema,
+  pH: measured('pH'),
+  temperature: measured('Temperature'),
+  temperatureUnit: v.picklist(['C', 'F'], 'Temperature unit is C or F.'),
+  salinity: measured('Salinity'),
+  salinityMode: v.picklist(['practical', 'sg', 'conductivity'], 'Salinity is practical salinity, specific gravity or conductivity.'),
+  sgBasis: v.optional(v.picklist(SG_KEYS, 'Unknown specific-gravity basis.')),
+  conductivityTemperatureC: measured('Conductivity temperature'),
+  alkalinityDkh: measured('Alkalinity'),
+  calciumMgL: measured('Calcium'),
+  magnesiumMgL: measured('Magnesium'),
+  phosphateMgL: measured('Phosphate'),
+  notes: v.nullish(v.pipe(v.string('Notes must be text.'), v.maxLength(2000, 'Notes are at most 2000 characters.'))),
+}
+
+/** POST /api/tanks/:id/readings. `rememberBasis` stores the kit basis on the tank for next time. */
+export const ReadingInputSchema = v.object({
+  ...readingEntries,
+  rememberBasis: v.optional(v.boolean(), true),
+  /** Id of a photo of the test, from the uploads feature; attached when that lands. */
+  photoUploadId: v.optional(v.pipe(v.string(), v.uuid('Not a valid upload id.'))),
+})
+export type ReadingInput = v.InferOutput<typeof ReadingInputSchema>
+
+/** PATCH /api/tanks/:id/readings/:readingId: any subset; null clears a value. */
+export const ReadingPatchSchema = v.partial(v.object(readingEntries))
+export type ReadingPatch = v.InferOutput<typeof ReadingPatchSchema>
+
+export const ReadingParams = v.object({
+  id: v.pipe(v.string(), v.uuid('Not a valid id.')),
+  readingId: v.pipe(v.string(), v.uuid('Not a valid id.')),
+})
+
+export const EventParams = v.object({
+  id: v.pipe(v.string(), v.uuid('Not a valid id.')),
+  eventId: v.pipe(v.string(), v.uuid('Not a valid id.')),
+})
+
+const pageQuery = (maxPageSize: number) => ({
+  page: v.optional(v.pipe(v.string(), v.toNumber('Page must be a number.'), v.integer('Page must be a whole number.'), v.minValue(1, 'Page starts at 1.'), v.maxValue(1_000_000, 'Page is too large.')), '1'),
+  pageSize: v.optional(v.pipe(v.string(), v.toNumber('Page size must be a number.'), v.integer('Page size must be a whole number.'), v.minValue(1, 'Page size is at least 1.'), v.maxValue(maxPageSize, `Page size is at most ${maxPageSize}.`)), '25'),
+  from: v.optional(isoTime('From must be a date.')),
+  to: v.optional(isoTime('To must be a date.')),
+  dir: v.optional(v.picklist(['asc', 'desc'], 'Sort direction is asc or desc.'), 'desc'),
+})
+
+export const READING_SORT_FIELDS = ['takenAt', 'ammoniaN', 'nitriteN', 'nitrateN', 'pH', 'temperatureC', 'salinity', 'createdAt'] as const
+
+/** GET /api/tanks/:id/readings query. */
+export const ReadingListQuerySchema = v.object({
+  ...pageQuery(500),
+  sort: v.optional(v.picklist(READING_SORT_FIELDS, 'Unknown sort field.'), 'takenAt'),
+})
+export type ReadingListQuery = v.InferOutput<typeof ReadingListQuerySchema>
+
+export const EVENT_SORT_FIELDS = ['at', 'kind', 'createdAt'] as const
+
+/** GET /api/tanks/:id/events query. */
+export const EventListQuerySchema = v.object({
+  ...pageQuery(500),
+  sort: v.optional(v.picklist(EVENT_SORT_FIELDS, 'Unknown sort field.'), 'at'),
+})
+export type EventListQuery = v.InferOutput<typeof EventListQuerySchema>
+
+export const EVENT_KIND_VALUES = ['ammonia-dose', 'bacteria-dose', 'water-change', 'livestock-added', 'lighting-change', 'note'] as const
+export const LIVESTOCK_GROUP_VALUES = ['fish', 'invertebrates', 'soft-coral', 'lps-coral', 'sps-coral'] as const
+
+const eventEntries = {
+  at: isoTime('Give the date and time.'),
+  kind: v.picklist(EVENT_KIND_VALUES, 'Unknown kind of event.'),
+  /** ammonia-dose: mg/L in `doseBasis`. water-change: volume in `volumeUnit`. livestock-added: count. */
+  amount: measured('Amount'),
+  doseBasis: v.optional(v.picklist(['NH3', 'NH4', 'N'], 'Dose basis is NH3, NH4 or N.'), 'N'),
+  volumeUnit: v.optional(v.picklist(['L', 'usgal'], 'Volume is in litres or US gallons.'), 'L'),
+  group: v.nullish(v.picklist(LIVESTOCK_GROUP_VALUES, 'Unknown livestock group.')),
+  notes: v.nullish(v.pipe(v.string('Notes must be text.'), v.maxLength(2000, 'Notes are at most 2000 characters.'))),
+}
+
+/** POST /api/tanks/:id/events. */
+export const EventInputSchema = v.object(eventEntries)
+export type EventInput = v.InferOutput<typeof EventInputSchema>
+
+/** PATCH /api/tanks/:id/events/:eventId. */
+export const EventPatchSchema = v.partial(v.object(eventEntries))
+export type EventPatch = v.InferOutput<typeof EventPatchSchema>
+
+/** Column names the importer maps onto. */
+export const IMPORT_TARGETS = ['takenAt', 'ammonia', 'nitrite', 'nitrate', 'pH', 'temperature', 'salinity', 'alkalinityDkh', 'calciumMgL', 'magnesiumMgL', 'phosphateMgL', 'notes'] as const
+export type ImportTarget = (typeof IMPORT_TARGETS)[number]
+
+/** POST /api/tanks/:id/readings/import. Nothing is written unless dryRun is false. */
+export const ReadingImportSchema = v.object({
+  csv: v.pipe(v.string('Attach the CSV text.'), v.minLength(1, 'The file is empty.')),
+  /** Target -> the CSV header that holds it. Unmapped targets are guessed from the header. */
+  mapping: v.optional(v.record(v.picklist(IMPORT_TARGETS, 'Unknown column target.'), v.pipe(v.string(), v.maxLength(200))), {}),
+  basis: v.optional(KitBasisSchema, { ammonia: 'N', nitrite: 'N', nitrate: 'N' }),
+  temperatureUnit: v.optional(v.picklist(['C', 'F'], 'Temperature unit is C or F.'), 'C'),
+  salinityMode: v.optional(v.picklist(['practical', 'sg', 'conductivity'], 'Unknown salinity mode.'), 'practical'),
+  sgBasis: v.optional(v.picklist(SG_KEYS, 'Unknown specific-gravity basis.')),
+  dryRun: v.optional(v.boolean('dryRun is true or false.'), true),
+})
+export type ReadingImportInput = v.InferOutput<typeof ReadingImportSchema>

@@ -1,0 +1,115 @@
+/** API response shapes for readings, events, charts and verdicts. Values are canonical. */
+import type { CyclePhase, Verdict } from '../cycle/types'
+import type { RuleInfo } from '../cycle/registry'
+import type { EntryFlag } from '../readings/entry'
+
+export interface ReadingView {
+  id: string
+  takenAt: string
+  ammoniaN: number | null
+  nitriteN: number | null
+  nitrateN: number | null
+  pH: number | null
+  temperatureC: number | null
+  salinity: number | null
+  alkalinityDkh: number | null
+  calciumMgL: number | null
+  magnesiumMgL: number | null
+  phosphateMgL: number | null
+  notes: string | null
+  entered: Record<string, unknown>
+  enteredBy: string | null
+  enteredByName: string | null
+  createdAt: string
+  updatedAt: string
+  /** Whether the signed-in user may edit or delete it now. */
+  canEdit: boolean
+  flags: EntryFlag[]
+}
+
+export interface ReadingList {
+  items: ReadingView[]
+  total: number
+  page: number
+  pageSize: number
+}
+
+/** POST/PATCH answer: the reading, what it flagged, and the verdict it led to. */
+export interface ReadingSaved {
+  reading: ReadingView
+  flags: EntryFlag[]
+  phase: CyclePhase | null
+}
+
+export interface EventView {
+  id: string
+  at: string
+  kind: string
+  amount: number | null
+  group: string | null
+  notes: string | null
+  enteredBy: string | null
+  enteredByName: string | null
+  createdAt: string
+  canEdit: boolean
+}
+
+export interface EventList {
+  items: EventView[]
+  total: number
+  page: number
+  pageSize: number
+}
+
+/** The compact chart payload: parallel arrays, epoch seconds. */
+export interface ChartData {
+  t: number[]
+  ammoniaN: (number | null)[]
+  nitriteN: (number | null)[]
+  nitrateN: (number | null)[]
+  pH: (number | null)[]
+  temperatureC: (number | null)[]
+  salinity: (number | null)[]
+  events: { t: number, kind: string, amount: number | null, group: string | null }[]
+  phase: CyclePhase
+  completedOn: string | null
+  limits: { ammoniaZeroN: number, nitriteZeroN: number, riseN: number, ammoniaActionN: number, salinityMin: number, salinityMax: number, temperatureMinC: number, temperatureMaxC: number }
+}
+
+export interface VerdictReading {
+  id: string
+  takenAt: string
+  ammoniaN: number | null
+  nitriteN: number | null
+  nitrateN: number | null
+}
+
+export interface VerdictView {
+  verdict: Verdict
+  evaluatedAt: string
+  /** Description and source of each rule the verdict cites. */
+  rules: Record<string, Pick<RuleInfo, 'id' | 'description' | 'source'>>
+  /** The readings the findings rest on. */
+  readings: Record<string, VerdictReading>
+}
+
+export interface ImportRowError {
+  row: number
+  field: string
+  message: string
+}
+
+export interface ImportPreview {
+  headers: string[]
+  mapping: Record<string, string>
+  rows: number
+  valid: number
+  duplicates: number
+  /** Rows refused; `errors` lists their messages (at most 200). */
+  errorRows: number
+  errors: ImportRowError[]
+  /** The first rows as they would be stored. */
+  preview: { row: number, takenAt: string, ammoniaN: number | null, nitriteN: number | null, nitrateN: number | null, pH: number | null, temperatureC: number | null, salinity: number | null }[]
+  dryRun: boolean
+  inserted: number
+}

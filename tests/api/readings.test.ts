@@ -1,0 +1,314 @@
+import Database from 'better-sqlite3'
+import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest'
+import { ApiClient, signedIn } from '../support/http'
+import { OTHER_AQUARIST_EMAIL } from '../support/fixtures'
+import type { ChartData, EventList, EventView, ImportPreview, ReadingList, ReadingSaved, VerdictView } from '../../shared/types/readings'
+import type { TankView } from '../../shared/types/tanks'
+
+const { demo, other } = inject('fixtures')
+const lounge = demo.tanks.lounge
+let db: Database.Database
+beforeAll(() => { db = new Database(inject('dbPath')) })
+afterAll(() => db?.close())
+
+const hoursAgo = (h: number) => new Date(Date.now() - h * 3_600_000).toISOString()
+const reading = (over: Record<string, unknown> = {}) => ({
+  takenAt: hoursAgo(1),
+  ammonia: 0.25,
+  nitrite: 0.5,
+  nitrate: 10,
+  basis: { ammonia: 'NH3', nitrite: 'NO2', nitrate: 'NO3' },
+  pH: 8.1,
+  temperature: 77,
+  temperatureUnit: 'F',
+  salinity: 1.025,
+  salinityMode: 'sg',
+  sgBasis: '25/25C',
+  ...over,
+})
+const auditCount = (action: string, entityId: string) =>
+  (db.prepare('SELECT count(*) AS n FROM audit_log WHERE action = ? AND entity_id = ?').get(action, entityId) as { n: number }).n
+
+describe('POST /api/tanks/:id/readings', () => {
+  it('stores canonical values, keeps what was typed and re-evaluates the tank', async () => {
+    const api = await signedIn('client@tidewright.test')
+    const before = (await api.get<VerdictView>(`/api/tanks/${lounge}/verdict`)).body.evaluatedAt
+    const { status, body } = await api.post<ReadingSaved>(`/api/tanks/${lounge}/readings`, reading())
+    expect(status).toBe(201)
+    // 0.25 ppm NH3 x 0.8224, 0.5 ppm NO2 x 0.3045, 10 ppm NO3 x 0.2259 (IUPAC 1996 atomic weights, reference.md section 3).
+    expect(body.reading.ammoniaN).toBeCloseTo(0.2056, 4)
+    expect(body.reading.nitriteN).toBeCloseTo(0.1522, 4)
+    expect(body.reading.nitrateN).toBeCloseTo(2.259, 3)
+    expect(body.reading.temperatureC).toBeCloseTo(25, 9)
+    // SG 1.02637 at 25/25 C is S 35 (computed, reference.md section 5); 1.025 is a little below.
+    expect(body.reading.salinity).toBeGreaterThan(32.5)
+    expect(body.reading.salinity).toBeLessThan(34)
+    expect(body.reading.entered).toMatchObject({ ammonia: { value: 0.25, basis: 'NH3' }, salinity: { value: 1.025, as: 'sg', basis: '25/25C' }, temperature: { value: 77, unit: 'F' } })
+    expect(body.flags).toEqual([])
+    expect(body.reading.canEdit).toBe(true)
+    const after = (await api.get<VerdictView>(`/api/tanks/${lounge}/verdict`)).body.evaluatedAt
+    expect(after > before).toBe(true)
+    expect(auditCount('reading.create', body.reading.id)).toBe(1)
+  })
+
+  it('accepts an alarming but possible value and flags it', async () => {
+    const api = await signedIn('client@tidewright.test')
+    const { status, body } = await api.post<ReadingSaved>(`/api/tanks/${lounge}/readings`, reading({ ammonia: 6, pH: 7.3 }))
+    expect(status).toBe(201)
+    expect(body.flags.map(f => f.field).sort()).toEqual(['ammonia', 'pH'])
+    await api.delete(`/api/tanks/${lounge}/readings/${body.reading.id}`)
+  })
+
+  it('refuses values outside physical bounds with a message per field, without echoing them', async () => {
+    const api = await signedIn('client@tidewright.test')
+    const { status, body } = await api.post(`/api/tanks/${lounge}/readings`, reading({ ammonia: -2, pH: 15.5, salinity: 1.2 }))
+    expect(status).toBe(400)
+    expect(body.data.issues.map((i: { field: string }) => i.field).sort()).toEqual(['ammonia', 'pH', 'salinity'])
+    expect(JSON.stringify(body)).not.toContain('15.5')
+    const wrongType = await api.post(`/api/tanks/${lounge}/readings`, reading({ nitrite: 'lots' }))
+    expect(wrongType.status).toBe(400)
+    expect(wrongType.body.data.issues[0].field).toBe('nitrite')
+  })
+
+  it('refuses a reading from the future but accepts a back-dated one', async () => {
+    const api = await signedIn('client@tidewright.test')
+    const future = await api.post(`/api/tanks/${lounge}/readings`, reading({ takenAt: new Date(Date.now() + 3_600_000).toISOString() }))
+    expect(future.status).toBe(400)
+    expect(future.body.data.issues[0].field).toBe('takenAt')
+    const past = await api.post<ReadingSaved>(`/api/tanks/${lounge}/readings`, reading({ takenAt: hoursAgo(30) }))
+    expect(past.status).toBe(201)
+    await api.delete(`/api/tanks/${lounge}/readings/${past.body.reading.id}`)
+  })
+
+  it('remembers the kit basis on the tank when it changes', async () => {
+    const api = await signedIn('client@tidewright.test')
+    const basis = { ammonia: 'NH4', nitrite: 'N', nitrate: 'N' }
+    const saved = await api.post<ReadingSaved>(`/api/tanks/${lounge}/readings`, reading({ basis, ammonia: 1 }))
+    expect(saved.body.reading.ammoniaN).toBeCloseTo(0.7765, 4)
+    expect((await api.get<TankView>(`/api/tanks/${lounge}`)).body.kitBasis).toEqual(basis)
+    await api.post(`/api/tanks/${lounge}/readings`, reading())
+    expect((await api.get<TankView>(`/api/tanks/${lounge}`)).body.kitBasis).toEqual({ ammonia: 'NH3', nitrite: 'NO2', nitrate: 'NO3' })
+  })
+
+  it('is 401 signed out, 403 for a supervisor, 404 for another client\'s or another company\'s tank', async () => {
+    expect((await new ApiClient().post(`/api/tanks/${lounge}/readings`, reading())).status).toBe(401)
+    expect((await (await signedIn('supervisor@tidewright.test')).post(`/api/tanks/${lounge}/readings`, reading())).status).toBe(403)
+    expect((await (await signedIn('client2@tidewright.test')).post(`/api/tanks/${lounge}/readings`, reading())).status).toBe(404)
+    const aquarist = await signedIn('aquarist@tidewright.test')
+    expect((await aquarist.post(`/api/tanks/${other.tankId}/readings`, reading())).status).toBe(404)
+    expect((await aquarist.get(`/api/tanks/${other.tankId}/readings`)).status).toBe(404)
+    expect((await aquarist.get(`/api/tanks/${other.tankId}/verdict`)).status).toBe(404)
+    expect((await aquarist.get(`/api/tanks/${other.tankId}/chart`)).status).toBe(404)
+  })
+})
+
+describe('GET /api/tanks/:id/readings', () => {
+  it('pages, sorts and filters by time on the server', async () => {
+    const api = await signedIn('aquarist@tidewright.test')
+    const all = await api.get<ReadingList>(`/api/tanks/${demo.tanks.nano}/readings?pageSize=500&sort=takenAt&dir=asc`)
+    expect(all.status).toBe(200)
+    expect(all.body.total).toBe(34)
+    const times = all.body.items.map(r => r.takenAt)
+    expect(times).toEqual([...times].sort())
+    const page2 = await api.get<ReadingList>(`/api/tanks/${demo.tanks.nano}/readings?pageSize=10&page=2&sort=takenAt&dir=asc`)
+    expect(page2.body.items.map(r => r.id)).toEqual(all.body.items.slice(10, 20).map(r => r.id))
+    const from = times[5]!
+    const to = times[9]!
+    const ranged = await api.get<ReadingList>(`/api/tanks/${demo.tanks.nano}/readings?from=${encodeURIComponent(from)}&to=${encodeURIComponent(to)}`)
+    expect(ranged.body.total).toBe(5)
+    const byNitrate = await api.get<ReadingList>(`/api/tanks/${demo.tanks.nano}/readings?sort=nitrateN&dir=desc&pageSize=500`)
+    const nitrate = byNitrate.body.items.map(r => r.nitrateN ?? -1)
+    expect(nitrate).toEqual([...nitrate].sort((a, b) => b - a))
+  })
+
+  it('refuses bad query values with 400', async () => {
+    const api = await signedIn('aquarist@tidewright.test')
+    for (const query of ['sort=password', 'pageSize=5000', 'from=yesterday', 'page=0']) {
+      const response = await api.get(`/api/tanks/${lounge}/readings?${query}`)
+      expect(response.status, query).toBe(400)
+    }
+  })
+})
+
+describe('PATCH and DELETE /api/tanks/:id/readings/:readingId', () => {
+  it('lets a client fix their own entry of the last 24 h, with the audit log', async () => {
+    const api = await signedIn('client@tidewright.test')
+    const { body } = await api.post<ReadingSaved>(`/api/tanks/${lounge}/readings`, reading())
+    const patched = await api.patch<ReadingSaved>(`/api/tanks/${lounge}/readings/${body.reading.id}`, { nitrite: 1 })
+    expect(patched.status).toBe(200)
+    expect(patched.body.reading.nitriteN).toBeCloseTo(0.3045, 4)
+    // What was typed for the other values is kept.
+    expect(patched.body.reading.ammoniaN).toBeCloseTo(body.reading.ammoniaN!, 9)
+    expect(patched.body.reading.salinity).toBeCloseTo(body.reading.salinity!, 9)
+    expect(auditCount('reading.update', body.reading.id)).toBe(1)
+    const bad = await api.patch(`/api/tanks/${lounge}/readings/${body.reading.id}`, { pH: 99 })
+    expect(bad.status).toBe(400)
+    expect((await api.delete(`/api/tanks/${lounge}/readings/${body.reading.id}`)).status).toBe(204)
+    expect(auditCount('reading.delete', body.reading.id)).toBe(1)
+    expect((await api.delete(`/api/tanks/${lounge}/readings/${body.reading.id}`)).status).toBe(404)
+  })
+
+  it('leaves older entries and other people\'s entries to staff (403 for the client)', async () => {
+    const client = await signedIn('client@tidewright.test')
+    const { body } = await client.post<ReadingSaved>(`/api/tanks/${lounge}/readings`, reading())
+    db.prepare('UPDATE readings SET created_at = ? WHERE id = ?').run(hoursAgo(25), body.reading.id)
+    expect((await client.patch(`/api/tanks/${lounge}/readings/${body.reading.id}`, { nitrite: 0 })).status).toBe(403)
+    expect((await client.delete(`/api/tanks/${lounge}/readings/${body.reading.id}`)).status).toBe(403)
+    const aquarist = await signedIn('aquarist@tidewright.test')
+    const own = await aquarist.post<ReadingSaved>(`/api/tanks/${lounge}/readings`, reading())
+    expect((await client.patch(`/api/tanks/${lounge}/readings/${own.body.reading.id}`, { nitrite: 0 })).status).toBe(403)
+    expect((await aquarist.patch(`/api/tanks/${lounge}/readings/${body.reading.id}`, { nitrite: 0 })).status).toBe(200)
+    expect((await (await signedIn('supervisor@tidewright.test')).delete(`/api/tanks/${lounge}/readings/${body.reading.id}`)).status).toBe(403)
+    expect((await aquarist.delete(`/api/tanks/${lounge}/readings/${body.reading.id}`)).status).toBe(204)
+    expect((await aquarist.delete(`/api/tanks/${lounge}/readings/${own.body.reading.id}`)).status).toBe(204)
+  })
+
+  it('is 404 for a reading of another tank and another company', async () => {
+    const aquarist = await signedIn('aquarist@tidewright.test')
+    const nanoReading = (await aquarist.get<ReadingList>(`/api/tanks/${demo.tanks.nano}/readings?pageSize=1`)).body.items[0]!
+    expect((await aquarist.patch(`/api/tanks/${lounge}/readings/${nanoReading.id}`, { nitrite: 0 })).status).toBe(404)
+    const theirs = await signedIn(OTHER_AQUARIST_EMAIL)
+    expect((await theirs.delete(`/api/tanks/${demo.tanks.nano}/readings/${nanoReading.id}`)).status).toBe(404)
+    expect((await aquarist.patch(`/api/tanks/${lounge}/readings/not-an-id`, {})).status).toBe(400)
+  })
+})
+
+describe('events', () => {
+  it('stores an ammonia dose as N and a water change in litres, lists, edits and deletes them', async () => {
+    const api = await signedIn('client@tidewright.test')
+    const dose = await api.post<EventView>(`/api/tanks/${lounge}/events`, { at: hoursAgo(2), kind: 'ammonia-dose', amount: 2, doseBasis: 'NH3' })
+    expect(dose.status).toBe(201)
+    expect(dose.body.amount).toBeCloseTo(2 * 0.8224, 3)
+    const change = await api.post<EventView>(`/api/tanks/${lounge}/events`, { at: hoursAgo(1), kind: 'water-change', amount: 10, volumeUnit: 'usgal' })
+    // US gallon = 3.785411784 L exactly (reference.md section 7).
+    expect(change.body.amount).toBeCloseTo(37.85411784, 8)
+    const list = await api.get<EventList>(`/api/tanks/${lounge}/events?sort=at&dir=desc`)
+    expect(list.body.items.slice(0, 2).map(e => e.id)).toEqual([change.body.id, dose.body.id])
+    const edited = await api.patch<EventView>(`/api/tanks/${lounge}/events/${change.body.id}`, { amount: 20, volumeUnit: 'L' })
+    expect(edited.body.amount).toBe(20)
+    expect(auditCount('event.update', change.body.id)).toBe(1)
+    expect((await api.delete(`/api/tanks/${lounge}/events/${change.body.id}`)).status).toBe(204)
+    expect((await api.delete(`/api/tanks/${lounge}/events/${dose.body.id}`)).status).toBe(204)
+  })
+
+  it('refuses incomplete events and the future, and keeps to roles and scope', async () => {
+    const api = await signedIn('client@tidewright.test')
+    const noGroup = await api.post(`/api/tanks/${lounge}/events`, { at: hoursAgo(1), kind: 'livestock-added', amount: 2 })
+    expect(noGroup.status).toBe(400)
+    expect(noGroup.body.data.issues[0].field).toBe('group')
+    expect((await api.post(`/api/tanks/${lounge}/events`, { at: hoursAgo(-2), kind: 'note', notes: 'x' })).status).toBe(400)
+    expect((await api.post(`/api/tanks/${lounge}/events`, { at: hoursAgo(1), kind: 'flood' })).status).toBe(400)
+    const fish = await api.post<EventView>(`/api/tanks/${lounge}/events`, { at: hoursAgo(1), kind: 'livestock-added', amount: 2, group: 'fish' })
+    expect(fish.status).toBe(201)
+    expect((await (await signedIn('supervisor@tidewright.test')).post(`/api/tanks/${lounge}/events`, { at: hoursAgo(1), kind: 'note', notes: 'x' })).status).toBe(403)
+    expect((await (await signedIn('client2@tidewright.test')).get(`/api/tanks/${lounge}/events`)).status).toBe(404)
+    const seeded = (await (await signedIn('aquarist@tidewright.test')).get<EventList>(`/api/tanks/${lounge}/events?sort=at&dir=asc`)).body.items[0]!
+    expect((await api.delete(`/api/tanks/${lounge}/events/${seeded.id}`)).status).toBe(403)
+    expect((await (await signedIn(OTHER_AQUARIST_EMAIL)).delete(`/api/tanks/${lounge}/events/${fish.body.id}`)).status).toBe(404)
+    expect((await api.delete(`/api/tanks/${lounge}/events/${fish.body.id}`)).status).toBe(204)
+  })
+})
+
+describe('GET /api/tanks/:id/verdict and /chart', () => {
+  it('returns the stored verdict with rule sources and the readings it rests on', async () => {
+    const api = await signedIn('client3@tidewright.test')
+    const { status, body } = await api.get<VerdictView>(`/api/tanks/${demo.tanks.study}/verdict`)
+    expect(status).toBe(200)
+    expect(body.verdict.phase).toBeTruthy()
+    expect(body.verdict.findings.length).toBeGreaterThan(0)
+    for (const finding of body.verdict.findings) {
+      expect(body.rules[finding.ruleId]?.source, finding.ruleId).toBeTruthy()
+      for (const id of finding.readingIds) expect(body.readings[id]?.takenAt, id).toBeTruthy()
+    }
+    const stored = db.prepare('SELECT phase FROM tank_verdicts WHERE tank_id = ?').get(demo.tanks.study) as { phase: string }
+    expect(stored.phase).toBe(body.verdict.phase)
+  })
+
+  it('evaluates a tank that has no stored verdict yet', async () => {
+    db.prepare('DELETE FROM tank_verdicts WHERE tank_id = ?').run(demo.tanks.nano)
+    const { status, body } = await (await signedIn('client2@tidewright.test')).get<VerdictView>(`/api/tanks/${demo.tanks.nano}/verdict`)
+    expect(status).toBe(200)
+    expect(body.verdict.ruleSetVersion).toBeTruthy()
+    expect(db.prepare('SELECT count(*) AS n FROM tank_verdicts WHERE tank_id = ?').get(demo.tanks.nano)).toEqual({ n: 1 })
+  })
+
+  it('sends the chart as parallel arrays with events and limits', async () => {
+    const { status, body } = await (await signedIn('client2@tidewright.test')).get<ChartData>(`/api/tanks/${demo.tanks.nano}/chart`)
+    expect(status).toBe(200)
+    expect(body.t).toHaveLength(34)
+    for (const key of ['ammoniaN', 'nitriteN', 'nitrateN', 'pH', 'temperatureC', 'salinity'] as const) expect(body[key]).toHaveLength(34)
+    expect(body.events.map(e => e.kind)).toContain('ammonia-dose')
+    expect(body.limits.ammoniaZeroN).toBeGreaterThan(0)
+  })
+})
+
+const csvOf = (rows: number, startHoursAgo: number) => {
+  const lines = ['Date,NH3,NO2,NO3,pH,Temp,Salinity,Notes']
+  for (let i = 0; i < rows; i++) {
+    const at = new Date(Date.now() - (startHoursAgo - i) * 3_600_000).toISOString()
+    lines.push(`${at},${(i % 8) / 4},${(i % 5) / 4},${i % 40},8.${i % 3},25.${i % 10},35.${i % 2},row ${i}`)
+  }
+  return `${lines.join('\n')}\n`
+}
+
+describe('CSV import and export', () => {
+  const lobby = demo.tanks.lobby
+  const count = () => (db.prepare('SELECT count(*) AS n FROM readings WHERE tank_id = ?').get(lobby) as { n: number }).n
+
+  it('previews without writing, reports row errors, writes on confirm and adds nothing twice', async () => {
+    const api = await signedIn('aquarist@tidewright.test')
+    const csv = `${csvOf(50, 200)}not a date,1,1,1,8,25,35,bad\n${new Date().toISOString()},-1,0,0,8,25,35,negative\n`
+    const before = count()
+    const options = { basis: { ammonia: 'NH3', nitrite: 'NO2', nitrate: 'NO3' }, temperatureUnit: 'C', salinityMode: 'practical' }
+    const dry = await api.post<ImportPreview>(`/api/tanks/${lobby}/readings/import`, { csv, ...options, dryRun: true })
+    expect(dry.status).toBe(200)
+    expect(dry.body).toMatchObject({ rows: 52, valid: 50, errorRows: 2, dryRun: true, inserted: 0 })
+    expect(dry.body.mapping).toMatchObject({ takenAt: 'Date', ammonia: 'NH3', nitrite: 'NO2', nitrate: 'NO3', pH: 'pH', temperature: 'Temp', salinity: 'Salinity', notes: 'Notes' })
+    expect(dry.body.errors.map(e => [e.row, e.field])).toEqual([[52, 'takenAt'], [53, 'ammonia']])
+    expect(dry.body.preview[1]!.ammoniaN).toBeCloseTo(0.25 * 0.8224, 4)
+    expect(count()).toBe(before)
+    const done = await api.post<ImportPreview>(`/api/tanks/${lobby}/readings/import`, { csv, ...options, dryRun: false })
+    expect(done.body.inserted).toBe(50)
+    expect(count()).toBe(before + 50)
+    const again = await api.post<ImportPreview>(`/api/tanks/${lobby}/readings/import`, { csv, ...options, dryRun: false })
+    expect(again.body).toMatchObject({ inserted: 0, duplicates: 50 })
+    expect(count()).toBe(before + 50)
+  })
+
+  it('exports CSV that imports back into another tank unchanged', async () => {
+    const api = await signedIn('aquarist@tidewright.test')
+    const exported = await api.get<string>(`/api/tanks/${demo.tanks.nano}/readings/export.csv`)
+    expect(exported.status).toBe(200)
+    expect(exported.headers.get('content-type')).toContain('text/csv')
+    const lines = exported.body.trim().split('\n')
+    expect(lines[0]).toBe('taken_at,ammonia_mg_l_n,nitrite_mg_l_n,nitrate_mg_l_n,ph,temperature_c,salinity_practical,alkalinity_dkh,calcium_mg_l,magnesium_mg_l,phosphate_mg_l,notes')
+    expect(lines).toHaveLength(35)
+    const dry = await api.post<ImportPreview>(`/api/tanks/${lobby}/readings/import`, { csv: exported.body, dryRun: true })
+    expect(dry.body).toMatchObject({ rows: 34, valid: 34, errorRows: 0 })
+    const nano = (await api.get<ReadingList>(`/api/tanks/${demo.tanks.nano}/readings?sort=takenAt&dir=asc&pageSize=1`)).body.items[0]!
+    expect(dry.body.preview[0]!.nitrateN).toBeCloseTo(nano.nitrateN!, 9)
+    expect((await (await signedIn('client@tidewright.test')).get(`/api/tanks/${demo.tanks.nano}/readings/export.csv`)).status).toBe(404)
+  })
+
+  it('imports 20,000 rows in one go and refuses an oversize body with 413', async () => {
+    const api = await signedIn('aquarist@tidewright.test')
+    const before = count()
+    const big = await api.post<ImportPreview>(`/api/tanks/${lobby}/readings/import`, { csv: csvOf(20_000, 30_000), dryRun: false })
+    expect(big.status).toBe(200)
+    expect(big.body.inserted).toBe(20_000)
+    expect(count()).toBe(before + 20_000)
+    const huge = `taken_at,ammonia_mg_l_n\n${'2026-01-01T00:00:00Z,0.1\n'.repeat(1_100_000)}`
+    const refused = await api.post(`/api/tanks/${lobby}/readings/import`, { csv: huge, dryRun: true })
+    expect(refused.status).toBe(413)
+  })
+
+  it('keeps import to its roles and scope', async () => {
+    const csv = csvOf(2, 10)
+    expect((await (await signedIn('supervisor@tidewright.test')).post(`/api/tanks/${lobby}/readings/import`, { csv })).status).toBe(403)
+    expect((await (await signedIn(OTHER_AQUARIST_EMAIL)).post(`/api/tanks/${lobby}/readings/import`, { csv })).status).toBe(404)
+    expect((await (await signedIn('client2@tidewright.test')).post(`/api/tanks/${lobby}/readings/import`, { csv })).status).toBe(404)
+    const noDate = await (await signedIn('aquarist@tidewright.test')).post(`/api/tanks/${lobby}/readings/import`, { csv: 'a,b\n1,2\n' })
+    expect(noDate.status).toBe(400)
+    expect(noDate.body.data.issues[0].field).toBe('mapping.takenAt')
+  })
+})

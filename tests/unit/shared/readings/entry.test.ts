@@ -1,0 +1,109 @@
+import { describe, expect, it } from 'vitest'
+import { t90FromT68, conductivityFromSalinity, specificGravity, SG_BASES } from '../../../../shared/chemistry/seawater'
+import { entryFromStored, toCanonicalReading, type ReadingEntry } from '../../../../shared/readings/entry'
+
+const NOW = new Date('2026-06-01T12:00:00Z')
+const base = (over: Partial<ReadingEntry> = {}): ReadingEntry => ({
+  takenAt: '2026-06-01T09:00:00Z',
+  basis: { ammonia: 'NH3', nitrite: 'NO2', nitrate: 'NO3' },
+  temperatureUnit: 'C',
+  salinityMode: 'practical',
+  ...over,
+})
+const ok = (entry: ReadingEntry) => {
+  const result = toCanonicalReading(entry, NOW)
+  if (!result.ok) throw new Error(JSON.stringify(result.issues))
+  return result.reading
+}
+const issues = (entry: ReadingEntry) => {
+  const result = toCanonicalReading(entry, NOW)
+  if (result.ok) throw new Error('expected a refusal')
+  return result.issues
+}
+
+describe('toCanonicalReading: nitrogen bases', () => {
+  it('converts each kit basis to mg/L as N (IUPAC 1996 atomic weights, reference.md section 3)', () => {
+    const r = ok(base({ ammonia: 1, nitrite: 1, nitrate: 10 }))
+    expect(r.values.ammoniaN).toBeCloseTo(0.8224, 4)
+    expect(r.values.nitriteN).toBeCloseTo(0.3045, 4)
+    expect(r.values.nitrateN).toBeCloseTo(2.259, 3)
+    const asIon = ok(base({ ammonia: 1, basis: { ammonia: 'NH4', nitrite: 'N', nitrate: 'N' }, nitrite: 0.3, nitrate: 2 }))
+    expect(asIon.values.ammoniaN).toBeCloseTo(0.7765, 4)
+    expect(asIon.values.nitriteN).toBe(0.3)
+    expect(asIon.values.nitrateN).toBe(2)
+  })
+
+  it('keeps what was typed with its basis, and round-trips through entryFromStored', () => {
+    const entry = base({ ammonia: 0.5, nitrite: 0.25, nitrate: 5, basis: { ammonia: 'NH4', nitrite: 'NO2', nitrate: 'N' } })
+    const r = ok(entry)
+    expect(r.entered.ammonia).toEqual({ value: 0.5, basis: 'NH4' })
+    const back = entryFromStored({ ...r.values, takenAt: r.takenAt, notes: r.notes, entered: r.entered }, { ammonia: 'NH3', nitrite: 'NO2', nitrate: 'NO3' }, 'C')
+    expect(back.ammonia).toBe(0.5)
+    expect(back.basis).toEqual(entry.basis)
+    expect(ok(back).values).toEqual(r.values)
+  })
+
+  it('falls back to the tank basis when a stored reading kept nothing typed', () => {
+    const back = entryFromStored({ takenAt: '2026-06-01T09:00:00Z', ammoniaN: 0.8224, nitriteN: null, nitrateN: null, pH: null, temperatureC: 25, salinity: 35, alkalinityDkh: null, calciumMgL: null, magnesiumMgL: null, phosphateMgL: null, notes: null, entered: {} }, { ammonia: 'NH3', nitrite: 'NO2', nitrate: 'NO3' }, 'F')
+    expect(back.ammonia).toBeCloseTo(1, 3)
+    expect(back.temperature).toBeCloseTo(77, 6)
+    expect(back.temperatureUnit).toBe('F')
+  })
+})
+
+describe('toCanonicalReading: temperature and salinity', () => {
+  it('stores Fahrenheit as Celsius (F = C x 9/5 + 32)', () => {
+    expect(ok(base({ temperature: 77, temperatureUnit: 'F' })).values.temperatureC).toBeCloseTo(25, 10)
+    expect(ok(base({ temperature: 25 })).values.temperatureC).toBe(25)
+  })
+
+  it('turns specific gravity on each basis back into the salinity it came from', () => {
+    for (const key of Object.keys(SG_BASES) as (keyof typeof SG_BASES)[]) {
+      const b = SG_BASES[key]
+      const sg = specificGravity(35, b.sampleC, b.referenceC)
+      const r = ok(base({ salinity: sg, salinityMode: 'sg', sgBasis: key }))
+      expect(r.values.salinity, key).toBeCloseTo(35, 6)
+      expect(r.entered.salinity).toEqual({ value: sg, as: 'sg', basis: key })
+    }
+  })
+
+  it('reads SG 1.02637 on 25/25 C as practical salinity 35 (computed, reference.md section 5)', () => {
+    expect(ok(base({ salinity: 1.02637, salinityMode: 'sg', sgBasis: '25/25C' })).values.salinity).toBeCloseTo(35, 2)
+  })
+
+  it('converts conductivity at the stated sample temperature, 25 C by default', () => {
+    const at25 = conductivityFromSalinity(34, 25)
+    expect(ok(base({ salinity: at25, salinityMode: 'conductivity' })).values.salinity).toBeCloseTo(34, 6)
+    const at20 = conductivityFromSalinity(33, 20)
+    expect(ok(base({ salinity: at20, salinityMode: 'conductivity', conductivityTemperatureC: 20 })).values.salinity).toBeCloseTo(33, 6)
+  })
+
+  it('reads 42.914 mS/cm at 15 C (IPTS-68) as salinity 35 (Fofonoff & Millard 1983, UNESCO TP44)', () => {
+    expect(ok(base({ salinity: 42.914, salinityMode: 'conductivity', conductivityTemperatureC: t90FromT68(15) })).values.salinity).toBeCloseTo(35, 4)
+  })
+})
+
+describe('toCanonicalReading: bounds and flags', () => {
+  it('refuses values that cannot be real, one message per field', () => {
+    const found = issues(base({ ammonia: -1, pH: 15, temperature: 150, temperatureUnit: 'F', salinity: 1.2, salinityMode: 'sg', nitrate: 5000 }))
+    expect(found.map(i => i.field).sort()).toEqual(['ammonia', 'nitrate', 'pH', 'salinity', 'temperature'])
+    expect(found.find(i => i.field === 'temperature')!.message).toContain('°F')
+  })
+
+  it('accepts a possible but alarming value and flags it', () => {
+    const r = ok(base({ ammonia: 6, pH: 7.2, temperature: 25 }))
+    expect(r.flags.map(f => f.field).sort()).toEqual(['ammonia', 'pH'])
+    expect(r.flags.every(f => f.severity === 'danger')).toBe(true)
+    expect(ok(base({ ammonia: 0.25, pH: 8.1, temperature: 25.5, salinity: 35 })).flags).toEqual([])
+  })
+
+  it('refuses a reading in the future beyond clock skew but accepts a back-dated one', () => {
+    expect(issues(base({ ammonia: 0, takenAt: '2026-06-01T12:10:00Z' }))[0]!.field).toBe('takenAt')
+    expect(ok(base({ ammonia: 0, takenAt: '2026-06-01T12:03:00Z' })).takenAt).toBe('2026-06-01T12:03:00.000Z')
+    expect(ok(base({ ammonia: 0, takenAt: '2026-05-20T08:00:00+02:00' })).takenAt).toBe('2026-05-20T06:00:00.000Z')
+  })
+
+  it('refuses an empty test', () => {
+    expect(issues(base())[0]!.message).toMatch(/at least one/)
+  })
+})
