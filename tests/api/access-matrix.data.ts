@@ -12,9 +12,16 @@
  * client2@ (`otherClient`) is a client of the same company who must not see it;
  * aquarist@other-company.test (`otherCompany`) is staff of an unrelated company.
  */
+import * as v from 'valibot'
 import type { GenericSchema } from 'valibot'
+import { DEFAULT_PLAN_TEMPLATE } from '../../shared/plan/default-template'
 import { LoginSchema } from '../../shared/schemas/auth'
+import { ClientCreateSchema, ClientPatchSchema, SiteCreateSchema, SitePatchSchema } from '../../shared/schemas/clients'
+import { PlanTemplateSchema, StagePatchSchema } from '../../shared/schemas/plan'
+import { EventInputSchema, EventPatchSchema, ReadingImportSchema, ReadingInputSchema, ReadingPatchSchema } from '../../shared/schemas/reading'
+import { TankCreateSchema, TankPatchSchema } from '../../shared/schemas/tanks'
 import type { Fixtures } from '../support/fixtures'
+import type { ApiClient } from '../support/http'
 
 export const PERSONAS = ['signedOut', 'admin', 'aquarist', 'supervisor', 'client', 'otherClient', 'otherCompany'] as const
 export type Persona = (typeof PERSONAS)[number]
@@ -40,17 +47,28 @@ export type FuzzPlan =
     /** The valibot schema the handler validates the body with: a body it rejects must get a 4xx and change nothing. */
     schema: GenericSchema
     /** A body the route accepts, mutated field by field by the fuzzer. */
-    validBody: (f: Fixtures) => Record<string, unknown>
+    validBody: (c: MatrixContext) => Record<string, unknown> | Promise<Record<string, unknown>>
     /** Keep accepted fuzz bodies from reaching the route (e.g. sign-in, where accepted bodies feed the throttle). */
     onlyRejected?: boolean
   }
+  /** A multipart upload route: the fuzzer sends wrong, lying, empty, oversize and oddly named files. */
+  | { upload: true, as: Exclude<Persona, 'signedOut'> }
+
+/** What a matrix entry may use to build its request: the ids, signed-in sessions, the database (read-only). */
+export interface MatrixContext {
+  f: Fixtures
+  /** A session of the persona, signed in once and reused. */
+  as: (persona: Exclude<Persona, 'signedOut'>) => Promise<ApiClient>
+  /** A read-only query on the test database. */
+  query: <T = Record<string, unknown>>(sql: string, ...params: unknown[]) => T[]
+}
 
 export interface MatrixEntry {
-  /** The concrete URL to call, normally a resource of the `client` persona's tank. */
-  url: (f: Fixtures) => string
+  /** The concrete URL to call, normally a resource of the `client` persona's tank. May create what it needs first (called before each persona's call). */
+  url: (c: MatrixContext) => string | Promise<string>
   /** Methods to call for an ANY route (a file without a method suffix). */
   methods?: string[]
-  body?: (f: Fixtures) => unknown
+  body?: (c: MatrixContext) => unknown
   expect: Expectations
   /** The call ends or replaces the session: each persona signs in afresh for it. */
   freshSession?: boolean
@@ -78,12 +96,88 @@ export function everyone(status: number): Expectations {
   return { signedOut: status, admin: status, aquarist: status, supervisor: status, client: status, otherClient: status, otherCompany: status }
 }
 
+/** Clients may not use staff routes (403); another company's staff see their own data only. */
+export function staffList(ok = 200): Expectations {
+  return { signedOut: 401, admin: ok, aquarist: ok, supervisor: ok, client: 403, otherClient: 403, otherCompany: ok }
+}
+/** Admins and aquarists change company records; the other company's aquarist may not reach ours (404). */
+export function recordManager(ok = 200): Expectations {
+  return { signedOut: 401, admin: ok, aquarist: ok, supervisor: 403, client: 403, otherClient: 403, otherCompany: 404 }
+}
+/** Entering readings and events on the `client` persona's tank: staff who manage it and the client. */
+export function tankEntry(ok = 201): Expectations {
+  return { signedOut: 401, admin: ok, aquarist: ok, supervisor: 403, client: ok, otherClient: 404, otherCompany: 404 }
+}
+
+/** The body of the archive routes (the schema is private to those route files; this mirrors it). */
+const ARCHIVE_BODY = v.object({ archived: v.optional(v.boolean(), true) })
+
+const hoursAgo = (h: number) => new Date(Date.now() - h * 3_600_000).toISOString()
+
+/** A reading as the entry form sends it (values from the readings API tests). */
+export const READING_BODY = () => ({
+  takenAt: hoursAgo(1), ammonia: 0.25, nitrite: 0.5, nitrate: 10,
+  basis: { ammonia: 'NH3', nitrite: 'NO2', nitrate: 'NO3' },
+  pH: 8.1, temperature: 25, temperatureUnit: 'C', salinity: 35, salinityMode: 'practical',
+})
+const EVENT_BODY = () => ({ at: hoursAgo(1), kind: 'note', notes: 'Access matrix note' })
+
+const firstStage = (c: MatrixContext) => c.query<{ id: string }>('select id from plan_stages where tank_id = ? order by position limit 1', c.f.demo.tanks.lounge)[0]!.id
+const loweSite = (c: MatrixContext) => c.query<{ id: string }>('select id from sites where client_id = ? order by created_at limit 1', c.f.demo.clients.lowe)[0]!.id
+
+/** A fresh reading entered by the tank's client, so each persona edits or deletes its own copy. */
+async function freshReading(c: MatrixContext): Promise<string> {
+  const response = await (await c.as('client')).post(`/api/tanks/${c.f.demo.tanks.lounge}/readings`, READING_BODY())
+  if (response.status !== 201) throw new Error(`could not create a reading: ${response.status}`)
+  return response.body.reading.id
+}
+async function freshEvent(c: MatrixContext): Promise<string> {
+  const response = await (await c.as('client')).post(`/api/tanks/${c.f.demo.tanks.lounge}/events`, EVENT_BODY())
+  if (response.status !== 201) throw new Error(`could not create an event: ${response.status}`)
+  return response.body.id ?? response.body.event?.id
+}
+async function freshClient(c: MatrixContext): Promise<string> {
+  const response = await (await c.as('admin')).post('/api/clients', { name: 'Archive Candidate' })
+  if (response.status !== 201) throw new Error(`could not create a client: ${response.status}`)
+  return response.body.id
+}
+async function freshSite(c: MatrixContext): Promise<string> {
+  const response = await (await c.as('admin')).post(`/api/clients/${c.f.demo.clients.lowe}/sites`, { label: 'Archive candidate site' })
+  if (response.status !== 201) throw new Error(`could not create a site: ${response.status}`)
+  return response.body.id
+}
+
+/** A minimal valid PDF, the smallest file the upload routes accept without decoding an image. */
+export const TINY_PDF = Buffer.from('%PDF-1.4\n1 0 obj<</Type/Catalog/Pages 2 0 R>>endobj\n2 0 obj<</Type/Pages/Kids[]/Count 0>>endobj\ntrailer<</Root 1 0 R>>\n%%EOF\n')
+/** A 2 x 2 PNG, as sharp writes it. */
+export const TINY_PNG = Buffer.from('iVBORw0KGgoAAAANSUhEUgAAAAIAAAACCAIAAAD91JpzAAAACXBIWXMAAAPoAAAD6AG1e1JrAAAAEUlEQVQImWOQy++Sy+9igFAAHOIEXbVKlfUAAAAASUVORK5CYII=', 'base64')
+
+export function fileForm(bytes: Buffer, name: string, type: string): FormData {
+  const form = new FormData()
+  form.append('file', new Blob([bytes], { type }), name)
+  return form
+}
+
+const uploadCache = new Map<string, string>()
+/** One upload on the lounge tank's first stage (made once per kind, by the admin). */
+async function loungeUpload(c: MatrixContext, kind: 'pdf' | 'png'): Promise<string> {
+  const cached = uploadCache.get(kind)
+  if (cached) return cached
+  const form = kind === 'pdf' ? fileForm(TINY_PDF, 'leak-test.pdf', 'application/pdf') : fileForm(TINY_PNG, 'leak-test.png', 'image/png')
+  const response = await (await c.as('admin')).request('POST', `/api/tanks/${c.f.demo.tanks.lounge}/stages/${firstStage(c)}/uploads`, form)
+  if (response.status !== 201) throw new Error(`could not upload: ${response.status} ${JSON.stringify(response.body)}`)
+  uploadCache.set(kind, response.body.id)
+  return response.body.id
+}
+
 export const ACCESS_MATRIX: Record<string, MatrixEntry> = {
   'ANY /api/[...path]': {
     url: () => '/api/no-such-route/42',
     methods: ['GET', 'POST', 'PATCH', 'DELETE'],
     expect: everyone(404),
   },
+
+  // Sign-in and the session
   'POST /api/auth/login': {
     url: () => '/api/auth/login',
     // Each persona signs in as itself (the test fills in the e-mail); signed out uses client@.
@@ -98,27 +192,139 @@ export const ACCESS_MATRIX: Record<string, MatrixEntry> = {
     freshSession: true,
     fuzz: 'no-body',
   },
-  'GET /api/me': {
-    url: () => '/api/me',
-    expect: anySignedIn(),
+  'GET /api/me': { url: () => '/api/me', expect: anySignedIn() },
+
+  // Clients and sites (issue 5)
+  'GET /api/clients': { url: () => '/api/clients', expect: staffList() },
+  'POST /api/clients': {
+    url: () => '/api/clients',
+    body: () => ({ name: 'Matrix Client' }),
+    expect: { ...staffList(201), supervisor: 403 },
+    fuzz: { as: 'aquarist', schema: ClientCreateSchema, validBody: () => ({ name: 'Fuzz Client', email: 'fuzz.client@example.test', phone: '555-0100', notes: 'Fuzzed' }) },
   },
-  'GET /api/tanks': {
+  'GET /api/clients/[id]': { url: c => `/api/clients/${c.f.demo.clients.lowe}`, expect: staffOnTank() },
+  'PATCH /api/clients/[id]': {
+    url: c => `/api/clients/${c.f.demo.clients.lowe}`,
+    body: () => ({ notes: 'Checked by the access matrix' }),
+    expect: recordManager(),
+    fuzz: { as: 'aquarist', schema: ClientPatchSchema, validBody: () => ({ notes: 'Fuzzed notes', phone: '555-0101' }) },
+  },
+  'POST /api/clients/[id]/archive': {
+    url: async c => `/api/clients/${await freshClient(c)}/archive`,
+    body: () => ({ archived: true }),
+    expect: recordManager(),
+    fuzz: { as: 'aquarist', schema: ARCHIVE_BODY, validBody: () => ({ archived: false }) },
+  },
+  'GET /api/clients/[id]/sites': { url: c => `/api/clients/${c.f.demo.clients.lowe}/sites`, expect: staffOnTank() },
+  'POST /api/clients/[id]/sites': {
+    url: c => `/api/clients/${c.f.demo.clients.lowe}/sites`,
+    body: () => ({ label: 'Matrix site' }),
+    expect: recordManager(201),
+    fuzz: { as: 'aquarist', schema: SiteCreateSchema, validBody: () => ({ label: 'Fuzz site', address: '1 Example Row', roomNotes: 'Ground floor', accessNotes: 'Ring twice' }) },
+  },
+  'PATCH /api/sites/[id]': {
+    url: c => `/api/sites/${loweSite(c)}`,
+    body: () => ({ accessNotes: 'Checked by the access matrix' }),
+    expect: recordManager(),
+    fuzz: { as: 'aquarist', schema: SitePatchSchema, validBody: () => ({ accessNotes: 'Fuzzed', roomNotes: 'Fuzzed room' }) },
+  },
+  'POST /api/sites/[id]/archive': {
+    url: async c => `/api/sites/${await freshSite(c)}/archive`,
+    body: () => ({ archived: true }),
+    expect: recordManager(),
+    fuzz: { as: 'aquarist', schema: ARCHIVE_BODY, validBody: () => ({ archived: false }) },
+  },
+  'GET /api/staff': { url: () => '/api/staff', expect: staffList() },
+
+  // Plan template and stages (issue 5)
+  'GET /api/plan-template': { url: () => '/api/plan-template', expect: staffList() },
+  'PUT /api/plan-template': {
+    url: () => '/api/plan-template',
+    body: () => ({ stages: DEFAULT_PLAN_TEMPLATE }),
+    expect: { signedOut: 401, admin: 200, aquarist: 403, supervisor: 403, client: 403, otherClient: 403, otherCompany: 403 },
+    fuzz: { as: 'admin', schema: PlanTemplateSchema, validBody: () => ({ stages: DEFAULT_PLAN_TEMPLATE.slice(0, 3) }) },
+  },
+  'GET /api/tanks/[id]/stages': { url: c => `/api/tanks/${c.f.demo.tanks.lounge}/stages`, expect: tankReader() },
+  'PATCH /api/tanks/[id]/stages/[stageId]': {
+    url: c => `/api/tanks/${c.f.demo.tanks.lounge}/stages/${firstStage(c)}`,
+    body: () => ({ notes: 'Checked by the access matrix' }),
+    expect: recordManager(),
+    fuzz: { as: 'aquarist', schema: StagePatchSchema, validBody: () => ({ notes: 'Fuzzed', checklist: [{ id: 'x', done: true }] }) },
+  },
+  'POST /api/tanks/[id]/stages/[stageId]/uploads': {
+    url: c => `/api/tanks/${c.f.demo.tanks.lounge}/stages/${firstStage(c)}/uploads`,
+    body: () => fileForm(TINY_PDF, 'matrix.pdf', 'application/pdf'),
+    expect: recordManager(201),
+    fuzz: { upload: true, as: 'aquarist' },
+  },
+  'GET /api/uploads/[id]': { url: async c => `/api/uploads/${await loungeUpload(c, 'pdf')}`, expect: tankReader() },
+  'GET /api/uploads/[id]/thumbnail': { url: async c => `/api/uploads/${await loungeUpload(c, 'png')}/thumbnail`, expect: tankReader() },
+
+  // Tanks
+  'GET /api/tanks': { url: () => '/api/tanks', expect: anySignedIn() },
+  'POST /api/tanks': {
     url: () => '/api/tanks',
-    expect: anySignedIn(),
+    body: c => ({ name: 'Matrix reef', clientId: c.f.demo.clients.lowe, shape: 'rectangular', dimensions: { lengthMm: 900, widthMm: 450, heightMm: 450 } }),
+    // Another company's aquarist names our client: a field error, not a hint that it exists.
+    expect: { signedOut: 401, admin: 201, aquarist: 201, supervisor: 403, client: 403, otherClient: 403, otherCompany: 400 },
+    fuzz: { as: 'aquarist', schema: TankCreateSchema, validBody: c => ({ name: 'Fuzz reef', clientId: c.f.demo.clients.lowe, shape: 'rectangular', dimensions: { lengthMm: 900, widthMm: 450, heightMm: 450 }, sumpLitres: 40, material: 'glass', waterSource: 'mixed', cycleMethod: 'fishless' }) },
   },
-  'GET /api/tanks/[id]': {
-    url: f => `/api/tanks/${f.demo.tanks.lounge}`,
-    expect: tankReader(),
+  'GET /api/tanks/[id]': { url: c => `/api/tanks/${c.f.demo.tanks.lounge}`, expect: tankReader() },
+  'PATCH /api/tanks/[id]': {
+    url: c => `/api/tanks/${c.f.demo.tanks.lounge}`,
+    body: () => ({ name: 'Marlowe lounge reef' }),
+    expect: recordManager(),
+    fuzz: { as: 'aquarist', schema: TankPatchSchema, validBody: () => ({ name: 'Marlowe lounge reef', sumpLitres: 60, material: 'glass' }) },
   },
+
+  // Readings, events, verdict, chart, CSV (issue 6)
+  'GET /api/tanks/[id]/readings': { url: c => `/api/tanks/${c.f.demo.tanks.lounge}/readings`, expect: tankReader() },
+  'POST /api/tanks/[id]/readings': {
+    url: c => `/api/tanks/${c.f.demo.tanks.lounge}/readings`,
+    body: () => READING_BODY(),
+    expect: tankEntry(),
+    fuzz: { as: 'client', schema: ReadingInputSchema, validBody: () => READING_BODY() },
+  },
+  'PATCH /api/tanks/[id]/readings/[readingId]': {
+    url: async c => `/api/tanks/${c.f.demo.tanks.lounge}/readings/${await freshReading(c)}`,
+    body: () => ({ notes: 'Corrected by the access matrix' }),
+    expect: tankEntry(200),
+    fuzz: { as: 'aquarist', schema: ReadingPatchSchema, validBody: () => ({ notes: 'Fuzzed', pH: 8.2, temperature: 25, temperatureUnit: 'C' }) },
+  },
+  'DELETE /api/tanks/[id]/readings/[readingId]': {
+    url: async c => `/api/tanks/${c.f.demo.tanks.lounge}/readings/${await freshReading(c)}`,
+    expect: tankEntry(204),
+  },
+  'GET /api/tanks/[id]/readings/export.csv': { url: c => `/api/tanks/${c.f.demo.tanks.lounge}/readings/export.csv`, expect: tankReader() },
+  'POST /api/tanks/[id]/readings/import': {
+    url: c => `/api/tanks/${c.f.demo.tanks.lounge}/readings/import`,
+    body: () => ({ csv: `takenAt,ammonia\n${hoursAgo(3)},0.1\n`, dryRun: true }),
+    expect: tankEntry(200),
+    fuzz: { as: 'aquarist', schema: ReadingImportSchema, validBody: () => ({ csv: `takenAt,ammonia,pH\n${hoursAgo(3)},0.1,8.1\n`, dryRun: true, temperatureUnit: 'C', salinityMode: 'practical' }) },
+  },
+  'GET /api/tanks/[id]/events': { url: c => `/api/tanks/${c.f.demo.tanks.lounge}/events`, expect: tankReader() },
+  'POST /api/tanks/[id]/events': {
+    url: c => `/api/tanks/${c.f.demo.tanks.lounge}/events`,
+    body: () => EVENT_BODY(),
+    expect: tankEntry(),
+    fuzz: { as: 'client', schema: EventInputSchema, validBody: () => ({ at: hoursAgo(2), kind: 'water-change', amount: 20, volumeUnit: 'L', notes: 'Fuzzed' }) },
+  },
+  'PATCH /api/tanks/[id]/events/[eventId]': {
+    url: async c => `/api/tanks/${c.f.demo.tanks.lounge}/events/${await freshEvent(c)}`,
+    body: () => ({ notes: 'Corrected by the access matrix' }),
+    expect: tankEntry(200),
+    fuzz: { as: 'aquarist', schema: EventPatchSchema, validBody: () => ({ notes: 'Fuzzed', kind: 'note' }) },
+  },
+  'DELETE /api/tanks/[id]/events/[eventId]': {
+    url: async c => `/api/tanks/${c.f.demo.tanks.lounge}/events/${await freshEvent(c)}`,
+    expect: tankEntry(204),
+  },
+  'GET /api/tanks/[id]/verdict': { url: c => `/api/tanks/${c.f.demo.tanks.lounge}/verdict`, expect: tankReader() },
+  'GET /api/tanks/[id]/chart': { url: c => `/api/tanks/${c.f.demo.tanks.lounge}/chart`, expect: tankReader() },
+
   // Benchmark floor routes: off unless NUXT_BENCH_ROUTES=1, so 404 for everyone here.
-  'GET /api/bench/tanks': {
-    url: f => `/api/bench/tanks?org=${f.demo.organisationId}`,
-    expect: everyone(404),
-  },
-  'GET /api/bench/tanks/[id]': {
-    url: f => `/api/bench/tanks/${f.demo.tanks.lounge}`,
-    expect: everyone(404),
-  },
+  'GET /api/bench/tanks': { url: c => `/api/bench/tanks?org=${c.f.demo.organisationId}`, expect: everyone(404) },
+  'GET /api/bench/tanks/[id]': { url: c => `/api/bench/tanks/${c.f.demo.tanks.lounge}`, expect: everyone(404) },
 }
 
 /** Routes a module registers rather than a file under server/api; checked the same way. */

@@ -5,11 +5,11 @@
  */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { ApiClient } from '../support/http'
-import { fingerprint } from '../support/db-checksum'
+import { fingerprint, queryFile } from '../support/db-checksum'
 import { startOwnServer, type OwnServer } from '../support/own-server'
 import { declaredRoutes } from '../support/route-tree'
 import { forbiddenFor, leaksIn } from '../support/tenancy'
-import { ACCESS_MATRIX, MODULE_ROUTES, PERSONAS, PERSONA_EMAIL, type MatrixEntry, type Persona } from './access-matrix.data'
+import { ACCESS_MATRIX, MODULE_ROUTES, PERSONAS, PERSONA_EMAIL, type MatrixContext, type MatrixEntry, type Persona } from './access-matrix.data'
 
 let own: OwnServer
 const sessions = new Map<Persona, ApiClient>()
@@ -32,20 +32,24 @@ async function clientFor(persona: Persona, fresh: boolean): Promise<ApiClient> {
   return api
 }
 
+function context(): MatrixContext {
+  return { f: own.fixtures, as: persona => clientFor(persona, false), query: (sql, ...params) => queryFile(own.dbPath, sql, ...params) }
+}
+
 function methodsOf(key: string, entry: MatrixEntry): string[] {
   const method = key.split(' ')[0]!
   return method === 'ANY' ? entry.methods ?? ['GET'] : [method]
 }
 
 function bodyFor(key: string, entry: MatrixEntry, persona: Persona): unknown {
-  const body = entry.body?.(own.fixtures)
+  const body = entry.body?.(context())
   if (key === 'POST /api/auth/login') return { ...(body as object), email: PERSONA_EMAIL[persona === 'signedOut' ? 'client' : persona] }
   return body
 }
 
-async function call(key: string, entry: MatrixEntry, method: string, persona: Persona, headers: Record<string, string> = {}) {
+async function call(key: string, entry: MatrixEntry, method: string, persona: Persona, headers: Record<string, string> = {}, preparedUrl?: string) {
   const api = await clientFor(persona, entry.freshSession === true)
-  const url = entry.url(own.fixtures)
+  const url = preparedUrl ?? await entry.url(context())
   const body = bodyFor(key, entry, persona)
   return { url, response: await api.request(method, url, body ?? (method === 'GET' || method === 'DELETE' ? undefined : {}), headers) }
 }
@@ -95,14 +99,15 @@ describe('cross-site requests', () => {
     it(`${method} ${key.split(' ')[1]}: refused from another site's page and changes nothing, allowed from our own`, async () => {
       // The persona for whom the call would otherwise succeed (or the admin when nobody may).
       const persona = PERSONAS.find(p => entry.expect[p] < 400) ?? 'admin'
+      const url = await entry.url(context())
       const before = fingerprint(own.dbPath)
       for (const origin of ['https://elsewhere.example', 'null', `${own.server.baseURL}.elsewhere.example`]) {
-        const { response } = await call(key, entry, method, persona, { origin })
+        const { response } = await call(key, entry, method, persona, { origin }, url)
         expect(response.status, `${method} ${key} as ${persona} from ${origin}`).toBe(403)
         expect(response.body.statusMessage).toBe('Cross-site request refused')
       }
       expect(fingerprint(own.dbPath)).toEqual(before)
-      const { response } = await call(key, entry, method, persona, { origin: own.server.baseURL })
+      const { response } = await call(key, entry, method, persona, { origin: own.server.baseURL }, url)
       expect(response.status, `${method} ${key} as ${persona} from our own origin`).toBe(entry.expect[persona])
     })
   }

@@ -38,7 +38,7 @@ export async function startOwnServer(env: Record<string, string> = {}): Promise<
   const dir = mkdtempSync(join(tmpdir(), 'tidewright-own-'))
   const { dbPath, fixtures } = await seededDatabase(dir)
   const sessionPassword = randomBytes(32).toString('hex')
-  const fullEnv = { NUXT_SESSION_PASSWORD: sessionPassword, ...env }
+  const fullEnv = { NUXT_SESSION_PASSWORD: sessionPassword, NUXT_UPLOADS_DIR: join(dir, 'uploads'), ...env }
   const own: OwnServer = {
     server: await startServer({ dbPath, env: fullEnv }),
     dir,
