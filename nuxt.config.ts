@@ -78,5 +78,7 @@ export default defineNuxtConfig({
       security: { requestSizeLimiter: { maxRequestSizeInBytes: 24_000_000, maxUploadFileRequestInBytes: 24_000_000 } },
     },
   },
+  // main.css carries the @tailwind layers; the module must not inject a second copy.
+  tailwindcss: { cssPath: false },
   typescript: { strict: true, typeCheck: false },
 })

@@ -37,7 +37,8 @@ export function mergeActions(actions: readonly CycleAction[]): CycleAction[] {
     if (action.kind === 'water-change' || action.kind === 'retest') {
       const kept = single.get(action.kind)
       single.set(action.kind, kept ? better(kept, action) : action)
-    } else {
+    }
+    else {
       rest.set(`${action.kind}\u0000${action.message}\u0000${action.dueBy ?? ''}`, action)
     }
   }

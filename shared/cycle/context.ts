@@ -34,5 +34,5 @@ export interface ReadinessContext extends RuleContext {
 /** Animals are in the water at `t`: the fish of a fish-in cycle, or any livestock added by then. */
 export function animalsInAt(ctx: RuleContext, t: number): boolean {
   if (ctx.tank.cycleMethod === 'fish-in' && ctx.startedMs <= t) return true
-  return ctx.livestock.some((e) => e.t <= t)
+  return ctx.livestock.some(e => e.t <= t)
 }

@@ -12,9 +12,14 @@
  * - for a fishless tank with no livestock yet: an ammonia dose cleared, that is a
  *   zero test inside the zero run and within `clearanceWindowHours` of the dose,
  *   with no water change in between.
- * A test above a zero limit ends the run (and a completion with it). Before
- * completion, a water change or a long gap between tests also restarts the run:
- * dilution and missing days are not evidence.
+ * A test above a zero limit ends the run (and a completion with it) unless it
+ * shows an ammonia dose being worked off: it falls inside the dose's window and a
+ * zero test follows inside that window, with no water change in between. Such a
+ * test neither counts nor breaks; until the zero test comes it holds the run open,
+ * so the verdict is not complete meanwhile. Before completion, a water change or a
+ * long gap between tests also restarts the run: dilution and missing days are not
+ * evidence. Every condition is "there exists" over tests and limits, so stricter
+ * limits can only delay completion.
  */
 
 import { HOUR_MS } from './time'
@@ -44,9 +49,9 @@ export interface Completion {
 }
 
 /** Why the count of zero tests restarted. */
-export type RunRestart =
-  | { readonly reason: 'gap'; readonly from: TimedReading; readonly to: TimedReading; readonly beforeCompletion: true }
-  | { readonly reason: 'water-change'; readonly event: CycleEvent; readonly t: number; readonly beforeCompletion: true }
+export type RunRestart
+  = | { readonly reason: 'gap', readonly from: TimedReading, readonly to: TimedReading, readonly beforeCompletion: true }
+    | { readonly reason: 'water-change', readonly event: CycleEvent, readonly t: number, readonly beforeCompletion: true }
 
 /** The current run of consecutive zero tests. */
 export interface ZeroRun {
@@ -90,6 +95,12 @@ interface MutableRun {
   completion: Completion | null
 }
 
+/** A test above zero inside a dose window, waiting for a zero test by `deadline` to excuse it. */
+interface Held {
+  readonly reading: TimedReading
+  readonly deadline: number
+}
+
 interface ScanSettings {
   readonly thresholds: Thresholds
   readonly method: CycleMethod
@@ -110,6 +121,7 @@ class CourseScan {
   restarts: RunRestart[] = []
   latestNitrate: TimedReading | null = null
   lastNitrogen: TimedReading | null = null
+  held: Held[] = []
 
   constructor(private readonly s: ScanSettings) {}
 
@@ -122,8 +134,11 @@ class CourseScan {
       const dose: MutableDose = { event, t, clearedBy: null, diluted: false, lastInWindow: null }
       this.pending.push(dose)
       this.doses.push(dose)
-    } else if (event.kind === 'water-change') {
+    }
+    else if (event.kind === 'water-change') {
       for (const dose of this.pending) dose.diluted = true
+      // After a water change no zero test can excuse a held test: the dose may have been diluted away.
+      this.resolveHeld(Number.POSITIVE_INFINITY)
       if (!this.completed) {
         this.run = null
         this.restarts.push({ reason: 'water-change', event, t, beforeCompletion: true })
@@ -140,10 +155,32 @@ class CourseScan {
     const zero = r.ammoniaN !== undefined && r.nitriteN !== undefined && !aboveA && !aboveN
     this.noteMilestones(r, aboveA)
     this.checkGap(r)
+    this.resolveHeld(r.t)
     const cleared = this.settleDoses(r, zero)
-    if (aboveA || aboveN) this.breakRun(r)
-    else if (zero) this.extendRun(r, cleared)
+    if (aboveA || aboveN) this.holdOrBreak(r)
+    else if (zero) {
+      // A zero test inside every held test's window excuses them all: the dose was worked off.
+      this.held = []
+      this.extendRun(r, cleared)
+    }
     this.lastNitrogen = r
+  }
+
+  /** Breaks the run at the first held test whose window closed before `t`. */
+  private resolveHeld(t: number): void {
+    const expired = this.held.find(h => h.deadline < t)
+    if (expired === undefined) return
+    this.held = []
+    this.breakRun(expired.reading)
+  }
+
+  private holdOrBreak(r: TimedReading): void {
+    let deadline = Number.NEGATIVE_INFINITY
+    for (const dose of this.pending) {
+      if (!dose.diluted && dose.t < r.t && r.t <= dose.t + this.s.windowMs) deadline = Math.max(deadline, dose.t + this.s.windowMs)
+    }
+    if (Number.isFinite(deadline) && this.run !== null) this.held.push({ reading: r, deadline })
+    else this.breakRun(r)
   }
 
   private noteMilestones(r: TimedReading, aboveA: boolean): void {
@@ -157,6 +194,7 @@ class CourseScan {
     const last = this.lastNitrogen
     if (last === null || r.t - last.t <= this.s.gapMs || this.completed) return
     this.run = null
+    this.held = []
     this.restarts.push({ reason: 'gap', from: last, to: r, beforeCompletion: true })
   }
 
@@ -181,6 +219,7 @@ class CourseScan {
     const completion = this.run?.completion
     if (completion) this.lost.push({ ...completion, lostBy: r })
     this.run = null
+    this.held = []
   }
 
   private extendRun(r: TimedReading, cleared: readonly MutableDose[]): void {
@@ -224,11 +263,15 @@ class CourseScan {
   }
 
   result(nowMs: number): Course {
+    // A held test whose window has closed by `now` was never excused: it ends the run.
+    this.resolveHeld(nowMs)
     // A diluted dose can no longer prove anything, so it is not a test under way.
-    const open = this.pending.filter((dose) => !dose.diluted && nowMs <= dose.t + this.s.windowMs)
+    const open = this.pending.filter(dose => !dose.diluted && nowMs <= dose.t + this.s.windowMs)
     const run = this.run
+    // A test still waiting to be excused is above the limits now: no completion holds meanwhile.
+    const onHold = this.held.length > 0
     return {
-      completion: run?.completion ?? null,
+      completion: onHold ? null : run?.completion ?? null,
       lost: this.lost,
       run: run ? { first: run.first, last: run.last, zeroTests: run.zeroTests, clearedDoses: run.clearedDoses } : null,
       firstRise: this.firstRise,
@@ -243,7 +286,7 @@ class CourseScan {
 
 /** Follows the cycle through the ordered history. Events at the same instant as a test come first. */
 export function traceCourse(history: History, thresholds: Thresholds, method: CycleMethod, nowMs: number): Course {
-  const livestock = history.events.find((e) => e.event.kind === 'livestock-added')
+  const livestock = history.events.find(e => e.event.kind === 'livestock-added')
   const scan = new CourseScan({
     thresholds,
     method,

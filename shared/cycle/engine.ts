@@ -36,20 +36,20 @@ function buildContext(input: CycleInput): RuleContext {
   const history = buildHistory(input.readings, input.events ?? [], nowMs)
   const course = traceCourse(history, thresholds, input.tank.cycleMethod, nowMs)
   const latest = latestValues(history.readings)
-  const sourceT = firstSourceTime(history, input.tank, startedMs, thresholds)
+  const sourceT = firstSourceTime(history, input.tank, startedMs, thresholds, nowMs)
   const phase = decidePhase({ history, course, latest, thresholds, sourceT })
-  const livestock = history.events.filter((e) => e.event.kind === 'livestock-added')
+  const livestock = history.events.filter(e => e.event.kind === 'livestock-added')
   return { tank: input.tank, startedMs, nowMs, thresholds, history, course, phase, latest, sourceT, livestock }
 }
 
-function runRules(ctx: RuleContext): { findings: Finding[]; actions: CycleAction[] } {
+function runRules(ctx: RuleContext): { findings: Finding[], actions: CycleAction[] } {
   const findings: Finding[] = []
   const actions: CycleAction[] = []
   for (const rule of FINDING_RULES) {
     const result = rule.evaluate(ctx)
     for (const hit of result.hits) {
       // The same test can back a finding twice (e.g. pH and temperature from one test); list it once, oldest first.
-      const ids = [...new Set(hit.readings.slice().sort((a, b) => a.t - b.t || compareStrings(a.id, b.id)).map((r) => r.id))]
+      const ids = [...new Set(hit.readings.slice().sort((a, b) => a.t - b.t || compareStrings(a.id, b.id)).map(r => r.id))]
       findings.push({ ruleId: rule.id, severity: hit.severity, message: hit.message, readingIds: ids })
     }
     actions.push(...result.actions)

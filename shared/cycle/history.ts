@@ -53,7 +53,7 @@ function compareStrings(a: string, b: string): number {
 }
 
 function valueKey(reading: TimedReading): string {
-  return VALUE_KEYS.map((key) => String(reading[key] ?? '')).join('|')
+  return VALUE_KEYS.map(key => String(reading[key] ?? '')).join('|')
 }
 
 function compareReadings(a: TimedReading, b: TimedReading): number {
@@ -68,7 +68,7 @@ function compareEvents(a: TimedEvent, b: TimedEvent): number {
     || compareStrings(a.event.group ?? '', b.event.group ?? '')
 }
 
-function sanitize(raw: CycleReading, t: number): { reading: TimedReading; repaired: boolean } {
+function sanitize(raw: CycleReading, t: number): { reading: TimedReading, repaired: boolean } {
   const values: Partial<Record<NumericKey, number>> = {}
   let repaired = false
   for (const key of VALUE_KEYS) {

@@ -10,9 +10,13 @@ import type { Course } from './course'
 import type { History, TimedReading } from './history'
 import type { CyclePhase, CycleTank, Thresholds } from './types'
 
-/** When something first fed the bacteria: a dose, livestock, the fish of a fish-in cycle, or a test showing ammonia. */
-export function firstSourceTime(history: History, tank: CycleTank, startedMs: number, thresholds: Thresholds): number | null {
-  let first = tank.cycleMethod === 'fish-in' ? startedMs : Number.POSITIVE_INFINITY
+/**
+ * When something first fed the bacteria, as of `nowMs`: a dose, bacteria, livestock, the fish of a
+ * fish-in cycle, or a test showing ammonia or nitrite. Null when nothing has yet.
+ */
+export function firstSourceTime(history: History, tank: CycleTank, startedMs: number, thresholds: Thresholds, nowMs: number): number | null {
+  // History is already cut at `now`; the fish of a fish-in start that lies in the future are not in yet.
+  let first = tank.cycleMethod === 'fish-in' && startedMs <= nowMs ? startedMs : Number.POSITIVE_INFINITY
   for (const { event, t } of history.events) {
     if (event.kind === 'ammonia-dose' || event.kind === 'bacteria-dose' || event.kind === 'livestock-added') {
       first = Math.min(first, t)
@@ -20,7 +24,7 @@ export function firstSourceTime(history: History, tank: CycleTank, startedMs: nu
     }
   }
   // Ammonia nobody logged (rock, food, tap water) still feeds the bacteria.
-  const shown = history.readings.find((r) => (r.ammoniaN ?? 0) > thresholds.ammoniaZeroN || (r.nitriteN ?? 0) > thresholds.nitriteZeroN)
+  const shown = history.readings.find(r => (r.ammoniaN ?? 0) > thresholds.ammoniaZeroN || (r.nitriteN ?? 0) > thresholds.nitriteZeroN)
   if (shown) first = Math.min(first, shown.t)
   return Number.isFinite(first) ? first : null
 }

@@ -24,8 +24,8 @@ export function assessReadiness(ctx: RuleContext, findings: readonly Finding[]):
   const rctx: ReadinessContext = { ...ctx, findings, decided }
   // Object literal members are evaluated in order: fish is decided before any coral group asks.
   return {
-    fish: decide(rctx, decided, 'fish'),
-    invertebrates: decide(rctx, decided, 'invertebrates'),
+    'fish': decide(rctx, decided, 'fish'),
+    'invertebrates': decide(rctx, decided, 'invertebrates'),
     'soft-coral': decide(rctx, decided, 'soft-coral'),
     'lps-coral': decide(rctx, decided, 'lps-coral'),
     'sps-coral': decide(rctx, decided, 'sps-coral'),

@@ -52,11 +52,11 @@ export interface RuleInfo {
 
 /** Every rule as plain data, finding rules first. */
 export const RULES: readonly RuleInfo[] = Object.freeze([
-  ...FINDING_RULES.map((r) => ({ id: r.id, kind: 'finding' as const, description: r.description, source: r.source, severities: r.severities })),
-  ...READINESS_RULES.map((r) => ({ id: r.id, kind: 'readiness' as const, description: r.description, source: r.source, severities: [] })),
+  ...FINDING_RULES.map(r => ({ id: r.id, kind: 'finding' as const, description: r.description, source: r.source, severities: r.severities })),
+  ...READINESS_RULES.map(r => ({ id: r.id, kind: 'readiness' as const, description: r.description, source: r.source, severities: [] })),
 ])
 
 /** Looks a rule up by id; undefined for an id this rule set does not have. */
 export function ruleInfo(id: string): RuleInfo | undefined {
-  return RULES.find((r) => r.id === id)
+  return RULES.find(r => r.id === id)
 }

@@ -35,9 +35,9 @@ export function latestNitrogen(readings: readonly TimedReading[]): TimedReading 
 
 /** Water conditions for a test, each taken from it or from the latest earlier test within `maxAgeHours`. */
 export interface Conditions {
-  pH?: { value: number; from: TimedReading }
-  temperatureC?: { value: number; from: TimedReading }
-  salinity?: { value: number; from: TimedReading }
+  pH?: { value: number, from: TimedReading }
+  temperatureC?: { value: number, from: TimedReading }
+  salinity?: { value: number, from: TimedReading }
 }
 
 /** Finds pH, temperature and salinity for the test `at` (which must be in `readings`). */

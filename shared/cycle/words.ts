@@ -3,6 +3,8 @@
  * every concentration in a message says which basis it is on.
  */
 
+import { fromNitrogen, type NitrogenSpecies } from '../chemistry/nitrogen'
+
 /** Rounds for display: three decimals below 0.1 (the EPA limits live there), two below 1, one above. */
 export function formatNumber(value: number): string {
   const size = Math.abs(value)
@@ -19,4 +21,9 @@ export function mgN(value: number): string {
 /** A whole-number percent for water changes; a partial percent is not something anyone can measure out. */
 export function formatPercent(value: number): string {
   return `${Math.ceil(value)} %`
+}
+
+/** "0.41 mg/L as N (about 0.5 ppm as NH3)": both bases, for whichever kind of kit the client owns. */
+export function mgNWithIon(valueN: number, species: NitrogenSpecies): string {
+  return `${mgN(valueN)} (about ${formatNumber(fromNitrogen(Math.max(0, valueN), species))} ppm as ${species})`
 }

@@ -7,7 +7,7 @@ import { freeAmmonia, PH_RANGE, SALINITY_RANGE, SEAWATER_TEMPERATURE_RANGE_C, FR
 import { animalsInAt, type RuleContext } from '../context'
 import { conditionsAt } from '../snapshot'
 import { formatWhen, HOUR_MS, toIso } from '../time'
-import { formatNumber, mgN } from '../words'
+import { formatNumber, mgN, mgNWithIon } from '../words'
 import type { TimedReading } from '../history'
 import { COMMON_PRACTICE, NOTHING, report, type CycleRule, type RuleResult } from './rule'
 import { waterChangeActions } from './water-change'
@@ -61,7 +61,7 @@ function actionThreshold(ctx: RuleContext): RuleResult {
   if (test === null || value <= limit) return NOTHING
   return report(
     'danger',
-    `Total ammonia is ${mgN(value)} (test of ${formatWhen(test.t)}), above the ${mgN(limit)} limit (0.5 ppm as NH3) for a tank with animals in. Change water now and feed lightly.`,
+    `Total ammonia is ${mgN(value)} (test of ${formatWhen(test.t)}), above the ${mgNWithIon(limit, 'NH3')} limit for a tank with animals in. Change water now and feed lightly.`,
     [test],
     waterChangeActions(ctx, 'total ammonia', value, limit),
   )

@@ -5,13 +5,13 @@
 
 import { latestNitrogen } from '../snapshot'
 import { formatDuration, formatWhen, HOUR_MS, toIso } from '../time'
-import { mgN } from '../words'
+import { mgN, mgNWithIon } from '../words'
 import type { RuleContext } from '../context'
 import { COMMON_PRACTICE, NOTHING, report, type CycleRule, type RuleResult } from './rule'
 
 function notStarted(ctx: RuleContext): RuleResult {
   if (ctx.phase !== 'not-started') return NOTHING
-  const tests = ctx.history.readings.filter((r) => r.ammoniaN !== undefined || r.nitriteN !== undefined)
+  const tests = ctx.history.readings.filter(r => r.ammoniaN !== undefined || r.nitriteN !== undefined)
   const zeros = tests.length > 0
     ? ` All ${tests.length} ammonia and nitrite tests read zero because nothing is feeding the bacteria yet; zero readings before the cycle starts prove nothing.`
     : ''
@@ -21,7 +21,7 @@ function notStarted(ctx: RuleContext): RuleResult {
     tests,
     [{
       kind: 'start-cycle',
-      message: `Dose ammonia to about ${mgN(ctx.thresholds.clearanceDoseN)} (about 2 ppm on a kit that reads as NH3), add bottled nitrifying bacteria, and log both; then test ammonia and nitrite every day.`,
+      message: `Dose ammonia to about ${mgNWithIon(ctx.thresholds.clearanceDoseN, 'NH3')}, add bottled nitrifying bacteria, and log both; then test ammonia and nitrite every day.`,
       dueBy: toIso(ctx.nowMs),
     }],
   )
@@ -99,7 +99,7 @@ function lost(ctx: RuleContext): RuleResult {
   const values = [
     by.ammoniaN !== undefined ? `ammonia ${mgN(by.ammoniaN)}` : null,
     by.nitriteN !== undefined ? `nitrite ${mgN(by.nitriteN)}` : null,
-  ].filter((v) => v !== null).join(', ')
+  ].filter(v => v !== null).join(', ')
   return report(
     'caution',
     `The cycle was complete on ${formatWhen(last.reading.t)}, but the test of ${formatWhen(by.t)} shows ${values}. The tank has to prove itself again: zero ammonia and nitrite for ${ctx.thresholds.stableSpanHours} h.`,

@@ -5,7 +5,7 @@
 
 import { animalsInAt, type RuleContext } from '../context'
 import { formatWhen, HOUR_MS, toIso } from '../time'
-import { mgN } from '../words'
+import { mgN, mgNWithIon } from '../words'
 import type { DoseOutcome } from '../course'
 import { COMMON_PRACTICE, NOTHING, report, type CycleRule, type RuleResult } from './rule'
 
@@ -14,7 +14,7 @@ function needsClearance(ctx: RuleContext): boolean {
 }
 
 function doseWords(ctx: RuleContext): string {
-  return `about ${mgN(ctx.thresholds.clearanceDoseN)} (about 2 ppm on a kit that reads as NH3)`
+  return `about ${mgNWithIon(ctx.thresholds.clearanceDoseN, 'NH3')}`
 }
 
 function unproven(ctx: RuleContext): RuleResult {
@@ -64,7 +64,7 @@ function clearanceTest(ctx: RuleContext): RuleResult {
   }
   return report(
     'info',
-    `Ammonia and nitrite read zero. To prove the cycle, dose ammonia to ${doseWords(ctx)}, log the dose, and test ammonia and nitrite ${ctx.thresholds.retestHours} h later: both must read zero. A test in between that still shows the dose restarts the count of zero tests, so wait the full time.`,
+    `Ammonia and nitrite read zero. To prove the cycle, dose ammonia to ${doseWords(ctx)}, log the dose, and test ammonia and nitrite ${ctx.thresholds.retestHours} h later: both must read zero. A test in between may still show the dose; only the result within ${ctx.thresholds.clearanceWindowHours} h counts.`,
     [ctx.course.run.last],
     [{ kind: 'clearance-test', message: `Dose ammonia to ${doseWords(ctx)} now; test ammonia and nitrite ${ctx.thresholds.retestHours} h later.`, dueBy: retestBy(ctx.nowMs) }],
   )

@@ -19,7 +19,7 @@ interface Range {
   readonly max: number
 }
 
-function outOfRange(ctx: RuleContext, range: Range): { test: TimedReading; words: string } | null {
+function outOfRange(ctx: RuleContext, range: Range): { test: TimedReading, words: string } | null {
   const test = ctx.latest[range.key]
   const value = test?.[range.key]
   if (test === undefined || value === undefined || (value >= range.min && value <= range.max)) return null
@@ -42,14 +42,14 @@ function temperatureRange(ctx: RuleContext): RuleResult {
 }
 
 /** Alkalinity, calcium and magnesium problems on their latest tests; untested values raise none. */
-export function reefChemistryProblems(ctx: RuleContext): Array<{ test: TimedReading; words: string }> {
+export function reefChemistryProblems(ctx: RuleContext): Array<{ test: TimedReading, words: string }> {
   const th = ctx.thresholds
   const ranges: Range[] = [
     { key: 'alkalinityDkh', name: 'Alkalinity', unit: ' dKH', min: th.alkalinityMinDkh, max: th.alkalinityMaxDkh },
     { key: 'calciumMgL', name: 'Calcium', unit: ' mg/L', min: th.calciumMinMgL, max: th.calciumMaxMgL },
     { key: 'magnesiumMgL', name: 'Magnesium', unit: ' mg/L', min: th.magnesiumMinMgL, max: th.magnesiumMaxMgL },
   ]
-  return ranges.map((range) => outOfRange(ctx, range)).filter((p) => p !== null)
+  return ranges.map(range => outOfRange(ctx, range)).filter(p => p !== null)
 }
 
 function reefChemistry(ctx: RuleContext): RuleResult {
@@ -57,16 +57,16 @@ function reefChemistry(ctx: RuleContext): RuleResult {
   if (problems.length === 0) return NOTHING
   return report(
     'info',
-    `${problems.map((p) => p.words).join(' ')} This matters for stony corals, which wait until it is in range.`,
-    problems.map((p) => p.test),
+    `${problems.map(p => p.words).join(' ')} This matters for stony corals, which wait until it is in range.`,
+    problems.map(p => p.test),
   )
 }
 
 /** Whether salinity has held inside the target band, within the allowed spread, over the set days. */
-export function salinityStability(ctx: RuleContext): { stable: boolean; words: string } {
+export function salinityStability(ctx: RuleContext): { stable: boolean, words: string } {
   const th = ctx.thresholds
   const from = ctx.nowMs - th.salinityStableDays * DAY_MS
-  const values = ctx.history.readings.filter((r) => r.t >= from && r.salinity !== undefined).map((r) => r.salinity ?? 0)
+  const values = ctx.history.readings.filter(r => r.t >= from && r.salinity !== undefined).map(r => r.salinity ?? 0)
   const band = `${formatNumber(th.salinityTargetMin)}-${formatNumber(th.salinityTargetMax)}`
   const want = `salinity held at ${band}, varying by no more than ${formatNumber(th.salinityStableSpread)}, over the last ${th.salinityStableDays} days`
   if (values.length < 2) return { stable: false, words: `Stony corals need ${want}; there are ${values.length} salinity test(s) in that time, at least 2 are needed.` }

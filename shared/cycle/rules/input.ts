@@ -20,7 +20,7 @@ function ignored(ctx: RuleContext): RuleResult {
     hits.push({
       severity: 'info',
       message: `${repairedReadingIds.length} test(s) had a value that was negative or not a number; that value was left out.`,
-      readings: readings.filter((r) => repairedReadingIds.includes(r.id)),
+      readings: readings.filter(r => repairedReadingIds.includes(r.id)),
     })
   }
   return { hits, actions: [] }

@@ -6,11 +6,11 @@
 import { DAY_MS, formatWhen, HOUR_MS, toIso } from '../time'
 import { mgN } from '../words'
 import type { RuleContext } from '../context'
-import type { TimedEvent, TimedReading } from '../history'
+import type { TimedEvent } from '../history'
 import { COMMON_PRACTICE, NOTHING, report, type CycleRule, type RuleResult } from './rule'
 
 function fishPresent(ctx: RuleContext): RuleResult {
-  if (ctx.tank.cycleMethod !== 'fish-in' || ctx.phase === 'complete') return NOTHING
+  if (ctx.tank.cycleMethod !== 'fish-in' || ctx.phase === 'complete' || ctx.startedMs > ctx.nowMs) return NOTHING
   return report(
     'info',
     `Fish are already in this tank (fish-in cycle, since ${formatWhen(ctx.startedMs)}). Feed lightly, test ammonia every day, and add no more livestock until the cycle is complete.`,
@@ -33,20 +33,18 @@ function ammoniaBefore(ctx: RuleContext, t: number): number {
 
 function ammoniaRise(ctx: RuleContext): RuleResult {
   const added = lastLivestock(ctx)
-  if (added === undefined) return NOTHING
+  const latest = ctx.latest.ammoniaN
+  if (added === undefined || latest === undefined || latest.t <= added.t) return NOTHING
   const th = ctx.thresholds
+  // Only while the latest test is still up: once ammonia is back down, re-test advice is stale.
+  if (latest.t > added.t + th.livestockWatchDays * DAY_MS) return NOTHING
   const before = ammoniaBefore(ctx, added.t)
-  const until = added.t + th.livestockWatchDays * DAY_MS
-  let worst: TimedReading | null = null
-  for (const r of ctx.history.readings) {
-    if (r.t <= added.t || r.t > until || r.ammoniaN === undefined) continue
-    if (r.ammoniaN > Math.max(before, th.ammoniaZeroN) && r.ammoniaN > (worst?.ammoniaN ?? 0)) worst = r
-  }
-  if (worst === null) return NOTHING
+  const value = latest.ammoniaN ?? 0
+  if (value <= Math.max(before, th.ammoniaZeroN)) return NOTHING
   return report(
     'caution',
-    `Ammonia rose from ${mgN(before)} to ${mgN(worst.ammoniaN ?? 0)} (test of ${formatWhen(worst.t)}) after livestock went in on ${formatWhen(added.t)}: the bacteria have not caught up with the new load. Feed lightly and test ammonia again within a day.`,
-    [worst],
+    `Ammonia rose from ${mgN(before)} to ${mgN(value)} (test of ${formatWhen(latest.t)}) after livestock went in on ${formatWhen(added.t)}: the bacteria have not caught up with the new load. Feed lightly and test ammonia again within a day.`,
+    [latest],
     [{ kind: 'retest', message: 'Test ammonia again within a day of the rise.', dueBy: toIso(ctx.nowMs + th.retestHours * HOUR_MS) }],
   )
 }
@@ -55,7 +53,7 @@ function retestAfterAdding(ctx: RuleContext): RuleResult {
   const added = lastLivestock(ctx)
   if (added === undefined) return NOTHING
   const th = ctx.thresholds
-  const tested = ctx.history.readings.some((r) => r.t > added.t && r.ammoniaN !== undefined)
+  const tested = ctx.history.readings.some(r => r.t > added.t && r.ammoniaN !== undefined)
   if (tested || ctx.nowMs > added.t + th.livestockWatchDays * DAY_MS) return NOTHING
   const dueBy = added.t + th.retestHours * HOUR_MS
   return report(
@@ -77,7 +75,7 @@ export const LIVESTOCK_RULES: readonly CycleRule[] = [
   },
   {
     id: 'livestock.ammonia-rise',
-    description: 'Ammonia above its level before livestock went in (and above zero) within the watch days after: re-test.',
+    description: 'The latest ammonia test, within the watch days after livestock went in, above its level before (and above zero): re-test.',
     source: COMMON_PRACTICE,
     severities: ['caution'],
     evaluate: ammoniaRise,

@@ -5,7 +5,7 @@
 
 import { animalsInAt, type RuleContext } from '../context'
 import { formatWhen } from '../time'
-import { mgN } from '../words'
+import { mgN, mgNWithIon } from '../words'
 import { COMMON_PRACTICE, NOTHING, report, type CycleRule, type RuleResult } from './rule'
 import { waterChangeActions } from './water-change'
 
@@ -16,7 +16,7 @@ function highWithAnimals(ctx: RuleContext): RuleResult {
   if (test === undefined || value <= limit || !animalsInAt(ctx, test.t)) return NOTHING
   return report(
     'caution',
-    `Nitrite is ${mgN(value)} (test of ${formatWhen(test.t)}) with animals in, above ${mgN(limit)}. Marine fish cope with more nitrite than freshwater fish, but not without limit: change some water and watch the animals for fast breathing.`,
+    `Nitrite is ${mgNWithIon(value, 'NO2')} on the test of ${formatWhen(test.t)}, with animals in: above ${mgN(limit)}. Marine fish cope with more nitrite than freshwater fish, but not without limit: change some water and watch the animals for fast breathing.`,
     [test],
     waterChangeActions(ctx, 'nitrite', value, limit),
   )

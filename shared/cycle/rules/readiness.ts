@@ -14,8 +14,8 @@ const ALL: readonly LivestockGroup[] = ['fish', 'invertebrates', 'soft-coral', '
 const STONY: readonly LivestockGroup[] = ['lps-coral', 'sps-coral']
 
 const GROUP_WORDS: Record<LivestockGroup, string> = {
-  fish: 'Fish',
-  invertebrates: 'Invertebrates',
+  'fish': 'Fish',
+  'invertebrates': 'Invertebrates',
   'soft-coral': 'Soft corals',
   'lps-coral': 'LPS (large-polyp stony) corals',
   'sps-coral': 'SPS (small-polyp stony) corals',
@@ -23,9 +23,9 @@ const GROUP_WORDS: Record<LivestockGroup, string> = {
 
 const PHASE_WORDS: Record<Exclude<CyclePhase, 'complete'>, string> = {
   'not-started': 'the cycle has not started',
-  ammonia: 'the tank is still in the ammonia stage',
-  nitrite: 'the tank is still in the nitrite stage',
-  settling: 'ammonia and nitrite read low, but the cycle is not yet proven',
+  'ammonia': 'the tank is still in the ammonia stage',
+  'nitrite': 'the tank is still in the nitrite stage',
+  'settling': 'ammonia and nitrite read low, but the cycle is not yet proven',
 }
 
 /** Days after completion before `group` may go in; never negative, stony corals never before soft ones. */
@@ -50,16 +50,16 @@ function cycleComplete(ctx: ReadinessContext): readonly string[] {
 }
 
 function fishAlreadyIn(ctx: ReadinessContext, group: LivestockGroup): readonly string[] {
-  if (group !== 'fish' || ctx.tank.cycleMethod !== 'fish-in' || ctx.phase === 'complete') return []
+  if (group !== 'fish' || ctx.tank.cycleMethod !== 'fish-in' || ctx.phase === 'complete' || ctx.startedMs > ctx.nowMs) return []
   return ['Fish are already in the tank from the fish-in cycle; add no more until the cycle is complete.']
 }
 
 function noDanger(ctx: ReadinessContext): readonly string[] {
-  return ctx.findings.filter((f) => f.severity === 'danger').map((f) => `Not while this is unresolved: ${f.message}`)
+  return ctx.findings.filter(f => f.severity === 'danger').map(f => `Not while this is unresolved: ${f.message}`)
 }
 
 function environment(ctx: ReadinessContext): readonly string[] {
-  return ctx.findings.filter((f) => f.ruleId === 'salinity.range' || f.ruleId === 'temperature.range').map((f) => f.message)
+  return ctx.findings.filter(f => f.ruleId === 'salinity.range' || f.ruleId === 'temperature.range').map(f => f.message)
 }
 
 function coralWait(ctx: ReadinessContext, group: LivestockGroup): readonly string[] {
@@ -75,7 +75,7 @@ function salinitySteady(ctx: ReadinessContext): readonly string[] {
 }
 
 function reefChemistry(ctx: ReadinessContext): readonly string[] {
-  return reefChemistryProblems(ctx).map((p) => p.words)
+  return reefChemistryProblems(ctx).map(p => p.words)
 }
 
 function fishFirst(ctx: ReadinessContext, _group: LivestockGroup, soFar: readonly string[]): readonly string[] {

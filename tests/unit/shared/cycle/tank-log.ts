@@ -46,7 +46,7 @@ export class TankLog {
    * One morning test per day from `firstDay`, from parallel columns (mg/L as N);
    * `undefined` in a column means that value was not tested that day.
    */
-  days(firstDay: number, columns: { ammonia: readonly (number | undefined)[]; nitrite: readonly (number | undefined)[]; nitrate?: readonly (number | undefined)[] }): this {
+  days(firstDay: number, columns: { ammonia: readonly (number | undefined)[], nitrite: readonly (number | undefined)[], nitrate?: readonly (number | undefined)[] }): this {
     columns.ammonia.forEach((ammoniaN, i) => {
       const values: DayTest = {}
       if (ammoniaN !== undefined) values.ammoniaN = ammoniaN
@@ -85,8 +85,8 @@ export class TankLog {
   input(day: number, hour = 12, thresholds?: Partial<Thresholds>): CycleInput {
     return {
       tank: { volumeLitres: this.volumeLitres, cycleMethod: this.method, startedAt: at(0, 8) },
-      readings: this.readings.map((r) => ({ ...r })),
-      events: this.events.map((e) => ({ ...e })),
+      readings: this.readings.map(r => ({ ...r })),
+      events: this.events.map(e => ({ ...e })),
       ...(thresholds ? { thresholds } : {}),
       now: at(day, hour),
     }
@@ -95,5 +95,5 @@ export class TankLog {
 
 /** Rule ids of a verdict's findings. */
 export function ruleIds(verdict: { findings: Array<{ ruleId: string }> }): string[] {
-  return verdict.findings.map((f) => f.ruleId)
+  return verdict.findings.map(f => f.ruleId)
 }
