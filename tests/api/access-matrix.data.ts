@@ -325,6 +325,14 @@ export const ACCESS_MATRIX: Record<string, MatrixEntry> = {
   // Benchmark floor routes: off unless NUXT_BENCH_ROUTES=1, so 404 for everyone here.
   'GET /api/bench/tanks': { url: c => `/api/bench/tanks?org=${c.f.demo.organisationId}`, expect: everyone(404) },
   'GET /api/bench/tanks/[id]': { url: c => `/api/bench/tanks/${c.f.demo.tanks.lounge}`, expect: everyone(404) },
+  'GET /api/bench/tanks/[id]/readings': { url: c => `/api/bench/tanks/${c.f.demo.tanks.lounge}/readings`, expect: everyone(404) },
+  'POST /api/bench/tanks/[id]/readings': {
+    url: c => `/api/bench/tanks/${c.f.demo.tanks.lounge}/readings`,
+    body: () => ({ takenAt: hoursAgo(1), ammoniaN: 0.1 }),
+    expect: everyone(404),
+    fuzz: 'no-body',
+  },
+  'GET /api/bench/tanks/[id]/verdict': { url: c => `/api/bench/tanks/${c.f.demo.tanks.lounge}/verdict`, expect: everyone(404) },
 }
 
 /** Routes a module registers rather than a file under server/api; checked the same way. */
