@@ -58,6 +58,9 @@ export default defineNuxtConfig({
     // Sign-in throttling is Tidewright's own (per account and address); a global
     // token bucket would refuse honest bursts such as a day's CSV import.
     rateLimiter: false,
+    // Uploads are checked by server/utils/uploads.ts (10 MB, with a clear message); this outer
+    // limit sits just above it so the app's own check answers first.
+    requestSizeLimiter: { maxRequestSizeInBytes: 2_000_000, maxUploadFileRequestInBytes: 10 * 1024 * 1024 + 128 * 1024 },
     // Tidewright serves its own pages only; no other origin may call the API.
     corsHandler: false,
     // Input is validated with valibot and Vue escapes output; this filter would refuse
@@ -66,7 +69,7 @@ export default defineNuxtConfig({
   },
   nitro: {
     // Uploaded files: never under public/, served only through /api/uploads/:id after an access check.
-    // Production may swap in unstorage's S3-compatible driver here (see DEVELOPERS.md, "Uploads").
+    // The directory comes from NUXT_UPLOADS_DIR at start; S3-compatible storage: DEVELOPERS.md, "Uploads".
     storage: {
       uploads: { driver: 'fs', base: './data/uploads' },
     },

@@ -12,6 +12,8 @@ const STAFF: readonly Role[] = ['admin', 'aquarist', 'supervisor']
 /** The main navigation, one line per destination; each feature adds its own line. */
 export const NAV_LINKS: readonly NavLink[] = [
   { to: '/', label: 'Tanks', roles: EVERYONE },
+  { to: '/clients', label: 'Clients', roles: STAFF },
+  { to: '/plan-template', label: 'Plan template', roles: ['admin'] },
 ]
 
 /** The links a role sees, with the client's wording for their own tanks. */

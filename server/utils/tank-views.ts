@@ -97,6 +97,7 @@ export function getTankView(actor: Actor, tankId: string): TankView | undefined 
   return {
     ...toSummary(row),
     shape: t.shape,
+    siteId: t.siteId,
     dimensions: { ...t.dimensions },
     sumpLitres: t.sumpLitres,
     material: t.material,

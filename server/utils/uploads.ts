@@ -131,7 +131,7 @@ export async function sendStoredFile(event: H3Event, key: string, mimeType: stri
   if (!bytes) throw createError({ statusCode: 404, statusMessage: 'File not found' })
   setResponseHeaders(event, {
     'content-type': mimeType,
-    'content-length': String(bytes.length),
+    'content-length': bytes.length,
     'cache-control': 'private, max-age=300',
     'x-content-type-options': 'nosniff',
     'content-disposition': `${mimeType === 'application/pdf' ? 'attachment' : 'inline'}; filename="${downloadName.replace(/[^\w.-]/g, '_')}"`,

@@ -50,8 +50,8 @@ export interface Completion {
 
 /** Why the count of zero tests restarted. */
 export type RunRestart
-  = | { readonly reason: 'gap', readonly from: TimedReading, readonly to: TimedReading, readonly beforeCompletion: true }
-    | { readonly reason: 'water-change', readonly event: CycleEvent, readonly t: number, readonly beforeCompletion: true }
+  = | { readonly reason: 'gap', readonly from: TimedReading, readonly to: TimedReading, readonly endedRun: boolean }
+    | { readonly reason: 'water-change', readonly event: CycleEvent, readonly t: number, readonly endedRun: boolean, readonly dilutedDose: boolean }
 
 /** The current run of consecutive zero tests. */
 export interface ZeroRun {
@@ -136,13 +136,14 @@ class CourseScan {
       this.doses.push(dose)
     }
     else if (event.kind === 'water-change') {
+      const dilutedDose = this.pending.some(dose => !dose.diluted && dose.t + this.s.windowMs >= t)
       for (const dose of this.pending) dose.diluted = true
       // After a water change no zero test can excuse a held test: the dose may have been diluted away.
       this.resolveHeld(Number.POSITIVE_INFINITY)
-      if (!this.completed) {
-        this.run = null
-        this.restarts.push({ reason: 'water-change', event, t, beforeCompletion: true })
-      }
+      if (this.completed) return
+      const endedRun = this.run !== null
+      this.run = null
+      if (endedRun || dilutedDose) this.restarts.push({ reason: 'water-change', event, t, endedRun, dilutedDose })
     }
   }
 
@@ -193,9 +194,9 @@ class CourseScan {
   private checkGap(r: TimedReading): void {
     const last = this.lastNitrogen
     if (last === null || r.t - last.t <= this.s.gapMs || this.completed) return
+    this.restarts.push({ reason: 'gap', from: last, to: r, endedRun: this.run !== null })
     this.run = null
     this.held = []
-    this.restarts.push({ reason: 'gap', from: last, to: r, beforeCompletion: true })
   }
 
   /** Returns the doses this test shows cleared; a dose stays open for its whole window so any zero test in it counts. */

@@ -3,12 +3,24 @@
  * instant comes from the input, so a verdict can be reproduced later.
  */
 
+/** Milliseconds in an hour. */
 export const HOUR_MS = 3_600_000
+/** Milliseconds in a day (UTC days: the engine never uses local time). */
 export const DAY_MS = 24 * HOUR_MS
 
-/** Epoch milliseconds of an ISO 8601 string, or NaN when it does not parse. */
+// ISO 8601 date or date-time. Anything else is refused: engines parse other formats differently.
+const ISO_TIME = /^\d{4}-\d{2}-\d{2}(?:T\d{2}:\d{2}(?::\d{2}(?:\.\d{1,9})?)?(Z|[+-]\d{2}:?\d{2})?)?$/
+
+/**
+ * Epoch milliseconds of an ISO 8601 string, or NaN when it is not one. A date-time
+ * without an offset is read as UTC, never as local time, so browser and server agree.
+ */
 export function parseTime(iso: string): number {
-  return typeof iso === 'string' ? Date.parse(iso) : Number.NaN
+  if (typeof iso !== 'string') return Number.NaN
+  const match = ISO_TIME.exec(iso)
+  if (match === null) return Number.NaN
+  const hasClock = iso.includes('T')
+  return Date.parse(hasClock && match[1] === undefined ? `${iso}Z` : iso)
 }
 
 /** Epoch milliseconds of a required ISO time; throws a RangeError naming the field when it does not parse. */

@@ -49,3 +49,12 @@ export interface PlanTemplateView {
   isDefault: boolean
   stages: { key: string, title: string, checklist: string[] }[]
 }
+
+/** PATCH /api/tanks/:id/stages/:stageId body as the plan components send it. */
+export interface StagePatchBody {
+  status?: StageStatus
+  skipReason?: string | null
+  checklist?: { id: string, done: boolean }[]
+  notes?: string | null
+  data?: Record<string, unknown>
+}

@@ -31,6 +31,7 @@ export interface TankList {
 
 export interface TankView extends TankSummary {
   shape: string
+  siteId: string | null
   dimensions: Record<string, number | undefined>
   sumpLitres: number
   material: 'glass' | 'acrylic'

@@ -19,7 +19,7 @@ export interface ScratchCompany {
 }
 
 /** Adds a company with one of each role and two clients (the first with a site and an account). */
-export async function seedScratchCompany(label: string): Promise<ScratchCompany> {
+export async function seedScratchCompany(label: string, units: 'us' | 'metric' = 'metric'): Promise<ScratchCompany> {
   const db = openDatabase(inject('dbPath'))
   const passwordHash = await hashPasswordOffline(PASSWORD)
   const tag = `${label}-${randomUUID().slice(0, 8)}`
@@ -37,7 +37,7 @@ export async function seedScratchCompany(label: string): Promise<ScratchCompany>
         otherClient: `client2-${tag}@scratch.test`,
       }
       const user = (email: string, role: 'admin' | 'aquarist' | 'supervisor' | 'client', clientId: string | null = null) =>
-        tx.insert(users).values({ organisationId: org.id, email, name: `${role} ${tag}`, role, passwordHash, clientId, units: 'metric' }).returning().get().id
+        tx.insert(users).values({ organisationId: org.id, email, name: `${role} ${tag}`, role, passwordHash, clientId, units }).returning().get().id
       const ids = {
         admin: user(emails.admin, 'admin'),
         aquarist: user(emails.aquarist, 'aquarist'),

@@ -13,7 +13,7 @@ function gaps(ctx: RuleContext): RuleResult {
     if (restart.reason !== 'gap') continue
     hits.push({
       severity: 'info',
-      message: `No ammonia or nitrite test from ${formatWhen(restart.from.t)} to ${formatWhen(restart.to.t)} (${formatDuration(restart.to.t - restart.from.t)}): what happened in between is unknown, so the count of zero tests started again after it.`,
+      message: `No ammonia or nitrite test from ${formatWhen(restart.from.t)} to ${formatWhen(restart.to.t)} (${formatDuration(restart.to.t - restart.from.t)}): what happened in between is unknown${restart.endedRun ? ', so the count of zero tests started again after it' : ''}.`,
       readings: [restart.from, restart.to],
     })
   }
@@ -24,9 +24,13 @@ function dilution(ctx: RuleContext): RuleResult {
   const hits: Hit[] = []
   for (const restart of ctx.course.restarts) {
     if (restart.reason !== 'water-change') continue
+    const effects = [
+      restart.endedRun ? 'the count of zero tests started again after it' : null,
+      restart.dilutedDose ? 'the ammonia dose before it cannot count as cleared' : null,
+    ].filter(e => e !== null)
     hits.push({
       severity: 'info',
-      message: `The water change of ${formatWhen(restart.t)} lowered ammonia and nitrite by dilution, not by bacteria: the count of zero tests started again after it, and an ammonia dose before it cannot count as cleared.`,
+      message: `The water change of ${formatWhen(restart.t)} lowers ammonia and nitrite by dilution, not by bacteria: ${effects.join(', and ')}.`,
       readings: [],
     })
   }
@@ -44,7 +48,7 @@ export const RESTART_RULES: readonly CycleRule[] = [
   },
   {
     id: 'water-change.dilution',
-    description: 'Before completion, a water change restarts the count of zero tests and voids an open clearance dose: dilution is not nitrification.',
+    description: 'Before completion, a water change restarts the count of zero tests and voids an ammonia dose still inside its window: dilution is not nitrification.',
     source: COMMON_PRACTICE,
     severities: ['info'],
     evaluate: dilution,

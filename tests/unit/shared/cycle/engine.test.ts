@@ -14,6 +14,15 @@ describe('evaluateCycle input handling', () => {
     expect(() => evaluateCycle({ ...input, thresholds: { riseN: -0.1 } })).toThrow(/riseN/)
   })
 
+  it('reads a time without an offset as UTC and refuses formats engines disagree on', () => {
+    const input = textbookFishless().input(22)
+    const noOffset = { ...input, readings: input.readings.map(r => ({ ...r, takenAt: r.takenAt.replace('.000Z', '') })) }
+    expect(evaluateCycle(noOffset)).toEqual(evaluateCycle(input))
+    const v = evaluateCycle({ ...input, readings: [...input.readings, { id: 'loose', takenAt: 'March 20, 2026', ammoniaN: 2, nitriteN: 2 }] })
+    expect(v.phase).toBe('complete')
+    expect(v.findings.find(f => f.ruleId === 'input.ignored')?.message).toMatch(/loose/)
+  })
+
   it('leaves out a test whose time does not parse, and says so', () => {
     const input = textbookFishless().input(22)
     const v = evaluateCycle({ ...input, readings: [...input.readings, { id: 'bad', takenAt: 'not a date', ammoniaN: 3, nitriteN: 3 }] })

@@ -56,6 +56,9 @@ describe('cycle engine properties', { timeout: LIMIT_MS }, () => {
       expect(latestWith(input, 'ammoniaN')?.ammoniaN ?? 0).toBeLessThanOrEqual(DEFAULT_THRESHOLDS.ammoniaZeroN)
       expect(latestWith(input, 'nitriteN')?.nitriteN ?? 0).toBeLessThanOrEqual(DEFAULT_THRESHOLDS.nitriteZeroN)
       expect(time(v.completedOn)).toBeLessThanOrEqual(time(input.now))
+      // completedOn is the time of a zero test that is in the input.
+      const proving = input.readings.filter(r => Date.parse(r.takenAt) === time(v.completedOn))
+      expect(proving.some(r => (r.ammoniaN ?? 1) <= DEFAULT_THRESHOLDS.ammoniaZeroN && (r.nitriteN ?? 1) <= DEFAULT_THRESHOLDS.nitriteZeroN)).toBe(true)
     }), RUNS)
     // The generator must reach completed tanks, or this property would hold vacuously.
     expect(completions).toBeGreaterThan(20)
@@ -158,7 +161,11 @@ describe('cycle engine properties', { timeout: LIMIT_MS }, () => {
     fc.assert(fc.property(historyArb, (knobs) => {
       const input = toInput(knobs)
       const readingIds = new Set(input.readings.map(r => r.id))
-      for (const f of evaluateCycle(input).findings) {
+      const findings = evaluateCycle(input).findings
+      const rank = { danger: 0, caution: 1, info: 2 }
+      // Most severe first, so a client reads the danger before the explanations.
+      expect(findings.map(f => rank[f.severity])).toEqual(findings.map(f => rank[f.severity]).sort((a, b) => a - b))
+      for (const f of findings) {
         expect(ids.has(f.ruleId)).toBe(true)
         for (const id of f.readingIds) expect(readingIds.has(id)).toBe(true)
       }

@@ -1,0 +1,179 @@
+import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import type { Browser, Page } from 'playwright-core'
+import sharp from 'sharp'
+import { launchBrowser, openPage, screenshot, signInThroughForm } from '../support/browser'
+import { seedScratchCompany, type ScratchCompany } from '../support/company'
+
+let browser: Browser
+let co: ScratchCompany
+let tankUrl = ''
+beforeAll(async () => {
+  browser = await launchBrowser()
+  co = await seedScratchCompany('browser', 'us')
+})
+afterAll(async () => { await browser?.close() })
+
+const stageCard = (page: Page, title: string) => page.getByRole('article', { name: title })
+
+async function openStage(page: Page, title: string) {
+  const card = stageCard(page, title)
+  const toggle = card.getByRole('button', { name: new RegExp(title) }).first()
+  if (await toggle.getAttribute('aria-expanded') !== 'true') await toggle.click()
+  return card
+}
+
+async function tickAll(page: Page, title: string) {
+  const card = await openStage(page, title)
+  const boxes = card.getByRole('checkbox')
+  const n = await boxes.count()
+  for (let i = 0; i < n; i++) {
+    const box = boxes.nth(i)
+    if (await box.isChecked()) continue
+    await box.check()
+    await expect.poll(() => box.isEnabled()).toBe(true)
+  }
+  return card
+}
+
+describe('building a tank through its plan', () => {
+  it('an aquarist creates a tank and works through the first three stages', async () => {
+    const { page, context, problems } = await openPage(browser, 1280)
+    await signInThroughForm(page, co.emails.aquarist)
+    await page.getByRole('link', { name: 'New tank' }).click()
+    await page.waitForURL(/\/tanks\/new/)
+    await page.getByLabel('Tank name').fill('Orchard room reef')
+    await page.getByLabel('Client', { exact: true }).selectOption({ label: `Client ${co.emails.client.slice(7, -13)}` })
+    await expect.poll(() => page.getByLabel('Site').locator('option').count()).toBe(2)
+    await page.getByLabel('Site').selectOption({ label: 'Front room' })
+    // US units: inches. 48 x 24 x 24 in = 27,648 in3 = 119.7 US gal (231 in3 per gallon, exact).
+    await page.getByLabel('Length (in)').fill('48')
+    await page.getByLabel('Width (front to back) (in)').fill('24')
+    await page.getByLabel('Height (in)').fill('24')
+    const figures = page.getByRole('complementary')
+    await expect.poll(() => figures.textContent()).toContain('119.7 gal')
+    await expect.poll(() => figures.textContent()).toContain('licensed structural engineer')
+    await screenshot(page, 'tank-form-1280')
+    await page.getByRole('button', { name: 'Create tank' }).click()
+    await page.waitForURL(/\/tanks\/[0-9a-f-]{36}$/)
+    tankUrl = new URL(page.url()).pathname
+    await expect.poll(() => page.getByRole('heading', { name: 'Orchard room reef' }).isVisible()).toBe(true)
+    await expect.poll(() => page.getByText('120 gal').first().isVisible()).toBe(true)
+
+    // Stage 1: every tick, a note and a photo.
+    const survey = await tickAll(page, 'Site survey')
+    await survey.getByLabel('Notes').fill('North wall, joists run front to back')
+    await survey.getByRole('button', { name: 'Save note' }).click()
+    await expect.poll(() => survey.getByRole('button', { name: 'Save note' }).isDisabled()).toBe(true)
+    const photo = await sharp({ create: { width: 800, height: 600, channels: 3, background: '#6fbdb6' } }).jpeg().toBuffer()
+    await survey.getByLabel('Add a photo or PDF to Site survey').setInputFiles({ name: 'wall.jpg', mimeType: 'image/jpeg', buffer: photo })
+    await expect.poll(() => survey.getByRole('img', { name: 'wall.jpg' }).count()).toBe(1)
+    await expect.poll(() => survey.getByRole('img', { name: 'wall.jpg' }).evaluate(img => (img as HTMLImageElement).naturalWidth)).toBeGreaterThan(0)
+    await expect.poll(() => survey.textContent()).toContain('design live load')
+    await survey.getByRole('button', { name: 'Mark stage done' }).click()
+    await expect.poll(() => survey.getByText('Done', { exact: true }).count()).toBe(1)
+    await expect.poll(() => page.getByText('Being built').first().isVisible()).toBe(true)
+
+    // Stage 2: leak test times and result.
+    const leak = await tickAll(page, 'Leak test')
+    await leak.getByRole('button', { name: 'Filled now' }).click()
+    await expect.poll(() => leak.getByRole('button', { name: 'Checked now' }).isEnabled()).toBe(true)
+    await leak.getByRole('button', { name: 'Checked now' }).click()
+    await expect.poll(() => leak.textContent()).toMatch(/Elapsed0\.0 h/)
+    await leak.getByLabel('Leak test result').selectOption('pass')
+    await expect.poll(() => leak.getByLabel('Leak test result').isEnabled()).toBe(true)
+    await leak.getByRole('button', { name: 'Mark stage done' }).click()
+    await expect.poll(() => leak.getByText('Done', { exact: true }).count()).toBe(1)
+
+    // Stage 3.
+    const rinse = await tickAll(page, 'Rinse and prepare')
+    await rinse.getByRole('button', { name: 'Mark stage done' }).click()
+    await expect.poll(() => rinse.getByText('Done', { exact: true }).count()).toBe(1)
+    await expect.poll(() => page.getByText('3 of 9 stages finished').isVisible()).toBe(true)
+    await openStage(page, 'Lighting ramp')
+    await expect.poll(() => stageCard(page, 'Lighting ramp').locator('canvas').count()).toBe(1)
+    await screenshot(page, 'tank-plan-aquarist-1280')
+    expect(problems).toEqual([])
+    await context.close()
+  })
+
+  for (const width of [375, 1280]) {
+    it(`the client then sees the progress, read only (${width} px)`, async () => {
+      expect(tankUrl).not.toBe('')
+      const { page, context, problems } = await openPage(browser, width)
+      await signInThroughForm(page, co.emails.client)
+      await expect.poll(() => page.getByText('Build plan: 3 of 9 stages').isVisible()).toBe(true)
+      await screenshot(page, `client-tank-list-${width}`)
+      await page.getByRole('link', { name: /Orchard room reef/ }).click()
+      await page.waitForURL(new RegExp(`${tankUrl}$`))
+      const next = page.getByRole('heading', { name: 'What happens next' }).locator('..')
+      await expect.poll(() => next.textContent()).toContain('Next — Substrate. Sand goes in next')
+      const survey = await openStage(page, 'Site survey')
+      await expect.poll(() => survey.getByText('North wall, joists run front to back').isVisible()).toBe(true)
+      expect(await survey.getByRole('checkbox').first().isDisabled()).toBe(true)
+      expect(await survey.getByRole('img', { name: 'wall.jpg' }).count()).toBe(1)
+      expect(await page.getByRole('button', { name: 'Mark stage done' }).count()).toBe(0)
+      expect(await page.getByRole('link', { name: 'Edit tank' }).count()).toBe(0)
+      await screenshot(page, `client-tank-plan-${width}`)
+      expect(problems).toEqual([])
+      await context.close()
+    })
+  }
+
+  it('the tank form and list work at phone width', async () => {
+    const { page, context, problems } = await openPage(browser, 375)
+    await signInThroughForm(page, co.emails.aquarist)
+    await expect.poll(() => page.getByRole('link', { name: 'Orchard room reef' }).isVisible()).toBe(true)
+    await page.getByLabel('Current stage').selectOption('substrate')
+    await expect.poll(() => page.getByRole('link', { name: 'Orchard room reef' }).count()).toBe(1)
+    await page.getByLabel('Current stage').selectOption('leak-test')
+    await expect.poll(() => page.getByText('No tanks match.').isVisible()).toBe(true)
+    await screenshot(page, 'tank-list-375')
+    await page.goto('/tanks/new')
+    await page.getByLabel('Shape').selectOption('cylinder')
+    await page.getByLabel('Diameter (in)').fill('24')
+    await page.getByLabel('Height (in)').fill('30')
+    await expect.poll(() => page.getByRole('complementary').textContent()).toContain('58.8 gal')
+    await page.getByRole('button', { name: 'Create tank' }).click()
+    await expect.poll(() => page.getByText('Name the tank.').isVisible()).toBe(true)
+    await screenshot(page, 'tank-form-375')
+    await page.goto('/clients')
+    await expect.poll(() => page.getByRole('link', { name: /^Client browser/ }).isVisible()).toBe(true)
+    await screenshot(page, 'clients-375')
+    expect(problems).toEqual([])
+    await context.close()
+  })
+
+  it('staff see the tank table with each tank\'s current stage, sortable (1280 px)', async () => {
+    const { page, context, problems } = await openPage(browser, 1280)
+    await signInThroughForm(page, 'supervisor@tidewright.test')
+    const table = page.getByRole('table', { name: 'Tanks' })
+    await expect.poll(() => table.getByRole('row').count()).toBe(5)
+    await table.getByRole('button', { name: 'Current stage' }).click()
+    await expect.poll(() => table.getByRole('row').nth(1).textContent()).toContain('Harbour Parade lobby reef')
+    expect(await table.getByRole('row').nth(1).textContent()).toContain('Leak test')
+    expect(await page.getByRole('link', { name: 'New tank' }).count()).toBe(0)
+    await screenshot(page, 'tank-table-1280')
+    expect(problems).toEqual([])
+    await context.close()
+  })
+
+  it('an admin edits the company\'s plan template (375 px)', async () => {
+    const { page, context, problems } = await openPage(browser, 375)
+    await signInThroughForm(page, co.emails.admin)
+    await page.getByRole('button', { name: 'Menu' }).click()
+    await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Plan template' }).click()
+    await page.waitForURL(/\/plan-template/)
+    await expect.poll(() => page.getByText('uses Tidewright\'s default plan').isVisible()).toBe(true)
+    await page.getByRole('button', { name: 'Move stage 2 up' }).click()
+    expect(await page.getByLabel('Stage 1 title').inputValue()).toBe('Leak test')
+    await page.getByRole('button', { name: 'Add a stage' }).click()
+    await page.getByLabel('Stage 10 title').fill('Handover visit')
+    await page.getByLabel('Checklist, one item a line').last().fill('Client shown the daily test\nSpare salt left on site')
+    await page.getByRole('button', { name: 'Save template' }).click()
+    await expect.poll(() => page.getByRole('status').textContent()).toContain('New tanks get this plan')
+    expect(await page.getByLabel('Key (helpers attach to the default keys)').last().inputValue()).toBe('handover-visit')
+    await screenshot(page, 'plan-template-375')
+    expect(problems).toEqual([])
+    await context.close()
+  })
+})
