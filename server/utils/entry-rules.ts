@@ -41,3 +41,17 @@ export function assertEditable(actor: Actor, tank: { id: string, organisationId:
 export function fieldError(issues: { field: string, message: string }[]): never {
   throw createError({ statusCode: 400, statusMessage: 'Validation Error', message: issues.map(i => `${i.field}: ${i.message}`).join('; '), data: { issues } })
 }
+
+/** Runs `work` once the response has been sent (or at once if it already has); errors are logged, never thrown. */
+export function afterResponse(event: { node: { res: { writableFinished: boolean, once: (name: 'finish' | 'close', fn: () => void) => unknown } } }, work: () => void): void {
+  let done = false
+  const run = () => {
+    if (done) return
+    done = true
+    try { work() }
+    catch (error) { console.error('work after the response failed', error) }
+  }
+  if (event.node.res.writableFinished) return run()
+  event.node.res.once('finish', run)
+  event.node.res.once('close', run)
+}

@@ -4,10 +4,10 @@
  * carries a hash of its normalised content (readings.import_key, unique per tank), so
  * importing the same file again adds nothing.
  */
-import { createHash, randomUUID } from 'node:crypto'
+import { hash, randomUUID } from 'node:crypto'
 import Papa from 'papaparse'
 import type { ReadingImportInput } from '#shared/schemas/reading'
-import { guessMapping, rowToEntry } from '#shared/readings/csv'
+import { arrayRowToEntry, columnIndexes, guessMapping } from '#shared/readings/csv'
 import { MEASURED_FIELDS, toCanonicalReading, type CanonicalReading } from '#shared/readings/entry'
 import type { ImportPreview, ImportRowError } from '#shared/types/readings'
 
@@ -28,15 +28,22 @@ export interface ImportPlan {
 /** The import key: a hash of the row's canonical content, so the same test imported twice is one reading. */
 export function importKeyOf(reading: CanonicalReading): string {
   // Nine significant digits: beyond any instrument, yet stable across float noise in the conversions.
-  const normalised = [reading.takenAt, ...MEASURED_FIELDS.map(f => (reading.values[f] === null ? '' : Number(reading.values[f]!.toPrecision(9)))), reading.notes ?? '']
-  return createHash('sha256').update(JSON.stringify(normalised)).digest('hex').slice(0, 32)
+  let normalised = reading.takenAt
+  for (const field of MEASURED_FIELDS) {
+    const value = reading.values[field]
+    normalised += value === null ? '|' : `|${Number(value.toPrecision(9))}`
+  }
+  normalised += `|${reading.notes ?? ''}`
+  return hash('sha256', normalised, 'hex').slice(0, 32)
 }
 
 /** Parses and converts the whole file without writing anything. */
 export function planImport(tankId: string, input: ReadingImportInput): ImportPlan {
-  const parsed = Papa.parse<Record<string, string>>(input.csv, { header: true, skipEmptyLines: 'greedy', transformHeader: h => h.trim() })
-  const headers = parsed.meta.fields ?? []
+  // Rows as arrays, not objects: several times faster on large files.
+  const parsed = Papa.parse<string[]>(input.csv, { header: false, skipEmptyLines: 'greedy' })
+  const headers = (parsed.data.shift() ?? []).map(h => h.trim())
   const mapping = guessMapping(headers, input.mapping) as Record<string, string>
+  const indexes = columnIndexes(headers, mapping)
   if (!mapping.takenAt) {
     fieldError([{ field: 'mapping.takenAt', message: 'Choose the column that holds the date and time of each test.' }])
   }
@@ -56,7 +63,7 @@ export function planImport(tankId: string, input: ReadingImportInput): ImportPla
   }
   parsed.data.forEach((cells, index) => {
     const row = index + 2 // the header is row 1, as a spreadsheet numbers it
-    const mapped = rowToEntry(cells, mapping, options)
+    const mapped = arrayRowToEntry(cells, indexes, options)
     if ('issues' in mapped) return report(row, mapped.issues)
     const result = toCanonicalReading(mapped.entry, now)
     if (!result.ok) return report(row, result.issues)

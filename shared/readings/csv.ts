@@ -51,6 +51,11 @@ export function guessMapping(headers: readonly string[], chosen: Partial<Record<
 export function parseCsvTime(cell: string): string | null {
   const text = cell.trim()
   if (!text) return null
+  // Fast path: what Tidewright exports (and most tools write) is already ISO 8601 UTC.
+  if (text.length === 24 && text[23] === 'Z' && text[10] === 'T') {
+    const t = Date.parse(text)
+    return Number.isFinite(t) ? (new Date(t).toISOString() === text ? text : new Date(t).toISOString()) : null
+  }
   const spaced = /^\d{4}-\d{2}-\d{2}[ T]\d{2}:\d{2}(:\d{2}(\.\d+)?)?$/.test(text) ? `${text.replace(' ', 'T')}Z` : text
   const dateOnly = /^\d{4}-\d{2}-\d{2}$/.test(text) ? `${text}T12:00:00Z` : spaced
   const t = Date.parse(dateOnly)
@@ -63,23 +68,44 @@ const NUMERIC: readonly ImportTarget[] = ['ammonia', 'nitrite', 'nitrate', 'pH',
 
 /** One CSV row (header -> cell) as a reading entry, or the messages for the cells that are not numbers or times. */
 export function rowToEntry(row: Record<string, string | undefined>, mapping: Partial<Record<ImportTarget, string>>, options: Options): { entry: ReadingEntry } | { issues: EntryIssue[] } {
-  const issues: EntryIssue[] = []
-  const cell = (target: ImportTarget) => {
+  return cellsToEntry((target) => {
     const header = mapping[target]
-    return header === undefined ? '' : (row[header] ?? '').trim()
+    return header === undefined ? '' : (row[header] ?? '')
+  }, options)
+}
+
+/** Column positions of each mapped target, for rows parsed as arrays (the fast path for large files). */
+export function columnIndexes(headers: readonly string[], mapping: Partial<Record<ImportTarget, string>>): Partial<Record<ImportTarget, number>> {
+  const out: Partial<Record<ImportTarget, number>> = {}
+  for (const [target, header] of Object.entries(mapping) as [ImportTarget, string][]) {
+    const index = headers.indexOf(header)
+    if (index >= 0) out[target] = index
   }
-  const takenAt = parseCsvTime(cell('takenAt'))
+  return out
+}
+
+/** One CSV row parsed as an array of cells, with the column positions from columnIndexes. */
+export function arrayRowToEntry(cells: readonly string[], indexes: Partial<Record<ImportTarget, number>>, options: Options): { entry: ReadingEntry } | { issues: EntryIssue[] } {
+  return cellsToEntry((target) => {
+    const index = indexes[target]
+    return index === undefined ? '' : (cells[index] ?? '')
+  }, options)
+}
+
+function cellsToEntry(raw: (target: ImportTarget) => string, options: Options): { entry: ReadingEntry } | { issues: EntryIssue[] } {
+  const issues: EntryIssue[] = []
+  const takenAt = parseCsvTime(raw('takenAt'))
   if (!takenAt) issues.push({ field: 'takenAt', message: 'Not a date and time.' })
   const numbers: Partial<Record<ImportTarget, number | null>> = {}
   for (const target of NUMERIC) {
-    const text = cell(target)
+    const text = raw(target).trim()
     if (!text) { numbers[target] = null; continue }
     const value = Number(text)
     if (!Number.isFinite(value)) issues.push({ field: target, message: 'Not a number.' })
     else numbers[target] = value
   }
   if (issues.length) return { issues }
-  const notes = cell('notes')
+  const notes = raw('notes').trim()
   return {
     entry: {
       takenAt: takenAt!,

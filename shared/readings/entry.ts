@@ -94,6 +94,8 @@ export interface CanonicalReading {
 
 export type EntryResult = { ok: true, reading: CanonicalReading } | { ok: false, issues: EntryIssue[] }
 
+const ISO_UTC = /^\d{4}-\d{2}-\d{2}T\d{2}:\d{2}:\d{2}\.\d{3}Z$/
+
 /** A back-dated reading is fine; one from the future beyond this clock skew is refused. */
 export const FUTURE_SKEW_MS = 5 * 60_000
 /** Readings older than this are refused as typing mistakes. */
@@ -289,7 +291,7 @@ export function toCanonicalReading(entry: ReadingEntry, now: Date = new Date()):
     const value = values[field]
     if (value === null) continue
     const inputField = INPUT_FIELD[field]
-    if (issues.some(i => i.field === inputField)) continue
+    if (issues.length && issues.some(i => i.field === inputField)) continue
     const [min, max] = PHYSICAL_BOUNDS[field]
     if (!Number.isFinite(value) || value < min || value > max) {
       issues.push({ field: inputField, message: boundsMessage(field, entry) })
@@ -307,7 +309,7 @@ export function toCanonicalReading(entry: ReadingEntry, now: Date = new Date()):
   return {
     ok: true,
     reading: {
-      takenAt: new Date(entry.takenAt).toISOString(),
+      takenAt: ISO_UTC.test(entry.takenAt) ? entry.takenAt : new Date(entry.takenAt).toISOString(),
       values,
       notes,
       entered: enteredRecord(entry),

@@ -1,0 +1,67 @@
+import { describe, expect, it } from 'vitest'
+import { arrayRowToEntry, columnIndexes, EXPORT_MAPPING, guessMapping, parseCsvTime, rowToEntry } from '../../../../shared/readings/csv'
+import { toCanonicalEvent } from '../../../../shared/readings/events'
+
+const options = { basis: { ammonia: 'NH3', nitrite: 'NO2', nitrate: 'NO3' } as const, temperatureUnit: 'F' as const, salinityMode: 'practical' as const }
+
+describe('CSV mapping', () => {
+  it('guesses columns from common header names and lets explicit choices win', () => {
+    const headers = ['Date', 'NH3', 'Nitrite', 'NO3', 'pH', 'Temp', 'Salinity', 'Comment']
+    expect(guessMapping(headers)).toEqual({ takenAt: 'Date', ammonia: 'NH3', nitrite: 'Nitrite', nitrate: 'NO3', pH: 'pH', temperature: 'Temp', salinity: 'Salinity', notes: 'Comment' })
+    const chosen = guessMapping(headers, { ammonia: 'Nitrite' })
+    expect(chosen.ammonia).toBe('Nitrite')
+    expect(chosen.nitrite).toBeUndefined()
+  })
+
+  it('recognises Tidewright\'s own export header', () => {
+    expect(guessMapping(Object.values(EXPORT_MAPPING) as string[])).toEqual(EXPORT_MAPPING)
+  })
+
+  it('reads a row by header or by position the same way', () => {
+    const headers = ['Date', 'NH3', 'Temp']
+    const mapping = guessMapping(headers)
+    const byName = rowToEntry({ Date: '2026-05-01 08:30', NH3: '0.5', Temp: '77' }, mapping, options)
+    const byIndex = arrayRowToEntry(['2026-05-01 08:30', '0.5', '77'], columnIndexes(headers, mapping), options)
+    expect(byName).toEqual(byIndex)
+    expect(byName).toMatchObject({ entry: { takenAt: '2026-05-01T08:30:00.000Z', ammonia: 0.5, temperature: 77, temperatureUnit: 'F' } })
+  })
+
+  it('reports cells that are not numbers or times', () => {
+    const result = rowToEntry({ Date: 'last week', NH3: 'lots' }, { takenAt: 'Date', ammonia: 'NH3' }, options)
+    expect(result).toEqual({ issues: [{ field: 'takenAt', message: 'Not a date and time.' }, { field: 'ammonia', message: 'Not a number.' }] })
+  })
+
+  it('parses ISO times with offsets and bare dates', () => {
+    expect(parseCsvTime('2026-05-01T10:00:00+02:00')).toBe('2026-05-01T08:00:00.000Z')
+    expect(parseCsvTime('2026-05-01')).toBe('2026-05-01T12:00:00.000Z')
+    expect(parseCsvTime('2026-05-01T08:00:00.000Z')).toBe('2026-05-01T08:00:00.000Z')
+    expect(parseCsvTime('')).toBeNull()
+  })
+})
+
+describe('toCanonicalEvent', () => {
+  const now = new Date('2026-06-01T12:00:00Z')
+  const at = '2026-06-01T10:00:00Z'
+
+  it('stores an ammonia dose as N from the kit basis (0.8224 for NH3, IUPAC 1996)', () => {
+    const result = toCanonicalEvent({ at, kind: 'ammonia-dose', amount: 2, doseBasis: 'NH3', volumeUnit: 'L' }, now)
+    expect(result.ok && result.event.amount).toBeCloseTo(2 * 0.8224, 3)
+  })
+
+  it('stores a water change in litres (US gallon = 3.785411784 L exactly)', () => {
+    const result = toCanonicalEvent({ at, kind: 'water-change', amount: 5, doseBasis: 'N', volumeUnit: 'usgal' }, now)
+    expect(result.ok && result.event.amount).toBeCloseTo(18.92705892, 8)
+  })
+
+  it('needs a group and a whole count for livestock, and text for a note', () => {
+    const fish = toCanonicalEvent({ at, kind: 'livestock-added', amount: 2.5, doseBasis: 'N', volumeUnit: 'L' }, now)
+    expect(fish.ok ? [] : fish.issues.map(i => i.field).sort()).toEqual(['amount', 'group'])
+    const note = toCanonicalEvent({ at, kind: 'note', doseBasis: 'N', volumeUnit: 'L', notes: '  ' }, now)
+    expect(note.ok).toBe(false)
+  })
+
+  it('refuses the future beyond clock skew', () => {
+    const result = toCanonicalEvent({ at: '2026-06-01T13:00:00Z', kind: 'bacteria-dose', doseBasis: 'N', volumeUnit: 'L' }, now)
+    expect(result.ok ? '' : result.issues[0]!.field).toBe('at')
+  })
+})
