@@ -9,6 +9,7 @@ import { tmpdir } from 'node:os'
 import { join } from 'node:path'
 import type { TestProject } from 'vitest/node'
 import { migrateDatabase, openDatabase } from '../../server/db/connection'
+import { startMailCatcher, type MailCatcher } from '../../scripts/mail-catcher'
 import { buildIsStale } from '../../scripts/build-state.mjs'
 import { seedFixtures, type Fixtures } from './fixtures'
 import { startServer, type RunningServer } from './server'
@@ -18,10 +19,13 @@ declare module 'vitest' {
     baseURL: string
     dbPath: string
     fixtures: Fixtures
+    /** The mail catcher's control URL: POST /smtp/stop, POST /smtp/start, GET /messages. */
+    mailControlURL: string
   }
 }
 
 let server: RunningServer | undefined
+let catcher: MailCatcher | undefined
 let dir: string | undefined
 
 export async function setup(project: TestProject) {
@@ -32,13 +36,29 @@ export async function setup(project: TestProject) {
   migrateDatabase(db)
   const fixtures = await seedFixtures(db)
   db.$client.close()
-  server = await startServer({ dbPath, env: { NUXT_UPLOADS_DIR: join(dir, 'uploads') } })
+  // The real SMTP path: the server's worker sends to a local catcher, as in the demo.
+  catcher = await startMailCatcher({ port: 0, file: join(dir, 'mail.jsonl'), controlPort: 0 })
+  server = await startServer({ dbPath, env: { ...mailCatcherEnv(catcher), NUXT_UPLOADS_DIR: join(dir, 'uploads') } })
   project.provide('baseURL', server.baseURL)
   project.provide('dbPath', dbPath)
   project.provide('fixtures', fixtures)
+  project.provide('mailControlURL', catcher.controlURL ?? '')
+}
+
+/** Server settings that send mail to the catcher and enable the test-only routes. */
+function mailCatcherEnv(mail: MailCatcher): Record<string, string> {
+  return {
+    NUXT_SMTP_HOST: '127.0.0.1',
+    NUXT_SMTP_PORT: String(mail.port),
+    NUXT_DEV_MAIL: '1',
+    NUXT_DEV_MAIL_FILE: mail.file,
+    NUXT_TEST_HOOKS: '1',
+    NUXT_WORKER_INTERVAL_MS: '300',
+  }
 }
 
 export async function teardown() {
   await server?.stop()
+  await catcher?.close()
   if (dir) rmSync(dir, { recursive: true, force: true })
 }

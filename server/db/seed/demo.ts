@@ -6,6 +6,7 @@
 import { DEFAULT_PLAN_TEMPLATE } from '../../../shared/plan/default-template'
 import type { TidewrightDB } from '../connection'
 import { planStageRows } from '../plan-stages'
+import { syncAlertsInDb } from '../alerts'
 import { computeAndStoreVerdict } from '../verdicts'
 import { clients, events, organisations, planStages, readings, sites, tanks, users } from '../schema'
 import { FISHLESS_CURVE, FISH_IN_CURVE, simulateHistory } from './histories'
@@ -86,21 +87,21 @@ export async function seedDemo(db: TidewrightDB, now = new Date()): Promise<Demo
     const lounge = tank({
       organisationId: orgId, clientId: lowe, siteId: loweHome, name: 'Marlowe lounge reef',
       shape: 'bow-front', dimensions: { lengthMm: 1200, widthMm: 500, heightMm: 550, bowDepthMm: 100 }, volumeLitres: 330, sumpLitres: 80,
-      material: 'glass', waterSource: 'mixed', cycleMethod: 'fishless', status: 'cycling', cycleStartedAt: loungeStart.toISOString(),
+      material: 'glass', waterSource: 'mixed', cycleMethod: 'fishless', status: 'cycling', cycleStartedAt: loungeStart.toISOString(), usualTestHour: 18,
       aquaristId: ids.aquarist, supervisorId: ids.supervisor,
     })
     const nanoStart = daysAgo(now, 34)
     const nano = tank({
       organisationId: orgId, clientId: quayle, siteId: quayleFlat, name: 'Quay Street nano',
       shape: 'cube', dimensions: { lengthMm: 450, widthMm: 450, heightMm: 450 }, volumeLitres: 91, sumpLitres: 0,
-      material: 'glass', waterSource: 'natural', cycleMethod: 'fishless', status: 'cycled', cycleStartedAt: nanoStart.toISOString(),
+      material: 'glass', waterSource: 'natural', cycleMethod: 'fishless', status: 'cycled', cycleStartedAt: nanoStart.toISOString(), usualTestHour: 19,
       aquaristId: ids.aquarist, supervisorId: ids.supervisor,
     })
     const studyStart = daysAgo(now, 9)
     const study = tank({
       organisationId: orgId, clientId: hart, siteId: hartHouse, name: 'Fernhill study reef',
       shape: 'rectangular', dimensions: { lengthMm: 900, widthMm: 450, heightMm: 500 }, volumeLitres: 202, sumpLitres: 0,
-      material: 'acrylic', waterSource: 'mixed', cycleMethod: 'fish-in', status: 'cycling', cycleStartedAt: studyStart.toISOString(),
+      material: 'acrylic', waterSource: 'mixed', cycleMethod: 'fish-in', status: 'cycling', cycleStartedAt: studyStart.toISOString(), usualTestHour: 8,
       aquaristId: ids.aquarist2, supervisorId: ids.supervisor,
     })
 
@@ -130,7 +131,12 @@ export async function seedDemo(db: TidewrightDB, now = new Date()): Promise<Demo
       { tankId: study, at: at(studyStart, 7, 19), kind: 'note', notes: 'Client fed heavily over the weekend', enteredBy: ids.client3 },
     ]).run()
 
-    for (const tankId of [lobby, lounge, nano, study]) computeAndStoreVerdict(tx as unknown as TidewrightDB, tankId, now)
+    // The stored verdicts open their alerts too (the study reef's ammonia spike), with the e-mail queued.
+    const baseUrl = process.env.NUXT_PUBLIC_BASE_URL || 'http://localhost:3000'
+    for (const tankId of [lobby, lounge, nano, study]) {
+      const verdict = computeAndStoreVerdict(tx as unknown as TidewrightDB, tankId, now)
+      if (verdict) syncAlertsInDb(tx as unknown as TidewrightDB, tankId, verdict, { now, baseUrl })
+    }
 
     return {
       organisationId: orgId,

@@ -1,0 +1,15 @@
+import { AlertAcknowledgeSchema } from '#shared/schemas/alerts'
+import { IdParams } from '#shared/schemas/common'
+import { STAFF_ROLES } from '#shared/types/roles'
+
+/** POST /api/alerts/:id/acknowledge — staff acknowledge an open alert (optional note); this stops its escalation. Returns AlertView; 409 if it is not open. */
+export default defineEventHandler(async (event) => {
+  const actor = await requireActor(event, STAFF_ROLES)
+  const { id } = await getValidatedRouterParams(event, valid(IdParams))
+  const { note } = await readValidatedBody(event, valid(AlertAcknowledgeSchema))
+  const now = requestNow(event)
+  const current = getAlert(actor, id, now)
+  if (!current) throw createError({ statusCode: 404, statusMessage: 'Alert not found' })
+  if (!acknowledgeAlert(actor, id, note || null, now)) throw createError({ statusCode: 409, statusMessage: `The alert is already ${current.status}` })
+  return getAlert(actor, id, now)
+})

@@ -1,0 +1,25 @@
+import { eq } from 'drizzle-orm'
+import { ForgotPasswordSchema } from '#shared/schemas/account'
+import { enqueueMail } from '../../db/outbox'
+import { users } from '../../db/schema'
+import type { TidewrightDB } from '../../db/connection'
+
+const ANSWER = 'If that address has a Tidewright account, we have sent it a link to choose a new password.'
+
+/** POST /api/auth/forgot-password — e-mails a single-use reset link. The answer is the same whether or not the address has an account. Returns { message }. */
+export default defineEventHandler(async (event) => {
+  const { email } = await readValidatedBody(event, valid(ForgotPasswordSchema))
+  const now = requestNow(event)
+  const db = useDB()
+  const user = db.select().from(users).where(eq(users.email, email)).get()
+  if (user?.active) {
+    db.transaction((tx) => {
+      const t = tx as unknown as TidewrightDB
+      const token = issueToken(t, user.id, 'reset', now)
+      const words = resetMail(user.name, `${publicBaseUrl().replace(/\/+$/, '')}/reset-password?token=${token}`)
+      enqueueMail(t, { organisationId: user.organisationId, to: user.email, kind: 'reset', ...words }, now)
+    })
+    writeAudit({ id: user.id, organisationId: user.organisationId }, { action: 'user.reset-requested', entity: 'user', entityId: user.id })
+  }
+  return { message: ANSWER }
+})

@@ -1,0 +1,96 @@
+/**
+ * The words of alert notices and e-mails: what was measured, what it means, what to do,
+ * and a link to the tank. Pure functions over plain rows.
+ */
+import { fromNitrogen } from '../../shared/chemistry/nitrogen'
+import { formatNumber, formatPercent } from '../../shared/cycle/words'
+import type { CycleAction, Finding } from '../../shared/cycle/types'
+import { celsiusToFahrenheit } from '../../shared/units'
+
+export interface MeasuredReading {
+  takenAt: string
+  ammoniaN: number | null
+  nitriteN: number | null
+  nitrateN: number | null
+  pH: number | null
+  temperatureC: number | null
+  salinity: number | null
+}
+
+export interface AlertMailInput {
+  tankName: string
+  tankUrl: string
+  finding: Pick<Finding, 'message' | 'ruleId'>
+  actions: readonly CycleAction[]
+  reading: MeasuredReading | null
+  units: 'us' | 'metric'
+}
+
+export interface MailWords {
+  subject: string
+  text: string
+  html: string
+}
+
+function escapeHtml(text: string): string {
+  return text.replace(/[&<>"']/g, c => ({ '&': '&amp;', '<': '&lt;', '>': '&gt;', '"': '&quot;', '\'': '&#39;' })[c]!)
+}
+
+/** The values of a reading, one short phrase each, in the reader's units. */
+export function measuredLines(reading: MeasuredReading | null, units: 'us' | 'metric'): string[] {
+  if (!reading) return []
+  const lines: string[] = []
+  if (reading.ammoniaN !== null) lines.push(`Total ammonia ${formatNumber(reading.ammoniaN)} mg/L as N (${formatNumber(fromNitrogen(reading.ammoniaN, 'NH3'))} ppm as NH3)`)
+  if (reading.nitriteN !== null) lines.push(`Nitrite ${formatNumber(reading.nitriteN)} mg/L as N (${formatNumber(fromNitrogen(reading.nitriteN, 'NO2'))} ppm as NO2)`)
+  if (reading.nitrateN !== null) lines.push(`Nitrate ${formatNumber(reading.nitrateN)} mg/L as N`)
+  if (reading.pH !== null) lines.push(`pH ${formatNumber(reading.pH)}`)
+  if (reading.temperatureC !== null) {
+    lines.push(units === 'us' ? `Temperature ${formatNumber(celsiusToFahrenheit(reading.temperatureC))} °F` : `Temperature ${formatNumber(reading.temperatureC)} °C`)
+  }
+  if (reading.salinity !== null) lines.push(`Salinity ${formatNumber(reading.salinity)} (practical)`)
+  return lines
+}
+
+/** The suggested actions, the water change first with its percentage. */
+export function actionLines(actions: readonly CycleAction[]): string[] {
+  return actions.slice(0, 3).map((a) => {
+    if (a.kind !== 'water-change' || a.waterChangePercent === undefined) return a.message
+    const percent = formatPercent(a.waterChangePercent)
+    return a.message.includes(percent) ? a.message : `${a.message} (change about ${percent} of the water)`
+  })
+}
+
+function compose(subject: string, intro: string, input: AlertMailInput, closing: string): MailWords {
+  const measured = measuredLines(input.reading, input.units)
+  const todo = actionLines(input.actions)
+  const sections: [string, string[]][] = [
+    [input.reading ? `What was measured (test of ${input.reading.takenAt.slice(0, 16).replace('T', ' ')} UTC)` : 'What was measured', measured.length ? measured : ['See the tank page for the readings.']],
+    ['What it means', [input.finding.message]],
+    ['What to do', todo.length ? todo : ['Look at the tank\'s verdict and decide what to do.']],
+  ]
+  const text = [intro, '', ...sections.flatMap(([title, lines]) => [`${title}:`, ...lines.map(l => `- ${l}`), '']),
+    `Open the tank: ${input.tankUrl}`, '', closing, '', 'Tidewright. Where animals are at risk, an experienced aquarist has the final word.'].join('\n')
+  const html = [`<p>${escapeHtml(intro)}</p>`,
+    ...sections.map(([title, lines]) => `<h3>${escapeHtml(title)}</h3><ul>${lines.map(l => `<li>${escapeHtml(l)}</li>`).join('')}</ul>`),
+    `<p><a href="${escapeHtml(input.tankUrl)}">Open ${escapeHtml(input.tankName)} in Tidewright</a></p>`,
+    `<p>${escapeHtml(closing)}</p>`].join('\n')
+  return { subject, text, html }
+}
+
+/** The e-mail to the assigned aquarist when an alert opens. */
+export function alertOpenedMail(input: AlertMailInput): MailWords {
+  return compose(`Danger on ${input.tankName}: act now`, `A new reading on ${input.tankName} crossed a danger threshold.`, input,
+    'Acknowledge the alert in Tidewright once you are on it; unacknowledged alerts go to the tank\'s supervisor.')
+}
+
+/** The e-mail to the supervisor when nobody acknowledged the alert in time. */
+export function alertEscalatedMail(input: AlertMailInput & { minutes: number, aquaristName: string | null }): MailWords {
+  return compose(`Unanswered danger alert on ${input.tankName}`,
+    `The danger alert on ${input.tankName} has not been acknowledged for ${input.minutes} minutes${input.aquaristName ? ` by ${input.aquaristName}` : ''}.`, input,
+    'Please make sure someone acts on it.')
+}
+
+/** Plain words for an HTML body. */
+export function plainHtml(paragraphs: readonly string[], link?: { href: string, label: string }): string {
+  return [...paragraphs.map(p => `<p>${escapeHtml(p)}</p>`), ...(link ? [`<p><a href="${escapeHtml(link.href)}">${escapeHtml(link.label)}</a></p>`] : [])].join('\n')
+}

@@ -1,0 +1,193 @@
+/**
+ * The alert lifecycle. A danger finding in a tank's verdict opens one alert per tank and
+ * kind (the rule id); later readings that still show it update it; a verdict without it
+ * resolves it. Unacknowledged alerts escalate to the tank's supervisor after the company's
+ * delay. Framework-free: the server, the seed and the worker share it; each function runs
+ * in one transaction so an alert, its notices and their e-mails commit together.
+ */
+import { and, eq, inArray, isNull, lte, ne } from 'drizzle-orm'
+import type { Finding, Verdict } from '../../shared/cycle/types'
+import { alertEscalatedMail, alertOpenedMail, plainHtml, type MeasuredReading } from './alert-mail'
+import type { TidewrightDB } from './connection'
+import { writeNotice } from './notices'
+import { alerts, organisations, readings, tanks, users } from './schema'
+
+export type AlertRow = typeof alerts.$inferSelect
+
+export interface AlertSyncOptions {
+  readingId?: string
+  now?: Date
+  /** Public base URL for links in e-mails, e.g. https://app.example.com */
+  baseUrl: string
+}
+
+export interface AlertSyncResult {
+  opened: AlertRow[]
+  updated: AlertRow[]
+  resolved: AlertRow[]
+  /** Users who got a new notice (for live badges). */
+  notifiedUserIds: string[]
+}
+
+/** Default minutes before an unacknowledged alert goes to the supervisor. */
+export const DEFAULT_ESCALATION_MINUTES = 60
+
+/** The company's escalation delay in minutes (organisations.settings.escalationMinutes). */
+export function escalationMinutes(settings: Record<string, unknown> | null | undefined): number {
+  const value = Number(settings?.escalationMinutes)
+  return Number.isFinite(value) && value > 0 ? value : DEFAULT_ESCALATION_MINUTES
+}
+
+export const openKeyFor = (tankId: string, kind: string) => `${tankId}:${kind}`
+const tankLink = (tankId: string) => `/tanks/${tankId}`
+const tankUrl = (baseUrl: string, tankId: string) => `${baseUrl.replace(/\/+$/, '')}${tankLink(tankId)}`
+
+function measuredReading(db: TidewrightDB, readingId: string | undefined | null): MeasuredReading | null {
+  if (!readingId) return null
+  return db.select({
+    takenAt: readings.takenAt, ammoniaN: readings.ammoniaN, nitriteN: readings.nitriteN, nitrateN: readings.nitrateN,
+    pH: readings.pH, temperatureC: readings.temperatureC, salinity: readings.salinity,
+  }).from(readings).where(eq(readings.id, readingId)).get() ?? null
+}
+
+function userRow(db: TidewrightDB, id: string | null) {
+  return id ? db.select().from(users).where(eq(users.id, id)).get() : undefined
+}
+
+/** The reading a finding rests on most recently: the newest of its readings, else the one just entered. */
+function findingReading(finding: Finding, readingId: string | undefined): string | undefined {
+  return finding.readingIds.at(-1) ?? readingId
+}
+
+/** Opens, updates and resolves the tank's alerts to match its verdict. */
+export function syncAlertsInDb(db: TidewrightDB, tankId: string, verdict: Verdict, options: AlertSyncOptions): AlertSyncResult {
+  const now = options.now ?? new Date()
+  const nowIso = now.toISOString()
+  const result: AlertSyncResult = { opened: [], updated: [], resolved: [], notifiedUserIds: [] }
+  db.transaction((tx) => {
+    const t = tx as unknown as TidewrightDB
+    const tank = t.select().from(tanks).where(eq(tanks.id, tankId)).get()
+    if (!tank) return
+    const dangers = new Map<string, Finding>()
+    for (const finding of verdict.findings) if (finding.severity === 'danger' && !dangers.has(finding.ruleId)) dangers.set(finding.ruleId, finding)
+    const current = t.select().from(alerts).where(and(eq(alerts.tankId, tankId), ne(alerts.status, 'resolved'))).all()
+    const byKind = new Map(current.map(a => [a.kind, a]))
+    const aquarist = userRow(t, tank.aquaristId)
+
+    for (const [kind, finding] of dangers) {
+      const lastReadingId = findingReading(finding, options.readingId) ?? null
+      const existing = byKind.get(kind)
+      const detail = { readingIds: finding.readingIds, actions: verdict.actions }
+      if (existing) {
+        const row = t.update(alerts).set({ message: finding.message, lastReadingId, detail, updatedAt: nowIso })
+          .where(eq(alerts.id, existing.id)).returning().get()
+        result.updated.push(row)
+        continue
+      }
+      // The unique index on open_key is the guard against a second open alert of the kind.
+      const row = t.insert(alerts).values({
+        organisationId: tank.organisationId, tankId, kind, status: 'open', message: finding.message,
+        openedByReadingId: lastReadingId, lastReadingId, detail, openedAt: nowIso, openKey: openKeyFor(tankId, kind),
+        createdAt: nowIso, updatedAt: nowIso,
+      }).onConflictDoNothing({ target: alerts.openKey }).returning().get()
+      if (!row) continue
+      result.opened.push(row)
+      if (aquarist?.active) {
+        const words = alertOpenedMail({
+          tankName: tank.name, tankUrl: tankUrl(options.baseUrl, tankId), finding, actions: verdict.actions,
+          reading: measuredReading(t, lastReadingId), units: aquarist.units,
+        })
+        writeNotice(t, {
+          userId: aquarist.id, organisationId: tank.organisationId, kind: 'alert-opened', assignedAquarist: true,
+          title: `Danger on ${tank.name}`, body: finding.message, link: tankLink(tankId), alertId: row.id,
+          email: { ...words, messageId: `<alert-${row.id}-opened@mail.tidewright.invalid>` },
+        }, now)
+        result.notifiedUserIds.push(aquarist.id)
+      }
+    }
+
+    for (const alert of current) {
+      if (dangers.has(alert.kind)) continue
+      const row = t.update(alerts).set({
+        status: 'resolved', resolvedAt: nowIso, resolvedBy: null, openKey: null,
+        resolveNote: options.readingId ? 'Cleared by a later reading.' : 'Cleared when the tank was re-evaluated.',
+        lastReadingId: options.readingId ?? alert.lastReadingId, updatedAt: nowIso,
+      }).where(eq(alerts.id, alert.id)).returning().get()
+      result.resolved.push(row)
+      if (aquarist?.active) {
+        const body = `A later reading cleared the danger alert on ${tank.name}. Keep testing as the verdict asks.`
+        writeNotice(t, {
+          userId: aquarist.id, organisationId: tank.organisationId, kind: 'alert-resolved', title: `Cleared on ${tank.name}`,
+          body, link: tankLink(tankId), alertId: alert.id,
+          email: { subject: `Cleared: ${tank.name}`, text: `${body}\n\n${tankUrl(options.baseUrl, tankId)}`, html: plainHtml([body], { href: tankUrl(options.baseUrl, tankId), label: `Open ${tank.name}` }) },
+        }, now)
+        result.notifiedUserIds.push(aquarist.id)
+      }
+    }
+  })
+  return result
+}
+
+export interface AlertActionResult { alert: AlertRow, before: AlertRow }
+
+/** Acknowledges an open alert; already acknowledged or resolved alerts are returned unchanged (null). */
+export function acknowledgeAlertInDb(db: TidewrightDB, alertId: string, userId: string, note: string | null, now = new Date()): AlertActionResult | null {
+  const before = db.select().from(alerts).where(eq(alerts.id, alertId)).get()
+  if (!before || before.status !== 'open') return null
+  const alert = db.update(alerts).set({ status: 'acknowledged', acknowledgedAt: now.toISOString(), acknowledgedBy: userId, acknowledgeNote: note, updatedAt: now.toISOString() })
+    .where(and(eq(alerts.id, alertId), eq(alerts.status, 'open'))).returning().get()
+  return alert ? { alert, before } : null
+}
+
+/** Resolves an alert by hand with a note. */
+export function resolveAlertInDb(db: TidewrightDB, alertId: string, userId: string, note: string, now = new Date()): AlertActionResult | null {
+  const before = db.select().from(alerts).where(eq(alerts.id, alertId)).get()
+  if (!before || before.status === 'resolved') return null
+  const alert = db.update(alerts).set({ status: 'resolved', resolvedAt: now.toISOString(), resolvedBy: userId, resolveNote: note, openKey: null, updatedAt: now.toISOString() })
+    .where(and(eq(alerts.id, alertId), ne(alerts.status, 'resolved'))).returning().get()
+  return alert ? { alert, before } : null
+}
+
+/** Hands every alert that stayed unacknowledged past its company's delay to the tank's supervisor. Returns who was told. */
+export function escalateDueAlerts(db: TidewrightDB, now: Date, baseUrl: string): { escalated: AlertRow[], notifiedUserIds: string[] } {
+  const out = { escalated: [] as AlertRow[], notifiedUserIds: [] as string[] }
+  const orgs = db.select({ id: organisations.id, settings: organisations.settings }).from(organisations).all()
+  for (const org of orgs) {
+    const minutes = escalationMinutes(org.settings)
+    const due = new Date(now.getTime() - minutes * 60_000).toISOString()
+    const candidates = db.select().from(alerts).where(and(
+      eq(alerts.organisationId, org.id), eq(alerts.status, 'open'), isNull(alerts.escalatedAt), lte(alerts.openedAt, due),
+    )).all()
+    for (const candidate of candidates) {
+      db.transaction((tx) => {
+        const t = tx as unknown as TidewrightDB
+        // Conditional update: an alert acknowledged meanwhile, or escalated by another tick, is left alone.
+        const alert = t.update(alerts).set({ escalatedAt: now.toISOString(), updatedAt: now.toISOString() })
+          .where(and(eq(alerts.id, candidate.id), eq(alerts.status, 'open'), isNull(alerts.escalatedAt))).returning().get()
+        if (!alert) return
+        out.escalated.push(alert)
+        const tank = t.select().from(tanks).where(eq(tanks.id, alert.tankId)).get()
+        if (!tank) return
+        const recipients = tank.supervisorId
+          ? [userRow(t, tank.supervisorId)].filter(u => u?.active)
+          : t.select().from(users).where(and(eq(users.organisationId, org.id), inArray(users.role, ['supervisor', 'admin']), eq(users.active, true))).all()
+        const aquaristName = userRow(t, tank.aquaristId)?.name ?? null
+        const actions = Array.isArray(alert.detail.actions) ? alert.detail.actions as Verdict['actions'] : []
+        for (const user of recipients) {
+          if (!user) continue
+          const words = alertEscalatedMail({
+            tankName: tank.name, tankUrl: tankUrl(baseUrl, tank.id), finding: { message: alert.message, ruleId: alert.kind },
+            actions, reading: measuredReading(t, alert.lastReadingId), units: user.units, minutes, aquaristName,
+          })
+          writeNotice(t, {
+            userId: user.id, organisationId: org.id, kind: 'alert-escalated', title: `Unanswered alert on ${tank.name}`,
+            body: alert.message, link: tankLink(tank.id), alertId: alert.id,
+            email: { ...words, messageId: `<alert-${alert.id}-escalated-${user.id}@mail.tidewright.invalid>` },
+          }, now)
+          out.notifiedUserIds.push(user.id)
+        }
+      })
+    }
+  }
+  return out
+}

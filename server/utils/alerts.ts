@@ -1,0 +1,42 @@
+/**
+ * Server side of the alert lifecycle: runs the framework-free core against the process's
+ * database with the public base URL for links, then wakes the live badges.
+ */
+import type { Verdict } from '#shared/cycle/types'
+import { acknowledgeAlertInDb, escalateDueAlerts, resolveAlertInDb, syncAlertsInDb, type AlertSyncResult } from '../db/alerts'
+import { runTestReminders } from '../db/reminders'
+import type { Actor } from './access'
+
+/** Opens, updates and resolves the tank's alerts to match its verdict; called from onTankDataChanged. */
+export function syncAlerts(tankId: string, verdict: Verdict, options: { readingId?: string, now?: Date, actor?: Actor } = {}): AlertSyncResult {
+  const result = syncAlertsInDb(useDB(), tankId, verdict, { readingId: options.readingId, now: options.now, baseUrl: publicBaseUrl() })
+  // Opened and cleared by the engine on behalf of whoever entered the reading (or the system).
+  const by = (organisationId: string) => ({ id: options.actor?.id ?? (null as unknown as string), organisationId })
+  for (const alert of result.opened) writeAudit(by(alert.organisationId), { action: 'alert.open', entity: 'alert', entityId: alert.id, after: { kind: alert.kind, tankId: alert.tankId, readingId: alert.openedByReadingId } })
+  for (const alert of result.resolved) writeAudit(by(alert.organisationId), { action: 'alert.resolve', entity: 'alert', entityId: alert.id, after: { status: 'resolved', by: 'reading', readingId: options.readingId ?? null } })
+  announceNotices(result.notifiedUserIds)
+  return result
+}
+
+/** Acknowledges an alert for the actor; null if it was not open. */
+export function acknowledgeAlert(actor: Actor, alertId: string, note: string | null, now = new Date()) {
+  const done = acknowledgeAlertInDb(useDB(), alertId, actor.id, note, now)
+  if (done) writeAudit(actor, { action: 'alert.acknowledge', entity: 'alert', entityId: alertId, before: { status: done.before.status }, after: { status: done.alert.status, note } })
+  return done?.alert ?? null
+}
+
+/** Resolves an alert by hand; null if it was already resolved. */
+export function resolveAlert(actor: Actor, alertId: string, note: string, now = new Date()) {
+  const done = resolveAlertInDb(useDB(), alertId, actor.id, note, now)
+  if (done) writeAudit(actor, { action: 'alert.resolve', entity: 'alert', entityId: alertId, before: { status: done.before.status }, after: { status: 'resolved', by: 'hand', note } })
+  return done?.alert ?? null
+}
+
+/** The clocked jobs: escalations and test reminders due at `now`. */
+export function runClockedJobs(now: Date) {
+  const db = useDB()
+  const escalation = escalateDueAlerts(db, now, publicBaseUrl())
+  const reminders = runTestReminders(db, now, publicBaseUrl())
+  announceNotices([...escalation.notifiedUserIds, ...reminders.notifiedUserIds])
+  return { escalated: escalation.escalated.length, reminded: reminders.reminded.length, aquaristsTold: reminders.aquaristsTold.length }
+}
