@@ -1,5 +1,7 @@
 // Tidewright's Nuxt configuration. Runtime values are overridden by NUXT_* environment
 // variables (NUXT_DB_PATH, NUXT_SESSION_PASSWORD, ...); see README.md.
+import { fileURLToPath } from 'node:url'
+
 export default defineNuxtConfig({
   compatibilityDate: '2025-07-15',
   modules: ['@nuxtjs/tailwindcss', '@pinia/nuxt', '@vueuse/nuxt', 'nuxt-auth-utils', 'nuxt-security'],
@@ -96,5 +98,13 @@ export default defineNuxtConfig({
   },
   // main.css carries the @tailwind layers; the module must not inject a second copy.
   tailwindcss: { cssPath: false },
+  nitro: {
+    // The certificate PDF embeds our own font; only the two faces it uses are bundled.
+    serverAssets: [{
+      baseName: 'fonts',
+      dir: fileURLToPath(new URL('./node_modules/@fontsource/source-sans-3/files', import.meta.url)),
+      pattern: 'source-sans-3-latin-{400,700}-normal.woff',
+    }],
+  },
   typescript: { strict: true, typeCheck: false },
 })

@@ -8,7 +8,7 @@ import type { TidewrightDB } from '../connection'
 import { planStageRows } from '../plan-stages'
 import { syncAlertsInDb } from '../alerts'
 import { computeAndStoreVerdict } from '../verdicts'
-import { clients, events, organisations, planStages, readings, sites, tanks, users } from '../schema'
+import { clients, events, organisations, planStages, readings, signOffs, sites, tanks, users } from '../schema'
 import { FISHLESS_CURVE, FISH_IN_CURVE, simulateHistory } from './histories'
 import { hashPasswordOffline } from './password'
 
@@ -137,6 +137,12 @@ export async function seedDemo(db: TidewrightDB, now = new Date()): Promise<Demo
       const verdict = computeAndStoreVerdict(tx as unknown as TidewrightDB, tankId, now)
       if (verdict) syncAlertsInDb(tx as unknown as TidewrightDB, tankId, verdict, { now, baseUrl })
     }
+
+    // 'cycled' means awaiting sign-off: the nano's aquarist has asked the supervisor to sign it.
+    tx.insert(signOffs).values({
+      organisationId: orgId, tankId: nano, requestedBy: ids.aquarist, requestedAt: new Date(now.getTime() - 2 * 3_600_000).toISOString(),
+      requestNote: 'Clearance dose processed; ammonia and nitrite have read zero since. Ready for review.', status: 'requested',
+    }).run()
 
     return {
       organisationId: orgId,

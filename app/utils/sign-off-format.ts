@@ -1,0 +1,27 @@
+import { celsiusToFahrenheit } from '#shared/units'
+import type { SignOffStatus } from '#shared/types/sign-off'
+
+/** Plain words for a sign-off's state. */
+export const SIGN_OFF_STATUS_LABELS: Record<SignOffStatus, string> = {
+  requested: 'Waiting for the supervisor',
+  approved: 'Signed off',
+  returned: 'Returned to the aquarist',
+  reopened: 'Reopened',
+}
+
+/** Date and time in the reader's locale. */
+export function formatDateTime(iso: string | null | undefined): string {
+  if (!iso) return '—'
+  return new Date(iso).toLocaleString(undefined, { day: 'numeric', month: 'short', year: 'numeric', hour: '2-digit', minute: '2-digit' })
+}
+
+/** A nitrogen value, mg/L as N, or a dash. */
+export function formatN(value: number | null | undefined): string {
+  return value === null || value === undefined ? '—' : value.toFixed(2)
+}
+
+/** A temperature in the user's units. */
+export function formatTemperature(celsius: number | null | undefined, units: 'us' | 'metric'): string {
+  if (celsius === null || celsius === undefined) return '—'
+  return units === 'us' ? `${celsiusToFahrenheit(celsius).toFixed(1)} °F` : `${celsius.toFixed(1)} °C`
+}

@@ -1,0 +1,16 @@
+import { EventCorrectionSchema, EventParams } from '#shared/schemas/sign-off'
+
+/**
+ * POST /api/tanks/:id/events/:eventId/corrections — corrects an event with a new, linked
+ * entry and a reason; the corrected row stays and the engine uses the correction. Staff
+ * only. Returns 201 with the new event; 409 when it was already corrected.
+ */
+export default defineEventHandler(async (event) => {
+  const actor = await requireActor(event, ['admin', 'aquarist', 'supervisor'])
+  const { id, eventId } = await getValidatedRouterParams(event, valid(EventParams))
+  const input = await readValidatedBody(event, valid(EventCorrectionSchema))
+  const tank = requireVisibleTank(actor, id)
+  const row = correctEvent(actor, tank.id, eventId, input)
+  setResponseStatus(event, 201)
+  return row
+})

@@ -1,0 +1,17 @@
+import { ReadingCorrectionSchema, ReadingParams } from '#shared/schemas/sign-off'
+
+/**
+ * POST /api/tanks/:id/readings/:readingId/corrections — corrects a reading with a new,
+ * linked entry and a reason; the corrected row stays as it was and the engine uses the
+ * correction. Values left out are carried over. Staff only. Returns 201 with the new
+ * reading; 409 when the reading was already corrected (correct the latest correction).
+ */
+export default defineEventHandler(async (event) => {
+  const actor = await requireActor(event, ['admin', 'aquarist', 'supervisor'])
+  const { id, readingId } = await getValidatedRouterParams(event, valid(ReadingParams))
+  const input = await readValidatedBody(event, valid(ReadingCorrectionSchema))
+  const tank = requireVisibleTank(actor, id)
+  const row = correctReading(actor, tank.id, readingId, input)
+  setResponseStatus(event, 201)
+  return row
+})

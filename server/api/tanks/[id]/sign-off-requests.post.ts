@@ -1,0 +1,17 @@
+import { IdParams } from '#shared/schemas/common'
+import { SignOffRequestSchema } from '#shared/schemas/sign-off'
+
+/**
+ * POST /api/tanks/:id/sign-off-requests — an aquarist or admin asks the tank's supervisor
+ * to sign off a cycle the engine judges complete; the tank becomes 'cycled'.
+ * Returns 201 with the SignOffRecord; 409 when the cycle is not complete or a request waits.
+ */
+export default defineEventHandler(async (event) => {
+  const actor = await requireActor(event, ['admin', 'aquarist'])
+  const { id } = await getValidatedRouterParams(event, valid(IdParams))
+  const input = await readValidatedBody(event, valid(SignOffRequestSchema))
+  const tank = requireVisibleTank(actor, id)
+  const row = requestSignOff(actor, tank, input.note)
+  setResponseStatus(event, 201)
+  return toSignOffRecord(row, userNames(actor.organisationId))
+})

@@ -1,0 +1,17 @@
+import { IdParams } from '#shared/schemas/common'
+import { SignOffDecisionSchema } from '#shared/schemas/sign-off'
+
+/**
+ * POST /api/tanks/:id/sign-off/decision — the tank's supervisor (or an admin) approves the
+ * waiting request or returns it with a note. Approving against the engine's verdict needs
+ * a written reason (400 otherwise) and is stored as an override. The engine input and
+ * verdict are stored with the decision. Returns SignOffRecordWithSnapshot.
+ */
+export default defineEventHandler(async (event) => {
+  const actor = await requireActor(event, ['admin', 'supervisor'])
+  const { id } = await getValidatedRouterParams(event, valid(IdParams))
+  const input = await readValidatedBody(event, valid(SignOffDecisionSchema))
+  const tank = requireVisibleTank(actor, id)
+  const { signOff } = decideSignOff(actor, tank, input.decision, input.note)
+  return toSignOffRecordWithSnapshot(signOff, userNames(actor.organisationId))
+})

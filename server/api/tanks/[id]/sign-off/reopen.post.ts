@@ -1,0 +1,16 @@
+import { IdParams } from '#shared/schemas/common'
+import { SignOffReopenSchema } from '#shared/schemas/sign-off'
+
+/**
+ * POST /api/tanks/:id/sign-off/reopen — the tank's supervisor (or an admin) reopens the
+ * current sign-off with a reason: the record unlocks, the certificate stops verifying as
+ * valid and the tank goes back to cycling. Audited. Returns the SignOffRecord.
+ */
+export default defineEventHandler(async (event) => {
+  const actor = await requireActor(event, ['admin', 'supervisor'])
+  const { id } = await getValidatedRouterParams(event, valid(IdParams))
+  const input = await readValidatedBody(event, valid(SignOffReopenSchema))
+  const tank = requireVisibleTank(actor, id)
+  const row = reopenSignOff(actor, tank, input.reason)
+  return toSignOffRecord(row, userNames(actor.organisationId))
+})

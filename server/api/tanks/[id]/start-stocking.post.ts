@@ -1,0 +1,16 @@
+import { IdParams } from '#shared/schemas/common'
+import { StartStockingSchema } from '#shared/schemas/sign-off'
+
+/**
+ * POST /api/tanks/:id/start-stocking — after sign-off, an aquarist or admin starts
+ * stocking, optionally recording the first livestock (a 'livestock-added' event, which
+ * may not be back-dated into the signed period: 409). The tank becomes 'stocking'.
+ * Returns { status, eventId }.
+ */
+export default defineEventHandler(async (event) => {
+  const actor = await requireActor(event, ['admin', 'aquarist'])
+  const { id } = await getValidatedRouterParams(event, valid(IdParams))
+  const input = await readValidatedBody(event, valid(StartStockingSchema))
+  const tank = requireVisibleTank(actor, id)
+  return startStocking(actor, tank, input)
+})

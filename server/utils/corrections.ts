@@ -1,0 +1,95 @@
+/**
+ * Corrections: after sign-off a reading or event is never changed in place; a new row
+ * points at the one it corrects, with a reason, and the engine uses the newest version
+ * (server/db/verdicts.ts skips corrected rows). Also the start of stocking.
+ */
+import { and, eq } from 'drizzle-orm'
+import type { EventCorrectionInput, ReadingCorrectionInput, StartStockingInput } from '#shared/schemas/sign-off'
+import { events, readings, tanks } from '../db/schema'
+import { canManageTank, type Actor } from './access'
+import { assertEntryUnlocked } from './sign-off-lock'
+
+const READING_VALUE_KEYS = ['ammoniaN', 'nitriteN', 'nitrateN', 'pH', 'temperatureC', 'salinity', 'alkalinityDkh', 'calciumMgL', 'magnesiumMgL', 'phosphateMgL', 'notes'] as const
+
+function alreadyCorrected(kind: 'reading' | 'event', correctionId: string): never {
+  throw createError({
+    statusCode: 409,
+    statusMessage: `This ${kind} has already been corrected; correct the latest correction instead`,
+    data: { latestId: correctionId },
+  })
+}
+
+/** Adds a correction of a reading of the tank; 404 if the reading is not the tank's. */
+export function correctReading(actor: Actor, tankId: string, readingId: string, input: ReadingCorrectionInput) {
+  const db = useDB()
+  const original = db.select().from(readings).where(and(eq(readings.id, readingId), eq(readings.tankId, tankId))).get()
+  if (!original) throw createError({ statusCode: 404, statusMessage: 'Reading not found' })
+  const later = db.select({ id: readings.id }).from(readings).where(eq(readings.correctsId, readingId)).get()
+  if (later) alreadyCorrected('reading', later.id)
+  const values: Partial<typeof readings.$inferInsert> = {}
+  for (const key of READING_VALUE_KEYS) {
+    const given = input[key]
+    ;(values as Record<string, unknown>)[key] = given === undefined ? original[key] : given
+  }
+  const row = db.transaction(() => {
+    const inserted = db.insert(readings).values({
+      tankId,
+      takenAt: original.takenAt,
+      enteredBy: actor.id,
+      ...values,
+      entered: { correctionOf: original.id },
+      correctsId: original.id,
+      correctionReason: input.reason,
+    }).returning().get()
+    const changed = Object.fromEntries(READING_VALUE_KEYS.filter(k => input[k] !== undefined).map(k => [k, original[k]]))
+    writeAudit(actor, { action: 'reading.correct', entity: 'reading', entityId: inserted.id, before: { readingId: original.id, ...changed }, after: { correctsId: original.id, reason: input.reason, ...Object.fromEntries(Object.keys(changed).map(k => [k, inserted[k as keyof typeof inserted]])) } })
+    return inserted
+  })
+  onTankDataChanged(tankId, { readingId: row.id, actor })
+  return row
+}
+
+/** Adds a correction of an event of the tank; 404 if the event is not the tank's. */
+export function correctEvent(actor: Actor, tankId: string, eventId: string, input: EventCorrectionInput) {
+  const db = useDB()
+  const original = db.select().from(events).where(and(eq(events.id, eventId), eq(events.tankId, tankId))).get()
+  if (!original) throw createError({ statusCode: 404, statusMessage: 'Event not found' })
+  const later = db.select({ id: events.id }).from(events).where(eq(events.correctsId, eventId)).get()
+  if (later) alreadyCorrected('event', later.id)
+  const row = db.transaction(() => {
+    const inserted = db.insert(events).values({
+      tankId,
+      at: original.at,
+      kind: original.kind,
+      amount: input.amount === undefined ? original.amount : input.amount,
+      group: input.group === undefined ? original.group : input.group,
+      notes: input.notes === undefined ? original.notes : input.notes,
+      enteredBy: actor.id,
+      correctsId: original.id,
+      correctionReason: input.reason,
+    }).returning().get()
+    writeAudit(actor, { action: 'event.correct', entity: 'event', entityId: inserted.id, before: { eventId: original.id, amount: original.amount, group: original.group, notes: original.notes }, after: { correctsId: original.id, reason: input.reason, amount: inserted.amount, group: inserted.group, notes: inserted.notes } })
+    return inserted
+  })
+  onTankDataChanged(tankId, { actor })
+  return row
+}
+
+/** Moves a signed-off tank to stocking, recording the first livestock when given. */
+export function startStocking(actor: Actor, tank: typeof tanks.$inferSelect, input: StartStockingInput, now = new Date()) {
+  if (!canManageTank(actor, tank)) throw createError({ statusCode: 403, statusMessage: 'Only the company\'s aquarists and admins may start stocking' })
+  if (tank.status !== 'signed-off') throw createError({ statusCode: 409, statusMessage: tank.status === 'stocking' ? 'Stocking has already started' : 'Stocking starts after the sign-off' })
+  const db = useDB()
+  const at = input.livestock?.at ? new Date(input.livestock.at).toISOString() : now.toISOString()
+  if (input.livestock) assertEntryUnlocked(tank.id, at)
+  const eventId = db.transaction(() => {
+    const livestock = input.livestock
+      ? db.insert(events).values({ tankId: tank.id, at, kind: 'livestock-added', group: input.livestock.group, amount: input.livestock.count ?? null, notes: input.livestock.notes || null, enteredBy: actor.id }).returning().get()
+      : undefined
+    db.update(tanks).set({ status: 'stocking' }).where(eq(tanks.id, tank.id)).run()
+    writeAudit(actor, { action: 'tank.start-stocking', entity: 'tank', entityId: tank.id, before: { status: tank.status }, after: { status: 'stocking', livestockEventId: livestock?.id ?? null, group: livestock?.group ?? null } })
+    return livestock?.id ?? null
+  })
+  onTankDataChanged(tank.id, { actor, now })
+  return { status: 'stocking' as const, eventId }
+}

@@ -1,0 +1,92 @@
+/** Inputs for sign-off: request, decision, reopening, corrections and the start of stocking. */
+import * as v from 'valibot'
+
+const note = (max: number) => v.pipe(v.string('Write a note.'), v.trim(), v.maxLength(max, `Keep it under ${max} characters.`))
+const requiredNote = (what: string, max = 2000) => v.pipe(v.string(`Write ${what}.`), v.trim(), v.minLength(3, `Write ${what}.`), v.maxLength(max, `Keep it under ${max} characters.`))
+const isoTime = v.pipe(v.string('Give a date and time.'), v.isoTimestamp('Give a date and time.'))
+
+/** Asking the tank's supervisor to sign the cycle off. */
+export const SignOffRequestSchema = v.object({
+  note: v.optional(note(2000), ''),
+})
+export type SignOffRequestInput = v.InferOutput<typeof SignOffRequestSchema>
+
+/**
+ * A supervisor's decision. Returning needs a note for the aquarist; approving against
+ * the engine's verdict needs a reason, which the server enforces (it knows the verdict).
+ */
+export const SignOffDecisionSchema = v.pipe(
+  v.object({
+    decision: v.picklist(['approve', 'return'], 'Choose approve or return.'),
+    note: v.optional(note(2000), ''),
+  }),
+  v.forward(
+    v.check(input => input.decision !== 'return' || input.note.length >= 3, 'Say what needs doing before the tank comes back.'),
+    ['note'],
+  ),
+)
+export type SignOffDecisionInput = v.InferOutput<typeof SignOffDecisionSchema>
+
+/** The message the server gives when an override arrives without a reason. */
+export const OVERRIDE_REASON_MESSAGE = 'The engine does not judge this cycle complete: write why you sign it off anyway.'
+
+/** Reopening a signed-off record, always with a reason. */
+export const SignOffReopenSchema = v.object({
+  reason: requiredNote('why the sign-off is reopened'),
+})
+
+const optionalNumber = (min: number, max: number) => v.optional(v.nullable(v.pipe(v.number('Give a number.'), v.finite('Give a number.'), v.minValue(min, `At least ${min}.`), v.maxValue(max, `At most ${max}.`))))
+
+/**
+ * A correction of a reading: canonical values (mg/L as N, degrees C, practical salinity)
+ * that replace the corrected entry's; a value left out is carried over unchanged.
+ */
+export const ReadingCorrectionSchema = v.object({
+  reason: requiredNote('what was wrong', 1000),
+  ammoniaN: optionalNumber(0, 50),
+  nitriteN: optionalNumber(0, 50),
+  nitrateN: optionalNumber(0, 500),
+  pH: optionalNumber(0, 14),
+  temperatureC: optionalNumber(0, 45),
+  salinity: optionalNumber(0, 50),
+  alkalinityDkh: optionalNumber(0, 30),
+  calciumMgL: optionalNumber(0, 1000),
+  magnesiumMgL: optionalNumber(0, 3000),
+  phosphateMgL: optionalNumber(0, 20),
+  notes: v.optional(v.nullable(note(2000))),
+})
+export type ReadingCorrectionInput = v.InferOutput<typeof ReadingCorrectionSchema>
+
+export const LIVESTOCK_GROUP_VALUES = ['fish', 'invertebrates', 'soft-coral', 'lps-coral', 'sps-coral'] as const
+
+/** A correction of an event; fields left out are carried over. */
+export const EventCorrectionSchema = v.object({
+  reason: requiredNote('what was wrong', 1000),
+  amount: v.optional(v.nullable(v.pipe(v.number('Give a number.'), v.finite('Give a number.'), v.minValue(0, 'At least 0.'), v.maxValue(100000, 'Too large.')))),
+  group: v.optional(v.nullable(v.picklist(LIVESTOCK_GROUP_VALUES, 'Choose a livestock group.'))),
+  notes: v.optional(v.nullable(note(2000))),
+})
+export type EventCorrectionInput = v.InferOutput<typeof EventCorrectionSchema>
+
+/** "Start stocking", optionally with the first livestock that went in. */
+export const StartStockingSchema = v.object({
+  livestock: v.optional(v.object({
+    group: v.picklist(LIVESTOCK_GROUP_VALUES, 'Choose a livestock group.'),
+    count: v.optional(v.pipe(v.number('Give a number.'), v.integer('A whole number.'), v.minValue(1, 'At least 1.'), v.maxValue(500, 'At most 500.'))),
+    notes: v.optional(note(1000)),
+    at: v.optional(isoTime),
+  })),
+})
+export type StartStockingInput = v.InferOutput<typeof StartStockingSchema>
+
+const uuid = v.pipe(v.string(), v.uuid('Not a valid id.'))
+/** Route parameters of a reading correction. */
+export const ReadingParams = v.object({ id: uuid, readingId: uuid })
+/** Route parameters of an event correction. */
+export const EventParams = v.object({ id: uuid, eventId: uuid })
+
+/** Verification codes look like TW-XXXX-XXXX-XXXX-XXXX-XXXX-XXXX (Crockford base32). */
+export const VERIFICATION_CODE_PATTERN = /^TW(?:-[0-9A-HJKMNP-TV-Z]{4}){6}$/
+export const VerifyParams = v.object({
+  code: v.pipe(v.string(), v.trim(), v.toUpperCase(), v.regex(VERIFICATION_CODE_PATTERN, 'Not a Tidewright verification code.')),
+})

@@ -1,0 +1,181 @@
+/** API response shapes for sign-off, evidence, certificate verification and the stocking plan. */
+import type { CycleInput, Verdict } from '../cycle/types'
+import type { DatedAcclimationStep, FinalValue, StockingStep } from '../sign-off/plan'
+import type { CyclePhase, TankStatus, TankView } from './tanks'
+
+export type SignOffStatus = 'requested' | 'approved' | 'returned' | 'reopened'
+
+/** What the engine was given and what it answered when the supervisor decided. */
+export interface SignOffSnapshot {
+  input: CycleInput
+  verdict: Verdict
+  /** Why approving was against the verdict; empty when the engine agreed. */
+  overrideGrounds: string[]
+  /** Unresolved danger alerts at decision time. */
+  unresolvedAlerts: number
+}
+
+export interface SignOffRecord {
+  id: string
+  status: SignOffStatus
+  requestedAt: string
+  requestedByName: string | null
+  requestNote: string | null
+  decidedAt: string | null
+  decidedByName: string | null
+  decisionNote: string | null
+  /** Approved against the engine's verdict, with `decisionNote` as the written reason. */
+  override: boolean
+  ruleSetVersion: string | null
+  reopenedAt: string | null
+  reopenedByName: string | null
+  reopenReason: string | null
+}
+
+export interface SignOffRecordWithSnapshot extends SignOffRecord {
+  snapshot: SignOffSnapshot | null
+}
+
+/** One row of the supervisor's review queue. */
+export interface ReviewItem {
+  signOffId: string
+  tankId: string
+  tankName: string
+  clientName: string
+  supervisorName: string | null
+  requestedAt: string
+  requestedByName: string | null
+  requestNote: string | null
+  phase: CyclePhase | null
+  daysCycling: number | null
+  openAlerts: number
+  /** Why approving now would go against the stored verdict; empty when the engine agrees. */
+  overrideGrounds: string[]
+}
+
+export interface StockingPlanView {
+  signedAt: string
+  steps: StockingStep[]
+  lighting: DatedAcclimationStep[]
+}
+
+/** The sign-off state shown on the tank page. */
+export interface SignOffState {
+  tankStatus: TankStatus
+  phase: CyclePhase
+  current: SignOffRecord | null
+  history: SignOffRecord[]
+  /** Why an approval now would be an override; empty when the engine agrees. */
+  overrideGrounds: string[]
+  lockedUntil: string | null
+  canRequest: boolean
+  canDecide: boolean
+  canReopen: boolean
+  canStartStocking: boolean
+  hasCertificate: boolean
+  plan: StockingPlanView | null
+}
+
+export interface EvidenceReading {
+  id: string
+  takenAt: string
+  enteredByName: string | null
+  ammoniaN: number | null
+  nitriteN: number | null
+  nitrateN: number | null
+  pH: number | null
+  temperatureC: number | null
+  salinity: number | null
+  alkalinityDkh: number | null
+  calciumMgL: number | null
+  magnesiumMgL: number | null
+  phosphateMgL: number | null
+  notes: string | null
+  correctsId: string | null
+  correctionReason: string | null
+  /** A later correction replaces this row. */
+  correctedById: string | null
+  createdAt: string
+}
+
+export interface EvidenceEvent {
+  id: string
+  at: string
+  kind: string
+  amount: number | null
+  group: string | null
+  notes: string | null
+  enteredByName: string | null
+  correctsId: string | null
+  correctionReason: string | null
+  correctedById: string | null
+}
+
+export interface EvidenceStage {
+  id: string
+  position: number
+  key: string
+  title: string
+  status: string
+  skipReason: string | null
+  notes: string | null
+  checklist: { id: string, label: string, done: boolean, doneByName: string | null, doneAt: string | null }[]
+  completedByName: string | null
+  completedAt: string | null
+}
+
+export interface EvidenceUpload {
+  id: string
+  stageId: string | null
+  readingId: string | null
+  mimeType: string
+  sizeBytes: number
+  originalName: string
+  /** An image preview exists at /api/uploads/:id/thumbnail; the file itself is /api/uploads/:id. */
+  hasThumbnail: boolean
+  uploadedByName: string | null
+  createdAt: string
+}
+
+export interface EvidenceAlert {
+  id: string
+  kind: string
+  status: string
+  message: string
+  openedAt: string
+  acknowledgedAt: string | null
+  acknowledgeNote: string | null
+  resolvedAt: string | null
+  resolveNote: string | null
+}
+
+/** Everything a supervisor reviews before deciding. */
+export interface Evidence {
+  tank: TankView
+  verdict: Verdict
+  evaluatedAt: string
+  overrideGrounds: string[]
+  readings: EvidenceReading[]
+  events: EvidenceEvent[]
+  stages: EvidenceStage[]
+  uploads: EvidenceUpload[]
+  alerts: EvidenceAlert[]
+  signOffs: SignOffRecordWithSnapshot[]
+  /** Readings and events at or before this time are locked by the sign-off; null when none stands. */
+  lockedUntil: string | null
+  canDecide: boolean
+  canReopen: boolean
+}
+
+/** The public answer for a verification code: minimal facts only. */
+export interface VerifyResult {
+  valid: boolean
+  status: 'approved' | 'reopened'
+  tankName: string
+  company: string
+  signedAt: string
+  supervisorName: string | null
+  reopenedAt: string | null
+}
+
+export type { FinalValue }
