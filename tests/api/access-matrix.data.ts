@@ -16,6 +16,10 @@ import * as v from 'valibot'
 import type { GenericSchema } from 'valibot'
 import { DEFAULT_PLAN_TEMPLATE } from '../../shared/plan/default-template'
 import { LoginSchema } from '../../shared/schemas/auth'
+import { AlertAcknowledgeSchema, AlertResolveSchema } from '../../shared/schemas/alerts'
+import { ForgotPasswordSchema, InvitationSchema, SetPasswordSchema } from '../../shared/schemas/account'
+import { NotificationPreferencesSchema } from '../../shared/schemas/notifications'
+import { EventCorrectionSchema, ReadingCorrectionSchema, SignOffDecisionSchema, SignOffReopenSchema, SignOffRequestSchema, StartStockingSchema } from '../../shared/schemas/sign-off'
 import { ClientCreateSchema, ClientPatchSchema, SiteCreateSchema, SitePatchSchema } from '../../shared/schemas/clients'
 import { PlanTemplateSchema, StagePatchSchema } from '../../shared/schemas/plan'
 import { EventInputSchema, EventPatchSchema, ReadingImportSchema, ReadingInputSchema, ReadingPatchSchema } from '../../shared/schemas/reading'
@@ -61,6 +65,8 @@ export interface MatrixContext {
   as: (persona: Exclude<Persona, 'signedOut'>) => Promise<ApiClient>
   /** A read-only query on the test database. */
   query: <T = Record<string, unknown>>(sql: string, ...params: unknown[]) => T[]
+  /** A write on the test database, only for rows no route can make on demand (an open alert, a notice). */
+  run: (sql: string, ...params: unknown[]) => void
 }
 
 export interface MatrixEntry {
@@ -72,6 +78,10 @@ export interface MatrixEntry {
   expect: Expectations
   /** The call ends or replaces the session: each persona signs in afresh for it. */
   freshSession?: boolean
+  /** A server-sent event stream: only the status and headers are read, then the call is closed. */
+  stream?: boolean
+  /** What the route shows every persona by design (e.g. a public certificate check): not counted as a leak. */
+  discloses?: (c: MatrixContext) => string[]
   fuzz?: FuzzPlan
 }
 
@@ -169,6 +179,44 @@ async function loungeUpload(c: MatrixContext, kind: 'pdf' | 'png'): Promise<stri
   uploadCache.set(kind, response.body.id)
   return response.body.id
 }
+
+
+/** A fresh open alert on the study reef (client3's tank), so each persona acts on its own. */
+let alertCounter = 0
+function freshAlert(c: MatrixContext): string {
+  const id = crypto.randomUUID()
+  const now = new Date().toISOString()
+  const kind = `matrix-check-${++alertCounter}`
+  c.run(`insert into alerts (id, organisation_id, tank_id, kind, status, message, detail, opened_at, open_key, created_at, updated_at)
+    values (?, ?, ?, ?, 'open', 'Access matrix alert', '{}', ?, ?, ?, ?)`, id, c.f.demo.organisationId, c.f.demo.tanks.study, kind, now, `${c.f.demo.tanks.study}:${kind}`, now, now)
+  return id
+}
+/** A fresh unread notice for aquarist@ (only its owner may mark it read). */
+function freshNotice(c: MatrixContext): string {
+  const id = crypto.randomUUID()
+  const now = new Date().toISOString()
+  c.run(`insert into notifications (id, user_id, organisation_id, kind, title, body, created_at, updated_at) values (?, ?, ?, 'alert', 'Matrix notice', 'Check', ?, ?)`,
+    id, c.f.demo.users.aquarist, c.f.demo.organisationId, now, now)
+  return id
+}
+let nanoSigned: Promise<string> | undefined
+/** Signs the nano tank (client2's, cycled, awaiting sign-off) off once through the API; returns its verification code. */
+function signedOffNano(c: MatrixContext): Promise<string> {
+  nanoSigned ??= (async () => {
+    const tank = c.f.demo.tanks.nano
+    // The demo seed leaves nano awaiting sign-off; ask only if nobody has.
+    if (!c.query('select id from sign_offs where tank_id = ? and status = ?', tank, 'requested').length) {
+      const asked = await (await c.as('aquarist')).post(`/api/tanks/${tank}/sign-off-requests`, { note: 'Matrix sign-off' })
+      if (asked.status !== 201) throw new Error(`sign-off request: ${asked.status} ${JSON.stringify(asked.body)}`)
+    }
+    const decided = await (await c.as('supervisor')).post(`/api/tanks/${tank}/sign-off/decision`, { decision: 'approve', note: 'Approved for the access matrix' })
+    if (decided.status !== 200) throw new Error(`sign-off decision: ${decided.status} ${JSON.stringify(decided.body)}`)
+    return c.query<{ code: string }>('select verification_code as code from sign_offs where tank_id = ? and status = ?', tank, 'approved')[0]!.code
+  })()
+  return nanoSigned
+}
+let inviteCounter = 0
+const UNUSED_TOKEN = 'A'.repeat(43)
 
 export const ACCESS_MATRIX: Record<string, MatrixEntry> = {
   'ANY /api/[...path]': {
@@ -321,6 +369,126 @@ export const ACCESS_MATRIX: Record<string, MatrixEntry> = {
   },
   'GET /api/tanks/[id]/verdict': { url: c => `/api/tanks/${c.f.demo.tanks.lounge}/verdict`, expect: tankReader() },
   'GET /api/tanks/[id]/chart': { url: c => `/api/tanks/${c.f.demo.tanks.lounge}/chart`, expect: tankReader() },
+
+  // Accounts, invitations and resets (issue 7)
+  'POST /api/auth/forgot-password': {
+    url: () => '/api/auth/forgot-password',
+    body: () => ({ email: 'nobody-here@example.test' }),
+    expect: everyone(200),
+    fuzz: { as: 'client', schema: ForgotPasswordSchema, validBody: () => ({ email: 'nobody-here@example.test' }) },
+  },
+  'GET /api/auth/token': { url: () => `/api/auth/token?token=${UNUSED_TOKEN}`, expect: everyone(404) },
+  'POST /api/auth/accept-invite': {
+    url: () => '/api/auth/accept-invite',
+    body: () => ({ token: UNUSED_TOKEN, password: 'a-long-enough-password' }),
+    expect: everyone(410),
+    freshSession: true,
+    fuzz: { as: 'client', schema: SetPasswordSchema, validBody: () => ({ token: UNUSED_TOKEN, password: 'a-long-enough-password' }) },
+  },
+  'POST /api/auth/reset-password': {
+    url: () => '/api/auth/reset-password',
+    body: () => ({ token: UNUSED_TOKEN, password: 'a-long-enough-password' }),
+    expect: everyone(410),
+    freshSession: true,
+    fuzz: { as: 'client', schema: SetPasswordSchema, validBody: () => ({ token: UNUSED_TOKEN, password: 'a-long-enough-password' }) },
+  },
+  'POST /api/invitations': {
+    url: () => '/api/invitations',
+    body: c => ({ email: `invitee-${++inviteCounter}@example.test`, name: 'Matrix Invitee', role: 'client', clientId: c.f.demo.clients.lowe }),
+    // Another company's aquarist names our client: not found.
+    expect: { ...recordManager(201) },
+    fuzz: { as: 'aquarist', schema: InvitationSchema, validBody: c => ({ email: 'fuzz-invitee@example.test', name: 'Fuzz Invitee', role: 'client', clientId: c.f.demo.clients.lowe }) },
+  },
+  'GET /api/me/notification-preferences': { url: () => '/api/me/notification-preferences', expect: anySignedIn() },
+  'PUT /api/me/notification-preferences': {
+    url: () => '/api/me/notification-preferences',
+    body: () => ({ emailKinds: {} }),
+    expect: anySignedIn(),
+    fuzz: { as: 'client', schema: NotificationPreferencesSchema, validBody: () => ({ emailKinds: {} }) },
+  },
+
+  // Alerts and notices (issue 7)
+  'GET /api/alerts': { url: () => '/api/alerts', expect: staffList() },
+  'POST /api/alerts/[id]/acknowledge': {
+    url: c => `/api/alerts/${freshAlert(c)}/acknowledge`,
+    body: () => ({ note: 'Seen by the access matrix' }),
+    expect: staffOnTank(),
+    fuzz: { as: 'aquarist', schema: AlertAcknowledgeSchema, validBody: () => ({ note: 'Fuzzed' }) },
+  },
+  'POST /api/alerts/[id]/resolve': {
+    url: c => `/api/alerts/${freshAlert(c)}/resolve`,
+    body: () => ({ note: 'Resolved by the access matrix' }),
+    expect: staffOnTank(),
+    fuzz: { as: 'aquarist', schema: AlertResolveSchema, validBody: () => ({ note: 'Fuzzed resolution' }) },
+  },
+  'GET /api/notifications': { url: () => '/api/notifications', expect: anySignedIn() },
+  'GET /api/notifications/stream': { url: () => '/api/notifications/stream', expect: anySignedIn(), stream: true },
+  'POST /api/notifications/[id]/read': {
+    url: c => `/api/notifications/${freshNotice(c)}/read`,
+    // Only the notice's owner (aquarist@) may mark it; to everyone else it does not exist.
+    expect: { signedOut: 401, admin: 404, aquarist: 200, supervisor: 404, client: 404, otherClient: 404, otherCompany: 404 },
+    fuzz: 'no-body',
+  },
+  'POST /api/notifications/read-all': { url: () => '/api/notifications/read-all', expect: anySignedIn(), fuzz: 'no-body' },
+  // Local mail catcher and test clock: off unless NUXT_DEV_MAIL=1 / NUXT_TEST_HOOKS=1.
+  'GET /api/dev/mail': { url: () => '/api/dev/mail', expect: everyone(404) },
+  'GET /api/dev/outbox': { url: () => '/api/dev/outbox', expect: everyone(404) },
+  'POST /api/dev/worker-tick': { url: () => '/api/dev/worker-tick', body: () => ({ now: new Date().toISOString() }), expect: everyone(404), fuzz: 'no-body' },
+
+  // Sign-off (issue 8). The lounge tank is mid-cycle: those allowed reach the domain check and get 409.
+  'GET /api/reviews': {
+    url: () => '/api/reviews',
+    expect: { signedOut: 401, admin: 200, aquarist: 403, supervisor: 200, client: 403, otherClient: 403, otherCompany: 403 },
+  },
+  'GET /api/tanks/[id]/evidence': { url: c => `/api/tanks/${c.f.demo.tanks.lounge}/evidence`, expect: staffOnTank() },
+  'GET /api/tanks/[id]/sign-off': { url: c => `/api/tanks/${c.f.demo.tanks.lounge}/sign-off`, expect: tankReader() },
+  'POST /api/tanks/[id]/sign-off-requests': {
+    url: c => `/api/tanks/${c.f.demo.tanks.lounge}/sign-off-requests`,
+    body: () => ({ note: 'Matrix request' }),
+    expect: recordManager(409),
+    fuzz: { as: 'aquarist', schema: SignOffRequestSchema, validBody: () => ({ note: 'Fuzzed request' }) },
+  },
+  'POST /api/tanks/[id]/sign-off/decision': {
+    url: c => `/api/tanks/${c.f.demo.tanks.lounge}/sign-off/decision`,
+    body: () => ({ decision: 'return', note: 'Returned by the access matrix' }),
+    expect: { signedOut: 401, admin: 409, aquarist: 403, supervisor: 409, client: 403, otherClient: 403, otherCompany: 403 },
+    fuzz: { as: 'supervisor', schema: SignOffDecisionSchema, validBody: () => ({ decision: 'return', note: 'Fuzzed return' }) },
+  },
+  'POST /api/tanks/[id]/sign-off/reopen': {
+    url: c => `/api/tanks/${c.f.demo.tanks.lounge}/sign-off/reopen`,
+    body: () => ({ reason: 'Reopened by the access matrix' }),
+    expect: { signedOut: 401, admin: 409, aquarist: 403, supervisor: 409, client: 403, otherClient: 403, otherCompany: 403 },
+    fuzz: { as: 'supervisor', schema: SignOffReopenSchema, validBody: () => ({ reason: 'Fuzzed reopening' }) },
+  },
+  'POST /api/tanks/[id]/start-stocking': {
+    url: c => `/api/tanks/${c.f.demo.tanks.lounge}/start-stocking`,
+    body: () => ({}),
+    expect: recordManager(409),
+    fuzz: { as: 'aquarist', schema: StartStockingSchema, validBody: () => ({ livestock: { group: 'fish', count: 2, notes: 'Fuzzed' } }) },
+  },
+  'POST /api/tanks/[id]/readings/[readingId]/corrections': {
+    url: async c => `/api/tanks/${c.f.demo.tanks.lounge}/readings/${await freshReading(c)}/corrections`,
+    body: () => ({ reason: 'Corrected by the access matrix', pH: 8.2 }),
+    expect: staffOnTank(201),
+    fuzz: { as: 'aquarist', schema: ReadingCorrectionSchema, validBody: () => ({ reason: 'Fuzzed correction', pH: 8.2, notes: 'Fuzzed' }) },
+  },
+  'POST /api/tanks/[id]/events/[eventId]/corrections': {
+    url: async c => `/api/tanks/${c.f.demo.tanks.lounge}/events/${await freshEvent(c)}/corrections`,
+    body: () => ({ reason: 'Corrected by the access matrix', notes: 'Corrected' }),
+    expect: staffOnTank(201),
+    fuzz: { as: 'aquarist', schema: EventCorrectionSchema, validBody: () => ({ reason: 'Fuzzed correction', notes: 'Fuzzed' }) },
+  },
+  // The nano tank (client2's) is signed off first: its client and staff may download the certificate.
+  'GET /api/tanks/[id]/certificate.pdf': {
+    url: async c => (await signedOffNano(c), `/api/tanks/${c.f.demo.tanks.nano}/certificate.pdf`),
+    expect: { signedOut: 401, admin: 200, aquarist: 200, supervisor: 200, client: 404, otherClient: 200, otherCompany: 404 },
+  },
+  // Public by design: whoever holds a certificate's code may check it.
+  'GET /api/verify/[code]': {
+    url: async c => `/api/verify/${await signedOffNano(c)}`,
+    expect: everyone(200),
+    discloses: c => [...c.query<{ name: string }>('select name from tanks where id = ?', c.f.demo.tanks.nano).map(r => r.name), 'Brinefield Aquarium Studio', 'Hollis Achterberg'],
+  },
 
   // Benchmark floor routes: off unless NUXT_BENCH_ROUTES=1, so 404 for everyone here.
   'GET /api/bench/tanks': { url: c => `/api/bench/tanks?org=${c.f.demo.organisationId}`, expect: everyone(404) },
