@@ -2,12 +2,18 @@
  * Crash safety: several clients enter readings at once, the server is killed with
  * SIGKILL mid-stream and started again on the same file. Every reading whose POST was
  * answered 2xx is there exactly once (with its audit row, written in the same
- * transaction), nothing half-written is left, and PRAGMA integrity_check passes.
+ * transaction), nothing half-written is left, and PRAGMA integrity_check passes. The
+ * mail outbox, killed mid-delivery, sends everything after the restart, and only a
+ * message caught between sending and being marked sent can arrive twice (with the same
+ * Message-ID, so the receiving side can tell).
  */
+import { join } from 'node:path'
+import Database from 'better-sqlite3'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { integrityCheck, queryFile } from '../support/db-checksum'
 import { ApiClient } from '../support/http'
 import { startOwnServer, type OwnServer } from '../support/own-server'
+import { startServer } from '../support/server'
 import { READING_BODY } from './access-matrix.data'
 
 let own: OwnServer
@@ -80,5 +86,58 @@ describe('a server killed mid-stream', () => {
     expect(after.status).toBe(201)
     const list = await sessions[0]!.get(`/api/tanks/${demo.tanks.lounge}/readings?pageSize=500`)
     expect(list.status).toBe(200)
+  })
+})
+
+describe('the mail outbox across a kill', () => {
+  it('delivers every queued message after a restart, and only a message in flight at the kill may arrive twice', async () => {
+    const { startMailCatcher, readCaughtMail } = await import('../../scripts/mail-catcher')
+    const catcher = await startMailCatcher({ port: 0, file: join(own.dir, 'caught.jsonl') })
+    const mailEnv = { NUXT_SMTP_HOST: '127.0.0.1', NUXT_SMTP_PORT: String(catcher.port), NUXT_WORKER_INTERVAL_MS: '200' }
+    try {
+      await own.server.stop()
+      const port = Number(new URL(own.server.baseURL).port)
+      own.server = await startServer({ dbPath: own.dbPath, port, env: { ...own.env, ...mailEnv } })
+      const accounts = ['client@tidewright.test', 'client2@tidewright.test', 'client3@tidewright.test', 'aquarist@tidewright.test', 'aquarist2@tidewright.test', 'supervisor@tidewright.test', 'admin@tidewright.test']
+      const queued = async () => queryFile<{ n: number }>(own.dbPath, `select count(*) as n from mail_outbox where kind = 'reset'`)[0]!.n
+      const asked = new ApiClient(own.server.baseURL)
+      for (let round = 0; round < 6; round++) {
+        for (const email of accounts) expect((await asked.post('/api/auth/forgot-password', { email })).status).toBe(200)
+      }
+      const total = await queued()
+      expect(total).toBe(6 * accounts.length)
+      // Kill once delivery is under way but not finished.
+      const sentCount = () => queryFile<{ n: number }>(own.dbPath, `select count(*) as n from mail_outbox where kind = 'reset' and status = 'sent'`)[0]!.n
+      const deadline = Date.now() + 20_000
+      while (sentCount() < 3 && Date.now() < deadline) await new Promise(r => setTimeout(r, 5))
+      const exited = new Promise(resolve => own.server.process.once('exit', resolve))
+      own.server.process.kill('SIGKILL')
+      await exited
+      const atKill = queryFile<{ message_id: string, status: string }>(own.dbPath, `select message_id, status from mail_outbox where kind = 'reset'`)
+      const inDoubt = new Set(atKill.filter(r => r.status === 'sending').map(r => r.message_id))
+      expect(atKill.filter(r => r.status === 'sent').length).toBeLessThan(total)
+      // A row caught mid-send becomes due again after STALE_SENDING_MS (10 min); let that time pass on disk.
+      const db = new Database(own.dbPath)
+      db.prepare(`update mail_outbox set updated_at = ? where status = 'sending'`).run(new Date(Date.now() - 11 * 60_000).toISOString())
+      db.close()
+
+      own.server = await startServer({ dbPath: own.dbPath, port, env: { ...own.env, ...mailEnv } })
+      const until = Date.now() + 60_000
+      while (Date.now() < until && queryFile(own.dbPath, `select 1 from mail_outbox where kind = 'reset' and status != 'sent'`).length) await new Promise(r => setTimeout(r, 100))
+      expect(queryFile(own.dbPath, `select status from mail_outbox where kind = 'reset' and status != 'sent'`)).toEqual([])
+      expect(integrityCheck(own.dbPath)).toBe('ok')
+
+      const strip = (id: string) => id.replace(/^<|>$/g, '')
+      const delivered = new Map<string, number>()
+      for (const mail of readCaughtMail(catcher.file)) delivered.set(strip(mail.messageId), (delivered.get(strip(mail.messageId)) ?? 0) + 1)
+      for (const row of atKill) {
+        const times = delivered.get(strip(row.message_id)) ?? 0
+        expect(times, row.message_id).toBeGreaterThanOrEqual(1)
+        expect(times, `${row.message_id} (${row.status} at the kill)`).toBeLessThanOrEqual(inDoubt.has(row.message_id) ? 2 : 1)
+      }
+    }
+    finally {
+      await catcher.close()
+    }
   })
 })

@@ -4,6 +4,7 @@
  * a 4xx with a message, must not echo the input, and must leave every table of the
  * database byte-for-byte as it was. No body, however hostile, may cause a 5xx.
  */
+import Database from 'better-sqlite3'
 import fc from 'fast-check'
 import * as v from 'valibot'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
@@ -33,7 +34,21 @@ async function as(persona: Exclude<Persona, 'signedOut'>): Promise<ApiClient> {
   if (!sessions.has(persona)) sessions.set(persona, await new ApiClient(own.server.baseURL).signIn(PERSONA_EMAIL[persona]))
   return sessions.get(persona)!
 }
-const context = (): MatrixContext => ({ f: own.fixtures, as, query: (sql, ...params) => queryFile(own.dbPath, sql, ...params) })
+const context = (): MatrixContext => ({
+  f: own.fixtures,
+  as,
+  query: (sql, ...params) => queryFile(own.dbPath, sql, ...params),
+  run: (sql, ...params) => {
+    const db = new Database(own.dbPath)
+    try {
+      db.pragma('busy_timeout = 5000')
+      db.prepare(sql).run(...params)
+    }
+    finally {
+      db.close()
+    }
+  },
+})
 
 /** Every file under the uploads directory (bytes must not be left behind by a refused upload). */
 function storedFiles(): string[] {

@@ -38,7 +38,14 @@ export async function startOwnServer(env: Record<string, string> = {}): Promise<
   const dir = mkdtempSync(join(tmpdir(), 'tidewright-own-'))
   const { dbPath, fixtures } = await seededDatabase(dir)
   const sessionPassword = randomBytes(32).toString('hex')
-  const fullEnv = { NUXT_SESSION_PASSWORD: sessionPassword, NUXT_UPLOADS_DIR: join(dir, 'uploads'), ...env }
+  const fullEnv = {
+    NUXT_SESSION_PASSWORD: sessionPassword,
+    NUXT_UPLOADS_DIR: join(dir, 'uploads'),
+    // The background worker (escalations, reminders, mail) writes on its own clock; tests that
+    // compare table checksums keep it asleep. A test that needs it passes a short interval.
+    NUXT_WORKER_INTERVAL_MS: '86400000',
+    ...env,
+  }
   const own: OwnServer = {
     server: await startServer({ dbPath, env: fullEnv }),
     dir,
