@@ -12,12 +12,10 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { fingerprint, integrityCheck, queryFile } from '../support/db-checksum'
 import { ApiClient } from '../support/http'
 import { startOwnServer, type OwnServer } from '../support/own-server'
+import { READING_BODY } from './access-matrix.data'
 
 let own: OwnServer
-beforeAll(async () => {
-  // Failed sign-ins are the write load here: nothing throttles or slows them in this server.
-  own = await startOwnServer({ NUXT_SIGN_IN_ADDRESS_FAILURE_LIMIT: '100000000', NUXT_SIGN_IN_ACCOUNT_FAILURE_LIMIT: '100000000' })
-})
+beforeAll(async () => { own = await startOwnServer() })
 afterAll(async () => { await own?.cleanup() })
 
 function runScript(script: string, args: string[], env: Record<string, string>): Promise<{ code: number, output: string }> {
@@ -30,15 +28,16 @@ function runScript(script: string, args: string[], env: Record<string, string>):
   })
 }
 
-/** Writers that keep the server writing until stopped; each acknowledged write is counted. */
+/** Clients entering readings until stopped; each acknowledged (201) write is counted. */
 function startWriters(count: number) {
   let running = true
   let acknowledged = 0
   const loops = Array.from({ length: count }, async (_, w) => {
-    const api = new ApiClient(own.server.baseURL)
+    const api = await new ApiClient(own.server.baseURL).signIn(w % 2 ? 'client@tidewright.test' : 'aquarist@tidewright.test')
+    const tank = w % 2 ? own.fixtures.demo.tanks.lounge : own.fixtures.demo.tanks.study
     for (let i = 0; running; i++) {
-      const response = await api.post('/api/auth/login', { email: `writer-${w}-${i}@load.test`, password: 'not-a-password' })
-      if (response.status === 401) acknowledged++
+      const response = await api.post(`/api/tanks/${tank}/readings`, { ...READING_BODY(), notes: `backup-load w${w} n${i}` })
+      if (response.status === 201) acknowledged++
       else throw new Error(`write load got ${response.status}`)
     }
   })
@@ -48,8 +47,10 @@ function startWriters(count: number) {
   }
 }
 
-const failurePairs = (path: string) => queryFile<{ account: number, address: number }>(path,
-  `select sum(key like 'account:%') as account, sum(key like 'address:%') as address from sign_in_failures`)[0]!
+/** Load readings in a file, and how many of them have the audit row written in the same transaction. */
+const loadRows = (path: string) => queryFile<{ readings: number, audited: number }>(path,
+  `select count(*) as readings, sum((select count(*) from audit_log a where a.action = 'reading.create' and a.entity_id = r.id)) as audited
+   from readings r where r.notes like 'backup-load %'`)[0]!
 
 describe('backup and restore', () => {
   it('backs up while writes are in flight, and the restored copy matches the backup exactly', async () => {
@@ -64,13 +65,13 @@ describe('backup and restore', () => {
     expect(result.code).toBe(0)
 
     expect(integrityCheck(backup)).toBe('ok')
-    const inBackup = failurePairs(backup)
-    // Each failed sign-in writes its account row and its address row in one statement:
-    // a consistent snapshot holds both rows of every write or neither.
-    expect(inBackup.account).toBe(inBackup.address)
-    expect(inBackup.account).toBeGreaterThanOrEqual(20)
+    const inBackup = loadRows(backup)
+    // Each reading and its audit row are written in one transaction: a consistent
+    // snapshot holds both of every write or neither.
+    expect(inBackup.audited).toBe(inBackup.readings)
+    expect(inBackup.readings).toBeGreaterThanOrEqual(20)
     // Writes went on after the copy was taken, so the live file has more.
-    expect(failurePairs(own.dbPath).account).toBeGreaterThan(inBackup.account)
+    expect(loadRows(own.dbPath).readings).toBeGreaterThan(inBackup.readings)
     const backupPrint = fingerprint(backup)
     expect(backupPrint.tanks!.rows).toBeGreaterThan(0)
 
@@ -86,7 +87,8 @@ describe('backup and restore', () => {
     expect(fingerprint(own.dbPath)).toEqual(backupPrint)
     const aside = readdirSync(own.dir).filter(name => name.startsWith('test.sqlite.replaced-') && !name.endsWith('-wal') && !name.endsWith('-shm'))
     expect(aside).toHaveLength(1)
-    expect(failurePairs(join(own.dir, aside[0]!)).account).toBeGreaterThan(inBackup.account)
+    expect(loadRows(join(own.dir, aside[0]!)).readings).toBeGreaterThan(inBackup.readings)
+    expect(integrityCheck(join(own.dir, aside[0]!))).toBe('ok')
 
     await own.restart()
     const api = await new ApiClient(own.server.baseURL).signIn('client@tidewright.test')
