@@ -20,7 +20,9 @@ async function shipped(page: Page, action: () => Promise<void>): Promise<{ js: n
   }
   page.on('response', listener)
   await action()
-  await page.waitForLoadState('networkidle')
+  // Not 'networkidle': a signed-in page keeps its notification stream open.
+  await page.waitForLoadState('load')
+  await page.waitForTimeout(1500)
   page.off('response', listener)
   const all = (await Promise.all(bodies)).filter(b => b !== null)
   const size = (type: string) => all.filter(b => b.type === type).reduce((sum, b) => sum + gzipSync(b.bytes, { level: 9 }).length, 0)
@@ -40,7 +42,7 @@ export async function runFrontendBench(bench: BenchServer): Promise<Row[]> {
     await page.getByLabel('Password').fill('tidewright-demo')
     await page.getByRole('button', { name: 'Sign in' }).click()
     await page.waitForURL(url => !url.pathname.startsWith('/login'))
-    await page.waitForLoadState('networkidle')
+    await page.waitForLoadState('load')
 
     // A fresh page (cold cache) straight onto the tank with a year of data.
     const tankPage = await context.newPage()

@@ -41,7 +41,11 @@ async function main() {
     for (const r of await runEngineBench()) rows.push({ area: 'Engine', name: r.name, value: r.value, unit: r.unit === 'ratio' ? 'x' : r.unit })
     if (existsSync(new URL('./tank-page.bench.ts', import.meta.url))) {
       const { runTankPageBench } = await import('./tank-page.bench') as { runTankPageBench: () => Promise<{ name: string, value: number, unit: string }[]> }
-      for (const r of await runTankPageBench()) rows.push({ area: 'Tank page', name: r.name, value: r.value, unit: r.unit === 'ratio' ? 'x' : r.unit })
+      // It prints its own lines as well; keep this run to one table.
+      const log = console.log
+      console.log = () => {}
+      const results = await runTankPageBench().finally(() => { console.log = log })
+      for (const r of results) rows.push({ area: 'Tank page', name: r.name, value: r.value, unit: r.unit === 'ratio' ? 'x' : r.unit })
     }
   }
   if (ONLY.has('api') || ONLY.has('frontend')) {

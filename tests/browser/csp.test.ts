@@ -11,7 +11,16 @@ import { launchBrowser, openPage, signInThroughForm } from '../support/browser'
 
 const { demo } = inject('fixtures')
 /** A demo id for each route parameter, by the folder it sits in. */
-const PARAMS: Record<string, string> = { tanks: demo.tanks.lounge, clients: demo.clients.lowe }
+const PARAMS: Record<string, string> = {
+  'tanks': demo.tanks.lounge,
+  'edit': demo.tanks.lounge,
+  'tank-history': demo.tanks.lounge,
+  'tank-tests': demo.tanks.lounge,
+  'reviews': demo.tanks.lounge,
+  'clients': demo.clients.lowe,
+  // Well-formed, unknown: the page shows that no sign-off carries it.
+  'verify': 'TW-0000-0000-0000-0000-0000-0000',
+}
 
 function pages(dir = 'app/pages'): string[] {
   return readdirSync(dir).flatMap((name) => {
@@ -84,7 +93,9 @@ describe('the content security policy', () => {
       await signInThroughForm(page, persona)
       for (const url of urls.filter((u): u is string => u !== null && u !== '/login')) {
         const response = await page.goto(url)
-        await page.waitForLoadState('networkidle')
+        // Not 'networkidle': signed-in pages keep their notification stream open.
+        await page.waitForLoadState('load')
+        await page.waitForTimeout(500)
         const csp = response?.headers()['content-security-policy'] ?? ''
         // A client opening a staff page gets the not-found page; that page runs under the policy too.
         expect(csp, url).toContain("default-src 'self'")
@@ -94,8 +105,10 @@ describe('the content security policy', () => {
       expect(violations).toEqual([])
       const cspErrors = problems.filter(p => /content security policy|refused to (load|execute|apply)/i.test(p))
       expect(cspErrors).toEqual([])
-      // Clients get 404 pages for staff-only pages; nothing else may go wrong.
-      expect(problems.filter(p => !/^404 /.test(p))).toEqual([])
+      // Staff-only pages answer a client with 403/404 and some pages probe for ids they are
+      // not given; those HTTP answers are the feature tests' business. Script errors are not.
+      const httpAnswers = /^4\d\d |Failed to load resource: the server responded with a status of 4\d\d/
+      expect(problems.filter(p => !httpAnswers.test(p))).toEqual([])
       await context.close()
     })
   }
