@@ -16,13 +16,13 @@ interface Case {
   floor: { method: 'GET' | 'POST', path: string, body?: () => string }
 }
 
-interface Measured { rps: number, p50: number, p99: number, non2xx: number, errors: number }
+interface Measured { rps: number, p50: number, p99: number, non2xx: number, errors: number, timeouts: number }
 
 function run(url: string, method: 'GET' | 'POST', connections: number, seconds: number, headers: Record<string, string>, body?: string): Promise<Measured> {
   return new Promise((resolve, reject) => {
     autocannon({ url, method, connections, duration: seconds, headers, body, pipelining: 1 }, (error, result) => {
       if (error) return reject(error)
-      resolve({ rps: result.requests.average, p50: result.latency.p50, p99: result.latency.p99, non2xx: result.non2xx, errors: result.errors })
+      resolve({ rps: result.requests.average, p50: result.latency.p50, p99: result.latency.p99, non2xx: result.non2xx, errors: result.errors - result.timeouts, timeouts: result.timeouts })
     })
   })
 }
@@ -63,7 +63,7 @@ export async function runApiBench(bench: BenchServer, seconds: number): Promise<
       }
       rows.push({
         area: 'API', name: `${c.name} @${connections}`, value: route.rps, unit: 'req/s',
-        reference: { name: `floor ${floor.rps.toFixed(0)} req/s; p50/p99 ${route.p50}/${route.p99} ms (floor ${floor.p50}/${floor.p99})`, value: floor.rps },
+        reference: { name: `floor ${floor.rps.toFixed(0)} req/s; p50/p99 ${route.p50}/${route.p99} ms (floor ${floor.p50}/${floor.p99})${route.rps === 0 ? `; no request finished within ${seconds} s` : ''}`, value: floor.rps },
         ratio: route.rps / floor.rps, aim: '>= 0.50',
       })
     }

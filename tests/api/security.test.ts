@@ -97,3 +97,30 @@ describe('uploaded files', () => {
     expect(existsSync(join(own.dir, 'uploads'))).toBe(true)
   })
 })
+
+describe('password rules on reset', () => {
+  it('refuses short passwords and the e-mail address, accepts a good one once, and never logs either', async () => {
+    const email = 'client3@tidewright.test'
+    const anonymous = new ApiClient(own.server.baseURL)
+    expect((await anonymous.post('/api/auth/forgot-password', { email })).status).toBe(200)
+    // No SMTP server here: the message waits in the outbox, where the link can be read.
+    const [mail] = queryFile<{ text_body: string }>(own.dbPath, `select text_body from mail_outbox where to_address = ? and kind = 'reset' order by created_at desc limit 1`, email)
+    const token = /reset-password\?token=([\w-]+)/.exec(mail!.text_body)![1]!
+    const short = await anonymous.post('/api/auth/reset-password', { token, password: 'short-pw' })
+    expect(short.status).toBe(400)
+    expect(short.body.data.issues).toEqual([{ field: 'password', message: 'Use at least 10 characters.' }])
+    const own_email = await anonymous.post('/api/auth/reset-password', { token, password: email })
+    expect(own_email.status).toBe(400)
+    expect(JSON.stringify(own_email.body)).not.toContain(email)
+    const good = 'tide-pool-lantern-42'
+    const ok = await anonymous.post('/api/auth/reset-password', { token, password: good })
+    expect(ok.status).toBe(200)
+    expect((await anonymous.post('/api/auth/reset-password', { token, password: 'another-good-password' })).status).toBe(410)
+    expect((await new ApiClient(own.server.baseURL).post('/api/auth/login', { email, password: good })).status).toBe(200)
+    const log = own.server.output()
+    expect(log).not.toContain(good)
+    expect(log).not.toContain(token)
+    // Only a hash of the token is stored.
+    expect(queryFile(own.dbPath, 'select 1 from auth_tokens where token_hash = ?', token)).toEqual([])
+  })
+})
