@@ -82,13 +82,6 @@ export default defineNuxtConfig({
     // honest notes that contain angle brackets.
     xssValidator: false,
   },
-  nitro: {
-    // Uploaded files: never under public/, served only through /api/uploads/:id after an access check.
-    // The directory comes from NUXT_UPLOADS_DIR at start; S3-compatible storage: DEVELOPERS.md, "Uploads".
-    storage: {
-      uploads: { driver: 'fs', base: './data/uploads' },
-    },
-  },
   routeRules: {
     // A year of twice-daily readings is ~50 kB; bulk imports of 100,000 rows are ~8 MB.
     // Only the import route accepts large bodies; everything else keeps the 2 MB default.
@@ -99,6 +92,11 @@ export default defineNuxtConfig({
   // main.css carries the @tailwind layers; the module must not inject a second copy.
   tailwindcss: { cssPath: false },
   nitro: {
+    // Uploaded files: never under public/, served only through /api/uploads/:id after an access check.
+    // The directory comes from NUXT_UPLOADS_DIR at start; S3-compatible storage: DEVELOPERS.md, "Uploads".
+    storage: {
+      uploads: { driver: 'fs', base: './data/uploads' },
+    },
     // The certificate PDF embeds our own font; only the two faces it uses are bundled.
     serverAssets: [{
       baseName: 'fonts',

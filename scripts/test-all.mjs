@@ -9,13 +9,19 @@ const CHROMIUM = process.env.CHROMIUM_PATH || '/usr/bin/chromium'
 
 if (!existsSync('node_modules/.bin/nuxt')) run('npm ci')
 
-if (!existsSync(CHROMIUM)) {
+// Debian packages the suite needs: Chromium for the browser tier, pdftotext to read certificates.
+const hasCommand = name => spawnSync('sh', ['-c', `command -v ${name}`]).status === 0
+const missing = [
+  ...(existsSync(CHROMIUM) ? [] : ['chromium']),
+  ...(hasCommand('pdftotext') ? [] : ['poppler-utils']),
+]
+if (missing.length) {
   if (process.getuid?.() === 0) {
-    console.log('Chromium is missing: installing Debian\'s chromium package.')
-    run('apt-get update -qq && DEBIAN_FRONTEND=noninteractive apt-get install -y -qq chromium')
+    console.log(`Installing Debian packages the tests need: ${missing.join(', ')}`)
+    run(`apt-get update -qq && DEBIAN_FRONTEND=noninteractive apt-get install -y -qq ${missing.join(' ')}`)
   }
   else {
-    console.error(`The browser tests need Chromium at ${CHROMIUM}. Install it (sudo apt-get install chromium) or set CHROMIUM_PATH.`)
+    console.error(`The tests need these Debian packages: ${missing.join(', ')}. Install them (sudo apt-get install ${missing.join(' ')}); Chromium may also be given by CHROMIUM_PATH.`)
     process.exit(1)
   }
 }

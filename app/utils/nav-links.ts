@@ -14,10 +14,10 @@ export const NAV_LINKS: readonly NavLink[] = [
   { to: '/', label: 'Tanks', roles: EVERYONE },
   { to: '/clients', label: 'Clients', roles: STAFF },
   { to: '/plan-template', label: 'Plan template', roles: ['admin'] },
+  { to: '/reviews', label: 'Reviews', roles: ['admin', 'supervisor'] },
   { to: '/alerts', label: 'Alerts', roles: STAFF },
   { to: '/people/invite', label: 'Invite', roles: ['admin', 'aquarist'] },
   { to: '/admin/mail', label: 'Caught mail', roles: ['admin'] },
-  { to: '/reviews', label: 'Reviews', roles: ['admin', 'supervisor'] },
 ]
 
 /** The links a role sees, with the client's wording for their own tanks. */

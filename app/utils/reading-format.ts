@@ -19,7 +19,7 @@ export function showTemperature(valueC: number | null, units: 'us' | 'metric'): 
 }
 
 /** Date and time in the reader's locale, short. */
-export function formatDateTime(iso: string | null | undefined): string {
+export function formatTestTime(iso: string | null | undefined): string {
   if (!iso) return '—'
   return new Date(iso).toLocaleString(undefined, { day: 'numeric', month: 'short', hour: '2-digit', minute: '2-digit' })
 }

@@ -15,6 +15,7 @@ export function syncAlerts(tankId: string, verdict: Verdict, options: { readingI
   for (const alert of result.opened) writeAudit(by(alert.organisationId), { action: 'alert.open', entity: 'alert', entityId: alert.id, after: { kind: alert.kind, tankId: alert.tankId, readingId: alert.openedByReadingId } })
   for (const alert of result.resolved) writeAudit(by(alert.organisationId), { action: 'alert.resolve', entity: 'alert', entityId: alert.id, after: { status: 'resolved', by: 'reading', readingId: options.readingId ?? null } })
   announceNotices(result.notifiedUserIds)
+  if (result.notifiedUserIds.length) kickMailWorker()
   return result
 }
 

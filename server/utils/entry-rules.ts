@@ -5,6 +5,7 @@
  */
 import type { Actor } from './access'
 import { canManageTank } from './access'
+import { assertEntryUnlocked, lockedUntil } from './sign-off-lock'
 
 /** A client may fix their own entries for this long after entering them. */
 export const CLIENT_EDIT_WINDOW_MS = 24 * 3_600_000
@@ -19,22 +20,40 @@ export interface EditableEntry {
   at: string
 }
 
-/** Why the actor may not change the entry now, or null if they may. */
-export function editRefusal(actor: Actor, tank: { id: string, organisationId: string }, entry: EditableEntry, now = new Date()): string | null {
+/**
+ * Why the actor may not change the entry now, or null if they may. `locked` is the end of
+ * the signed-off period (lockedUntil), passed in so a list asks the database once.
+ */
+export function editRefusal(actor: Actor, tank: { id: string, organisationId: string }, entry: EditableEntry, now = new Date(), locked: string | null = null): string | null {
+  if (locked && Date.parse(entry.at) <= Date.parse(locked)) return 'This entry is in the signed-off period; add a correction with a reason instead.'
   if (actor.role === 'client') {
     if (entry.enteredBy !== actor.id) return 'You can change only the entries you made. Ask your aquarist to correct this one.'
     if (now.getTime() - Date.parse(entry.createdAt) > CLIENT_EDIT_WINDOW_MS) return 'Entries can be fixed for 24 hours. Ask your aquarist to correct this one.'
     return null
   }
   if (!canManageTank(actor, tank)) return 'Your role may not change entries.'
-  // A sign-off lock check belongs here: refuse when entry.at falls inside a signed period.
   return null
 }
 
-/** Throws 403 unless the actor may edit or delete this reading or event now. */
+/**
+ * Throws 403 unless the actor may edit or delete this reading or event now, and 409 when
+ * the entry lies in a signed-off period (server/utils/sign-off-lock.ts). An edit that moves the entry to another time also
+ * calls assertWritableAt with the new time.
+ */
 export function assertEditable(actor: Actor, tank: { id: string, organisationId: string }, entry: EditableEntry, now = new Date()): void {
   const refusal = editRefusal(actor, tank, entry, now)
   if (refusal) throw createError({ statusCode: 403, statusMessage: refusal })
+  assertEntryUnlocked(tank.id, entry.at)
+}
+
+/** A new or moved entry may not be written into a signed-off period (409). */
+export function assertWritableAt(tankId: string, at: string): void {
+  assertEntryUnlocked(tankId, at)
+}
+
+/** The end of the tank's signed-off period, or null. */
+export function tankLockedUntil(tankId: string): string | null {
+  return lockedUntil(tankId)
 }
 
 /** 400 with field messages from the shared entry conversion. */

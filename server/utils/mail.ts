@@ -87,3 +87,10 @@ export async function deliverDueMail(now = new Date(), limit = 50): Promise<Deli
     running = null
   }
 }
+
+/** Starts a delivery round right away (after the current request), so new mail need not wait for the next interval. */
+export function kickMailWorker(): void {
+  setTimeout(() => {
+    deliverDueMail().catch(error => console.error('Tidewright mail:', error instanceof Error ? error.message : error))
+  }, 0)
+}

@@ -51,6 +51,9 @@ export function planImport(tankId: string, input: ReadingImportInput): ImportPla
     (useDB().$client.prepare('SELECT import_key FROM readings WHERE tank_id = ? AND import_key IS NOT NULL').pluck().all(tankId) as string[]),
   )
   const now = new Date()
+  // Rows inside a signed-off period would change what the supervisor signed: refused per row.
+  const locked = tankLockedUntil(tankId)
+  const lockedMs = locked ? Date.parse(locked) : Number.NEGATIVE_INFINITY
   const options = { basis: input.basis, temperatureUnit: input.temperatureUnit, salinityMode: input.salinityMode, sgBasis: input.sgBasis }
   const rows: ImportPlan['rows'] = []
   const errors: ImportRowError[] = []
@@ -67,6 +70,7 @@ export function planImport(tankId: string, input: ReadingImportInput): ImportPla
     if ('issues' in mapped) return report(row, mapped.issues)
     const result = toCanonicalReading(mapped.entry, now)
     if (!result.ok) return report(row, result.issues)
+    if (Date.parse(result.reading.takenAt) <= lockedMs) return report(row, [{ field: 'takenAt', message: 'This test falls in the signed-off period and cannot be imported.' }])
     const key = importKeyOf(result.reading)
     if (existing.has(key) || seen.has(key)) { duplicates++; return }
     seen.add(key)

@@ -7,14 +7,14 @@ import type { CanonicalEvent } from '#shared/readings/events'
 import type { EventList, EventView, ReadingList, ReadingView } from '#shared/types/readings'
 import { events, readings, uploads, users } from '../db/schema'
 import type { Actor } from './access'
-import { editRefusal } from './entry-rules'
+import { editRefusal, tankLockedUntil } from './entry-rules'
 
 type ReadingRow = typeof readings.$inferSelect
 type EventRow = typeof events.$inferSelect
 type Tank = { id: string, organisationId: string }
 
 /** A stored reading as the API shows it. */
-export function toReadingView(row: ReadingRow, enteredByName: string | null, actor: Actor, tank: Tank, now = new Date()): ReadingView {
+export function toReadingView(row: ReadingRow, enteredByName: string | null, actor: Actor, tank: Tank, now = new Date(), locked: string | null = tankLockedUntil(tank.id)): ReadingView {
   const values = {
     ammoniaN: row.ammoniaN, nitriteN: row.nitriteN, nitrateN: row.nitrateN, pH: row.pH, temperatureC: row.temperatureC,
     salinity: row.salinity, alkalinityDkh: row.alkalinityDkh, calciumMgL: row.calciumMgL, magnesiumMgL: row.magnesiumMgL, phosphateMgL: row.phosphateMgL,
@@ -29,13 +29,13 @@ export function toReadingView(row: ReadingRow, enteredByName: string | null, act
     enteredByName,
     createdAt: row.createdAt,
     updatedAt: row.updatedAt,
-    canEdit: editRefusal(actor, tank, { enteredBy: row.enteredBy, createdAt: row.createdAt, at: row.takenAt }, now) === null,
+    canEdit: editRefusal(actor, tank, { enteredBy: row.enteredBy, createdAt: row.createdAt, at: row.takenAt }, now, locked) === null,
     flags: flagsForValues(values),
   }
 }
 
 /** A stored event as the API shows it. */
-export function toEventView(row: EventRow, enteredByName: string | null, actor: Actor, tank: Tank, now = new Date()): EventView {
+export function toEventView(row: EventRow, enteredByName: string | null, actor: Actor, tank: Tank, now = new Date(), locked: string | null = tankLockedUntil(tank.id)): EventView {
   return {
     id: row.id,
     at: row.at,
@@ -46,7 +46,7 @@ export function toEventView(row: EventRow, enteredByName: string | null, actor: 
     enteredBy: row.enteredBy,
     enteredByName,
     createdAt: row.createdAt,
-    canEdit: editRefusal(actor, tank, { enteredBy: row.enteredBy, createdAt: row.createdAt, at: row.at }, now) === null,
+    canEdit: editRefusal(actor, tank, { enteredBy: row.enteredBy, createdAt: row.createdAt, at: row.at }, now, locked) === null,
   }
 }
 
@@ -75,7 +75,8 @@ export function listReadings(actor: Actor, tank: Tank, query: ReadingListQuery):
     .limit(query.pageSize).offset((query.page - 1) * query.pageSize).all()
   const total = useDB().select({ n: sql<number>`count(*)` }).from(readings).where(where).get()?.n ?? 0
   const now = new Date()
-  return { items: rows.map(r => toReadingView(r.reading, r.name, actor, tank, now)), total, page: query.page, pageSize: query.pageSize }
+  const locked = tankLockedUntil(tank.id)
+  return { items: rows.map(r => toReadingView(r.reading, r.name, actor, tank, now, locked)), total, page: query.page, pageSize: query.pageSize }
 }
 
 const EVENT_SORT = { at: events.at, kind: events.kind, createdAt: events.createdAt } as const
@@ -94,7 +95,8 @@ export function listEvents(actor: Actor, tank: Tank, query: EventListQuery): Eve
     .limit(query.pageSize).offset((query.page - 1) * query.pageSize).all()
   const total = useDB().select({ n: sql<number>`count(*)` }).from(events).where(where).get()?.n ?? 0
   const now = new Date()
-  return { items: rows.map(r => toEventView(r.event, r.name, actor, tank, now)), total, page: query.page, pageSize: query.pageSize }
+  const locked = tankLockedUntil(tank.id)
+  return { items: rows.map(r => toEventView(r.event, r.name, actor, tank, now, locked)), total, page: query.page, pageSize: query.pageSize }
 }
 
 /** The reading row of this tank, or a 404. */

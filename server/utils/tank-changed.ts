@@ -15,7 +15,7 @@ export interface TankChange {
  */
 export function onTankDataChanged(tankId: string, change: TankChange = {}): Verdict | undefined {
   const verdict = refreshVerdict(tankId, change.now)
-  if (verdict) syncAlerts(tankId, verdict, { readingId: change.readingId, now: change.now, actor: change.actor })
   advanceToStockingIfLivestock(tankId)
+  if (verdict) syncAlerts(tankId, verdict, { readingId: change.readingId, now: change.now, actor: change.actor })
   return verdict
 }

@@ -206,3 +206,32 @@ describe('test reminders', () => {
     expect(reminders(mail).at(-1)!.text).toContain(`/tanks/${study}`)
   })
 })
+
+describe('notifications and preferences', () => {
+  it('keeps each user\'s notices their own and marks them read', async () => {
+    expect((await new ApiClient().get('/api/notifications')).status).toBe(401)
+    const aquarist2 = await signedIn('aquarist2@tidewright.test')
+    const mine = (await aquarist2.get<NotificationList>('/api/notifications')).body
+    expect(mine.items.length).toBeGreaterThan(0)
+    const first = mine.items.find(n => !n.readAt) ?? mine.items[0]!
+    const other = await signedIn('aquarist@tidewright.test')
+    expect((await other.post(`/api/notifications/${first.id}/read`)).status).toBe(404)
+    const read = await aquarist2.post(`/api/notifications/${first.id}/read`)
+    expect(read.status).toBe(200)
+    expect(read.body.unread).toBe(mine.unread - (first.readAt ? 0 : 1))
+    expect((await aquarist2.post('/api/notifications/read-all')).body.unread).toBe(0)
+  })
+
+  it('refuses unknown notice kinds and non-boolean choices with 400', async () => {
+    const api = await signedIn('client3@tidewright.test')
+    const bad = await api.request('PUT', '/api/me/notification-preferences', { emailKinds: { 'free-pizza': true } })
+    expect(bad.status).toBe(400)
+    const notBool = await api.request('PUT', '/api/me/notification-preferences', { emailKinds: { 'test-reminder': 'sometimes' } })
+    expect(notBool.status).toBe(400)
+    expect((await new ApiClient().request('PUT', '/api/me/notification-preferences', { emailKinds: {} })).status).toBe(401)
+    const off = await api.request('PUT', '/api/me/notification-preferences', { emailKinds: { 'test-reminder': false } })
+    expect(off.body.emailKinds).toEqual({ 'test-reminder': false })
+    const items = (await api.get('/api/me/notification-preferences')).body.items
+    expect(items.find((p: { kind: string }) => p.kind === 'test-reminder')).toMatchObject({ email: false, locked: false })
+  })
+})

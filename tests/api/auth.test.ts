@@ -1,5 +1,6 @@
 import { describe, expect, inject, it } from 'vitest'
 import { ApiClient } from '../support/http'
+import { LOCKOUT_EMAIL, PASSWORD } from '../support/fixtures'
 
 describe('POST /api/auth/login', () => {
   it('signs a demo user in and returns their id, name and role only', async () => {
@@ -66,13 +67,14 @@ describe('POST /api/auth/login', () => {
 
   it('slows and then refuses repeated failures on one account with 429 and Retry-After', async () => {
     const api = new ApiClient()
-    const email = 'aquarist2@tidewright.test'
+    // A dedicated account: the lock lasts the whole window, and other test files sign in as the demo staff.
+    const email = LOCKOUT_EMAIL
     const statuses: number[] = []
     for (let i = 0; i < 8; i++) {
       statuses.push((await api.post('/api/auth/login', { email, password: `guess-${i}` })).status)
     }
     expect(statuses).toEqual(Array(8).fill(401))
-    const refused = await api.post('/api/auth/login', { email, password: 'tidewright-demo' })
+    const refused = await api.post('/api/auth/login', { email, password: PASSWORD })
     expect(refused.status).toBe(429)
     expect(Number(refused.headers.get('retry-after'))).toBeGreaterThan(0)
     // Another account from the same address is not locked out by this one.

@@ -316,3 +316,33 @@ describe('CSV import and export', () => {
     expect(noDate.body.data.issues[0].field).toBe('mapping.takenAt')
   })
 })
+
+describe('the signed-off period', () => {
+  it('locks readings and events up to the sign-off: edits, deletes and back-dated entries are 409', async () => {
+    const api = await signedIn(OTHER_AQUARIST_EMAIL)
+    const tank = other.tankId
+    const old = await api.post<ReadingSaved>(`/api/tanks/${tank}/readings`, reading({ takenAt: hoursAgo(3) }))
+    const oldEvent = await api.post<EventView>(`/api/tanks/${tank}/events`, { at: hoursAgo(3), kind: 'note', notes: 'before sign-off' })
+    const signOffId = crypto.randomUUID()
+    db.prepare(`INSERT INTO sign_offs (id, organisation_id, tank_id, requested_at, status, decided_at, created_at, updated_at) VALUES (?, ?, ?, ?, 'approved', ?, ?, ?)`)
+      .run(signOffId, other.organisationId, tank, hoursAgo(2), hoursAgo(1), hoursAgo(1), hoursAgo(1))
+    try {
+      expect((await api.patch(`/api/tanks/${tank}/readings/${old.body.reading.id}`, { nitrite: 0 })).status).toBe(409)
+      expect((await api.delete(`/api/tanks/${tank}/readings/${old.body.reading.id}`)).status).toBe(409)
+      expect((await api.delete(`/api/tanks/${tank}/events/${oldEvent.body.id}`)).status).toBe(409)
+      expect((await api.post(`/api/tanks/${tank}/readings`, reading({ takenAt: hoursAgo(2) }))).status).toBe(409)
+      const listed = await api.get<ReadingList>(`/api/tanks/${tank}/readings`)
+      expect(listed.body.items.find(r => r.id === old.body.reading.id)?.canEdit).toBe(false)
+      const fresh = await api.post<ReadingSaved>(`/api/tanks/${tank}/readings`, reading({ takenAt: hoursAgo(0.5) }))
+      expect(fresh.status).toBe(201)
+      expect((await api.patch(`/api/tanks/${tank}/readings/${fresh.body.reading.id}`, { takenAt: hoursAgo(2) })).status).toBe(409)
+      const csv = `taken_at,ammonia_mg_l_n\n${hoursAgo(5)},0.1\n${hoursAgo(0.2)},0.1\n`
+      const dry = await api.post<ImportPreview>(`/api/tanks/${tank}/readings/import`, { csv, dryRun: true })
+      expect(dry.body).toMatchObject({ valid: 1, errorRows: 1 })
+      expect(dry.body.errors[0]).toMatchObject({ row: 2, field: 'takenAt' })
+    }
+    finally {
+      db.prepare('DELETE FROM sign_offs WHERE id = ?').run(signOffId)
+    }
+  })
+})

@@ -2,6 +2,7 @@ import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest'
 import type { Browser } from 'playwright-core'
 import { ApiClient } from '../support/http'
 import { launchBrowser, openPage, screenshot, signInThroughForm } from '../support/browser'
+import { tokenIn, waitForMail } from '../support/mail'
 
 let browser: Browser
 beforeAll(async () => {
@@ -83,6 +84,42 @@ describe('live notifications', () => {
     await expect.poll(() => page.getByLabel(/Danger alerts/).isVisible()).toBe(true)
     await screenshot(page, 'preferences-375')
     expect(await page.evaluate(() => document.documentElement.scrollWidth)).toBeLessThanOrEqual(375)
+    expect(problems).toEqual([])
+    await context.close()
+  })
+
+  it('an invited client chooses a password through the e-mailed link and lands on their tanks (375 px)', async () => {
+    const email = 'ines.hart@tidewright.test'
+    const admin = await new ApiClient().signIn('admin@tidewright.test')
+    expect((await admin.post('/api/invitations', { email, name: 'Ines Hart', role: 'client', clientId: demo.clients.hart })).status).toBe(201)
+    const mail = await waitForMail('invitation', all => all.find(m => m.envelopeTo.includes(email)))
+    const { page, context, problems } = await openPage(browser, 375)
+    await page.goto(`/accept-invite?token=${tokenIn(mail.text, '/accept-invite')}`)
+    await expect.poll(() => page.getByText(`Choose a password for ${email}`).isVisible()).toBe(true)
+    await page.getByLabel('New password').fill(email)
+    await page.getByLabel('Repeat the password').fill(email)
+    await page.getByRole('button', { name: 'Set password and sign in' }).click()
+    await expect.poll(() => page.getByText('Do not use your e-mail address as your password.').isVisible()).toBe(true)
+    await screenshot(page, 'accept-invite-375')
+    await page.getByLabel('New password').fill('brine-shrimp-harbour')
+    await page.getByLabel('Repeat the password').fill('brine-shrimp-harbour')
+    await page.getByRole('button', { name: 'Set password and sign in' }).click()
+    await page.waitForURL(url => url.pathname === '/')
+    await expect.poll(() => page.getByText('Fernhill study reef').isVisible()).toBe(true)
+    expect(problems).toEqual([])
+    await context.close()
+  })
+
+  it('the admin reads the caught mail, including the seeded alert\'s e-mail (1280 px)', async () => {
+    const { page, context, problems } = await openPage(browser, 1280)
+    await signInThroughForm(page, 'admin@tidewright.test')
+    await page.getByRole('link', { name: 'Caught mail' }).click()
+    await page.waitForURL(/\/admin\/mail$/)
+    const message = page.getByRole('button', { name: /Danger on Fernhill study reef/ }).first()
+    await expect.poll(() => message.isVisible()).toBe(true)
+    await message.click()
+    await expect.poll(() => page.getByText('What to do:').first().isVisible()).toBe(true)
+    await screenshot(page, 'caught-mail-1280')
     expect(problems).toEqual([])
     await context.close()
   })

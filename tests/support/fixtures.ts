@@ -24,6 +24,8 @@ export interface Fixtures {
 export const PASSWORD = DEMO_PASSWORD
 export const OTHER_AQUARIST_EMAIL = 'aquarist@other-company.test'
 export const OTHER_CLIENT_EMAIL = 'client@other-company.test'
+/** An account only the sign-in throttling test uses: it gets locked out, so no other test may sign in with it. */
+export const LOCKOUT_EMAIL = 'lockout@other-company.test'
 
 /** A second company with one aquarist, one client and one tank. */
 export async function seedOtherCompany(db: TidewrightDB): Promise<OtherCompanyIds> {
@@ -33,6 +35,7 @@ export async function seedOtherCompany(db: TidewrightDB): Promise<OtherCompanyId
     const client = tx.insert(clients).values({ organisationId: org.id, name: 'Ansel Brookmoor' }).returning().get()
     const aquarist = tx.insert(users).values({ organisationId: org.id, email: OTHER_AQUARIST_EMAIL, name: 'Juno Pellworth', role: 'aquarist', passwordHash }).returning().get()
     const clientUser = tx.insert(users).values({ organisationId: org.id, email: OTHER_CLIENT_EMAIL, name: 'Ansel Brookmoor', role: 'client', clientId: client.id, passwordHash }).returning().get()
+    tx.insert(users).values({ organisationId: org.id, email: LOCKOUT_EMAIL, name: 'Tamsin Orrell', role: 'aquarist', passwordHash }).run()
     const tank = tx.insert(tanks).values({
       organisationId: org.id, clientId: client.id, name: 'Brookmoor hall reef', volumeLitres: 400,
       status: 'cycling', aquaristId: aquarist.id, cycleStartedAt: new Date().toISOString(),

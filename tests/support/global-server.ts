@@ -38,7 +38,7 @@ export async function setup(project: TestProject) {
   db.$client.close()
   // The real SMTP path: the server's worker sends to a local catcher, as in the demo.
   catcher = await startMailCatcher({ port: 0, file: join(dir, 'mail.jsonl'), controlPort: 0 })
-  server = await startServer({ dbPath, env: { ...mailCatcherEnv(catcher), NUXT_UPLOADS_DIR: join(dir, 'uploads') } })
+  server = await startServer({ dbPath, env: { NUXT_UPLOADS_DIR: join(dir, 'uploads'), ...mailCatcherEnv(catcher) } })
   project.provide('baseURL', server.baseURL)
   project.provide('dbPath', dbPath)
   project.provide('fixtures', fixtures)

@@ -20,6 +20,7 @@ export default defineEventHandler(async (event) => {
       enqueueMail(t, { organisationId: user.organisationId, to: user.email, kind: 'reset', ...words }, now)
     })
     writeAudit({ id: user.id, organisationId: user.organisationId }, { action: 'user.reset-requested', entity: 'user', entityId: user.id })
+    kickMailWorker()
   }
   return { message: ANSWER }
 })

@@ -35,6 +35,7 @@ export default defineEventHandler(async (event) => {
     return created
   })
   writeAudit(actor, { action: 'user.invite', entity: 'user', entityId: user.id, after: { email: user.email, role: user.role, clientId: user.clientId } })
+  kickMailWorker()
   setResponseStatus(event, 201)
   return { user: { id: user.id, email: user.email, name: user.name, role: user.role } }
 })

@@ -19,6 +19,7 @@ export default defineEventHandler(async (event): Promise<EventView> => {
   const merged = { ...start, ...Object.fromEntries(Object.entries(patch).filter(([, value]) => value !== undefined)) } as EventInput
   const result = toCanonicalEvent(merged)
   if (!result.ok) fieldError(result.issues)
+  assertWritableAt(tank.id, result.event.at)
   const db = useDB()
   const row = db.transaction(() => {
     const updated = db.update(events).set(eventColumns(result.event)).where(eq(events.id, existing.id)).returning().get()

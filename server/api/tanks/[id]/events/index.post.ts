@@ -16,6 +16,7 @@ export default defineEventHandler(async (event): Promise<EventView> => {
   const input = await readValidatedBody(event, valid(EventInputSchema))
   const result = toCanonicalEvent(input)
   if (!result.ok) fieldError(result.issues)
+  assertWritableAt(tank.id, result.event.at)
   const db = useDB()
   const row = db.transaction(() => {
     const inserted = db.insert(events).values({ tankId: tank.id, enteredBy: actor.id, ...eventColumns(result.event) }).returning().get()

@@ -20,6 +20,7 @@ export default defineEventHandler(async (event): Promise<ReadingSaved> => {
   const merged = { ...start, ...Object.fromEntries(Object.entries(patch).filter(([, value]) => value !== undefined)) }
   const result = toCanonicalReading(merged)
   if (!result.ok) fieldError(result.issues)
+  assertWritableAt(tank.id, result.reading.takenAt)
   const db = useDB()
   const row = db.transaction(() => {
     const updated = db.update(readings).set(readingColumns(result.reading)).where(eq(readings.id, existing.id)).returning().get()

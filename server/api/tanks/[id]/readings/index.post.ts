@@ -17,6 +17,7 @@ export default defineEventHandler(async (event): Promise<ReadingSaved> => {
   const input = await readValidatedBody(event, valid(ReadingInputSchema))
   const result = toCanonicalReading(input)
   if (!result.ok) fieldError(result.issues)
+  assertWritableAt(tank.id, result.reading.takenAt)
   const db = useDB()
   const row = db.transaction(() => {
     const inserted = db.insert(readings).values({ tankId: tank.id, enteredBy: actor.id, ...readingColumns(result.reading) }).returning().get()
