@@ -5,7 +5,6 @@
  * database. Aim: within 2x of the floor's rows/s.
  */
 import { randomUUID } from 'node:crypto'
-import { copyFileSync } from 'node:fs'
 import { join } from 'node:path'
 import { performance } from 'node:perf_hooks'
 import Database from 'better-sqlite3'

@@ -35,7 +35,9 @@ export async function runFrontendBench(bench: BenchServer): Promise<Row[]> {
   try {
     const context = await browser.newContext({ baseURL: bench.server.baseURL, viewport: { width: 1280, height: 900 } })
     const page = await context.newPage()
-    const login = await shipped(page, async () => { await page.goto('/login') })
+    const login = await shipped(page, async () => {
+      await page.goto('/login')
+    })
     rows.push({ area: 'Front end', name: `sign-in page: JS shipped (${login.files} files)`, value: login.js / 1024, unit: 'kB gzip' })
     rows.push({ area: 'Front end', name: 'sign-in page: CSS shipped', value: login.css / 1024, unit: 'kB gzip' })
     await page.getByLabel('E-mail').fill('client@tidewright.test')

@@ -44,7 +44,9 @@ async function main() {
       // It prints its own lines as well; keep this run to one table.
       const log = console.log
       console.log = () => {}
-      const results = await runTankPageBench().finally(() => { console.log = log })
+      const results = await runTankPageBench().finally(() => {
+        console.log = log
+      })
       for (const r of results) rows.push({ area: 'Tank page', name: r.name, value: r.value, unit: r.unit === 'ratio' ? 'x' : r.unit })
     }
   }

@@ -133,14 +133,14 @@ export async function runTankPageBench(): Promise<BenchResult[]> {
     const otherCookie = otherLogin.headers.getSetCookie().map(c => c.split(';')[0]).join('; ')
     const dryStart = performance.now()
     const dry = await fetch(`${server.baseURL}/api/tanks/${importTank}/readings/import`, {
-      method: 'POST', headers: { 'content-type': 'application/json', cookie: otherCookie },
+      method: 'POST', headers: { 'content-type': 'application/json', 'cookie': otherCookie },
       body: JSON.stringify({ csv, dryRun: true }),
     })
     await dry.text()
     const dryMs = performance.now() - dryStart
     const importStart = performance.now()
     const imported = await fetch(`${server.baseURL}/api/tanks/${importTank}/readings/import`, {
-      method: 'POST', headers: { 'content-type': 'application/json', cookie: otherCookie },
+      method: 'POST', headers: { 'content-type': 'application/json', 'cookie': otherCookie },
       body: JSON.stringify({ csv, dryRun: false }),
     })
     const importBody = await imported.json() as { inserted: number }

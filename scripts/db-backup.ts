@@ -36,7 +36,7 @@ export async function backupDatabase(source: string, target: string): Promise<Re
     const problems = (copy.pragma('integrity_check') as { integrity_check: string }[]).map(r => r.integrity_check)
     if (problems.join() !== 'ok') throw new Error(`The backup failed its integrity check: ${problems.join('; ')}`)
     const tables = copy.prepare(`select name from sqlite_master where type = 'table' and name not like 'sqlite_%' order by name`).pluck().all() as string[]
-    counts = Object.fromEntries(tables.map(t => [t, (copy.prepare(`select count(*) from "${t.replaceAll('"', '""')}"`).pluck().get() as number)]))
+    counts = Object.fromEntries(tables.map(t => [t, copy.prepare(`select count(*) from "${t.replaceAll('"', '""')}"`).pluck().get() as number]))
   }
   finally {
     copy.close()

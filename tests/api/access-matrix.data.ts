@@ -43,20 +43,20 @@ export const PERSONA_EMAIL: Record<Exclude<Persona, 'signedOut'>, string> = {
 export type Expectations = Record<Persona, number>
 
 /** How the fuzz test attacks a route's body. */
-export type FuzzPlan =
-  | 'no-body' // the route reads no body: any body must still never cause a 5xx
-  | {
+export type FuzzPlan
+  = | 'no-body' // the route reads no body: any body must still never cause a 5xx
+    | {
     /** Who sends the hostile bodies (someone allowed to use the route). */
-    as: Exclude<Persona, 'signedOut'>
-    /** The valibot schema the handler validates the body with: a body it rejects must get a 4xx and change nothing. */
-    schema: GenericSchema
-    /** A body the route accepts, mutated field by field by the fuzzer. */
-    validBody: (c: MatrixContext) => Record<string, unknown> | Promise<Record<string, unknown>>
-    /** Keep accepted fuzz bodies from reaching the route (e.g. sign-in, where accepted bodies feed the throttle). */
-    onlyRejected?: boolean
-  }
+      as: Exclude<Persona, 'signedOut'>
+      /** The valibot schema the handler validates the body with: a body it rejects must get a 4xx and change nothing. */
+      schema: GenericSchema
+      /** A body the route accepts, mutated field by field by the fuzzer. */
+      validBody: (c: MatrixContext) => Record<string, unknown> | Promise<Record<string, unknown>>
+      /** Keep accepted fuzz bodies from reaching the route (e.g. sign-in, where accepted bodies feed the throttle). */
+      onlyRejected?: boolean
+    }
   /** A multipart upload route: the fuzzer sends wrong, lying, empty, oversize and oddly named files. */
-  | { upload: true, as: Exclude<Persona, 'signedOut'> }
+    | { upload: true, as: Exclude<Persona, 'signedOut'> }
 
 /** What a matrix entry may use to build its request: the ids, signed-in sessions, the database (read-only). */
 export interface MatrixContext {
@@ -164,7 +164,7 @@ export const TINY_PNG = Buffer.from('iVBORw0KGgoAAAANSUhEUgAAAAIAAAACCAIAAAD91Jp
 
 export function fileForm(bytes: Buffer, name: string, type: string): FormData {
   const form = new FormData()
-  form.append('file', new Blob([bytes], { type }), name)
+  form.append('file', new Blob([new Uint8Array(bytes)], { type }), name)
   return form
 }
 
@@ -179,7 +179,6 @@ async function loungeUpload(c: MatrixContext, kind: 'pdf' | 'png'): Promise<stri
   uploadCache.set(kind, response.body.id)
   return response.body.id
 }
-
 
 /** A fresh open alert on the study reef (client3's tank), so each persona acts on its own. */
 let alertCounter = 0

@@ -22,7 +22,9 @@ beforeAll(async () => {
     forbidden.set(persona, persona === 'signedOut' ? forbiddenFor(own.dbPath, PERSONA_EMAIL.client).concat(forbiddenFor(own.dbPath, PERSONA_EMAIL.otherCompany)) : forbiddenFor(own.dbPath, PERSONA_EMAIL[persona]))
   }
 })
-afterAll(async () => { await own?.cleanup() })
+afterAll(async () => {
+  await own?.cleanup()
+})
 
 async function clientFor(persona: Persona, fresh: boolean): Promise<ApiClient> {
   if (persona === 'signedOut') return new ApiClient(own.server.baseURL)
@@ -73,7 +75,10 @@ async function call(key: string, entry: MatrixEntry, method: string, persona: Pe
     const text = response.status >= 400 ? await response.text() : ''
     abort.abort()
     let parsed: unknown = text
-    try { parsed = text ? JSON.parse(text) : text } catch { /* not JSON */ }
+    try {
+      parsed = text ? JSON.parse(text) : text
+    }
+    catch { /* not JSON */ }
     return { url, response: { status: response.status, headers: response.headers, body: parsed as any } }
   }
   return { url, response: await api.request(method, url, body ?? (method === 'GET' || method === 'DELETE' ? undefined : {}), headers) }

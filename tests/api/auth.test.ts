@@ -99,8 +99,8 @@ describe('security headers', () => {
   it('serves a content security policy that allows only the app\'s own origin', async () => {
     const response = await fetch(`${inject('baseURL')}/login`)
     const csp = response.headers.get('content-security-policy') ?? ''
-    expect(csp).toContain("default-src 'self'")
-    expect(csp).toContain("frame-ancestors 'none'")
+    expect(csp).toContain('default-src \'self\'')
+    expect(csp).toContain('frame-ancestors \'none\'')
     expect(csp).toMatch(/script-src 'self' 'strict-dynamic' 'nonce-[A-Za-z0-9+/=]+'/)
     expect(response.headers.get('x-content-type-options')).toBe('nosniff')
     expect(response.headers.get('access-control-allow-origin')).toBeNull()

@@ -15,15 +15,23 @@ import { startOwnServer, type OwnServer } from '../support/own-server'
 import { READING_BODY } from './access-matrix.data'
 
 let own: OwnServer
-beforeAll(async () => { own = await startOwnServer() })
-afterAll(async () => { await own?.cleanup() })
+beforeAll(async () => {
+  own = await startOwnServer()
+})
+afterAll(async () => {
+  await own?.cleanup()
+})
 
 function runScript(script: string, args: string[], env: Record<string, string>): Promise<{ code: number, output: string }> {
   return new Promise((resolve) => {
     const child = spawn(process.execPath, ['--import', 'tsx', script, ...args], { env: { ...process.env, ...env }, stdio: ['ignore', 'pipe', 'pipe'] })
     let output = ''
-    child.stdout.on('data', (c) => { output += c })
-    child.stderr.on('data', (c) => { output += c })
+    child.stdout.on('data', (c) => {
+      output += c
+    })
+    child.stderr.on('data', (c) => {
+      output += c
+    })
     child.on('exit', code => resolve({ code: code ?? 1, output }))
   })
 }
@@ -43,7 +51,10 @@ function startWriters(count: number) {
   })
   return {
     acknowledged: () => acknowledged,
-    stop: async () => { running = false; await Promise.all(loops) },
+    stop: async () => {
+      running = false
+      await Promise.all(loops)
+    },
   }
 }
 

@@ -17,8 +17,12 @@ import { startServer } from '../support/server'
 import { READING_BODY } from './access-matrix.data'
 
 let own: OwnServer
-beforeAll(async () => { own = await startOwnServer() })
-afterAll(async () => { await own?.cleanup() })
+beforeAll(async () => {
+  own = await startOwnServer()
+})
+afterAll(async () => {
+  await own?.cleanup()
+})
 
 interface Attempt { marker: string, acknowledgedId: string | null }
 

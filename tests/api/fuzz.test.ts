@@ -26,8 +26,12 @@ async function assertProperty<T>(property: fc.IAsyncProperty<T>): Promise<void> 
 }
 
 let own: OwnServer
-beforeAll(async () => { own = await startOwnServer() })
-afterAll(async () => { await own?.cleanup() })
+beforeAll(async () => {
+  own = await startOwnServer()
+})
+afterAll(async () => {
+  await own?.cleanup()
+})
 
 const sessions = new Map<Persona, ApiClient>()
 async function as(persona: Exclude<Persona, 'signedOut'>): Promise<ApiClient> {
@@ -109,7 +113,7 @@ describe('hostile request bodies', () => {
         const notMultipart = await api.post(url, { file: TINY_PDF.toString('base64') })
         expect(notMultipart.status).toBe(400)
         const wrongField = new FormData()
-        wrongField.append('photo', new Blob([TINY_PDF]), 'x.pdf')
+        wrongField.append('photo', new Blob([new Uint8Array(TINY_PDF)]), 'x.pdf')
         expect((await api.request('POST', url, wrongField)).status).toBe(400)
         expect(fingerprint(own.dbPath)).toEqual(before.db)
         expect(storedFiles()).toEqual(before.files)
@@ -122,7 +126,8 @@ describe('hostile request bodies', () => {
           const response = await api.request('POST', url, fileForm(TINY_PDF, name, 'application/pdf'))
           expect(response.status, name).toBe(201)
           const stored = queryFile<{ original_name: string, storage_key: string }>(own.dbPath, 'select original_name, storage_key from uploads where id = ?', response.body.id)[0]!
-          expect(stored.original_name).not.toMatch(/[\\/\u0000]/)
+          expect(stored.original_name).not.toMatch(/[\\/]/)
+          expect(stored.original_name.includes('\u0000')).toBe(false)
           expect(stored.original_name.length).toBeLessThanOrEqual(120)
           expect(stored.storage_key).not.toContain('..')
           const back = await api.request('GET', `/api/uploads/${response.body.id}`)

@@ -13,8 +13,12 @@ import { startOwnServer, type OwnServer } from '../support/own-server'
 import { TINY_PDF, fileForm, READING_BODY } from './access-matrix.data'
 
 let own: OwnServer
-beforeAll(async () => { own = await startOwnServer() })
-afterAll(async () => { await own?.cleanup() })
+beforeAll(async () => {
+  own = await startOwnServer()
+})
+afterAll(async () => {
+  await own?.cleanup()
+})
 
 const INTERNALS = /"stack"|\n\s+at |\bat [\w.<>]+ \(|\/work\/|\.output\/|node_modules|\/server\/(api|utils)\/|file:\/\//
 
@@ -41,10 +45,10 @@ describe('errors and logs', () => {
       await raw('/api/auth/login', { method: 'POST', headers: { 'content-type': 'application/json' }, body: JSON.stringify({ email: 'a@b.test', password: 'x'.repeat(3_000_000) }) }),
       await raw('/api/auth/login', { method: 'POST', headers: { 'content-type': 'application/xml' }, body: '<login/>' }),
       await raw('/api/no-such-route', { method: 'PUT' }),
-      await raw(`/api/tanks/${demo.tanks.lounge}/readings`, { method: 'POST', headers: { 'content-type': 'application/json', cookie: aquarist.cookieHeader() }, body: '{"takenAt": {"$gt": ""}, "ammonia": "1e999"}' }),
+      await raw(`/api/tanks/${demo.tanks.lounge}/readings`, { method: 'POST', headers: { 'content-type': 'application/json', 'cookie': aquarist.cookieHeader() }, body: '{"takenAt": {"$gt": ""}, "ammonia": "1e999"}' }),
       await raw(`/api/tanks/${demo.tanks.lounge}/readings?page=-1&pageSize=1e9&sort=__proto__`, { headers: { cookie: aquarist.cookieHeader() } }),
       await raw(`/api/uploads/00000000-0000-4000-8000-000000000000`, { headers: { cookie: aquarist.cookieHeader() } }),
-      await raw(`/api/tanks/${demo.tanks.lounge}/stages/00000000-0000-4000-8000-000000000000/uploads`, { method: 'POST', headers: { cookie: aquarist.cookieHeader(), 'content-type': 'multipart/form-data; boundary=broken' }, body: '--broken\r\nContent-Disposition: form-data; name="file"; filename="../x.pdf"\r\n\r\n%PDF-' }),
+      await raw(`/api/tanks/${demo.tanks.lounge}/stages/00000000-0000-4000-8000-000000000000/uploads`, { method: 'POST', headers: { 'cookie': aquarist.cookieHeader(), 'content-type': 'multipart/form-data; boundary=broken' }, body: '--broken\r\nContent-Disposition: form-data; name="file"; filename="../x.pdf"\r\n\r\n%PDF-' }),
     ]
     for (const answer of answers) {
       expect(answer.status, answer.text.slice(0, 200)).toBeGreaterThanOrEqual(400)

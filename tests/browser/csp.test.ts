@@ -47,8 +47,12 @@ function urlOf(file: string): string | null {
 }
 
 let browser: Browser
-beforeAll(async () => { browser = await launchBrowser() })
-afterAll(async () => { await browser?.close() })
+beforeAll(async () => {
+  browser = await launchBrowser()
+})
+afterAll(async () => {
+  await browser?.close()
+})
 
 describe('the content security policy', () => {
   const files = pages()
@@ -98,7 +102,7 @@ describe('the content security policy', () => {
         await page.waitForTimeout(500)
         const csp = response?.headers()['content-security-policy'] ?? ''
         // A client opening a staff page gets the not-found page; that page runs under the policy too.
-        expect(csp, url).toContain("default-src 'self'")
+        expect(csp, url).toContain('default-src \'self\'')
         expect(csp, url).toMatch(/script-src 'self' 'strict-dynamic' 'nonce-/)
         violations.push(...(await page.evaluate(() => (window as unknown as { __csp: string[] }).__csp)).map(v => `${url}: ${v}`))
       }
