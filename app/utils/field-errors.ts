@@ -1,4 +1,4 @@
-import * as v from 'valibot'
+import type * as v from 'valibot'
 
 /** Field messages keyed by field path, from a valibot result or a server 400 (`data.issues`). */
 export type FieldErrors = Record<string, string>

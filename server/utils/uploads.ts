@@ -74,6 +74,8 @@ export async function receiveUpload(event: H3Event): Promise<ReceivedFile> {
   for (const part of parts ?? []) {
     if (part.filename === undefined && part.name) fields[part.name] = part.data.toString('utf8').slice(0, 2000)
   }
+  // Control characters and path separators never reach a stored name.
+  // eslint-disable-next-line no-control-regex
   const name = (filePart.filename ?? 'file').replace(/[\u0000-\u001F\\/]/g, '_').slice(-120) || 'file'
   return { bytes: filePart.data, name, mimeType: detected, fields }
 }

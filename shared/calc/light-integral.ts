@@ -47,5 +47,5 @@ export function dailyLightIntegral(points: readonly PpfdPoint[]): number {
  */
 export function dliFromSchedule(schedule: LightSchedule, ppfdAtFullOutput: number): number {
   assertPositive('ppfdAtFullOutput', ppfdAtFullOutput)
-  return dailyLightIntegral(schedule.points.map((p) => ({ minuteOfDay: p.minuteOfDay, ppfd: (p.percent / 100) * ppfdAtFullOutput })))
+  return dailyLightIntegral(schedule.points.map(p => ({ minuteOfDay: p.minuteOfDay, ppfd: (p.percent / 100) * ppfdAtFullOutput })))
 }

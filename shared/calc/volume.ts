@@ -6,16 +6,16 @@
 import { assertFinite, assertPositive } from '../units'
 
 /** Inside dimensions of a tank, by shape. All lengths in mm. */
-export type TankShape =
-  | { kind: 'rectangular', lengthMm: number, widthMm: number, heightMm: number }
-  | { kind: 'cube', sideMm: number }
-  | { kind: 'cylinder', diameterMm: number, heightMm: number }
+export type TankShape
+  = | { kind: 'rectangular', lengthMm: number, widthMm: number, heightMm: number }
+    | { kind: 'cube', sideMm: number }
+    | { kind: 'cylinder', diameterMm: number, heightMm: number }
   /** Rectangle `lengthMm` x `widthMm` plus a circular-arc front bulging `bowDepthMm` at its centre. */
-  | { kind: 'bow-front', lengthMm: number, widthMm: number, bowDepthMm: number, heightMm: number }
+    | { kind: 'bow-front', lengthMm: number, widthMm: number, bowDepthMm: number, heightMm: number }
   /** Quarter-cylinder for a room corner; `radiusMm` is the length of each straight side. */
-  | { kind: 'corner', radiusMm: number, heightMm: number }
+    | { kind: 'corner', radiusMm: number, heightMm: number }
   /** Regular hexagonal prism; `sideMm` is one edge of the hexagon. */
-  | { kind: 'hexagonal', sideMm: number, heightMm: number }
+    | { kind: 'hexagonal', sideMm: number, heightMm: number }
 
 export type TankShapeKind = TankShape['kind']
 

@@ -95,7 +95,7 @@ export function conductivityRatioFromSalinity(salinity: number, temperatureC: nu
   checkPss78Conditions(temperatureC, pressureDbar)
   const t68 = t68FromT90(temperatureC)
   // S rises monotonically with R over the valid domain, and R for S 2-42 lies well inside (0, 3).
-  return bisect((r) => pss78(r, t68, pressureDbar) - salinity, 0, 3)
+  return bisect(r => pss78(r, t68, pressureDbar) - salinity, 0, 3)
 }
 
 /** Practical salinity from conductivity in mS/cm at the sample temperature (one atmosphere). */
@@ -165,7 +165,7 @@ export function salinityFromSpecificGravity(sg: number, sampleC: number, referen
       `sg ${sg} at ${sampleC}/${referenceC} C implies salinity outside 0 to 42; valid sg on this basis is ${low.toFixed(5)} to ${high.toFixed(5)}`,
     )
   }
-  return bisect((s) => specificGravity(s, sampleC, referenceC) - sg, EOS80_SALINITY_RANGE[0], EOS80_SALINITY_RANGE[1])
+  return bisect(s => specificGravity(s, sampleC, referenceC) - sg, EOS80_SALINITY_RANGE[0], EOS80_SALINITY_RANGE[1])
 }
 
 /** A specific-gravity basis: sample temperature over reference-water temperature, degrees C. */

@@ -120,12 +120,12 @@ export function intensityAt(input: LightScheduleInput, minuteOfDay: number): num
 export function buildLightSchedule(input: LightScheduleInput = {}): LightSchedule {
   const r = resolve(input)
   const breakpoints = [0, r.rampMin, r.periodMin - r.rampMin, r.periodMin]
-    .map((offset) => (r.startMin + offset) % MINUTES_PER_DAY)
+    .map(offset => (r.startMin + offset) % MINUTES_PER_DAY)
   const minutes = new Set<number>(breakpoints)
   for (let m = 0; m < MINUTES_PER_DAY; m += r.step) minutes.add(m)
   // A breakpoint can fall between samples; the value just before midnight closes the day.
   const sorted = [...minutes].sort((a, b) => a - b)
-  const points: LightPoint[] = sorted.map((m) => ({ minuteOfDay: m, time: formatTime(m), percent: percentAt(r, m) }))
+  const points: LightPoint[] = sorted.map(m => ({ minuteOfDay: m, time: formatTime(m), percent: percentAt(r, m) }))
   points.push({ minuteOfDay: MINUTES_PER_DAY, time: '24:00', percent: percentAt(r, MINUTES_PER_DAY) })
   const [on, plateauStart, plateauEnd, off] = breakpoints.map(formatTime)
   return {

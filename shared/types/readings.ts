@@ -1,21 +1,11 @@
 /** API response shapes for readings, events, charts and verdicts. Values are canonical. */
 import type { CyclePhase, Verdict } from '../cycle/types'
 import type { RuleInfo } from '../cycle/registry'
-import type { EntryFlag } from '../readings/entry'
+import type { CanonicalValues, EntryFlag } from '../readings/entry'
 
-export interface ReadingView {
+export interface ReadingView extends CanonicalValues {
   id: string
   takenAt: string
-  ammoniaN: number | null
-  nitriteN: number | null
-  nitrateN: number | null
-  pH: number | null
-  temperatureC: number | null
-  salinity: number | null
-  alkalinityDkh: number | null
-  calciumMgL: number | null
-  magnesiumMgL: number | null
-  phosphateMgL: number | null
   notes: string | null
   entered: Record<string, unknown>
   enteredBy: string | null

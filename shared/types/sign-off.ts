@@ -1,5 +1,6 @@
 /** API response shapes for sign-off, evidence, certificate verification and the stocking plan. */
 import type { CycleInput, Verdict } from '../cycle/types'
+import type { CanonicalValues } from '../readings/entry'
 import type { DatedAcclimationStep, FinalValue, StockingStep } from '../sign-off/plan'
 import type { CyclePhase, TankStatus, TankView } from './tanks'
 
@@ -76,20 +77,10 @@ export interface SignOffState {
   plan: StockingPlanView | null
 }
 
-export interface EvidenceReading {
+export interface EvidenceReading extends CanonicalValues {
   id: string
   takenAt: string
   enteredByName: string | null
-  ammoniaN: number | null
-  nitriteN: number | null
-  nitrateN: number | null
-  pH: number | null
-  temperatureC: number | null
-  salinity: number | null
-  alkalinityDkh: number | null
-  calciumMgL: number | null
-  magnesiumMgL: number | null
-  phosphateMgL: number | null
   notes: string | null
   correctsId: string | null
   correctionReason: string | null

@@ -39,6 +39,6 @@ export interface TankView extends TankSummary {
   aquaristId: string | null
   supervisorId: string | null
   supervisorName: string | null
-  kitBasis: { ammonia: string; nitrite: string; nitrate: string }
+  kitBasis: { ammonia: string, nitrite: string, nitrate: string }
   createdAt: string
 }

@@ -83,7 +83,7 @@ describe('properties', () => {
   })
 
   it('named helpers invert each other', () => {
-    fc.assert(fc.property(fc.double({ min: 0, max: 1e5, noNaN: true }), (v) =>
+    fc.assert(fc.property(fc.double({ min: 0, max: 1e5, noNaN: true }), v =>
       close(litresToUsGallons(usGallonsToLitres(v)), v) && close(kgToPounds(poundsToKg(v)), v)
       && close(cmToInches(inchesToCm(v)), v) && close(knPerM2ToPsf(psfToKnPerM2(v)), v)), FC)
   })

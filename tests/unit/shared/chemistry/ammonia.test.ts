@@ -112,8 +112,8 @@ describe('properties', () => {
     fc.assert(fc.property(fc.double({ min: 6, max: 10, noNaN: true }), fc.double({ min: 5, max: 39, noNaN: true }), fc.double({ min: 0.1, max: 1, noNaN: true }), salinity, (p, t, dt, s) => {
       return freeAmmoniaFraction({ pH: p, temperatureC: t + dt, salinity: s }) > freeAmmoniaFraction({ pH: p, temperatureC: t, salinity: s })
     }), FC)
-    fc.assert(fc.property(fc.double({ min: 0, max: 49, noNaN: true }), (t) => pKaAmmoniumFreshwater(t + 1) < pKaAmmoniumFreshwater(t)), FC)
-    fc.assert(fc.property(freshTemp, (t) => Number.isFinite(freeAmmoniaFraction({ pH: 8, temperatureC: t, salinity: 0 }))), FC)
+    fc.assert(fc.property(fc.double({ min: 0, max: 49, noNaN: true }), t => pKaAmmoniumFreshwater(t + 1) < pKaAmmoniumFreshwater(t)), FC)
+    fc.assert(fc.property(freshTemp, t => Number.isFinite(freeAmmoniaFraction({ pH: 8, temperatureC: t, salinity: 0 }))), FC)
   })
 
   it('pKa rises with salinity', () => {

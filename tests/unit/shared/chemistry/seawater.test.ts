@@ -190,6 +190,6 @@ describe('specific gravity and its basis', () => {
 
   it('t68 <-> t90 conversion is the 1.00024 factor', () => {
     expect(t68FromT90(25)).toBeCloseTo(25.006, 12)
-    fc.assert(fc.property(fc.double({ min: -2, max: 40, noNaN: true }), (t) => Math.abs(t90FromT68(t68FromT90(t)) - t) < 1e-12), FC)
+    fc.assert(fc.property(fc.double({ min: -2, max: 40, noNaN: true }), t => Math.abs(t90FromT68(t68FromT90(t)) - t) < 1e-12), FC)
   })
 })

@@ -35,10 +35,10 @@ describe('buildLightSchedule', () => {
     const s = buildLightSchedule({ startTime: '10:07', stepMinutes: 30 })
     expect(s.points[0]?.time).toBe('00:00')
     expect(s.points.at(-1)?.time).toBe('24:00')
-    const minutes = s.points.map((p) => p.minuteOfDay)
+    const minutes = s.points.map(p => p.minuteOfDay)
     expect([...minutes].sort((a, b) => a - b)).toEqual(minutes)
-    expect(s.points.find((p) => p.time === '11:07')?.percent).toBe(s.plateauPercent)
-    expect(s.points.find((p) => p.time === '10:07')?.percent).toBe(0)
+    expect(s.points.find(p => p.time === '11:07')?.percent).toBe(s.plateauPercent)
+    expect(s.points.find(p => p.time === '10:07')?.percent).toBe(0)
   })
 
   it('runs past midnight', () => {
@@ -54,8 +54,8 @@ describe('buildLightSchedule', () => {
       fc.integer({ min: 1, max: 14 }), fc.integer({ min: 0, max: 30 }), fc.integer({ min: 0, max: 100 }), fc.integer({ min: 0, max: 1439 }),
       (hours, ramp, plateau, start) => {
         const s = buildLightSchedule({ photoperiodHours: hours, rampMinutes: ramp, plateauPercent: plateau, startTime: formatTime(start), stepMinutes: 1 })
-        const inRange = s.points.every((p) => p.percent >= 0 && p.percent <= plateau && Number.isFinite(p.percent))
-        const lit = s.points.slice(0, -1).filter((p) => p.percent > 0).length
+        const inRange = s.points.every(p => p.percent >= 0 && p.percent <= plateau && Number.isFinite(p.percent))
+        const lit = s.points.slice(0, -1).filter(p => p.percent > 0).length
         // With a ramp the on and off minutes themselves read 0; without one the on minute is already at plateau.
         const expected = plateau === 0 ? 0 : hours * 60 - (ramp === 0 ? 0 : 1)
         return inRange && lit === expected
@@ -75,7 +75,7 @@ describe('buildLightSchedule', () => {
 
 describe('acclimationPlan', () => {
   it('steps evenly from start (week 0) to end', () => {
-    expect(acclimationPlan(4, 30, 60).map((s) => s.plateauPercent)).toEqual([30, 37.5, 45, 52.5, 60])
+    expect(acclimationPlan(4, 30, 60).map(s => s.plateauPercent)).toEqual([30, 37.5, 45, 52.5, 60])
   })
 
   it('defaults (common practice, no published source) end at the stated end', () => {
