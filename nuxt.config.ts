@@ -31,6 +31,8 @@ export default defineNuxtConfig({
       cookie: { sameSite: 'lax', httpOnly: true, secure: true },
     },
     signIn: { accountFailureLimit: 8, addressFailureLimit: 30, windowMinutes: 15 },
+    // NUXT_BENCH_ROUTES=1 enables the benchmark floor routes under server/api/bench (npm run bench only).
+    benchRoutes: false,
     // Outgoing mail (NUXT_SMTP_HOST, _PORT, _USER, _PASS, _FROM, _SECURE). No host: mail stays queued in the outbox.
     smtp: { host: '', port: 587, user: '', pass: '', from: 'Tidewright <no-reply@tidewright.invalid>', secure: false },
     // NUXT_DEV_MAIL=1 shows the local mail catcher's messages (NUXT_DEV_MAIL_FILE) at /admin/mail and GET /api/dev/mail.

@@ -9,7 +9,8 @@ export interface FieldIssue {
 export function toFieldIssues(issues: readonly v.BaseIssue<unknown>[]): FieldIssue[] {
   return issues.map(issue => ({
     field: issue.path?.map(item => String(item.key)).join('.') || '(body)',
-    message: issue.message,
+    // valibot's built-in messages end in `but received <the value>`: never echo input.
+    message: issue.message.replace(/ but received [\s\S]*$/, ''),
   }))
 }
 

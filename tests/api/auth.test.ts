@@ -17,6 +17,26 @@ describe('POST /api/auth/login', () => {
     expect(me.body.role).toBe('aquarist')
   })
 
+  it('scopes the session cookie to this host and path, seals its contents, and expires it at sign-out', async () => {
+    const api = new ApiClient()
+    const response = await api.post('/api/auth/login', { email: 'client3@tidewright.test', password: 'tidewright-demo' })
+    const cookie = response.headers.getSetCookie().find(c => c.startsWith('tidewright-session='))!
+    expect(cookie).toMatch(/;\s*Path=\/(;|$)/i)
+    expect(cookie).not.toMatch(/Domain=/i)
+    const expires = Date.parse(/Expires=([^;]+)/i.exec(cookie)?.[1] ?? '')
+    // nuxt.config session.maxAge: 7 days.
+    expect(Math.abs(expires - (Date.now() + 7 * 86_400_000))).toBeLessThan(120_000)
+    const value = decodeURIComponent(cookie.split(';')[0]!.split('=').slice(1).join('='))
+    expect(value).toMatch(/^Fe26\.2\*/)
+    for (const plain of ['client3', 'tidewright', inject('fixtures').demo.users.client3, 'client']) expect(value).not.toContain(plain)
+    const out = await api.post('/api/auth/logout')
+    const cleared = out.headers.getSetCookie().find(c => c.startsWith('tidewright-session='))
+    expect(cleared).toBeDefined()
+    const clearedExpiry = /Max-Age=(\d+)/i.exec(cleared!)?.[1]
+    const clearedDate = Date.parse(/Expires=([^;]+)/i.exec(cleared!)?.[1] ?? '')
+    expect(clearedExpiry === '0' || clearedDate < Date.now() || /^tidewright-session=;/.test(cleared!)).toBe(true)
+  })
+
   it('accepts the e-mail in any case and with stray spaces', async () => {
     const response = await new ApiClient().post('/api/auth/login', { email: '  Supervisor@Tidewright.TEST ', password: 'tidewright-demo' })
     expect(response.status).toBe(200)

@@ -14,7 +14,8 @@ export class ApiClient {
   /** Sends a request; JSON bodies are serialised, JSON answers parsed. */
   async request<T = any>(method: string, path: string, body?: unknown, headers: Record<string, string> = {}): Promise<ApiResponse<T>> {
     const init: RequestInit = { method, headers: { ...headers, cookie: this.cookieHeader() }, redirect: 'manual' }
-    if (body !== undefined) {
+    if (body instanceof FormData) init.body = body // fetch writes the multipart boundary itself
+    else if (body !== undefined) {
       init.body = typeof body === 'string' ? body : JSON.stringify(body)
       ;(init.headers as Record<string, string>)['content-type'] ??= 'application/json'
     }

@@ -1,0 +1,72 @@
+/**
+ * API throughput under autocannon against the built server on loopback: each Tidewright
+ * route beside a floor route (server/api/bench/, enabled only by NUXT_BENCH_ROUTES=1)
+ * that runs the same better-sqlite3 query with no session, validation or shaping. The
+ * ratio route/floor is what the framework, auth, validation and domain code cost on
+ * this machine. Aim: at least half the floor's throughput.
+ */
+import autocannon from 'autocannon'
+import { signInCookie, type BenchServer, type Row } from './support'
+
+const CONNECTIONS = [1, 16, 64]
+
+interface Case {
+  name: string
+  route: { method: 'GET' | 'POST', path: string, body?: () => string }
+  floor: { method: 'GET' | 'POST', path: string, body?: () => string }
+}
+
+interface Measured { rps: number, p50: number, p99: number, non2xx: number, errors: number, timeouts: number }
+
+function run(url: string, method: 'GET' | 'POST', connections: number, seconds: number, headers: Record<string, string>, body?: string): Promise<Measured> {
+  return new Promise((resolve, reject) => {
+    autocannon({ url, method, connections, duration: seconds, headers, body, pipelining: 1 }, (error, result) => {
+      if (error) return reject(error)
+      resolve({ rps: result.requests.average, p50: result.latency.p50, p99: result.latency.p99, non2xx: result.non2xx, errors: result.errors - result.timeouts, timeouts: result.timeouts })
+    })
+  })
+}
+
+async function check(url: string, method: string, headers: Record<string, string>, body?: string): Promise<void> {
+  const response = await fetch(url, { method, headers, body })
+  if (response.status >= 300) throw new Error(`${method} ${url} answered ${response.status} before the benchmark: ${await response.text()}`)
+}
+
+export async function runApiBench(bench: BenchServer, seconds: number): Promise<Row[]> {
+  const { baseURL } = bench.server
+  const { demo } = bench.fixtures
+  const cookie = await signInCookie(baseURL, 'client@tidewright.test')
+  const lounge = demo.tanks.lounge
+  const readingBody = () => JSON.stringify({
+    takenAt: new Date(Date.now() - 3_600_000).toISOString(), ammonia: 0.1, nitrite: 0.2, nitrate: 5,
+    basis: { ammonia: 'N', nitrite: 'N', nitrate: 'N' }, pH: 8.1, temperature: 25.5, temperatureUnit: 'C', salinity: 34.8, salinityMode: 'practical',
+  })
+  const floorReadingBody = () => JSON.stringify({ takenAt: new Date(Date.now() - 3_600_000).toISOString(), ammoniaN: 0.1, nitriteN: 0.2, nitrateN: 5, pH: 8.1, temperatureC: 25.5, salinity: 34.8 })
+  const cases: Case[] = [
+    { name: 'GET /api/tanks', route: { method: 'GET', path: '/api/tanks' }, floor: { method: 'GET', path: `/api/bench/tanks?org=${demo.organisationId}` } },
+    { name: 'GET /api/tanks/:id', route: { method: 'GET', path: `/api/tanks/${lounge}` }, floor: { method: 'GET', path: `/api/bench/tanks/${lounge}` } },
+    { name: 'GET /api/tanks/:id/readings (year of data)', route: { method: 'GET', path: `/api/tanks/${lounge}/readings` }, floor: { method: 'GET', path: `/api/bench/tanks/${lounge}/readings` } },
+    { name: 'GET /api/tanks/:id/verdict', route: { method: 'GET', path: `/api/tanks/${lounge}/verdict` }, floor: { method: 'GET', path: `/api/bench/tanks/${lounge}/verdict` } },
+    // Writes last: they grow the tank's history for everything after them.
+    { name: 'POST /api/tanks/:id/readings', route: { method: 'POST', path: `/api/tanks/${lounge}/readings`, body: readingBody }, floor: { method: 'POST', path: `/api/bench/tanks/${lounge}/readings`, body: floorReadingBody } },
+  ]
+  const rows: Row[] = []
+  for (const c of cases) {
+    const headers = { cookie, 'content-type': 'application/json' }
+    await check(baseURL + c.route.path, c.route.method, headers, c.route.body?.())
+    await check(baseURL + c.floor.path, c.floor.method, { 'content-type': 'application/json' }, c.floor.body?.())
+    for (const connections of CONNECTIONS) {
+      const floor = await run(baseURL + c.floor.path, c.floor.method, connections, seconds, { 'content-type': 'application/json' }, c.floor.body?.())
+      const route = await run(baseURL + c.route.path, c.route.method, connections, seconds, headers, c.route.body?.())
+      if (route.non2xx || route.errors || floor.non2xx || floor.errors) {
+        throw new Error(`${c.name} at ${connections}: ${route.non2xx} non-2xx, ${route.errors} errors (floor ${floor.non2xx}, ${floor.errors})`)
+      }
+      rows.push({
+        area: 'API', name: `${c.name} @${connections}`, value: route.rps, unit: 'req/s',
+        reference: { name: `floor ${floor.rps.toFixed(0)} req/s; p50/p99 ${route.p50}/${route.p99} ms (floor ${floor.p50}/${floor.p99})${route.rps === 0 ? `; no request finished within ${seconds} s` : ''}`, value: floor.rps },
+        ratio: route.rps / floor.rps, aim: '>= 0.50',
+      })
+    }
+  }
+  return rows
+}

@@ -1,0 +1,80 @@
+/**
+ * Bulk import: 100,000 readings through the CSV import route (one request, one
+ * transaction, import keys, verdict refreshed once) against the physical floor — a raw
+ * better-sqlite3 insert loop of the same rows in one transaction on a copy of the same
+ * database. Aim: within 2x of the floor's rows/s.
+ */
+import { randomUUID } from 'node:crypto'
+import { join } from 'node:path'
+import { performance } from 'node:perf_hooks'
+import Database from 'better-sqlite3'
+import { signInCookie, type BenchServer, type Row } from './support'
+
+export const BULK_ROWS = 100_000
+
+function csvRows(count: number): { csv: string, rows: { at: string, ammonia: number, nitrite: number, nitrate: number, pH: number, temperature: number, salinity: number }[] } {
+  const end = Date.now() - 3_600_000
+  const rows = Array.from({ length: count }, (_, i) => ({
+    at: new Date(end - (count - i) * 300_000).toISOString(),
+    ammonia: Math.round(Math.abs(Math.sin(i / 50)) * 100) / 100,
+    nitrite: Math.round(Math.abs(Math.cos(i / 70)) * 100) / 100,
+    nitrate: 2 + (i % 40) / 10,
+    pH: 8 + (i % 3) / 10,
+    temperature: 25 + (i % 5) / 10,
+    salinity: 34 + (i % 7) / 10,
+  }))
+  const csv = ['takenAt,ammonia,nitrite,nitrate,pH,temperature,salinity', ...rows.map(r => `${r.at},${r.ammonia},${r.nitrite},${r.nitrate},${r.pH},${r.temperature},${r.salinity}`)].join('\n')
+  return { csv, rows }
+}
+
+export async function runBulkBench(bench: BenchServer): Promise<Row[]> {
+  const { baseURL } = bench.server
+  const cookie = await signInCookie(baseURL, 'aquarist@tidewright.test')
+  const { csv, rows } = csvRows(BULK_ROWS)
+  // A tank of its own, so nothing is deduplicated against earlier rows.
+  const created = await fetch(`${baseURL}/api/tanks`, {
+    method: 'POST', headers: { cookie, 'content-type': 'application/json' },
+    body: JSON.stringify({ name: 'Bulk import reef', clientId: bench.fixtures.demo.clients.lowe, shape: 'rectangular', dimensions: { lengthMm: 1200, widthMm: 500, heightMm: 550 } }),
+  })
+  if (created.status !== 201) throw new Error(`creating the bulk tank: ${created.status} ${await created.text()}`)
+  const tankId = (await created.json()).id as string
+
+  // Floor first, on a copy taken before the import (same schema, indexes and rows).
+  const copy = join(bench.dir, 'bulk-floor.sqlite')
+  const live = new Database(bench.dbPath)
+  await live.backup(copy)
+  live.close()
+  const db = new Database(copy)
+  db.pragma('journal_mode = WAL')
+  db.pragma('synchronous = NORMAL')
+  const insert = db.prepare(`insert into readings (id, tank_id, taken_at, ammonia_n, nitrite_n, nitrate_n, ph, temperature_c, salinity, entered, import_key, created_at, updated_at)
+    values (?, ?, ?, ?, ?, ?, ?, ?, ?, '{}', ?, ?, ?)`)
+  const keys = rows.map((_, i) => `bulk-${i}`)
+  const floorStart = performance.now()
+  db.transaction(() => {
+    const now = new Date().toISOString()
+    rows.forEach((r, i) => insert.run(randomUUID(), tankId, r.at, r.ammonia, r.nitrite, r.nitrate, r.pH, r.temperature, r.salinity, keys[i], now, now))
+  })()
+  const floorSeconds = (performance.now() - floorStart) / 1000
+  db.close()
+
+  const start = performance.now()
+  const response = await fetch(`${baseURL}/api/tanks/${tankId}/readings/import`, {
+    method: 'POST', headers: { cookie, 'content-type': 'application/json' },
+    body: JSON.stringify({ csv, dryRun: false, basis: { ammonia: 'N', nitrite: 'N', nitrate: 'N' }, temperatureUnit: 'C', salinityMode: 'practical' }),
+  })
+  const seconds = (performance.now() - start) / 1000
+  const text = await response.text()
+  if (response.status !== 200) throw new Error(`import answered ${response.status}: ${text.slice(0, 500)}`)
+  const stored = new Database(bench.dbPath, { readonly: true })
+  const n = stored.prepare('select count(*) from readings where tank_id = ?').pluck().get(tankId) as number
+  stored.close()
+  if (n !== BULK_ROWS) throw new Error(`import stored ${n} of ${BULK_ROWS} rows: ${text.slice(0, 500)}`)
+  const rps = BULK_ROWS / seconds
+  const floorRps = BULK_ROWS / floorSeconds
+  return [{
+    area: 'Bulk', name: `CSV import of ${BULK_ROWS.toLocaleString('en')} readings (${(csv.length / 1e6).toFixed(1)} MB, ${seconds.toFixed(1)} s)`, value: rps, unit: 'rows/s',
+    reference: { name: `raw insert loop, one transaction ${floorRps.toFixed(0)} rows/s`, value: floorRps },
+    ratio: floorRps / rps, aim: '<= 2.0 (slowdown)',
+  }]
+}
