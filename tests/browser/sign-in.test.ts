@@ -21,7 +21,7 @@ describe('signing in', () => {
       await screenshot(page, `client-home-${width}`)
       await page.getByRole('link', { name: /Marlowe lounge reef/ }).click()
       await page.waitForURL(/\/tanks\//)
-      await expect.poll(() => page.getByRole('heading', { name: 'Marlowe lounge reef' }).isVisible()).toBe(true)
+      await expect.poll(() => page.getByRole('heading', { level: 1, name: 'Marlowe lounge reef' }).isVisible()).toBe(true)
       await screenshot(page, `client-tank-${width}`)
       expect(problems).toEqual([])
       await context.close()
