@@ -23,6 +23,9 @@ export default defineNuxtConfig({
     dbPath: 'data/tidewright.sqlite',
     /** Where uploaded photos and PDFs are kept by the fs driver (NUXT_UPLOADS_DIR). */
     uploadsDir: 'data/uploads',
+    // 'fs' (default) or 's3' for S3-compatible object storage; see DEVELOPERS.md, "Uploads".
+    uploadsDriver: 'fs',
+    uploadsS3: { endpoint: '', bucket: '', region: '', accessKeyId: '', secretAccessKey: '' },
     migrationsDir: 'drizzle',
     session: {
       name: 'tidewright-session',

@@ -129,8 +129,10 @@ export async function storeUpload(actor: Actor, target: UploadTarget, file: Rece
 
 /** Sends stored bytes with headers that keep the browser from guessing or caching them publicly. */
 export async function sendStoredFile(event: H3Event, key: string, mimeType: string, downloadName: string) {
-  const bytes = await useStorage('uploads').getItemRaw<Buffer>(key)
-  if (!bytes) throw createError({ statusCode: 404, statusMessage: 'File not found' })
+  // The fs driver answers a Buffer, the object-store driver an ArrayBuffer.
+  const raw = await useStorage('uploads').getItemRaw<Buffer | ArrayBuffer>(key)
+  if (!raw) throw createError({ statusCode: 404, statusMessage: 'File not found' })
+  const bytes = Buffer.isBuffer(raw) ? raw : Buffer.from(raw)
   setResponseHeaders(event, {
     'content-type': mimeType,
     'content-length': bytes.length,
