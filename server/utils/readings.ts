@@ -1,5 +1,5 @@
 /** Reads and writes a tank's readings and events, shaped for the API. Scoping is done by the caller (requireVisibleTank). */
-import { and, asc, desc, eq, gte, lte, sql, type SQL } from 'drizzle-orm'
+import { and, asc, desc, eq, gte, isNull, lte, sql, type SQL } from 'drizzle-orm'
 import type { EventListQuery, ReadingListQuery } from '#shared/schemas/reading'
 import type { CanonicalReading } from '#shared/readings/entry'
 import { flagsForValues } from '#shared/readings/entry'
@@ -128,8 +128,9 @@ export function eventColumns(event: CanonicalEvent) {
  * feature (server/utils/uploads.ts); this only records which reading it shows.
  */
 export function attachTestPhoto(tank: Tank, readingId: string, uploadId: string): boolean {
+  // Only a test photo not yet used: a stage's photo or another reading's stays where it is.
   const result = useDB().update(uploads).set({ readingId })
-    .where(and(eq(uploads.id, uploadId), eq(uploads.tankId, tank.id), eq(uploads.organisationId, tank.organisationId))).run()
+    .where(and(eq(uploads.id, uploadId), eq(uploads.tankId, tank.id), eq(uploads.organisationId, tank.organisationId), isNull(uploads.stageId), isNull(uploads.readingId))).run()
   return result.changes > 0
 }
 

@@ -326,6 +326,12 @@ export const ACCESS_MATRIX: Record<string, MatrixEntry> = {
 
   // Readings, events, verdict, chart, CSV (issue 6)
   'GET /api/tanks/[id]/readings': { url: c => `/api/tanks/${c.f.demo.tanks.lounge}/readings`, expect: tankReader() },
+  'POST /api/tanks/[id]/test-photos': {
+    url: c => `/api/tanks/${c.f.demo.tanks.lounge}/test-photos`,
+    body: () => fileForm(TINY_PNG, 'test-strip.png', 'image/png'),
+    expect: tankEntry(),
+    fuzz: { upload: true, as: 'client' },
+  },
   'POST /api/tanks/[id]/readings': {
     url: c => `/api/tanks/${c.f.demo.tanks.lounge}/readings`,
     body: () => READING_BODY(),

@@ -6,9 +6,10 @@ import type { TankList, TankView } from '../../shared/types/tanks'
 const { demo, other } = inject('fixtures')
 
 describe('GET /api/tanks', () => {
-  it('is 401 when signed out', async () => {
+  it('is 401 when signed out, without handing out a session cookie', async () => {
     const response = await new ApiClient().get('/api/tanks')
     expect(response.status).toBe(401)
+    expect(response.headers.getSetCookie()).toEqual([])
   })
 
   it('shows a client only their own tanks', async () => {

@@ -1,6 +1,7 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import type { Browser } from 'playwright-core'
 import { launchBrowser, openPage, screenshot, signInThroughForm } from '../support/browser'
+import { TINY_PNG } from '../api/access-matrix.data'
 
 let browser: Browser
 beforeAll(async () => { browser = await launchBrowser() })
@@ -37,6 +38,12 @@ describe('daily tests', () => {
     await page.getByRole('button', { name: 'Save tests' }).click()
     await expect.poll(() => page.getByText('pH must be between 0 and 14.').isVisible()).toBe(true)
     await page.getByLabel('pH', { exact: true }).fill('8.1')
+    await expect.poll(() => page.getByText('pH must be between 0 and 14.').count()).toBe(0)
+    // A photo of the test strip goes with the reading; it is stored as soon as it is chosen.
+    await page.getByText('More tests and notes').click()
+    await page.getByLabel('Photo of the test (optional)').setInputFiles({ name: 'strip.png', mimeType: 'image/png', buffer: TINY_PNG })
+    await expect.poll(() => page.getByText('Photo attached: strip.png').isVisible()).toBe(true)
+    await screenshot(page, 'tests-photo-375')
     await page.getByRole('button', { name: 'Save tests' }).click()
     await expect.poll(() => page.getByRole('heading', { name: 'Tests saved' }).isVisible()).toBe(true)
     await expect.poll(() => page.getByText('The cycle now reads').textContent()).toContain('Settling')
