@@ -241,7 +241,7 @@ export const ACCESS_MATRIX: Record<string, MatrixEntry> = {
   },
   'GET /api/me': { url: () => '/api/me', expect: anySignedIn() },
 
-  // Clients and sites (issue 5)
+  // Clients and sites
   'GET /api/clients': { url: () => '/api/clients', expect: staffList() },
   'POST /api/clients': {
     url: () => '/api/clients',
@@ -283,7 +283,7 @@ export const ACCESS_MATRIX: Record<string, MatrixEntry> = {
   },
   'GET /api/staff': { url: () => '/api/staff', expect: staffList() },
 
-  // Plan template and stages (issue 5)
+  // Plan template and stages
   'GET /api/plan-template': { url: () => '/api/plan-template', expect: staffList() },
   'PUT /api/plan-template': {
     url: () => '/api/plan-template',
@@ -324,7 +324,7 @@ export const ACCESS_MATRIX: Record<string, MatrixEntry> = {
     fuzz: { as: 'aquarist', schema: TankPatchSchema, validBody: () => ({ name: 'Marlowe lounge reef', sumpLitres: 60, material: 'glass' }) },
   },
 
-  // Readings, events, verdict, chart, CSV (issue 6)
+  // Readings, events, verdict, chart, CSV
   'GET /api/tanks/[id]/readings': { url: c => `/api/tanks/${c.f.demo.tanks.lounge}/readings`, expect: tankReader() },
   'POST /api/tanks/[id]/test-photos': {
     url: c => `/api/tanks/${c.f.demo.tanks.lounge}/test-photos`,
@@ -375,7 +375,7 @@ export const ACCESS_MATRIX: Record<string, MatrixEntry> = {
   'GET /api/tanks/[id]/verdict': { url: c => `/api/tanks/${c.f.demo.tanks.lounge}/verdict`, expect: tankReader() },
   'GET /api/tanks/[id]/chart': { url: c => `/api/tanks/${c.f.demo.tanks.lounge}/chart`, expect: tankReader() },
 
-  // Accounts, invitations and resets (issue 7)
+  // Accounts, invitations and resets
   'POST /api/auth/forgot-password': {
     url: () => '/api/auth/forgot-password',
     body: () => ({ email: 'nobody-here@example.test' }),
@@ -412,7 +412,7 @@ export const ACCESS_MATRIX: Record<string, MatrixEntry> = {
     fuzz: { as: 'client', schema: NotificationPreferencesSchema, validBody: () => ({ emailKinds: {} }) },
   },
 
-  // Alerts and notices (issue 7)
+  // Alerts and notices
   'GET /api/alerts': { url: () => '/api/alerts', expect: staffList() },
   'POST /api/alerts/[id]/acknowledge': {
     url: c => `/api/alerts/${freshAlert(c)}/acknowledge`,
@@ -440,7 +440,7 @@ export const ACCESS_MATRIX: Record<string, MatrixEntry> = {
   'GET /api/dev/outbox': { url: () => '/api/dev/outbox', expect: everyone(404) },
   'POST /api/dev/worker-tick': { url: () => '/api/dev/worker-tick', body: () => ({ now: new Date().toISOString() }), expect: everyone(404), fuzz: 'no-body' },
 
-  // Sign-off (issue 8). The lounge tank is mid-cycle: those allowed reach the domain check and get 409.
+  // Sign-off. The lounge tank is mid-cycle: those allowed reach the domain check and get 409.
   'GET /api/reviews': {
     url: () => '/api/reviews',
     expect: { signedOut: 401, admin: 200, aquarist: 403, supervisor: 200, client: 403, otherClient: 403, otherCompany: 403 },
