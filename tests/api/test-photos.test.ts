@@ -23,7 +23,7 @@ beforeAll(async () => {
 
 async function send(api: ApiClient, path: string, bytes: Buffer, name: string) {
   const form = new FormData()
-  form.append('file', new Blob([bytes]), name)
+  form.append('file', new Blob([new Uint8Array(bytes)]), name)
   const response = await fetch(`${api.baseURL}${path}`, { method: 'POST', body: form, headers: { cookie: api.cookieHeader() } })
   return { status: response.status, body: await response.json() as UploadView & { data?: { issues?: { field: string }[] } } }
 }

@@ -25,7 +25,7 @@ beforeAll(async () => {
 
 async function upload(api: ApiClient, bytes: Buffer, name: string, path = `/api/tanks/${tankId}/stages/${stageId}/uploads`) {
   const form = new FormData()
-  form.append('file', new Blob([bytes]), name)
+  form.append('file', new Blob([new Uint8Array(bytes)]), name)
   const response = await fetch(`${api.baseURL}${path}`, { method: 'POST', body: form, headers: { cookie: api.cookieHeader() } })
   const text = await response.text()
   return { status: response.status, body: text ? JSON.parse(text) : null }
