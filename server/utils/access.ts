@@ -22,7 +22,7 @@ export interface Actor {
 export async function requireActor(event: H3Event, roles?: readonly Role[]): Promise<Actor> {
   // Without a session cookie there is nothing to unseal; asking for the session anyway
   // would create an empty one and send a fresh cookie with every 401.
-  if (!getCookie(event, useRuntimeConfig().session.name)) throw createError({ statusCode: 401, statusMessage: 'Sign in to continue' })
+  if (!getCookie(event, useRuntimeConfig().session.name ?? 'nuxt-session')) throw createError({ statusCode: 401, statusMessage: 'Sign in to continue' })
   const session = await getUserSession(event)
   if (!session.user) throw createError({ statusCode: 401, statusMessage: 'Sign in to continue' })
   const row = useDB().select().from(users).where(eq(users.id, session.user.id)).get()
