@@ -7,3 +7,9 @@ export function apiErrorMessage(error: unknown, fallback: string): string {
   }
   return fallback
 }
+
+/** The server's per-field messages of a failed $fetch (a 400's `data.issues`), or null when it sent none. */
+export function serverFieldErrors(error: unknown): Record<string, string> | null {
+  const issues = (error as { data?: { data?: { issues?: { field: string, message: string }[] } } } | null)?.data?.data?.issues
+  return issues?.length ? Object.fromEntries(issues.map(i => [i.field, i.message])) : null
+}
