@@ -5,6 +5,7 @@
 import { fromNitrogen } from '../../shared/chemistry/nitrogen'
 import { formatNumber, formatPercent } from '../../shared/cycle/words'
 import type { CycleAction, Finding } from '../../shared/cycle/types'
+import { nitrogenToKit, type KitBasisChoice } from '../../shared/readings/entry'
 import { celsiusToFahrenheit } from '../../shared/units'
 
 export interface MeasuredReading {
@@ -51,6 +52,18 @@ export function measuredLines(reading: MeasuredReading | null, units: 'us' | 'me
   return lines
 }
 
+const kitLabel = (basis: string) => (basis === 'N' ? 'as N' : `as ${basis}`)
+
+/** The values of a reading as the client's own kits read them (ppm as NH3, NO2, NO3 or as N). */
+export function kitMeasuredLines(reading: MeasuredReading | null, kit: KitBasisChoice, units: 'us' | 'metric'): string[] {
+  if (!reading) return []
+  const lines: string[] = []
+  if (reading.ammoniaN !== null) lines.push(`Ammonia ${formatNumber(nitrogenToKit(reading.ammoniaN, kit.ammonia))} ppm ${kitLabel(kit.ammonia)}`)
+  if (reading.nitriteN !== null) lines.push(`Nitrite ${formatNumber(nitrogenToKit(reading.nitriteN, kit.nitrite))} ppm ${kitLabel(kit.nitrite)}`)
+  if (reading.nitrateN !== null) lines.push(`Nitrate ${formatNumber(nitrogenToKit(reading.nitrateN, kit.nitrate))} ppm ${kitLabel(kit.nitrate)}`)
+  return [...lines, ...measuredLines({ ...reading, ammoniaN: null, nitriteN: null, nitrateN: null }, units)]
+}
+
 /** The suggested actions, the water change first with its percentage. */
 export function actionLines(actions: readonly CycleAction[]): string[] {
   return actions.slice(0, 3).map((a) => {
@@ -60,8 +73,7 @@ export function actionLines(actions: readonly CycleAction[]): string[] {
   })
 }
 
-function compose(subject: string, intro: string, input: AlertMailInput, closing: string): MailWords {
-  const measured = measuredLines(input.reading, input.units)
+function compose(subject: string, intro: string, input: AlertMailInput, closing: string, measured = measuredLines(input.reading, input.units)): MailWords {
   const todo = actionLines(input.actions)
   const sections: [string, string[]][] = [
     [input.reading ? `What was measured (test of ${input.reading.takenAt.slice(0, 16).replace('T', ' ')} UTC)` : 'What was measured', measured.length ? measured : ['See the tank page for the readings.']],
@@ -88,6 +100,14 @@ export function alertEscalatedMail(input: AlertMailInput & { minutes: number, aq
   return compose(`Unanswered danger alert on ${input.tankName}`,
     `The danger alert on ${input.tankName} has not been acknowledged for ${input.minutes} minutes${input.aquaristName ? ` by ${input.aquaristName}` : ''}.`, input,
     'Please make sure someone acts on it.')
+}
+
+/** The e-mail to the tank's own client: the same facts in their kit's units and plain instructions. */
+export function clientDangerMail(input: AlertMailInput & { kitBasis: KitBasisChoice }): MailWords {
+  return compose(`Your tank ${input.tankName} needs you now`,
+    `Your latest test on ${input.tankName} shows a danger to the animals. Please do the first step below as soon as you can.`, input,
+    'Your aquarist has been told too. After a water change, match the new water\'s temperature and salinity to the tank, test again and enter the result in Tidewright. If anything looks wrong, call your aquarist.',
+    kitMeasuredLines(input.reading, input.kitBasis, input.units))
 }
 
 /** Plain words for an HTML body. */

@@ -5,6 +5,8 @@ import { planStages, tanks } from '../../../../db/schema'
 /**
  * PATCH /api/tanks/:id/stages/:stageId — changes a stage's status, ticks, notes or helper values.
  * Starting a stage moves a planned tank to building; finishing the water fill starts the cycle.
+ * Commissioning gates refuse (400, per field) a leak test passed in under 24 h and a survey over
+ * the design floor load closed without a recorded structural check.
  * Returns the tank's PlanView.
  */
 export default defineEventHandler(async (event) => {
@@ -15,7 +17,7 @@ export default defineEventHandler(async (event) => {
   const stage = findStage(tank.id, stageId)
   if (!stage) throw createError({ statusCode: 404, statusMessage: 'Stage not found' })
   const now = new Date()
-  const changes = applyStagePatch(actor, stage, patch, now)
+  const changes = applyStagePatch(actor, tank, stage, patch, now)
   const tankChanges = tankStatusAfterStage(tank, stage.key, changes.status, now)
   const db = useDB()
   const { after, tankAfter } = db.transaction((tx) => {
