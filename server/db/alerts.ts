@@ -8,6 +8,7 @@
 import { and, eq, inArray, isNull, lte, ne } from 'drizzle-orm'
 import type { Finding, Verdict } from '../../shared/cycle/types'
 import { actionLines, alertEscalatedMail, alertOpenedMail, clientDangerMail, plainHtml, type MeasuredReading } from './alert-mail'
+import { inKitUnits } from '../../shared/readings/kit-words'
 import type { TidewrightDB } from './connection'
 import { writeNotice } from './notices'
 import { alerts, organisations, readings, tanks, users } from './schema'
@@ -116,7 +117,7 @@ export function syncAlertsInDb(db: TidewrightDB, tankId: string, verdict: Verdic
         })
         writeNotice(t, {
           userId: client.id, organisationId: tank.organisationId, kind: 'tank-danger',
-          title: `Act now: ${tank.name}`, body: [finding.message, ...actionLines(verdict.actions).slice(0, 1)].join(' '), link: tankLink(tankId), alertId: row.id,
+          title: `Act now: ${tank.name}`, body: inKitUnits([finding.message, ...actionLines(verdict.actions).slice(0, 1)].join(' '), tank.kitBasis), link: tankLink(tankId), alertId: row.id,
           email: { ...words, messageId: `<alert-${row.id}-client-${client.id}@mail.tidewright.invalid>` },
         }, now)
         result.notifiedUserIds.push(client.id)

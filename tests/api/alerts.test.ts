@@ -132,6 +132,8 @@ describe('alerts from readings', () => {
     expect(mail!.subject).toBe('Your tank Fernhill study reef needs you now')
     // The client's kit reads ammonia as NH3: the value as typed, not mg/L as N.
     expect(mail!.text).toContain('Ammonia 1.5 ppm as NH3')
+    expect(mail!.text).not.toContain('mg/L as N')
+    expect(notice!.body).not.toContain('mg/L as N')
     expect(mail!.text).toMatch(/What to do:\n- Change \d+ % of the water/)
     // Other clients of the company hear nothing of it.
     const client = await signedIn('client@tidewright.test')
