@@ -140,23 +140,6 @@ describe('alerts from readings', () => {
     expect((await client.get<NotificationList>('/api/notifications')).body.items.some(n => n.alertId === alertId)).toBe(false)
   })
 
-  it('a client who switched the danger e-mail off still gets the notice, not the e-mail', async () => {
-    const client3 = await signedIn('client3@tidewright.test')
-    const aquarist2 = await signedIn('aquarist2@tidewright.test')
-    expect((await client3.request('PUT', '/api/me/notification-preferences', { emailKinds: { 'tank-danger': false } })).status).toBe(200)
-    await post(client3, CLEAR)
-    await post(client3, BAD)
-    const [fresh] = await studyAlerts(aquarist2, 'active')
-    expect(fresh!.id).not.toBe(alertId)
-    expect((await client3.get<NotificationList>('/api/notifications')).body.items.some(n => n.alertId === fresh!.id && n.kind === 'tank-danger')).toBe(true)
-    await tick(new Date())
-    await waitForMail('aquarist e-mail for the fresh alert', all => openedMail(all, fresh!.id).length > 0)
-    expect(clientMail(await caughtMail(), fresh!.id)).toHaveLength(0)
-    expect((await client3.request('PUT', '/api/me/notification-preferences', { emailKinds: {} })).status).toBe(200)
-    alertId = fresh!.id
-    openedAt = Date.parse(fresh!.openedAt)
-  })
-
   it('a second bad reading updates the open alert instead of opening another', async () => {
     const client3 = await signedIn('client3@tidewright.test')
     const aquarist2 = await signedIn('aquarist2@tidewright.test')

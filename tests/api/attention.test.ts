@@ -6,7 +6,9 @@
 import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest'
 import { openDatabase, type TidewrightDB } from '../../server/db/connection'
 import type { AttentionBoard, AttentionItem } from '../../shared/types/attention'
+import type { NotificationList } from '../../shared/types/alerts'
 import { ApiClient, signedIn } from '../support/http'
+import { caughtMail, tick, waitForMail } from '../support/mail'
 import { ATTENTION_USERS, seedAttentionCompany, type AttentionCompany } from '../support/attention-company'
 
 const { demo } = inject('fixtures')
@@ -93,5 +95,29 @@ describe('GET /api/attention', () => {
     expect(badSort.status).toBe(400)
     expect(badSort.body.data.issues[0].field).toBe('sort')
     expect((await api.get('/api/attention?aquarist=not-an-id')).status).toBe(400)
+  })
+})
+
+describe('danger on a client\'s own tank', () => {
+  it('a client who switched the danger e-mail off still gets the notice in the app, not the e-mail; the aquarist still gets both', async () => {
+    const client = await signedIn(ATTENTION_USERS.client.email)
+    expect((await client.request('PUT', '/api/me/notification-preferences', { emailKinds: { 'tank-danger': false } })).status).toBe(200)
+    // Two damselfish went in yesterday; 2 ppm total ammonia as NH3 is far over the 0.5 ppm action level (common practice).
+    const saved = await client.post(`/api/tanks/${company.tanks.firstTest}/readings`, {
+      takenAt: new Date(Date.now() - 60_000).toISOString(), ammonia: 2, nitrite: 0, nitrate: 0,
+      basis: { ammonia: 'NH3', nitrite: 'NO2', nitrate: 'NO3' }, pH: 8.1, temperature: 25, temperatureUnit: 'C', salinity: 35, salinityMode: 'practical',
+    })
+    expect(saved.status).toBe(201)
+    // The save answers danger first, with the water change to do.
+    expect(saved.body.findings[0]).toMatchObject({ severity: 'danger', ruleId: 'ammonia.action-threshold' })
+    expect(saved.body.actions.some((a: { kind: string }) => a.kind === 'water-change')).toBe(true)
+    const aquarist = await signedIn(ATTENTION_USERS.aquarist.email)
+    const [alert] = (await aquarist.get(`/api/alerts?tankId=${company.tanks.firstTest}&status=active`)).body.items
+    expect(alert).toBeDefined()
+    const notices = (await client.get<NotificationList>('/api/notifications')).body.items
+    expect(notices.find(n => n.alertId === alert.id)).toMatchObject({ kind: 'tank-danger', title: 'Act now: Kelpwater first-test reef' })
+    await tick(new Date())
+    await waitForMail('the aquarist\'s alert e-mail', all => all.some(m => m.messageId === `<alert-${alert.id}-opened@mail.tidewright.invalid>`))
+    expect((await caughtMail()).filter(m => m.messageId.includes(alert.id)).flatMap(m => m.envelopeTo)).toEqual([ATTENTION_USERS.aquarist.email])
   })
 })
