@@ -32,7 +32,7 @@ describe('GET /api/attention', () => {
     const api = await signedIn(ATTENTION_USERS.supervisor.email)
     const b = await board(api)
     const names = b.items.map(i => i.tankId)
-    expect(names).toHaveLength(5)
+    expect(names).toHaveLength(6)
     expect(names[0]).toBe(company.tanks.alerting)
     expect(names.indexOf(company.tanks.silent)).toBeLessThan(names.indexOf(company.tanks.quiet))
 

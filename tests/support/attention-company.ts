@@ -26,7 +26,8 @@ export const ATTENTION_USERS = {
 export interface AttentionCompany {
   organisationId: string
   users: Record<keyof typeof ATTENTION_USERS, string>
-  tanks: { alerting: string, silent: string, quiet: string, building: string, firstTest: string }
+  /** `firstTest` and `secondTest`: fish in, no tests yet, so the first bad test opens an alert. */
+  tanks: { alerting: string, silent: string, quiet: string, building: string, firstTest: string, secondTest: string }
 }
 
 const DAY_MS = 86_400_000
@@ -76,11 +77,14 @@ export async function seedAttentionCompany(db: TidewrightDB, source: { study: st
   db.update(planStages).set({ status: 'in-progress' }).where(and(eq(planStages.tankId, building), eq(planStages.key, 'leak-test'))).run()
 
   // Fish went in yesterday; no test yet, so no alert yet.
-  const firstTest = newTank('Kelpwater first-test reef', {
-    status: 'cycling', cycleMethod: 'fish-in', cycleStartedAt: new Date(now.getTime() - DAY_MS).toISOString(), usualTestHour: 23,
-  })
-  db.insert(events).values({ tankId: firstTest, at: new Date(now.getTime() - DAY_MS + 3_600_000).toISOString(), kind: 'livestock-added', amount: 2, group: 'fish', notes: 'Two hardy damselfish' }).run()
-  computeAndStoreVerdict(db, firstTest, now)
+  const withFish = (name: string) => {
+    const id = newTank(name, { status: 'cycling', cycleMethod: 'fish-in', cycleStartedAt: new Date(now.getTime() - DAY_MS).toISOString(), usualTestHour: 23 })
+    db.insert(events).values({ tankId: id, at: new Date(now.getTime() - DAY_MS + 3_600_000).toISOString(), kind: 'livestock-added', amount: 2, group: 'fish', notes: 'Two hardy damselfish' }).run()
+    computeAndStoreVerdict(db, id, now)
+    return id
+  }
+  const firstTest = withFish('Kelpwater first-test reef')
+  const secondTest = withFish('Kelpwater second-test reef')
 
-  return { organisationId: org.id, users: ids, tanks: { alerting, silent, quiet, building, firstTest } }
+  return { organisationId: org.id, users: ids, tanks: { alerting, silent, quiet, building, firstTest, secondTest } }
 }
