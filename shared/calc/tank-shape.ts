@@ -1,7 +1,7 @@
-import { tankShapeFrom, type TankShape, type TankShapeKind } from './volume'
+import { tankShapeFrom, type TankDimensionsMm, type TankShape, type TankShapeKind } from './volume'
 
 /** The tank's typed shape for the calculators, or null when its stored dimensions are incomplete. */
-export function tankShapeOf(tank: { shape: string, dimensions: Record<string, number | undefined> }): TankShape | null {
+export function tankShapeOf(tank: { shape: string, dimensions: TankDimensionsMm }): TankShape | null {
   const dims = tank.dimensions
   try {
     return tankShapeFrom(tank.shape as TankShapeKind, dims)

@@ -5,6 +5,7 @@
  * the server's check when the survey is closed.
  */
 import { tankShapeOf } from '../calc/tank-shape'
+import type { TankDimensionsMm } from '../calc/volume'
 import { filledWeight, type RoomUse, type WeightResult } from '../calc/weight'
 
 /** Salinity and temperature the weight is estimated at: a reef tank's usual target. */
@@ -16,7 +17,7 @@ const DEFAULT_PANEL_MM = 10
 
 export interface SurveyLoadTank {
   shape: string
-  dimensions: Record<string, number | undefined>
+  dimensions: TankDimensionsMm
   material: 'glass' | 'acrylic'
   sumpLitres: number
 }
