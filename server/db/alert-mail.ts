@@ -105,7 +105,7 @@ export function alertEscalatedMail(input: AlertMailInput & { minutes: number, aq
 
 /** The e-mail to the tank's own client: the same facts in their kit's units and plain instructions. */
 export function clientDangerMail(input: AlertMailInput & { kitBasis: KitBasisChoice }): MailWords {
-  const kitWords = (message: string) => inKitUnits(message, input.kitBasis)
+  const kitWords = (message: string) => inKitUnits(message, input.kitBasis, [input.reading?.ammoniaN, input.reading?.nitriteN, input.reading?.nitrateN])
   const finding = { ...input.finding, message: kitWords(input.finding.message) }
   const actions = input.actions.map(a => ({ ...a, message: kitWords(a.message) }))
   return compose(`Your tank ${input.tankName} needs you now`,

@@ -110,14 +110,15 @@ export function syncAlertsInDb(db: TidewrightDB, tankId: string, verdict: Verdic
         }, now)
         result.notifiedUserIds.push(aquarist.id)
       }
+      const measured = measuredReading(t, lastReadingId)
       for (const client of clientUsers(t, tank.clientId)) {
         const words = clientDangerMail({
           tankName: tank.name, tankUrl: tankUrl(options.baseUrl, tankId), finding, actions: verdict.actions,
-          reading: measuredReading(t, lastReadingId), units: client.units, kitBasis: tank.kitBasis,
+          reading: measured, units: client.units, kitBasis: tank.kitBasis,
         })
         writeNotice(t, {
           userId: client.id, organisationId: tank.organisationId, kind: 'tank-danger',
-          title: `Act now: ${tank.name}`, body: inKitUnits([finding.message, ...actionLines(verdict.actions).slice(0, 1)].join(' '), tank.kitBasis), link: tankLink(tankId), alertId: row.id,
+          title: `Act now: ${tank.name}`, body: inKitUnits([finding.message, ...actionLines(verdict.actions).slice(0, 1)].join(' '), tank.kitBasis, [measured?.ammoniaN, measured?.nitriteN, measured?.nitrateN]), link: tankLink(tankId), alertId: row.id,
           email: { ...words, messageId: `<alert-${row.id}-client-${client.id}@mail.tidewright.invalid>` },
         }, now)
         result.notifiedUserIds.push(client.id)

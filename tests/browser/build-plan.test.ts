@@ -80,7 +80,7 @@ describe('building a tank through its plan', () => {
     await survey.getByLabel(/has checked this floor/).check()
     await survey.getByLabel('Checked by (name and firm)').fill('Imogen Radcliffe, Radcliffe Structural')
     await survey.getByRole('button', { name: 'Save survey values' }).click()
-    await expect.poll(() => survey.getByText(/^Recorded by /).isVisible()).toBe(true)
+    await expect.poll(() => survey.getByText(/Recorded by /).isVisible()).toBe(true)
     await screenshot(page, 'site-survey-checked-1280')
     await survey.getByRole('button', { name: 'Mark stage done' }).click()
     await expect.poll(() => survey.getByText('Done', { exact: true }).count()).toBe(1)
@@ -88,7 +88,8 @@ describe('building a tank through its plan', () => {
 
     // Stage 2: leak test times and result. A pass after 0 hours is refused (at least 24 h: common practice, no published source).
     const leak = await tickAll(page, 'Leak test')
-    const checkedAt = localInput(new Date(Date.now() - 5 * 60_000))
+    const checked = new Date(Date.now() - 5 * 60_000)
+    const checkedAt = localInput(checked)
     await leak.getByLabel('Filled at').fill(checkedAt)
     await leak.getByLabel('Checked at').fill(checkedAt)
     await leak.getByLabel('Leak test result').selectOption('pass')
@@ -99,7 +100,7 @@ describe('building a tank through its plan', () => {
     await expect.poll(() => leak.getByText(/Enter when the tank was filled/).isVisible()).toBe(true)
     expect(await leak.getByText('Done', { exact: true }).count()).toBe(0)
     await screenshot(page, 'leak-test-refused-1280')
-    await leak.getByLabel('Filled at').fill(localInput(new Date(Date.now() - 26 * 3_600_000)))
+    await leak.getByLabel('Filled at').fill(localInput(new Date(checked.getTime() - 26 * 3_600_000)))
     await expect.poll(() => leak.textContent()).toMatch(/Stood for\s*26\.0 h/)
     await leak.getByRole('button', { name: 'Save leak test' }).click()
     await expect.poll(() => leak.getByText(/this one stood/).count()).toBe(0)
@@ -114,7 +115,9 @@ describe('building a tank through its plan', () => {
     await openStage(page, 'Lighting ramp')
     await expect.poll(() => stageCard(page, 'Lighting ramp').locator('canvas').count()).toBe(1)
     await screenshot(page, 'tank-plan-aquarist-1280')
-    expect(problems).toEqual([])
+    // The three refusals above (survey over the design load, the 0-hour leak test saved and closed) are the only errors.
+    expect(problems.filter(p => /\b400\b/.test(p))).toHaveLength(6)
+    expect(problems.filter(p => !/\b400\b/.test(p))).toEqual([])
     await context.close()
   })
 
@@ -189,6 +192,7 @@ describe('building a tank through its plan', () => {
   it('staff see the tank table with each tank\'s current stage, sortable (1280 px)', async () => {
     const { page, context, problems } = await openPage(browser, 1280)
     await signInThroughForm(page, 'supervisor@tidewright.test')
+    await page.goto('/tanks')
     const table = page.getByRole('table', { name: 'Tanks' })
     await expect.poll(() => table.getByRole('row').count()).toBe(5)
     await table.getByRole('button', { name: 'Current stage' }).click()
