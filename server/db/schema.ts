@@ -5,6 +5,7 @@
  */
 import { sql } from 'drizzle-orm'
 import { index, integer, real, sqliteTable, text, uniqueIndex } from 'drizzle-orm/sqlite-core'
+import type { StoredOrganisationSettings } from '../../shared/schemas/settings'
 
 export const ROLES = ['admin', 'aquarist', 'supervisor', 'client'] as const
 export const TANK_STATUSES = ['planned', 'building', 'cycling', 'cycled', 'signed-off', 'stocking'] as const
@@ -25,8 +26,8 @@ const timestamps = {
 export const organisations = sqliteTable('organisations', {
   id: id(),
   name: text('name').notNull(),
-  /** Company defaults: threshold overrides, default units, alert delays. */
-  settings: text('settings', { mode: 'json' }).$type<Record<string, unknown>>().notNull().default(sql`'{}'`),
+  /** Company settings; read only through readOrganisationSettings (shared/schemas/settings.ts fills defaults). */
+  settings: text('settings', { mode: 'json' }).$type<StoredOrganisationSettings>().notNull().default(sql`'{}'`),
   ...timestamps,
 })
 
