@@ -5,10 +5,11 @@
  */
 import { asc, eq } from 'drizzle-orm'
 import { evaluateCycle } from '../../shared/cycle/engine'
-import type { CycleEvent, CycleInput, CycleReading, Thresholds, Verdict } from '../../shared/cycle/types'
+import type { CycleEvent, CycleInput, CycleReading, Verdict } from '../../shared/cycle/types'
 import { CYCLE_EVENT_KINDS, type CycleEventKind, type EventKind } from '../../shared/vocabulary'
 import type { TidewrightDB } from './connection'
-import { events, organisations, readings, tankVerdicts, tanks } from './schema'
+import { events, readings, tankVerdicts, tanks } from './schema'
+import { readOrganisationSettings } from './settings'
 
 const isCycleEventKind = (kind: EventKind): kind is CycleEventKind => (CYCLE_EVENT_KINDS as readonly string[]).includes(kind)
 
@@ -18,8 +19,7 @@ const defined = <T>(value: T | null): T | undefined => value ?? undefined
 export function cycleInputFor(db: TidewrightDB, tankId: string, now: Date): CycleInput | undefined {
   const tank = db.select().from(tanks).where(eq(tanks.id, tankId)).get()
   if (!tank) return undefined
-  const org = db.select({ settings: organisations.settings }).from(organisations).where(eq(organisations.id, tank.organisationId)).get()
-  const thresholds = (org?.settings?.thresholds ?? {}) as Partial<Thresholds>
+  const { thresholds } = readOrganisationSettings(db, tank.organisationId)
   const readingRows = db.select().from(readings).where(eq(readings.tankId, tankId)).orderBy(asc(readings.takenAt), asc(readings.id)).all()
   const eventRows = db.select().from(events).where(eq(events.tankId, tankId)).orderBy(asc(events.at), asc(events.id)).all()
   // A correction replaces the entry it corrects; the engine sees only the current value.
