@@ -3,23 +3,18 @@ import { and, asc, eq, inArray, isNull, ne, sql } from 'drizzle-orm'
 import { alias } from 'drizzle-orm/sqlite-core'
 import { judgeTank, sortBoard, type BoardAlert, type BoardTank } from '#shared/attention/board'
 import { resolveThresholds } from '#shared/cycle/thresholds'
-import type { Thresholds, Verdict } from '#shared/cycle/types'
+import type { Verdict } from '#shared/cycle/types'
 import type { AttentionQuery } from '#shared/schemas/attention'
 import type { AttentionBoard } from '#shared/types/attention'
-import { alerts, clients, organisations, readings, signOffs, sites, tankVerdicts, tanks, users } from '../db/schema'
+import { alerts, clients, readings, signOffs, sites, tankVerdicts, tanks, users } from '../db/schema'
+import { readOrganisationSettings } from '../db/settings'
 import { visibleTankCondition, type Actor } from './access'
 
 const aquarist = alias(users, 'aquarist')
 const acknowledger = alias(users, 'acknowledger')
 
 function testIntervalHours(organisationId: string): number {
-  const settings = useDB().select({ settings: organisations.settings }).from(organisations).where(eq(organisations.id, organisationId)).get()?.settings
-  try {
-    return resolveThresholds((settings?.thresholds ?? {}) as Partial<Thresholds>).testIntervalHours
-  }
-  catch {
-    return resolveThresholds().testIntervalHours
-  }
+  return resolveThresholds(readOrganisationSettings(useDB(), organisationId).thresholds).testIntervalHours
 }
 
 function groupBy<T>(rows: T[], key: (row: T) => string): Map<string, T[]> {

@@ -5,11 +5,12 @@
  */
 import { and, eq } from 'drizzle-orm'
 import type { EventCorrectionInput, ReadingCorrectionInput, StartStockingInput } from '#shared/schemas/sign-off'
+import { MEASURED_FIELDS } from '#shared/vocabulary'
 import { events, readings, tanks } from '../db/schema'
 import { canManageTank, type Actor } from './access'
 import { assertEntryUnlocked } from './sign-off-lock'
 
-const READING_VALUE_KEYS = ['ammoniaN', 'nitriteN', 'nitrateN', 'pH', 'temperatureC', 'salinity', 'alkalinityDkh', 'calciumMgL', 'magnesiumMgL', 'phosphateMgL', 'notes'] as const
+const READING_VALUE_KEYS = [...MEASURED_FIELDS, 'notes'] as const
 
 function alreadyCorrected(kind: 'reading' | 'event', correctionId: string): never {
   throw createError({
