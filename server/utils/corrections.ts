@@ -87,7 +87,7 @@ export function startStocking(actor: Actor, tank: typeof tanks.$inferSelect, inp
     const livestock = input.livestock
       ? db.insert(events).values({ tankId: tank.id, at, kind: 'livestock-added', group: input.livestock.group, amount: input.livestock.count ?? null, notes: input.livestock.notes || null, enteredBy: actor.id }).returning().get()
       : undefined
-    db.update(tanks).set({ status: 'stocking' }).where(eq(tanks.id, tank.id)).run()
+    moveTank({ tankId: tank.id, trigger: 'stocking-started', actor })
     writeAudit(actor, { action: 'tank.start-stocking', entity: 'tank', entityId: tank.id, before: { status: tank.status }, after: { status: 'stocking', livestockEventId: livestock?.id ?? null, group: livestock?.group ?? null } })
     return livestock?.id ?? null
   })
