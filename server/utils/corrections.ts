@@ -6,7 +6,8 @@
 import { and, eq } from 'drizzle-orm'
 import type { EventCorrectionInput, ReadingCorrectionInput, StartStockingInput } from '#shared/schemas/sign-off'
 import { MEASURED_FIELDS } from '#shared/vocabulary'
-import { events, readings, tanks } from '../db/schema'
+import type { tanks } from '../db/schema'
+import { events, readings } from '../db/schema'
 import { canManageTank, type Actor } from './access'
 import { assertEntryUnlocked } from './sign-off-lock'
 

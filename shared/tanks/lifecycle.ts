@@ -65,9 +65,9 @@ export const TANK_LIFECYCLE = {
 export type TankTrigger = keyof typeof TANK_LIFECYCLE
 export const TANK_TRIGGERS = Object.keys(TANK_LIFECYCLE) as TankTrigger[]
 
-export type TransitionCheck =
-  | { ok: true, to: TankStatus }
-  | { ok: false, refusal: 'role' | 'status', message: string }
+export type TransitionCheck
+  = | { ok: true, to: TankStatus }
+    | { ok: false, refusal: 'role' | 'status', message: string }
 
 /** Whether `trigger` may move a tank in status `from`, caused by `by`; and if so, to what. */
 export function checkTransition(from: TankStatus, trigger: TankTrigger, by: TransitionActor): TransitionCheck {

@@ -20,7 +20,6 @@ export interface TimeRange {
   to?: string
 }
 
-
 type ReadingRow = typeof readings.$inferSelect
 type EventRow = typeof events.$inferSelect
 
