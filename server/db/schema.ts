@@ -5,6 +5,7 @@
  */
 import { sql } from 'drizzle-orm'
 import { index, integer, real, sqliteTable, text, uniqueIndex } from 'drizzle-orm/sqlite-core'
+import type { StoredOrganisationSettings } from '../../shared/schemas/settings'
 
 import {
   ALERT_STATUSES, AUTH_TOKEN_PURPOSES, CYCLE_METHODS, CYCLE_PHASES, EVENT_KINDS, LIVESTOCK_GROUPS, MAIL_STATUSES, ROLES, SIGN_OFF_STATUSES,
@@ -23,8 +24,8 @@ const timestamps = {
 export const organisations = sqliteTable('organisations', {
   id: id(),
   name: text('name').notNull(),
-  /** Company defaults: threshold overrides, default units, alert delays. */
-  settings: text('settings', { mode: 'json' }).$type<Record<string, unknown>>().notNull().default(sql`'{}'`),
+  /** Company settings; read only through readOrganisationSettings (shared/schemas/settings.ts fills defaults). */
+  settings: text('settings', { mode: 'json' }).$type<StoredOrganisationSettings>().notNull().default(sql`'{}'`),
   ...timestamps,
 })
 

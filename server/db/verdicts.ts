@@ -5,11 +5,12 @@
  */
 import { eq } from 'drizzle-orm'
 import { evaluateCycle } from '../../shared/cycle/engine'
-import type { CycleEvent, CycleInput, CycleReading, Thresholds, Verdict } from '../../shared/cycle/types'
+import type { CycleEvent, CycleInput, CycleReading, Verdict } from '../../shared/cycle/types'
 import { CYCLE_EVENT_KINDS, type CycleEventKind, type EventKind } from '../../shared/vocabulary'
 import type { TidewrightDB } from './connection'
 import { tankEvents, tankReadings } from '../domain/readings/current'
-import { organisations, tankVerdicts, tanks } from './schema'
+import { tankVerdicts, tanks } from './schema'
+import { readOrganisationSettings } from './settings'
 
 const isCycleEventKind = (kind: EventKind): kind is CycleEventKind => (CYCLE_EVENT_KINDS as readonly string[]).includes(kind)
 
@@ -19,8 +20,7 @@ const defined = <T>(value: T | null): T | undefined => value ?? undefined
 export function cycleInputFor(db: TidewrightDB, tankId: string, now: Date): CycleInput | undefined {
   const tank = db.select().from(tanks).where(eq(tanks.id, tankId)).get()
   if (!tank) return undefined
-  const org = db.select({ settings: organisations.settings }).from(organisations).where(eq(organisations.id, tank.organisationId)).get()
-  const thresholds = (org?.settings?.thresholds ?? {}) as Partial<Thresholds>
+  const { thresholds } = readOrganisationSettings(db, tank.organisationId)
   // A correction replaces the entry it corrects; the engine sees only the current value.
   const readingRows = tankReadings(db, tankId)
   const eventRows = tankEvents(db, tankId)
