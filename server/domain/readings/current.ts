@@ -42,9 +42,8 @@ function countOf(db: Db, table: typeof readings | typeof events, where: SQL | un
   return db.select({ n: count() }).from(table).where(where).get()?.n ?? 0
 }
 
-function withTrail<Row>(row: Row, enteredByName: string | null, later: { id: string | null, reason: string | null, at: string | null }, byName: string | null): WithTrail<Row> {
-  const replacedBy = later.id && later.at ? { id: later.id, reason: later.reason, byName, at: later.at } : null
-  return { ...row, enteredByName, replacedBy }
+function withTrail<Row>(row: Row, enteredByName: string | null, later: Omit<Replacement, 'byName'> | null, byName: string | null): WithTrail<Row> {
+  return { ...row, enteredByName, replacedBy: later ? { ...later, byName } : null }
 }
 
 /** The filter for a tank's readings in a range; `current` leaves out replaced rows. */
