@@ -40,12 +40,13 @@ export const TANK_LIFECYCLE = {
     from: ['cycling', 'cycled'], to: 'cycled', by: STAFF_WHO_BUILD,
     means: 'the cycle was put up for sign-off',
   },
+  // A waiting request is decided whether the tank is still cycled or was moved back to cycling.
   'sign-off-approved': {
-    from: ['cycled'], to: 'signed-off', by: STAFF_WHO_SIGN,
+    from: ['cycling', 'cycled'], to: 'signed-off', by: STAFF_WHO_SIGN,
     means: 'the supervisor signed the cycle off',
   },
   'sign-off-returned': {
-    from: ['cycled'], to: 'cycling', by: STAFF_WHO_SIGN,
+    from: ['cycling', 'cycled'], to: 'cycling', by: STAFF_WHO_SIGN,
     means: 'the supervisor sent the cycle back',
   },
   'sign-off-reopened': {

@@ -8,7 +8,7 @@
  *
  * Framework-free: takes a `Db` (the connection or a transaction).
  */
-import { and, asc, count, desc, eq, gte, isNull, lte, type SQL } from 'drizzle-orm'
+import { and, asc, count, desc, eq, gte, isNull, lte, sql, type SQL } from 'drizzle-orm'
 import { alias, type AnySQLiteColumn } from 'drizzle-orm/sqlite-core'
 import type { Replacement } from '../../../shared/types/readings'
 import type { Db } from '../../db/connection'
@@ -91,14 +91,14 @@ function eventQuery(db: Db) {
 /** A tank's readings, oldest first: the current ones, or every row with its trail. */
 export function tankReadings(db: Db, tankId: string, options: { range?: TimeRange, which?: Which } = {}): ReadingWithTrail[] {
   return readingQuery(db).where(readingFilter(tankId, options.range ?? {}, options.which ?? 'current'))
-    .orderBy(asc(readings.takenAt), asc(readings.createdAt), asc(readings.id)).all()
+    .orderBy(asc(readings.takenAt), asc(readings.createdAt), asc(sql`${readings}.rowid`)).all()
     .map(r => withTrail(r.row, r.enteredByName, r.later, r.byName))
 }
 
 /** A tank's events, oldest first: the current ones, or every row with its trail. */
 export function tankEvents(db: Db, tankId: string, options: { range?: TimeRange, which?: Which } = {}): EventWithTrail[] {
   return eventQuery(db).where(eventFilter(tankId, options.range ?? {}, options.which ?? 'current'))
-    .orderBy(asc(events.at), asc(events.createdAt), asc(events.id)).all()
+    .orderBy(asc(events.at), asc(events.createdAt), asc(sql`${events}.rowid`)).all()
     .map(r => withTrail(r.row, r.enteredByName, r.later, r.byName))
 }
 

@@ -40,7 +40,7 @@ describe('the tank lifecycle table', () => {
   })
 
   it('refuses a trigger from a status it does not apply to', () => {
-    expect(checkTransition('cycling', 'sign-off-approved', 'supervisor')).toMatchObject({ ok: false, refusal: 'status' })
+    expect(checkTransition('building', 'sign-off-approved', 'supervisor')).toMatchObject({ ok: false, refusal: 'status' })
     expect(checkTransition('planned', 'stocking-started', 'admin')).toMatchObject({ ok: false, refusal: 'status' })
     expect(checkTransition('stocking', 'livestock-logged', 'system')).toMatchObject({ ok: false, refusal: 'status' })
     expect(checkTransition('cycled', 'stage-started', 'aquarist')).toMatchObject({ ok: false, refusal: 'status' })
@@ -81,6 +81,7 @@ describe('the tank lifecycle table', () => {
   it('lists the triggers that apply to each status', () => {
     expect(triggersFrom('planned')).toEqual(['stage-started', 'water-filled'])
     expect(triggersFrom('cycled')).toEqual(['sign-off-requested', 'sign-off-approved', 'sign-off-returned'])
+    expect(triggersFrom('cycling')).toEqual(['sign-off-requested', 'sign-off-approved', 'sign-off-returned'])
     expect(triggersFrom('stocking')).toEqual(['sign-off-reopened'])
   })
 })

@@ -50,7 +50,7 @@ describe('changeTankStatus', () => {
 
   it('refuses what the table refuses and writes nothing', () => {
     const tank = tankIn('cycling')
-    expect(() => changeTankStatus(db, { tankId: tank.id, trigger: 'sign-off-approved', actor: supervisor })).toThrow(TankStatusRefused)
+    expect(() => changeTankStatus(db, { tankId: tank.id, trigger: 'stocking-started', actor: aquarist })).toThrow(TankStatusRefused)
     expect(() => changeTankStatus(db, { tankId: tank.id, trigger: 'sign-off-requested', actor: supervisor })).toThrow(/Only admin or aquarist/)
     expect(statusOf(tank.id)).toBe('cycling')
     expect(auditOf(tank.id)).toEqual([])
