@@ -172,6 +172,8 @@ export const readings = sqliteTable('readings', {
 }, t => [
   index('readings_tank_taken').on(t.tankId, t.takenAt),
   uniqueIndex('readings_tank_import_key').on(t.tankId, t.importKey),
+  // One correction per row: the current value is never in doubt, even for two corrections at once.
+  uniqueIndex('readings_corrects_unique').on(t.correctsId),
 ])
 
 export const events = sqliteTable('events', {
@@ -187,7 +189,7 @@ export const events = sqliteTable('events', {
   correctsId: text('corrects_id'),
   correctionReason: text('correction_reason'),
   ...timestamps,
-}, t => [index('events_tank_at').on(t.tankId, t.at)])
+}, t => [index('events_tank_at').on(t.tankId, t.at), uniqueIndex('events_corrects_unique').on(t.correctsId)])
 
 /** The engine's current verdict per tank, stored so lists read it without recomputing. */
 export const tankVerdicts = sqliteTable('tank_verdicts', {
