@@ -57,7 +57,7 @@ export function measuredLines(reading: MeasuredReading | null, units: UnitSystem
 const kitLabel = (basis: string) => (basis === 'N' ? 'as N' : `as ${basis}`)
 
 /** The values of a reading as the client's own kits read them (ppm as NH3, NO2, NO3 or as N). */
-export function kitMeasuredLines(reading: MeasuredReading | null, kit: KitBasisChoice, units: 'us' | 'metric'): string[] {
+export function kitMeasuredLines(reading: MeasuredReading | null, kit: KitBasisChoice, units: UnitSystem): string[] {
   if (!reading) return []
   const lines: string[] = []
   if (reading.ammoniaN !== null) lines.push(`Ammonia ${formatNumber(nitrogenToKit(reading.ammoniaN, kit.ammonia))} ppm ${kitLabel(kit.ammonia)}`)

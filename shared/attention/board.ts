@@ -8,13 +8,14 @@ import type { Verdict } from '../cycle/types'
 import type { AttentionItem, AttentionSignal } from '../types/attention'
 import type { CyclePhase, TankStatus } from '../types/tanks'
 import type { AttentionQuery } from '../schemas/attention'
+import type { ACTIVE_ALERT_STATUSES } from '../vocabulary'
 
 const HOUR_MS = 3_600_000
 
 export interface BoardAlert {
   message: string
   openedAt: string
-  status: 'open' | 'acknowledged'
+  status: (typeof ACTIVE_ALERT_STATUSES)[number]
   acknowledgedByName: string | null
   acknowledgedAt: string | null
   escalatedAt: string | null

@@ -7,6 +7,7 @@
 import { tankShapeOf } from '../calc/tank-shape'
 import type { TankDimensionsMm } from '../calc/volume'
 import { filledWeight, type RoomUse, type WeightResult } from '../calc/weight'
+import type { TankMaterial } from '../vocabulary'
 
 /** Salinity and temperature the weight is estimated at: a reef tank's usual target. */
 const TARGET_SALINITY = 35
@@ -18,7 +19,7 @@ const DEFAULT_PANEL_MM = 10
 export interface SurveyLoadTank {
   shape: string
   dimensions: TankDimensionsMm
-  material: 'glass' | 'acrylic'
+  material: TankMaterial
   sumpLitres: number
 }
 
