@@ -1,23 +1,10 @@
 import type { Actor } from './access'
-import { auditLog } from '../db/schema'
+import { appendAudit, type AuditEntry } from '../domain/audit/append'
 
-export interface AuditEntry {
-  action: string
-  entity: string
-  entityId?: string | null
-  before?: unknown
-  after?: unknown
-}
-
-/** Appends one line to the organisation's audit log. The log is never updated or deleted. */
+/**
+ * Appends one line to the organisation's audit log on the process's connection. Called
+ * inside a `useDB().transaction(...)` it joins that transaction (one connection, synchronous).
+ */
 export function writeAudit(actor: Pick<Actor, 'id' | 'organisationId'>, entry: AuditEntry): void {
-  useDB().insert(auditLog).values({
-    organisationId: actor.organisationId,
-    actorId: actor.id,
-    action: entry.action,
-    entity: entry.entity,
-    entityId: entry.entityId ?? null,
-    before: entry.before ?? null,
-    after: entry.after ?? null,
-  }).run()
+  appendAudit(useDB(), actor, entry)
 }
