@@ -5,7 +5,7 @@
  */
 import { and, eq, isNull, type SQL } from 'drizzle-orm'
 import type { H3Event } from 'h3'
-import type { Role } from '#shared/types/roles'
+import type { Role, UnitSystem } from '#shared/vocabulary'
 import { tanks } from '../db/schema'
 
 export interface Actor {
@@ -15,7 +15,7 @@ export interface Actor {
   organisationId: string
   /** The client record a client account belongs to; null for staff. */
   clientId: string | null
-  units: 'us' | 'metric'
+  units: UnitSystem
   /** The server-side session this request came with. */
   sessionId: string
 }

@@ -6,7 +6,7 @@
 import { and, eq, ne, sql } from 'drizzle-orm'
 import type { TidewrightDB } from '../../db/connection'
 import { users } from '../../db/schema'
-import { appendAudit, type AuditActor } from '../audit/append'
+import { recordAudit, type AuditWho } from '../audit/record'
 import { endSessionsOfUser } from '../sessions/sessions'
 
 export type StaffRole = 'admin' | 'aquarist' | 'supervisor'
@@ -26,7 +26,7 @@ export class PersonChangeRefused extends Error {
   }
 }
 
-type Actor = AuditActor & { id: string }
+type Actor = AuditWho & { id: string }
 
 function toView(row: typeof users.$inferSelect): PersonView {
   return { id: row.id, name: row.name, email: row.email, role: row.role, active: row.active }
@@ -56,7 +56,7 @@ export function deactivatePerson(db: TidewrightDB, actor: Actor, personId: strin
     if (!before.active) return toView(before)
     const after = t.update(users).set({ active: false }).where(eq(users.id, personId)).returning().get()
     const ended = endSessionsOfUser(t, personId, { reason: 'deactivated', now })
-    appendAudit(t, actor, { action: 'user.deactivate', entity: 'user', entityId: personId, before: toView(before), after: { ...toView(after), sessionsEnded: ended } })
+    recordAudit(t, actor, { action: 'user.deactivate', entity: 'user', entityId: personId, before: toView(before), after: { ...toView(after), sessionsEnded: ended } })
     return toView(after)
   })
 }
@@ -68,7 +68,7 @@ export function reactivatePerson(db: TidewrightDB, actor: Actor, personId: strin
     const before = findPerson(t, actor, personId)
     if (before.active) return toView(before)
     const after = t.update(users).set({ active: true }).where(eq(users.id, personId)).returning().get()
-    appendAudit(t, actor, { action: 'user.reactivate', entity: 'user', entityId: personId, before: toView(before), after: toView(after) })
+    recordAudit(t, actor, { action: 'user.reactivate', entity: 'user', entityId: personId, before: toView(before), after: toView(after) })
     return toView(after)
   })
 }
@@ -86,7 +86,7 @@ export function changePersonRole(db: TidewrightDB, actor: Actor, personId: strin
     if (before.role === 'admin' && before.active && otherActiveAdmins(t, actor.organisationId, personId) === 0) throw new PersonChangeRefused(409, LAST_ADMIN)
     const after = t.update(users).set({ role }).where(eq(users.id, personId)).returning().get()
     const ended = endSessionsOfUser(t, personId, { reason: 'role-changed', now })
-    appendAudit(t, actor, { action: 'user.role-change', entity: 'user', entityId: personId, before: toView(before), after: { ...toView(after), sessionsEnded: ended } })
+    recordAudit(t, actor, { action: 'user.role-change', entity: 'user', entityId: personId, before: toView(before), after: { ...toView(after), sessionsEnded: ended } })
     return toView(after)
   })
 }
