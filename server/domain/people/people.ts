@@ -4,12 +4,12 @@
  * may leave the company without an active admin.
  */
 import { and, eq, ne, sql } from 'drizzle-orm'
+import type { StaffRole } from '#shared/vocabulary'
 import type { TidewrightDB } from '../../db/connection'
 import { users } from '../../db/schema'
 import { recordAudit, type AuditWho } from '../audit/record'
 import { endSessionsOfUser } from '../sessions/sessions'
 
-export type StaffRole = 'admin' | 'aquarist' | 'supervisor'
 
 export interface PersonView {
   id: string
