@@ -10,7 +10,6 @@ import { users } from '../../db/schema'
 import { recordAudit, type AuditWho } from '../audit/record'
 import { endSessionsOfUser } from '../sessions/sessions'
 
-
 export interface PersonView {
   id: string
   name: string
