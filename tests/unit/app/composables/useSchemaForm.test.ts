@@ -2,6 +2,7 @@ import * as v from 'valibot'
 import { nextTick } from 'vue'
 import { describe, expect, it } from 'vitest'
 import { CHECK_FIELDS, leaves, unshown, useSchemaForm, withoutFields } from '../../../../app/composables/useSchemaForm'
+import type { FieldErrors } from '../../../../app/utils/api-error'
 
 const ClientSchema = v.object({
   name: v.pipe(v.string(), v.trim(), v.minLength(1, 'Give the client a name.')),
@@ -35,7 +36,7 @@ describe('useSchemaForm', () => {
 
   it('adds the checks a schema cannot make to the same list', () => {
     const form = useSchemaForm(ClientSchema, { ...blank(), email: 'a@b.test' }, {
-      check: values => (values.notes === '' ? { notes: 'Say something.' } : {}),
+      check: (values): FieldErrors => (values.notes === '' ? { notes: 'Say something.' } : {}),
     })
     expect(form.validate().ok).toBe(false)
     expect(form.errors).toEqual({ name: 'Give the client a name.', notes: 'Say something.' })
