@@ -1,4 +1,6 @@
 /** API response shapes for tanks. Values are canonical (litres, mm); the client converts for display. */
+import type { CycleForecast } from '../cycle/forecast/types'
+
 export type TankStatus = 'planned' | 'building' | 'cycling' | 'cycled' | 'signed-off' | 'stocking'
 export type CyclePhase = 'not-started' | 'ammonia' | 'nitrite' | 'settling' | 'complete'
 
@@ -20,6 +22,8 @@ export interface TankSummary {
   stagesTotal: number
   cycleStartedAt: string | null
   updatedAt: string
+  /** In lists, for tanks cycling or awaiting sign-off: when the cycle is likely to be proven (never a promise). */
+  forecast?: CycleForecast | null
 }
 
 export interface TankList {

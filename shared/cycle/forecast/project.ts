@@ -45,10 +45,13 @@ export interface ProjectionBase {
   testEveryHours: number
 }
 
-/** Times of the assumed future tests: on the latest test's rhythm, from the first one after now. */
-export function futureTestTimes(base: ProjectionBase): number[] {
+/** Most proofs need a few days of zero tests; the engine first runs on this many days past T, then on the whole horizon. */
+const FIRST_TRY_DAYS = 14
+
+/** Times of the assumed future tests: on the latest test's rhythm, from the first one after now, up to `untilMs`. */
+export function futureTestTimes(base: ProjectionBase, untilMs = base.lastTestMs + HORIZON_DAYS * DAY_MS): number[] {
   const step = base.testEveryHours * HOUR_MS
-  const end = base.lastTestMs + HORIZON_DAYS * DAY_MS
+  const end = Math.min(untilMs, base.lastTestMs + HORIZON_DAYS * DAY_MS)
   const times: number[] = []
   let t = base.lastTestMs + step
   while (t <= base.nowMs) t += step
@@ -74,9 +77,13 @@ function assumedTest(base: ProjectionBase, t: number, zero: boolean, index: numb
  * inside the horizon.
  */
 export function projectCompletion(base: ProjectionBase, zeroFromMs: number): Projection | null {
+  return projectUntil(base, zeroFromMs, zeroFromMs + FIRST_TRY_DAYS * DAY_MS) ?? projectUntil(base, zeroFromMs, Number.POSITIVE_INFINITY)
+}
+
+function projectUntil(base: ProjectionBase, zeroFromMs: number, untilMs: number): Projection | null {
   const readings = [...base.input.readings]
   const events = [...(base.input.events ?? [])]
-  const times = futureTestTimes(base)
+  const times = futureTestTimes(base, untilMs)
   times.forEach((t, i) => {
     const zero = t >= zeroFromMs
     readings.push(assumedTest(base, t, zero, i))
