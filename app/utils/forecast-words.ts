@@ -1,11 +1,14 @@
 import type { CycleForecast, ForecastRange } from '#shared/types/forecast'
 import { formatDate } from '~/utils/format'
 
-/** "between 18 Dec 2026 and 24 Dec 2026", or "on 18 Dec 2026" when both ends fall on one day. */
+/** "between Dec 18 and Dec 24, 2026" (the year once when both ends share it), or "on Dec 18, 2026". */
 export function rangeWords(range: ForecastRange): string {
   const from = formatDate(range.from)
   const to = formatDate(range.to)
-  return from === to ? `on ${from}` : `between ${from} and ${to}`
+  if (from === to) return `on ${from}`
+  const sameYear = new Date(range.from).getFullYear() === new Date(range.to).getFullYear()
+  const short = new Date(range.from).toLocaleDateString(undefined, { day: 'numeric', month: 'short' })
+  return `between ${sameYear ? short : from} and ${to}`
 }
 
 /**
@@ -17,6 +20,3 @@ export function fishHeadline(forecast: CycleForecast, cycleMethod: 'fishless' | 
   if (forecast.status !== 'forecast' || !fish) return null
   return `Likely ready for ${cycleMethod === 'fish-in' ? 'more fish' : 'fish'} ${rangeWords(fish)}`
 }
-
-/** Said wherever a forecast is shown: the verdict, not the forecast, decides. */
-export const FORECAST_CAVEAT = 'A forecast, not a promise: livestock goes in only when the verdict says the cycle is complete.'

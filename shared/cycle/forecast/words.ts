@@ -34,15 +34,15 @@ function fitWords(fit: DeclineFit, date: DateWords): string {
   return `${SERIES_WORDS[fit.series]} has halved ${halvingWords(fit.halvingDays)} since ${date(fit.since)} (${fit.tests} tests); at that pace it reads zero on the kit between ${date(fit.readsZero.from)} and ${date(fit.readsZero.to)}.`
 }
 
-const CAVEAT = 'This is a forecast, not a promise: the cycle is complete only when the verdict says so.'
+/** Said wherever a forecast is shown: the verdict, not the forecast, decides. */
+export const FORECAST_CAVEAT = 'A forecast, not a promise: livestock goes in only when the verdict says the cycle is complete.'
 
-/** What the forecast rests on, in plain sentences, ending with the caveat. */
+/** What the forecast rests on, in plain sentences; show FORECAST_CAVEAT beside it. */
 export function explainForecast(forecast: CycleForecast, date: DateWords): string {
   if (forecast.status === 'complete') return `The verdict proved the cycle complete on ${date(forecast.completion!.from)}.`
   if (forecast.status === 'not-enough-data') return forecastGapWords(forecast.gap ?? 'sparse')
   const parts = forecast.basis.fits.map(f => fitWords(f, date))
   if (forecast.basis.readingZero) parts.push('Ammonia and nitrite already read zero; what is left is the run of zero tests the verdict needs as proof.')
   parts.push(`It assumes a test about every ${forecast.basis.testEveryHours} hours from now on, and no water change meanwhile; ${Math.round(forecast.probability * 100)} out of 100 such ranges should hold the real date.`)
-  parts.push(CAVEAT)
   return parts.join(' ')
 }

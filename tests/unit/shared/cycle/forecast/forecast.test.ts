@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest'
 import { evaluateCycle } from '../../../../../shared/cycle/engine'
 import { DEFAULT_THRESHOLDS } from '../../../../../shared/cycle/thresholds'
-import { explainForecast, FORECAST_VERSION, forecastCycle, type CycleForecast } from '../../../../../shared/cycle/forecast'
+import { explainForecast, FORECAST_CAVEAT, FORECAST_VERSION, forecastCycle, type CycleForecast } from '../../../../../shared/cycle/forecast'
 import { fishInWithSpike, nitriteStall, textbookFishless } from '../scenarios'
 import { TankLog } from '../tank-log'
 import { FISH_IN, SLOW, syntheticTank, TEXTBOOK, type CurveShape } from './synthetic'
@@ -89,7 +89,8 @@ describe('completion forecast on the textbook fishless cycle', () => {
     const f = forecastCycle(log.input(16))
     const words = explainForecast(f, iso => iso.slice(5, 10))
     expect(words).toMatch(/Nitrite has halved about every \d+ days? since 03-1\d \(\d+ tests\)/)
-    expect(words).toContain('not a promise')
+    expect(words).toContain('It assumes a test about every 24 hours')
+    expect(FORECAST_CAVEAT).toContain('not a promise')
     expect(f.forecastVersion).toBe(FORECAST_VERSION)
   })
 
