@@ -115,9 +115,11 @@ export async function seedDemo(db: TidewrightDB, now = new Date()): Promise<Demo
     const addHistory = (tankId: string, enteredBy: string, history: ReturnType<typeof simulateHistory>) => {
       if (history.length) tx.insert(readings).values(history.map(r => ({ tankId, enteredBy, ...r }))).run()
     }
-    addHistory(lounge, ids.client, simulateHistory({ start: loungeStart, days: 12, curve: FISHLESS_CURVE, seed: 7, skip: [4] }))
-    addHistory(nano, ids.client2, simulateHistory({ start: nanoStart, days: 34, curve: FISHLESS_CURVE, seed: 11, hour: 19 }))
-    addHistory(study, ids.client3, simulateHistory({ start: studyStart, days: 10, curve: FISH_IN_CURVE, seed: 23, hour: 8, spikes: { 8: 0.55, 9: 0.45 } }))
+    // Today's test counts only once it is at least an hour old: the demo never shows a test from the future.
+    const notAfter = new Date(now.getTime() - 3_600_000)
+    addHistory(lounge, ids.client, simulateHistory({ start: loungeStart, days: 12, curve: FISHLESS_CURVE, seed: 7, skip: [4], notAfter }))
+    addHistory(nano, ids.client2, simulateHistory({ start: nanoStart, days: 34, curve: FISHLESS_CURVE, seed: 11, hour: 19, notAfter }))
+    addHistory(study, ids.client3, simulateHistory({ start: studyStart, days: 10, curve: FISH_IN_CURVE, seed: 23, hour: 8, spikes: { 8: 0.55, 9: 0.45 }, notAfter }))
 
     const at = (start: Date, day: number, hour: number) => new Date(start.getTime() + day * DAY + (hour - start.getUTCHours()) * 3_600_000).toISOString()
     tx.insert(events).values([

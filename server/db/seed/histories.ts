@@ -73,6 +73,8 @@ export interface HistoryOptions {
   skip?: number[]
   /** Extra total ammonia (mg/L N) on given days: a spike. */
   spikes?: Record<number, number>
+  /** Tests after this moment have not been taken yet, so they are left out: a demo never shows a future test. */
+  notAfter?: Date
 }
 
 /** One reading a day, as read off the kit charts, with the kit's own units kept as typed. */
@@ -83,6 +85,7 @@ export function simulateHistory(options: HistoryOptions): SimulatedReading[] {
     if (options.skip?.includes(day)) continue
     const at = new Date(options.start.getTime() + day * 86_400_000)
     at.setUTCHours(options.hour ?? 18, Math.floor(random() * 50), 0, 0)
+    if (options.notAfter && at > options.notAfter) break
     const ammoniaPpm = nearestStep(AMMONIA_CHART, fromNitrogen(options.curve.ammoniaN(day) + (options.spikes?.[day] ?? 0), 'NH3'))
     const nitritePpm = nearestStep(NITRITE_CHART, fromNitrogen(options.curve.nitriteN(day), 'NO2'))
     const nitratePpm = nearestStep(NITRATE_CHART, fromNitrogen(options.curve.nitrateN(day), 'NO3'))
