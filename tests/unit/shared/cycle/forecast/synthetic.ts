@@ -54,6 +54,8 @@ export interface CurveShape {
 
 export const TEXTBOOK: CurveShape = { ammoniaHalfDay: 6, nitritePeakDay: 12, nitritePeakN: 1.5, growth: 0.35, noise: 0.1, lastDay: 40, method: 'fishless' }
 export const SLOW: CurveShape = { ammoniaHalfDay: 12, nitritePeakDay: 26, nitritePeakN: 1.5, growth: 0.16, noise: 0.1, lastDay: 70, method: 'fishless' }
+/** Nitrite climbs and never falls: the eaters do not grow (low alkalinity, no NOB). */
+export const STALL: CurveShape = { ammoniaHalfDay: 6, nitritePeakDay: 12, nitritePeakN: 1.5, growth: 0, noise: 0.1, lastDay: 40, method: 'fishless' }
 export const FISH_IN: CurveShape = { ammoniaHalfDay: 8, nitritePeakDay: 13, nitritePeakN: 0.6, growth: 0.3, noise: 0.1, lastDay: 45, method: 'fish-in' }
 
 function nitriteAt(shape: CurveShape, day: number): number {
