@@ -1,4 +1,5 @@
 import type { CycleForecast, ForecastRange } from '#shared/types/forecast'
+import type { CycleMethod } from '#shared/vocabulary'
 import { formatDate } from '~/utils/format'
 
 /** "between Dec 18 and Dec 24, 2026" (the year once when both ends share it), or "on Dec 18, 2026". */
@@ -15,7 +16,7 @@ export function rangeWords(range: ForecastRange): string {
  * The one line a client looks for: when fish may likely go in. A fish-in tank already
  * holds its fish, so it speaks of more fish.
  */
-export function fishHeadline(forecast: CycleForecast, cycleMethod: 'fishless' | 'fish-in'): string | null {
+export function fishHeadline(forecast: CycleForecast, cycleMethod: CycleMethod): string | null {
   const fish = forecast.groups.fish
   if (forecast.status !== 'forecast' || !fish) return null
   return `Likely ready for ${cycleMethod === 'fish-in' ? 'more fish' : 'fish'} ${rangeWords(fish)}`

@@ -28,7 +28,7 @@ export async function waitForMail<T>(what: string, pick: (mail: CaughtMail[]) =>
   }
 }
 
-export interface TickResult { escalated: number, reminded: number, aquaristsTold: number, digests: number, sent: number, failed: number }
+export interface TickResult { escalated: number, reminded: number, aquaristsTold: number, sent: number, failed: number }
 
 /** Runs the worker once at `now` (test hooks only). */
 export async function tick(now: Date): Promise<TickResult> {

@@ -7,9 +7,10 @@ import { forecastCycle } from '../../../shared/cycle/forecast'
 import type { CycleForecast } from '../../../shared/cycle/forecast'
 import type { TidewrightDB } from '../../db/connection'
 import { cycleInputFor } from '../../db/verdicts'
+import type { TankStatus } from '../../../shared/vocabulary'
 
 /** Tank statuses in which a cycle forecast means something to the reader. */
-export const FORECAST_STATUSES: ReadonlySet<string> = new Set(['cycling', 'cycled'])
+export const FORECAST_STATUSES: ReadonlySet<TankStatus> = new Set<TankStatus>(['cycling', 'cycled'])
 
 /** The forecast for `tankId` at `now`, or undefined when there is no such tank. */
 export function forecastTank(db: TidewrightDB, tankId: string, now: Date): CycleForecast | undefined {

@@ -8,6 +8,7 @@
  */
 
 import { nitrogenFraction } from '../../../../../shared/chemistry/nitrogen'
+import type { CycleMethod } from '../../../../../shared/vocabulary'
 import { TankLog } from '../tank-log'
 import { DOSE_2PPM_N } from '../scenarios'
 
@@ -49,7 +50,7 @@ export interface CurveShape {
   noise: number
   /** Last day tested. */
   lastDay: number
-  method: 'fishless' | 'fish-in'
+  method: CycleMethod
 }
 
 export const TEXTBOOK: CurveShape = { ammoniaHalfDay: 6, nitritePeakDay: 12, nitritePeakN: 1.5, growth: 0.35, noise: 0.1, lastDay: 40, method: 'fishless' }
