@@ -93,6 +93,13 @@ function curveTests(tests: readonly TimedTest[], doses: readonly ProofDose[], th
   return kept
 }
 
+/** The latest dose after the latest curve test, when no test at all has followed it yet. */
+function uncheckedDose(doses: readonly ProofDose[], allTests: readonly TimedTest[], lastCurveTestMs: number): number | null {
+  const last = doses[doses.length - 1]
+  if (!last || last.t <= lastCurveTestMs) return null
+  return allTests.some(t => t.t > last.t) ? null : last.t
+}
+
 /** The input without tests or events after now: the assumed routine must continue from now, not from a later record. */
 function pastOnly(input: CycleInput, nowMs: number): CycleInput {
   const past = (iso: string) => !(parseTime(iso) > nowMs)
@@ -177,7 +184,8 @@ export function forecastCycle(input: CycleInput): CycleForecast {
   const thresholds = resolveThresholds(input.thresholds)
   const verdict = evaluateCycle(input)
   const doses = dosesUpTo(input, nowMs)
-  const tests = curveTests(testsUpTo(input, nowMs), doses, thresholds)
+  const allTests = testsUpTo(input, nowMs)
+  const tests = curveTests(allTests, doses, thresholds)
   const lastTest = tests[tests.length - 1]
   const testEveryHours = thresholds.retestHours
   const basis: ForecastBasis = { fits: [], readingZero: false, testEveryHours, latestTest: lastTest ? toIso(lastTest.t) : null, relapseDays: 0 }
@@ -214,6 +222,7 @@ export function forecastCycle(input: CycleInput): CycleForecast {
     doseAfterZeroTests,
     // The latest test read zero and no dose followed it yet: the routine starts with that dose.
     doseNow: doseAfterZeroTests && basis.readingZero && !doses.some(d => d.t > lastTest.t),
+    uncheckedDoseMs: uncheckedDose(doses, allTests, lastTest.t),
     testEveryHours,
   }
   const nextTestMs = futureTestTimes(base)[0] ?? nowMs

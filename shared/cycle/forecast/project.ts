@@ -47,6 +47,8 @@ export interface ProjectionBase {
   doseAfterZeroTests: boolean
   /** The latest real test read zero and no dose followed it: the routine doses right after now. */
   doseNow: boolean
+  /** A real dose after the latest test whose arrival no test has shown yet (time), or null. */
+  uncheckedDoseMs: number | null
   testEveryHours: number
 }
 
@@ -118,6 +120,11 @@ function projectUntil(base: ProjectionBase, zeroFromMs: number, untilMs: number,
     }
   }
   if (base.doseNow) dose(base.nowMs, 'now')
+  // A dose given today is checked a few hours later, as the routine checks its own doses.
+  if (routine === 'checked' && base.uncheckedDoseMs !== null) {
+    const at = Math.max(base.uncheckedDoseMs + ARRIVAL_CHECK_HOURS * HOUR_MS, base.nowMs + 60_000)
+    if (times[0] === undefined || at < times[0]) readings.push({ id: 'forecast-check-pending', takenAt: toIso(at), ammoniaN: base.thresholds.clearanceDoseN, nitriteN: 0, nitrateN: base.nitrateN })
+  }
   times.forEach((t, i) => {
     const zero = t >= zeroFromMs
     readings.push(assumedTest(base, t, zero, i))
