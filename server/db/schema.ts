@@ -232,12 +232,12 @@ export const sessions = sqliteTable('sessions', {
   endReason: text('end_reason'),
 }, t => [uniqueIndex('sessions_token_hash').on(t.tokenHash), index('sessions_user_idx').on(t.userId, t.endedAt)])
 
-/** Failed sign-ins, for throttling; keyed by normalised e-mail and by client address. */
-export const signInFailures = sqliteTable('sign_in_failures', {
+/** One attempt counted by a throttle (sign-in, reset and invitation mail), by key and time. */
+export const throttleMarks = sqliteTable('throttle_marks', {
   id: integer('id').primaryKey({ autoIncrement: true }),
   key: text('key').notNull(),
   at: text('at').notNull(),
-}, t => [index('sign_in_failures_key_at').on(t.key, t.at)])
+}, t => [index('throttle_marks_key_at').on(t.key, t.at)])
 
 /** The company's build-plan template, one row per stage; new tanks copy it. */
 export const planTemplateStages = sqliteTable('plan_template_stages', {
