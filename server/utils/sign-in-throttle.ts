@@ -12,9 +12,9 @@ import { clearAttempts, releaseAttempt, reserveAttempt, type ThrottleLimit } fro
 const SLOW_AFTER = 3
 const MAX_DELAY_MS = 2000
 
-export type SignInAttempt =
-  | { refused: true, retryAfterSeconds: number }
-  | { refused: false, delayMs: number, markIds: number[] }
+export type SignInAttempt
+  = | { refused: true, retryAfterSeconds: number }
+    | { refused: false, delayMs: number, markIds: number[] }
 
 function limitsFor(email: string, address: string | null): ThrottleLimit[] {
   const { accountFailureLimit, addressFailureLimit, windowMinutes } = useRuntimeConfig().signIn

@@ -12,6 +12,7 @@ import { OVERRIDE_REASON_MESSAGE } from '#shared/schemas/sign-off'
 import type { ReviewItem, SignOffRecord, SignOffRecordWithSnapshot, SignOffSnapshot, SignOffState, StockingPlanView } from '#shared/types/sign-off'
 import type { CyclePhase } from '#shared/types/tanks'
 import { cycleInputFor } from '../db/verdicts'
+import { captureSignedFacts } from '../domain/sign-off/signed-record'
 import { alerts, clients, events, signOffs, tankVerdicts, tanks, users } from '../db/schema'
 import { canManageTank, visibleTankCondition, type Actor } from './access'
 import { currentApprovedSignOff } from './sign-off-lock'
@@ -176,7 +177,9 @@ export function decideSignOff(actor: Actor, tank: TankRow, decision: 'approve' |
     const message = OVERRIDE_REASON_MESSAGE
     throw createError({ statusCode: 400, statusMessage: 'Validation Error', message, data: { issues: [{ field: 'note', message }], overrideGrounds: grounds } })
   }
-  const snapshot: SignOffSnapshot = { input, verdict, overrideGrounds: decision === 'approve' ? grounds : [], unresolvedAlerts }
+  // The tank's facts and stages are kept with the decision: the certificate prints them, never the live tank.
+  const facts = captureSignedFacts(useDB(), tank.id, actor.id)
+  const snapshot: SignOffSnapshot = { facts, input, verdict, overrideGrounds: decision === 'approve' ? grounds : [], unresolvedAlerts }
   const at = now.toISOString()
   const code = decision === 'approve' ? newVerificationCode() : null
   const row = useDB().transaction(() => {

@@ -18,7 +18,7 @@ export default defineEventHandler(async (event) => {
     db.transaction((tx) => {
       const t = tx as unknown as TidewrightDB
       const token = issueToken(t, user.id, 'reset', now)
-      const words = resetMail(user.name, `${publicBaseUrl().replace(/\/+$/, '')}/reset-password?token=${token}`)
+      const words = resetMail(user.name, publicLink(`/reset-password?token=${token}`))
       enqueueMail(t, { organisationId: user.organisationId, to: user.email, kind: 'reset', ...words }, now)
     })
     writeAudit({ id: user.id, organisationId: user.organisationId }, { action: 'user.reset-requested', entity: 'user', entityId: user.id })

@@ -32,7 +32,7 @@ export default defineEventHandler(async (event) => {
       units: readOrganisationSettings(t, actor.organisationId).defaultUnits,
     }).returning().get()
     const token = issueToken(t, created.id, 'invite', now)
-    const words = inviteMail(created.name, actor.name, company, `${publicBaseUrl().replace(/\/+$/, '')}/accept-invite?token=${token}`)
+    const words = inviteMail(created.name, actor.name, company, publicLink(`/accept-invite?token=${token}`))
     enqueueMail(t, { organisationId: actor.organisationId, to: created.email, kind: 'invite', ...words }, now)
     return created
   })

@@ -15,9 +15,9 @@ export interface ThrottleLimit {
   windowMs: number
 }
 
-export type Reservation =
-  | { granted: true, markIds: number[], counts: number[] }
-  | { granted: false, refusedBy: ThrottleLimit, retryAfterSeconds: number, counts: number[] }
+export type Reservation
+  = | { granted: true, markIds: number[], counts: number[] }
+    | { granted: false, refusedBy: ThrottleLimit, retryAfterSeconds: number, counts: number[] }
 
 function countSince(db: TidewrightDB, key: string, since: string): number {
   return db.select({ n: sql<number>`count(*)` }).from(throttleMarks)
