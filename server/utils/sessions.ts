@@ -5,6 +5,7 @@
  */
 import type { H3Event } from 'h3'
 import { eq } from 'drizzle-orm'
+import { accountUsable } from '../domain/people/people'
 import { checkSession, startSession, type SessionLifetimes } from '../domain/sessions/sessions'
 import { clients, users } from '../db/schema'
 
@@ -63,7 +64,6 @@ export async function resolveSignedIn(event: H3Event): Promise<SignedIn | null> 
   const row = db.select({ user: users, clientArchivedAt: clients.archivedAt }).from(users)
     .leftJoin(clients, eq(clients.id, users.clientId))
     .where(eq(users.id, check.session.userId)).get()
-  if (!row || !row.user.active) return null
-  if (row.user.role === 'client' && row.clientArchivedAt) return null
+  if (!row || !accountUsable(row.user, row.clientArchivedAt)) return null
   return { sessionId: check.session.id, user: row.user }
 }

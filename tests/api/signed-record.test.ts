@@ -101,3 +101,15 @@ describe('the certificate after sign-off', () => {
     expect((await aquarist.delete(`/api/tanks/${tankId}/readings/${latest.id}`)).status).toBe(409)
   })
 })
+
+describe('stocking after sign-off', () => {
+  it('records a client\'s livestock event without moving the tank; only staff start stocking', async () => {
+    const client = await new ApiClient().signIn(company.emails.client)
+    const at = new Date().toISOString()
+    const logged = await client.post(`/api/tanks/${tankId}/events`, { at, kind: 'livestock-added', group: 'fish', amount: 2, notes: 'Two clownfish from the shop' })
+    expect(logged.status).toBe(201)
+    expect(db.select({ status: tanks.status }).from(tanks).where(eq(tanks.id, tankId)).get()!.status).toBe('signed-off')
+    expect((await aquarist.post(`/api/tanks/${tankId}/events`, { at, kind: 'livestock-added', group: 'fish', amount: 1, notes: 'Goby added by the aquarist' })).status).toBe(201)
+    expect(db.select({ status: tanks.status }).from(tanks).where(eq(tanks.id, tankId)).get()!.status).toBe('stocking')
+  })
+})

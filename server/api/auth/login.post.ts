@@ -1,6 +1,7 @@
 import { eq } from 'drizzle-orm'
 import { LoginSchema } from '#shared/schemas/auth'
 import { users } from '../../db/schema'
+import { accountUsable, clientArchivedAt } from '../../domain/people/people'
 
 const WRONG = 'Wrong e-mail or password'
 // Checked when the e-mail is unknown, so both failures take about as long.
@@ -20,7 +21,7 @@ export default defineEventHandler(async (event) => {
 
   const user = useDB().select().from(users).where(eq(users.email, email)).get()
   decoyHash ??= hashPassword('tidewright-decoy-password')
-  const ok = user?.passwordHash && user.active
+  const ok = user?.passwordHash && accountUsable(user, clientArchivedAt(useDB(), user))
     ? await verifyPassword(user.passwordHash, password)
     : (await verifyPassword(await decoyHash, password), false)
   if (!user || !ok) throw createError({ statusCode: 401, statusMessage: WRONG })
