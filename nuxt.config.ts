@@ -37,6 +37,9 @@ export default defineNuxtConfig({
     // 3 days or 7 days after sign-in, a session ends. The cookie's maxAge matches the absolute lifetime.
     sessionLifetime: { idleMinutes: 3 * 24 * 60, absoluteMinutes: 7 * 24 * 60 },
     signIn: { accountFailureLimit: 8, addressFailureLimit: 30, windowMinutes: 15 },
+    // NUXT_TRUST_PROXY=1 only behind a reverse proxy that sets X-Forwarded-For/-Host itself:
+    // otherwise a client could choose its own address (throttles) and host (origin check).
+    trustProxy: false,
     // Account e-mails one address, network or inviting account may cause (NUXT_MAIL_THROTTLE_*).
     mailThrottle: { resetPerAddressPerHour: 3, resetPerNetworkPerHour: 20, invitePerAddressPerDay: 3, invitePerAccountPerHour: 30 },
     // NUXT_BENCH_ROUTES=1 enables the benchmark floor routes under server/api/bench (npm run bench only).
@@ -51,7 +54,7 @@ export default defineNuxtConfig({
     // How often the mail worker looks for due mail and runs escalations and reminders.
     workerIntervalMs: 5000,
     public: {
-      // Absolute links in e-mails (NUXT_PUBLIC_BASE_URL).
+      // Absolute links in e-mails and on certificates (NUXT_PUBLIC_BASE_URL); never taken from a request.
       baseUrl: 'http://localhost:3000',
     },
   },
@@ -90,6 +93,7 @@ export default defineNuxtConfig({
       },
       crossOriginEmbedderPolicy: false,
       referrerPolicy: 'same-origin',
+      // Sent by server/middleware/01.response-headers.ts whenever the session cookie is Secure.
       strictTransportSecurity: false,
     },
     // Sign-in throttling is Tidewright's own (per account and address); a global

@@ -17,9 +17,9 @@ export function sessionLifetimes(): SessionLifetimes {
   return { idleMs: Number(idleMinutes) * 60_000, absoluteMs: Number(absoluteMinutes) * 60_000 }
 }
 
-/** The address a request came from, as far as this server trusts it. */
+/** The address a request came from: the socket's, or X-Forwarded-For only when a trusted proxy is configured (NUXT_TRUST_PROXY). */
 export function clientAddress(event: H3Event): string | null {
-  return getRequestIP(event) ?? null
+  return getRequestIP(event, { xForwardedFor: isOn(useRuntimeConfig().trustProxy) }) ?? null
 }
 
 /** Opens a server-side session for the user and seals its token into the cookie (replacing any older one). */

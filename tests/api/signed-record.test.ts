@@ -62,6 +62,13 @@ describe('the certificate after sign-off', () => {
     expect(after).toBe(before)
   })
 
+  it('prints the verification link from the configured base URL, never from request headers', async () => {
+    const response = await fetch(`${aquarist.baseURL}/api/tanks/${tankId}/certificate.pdf`, { headers: { 'cookie': aquarist.cookieHeader(), 'x-forwarded-host': 'phish.example', 'x-forwarded-proto': 'https' } })
+    const text = pdfText(Buffer.from(await response.arrayBuffer()))
+    expect(text).not.toContain('phish.example')
+    expect(text).toContain(`http://localhost:3000/verify/${code}`)
+  })
+
   it('refuses an edit of a signed fact without a reason (409), and the certificate does not move', async () => {
     const before = await certificateText(aquarist, tankId)
     const renamed = await aquarist.patch(`/api/tanks/${tankId}`, { name: 'Quietly renamed reef' })
