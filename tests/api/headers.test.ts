@@ -28,5 +28,4 @@ describe('forwarded headers', () => {
     const forged = await api.request('POST', '/api/notifications/read-all', {}, { 'origin': 'https://elsewhere.example', 'x-forwarded-host': 'elsewhere.example' })
     expect(forged.status).toBe(403)
   })
-
 })
