@@ -11,6 +11,7 @@ import { arrayRowToEntry, columnIndexes, guessMapping } from '#shared/readings/c
 import { toCanonicalReading, type CanonicalReading } from '#shared/readings/entry'
 import { MEASURED_FIELDS } from '#shared/vocabulary'
 import type { ImportPreview, ImportRowError } from '#shared/types/readings'
+import type { Actor } from './access'
 
 /** At most this many row errors are reported; the count is always complete. */
 const MAX_REPORTED_ERRORS = 200
@@ -86,7 +87,7 @@ const INSERT_SQL = `INSERT INTO readings (id, tank_id, taken_at, entered_by, amm
   ON CONFLICT (tank_id, import_key) DO NOTHING`
 
 /** Writes the planned rows in one transaction; returns how many were new. */
-export function writeImport(tankId: string, actorId: string, plan: ImportPlan): number {
+export function writeImport(tankId: string, actor: Actor, plan: ImportPlan): number {
   const sqlite = useDB().$client
   const insert = sqlite.prepare(INSERT_SQL)
   const stamp = new Date().toISOString()
@@ -97,6 +98,8 @@ export function writeImport(tankId: string, actorId: string, plan: ImportPlan): 
       inserted += insert.run(randomUUID(), tankId, reading.takenAt, actorId, v.ammoniaN, v.nitriteN, v.nitrateN, v.pH, v.temperatureC, v.salinity,
         v.alkalinityDkh, v.calciumMgL, v.magnesiumMgL, v.phosphateMgL, reading.notes, JSON.stringify({ ...reading.entered, source: 'csv' }), key, stamp, stamp).changes
     }
+    // Same connection, same transaction: the rows and their audit line commit together or not at all.
+    writeAudit(actor, { action: 'reading.import', entity: 'tank', entityId: tankId, after: { rows: plan.rowCount, inserted, skipped: plan.rowCount - inserted, errors: plan.errors.length } })
     return inserted
   })()
 }

@@ -85,21 +85,24 @@ export async function storeUpload(actor: Actor, target: UploadTarget, file: Rece
   await storage.setItemRaw(storageKey, file.bytes)
   const thumbnailKey = thumbnail ? `${storageKey}.thumb` : null
   if (thumbnail && thumbnailKey) await storage.setItemRaw(thumbnailKey, thumbnail)
-  const row = useDB().insert(uploads).values({
-    id,
-    organisationId: actor.organisationId,
-    tankId: target.tankId,
-    stageId: target.stageId ?? null,
-    readingId: target.readingId ?? null,
-    mimeType: file.mimeType,
-    sizeBytes: file.bytes.length,
-    originalName: file.name,
-    storageKey,
-    thumbnailKey,
-    uploadedBy: actor.id,
-  }).returning().get()
-  writeAudit(actor, { action: 'upload.create', entity: 'upload', entityId: row.id, after: { tankId: row.tankId, stageId: row.stageId, readingId: row.readingId, mimeType: row.mimeType, sizeBytes: row.sizeBytes, originalName: row.originalName } })
-  return row
+  // The row and its audit line commit together.
+  return useDB().transaction(() => {
+    const row = useDB().insert(uploads).values({
+      id,
+      organisationId: actor.organisationId,
+      tankId: target.tankId,
+      stageId: target.stageId ?? null,
+      readingId: target.readingId ?? null,
+      mimeType: file.mimeType,
+      sizeBytes: file.bytes.length,
+      originalName: file.name,
+      storageKey,
+      thumbnailKey,
+      uploadedBy: actor.id,
+    }).returning().get()
+    writeAudit(actor, { action: 'upload.create', entity: 'upload', entityId: row.id, after: { tankId: row.tankId, stageId: row.stageId, readingId: row.readingId, mimeType: row.mimeType, sizeBytes: row.sizeBytes, originalName: row.originalName } })
+    return row
+  })
 }
 
 /** Sends stored bytes with headers that keep the browser from guessing or caching them publicly. */
