@@ -95,7 +95,7 @@ export function writeImport(tankId: string, actor: Actor, plan: ImportPlan): num
     let inserted = 0
     for (const { reading, key } of plan.rows) {
       const v = reading.values
-      inserted += insert.run(randomUUID(), tankId, reading.takenAt, actorId, v.ammoniaN, v.nitriteN, v.nitrateN, v.pH, v.temperatureC, v.salinity,
+      inserted += insert.run(randomUUID(), tankId, reading.takenAt, actor.id, v.ammoniaN, v.nitriteN, v.nitrateN, v.pH, v.temperatureC, v.salinity,
         v.alkalinityDkh, v.calciumMgL, v.magnesiumMgL, v.phosphateMgL, reading.notes, JSON.stringify({ ...reading.entered, source: 'csv' }), key, stamp, stamp).changes
     }
     // Same connection, same transaction: the rows and their audit line commit together or not at all.

@@ -4,16 +4,15 @@ import type { CanonicalValues } from '../readings/entry'
 import type { DatedAcclimationStep, FinalValue, StockingStep } from '../sign-off/plan'
 import type { CyclePhase, TankStatus, TankView } from './tanks'
 
-import type { SignOffStatus } from '../vocabulary'
+import type { CycleMethod, SignOffStatus, StageStatus } from '../vocabulary'
 
 export type { SignOffStatus } from '../vocabulary'
 
-/** What the engine was given and what it answered when the supervisor decided. */
 /** A build-plan stage as it stood at the decision. */
 export interface SignedStage {
   key: string
   title: string
-  status: 'not-started' | 'in-progress' | 'done' | 'skipped'
+  status: StageStatus
   completedAt: string | null
 }
 
@@ -27,7 +26,7 @@ export interface SignedTankFacts {
   dimensions: Record<string, number | undefined>
   volumeLitres: number
   sumpLitres: number
-  cycleMethod: 'fishless' | 'fish-in'
+  cycleMethod: CycleMethod
   cycleStartedAt: string | null
   aquaristName: string | null
   /** Who made the decision. */
@@ -43,6 +42,7 @@ export interface SignOffAmendmentView {
   changes: { field: string, before: unknown, after: unknown }[]
 }
 
+/** What the engine was given and what it answered when the supervisor decided. */
 export interface SignOffSnapshot {
   /** Absent only on sign-offs decided before the facts were kept with the decision. */
   facts?: SignedTankFacts

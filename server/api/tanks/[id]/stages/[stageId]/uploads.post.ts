@@ -7,7 +7,7 @@ export default defineEventHandler(async (event) => {
   const tank = requireVisibleTank(actor, id)
   const stage = findStage(tank.id, stageId)
   if (!stage) throw createError({ statusCode: 404, statusMessage: 'Stage not found' })
-  assertStageUnsigned(tank.id, stage.id === stageId ? stage.key : '')
+  assertStageUnsigned(tank.id, stage.key)
   const file = await receiveUpload(event)
   const row = await storeUpload(actor, { tankId: tank.id, stageId: stage.id }, file)
   setResponseStatus(event, 201)
