@@ -5,7 +5,7 @@
  * falls back to its default instead of taking the company's other settings with it.
  */
 import * as v from 'valibot'
-import { DEFAULT_THRESHOLDS } from '../cycle/thresholds'
+import { THRESHOLD_SPECS } from '../cycle/thresholds'
 import type { Thresholds } from '../cycle/types'
 import { UNIT_SYSTEMS } from '../vocabulary'
 
@@ -63,11 +63,16 @@ const TimeZoneSchema = v.pipe(
   v.check(isTimeZone, 'Choose a time zone from the list.'),
 )
 
-/** Why a company's value for a threshold is refused, or null when it is fine (canonical units). */
+/**
+ * Why a company's value for a threshold is refused, or null when it is fine (canonical units).
+ * The range is the rule engine's own (THRESHOLD_SPECS), so a stored value the form accepted
+ * is always one the engine accepts.
+ */
 export function thresholdProblem(key: string, value: unknown): string | null {
-  if (!(key in DEFAULT_THRESHOLDS)) return 'Tidewright has no such threshold.'
+  if (!Object.hasOwn(THRESHOLD_SPECS, key)) return 'Tidewright has no such threshold.'
   if (typeof value !== 'number' || !Number.isFinite(value)) return 'Give a number.'
-  if (value < 0) return 'Must be zero or more.'
+  const { min, max, unit } = THRESHOLD_SPECS[key as ThresholdKey]
+  if (value < min || value > max) return `Give a value from ${min} to ${max} (${unit}).`
   return null
 }
 

@@ -8,28 +8,36 @@ import { eq } from 'drizzle-orm'
 import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest'
 import { PHYSICAL_BOUNDS } from '../../shared/vocabulary'
 import { openDatabase, type TidewrightDB } from '../../server/db/connection'
-import { readings } from '../../server/db/schema'
+import { readings, users } from '../../server/db/schema'
 import type { ChartData, EventList, ReadingList } from '../../shared/types/readings'
 import { signedIn } from '../support/http'
 import { copyTank } from '../support/sign-off-tanks'
+import { seedScratchCompany, type ScratchCompany } from '../support/company'
 
 const { demo } = inject('fixtures')
 let db: TidewrightDB
 let tankId: string
 let readingId: string
 let trailTankId: string
+let co: ScratchCompany
+let aquaristName: string
 
-beforeAll(() => {
+// The copies belong to a scratch company, so the demo company's tank counts (which other
+// files assert) stay as the fixtures describe them.
+beforeAll(async () => {
+  co = await seedScratchCompany('corrections')
   db = openDatabase(inject('dbPath'))
-  tankId = copyTank(db, demo.tanks.lounge, 'Correction bounds lounge')
+  const owners = { organisationId: co.organisationId, clientId: co.clientId, siteId: co.siteId, aquaristId: co.ids.aquarist, supervisorId: co.ids.supervisor }
+  tankId = copyTank(db, demo.tanks.lounge, 'Correction bounds lounge', owners)
   readingId = db.select().from(readings).where(eq(readings.tankId, tankId)).all().find(r => r.temperatureC !== null)!.id
-  trailTankId = copyTank(db, demo.tanks.lounge, 'Correction trail lounge')
+  trailTankId = copyTank(db, demo.tanks.lounge, 'Correction trail lounge', owners)
+  aquaristName = db.select().from(users).where(eq(users.id, co.ids.aquarist)).get()!.name
 })
 afterAll(() => db?.$client.close())
 
 describe('a correction of a reading', () => {
   it('refuses a temperature a reading refuses (44 C), naming the field', async () => {
-    const aquarist = await signedIn('aquarist@tidewright.test')
+    const aquarist = await signedIn(co.emails.aquarist)
     const reading = await aquarist.post(`/api/tanks/${tankId}/readings`, {
       takenAt: new Date().toISOString(), temperature: 44, temperatureUnit: 'C', salinityMode: 'practical',
       basis: { ammonia: 'NH3', nitrite: 'NO2', nitrate: 'NO3' },
@@ -42,7 +50,7 @@ describe('a correction of a reading', () => {
   })
 
   it('accepts every value at the physical bounds a reading accepts', async () => {
-    const aquarist = await signedIn('aquarist@tidewright.test')
+    const aquarist = await signedIn(co.emails.aquarist)
     const [min] = PHYSICAL_BOUNDS.temperatureC
     const { status, body } = await aquarist.post(`/api/tanks/${tankId}/readings/${readingId}/corrections`, { temperatureC: min, salinity: PHYSICAL_BOUNDS.salinity[1], reason: 'Read the wrong meter' })
     expect(status).toBe(201)
@@ -52,7 +60,7 @@ describe('a correction of a reading', () => {
 
 describe('after a correction', () => {
   it('the chart and the export show one value, the new one; the history shows the trail', async () => {
-    const aquarist = await signedIn('aquarist@tidewright.test')
+    const aquarist = await signedIn(co.emails.aquarist)
     const original = db.select().from(readings).where(eq(readings.tankId, trailTankId)).all().find(r => r.ammoniaN !== null && r.ammoniaN > 0.1)!
     const before = await aquarist.get<ChartData>(`/api/tanks/${trailTankId}/chart`)
     const pointsBefore = before.body.t.length
@@ -78,15 +86,15 @@ describe('after a correction', () => {
     const current = history.items.find(r => r.id === corrected.body.id)!
     expect(replaced).toMatchObject({
       ammoniaN: original.ammoniaN, current: false, canEdit: false,
-      replacedBy: { id: corrected.body.id, reason: 'Read against the wrong colour card', byName: 'Teodor Nakamura-Reyes' },
+      replacedBy: { id: corrected.body.id, reason: 'Read against the wrong colour card', byName: aquaristName },
     })
     expect(Date.parse(replaced.replacedBy!.at)).not.toBeNaN()
-    expect(current).toMatchObject({ ammoniaN: 0.05, current: true, replacedBy: null, correctsId: original.id, correctionReason: 'Read against the wrong colour card', enteredByName: 'Teodor Nakamura-Reyes' })
+    expect(current).toMatchObject({ ammoniaN: 0.05, current: true, replacedBy: null, correctsId: original.id, correctionReason: 'Read against the wrong colour card', enteredByName: aquaristName })
     expect(history.total).toBe(pointsBefore + 1)
   })
 
   it('the chart shows a corrected event once, with the new amount; the event history shows the trail', async () => {
-    const aquarist = await signedIn('aquarist@tidewright.test')
+    const aquarist = await signedIn(co.emails.aquarist)
     const events = (await aquarist.get<EventList>(`/api/tanks/${trailTankId}/events?pageSize=500`)).body
     const dose = events.items.find(e => e.kind === 'ammonia-dose')!
     const eventsBefore = (await aquarist.get<ChartData>(`/api/tanks/${trailTankId}/chart`)).body.events.length

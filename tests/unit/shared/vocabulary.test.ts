@@ -82,8 +82,9 @@ const ELSEWHERE: Record<string, (path: string) => boolean> = {
 }
 
 describe('the source', () => {
+  // A retired rule set (shared/cycle/v1) stays exactly as it was when verdicts were signed under it.
   const files = ['app', 'server', 'shared'].flatMap(dir => sourceFiles(join(ROOT, dir)))
-    .filter(path => !path.endsWith(join('shared', 'vocabulary.ts')))
+    .filter(path => !path.endsWith(join('shared', 'vocabulary.ts')) && !path.includes(join('shared', 'cycle', 'v1')))
   const lists = (Object.entries(vocabulary) as [string, unknown][]).filter((entry): entry is [string, readonly string[]] => Array.isArray(entry[1]))
 
   it('reads at least the known folders', () => {
