@@ -7,7 +7,7 @@
 import { hash, randomUUID } from 'node:crypto'
 import Papa from 'papaparse'
 import type { ReadingImportInput } from '#shared/schemas/reading'
-import { arrayRowToEntry, columnIndexes, guessMapping } from '#shared/readings/csv'
+import { arrayRowToEntry, columnIndexes, duplicateHeaderColumns, guessMapping } from '#shared/readings/csv'
 import { toCanonicalReading, type CanonicalReading } from '#shared/readings/entry'
 import { MEASURED_FIELDS } from '#shared/vocabulary'
 import type { ImportPreview, ImportRowError } from '#shared/types/readings'
@@ -44,6 +44,10 @@ export function planImport(tankId: string, input: ReadingImportInput): ImportPla
   // Rows as arrays, not objects: several times faster on large files.
   const parsed = Papa.parse<string[]>(input.csv, { header: false, skipEmptyLines: 'greedy' })
   const headers = (parsed.data.shift() ?? []).map(h => h.trim())
+  const repeats = duplicateHeaderColumns(headers)
+  if (repeats.length) {
+    fieldError([{ field: 'csv', message: `The header row repeats a column name (column ${repeats.join(', ')}), so it is unclear which column holds what. Rename or remove the repeated column and import again.` }])
+  }
   const mapping = guessMapping(headers, input.mapping) as Record<string, string>
   const indexes = columnIndexes(headers, mapping)
   if (!mapping.takenAt) {
