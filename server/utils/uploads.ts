@@ -9,6 +9,7 @@ import { uploads } from '../db/schema'
 import type { Actor } from './access'
 import { detectFileType, fileTypeProblem, type AcceptedMimeType } from './file-type'
 import { MAX_UPLOAD_BYTES } from '../domain/http/body-limits'
+import { removeExpiredPendingPhotos as removeExpiredPendingPhotoRows } from '../domain/uploads/pending-photos'
 
 /** Longest side of a thumbnail, px. */
 export const THUMBNAIL_SIZE_PX = 480
@@ -119,4 +120,15 @@ export async function sendStoredFile(event: H3Event, key: string, mimeType: stri
     'content-disposition': `${mimeType === 'application/pdf' ? 'attachment' : 'inline'}; filename="${downloadName.replace(/[^\w.-]/g, '_')}"`,
   })
   return bytes
+}
+
+/** Removes test photos that waited a day without a reading: rows (with audit) first, then their bytes. Returns how many. */
+export async function removeExpiredPendingPhotos(now: Date): Promise<number> {
+  const removed = removeExpiredPendingPhotoRows(useDB(), now)
+  const storage = useStorage('uploads')
+  for (const upload of removed) {
+    await storage.removeItem(upload.storageKey)
+    if (upload.thumbnailKey) await storage.removeItem(upload.thumbnailKey)
+  }
+  return removed.length
 }
