@@ -6,6 +6,7 @@
 import { describe, expect, inject, it } from 'vitest'
 import { queryFile } from '../support/db-checksum'
 import { ApiClient } from '../support/http'
+import { READING_BODY } from './access-matrix.data'
 
 const count = (sql: string, ...params: unknown[]) => queryFile<{ n: number }>(inject('dbPath'), sql, ...params)[0]!.n
 
@@ -14,8 +15,9 @@ describe('readings through the form and through CSV', () => {
     const api = await new ApiClient().signIn('aquarist@tidewright.test')
     const tank = inject('fixtures').demo.tanks.lobby
     const note = `long note ${'x'.repeat(50_000)}`
-    const form = await api.post(`/api/tanks/${tank}/readings`, { takenAt: '2026-02-10T09:00:00Z', ammonia: 0.25, notes: note })
+    const form = await api.post(`/api/tanks/${tank}/readings`, { ...READING_BODY(), takenAt: '2026-02-10T09:00:00Z', notes: note })
     expect(form.status).toBe(400)
+    expect(form.body.data.issues[0].field).toBe('notes')
     const csv = await api.post(`/api/tanks/${tank}/readings/import`, { csv: `takenAt,ammonia,notes\n2026-02-10T09:00:00Z,0.25,${note}\n2026-02-10T10:00:00Z,0.25,a short note`, dryRun: false })
     expect(csv.status).toBe(200)
     expect(csv.body.errorRows).toBe(1)
@@ -29,7 +31,7 @@ describe('readings through the form and through CSV', () => {
   it('refuses 2026-02-30 on both paths instead of storing 2 March', async () => {
     const api = await new ApiClient().signIn('aquarist@tidewright.test')
     const tank = inject('fixtures').demo.tanks.lobby
-    const form = await api.post(`/api/tanks/${tank}/readings`, { takenAt: '2026-02-30T09:00:00Z', ammonia: 0.5 })
+    const form = await api.post(`/api/tanks/${tank}/readings`, { ...READING_BODY(), takenAt: '2026-02-30T09:00:00Z' })
     expect(form.status).toBe(400)
     expect(form.body.data.issues[0].field).toBe('takenAt')
     const csv = await api.post(`/api/tanks/${tank}/readings/import`, { csv: 'takenAt,ammonia,notes\n2026-02-30 09:00,0.5,impossible day\n2026-02-31,0.5,impossible day', dryRun: false })
