@@ -11,9 +11,10 @@ import { datedAcclimation, overrideGrounds, stockingSteps } from '#shared/sign-o
 import { OVERRIDE_REASON_MESSAGE } from '#shared/schemas/sign-off'
 import type { ReviewItem, SignOffRecord, SignOffRecordWithSnapshot, SignOffSnapshot, SignOffState, StockingPlanView } from '#shared/types/sign-off'
 import type { CyclePhase } from '#shared/types/tanks'
+import { readOrganisationSettings } from '../db/settings'
 import { cycleInputFor } from '../db/verdicts'
 import { captureSignedFacts } from '../domain/sign-off/signed-record'
-import { alerts, clients, events, organisations, signOffs, tankVerdicts, tanks, users } from '../db/schema'
+import { alerts, clients, events, signOffs, tankVerdicts, tanks, users } from '../db/schema'
 import { canManageTank, visibleTankCondition, type Actor } from './access'
 import { currentApprovedSignOff } from './sign-off-lock'
 
@@ -98,10 +99,9 @@ export function maySignOff(actor: Actor, tank: Pick<TankRow, 'organisationId' | 
   return actor.role === 'admin' || (actor.role === 'supervisor' && tank.supervisorId === actor.id)
 }
 
-/** The company setting `allowSelfApproval` (organisations.settings): may the requester approve their own sign-off request. */
+/** The company's sign-off policy (settings.signOff.requesterMayApprove): may the requester approve their own sign-off request. */
 export function selfApprovalAllowed(organisationId: string): boolean {
-  const row = useDB().select({ settings: organisations.settings }).from(organisations).where(eq(organisations.id, organisationId)).get()
-  return row?.settings?.allowSelfApproval === true
+  return readOrganisationSettings(useDB(), organisationId).signOff.requesterMayApprove
 }
 
 function conflict(message: string): never {

@@ -47,7 +47,7 @@ describe('approving one\'s own sign-off request', () => {
     expect((await admin.post(`/api/tanks/${tankId}/sign-off-requests`, { note: 'Ready' })).status).toBe(201)
     const own = await admin.post(`/api/tanks/${tankId}/sign-off/decision`, { decision: 'approve', note: 'Looks fine' })
     expect(own.status).toBe(403)
-    db.update(organisations).set({ settings: { allowSelfApproval: true } }).where(eq(organisations.id, company.organisationId)).run()
+    db.update(organisations).set({ settings: { signOff: { requesterMayApprove: true } } }).where(eq(organisations.id, company.organisationId)).run()
     const noReason = await admin.post(`/api/tanks/${tankId}/sign-off/decision`, { decision: 'approve' })
     expect(noReason.status).toBe(400)
     expect(noReason.body.data.issues[0].field).toBe('note')
