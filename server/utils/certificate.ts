@@ -184,7 +184,7 @@ export async function renderCertificate(facts: CertificateFacts): Promise<Uint8A
   if (facts.amendments.length) {
     w.heading('Amended after signing')
     for (const amendment of facts.amendments) {
-      const changes = amendment.changes.map(c => `${AMENDED_FIELD_LABELS[c.field] ?? c.field} ${describeValue(c.before)} → ${describeValue(c.after)}`).join('; ')
+      const changes = amendment.changes.map(c => `${AMENDED_FIELD_LABELS[c.field] ?? c.field} ${describeValue(c.before)} changed to ${describeValue(c.after)}`).join('; ')
       w.text(`${certificateDate(amendment.at)}, ${amendment.byName ?? 'a former user'}: ${changes}. Reason: ${amendment.reason}`, { size: 9.5 })
     }
   }

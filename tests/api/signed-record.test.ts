@@ -8,7 +8,7 @@ import { execFileSync } from 'node:child_process'
 import { eq } from 'drizzle-orm'
 import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest'
 import { openDatabase, type TidewrightDB } from '../../server/db/connection'
-import { clients, planStages, readings, tanks } from '../../server/db/schema'
+import { clients, planStages, readings, signOffs, tanks } from '../../server/db/schema'
 import { seedScratchCompany, type ScratchCompany } from '../support/company'
 import { ApiClient } from '../support/http'
 import { copyTank } from '../support/sign-off-tanks'
@@ -43,7 +43,7 @@ beforeAll(async () => {
   expect((await aquarist.post(`/api/tanks/${tankId}/sign-off-requests`, { note: 'Zero for a week' })).status).toBe(201)
   const decided = await supervisor.post(`/api/tanks/${tankId}/sign-off/decision`, { decision: 'approve', note: 'Evidence is clear' })
   expect(decided.status).toBe(200)
-  code = decided.body.verificationCode
+  code = db.select({ code: signOffs.verificationCode }).from(signOffs).where(eq(signOffs.tankId, tankId)).get()!.code!
 })
 afterAll(() => db?.$client.close())
 
@@ -74,7 +74,7 @@ describe('the certificate after sign-off', () => {
     const renamed = await aquarist.patch(`/api/tanks/${tankId}`, { name: 'Quietly renamed reef' })
     expect(renamed.status).toBe(409)
     expect(renamed.body.data.issues[0].field).toBe('amendmentReason')
-    const resized = await aquarist.patch(`/api/tanks/${tankId}`, { shape: 'cube', dimensions: { lengthMm: 600, widthMm: 600, heightMm: 600 } })
+    const resized = await aquarist.patch(`/api/tanks/${tankId}`, { shape: 'cube', dimensions: { sideMm: 600 } })
     expect(resized.status).toBe(409)
     expect((await aquarist.patch(`/api/tanks/${tankId}`, { cycleMethod: 'fish-in' })).status).toBe(409)
     expect(db.select({ name: tanks.name, volume: tanks.volumeLitres }).from(tanks).where(eq(tanks.id, tankId)).get()).toEqual({ name: 'Heron Quay reef', volume: 91 })
@@ -90,7 +90,7 @@ describe('the certificate after sign-off', () => {
     const text = await certificateText(aquarist, tankId)
     expect(text).toMatch(/Tank\s+Heron Quay reef/)
     expect(text).toContain('Amended after signing')
-    expect(text).toContain('"Heron Quay reef" → "Heron Quay lobby reef"')
+    expect(text).toMatch(/"Heron Quay reef"\s+changed to\s+"Heron Quay lobby reef"/)
     expect(text).toContain('The client renamed the room')
     expect((await new ApiClient().get(`/api/verify/${code}`)).body.tankName).toBe('Heron Quay reef')
   })
