@@ -1,10 +1,8 @@
 /**
  * Request bodies are read here, once, counting bytes as they arrive: whatever the method,
  * whether framed by Content-Length or sent chunked. Past the route's limit
- * (server/domain/http/body-limits.ts) nothing more is kept and the 413 goes out at once;
- * the rest of the body is read and thrown away so the sender can read the answer, and a
- * sender that goes on past the drain allowance is cut off. What was read is handed to
- * h3's body readers.
+ * (server/domain/http/body-limits.ts) nothing more is kept and the answer is 413; a
+ * sender that keeps going far past it is cut off. What was read is handed to h3's body readers.
  */
 import type { IncomingMessage } from 'node:http'
 import { bodyLimitFor, drainAllowance } from '../domain/http/body-limits'
@@ -13,55 +11,30 @@ function hasBody(req: IncomingMessage): boolean {
   return Number(req.headers['content-length'] ?? 0) > 0 || req.headers['transfer-encoding'] !== undefined
 }
 
-/** Reads and discards what is left of the body; past `allowance` more bytes the connection is cut. */
-function discardRest(req: IncomingMessage, allowance: number): void {
-  let discarded = 0
-  req.on('data', (chunk: Buffer) => {
-    discarded += chunk.length
-    if (discarded > allowance) req.destroy()
-  })
-  req.on('error', () => {})
-  req.resume()
-}
-
-/** The body, or null as soon as it passes `limit` (the rest is then discarded in the background). */
-function readWithin(req: IncomingMessage, limit: number): Promise<Buffer | null> {
-  // Announced as too large: answer at once without keeping any of it.
-  if (Number(req.headers['content-length']) > limit) {
-    discardRest(req, drainAllowance(limit))
-    return Promise.resolve(null)
+/**
+ * The body, or null once it is past `limit`. Past the limit nothing more is kept, but the
+ * rest is read to its end so the sender can read the 413 on the same connection (answering
+ * while it still writes would break the connection under it). A sender that goes on past
+ * the drain allowance, or announces that much, is cut off.
+ */
+async function readWithin(req: IncomingMessage, limit: number): Promise<Buffer | null> {
+  const allowance = drainAllowance(limit)
+  if (Number(req.headers['content-length']) > allowance) {
+    req.destroy()
+    return null
   }
-  return new Promise((resolve, reject) => {
-    const chunks: Buffer[] = []
-    let total = 0
-    const stop = () => {
-      req.off('data', onData)
-      req.off('end', onEnd)
-      req.off('error', onError)
+  const chunks: Buffer[] = []
+  let total = 0
+  for await (const chunk of req) {
+    total += (chunk as Buffer).length
+    if (total <= limit) chunks.push(chunk as Buffer)
+    else if (total > allowance) {
+      req.destroy()
+      return null
     }
-    const onData = (chunk: Buffer) => {
-      total += chunk.length
-      if (total <= limit) {
-        chunks.push(chunk)
-        return
-      }
-      stop()
-      chunks.length = 0
-      discardRest(req, drainAllowance(limit))
-      resolve(null)
-    }
-    const onEnd = () => {
-      stop()
-      resolve(Buffer.concat(chunks, total))
-    }
-    const onError = (error: Error) => {
-      stop()
-      reject(error)
-    }
-    req.on('data', onData)
-    req.on('end', onEnd)
-    req.on('error', onError)
-  })
+    else if (chunks.length) chunks.length = 0
+  }
+  return total <= limit ? Buffer.concat(chunks, total) : null
 }
 
 export default defineEventHandler(async (event) => {

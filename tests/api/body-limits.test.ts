@@ -136,9 +136,9 @@ describe('a flood of oversized chunked bodies', () => {
     clearInterval(sampler)
     peak = Math.max(peak, rssMB(pid))
     console.log(`[body-limits] 12 chunked bodies of 24 MB: RSS baseline ${baseline.toFixed(0)} MB, peak ${peak.toFixed(0)} MB (+${(peak - baseline).toFixed(0)} MB)`)
-    // Every sender was refused: with a 413, or cut off once it kept sending far past the limit.
+    // Every sender was refused: 24 MB is past the drain allowance (4 MB for a JSON route), so
+    // each is cut off (no status), or answered 413 if the answer got out before the cut.
     for (const result of results) expect(result.status === 413 || result.status === null, JSON.stringify(result)).toBe(true)
-    expect(results.some(r => r.status === 413)).toBe(true)
     // 288 MB were sent; keeping them would grow the process by at least that much.
     expect(peak - baseline).toBeLessThan(64)
     expect((await api.get('/api/me')).status).toBe(200)

@@ -91,7 +91,7 @@ describe('the certificate after sign-off', () => {
     expect(text).toMatch(/Tank\s+Heron Quay reef/)
     expect(text).toContain('Amended after signing')
     expect(text).toMatch(/"Heron Quay reef"\s+changed to\s+"Heron Quay lobby reef"/)
-    expect(text).toContain('The client renamed the room')
+    expect(text).toMatch(/The\s+client\s+renamed\s+the\s+room/)
     expect((await new ApiClient().get(`/api/verify/${code}`)).body.tankName).toBe('Heron Quay reef')
   })
 
