@@ -10,6 +10,7 @@ import { join } from 'node:path'
 import type { TestProject } from 'vitest/node'
 import { migrateDatabase, openDatabase } from '../../server/db/connection'
 import { startMailCatcher, type MailCatcher } from '../../scripts/mail-catcher'
+import { mailCatcherEnv } from './mail-env'
 import { buildIsStale } from '../../scripts/build-state.mjs'
 import { seedFixtures, type Fixtures } from './fixtures'
 import { startServer, type RunningServer } from './server'
@@ -43,24 +44,6 @@ export async function setup(project: TestProject) {
   project.provide('dbPath', dbPath)
   project.provide('fixtures', fixtures)
   project.provide('mailControlURL', catcher.controlURL ?? '')
-}
-
-/** Server settings that send mail to the catcher and enable the test-only routes. */
-function mailCatcherEnv(mail: MailCatcher): Record<string, string> {
-  return {
-    NUXT_SMTP_HOST: '127.0.0.1',
-    NUXT_SMTP_PORT: String(mail.port),
-    NUXT_DEV_MAIL: '1',
-    NUXT_DEV_MAIL_FILE: mail.file,
-    NUXT_TEST_HOOKS: '1',
-    NUXT_WORKER_INTERVAL_MS: '300',
-    // Every test file shares this server and one client address; the mail limits' own
-    // defaults are tested on a server of their own (tests/api/throttle.test.ts).
-    NUXT_MAIL_THROTTLE_RESET_PER_ADDRESS_PER_HOUR: '50',
-    NUXT_MAIL_THROTTLE_RESET_PER_NETWORK_PER_HOUR: '1000',
-    NUXT_MAIL_THROTTLE_INVITE_PER_ADDRESS_PER_DAY: '50',
-    NUXT_MAIL_THROTTLE_INVITE_PER_ACCOUNT_PER_HOUR: '1000',
-  }
 }
 
 export async function teardown() {

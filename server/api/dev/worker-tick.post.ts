@@ -6,8 +6,8 @@ const TickSchema = v.object({
 
 /**
  * POST /api/dev/worker-tick — tests only (NUXT_TEST_HOOKS=1, otherwise 404): runs the
- * worker once at an injected time `now` — escalations, reminders, housekeeping, unused test
- * photos, then mail delivery. Returns { escalated, reminded, aquaristsTold, photosRemoved, sent, failed }.
+ * worker once at an injected time `now` — escalations, reminders, weekly digests, housekeeping,
+ * unused test photos, then mail delivery. Returns { escalated, reminded, aquaristsTold, digests, photosRemoved, sent, failed }.
  */
 export default defineEventHandler(async (event) => {
   requireSwitch(useRuntimeConfig().testHooks)
