@@ -5,6 +5,7 @@
 import type { Verdict } from '#shared/cycle/types'
 import { acknowledgeAlertInDb, escalateDueAlerts, resolveAlertInDb, syncAlertsInDb, type AlertSyncResult } from '../db/alerts'
 import { runTestReminders } from '../db/reminders'
+import { runHousekeeping } from '../domain/housekeeping/housekeeping'
 import { runWeeklyDigest } from '../domain/forecast/weekly-digest'
 import type { Actor } from './access'
 
@@ -34,12 +35,13 @@ export function resolveAlert(actor: Actor, alertId: string, note: string, now = 
   return done?.alert ?? null
 }
 
-/** The clocked jobs: escalations, test reminders and weekly digests due at `now`. */
+/** The clocked jobs: escalations, test reminders and weekly digests due at `now`, then database housekeeping. */
 export function runClockedJobs(now: Date) {
   const db = useDB()
   const escalation = escalateDueAlerts(db, now, publicBaseUrl())
   const reminders = runTestReminders(db, now, publicBaseUrl())
   const digests = runWeeklyDigest(db, now, publicBaseUrl())
   announceNotices([...escalation.notifiedUserIds, ...reminders.notifiedUserIds])
+  runHousekeeping(db, now)
   return { escalated: escalation.escalated.length, reminded: reminders.reminded.length, aquaristsTold: reminders.aquaristsTold.length, digests: digests.sent.length }
 }
