@@ -30,6 +30,8 @@ export function cycleInputFor(db: TidewrightDB, tankId: string, now: Date): Cycl
     readings: readingRows.filter(r => !corrected.has(r.id)).map((r): CycleReading => ({
       id: r.id,
       takenAt: r.takenAt,
+      // Two tests taken in the same minute: the one entered last is the latest.
+      enteredAt: r.createdAt,
       ammoniaN: defined(r.ammoniaN),
       nitriteN: defined(r.nitriteN),
       nitrateN: defined(r.nitrateN),
@@ -39,10 +41,12 @@ export function cycleInputFor(db: TidewrightDB, tankId: string, now: Date): Cycl
       alkalinityDkh: defined(r.alkalinityDkh),
       calciumMgL: defined(r.calciumMgL),
       magnesiumMgL: defined(r.magnesiumMgL),
+      phosphateMgL: defined(r.phosphateMgL),
     })),
     events: eventRows.filter(e => ENGINE_EVENT_KINDS.has(e.kind) && !correctedEvents.has(e.id)).map((e): CycleEvent => ({
       id: e.id,
       at: e.at,
+      enteredAt: e.createdAt,
       kind: e.kind as CycleEventKind,
       amount: defined(e.amount),
       group: e.group && LIVESTOCK.has(e.group) ? e.group as LivestockGroup : undefined,

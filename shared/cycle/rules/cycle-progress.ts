@@ -81,14 +81,21 @@ function complete(ctx: RuleContext): RuleResult {
   if (done === null) return NOTHING
   const span = formatDuration(done.reading.t - done.runStart.t)
   const nitrate = done.nitrate?.nitrateN
-  const dose = done.clearedDose
-  const cleared = dose?.clearedBy
-    ? `, and the ammonia dose of ${formatWhen(dose.t)} was cleared within ${formatDuration(dose.clearedBy.t - dose.t)}`
-    : ', after ammonia or nitrite had risen and fallen'
+  const low = done.nitrateLow
+  const risen = low ? ` (up from ${mgN(low.nitrateN ?? 0)} on ${formatWhen(low.t)})` : ''
+  const doses = done.provenDoses
+  const last = doses[doses.length - 1]
+  const how = done.withAnimals
+    ? done.runStart.t - (ctx.course.nitriteStage?.t ?? done.runStart.t) > 0
+      ? ', after a nitrite stage with the animals in'
+      : ', with nitrate rising under the animals\' load'
+    : last?.clearedBy
+      ? `, and the ammonia doses of ${doses.length} consecutive days each arrived and cleared, the last within ${formatDuration(last.clearedBy.t - last.t)}`
+      : ''
   return report(
     'info',
-    `The cycle was proven complete on ${formatWhen(done.reading.t)}: ammonia and nitrite read zero on ${done.zeroTests} tests over ${span}, nitrate was ${mgN(nitrate ?? 0)}${cleared}.`,
-    [done.runStart, done.reading, done.nitrate, dose?.clearedBy],
+    `The cycle was proven complete on ${formatWhen(done.reading.t)}: ammonia and nitrite read zero on ${done.zeroTests} tests over ${span}, nitrate was ${mgN(nitrate ?? 0)}${risen}${how}.`,
+    [done.runStart, done.reading, low, done.nitrate, ...doses.flatMap(d => [d.arrivedBy, d.clearedBy])],
   )
 }
 
