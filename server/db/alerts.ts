@@ -11,6 +11,7 @@ import { alertEscalatedMail, alertOpenedMail, plainHtml, type MeasuredReading } 
 import type { TidewrightDB } from './connection'
 import { writeNotice } from './notices'
 import { alerts, organisations, readings, tanks, users } from './schema'
+import { readOrganisationSettings } from './settings'
 
 export type AlertRow = typeof alerts.$inferSelect
 
@@ -27,15 +28,6 @@ export interface AlertSyncResult {
   resolved: AlertRow[]
   /** Users who got a new notice (for live badges). */
   notifiedUserIds: string[]
-}
-
-/** Default minutes before an unacknowledged alert goes to the supervisor. */
-export const DEFAULT_ESCALATION_MINUTES = 60
-
-/** The company's escalation delay in minutes (organisations.settings.escalationMinutes). */
-export function escalationMinutes(settings: Record<string, unknown> | null | undefined): number {
-  const value = Number(settings?.escalationMinutes)
-  return Number.isFinite(value) && value > 0 ? value : DEFAULT_ESCALATION_MINUTES
 }
 
 export const openKeyFor = (tankId: string, kind: string) => `${tankId}:${kind}`
@@ -151,9 +143,9 @@ export function resolveAlertInDb(db: TidewrightDB, alertId: string, userId: stri
 /** Hands every alert that stayed unacknowledged past its company's delay to the tank's supervisor. Returns who was told. */
 export function escalateDueAlerts(db: TidewrightDB, now: Date, baseUrl: string): { escalated: AlertRow[], notifiedUserIds: string[] } {
   const out = { escalated: [] as AlertRow[], notifiedUserIds: [] as string[] }
-  const orgs = db.select({ id: organisations.id, settings: organisations.settings }).from(organisations).all()
+  const orgs = db.select({ id: organisations.id }).from(organisations).all()
   for (const org of orgs) {
-    const minutes = escalationMinutes(org.settings)
+    const minutes = readOrganisationSettings(db, org.id).escalationMinutes
     const due = new Date(now.getTime() - minutes * 60_000).toISOString()
     const candidates = db.select().from(alerts).where(and(
       eq(alerts.organisationId, org.id), eq(alerts.status, 'open'), isNull(alerts.escalatedAt), lte(alerts.openedAt, due),

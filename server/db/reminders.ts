@@ -9,21 +9,7 @@ import type { TidewrightDB } from './connection'
 import { plainHtml } from './alert-mail'
 import { writeNotice } from './notices'
 import { organisations, readings, tanks, users } from './schema'
-
-export interface ReminderSettings {
-  enabled: boolean
-  timeZone: string
-  graceMinutes: number
-  missedDays: number
-}
-
-/** organisations.settings.reminders: { enabled, graceMinutes, missedDays } and settings.timeZone, with defaults. */
-export function reminderSettings(settings: Record<string, unknown> | null | undefined): ReminderSettings {
-  const r = (settings?.reminders ?? {}) as Record<string, unknown>
-  const num = (value: unknown, fallback: number) => (Number.isFinite(Number(value)) && Number(value) >= 0 && value !== null && value !== '' ? Number(value) : fallback)
-  const timeZone = typeof settings?.timeZone === 'string' ? settings.timeZone : 'UTC'
-  return { enabled: r.enabled !== false, timeZone, graceMinutes: num(r.graceMinutes, 60), missedDays: Math.max(1, num(r.missedDays, 2)) }
-}
+import { readOrganisationSettings } from './settings'
 
 /** Local calendar date (YYYY-MM-DD) and minutes past midnight of an instant in a time zone. */
 export function localClock(at: Date, timeZone: string): { date: string, minutes: number } {
@@ -53,9 +39,9 @@ export function runTestReminders(db: TidewrightDB, now: Date, baseUrl: string): 
   const out: ReminderRunResult = { reminded: [], aquaristsTold: [], notifiedUserIds: [] }
   const base = baseUrl.replace(/\/+$/, '')
   for (const org of db.select().from(organisations).all()) {
-    const settings = reminderSettings(org.settings)
+    const { reminders: settings, timeZone } = readOrganisationSettings(db, org.id)
     if (!settings.enabled) continue
-    const today = localClock(now, settings.timeZone)
+    const today = localClock(now, timeZone)
     const due = db.select().from(tanks).where(and(
       eq(tanks.organisationId, org.id), eq(tanks.status, 'cycling'), isNull(tanks.archivedAt), isNotNull(tanks.usualTestHour),
     )).all()
@@ -64,7 +50,7 @@ export function runTestReminders(db: TidewrightDB, now: Date, baseUrl: string): 
       const pastDue = today.minutes >= hour * 60 + settings.graceMinutes
       const latest = db.select({ id: readings.id, takenAt: readings.takenAt }).from(readings)
         .where(eq(readings.tankId, tank.id)).orderBy(desc(readings.takenAt)).limit(1).get()
-      const lastDate = localClock(new Date(latest?.takenAt ?? tank.cycleStartedAt ?? tank.createdAt), settings.timeZone).date
+      const lastDate = localClock(new Date(latest?.takenAt ?? tank.cycleStartedAt ?? tank.createdAt), timeZone).date
       if (lastDate >= today.date) continue
       const url = `${base}/tanks/${tank.id}`
       db.transaction((tx) => {

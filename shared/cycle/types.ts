@@ -3,20 +3,12 @@
  * and what a verdict looks like. All nitrogen concentrations are mg/L as nitrogen.
  */
 
-/** Kinds of livestock the engine gives a go/no-go for, least to most demanding. */
-export type LivestockGroup = 'fish' | 'invertebrates' | 'soft-coral' | 'lps-coral' | 'sps-coral'
+import type { CycleEventKind, CycleMethod, CyclePhase, LivestockGroup, Severity } from '../vocabulary'
 
-/** Every livestock group, in the order the readiness record lists them. */
-export const LIVESTOCK_GROUPS: readonly LivestockGroup[] = Object.freeze([
-  'fish',
-  'invertebrates',
-  'soft-coral',
-  'lps-coral',
-  'sps-coral',
-])
-
-/** How the tank is being cycled: fishless with dosed ammonia, or with a few hardy fish. */
-export type CycleMethod = 'fishless' | 'fish-in'
+// The engine's names come from the vocabulary; re-exported so engine callers import one module.
+// LIVESTOCK_GROUPS lists the groups in the order the readiness record lists them (fish first).
+export { LIVESTOCK_GROUPS } from '../vocabulary'
+export type { CycleEventKind, CycleMethod, CyclePhase, LivestockGroup, Severity } from '../vocabulary'
 
 /** The tank profile the engine needs. */
 export interface CycleTank {
@@ -57,9 +49,6 @@ export interface CycleReading {
   enteredAt?: string
 }
 
-/** Kinds of logged event that matter to the cycle. */
-export type CycleEventKind = 'ammonia-dose' | 'bacteria-dose' | 'water-change' | 'livestock-added' | 'note'
-
 /** Something done to the tank. */
 export interface CycleEvent {
   id: string
@@ -87,12 +76,6 @@ export interface CycleInput {
   /** ISO 8601 time the verdict is for. */
   now: string
 }
-
-/** Where the cycle stands. */
-export type CyclePhase = 'not-started' | 'ammonia' | 'nitrite' | 'settling' | 'complete'
-
-/** How much a finding matters. */
-export type Severity = 'info' | 'caution' | 'danger'
 
 /** One reason in a verdict. */
 export interface Finding {

@@ -1,6 +1,7 @@
 import { and, eq } from 'drizzle-orm'
 import { InvitationSchema } from '#shared/schemas/account'
 import { enqueueMail } from '../../db/outbox'
+import { readOrganisationSettings } from '../../db/settings'
 import { clients, organisations, users } from '../../db/schema'
 import type { TidewrightDB } from '../../db/connection'
 
@@ -28,6 +29,7 @@ export default defineEventHandler(async (event) => {
     const created = t.insert(users).values({
       organisationId: actor.organisationId, email: input.email, name: input.name, role: input.role,
       clientId: input.role === 'client' ? input.clientId! : null, passwordHash: null,
+      units: readOrganisationSettings(t, actor.organisationId).defaultUnits,
     }).returning().get()
     const token = issueToken(t, created.id, 'invite', now)
     const words = inviteMail(created.name, actor.name, company, `${publicBaseUrl().replace(/\/+$/, '')}/accept-invite?token=${token}`)

@@ -7,12 +7,13 @@
 import { DAY_MS, formatWhen } from '../time'
 import { formatNumber, mgNWithIon } from '../words'
 import type { ReadinessContext } from '../context'
+import { LIVESTOCK_GROUPS } from '../../vocabulary'
 import type { CyclePhase, LivestockGroup, Thresholds } from '../types'
 import { pHProblem, reefChemistryProblems, reefChemistryUntested, salinityStability } from './environment'
 import { COMMON_PRACTICE, type ReadinessRule } from './rule'
 import { nextFishAllowedAt } from './stocking'
 
-const ALL: readonly LivestockGroup[] = ['fish', 'invertebrates', 'soft-coral', 'lps-coral', 'sps-coral']
+const ALL: readonly LivestockGroup[] = LIVESTOCK_GROUPS
 const STONY: readonly LivestockGroup[] = ['lps-coral', 'sps-coral']
 
 const GROUP_WORDS: Record<LivestockGroup, string> = {

@@ -1,8 +1,7 @@
 import { describe, expect, it } from 'vitest'
 import { actionLines, measuredLines } from '../../../../server/db/alert-mail'
-import { escalationMinutes } from '../../../../server/db/alerts'
 import { backoffMs, MAX_ATTEMPTS } from '../../../../server/db/outbox'
-import { localClock, reminderSettings } from '../../../../server/db/reminders'
+import { localClock } from '../../../../server/db/reminders'
 import { passwordProblem } from '../../../../shared/schemas/account'
 import { emailIsMandatory, wantsEmail } from '../../../../shared/notifications/kinds'
 
@@ -22,18 +21,6 @@ describe('alert e-mail words', () => {
 })
 
 describe('company settings', () => {
-  it('escalates after 60 minutes unless the company set a positive delay', () => {
-    expect(escalationMinutes({})).toBe(60)
-    expect(escalationMinutes({ escalationMinutes: 15 })).toBe(15)
-    expect(escalationMinutes({ escalationMinutes: -5 })).toBe(60)
-    expect(escalationMinutes({ escalationMinutes: 'soon' })).toBe(60)
-  })
-
-  it('reads reminder settings with defaults', () => {
-    expect(reminderSettings({})).toEqual({ enabled: true, timeZone: 'UTC', graceMinutes: 60, missedDays: 2 })
-    expect(reminderSettings({ reminders: { enabled: false, missedDays: 3, graceMinutes: 0 }, timeZone: 'Europe/Berlin' })).toEqual({ enabled: false, timeZone: 'Europe/Berlin', graceMinutes: 0, missedDays: 3 })
-  })
-
   it('gives the local date and time in the company\'s zone', () => {
     const at = new Date('2026-07-01T23:30:00Z')
     expect(localClock(at, 'UTC')).toEqual({ date: '2026-07-01', minutes: 23 * 60 + 30 })
