@@ -7,22 +7,25 @@
  * the consecutive tests before it read zero ammonia and nitrite, at least
  * `stableMinTests` of them, no gap longer than `zeroRunMaxGapHours`, and nitrate
  * present on the latest nitrate test. Then:
- * - fishless, no livestock yet: the run started after the first ammonia dose and spans
+ * - fishless, no livestock yet: the run's zero tests after the first ammonia dose span
  *   `stableSpanHours`; a rise was seen; nitrate rose by `nitrateRiseN` over the cycle;
  *   and the doses of `clearanceDays` consecutive days were each proven: amount known
  *   (at least `clearanceMinDoseN`), a later test showing the ammonia arrived (at least
  *   `doseArrivalFraction` of the dose), then zero ammonia and nitrite within
  *   `clearanceWindowHours`, with no water change in between;
- * - with animals in (fish-in, or livestock added): the run started after the animals
- *   went in and spans `fishInStableDays`; and either a nitrite stage was seen (nitrite
+ * - with animals in (fish-in, or livestock added): the run's zero tests since the animals
+ *   went in span `fishInStableDays`; and either a nitrite stage was seen (nitrite
  *   above `riseN`) or nitrate rose by `nitrateRiseN` over `seededNitrateRiseDays` with
  *   the animals in (a seeded tank that never shows ammonia or nitrite).
  * A test above a zero limit ends the run (and a completion with it) unless it shows
  * an ammonia dose being worked off: inside the dose's window and followed, inside that
  * window, by a zero test with no water change between. Until then the verdict is not
  * complete. Before completion a water change or a long gap between tests restarts the
- * run: dilution and missing days are not evidence. Every condition is "there exists"
- * over tests and limits, so stricter limits can only delay completion.
+ * run: dilution and missing days are not evidence. Zero tests before the first dose (or
+ * before the animals) neither count nor spoil: the part of the run after it is what is
+ * judged, so a looser zero limit that starts the run earlier never withholds a completion
+ * a stricter one grants. Every condition is "there exists" over tests and limits, so
+ * stricter limits can only delay completion.
  */
 
 import { HOUR_MS } from './time'
@@ -63,11 +66,21 @@ export type RunRestart
   = | { readonly reason: 'gap', readonly from: TimedReading, readonly to: TimedReading, readonly endedRun: boolean }
     | { readonly reason: 'water-change', readonly event: CycleEvent, readonly t: number, readonly endedRun: boolean, readonly dilutedDose: boolean }
 
+/** The part of a zero run that counts as evidence: its tests after the first dose, or since the animals went in. */
+export interface CountedRun {
+  readonly first: TimedReading
+  readonly zeroTests: number
+}
+
 /** The current run of consecutive zero tests. */
 export interface ZeroRun {
   readonly first: TimedReading
   readonly last: TimedReading
   readonly zeroTests: number
+  /** Zero tests of the run after the first ammonia dose (null before it, or with no dose). */
+  readonly afterDose: CountedRun | null
+  /** Zero tests of the run since the animals went in (null while there are none). */
+  readonly withAnimals: CountedRun | null
   /** The longest chain of proven doses on consecutive days so far in the run, latest first counted. */
   readonly provenChain: readonly DoseOutcome[]
 }
@@ -104,10 +117,17 @@ interface MutableDose {
   lastInWindow: TimedReading | null
 }
 
+interface MutableCount {
+  first: TimedReading
+  zeroTests: number
+}
+
 interface MutableRun {
   first: TimedReading
   last: TimedReading
   zeroTests: number
+  afterDose: MutableCount | null
+  withAnimals: MutableCount | null
   provenChain: DoseOutcome[]
   completion: Completion | null
 }
@@ -131,6 +151,10 @@ interface ScanSettings {
   readonly windowMs: number
   readonly spanMs: number
   readonly gapMs: number
+}
+
+function count(counted: MutableCount | null, r: TimedReading): MutableCount {
+  return counted === null ? { first: r, zeroTests: 1 } : { first: counted.first, zeroTests: counted.zeroTests + 1 }
 }
 
 class CourseScan {
@@ -264,17 +288,21 @@ class CourseScan {
   }
 
   private extendRun(r: TimedReading): void {
-    const run: MutableRun = this.run ?? { first: r, last: r, zeroTests: 0, provenChain: [], completion: null }
+    const run: MutableRun = this.run ?? { first: r, last: r, zeroTests: 0, afterDose: null, withAnimals: null, provenChain: [], completion: null }
     this.run = run
     run.last = r
     run.zeroTests += 1
+    // Events up to r are already seen, so the first dose and the animals' arrival are known here.
+    if (r.t > this.firstDoseT) run.afterDose = count(run.afterDose, r)
+    if (this.animalsIn(r.t)) run.withAnimals = count(run.withAnimals, r)
     run.provenChain = this.provenChain(run, r.t)
     if (run.completion === null && this.proves(run, r)) {
       const withAnimals = this.animalsIn(r.t)
+      const counted = (withAnimals ? run.withAnimals : run.afterDose) ?? run
       run.completion = {
         reading: r,
-        runStart: run.first,
-        zeroTests: run.zeroTests,
+        runStart: counted.first,
+        zeroTests: counted.zeroTests,
         nitrate: this.latestNitrate,
         nitrateLow: withAnimals ? this.firstNitrateWithAnimals : this.nitrateLow,
         provenDoses: withAnimals ? [] : run.provenChain,
@@ -321,20 +349,23 @@ class CourseScan {
   private proves(run: MutableRun, r: TimedReading): boolean {
     const th = this.s.thresholds
     const nitrate = this.latestNitrate?.nitrateN
-    if (run.zeroTests < th.stableMinTests || nitrate === undefined || nitrate <= th.nitratePresentN) return false
+    if (nitrate === undefined || nitrate <= th.nitratePresentN) return false
     // Nobody doses ammonia onto animals: with animals in, the tank proves itself under their load.
-    if (this.animalsIn(r.t)) return this.provesWithAnimals(run, r, nitrate)
+    if (this.animalsIn(r.t)) return this.provesWithAnimals(run.withAnimals, r, nitrate)
+    const counted = run.afterDose
     return this.s.method === 'fishless'
-      && run.first.t > this.firstDoseT
-      && r.t - run.first.t >= this.s.spanMs
+      && counted !== null
+      && counted.zeroTests >= th.stableMinTests
+      && r.t - counted.first.t >= this.s.spanMs
       && this.firstRise !== null
       && nitrate - (this.nitrateLow?.nitrateN ?? 0) >= th.nitrateRiseN
       && run.provenChain.length >= th.clearanceDays
   }
 
-  private provesWithAnimals(run: MutableRun, r: TimedReading, nitrate: number): boolean {
+  private provesWithAnimals(counted: MutableCount | null, r: TimedReading, nitrate: number): boolean {
     const th = this.s.thresholds
-    if (run.first.t < this.s.animalsT || r.t - run.first.t < Math.max(this.s.spanMs, th.fishInStableDays * 24 * 3_600_000)) return false
+    if (counted === null || counted.zeroTests < th.stableMinTests) return false
+    if (r.t - counted.first.t < Math.max(this.s.spanMs, th.fishInStableDays * 24 * 3_600_000)) return false
     if (this.nitriteStage !== null) return true
     const from = this.firstNitrateWithAnimals
     return from !== null
@@ -354,7 +385,7 @@ class CourseScan {
     return {
       completion: onHold ? null : run?.completion ?? null,
       lost: this.lost,
-      run: run ? { first: run.first, last: run.last, zeroTests: run.zeroTests, provenChain: run.provenChain } : null,
+      run: run ? { first: run.first, last: run.last, zeroTests: run.zeroTests, afterDose: run.afterDose, withAnimals: run.withAnimals, provenChain: run.provenChain } : null,
       firstRise: this.firstRise,
       nitriteStage: this.nitriteStage,
       ammoniaFallen: this.ammoniaFallen,

@@ -23,6 +23,8 @@ export const EPA_SALTWATER_ACUTE_NH3 = 0.233
 /** Source string for trade practice with no primary publication. */
 export const COMMON_PRACTICE = 'common practice, no published source'
 const EPA_1989 = 'US EPA (1989), Ambient Water Quality Criteria for Ammonia (Saltwater) - 1989, EPA 440/5-88-004'
+/** Nitrification turns each mg/L of ammonia-N into 1 mg/L of nitrate-N. */
+export const NITRIFICATION_STOICHIOMETRY = 'nitrification stoichiometry, 1 mg/L ammonia-N to 1 mg/L nitrate-N (standard wastewater engineering texts such as Metcalf & Eddy, from memory)'
 const STOCKING_GATES = 'stocking gates before livestock (common practice, no published source)'
 
 /** What a threshold is measured in, as the settings form labels it. */

@@ -4,6 +4,7 @@
  * basis kept as typed. Deterministic, so the demo looks the same on every seed.
  */
 import { fishlessPlan, simulate, type Simulation, type SimulationPlan } from '../../../shared/cycle/simulate'
+import type { CycleEventKind } from '../../../shared/vocabulary'
 
 const DAY = 86_400_000
 
@@ -22,7 +23,7 @@ export interface DemoReading {
 /** An event row as the seed inserts it. */
 export interface DemoEvent {
   at: string
-  kind: 'ammonia-dose' | 'bacteria-dose' | 'water-change' | 'livestock-added' | 'note'
+  kind: CycleEventKind
   amount?: number
   group?: 'fish'
 }

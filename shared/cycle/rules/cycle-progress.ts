@@ -8,6 +8,7 @@ import { formatDuration, formatWhen, HOUR_MS, toIso } from '../time'
 import { mgN, mgNWithIon } from '../words'
 import type { RuleContext } from '../context'
 import { COMMON_PRACTICE, NOTHING, report, type CycleRule, type RuleResult } from './rule'
+import { needsDoseProof } from './cycle-proof'
 
 function notStarted(ctx: RuleContext): RuleResult {
   if (ctx.phase !== 'not-started') return NOTHING
@@ -61,11 +62,19 @@ function settlingStage(ctx: RuleContext): RuleResult {
   if (run === null) {
     return report('info', 'Ammonia and nitrite are low, but no test yet reads zero for both. Keep testing every day.', [ctx.latest.ammoniaN, ctx.latest.nitriteN])
   }
-  const span = run.last.t - run.first.t
+  // Only the zero tests after the first dose (or since the animals went in) count as evidence.
+  const animals = !needsDoseProof(ctx)
+  const counted = (animals ? run.withAnimals : run.afterDose) ?? { first: run.last, zeroTests: 0 }
+  const since = animals ? 'since the animals went in' : 'after the first ammonia dose'
+  const hours = animals ? Math.max(th.stableSpanHours, th.fishInStableDays * 24) : th.stableSpanHours
+  const span = run.last.t - counted.first.t
+  const sofar = counted.zeroTests === 0
+    ? `no zero test yet ${since}`
+    : `${counted.zeroTests} zero test(s) ${since}, over ${formatDuration(span)} from ${formatWhen(counted.first.t)}`
   return report(
     'info',
-    `Ammonia and nitrite read zero: ${run.zeroTests} zero test(s) over ${formatDuration(span)} since ${formatWhen(run.first.t)}; the cycle needs at least ${th.stableMinTests} over ${th.stableSpanHours} h, with nitrate present and proof that the tank processes ammonia.`,
-    [run.first, run.last],
+    `Ammonia and nitrite read zero: ${sofar}; the cycle needs at least ${th.stableMinTests} over ${formatDuration(hours * HOUR_MS)}, with nitrate present and proof that the tank processes ammonia.`,
+    [counted.first, run.last],
   )
 }
 
@@ -87,7 +96,7 @@ function complete(ctx: RuleContext): RuleResult {
   const last = doses[doses.length - 1]
   const how = done.withAnimals
     ? done.runStart.t - (ctx.course.nitriteStage?.t ?? done.runStart.t) > 0
-      ? ', after a nitrite stage with the animals in'
+      ? ', after a nitrite stage, with the animals in'
       : ', with nitrate rising under the animals\' load'
     : last?.clearedBy
       ? `, and the ammonia doses of ${doses.length} consecutive days each arrived and cleared, the last within ${formatDuration(last.clearedBy.t - last.t)}`

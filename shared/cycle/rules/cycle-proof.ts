@@ -10,6 +10,7 @@ import { DAY_MS, formatWhen, HOUR_MS, toIso } from '../time'
 import { mgN, mgNWithIon } from '../words'
 import type { DoseOutcome } from '../course'
 import type { TimedReading } from '../history'
+import { NITRIFICATION_STOICHIOMETRY } from '../thresholds'
 import { COMMON_PRACTICE, NOTHING, report, type CycleRule, type RuleResult } from './rule'
 
 /** A fishless tank with no animals proves itself with doses; one with animals in, under their load. */
@@ -113,10 +114,12 @@ function failedDose(ctx: RuleContext): { dose: DoseOutcome, why: string } | null
   const th = ctx.thresholds
   const windowMs = th.clearanceWindowHours * HOUR_MS
   const dose = ctx.course.doses[ctx.course.doses.length - 1]
-  // A dose given while ammonia or nitrite still showed is feeding the bacteria, not proof.
-  if (dose === undefined || !readZeroBefore(ctx, dose.t)) return null
+  if (dose === undefined) return null
   const amount = dose.event.amount
+  // Whatever the dose was for, without its amount it can never prove anything.
   if (amount === undefined) return { dose, why: 'it was logged without its amount, so nothing shows how much the tank had to clear. Log the amount with every dose.' }
+  // A dose given while ammonia or nitrite still showed is feeding the bacteria, not proof.
+  if (!readZeroBefore(ctx, dose.t)) return null
   if (amount < th.clearanceMinDoseN) return { dose, why: `it was ${mgN(amount)}, smaller than the ${mgNWithIon(th.clearanceMinDoseN, 'NH3')} that counts as proof.` }
   if (dose.clearedBy !== null || ctx.nowMs <= dose.t + windowMs) return null
   if (dose.diluted) return { dose, why: `a water change came within ${th.clearanceWindowHours} h of it, so any fall may be dilution. Repeat without a water change.` }
@@ -166,7 +169,7 @@ export const PROOF_RULES: readonly CycleRule[] = [
   {
     id: 'cycle.nitrate-missing',
     description: 'A finished cycle leaves nitrate behind and, fishless, nitrate rising over the cycle; nitrate merely present proves nothing.',
-    source: 'each mg/L of ammonia-N nitrified becomes 1 mg/L nitrate-N (nitrification stoichiometry); the step is common practice, no published source',
+    source: `${NITRIFICATION_STOICHIOMETRY}; the step is ${COMMON_PRACTICE}`,
     severities: ['info'],
     evaluate: nitrateMissing,
   },
@@ -187,7 +190,7 @@ export const PROOF_RULES: readonly CycleRule[] = [
   {
     id: 'testing.nitrate-kit',
     description: 'Doses clear but nitrate never moves: the nitrate kit is the likely fault.',
-    source: 'each mg/L of ammonia-N nitrified becomes 1 mg/L nitrate-N (nitrification stoichiometry)',
+    source: NITRIFICATION_STOICHIOMETRY,
     severities: ['caution'],
     evaluate: nitrateKitStuck,
   },

@@ -8,6 +8,7 @@ import { animalsInAt, type RuleContext } from '../context'
 import type { TimedEvent } from '../history'
 import { DAY_MS, formatWhen, HOUR_MS, toIso } from '../time'
 import { mgNWithIon } from '../words'
+import { NITRIFICATION_STOICHIOMETRY } from '../thresholds'
 import { COMMON_PRACTICE, NOTHING, report, type CycleRule, type RuleResult } from './rule'
 import { waterChangeActions } from './water-change'
 
@@ -70,7 +71,7 @@ export const STOCKING_RULES: readonly CycleRule[] = [
   {
     id: 'water-change.before-stocking',
     description: 'A fishless cycle that leaves nitrate above the fish limit calls for a large water change before stocking.',
-    source: 'nitrate formed by nitrification (stoichiometry); a large water change before stocking is common practice, no published source',
+    source: `${NITRIFICATION_STOICHIOMETRY}; a large water change before stocking is ${COMMON_PRACTICE}`,
     severities: ['info'],
     evaluate: beforeStocking,
   },

@@ -84,7 +84,7 @@ function reading(k: HistoryKnobs, day: number): CycleReading | null {
   if (d.pH !== undefined) r.pH = d.pH
   if (d.temperatureC !== undefined) r.temperatureC = d.temperatureC
   r.salinity = k.salinity + d.salinity
-  if (k.reefChemistry) Object.assign(r, { alkalinityDkh: 8.5, calciumMgL: 420, magnesiumMgL: 1320 })
+  if (k.reefChemistry) Object.assign(r, { alkalinityDkh: 8.5, calciumMgL: 420, magnesiumMgL: 1320, phosphateMgL: 0.03 })
   // Entered a few minutes after it was taken, as clients do.
   r.enteredAt = at(day, d.hour + 0.1)
   return r
@@ -148,3 +148,24 @@ export function shuffled<T>(items: readonly T[], seed: number): T[] {
   }
   return out
 }
+
+/**
+ * A careful reef keeper's version of a history: proof doses on consecutive days, each tested
+ * a few hours later to show it arrived; salinity steady at 35, pH 8.2, reef chemistry and
+ * phosphate tested and in range, nitrate kept under the stony-coral limit. Without it few
+ * generated tanks complete and almost none reaches stony corals, so a property about them
+ * would hold only because nothing was allowed.
+ */
+export const reefReadyArb: fc.Arbitrary<HistoryKnobs> = historyArb.map(k => ({
+  ...k,
+  salinity: 35,
+  nitrateMax: 2,
+  reefChemistry: true,
+  clearanceAfter: k.clearanceAfter ?? 1,
+  clearanceDays: Math.max(3, k.clearanceDays),
+  clearanceCheck: { hours: 4, ammoniaN: 1.6, nitriteN: 0 },
+  days: k.days.map(d => ({ ...d, pH: 8.2, temperatureC: 25, salinity: 0 })),
+}))
+
+/** Any history, and as often a careful keeper's, so properties about complete tanks meet many. */
+export const tankArb: fc.Arbitrary<HistoryKnobs> = fc.oneof(historyArb, reefReadyArb)

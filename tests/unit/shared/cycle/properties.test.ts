@@ -4,7 +4,7 @@ import { evaluateCycle } from '../../../../shared/cycle/engine'
 import { RULES } from '../../../../shared/cycle/registry'
 import { DEFAULT_THRESHOLDS } from '../../../../shared/cycle/thresholds'
 import { LIVESTOCK_GROUPS, type CycleInput, type CycleReading, type Thresholds, type Verdict } from '../../../../shared/cycle/types'
-import { historyArb, shuffled, toInput } from './arbitraries'
+import { historyArb, shuffled, tankArb, toInput } from './arbitraries'
 import { at } from './tank-log'
 
 const RUNS = { seed: 20261201, numRuns: 300 }
@@ -46,7 +46,7 @@ describe('cycle engine properties', { timeout: LIMIT_MS }, () => {
 
   it('never claims completion while the latest ammonia or nitrite is above its limit', () => {
     let completions = 0
-    fc.assert(fc.property(historyArb, (knobs) => {
+    fc.assert(fc.property(tankArb, (knobs) => {
       const input = toInput(knobs)
       const v = evaluateCycle(input)
       if (v.phase !== 'complete') {
@@ -80,7 +80,7 @@ describe('cycle engine properties', { timeout: LIMIT_MS }, () => {
       lpsCoralDelayDays: fc.constantFrom(0, 3, 30),
       spsCoralDelayDays: fc.constantFrom(0, 10, 60),
     })
-    fc.assert(fc.property(historyArb, delays, (knobs, overrides) => {
+    fc.assert(fc.property(tankArb, delays, (knobs, overrides) => {
       const v: Verdict = evaluateCycle(toInput(knobs, overrides))
       const fish = v.readiness.fish
       for (const group of ['lps-coral', 'sps-coral'] as const) {
@@ -121,7 +121,7 @@ describe('cycle engine properties', { timeout: LIMIT_MS }, () => {
       zeroRunMaxGapHours: 96, clearanceWindowHours: 36, clearanceMinDoseN: 0.3,
       clearanceDays: 1, doseArrivalFraction: 0.1, nitrateRiseN: 0.5, fishInStableDays: 3, seededNitrateRiseDays: 7,
     }
-    fc.assert(fc.property(historyArb, tighten, (knobs, strict) => {
+    fc.assert(fc.property(tankArb, tighten, (knobs, strict) => {
       const lenient = evaluateCycle(toInput(knobs, loosen))
       const base = evaluateCycle(toInput(knobs))
       const stricter = evaluateCycle(toInput(knobs, strict))
