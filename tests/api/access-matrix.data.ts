@@ -19,6 +19,7 @@ import { LoginSchema } from '../../shared/schemas/auth'
 import { AlertAcknowledgeSchema, AlertResolveSchema } from '../../shared/schemas/alerts'
 import { ForgotPasswordSchema, InvitationSchema, SetPasswordSchema } from '../../shared/schemas/account'
 import { NotificationPreferencesSchema } from '../../shared/schemas/notifications'
+import { PersonRoleSchema } from '../../shared/schemas/people'
 import { EventCorrectionSchema, ReadingCorrectionSchema, SignOffDecisionSchema, SignOffReopenSchema, SignOffRequestSchema, StartStockingSchema } from '../../shared/schemas/sign-off'
 import { ClientCreateSchema, ClientPatchSchema, SiteCreateSchema, SitePatchSchema } from '../../shared/schemas/clients'
 import { PlanTemplateSchema, StagePatchSchema } from '../../shared/schemas/plan'
@@ -190,6 +191,23 @@ function freshAlert(c: MatrixContext): string {
     values (?, ?, ?, ?, 'open', 'Access matrix alert', '{}', ?, ?, ?, ?)`, id, c.f.demo.organisationId, c.f.demo.tanks.study, kind, now, `${c.f.demo.tanks.study}:${kind}`, now, now)
   return id
 }
+let personCounter = 0
+/** A fresh aquarist of the demo company, so deactivating or moving one never touches a persona. */
+function freshPerson(c: MatrixContext): string {
+  const id = crypto.randomUUID()
+  const now = new Date().toISOString()
+  c.run(`insert into users (id, organisation_id, email, name, role, units, active, created_at, updated_at) values (?, ?, ?, 'Matrix Person', 'aquarist', 'metric', 1, ?, ?)`,
+    id, c.f.demo.organisationId, `matrix-person-${++personCounter}@tidewright.test`, now, now)
+  return id
+}
+/** A live session of client3@ (no persona): everyone else's attempt to end it is a 404. */
+function someoneElsesSession(c: MatrixContext): string {
+  const id = `matrix-session-${String(++personCounter).padStart(7, '0')}`
+  const now = new Date()
+  c.run(`insert into sessions (id, user_id, token_hash, created_at, last_seen_at, expires_at) values (?, ?, ?, ?, ?, ?)`,
+    id, c.f.demo.users.client3, `matrix-${id}`, now.toISOString(), now.toISOString(), new Date(now.getTime() + 86_400_000).toISOString())
+  return id
+}
 /** A fresh unread notice for aquarist@ (only its owner may mark it read). */
 function freshNotice(c: MatrixContext): string {
   const id = crypto.randomUUID()
@@ -282,6 +300,31 @@ export const ACCESS_MATRIX: Record<string, MatrixEntry> = {
     fuzz: { as: 'aquarist', schema: ARCHIVE_BODY, validBody: () => ({ archived: false }) },
   },
   'GET /api/staff': { url: () => '/api/staff', expect: staffList() },
+
+  // People (admins only) and a person's own sessions
+  'POST /api/people/[id]/deactivate': {
+    url: c => `/api/people/${freshPerson(c)}/deactivate`,
+    expect: { ...staffList(403), admin: 200 },
+    fuzz: 'no-body',
+  },
+  'POST /api/people/[id]/reactivate': {
+    url: c => `/api/people/${freshPerson(c)}/reactivate`,
+    expect: { ...staffList(403), admin: 200 },
+    fuzz: 'no-body',
+  },
+  'PATCH /api/people/[id]/role': {
+    url: c => `/api/people/${freshPerson(c)}/role`,
+    body: () => ({ role: 'supervisor' }),
+    expect: { ...staffList(403), admin: 200 },
+    fuzz: { as: 'admin', schema: PersonRoleSchema, validBody: () => ({ role: 'supervisor' }) },
+  },
+  'GET /api/me/sessions': { url: () => '/api/me/sessions', expect: anySignedIn() },
+  'POST /api/me/sessions/[id]/end': {
+    url: c => `/api/me/sessions/${someoneElsesSession(c)}/end`,
+    expect: anySignedIn(404),
+    fuzz: 'no-body',
+  },
+  'POST /api/me/sessions/end-others': { url: () => '/api/me/sessions/end-others', expect: anySignedIn(), fuzz: 'no-body' },
 
   // Plan template and stages
   'GET /api/plan-template': { url: () => '/api/plan-template', expect: staffList() },
