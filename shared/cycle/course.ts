@@ -89,6 +89,11 @@ export interface ZeroRun {
 export interface Course {
   /** Completion within the current run: the cycle is proven as of the last test. */
   readonly completion: Completion | null
+  /**
+   * A completion waiting on a test above zero (a dose or a spike being worked off): it stands
+   * again if ammonia and nitrite read zero by `until`, and is lost otherwise.
+   */
+  readonly held: { readonly completion: Completion, readonly by: TimedReading, readonly until: number } | null
   /** Earlier completions later ended by a test above the limits. */
   readonly lost: readonly Completion[]
   readonly run: ZeroRun | null
@@ -239,6 +244,12 @@ class CourseScan {
     for (const dose of this.pending) {
       if (!dose.diluted && dose.t < r.t && r.t <= dose.t + this.s.windowMs) deadline = Math.max(deadline, dose.t + this.s.windowMs)
     }
+    // A proven tank is not undone by one test of a little ammonia (under the action level,
+    // nitrite at zero) that the next test, inside the clearance window, shows gone: a feeding
+    // spike the bacteria dealt with. A second test above zero, or none in time, loses it.
+    const th = this.s.thresholds
+    const spike = (r.ammoniaN ?? 0) <= th.ammoniaActionN && (r.nitriteN ?? 0) <= th.nitriteZeroN
+    if (this.completed && spike && this.held.length === 0) deadline = Math.max(deadline, r.t + this.s.windowMs)
     if (Number.isFinite(deadline) && this.run !== null) this.held.push({ reading: r, deadline })
     else this.breakRun(r)
   }
@@ -382,8 +393,10 @@ class CourseScan {
     const run = this.run
     // A test still waiting to be excused is above the limits now: no completion holds meanwhile.
     const onHold = this.held.length > 0
+    const waiting = this.held[this.held.length - 1]
     return {
       completion: onHold ? null : run?.completion ?? null,
+      held: onHold && run?.completion && waiting ? { completion: run.completion, by: waiting.reading, until: Math.min(...this.held.map(h => h.deadline)) } : null,
       lost: this.lost,
       run: run ? { first: run.first, last: run.last, zeroTests: run.zeroTests, afterDose: run.afterDose, withAnimals: run.withAnimals, provenChain: run.provenChain } : null,
       firstRise: this.firstRise,

@@ -69,6 +69,8 @@ export interface PhaseInput {
 /** Decides the phase; `complete` only when the course holds a completion that no later test has ended. */
 export function decidePhase({ history, course, latest, thresholds, sourceT }: PhaseInput): CyclePhase {
   if (course.completion) return 'complete'
+  // A proven tank working off a dose or a spike is settling, not back in the ammonia or nitrite stage.
+  if (course.held) return 'settling'
   if (sourceT === null) return 'not-started'
   const lastTest = latestNitrogen(history.readings)
   // The source went in after the last test: ammonia is expected, not yet measured.

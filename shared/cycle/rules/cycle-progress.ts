@@ -59,6 +59,15 @@ function nitriteStage(ctx: RuleContext): RuleResult {
 function settlingStage(ctx: RuleContext): RuleResult {
   const run = ctx.course.run
   const th = ctx.thresholds
+  const held = ctx.course.held
+  if (held !== null) {
+    return report(
+      'info',
+      `The cycle was proven complete on ${formatWhen(held.completion.reading.t)}; the test of ${formatWhen(held.by.t)} reads ammonia ${mgN(held.by.ammoniaN ?? 0)}, nitrite ${mgN(held.by.nitriteN ?? 0)}. If ammonia and nitrite read zero again by ${formatWhen(held.until)}, the completion stands; if not, the tank has to prove itself again.`,
+      [held.completion.reading, held.by],
+      [{ kind: 'retest', message: `Test ammonia and nitrite again before ${formatWhen(held.until)}.`, dueBy: toIso(Math.min(held.until, held.by.t + th.retestHours * HOUR_MS)) }],
+    )
+  }
   if (run === null) {
     return report('info', 'Ammonia and nitrite are low, but no test yet reads zero for both. Keep testing every day.', [ctx.latest.ammoniaN, ctx.latest.nitriteN])
   }
@@ -110,15 +119,18 @@ function complete(ctx: RuleContext): RuleResult {
 
 function lost(ctx: RuleContext): RuleResult {
   const last = ctx.course.lost[ctx.course.lost.length - 1]
-  if (ctx.course.completion !== null || last === undefined || last.lostBy === null) return NOTHING
+  if (ctx.course.completion !== null || ctx.course.held !== null || last === undefined || last.lostBy === null) return NOTHING
   const by = last.lostBy
+  const th = ctx.thresholds
+  // With animals in the tank proves itself over the longer fish-in run.
+  const hours = needsDoseProof(ctx) ? th.stableSpanHours : Math.max(th.stableSpanHours, th.fishInStableDays * 24)
   const values = [
     by.ammoniaN !== undefined ? `ammonia ${mgN(by.ammoniaN)}` : null,
     by.nitriteN !== undefined ? `nitrite ${mgN(by.nitriteN)}` : null,
   ].filter(v => v !== null).join(', ')
   return report(
     'caution',
-    `The cycle was complete on ${formatWhen(last.reading.t)}, but the test of ${formatWhen(by.t)} shows ${values}. The tank has to prove itself again: zero ammonia and nitrite for ${ctx.thresholds.stableSpanHours} h.`,
+    `The cycle was complete on ${formatWhen(last.reading.t)}, but the test of ${formatWhen(by.t)} shows ${values}. The tank has to prove itself again: zero ammonia and nitrite for ${formatDuration(hours * HOUR_MS)}.`,
     [last.reading, by],
     [{ kind: 'retest', message: 'Test ammonia and nitrite again within a day.', dueBy: toIso(ctx.nowMs + ctx.thresholds.retestHours * HOUR_MS) }],
   )

@@ -23,7 +23,7 @@ function doseWords(ctx: RuleContext): string {
 }
 
 function unproven(ctx: RuleContext): RuleResult {
-  if (ctx.phase !== 'settling') return NOTHING
+  if (ctx.phase !== 'settling' || ctx.course.held !== null) return NOTHING
   const th = ctx.thresholds
   if (needsDoseProof(ctx)) {
     if (ctx.course.firstRise !== null) return NOTHING
@@ -50,7 +50,7 @@ export function nitrateRise(ctx: RuleContext): { from: TimedReading, to: TimedRe
 }
 
 function nitrateMissing(ctx: RuleContext): RuleResult {
-  if (ctx.phase !== 'settling' || ctx.course.run === null) return NOTHING
+  if (ctx.phase !== 'settling' || ctx.course.held !== null || ctx.course.run === null) return NOTHING
   const test = ctx.course.latestNitrate
   const th = ctx.thresholds
   const retest = [{ kind: 'test-nitrate', message: 'Test nitrate with the next ammonia and nitrite test.', dueBy: toIso(ctx.nowMs + th.retestHours * HOUR_MS) }]
@@ -76,7 +76,7 @@ function openDose(ctx: RuleContext): DoseOutcome | undefined {
 }
 
 function proofProgress(ctx: RuleContext): RuleResult {
-  if (ctx.phase !== 'settling' || !needsDoseProof(ctx) || ctx.course.firstRise === null || ctx.course.run === null) return NOTHING
+  if (ctx.phase !== 'settling' || ctx.course.held !== null || !needsDoseProof(ctx) || ctx.course.firstRise === null || ctx.course.run === null) return NOTHING
   const th = ctx.thresholds
   const proven = ctx.course.run.provenChain.length
   const soFar = proven === 0 ? 'No day is proven yet.' : `${proven} of ${th.clearanceDays} days proven so far (latest dose ${formatWhen(ctx.course.run.provenChain[proven - 1]!.t)}).`

@@ -53,13 +53,13 @@ export const SCENARIOS: readonly Scenario[] = [
     id: 'doses-without-amount',
     aquarist: 'Daily doses logged without amounts: nobody knows what was cleared, so it is not proof yet.',
     plan: { ...fishlessPlan({ seed: 3, start: START, days: 36 }), doses: fishlessPlan({ seed: 3, start: START, days: 36 }).doses?.map(d => (d.day >= 24 ? { ...d, logAmount: false } : d)) },
-    at: { day: 35, hour: 21 },
+    at: { day: 35, hour: 18.7 },
   },
   {
     id: 'fishless-textbook',
     aquarist: 'Bottled bacteria, about 2 ppm daily once nitrite is gone, each dose gone by the next evening for days: cycled.',
     plan: fishlessPlan({ seed: 7, start: START, days: 36 }),
-    at: { day: 35, hour: 21 },
+    at: { day: 35, hour: 18.7 },
   },
   {
     id: 'fish-in-nitrite-stage',
@@ -89,7 +89,7 @@ export const SCENARIOS: readonly Scenario[] = [
     id: 'high-nitrate-after-fishless',
     aquarist: 'Cycled after weeks of daily doses, nitrate about 80 ppm as NO3: change water before the fish go in.',
     plan: fishlessPlan({ seed: 10, start: START, days: 40 }),
-    at: { day: 39, hour: 21 },
+    at: { day: 39, hour: 18.7 },
   },
   {
     id: 'stony-untested-chemistry',
@@ -125,7 +125,7 @@ export const SCENARIOS: readonly Scenario[] = [
     id: 'nitrate-kit-dead',
     aquarist: 'Doses clear every day but nitrate reads 5 ppm for a fortnight: the nitrate kit is dead, not the cycle.',
     plan: { ...fishlessPlan({ seed: 17, start: START, days: 36 }), stuckNitrateStep: 1 },
-    at: { day: 35, hour: 21 },
+    at: { day: 35, hour: 18.7 },
   },
   {
     id: 'time-alone-missed-tests',

@@ -291,6 +291,37 @@ describe('a water change mid-cycle', () => {
   })
 })
 
+describe('one small spike after completion', () => {
+  // A proven fish-in tank reads 0.25 ppm as NH3 (0.21 as N, a kit's first colour step) the
+  // morning after a heavy feed. An aquarist re-tests: gone the next morning, the cycle stands;
+  // still there, the tank has to prove itself again.
+  const spiked = () => fishInWithSpike().test(27, { ammoniaN: 0.21, nitriteN: 0, nitrateN: 1.6 })
+
+  it('holds the completion until the re-test: settling, with a re-test inside the window', () => {
+    const v = evaluateCycle(spiked().input(27, 12))
+    expect(v.phase).toBe('settling')
+    expect(v.completedOn).toBeNull()
+    expect(v.findings.find(f => f.ruleId === 'cycle.phase')?.message).toMatch(/proven complete on .*the completion stands/)
+    expect(ruleIds(v)).not.toContain('cycle.lost')
+    expect(Date.parse(v.actions.find(a => a.kind === 'retest')?.dueBy ?? '')).toBeLessThanOrEqual(Date.parse(at(28, 15)))
+  })
+
+  it('stands again, from its first date, when the next test reads zero', () => {
+    const v = evaluateCycle(spiked().test(28, { ammoniaN: 0, nitriteN: 0, nitrateN: 1.7 }).input(28, 12))
+    expect(v.phase).toBe('complete')
+    expect(v.completedOn).toBe(at(25))
+  })
+
+  it('is lost when the next test still shows ammonia, or none comes in time', () => {
+    const again = evaluateCycle(spiked().test(28, { ammoniaN: 0.21, nitriteN: 0, nitrateN: 1.7 }).input(28, 12))
+    expect(again.completedOn).toBeNull()
+    expect(ruleIds(again)).toContain('cycle.lost')
+    const silent = evaluateCycle(spiked().input(29, 12))
+    expect(silent.completedOn).toBeNull()
+    expect(ruleIds(silent)).toContain('cycle.lost')
+  })
+})
+
 describe('a crash after livestock', () => {
   const log = crashAfterLivestock()
 
