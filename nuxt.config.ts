@@ -48,6 +48,8 @@ export default defineNuxtConfig({
     testHooks: false,
     // How often the mail worker looks for due mail and runs escalations and reminders.
     workerIntervalMs: 5000,
+    // Stored verdicts older than this are made again, on read and by the worker (at most an hour).
+    verdictIntervalMs: 900000,
     public: {
       // Absolute links in e-mails (NUXT_PUBLIC_BASE_URL).
       baseUrl: 'http://localhost:3000',

@@ -33,11 +33,12 @@ export function resolveAlert(actor: Actor, alertId: string, note: string, now = 
   return done?.alert ?? null
 }
 
-/** The clocked jobs: escalations and test reminders due at `now`. */
+/** The clocked jobs at `now`: verdicts made again where time alone may have changed them, then escalations and test reminders. */
 export function runClockedJobs(now: Date) {
+  const verdicts = refreshStaleVerdicts(now)
   const db = useDB()
   const escalation = escalateDueAlerts(db, now, publicBaseUrl())
   const reminders = runTestReminders(db, now, publicBaseUrl())
   announceNotices([...escalation.notifiedUserIds, ...reminders.notifiedUserIds])
-  return { escalated: escalation.escalated.length, reminded: reminders.reminded.length, aquaristsTold: reminders.aquaristsTold.length }
+  return { verdicts, escalated: escalation.escalated.length, reminded: reminders.reminded.length, aquaristsTold: reminders.aquaristsTold.length }
 }

@@ -4,6 +4,7 @@ import { alias } from 'drizzle-orm/sqlite-core'
 import type { TankListQuery } from '#shared/schemas/tank-list'
 import type { CyclePhase, TankList, TankSummary, TankView } from '#shared/types/tanks'
 import { clients, planStages, sites, tankVerdicts, tanks, users } from '../db/schema'
+import { netWaterLitres } from '#shared/plan/net-volume'
 import { visibleTankCondition, type Actor } from './access'
 
 const aquarist = alias(users, 'aquarist')
@@ -68,8 +69,8 @@ const SORT_COLUMNS = {
   stage: currentStagePosition,
 } as const
 
-/** One page of the tanks the actor may see, filtered and sorted on the server. */
-export function listTanks(actor: Actor, query: TankListQuery): TankList {
+/** One page of the tanks the actor may see, filtered and sorted on the server, phases as of `now`. */
+export function listTanks(actor: Actor, query: TankListQuery, now = new Date()): TankList {
   const conditions: SQL[] = [visibleTankCondition(actor)]
   if (query.status) conditions.push(eq(tanks.status, query.status))
   if (query.clientId) conditions.push(eq(tanks.clientId, query.clientId))
@@ -82,17 +83,22 @@ export function listTanks(actor: Actor, query: TankListQuery): TankList {
   const where = and(...conditions)
   const column = SORT_COLUMNS[query.sort]
   const order = query.dir === 'asc' ? asc(column) : desc(column)
-  const rows = baseQuery().where(where).orderBy(order, asc(tanks.id))
+  const page = () => baseQuery().where(where).orderBy(order, asc(tanks.id))
     .limit(query.pageSize).offset((query.page - 1) * query.pageSize).all()
+  let rows = page()
+  // A phase time alone has changed is made again before the page is shown.
+  if (refreshStaleVerdicts(now, rows.map(r => r.tank.id)) > 0) rows = page()
   const total = useDB().select({ n: sql<number>`count(*)` }).from(tanks)
     .innerJoin(clients, eq(clients.id, tanks.clientId)).where(where).get()?.n ?? 0
   return { items: rows.map(toSummary), total, page: query.page, pageSize: query.pageSize }
 }
 
-/** The full view of one tank, or undefined when the actor may not see it. */
-export function getTankView(actor: Actor, tankId: string): TankView | undefined {
-  const row = baseQuery().where(and(eq(tanks.id, tankId), visibleTankCondition(actor))).get()
+/** The full view of one tank (its phase as of `now`), or undefined when the actor may not see it. */
+export function getTankView(actor: Actor, tankId: string, now = new Date()): TankView | undefined {
+  const one = () => baseQuery().where(and(eq(tanks.id, tankId), visibleTankCondition(actor))).get()
+  let row = one()
   if (!row) return undefined
+  if (refreshStaleVerdicts(now, [tankId]) > 0) row = one() ?? row
   const t = row.tank
   return {
     ...toSummary(row),
@@ -106,6 +112,7 @@ export function getTankView(actor: Actor, tankId: string): TankView | undefined 
     supervisorId: t.supervisorId,
     supervisorName: row.supervisorName,
     kitBasis: t.kitBasis,
+    netWaterLitres: netWaterLitres(t, useDB().select({ key: planStages.key, data: planStages.data }).from(planStages).where(eq(planStages.tankId, t.id)).all()),
     createdAt: t.createdAt,
   }
 }

@@ -2,6 +2,7 @@ import Database from 'better-sqlite3'
 import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest'
 import { ApiClient, signedIn } from '../support/http'
 import { OTHER_AQUARIST_EMAIL } from '../support/fixtures'
+import { nitrogenFraction } from '../../shared/chemistry/nitrogen'
 import type { ChartData, EventList, EventView, ImportPreview, ReadingList, ReadingSaved, VerdictView } from '../../shared/types/readings'
 import type { TankView } from '../../shared/types/tanks'
 
@@ -277,6 +278,20 @@ describe('CSV import and export', () => {
     const again = await api.post<ImportPreview>(`/api/tanks/${lobby}/readings/import`, { csv, ...options, dryRun: false })
     expect(again.body).toMatchObject({ inserted: 0, duplicates: 50 })
     expect(count()).toBe(before + 50)
+  })
+
+  it('reads a file in the tank\'s remembered kit basis unless told otherwise, and says which', async () => {
+    const api = await signedIn('aquarist@tidewright.test')
+    const kit = (await api.get<{ kitBasis: { ammonia: string, nitrite: string, nitrate: string } }>(`/api/tanks/${lobby}`)).body.kitBasis
+    const csv = `Date,Ammonia,Nitrite,Nitrate\n${hoursAgo(30)},1,1,10\n`
+    const dry = await api.post<ImportPreview>(`/api/tanks/${lobby}/readings/import`, { csv, dryRun: true })
+    expect(dry.status).toBe(200)
+    expect(dry.body.basis).toEqual(kit)
+    // The same kit reading typed in the form with the tank's basis is stored the same (IUPAC molar masses).
+    expect(dry.body.preview[0]!.ammoniaN).toBeCloseTo(kit.ammonia === 'N' ? 1 : nitrogenFraction(kit.ammonia as 'NH3' | 'NH4'), 6)
+    const chosen = await api.post<ImportPreview>(`/api/tanks/${lobby}/readings/import`, { csv, basis: { ammonia: 'N', nitrite: 'N', nitrate: 'N' }, dryRun: true })
+    expect(chosen.body.basis).toEqual({ ammonia: 'N', nitrite: 'N', nitrate: 'N' })
+    expect(chosen.body.preview[0]!.ammoniaN).toBeCloseTo(1, 9)
   })
 
   it('exports CSV that imports back into another tank unchanged', async () => {

@@ -26,10 +26,16 @@ async function download(api: ApiClient, path: string): Promise<{ status: number,
   return { status: response.status, type: response.headers.get('content-type'), bytes: Buffer.from(await response.arrayBuffer()) }
 }
 
+/** The tank's own lighting acclimation, set on its lighting-ramp stage before it is signed. */
+const OWN_ACCLIMATION = { acclimationWeeks: 2, acclimationStartPercent: 20, acclimationEndPercent: 40 }
+const lightingStage = (tankId: string) => db.$client.prepare('select id from plan_stages where tank_id = ? and key = \'lighting-ramp\'').get(tankId) as { id: string }
+
 beforeAll(async () => {
   db = openDatabase(inject('dbPath'))
   company = await seedSignOffCompany(db, demo.tanks)
   ;({ complete, toReturn, midCycle } = company.tanks)
+  const set = await (await signedIn(U.aquarist.email)).patch(`/api/tanks/${complete}/stages/${lightingStage(complete).id}`, { data: OWN_ACCLIMATION })
+  if (set.status !== 200) throw new Error(`could not set the lighting stage: ${set.status}`)
 })
 afterAll(() => db?.$client.close())
 
@@ -245,11 +251,23 @@ describe('the certificate', () => {
     expect(text).toContain('Total ammonia')
     expect(text).toContain('Soft corals')
     expect(text).not.toContain('Signed against')
+    // The tank's own acclimation (2 weeks, 20 % to 40 %), not the defaults (4 weeks, 30 % to 60 %).
+    expect(text.replace(/\s+/g, ' ')).toContain('(20 %, 30 %, 40 %)')
     code = /TW(?:-[0-9A-Z]{4}){6}/.exec(text)?.[0] ?? ''
     expect(code).toBe(db.select().from(signOffs).where(and(eq(signOffs.tankId, complete), eq(signOffs.status, 'approved'))).get()?.verificationCode)
     const info = execFileSync('pdfinfo', ['-'], { input: bytes }).toString()
     expect(info).toMatch(/Pages:\s+1\n/)
     expect(execFileSync('pdffonts', ['-'], { input: bytes }).toString()).toMatch(/SourceSans3/)
+  })
+
+  it('keeps the lighting plan as signed when the stage changes afterwards', async () => {
+    const aquarist = await signedIn(U.aquarist.email)
+    const changed = await aquarist.patch(`/api/tanks/${complete}/stages/${lightingStage(complete).id}`, { data: { acclimationWeeks: 6, acclimationStartPercent: 10, acclimationEndPercent: 70 } })
+    expect(changed.status).toBe(200)
+    const text = pdfText((await download(await signedIn(U.client.email), `/api/tanks/${complete}/certificate.pdf`)).bytes)
+    expect(text.replace(/\s+/g, ' ')).toContain('(20 %, 30 %, 40 %)')
+    const snapshot = db.select().from(signOffs).where(and(eq(signOffs.tankId, complete), eq(signOffs.status, 'approved'))).get()?.snapshot as { acclimation?: unknown } | undefined
+    expect(snapshot?.acclimation).toEqual({ weeks: 2, startPercent: 20, endPercent: 40 })
   })
 
   it('shows an override on the certificate', async () => {
