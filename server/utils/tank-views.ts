@@ -6,6 +6,7 @@ import type { CyclePhase, TankList, TankSummary, TankView } from '#shared/types/
 import { clients, planStages, sites, tankVerdicts, tanks, users } from '../db/schema'
 import { netWaterLitres } from '#shared/plan/net-volume'
 import { visibleTankCondition, type Actor } from './access'
+import { FORECAST_STATUSES, forecastTank } from '../domain/forecast/tank-forecast'
 
 const aquarist = alias(users, 'aquarist')
 const supervisor = alias(users, 'supervisor')
@@ -69,6 +70,12 @@ const SORT_COLUMNS = {
   stage: currentStagePosition,
 } as const
 
+/** A list item with its forecast when the cycle is what the reader waits for. */
+function withForecast(summary: TankSummary, now: Date): TankSummary {
+  if (!FORECAST_STATUSES.has(summary.status)) return summary
+  return { ...summary, forecast: forecastTank(useDB(), summary.id, now) ?? null }
+}
+
 /** One page of the tanks the actor may see, filtered and sorted on the server, phases as of `now`. */
 export function listTanks(actor: Actor, query: TankListQuery, now = new Date()): TankList {
   const conditions: SQL[] = [visibleTankCondition(actor)]
@@ -90,7 +97,7 @@ export function listTanks(actor: Actor, query: TankListQuery, now = new Date()):
   if (refreshStaleVerdicts(now, rows.map(r => r.tank.id)) > 0) rows = page()
   const total = useDB().select({ n: sql<number>`count(*)` }).from(tanks)
     .innerJoin(clients, eq(clients.id, tanks.clientId)).where(where).get()?.n ?? 0
-  return { items: rows.map(toSummary), total, page: query.page, pageSize: query.pageSize }
+  return { items: rows.map(row => withForecast(toSummary(row), now)), total, page: query.page, pageSize: query.pageSize }
 }
 
 /** The full view of one tank (its phase as of `now`), or undefined when the actor may not see it. */

@@ -111,7 +111,11 @@ describe('the evidence', () => {
     expect(status).toBe(200)
     expect(body.tank.name).toBe('Saltmarsh test lounge')
     expect(body.readings.length).toBe(db.select().from(readings).where(eq(readings.tankId, midCycle)).all().length)
-    expect(body.events.map(e => e.kind)).toEqual(['ammonia-dose', 'bacteria-dose'])
+    // The lounge copy's seeded events (bacteria and the doses of its simulated history), in time order.
+    const seeded = db.select({ kind: events.kind, at: events.at }).from(events).where(eq(events.tankId, midCycle)).all()
+      .sort((a, b) => a.at.localeCompare(b.at)).map(e => e.kind)
+    expect(body.events.map(e => e.kind)).toEqual(seeded)
+    expect(seeded).toEqual(expect.arrayContaining(['ammonia-dose', 'bacteria-dose']))
     expect(body.stages).toHaveLength(0)
     expect(body.alerts).toHaveLength(1)
     expect(body.signOffs[0]?.status).toBe('requested')

@@ -151,7 +151,7 @@ export function shuffled<T>(items: readonly T[], seed: number): T[] {
 
 /**
  * A careful reef keeper's version of a history: proof doses on consecutive days, each tested
- * a few hours later to show it arrived; salinity steady at 35, pH 8.2, reef chemistry and
+ * a few hours later to show it arrived; salinity steady at 35, pH 8.1, reef chemistry and
  * phosphate tested and in range, nitrate kept under the stony-coral limit. Without it few
  * generated tanks complete and almost none reaches stony corals, so a property about them
  * would hold only because nothing was allowed.
@@ -164,7 +164,7 @@ export const reefReadyArb: fc.Arbitrary<HistoryKnobs> = historyArb.map(k => ({
   clearanceAfter: k.clearanceAfter ?? 1,
   clearanceDays: Math.max(3, k.clearanceDays),
   clearanceCheck: { hours: 4, ammoniaN: 1.6, nitriteN: 0 },
-  days: k.days.map(d => ({ ...d, pH: 8.2, temperatureC: 25, salinity: 0 })),
+  days: k.days.map(d => ({ ...d, pH: 8.1 as const, temperatureC: 25, salinity: 0 })),
 }))
 
 /** Any history, and as often a careful keeper's, so properties about complete tanks meet many. */
