@@ -12,7 +12,9 @@
  * - before T the test still shows ammonia or nitrite above the kit's zero; from T
  *   on it reads zero for both, with nitrate present (nitrification makes nitrate);
  * - a fishless tank with no livestock gets the engine's clearance dose after each
- *   zero test, as the engine asks, and clears it by the next test;
+ *   zero test, as the engine asks: a test a few hours later shows it arrived, the next
+ *   test shows it cleared, and its nitrogen turns up as nitrate (1 mg/L nitrate-N per
+ *   mg/L ammonia-N, nitrification stoichiometry);
  * - no water change, and nothing else that restarts the engine's count.
  */
 
@@ -45,6 +47,9 @@ export interface ProjectionBase {
   testEveryHours: number
 }
 
+/** Hours after a dose of the test that shows it arrived, as the engine asks for it. */
+const ARRIVAL_TEST_HOURS = 3
+
 /** Most proofs need a few days of zero tests; the engine first runs on this many days past T, then on the whole horizon. */
 const FIRST_TRY_DAYS = 14
 
@@ -59,7 +64,7 @@ export function futureTestTimes(base: ProjectionBase, untilMs = base.lastTestMs 
   return times
 }
 
-function assumedTest(base: ProjectionBase, t: number, zero: boolean, index: number): CycleReading {
+function assumedTest(base: ProjectionBase, t: number, zero: boolean, index: number, nitrateN: number): CycleReading {
   const th = base.thresholds
   // Before T only "above the kit's zero" matters to the proof; twice the limit says exactly that.
   return {
@@ -67,7 +72,7 @@ function assumedTest(base: ProjectionBase, t: number, zero: boolean, index: numb
     takenAt: toIso(t),
     ammoniaN: zero || !base.ammoniaAbove ? 0 : 2 * th.ammoniaZeroN,
     nitriteN: zero || !base.nitriteAbove ? 0 : 2 * th.nitriteZeroN,
-    nitrateN: base.nitrateN,
+    nitrateN,
   }
 }
 
@@ -84,12 +89,26 @@ function projectUntil(base: ProjectionBase, zeroFromMs: number, untilMs: number)
   const readings = [...base.input.readings]
   const events = [...(base.input.events ?? [])]
   const times = futureTestTimes(base, untilMs)
+  const doseN = base.thresholds.clearanceDoseN
+  let nitrateN = base.nitrateN
+  if (base.doseAfterZeroTests) {
+    // A real dose given since the latest test gets the same arrival test as the assumed ones.
+    for (const e of events) {
+      const t = Date.parse(e.at)
+      if (e.kind !== 'ammonia-dose' || !(t > base.lastTestMs)) continue
+      const when = Math.max(t + ARRIVAL_TEST_HOURS * HOUR_MS, base.nowMs + 60_000)
+      readings.push({ id: `forecast-arrival-${e.id}`, takenAt: toIso(when), ammoniaN: e.amount ?? doseN, nitriteN: 0, nitrateN })
+    }
+  }
   times.forEach((t, i) => {
     const zero = t >= zeroFromMs
-    readings.push(assumedTest(base, t, zero, i))
+    // The dose before this zero test has cleared: its nitrogen is nitrate now.
+    if (zero && base.doseAfterZeroTests && i > 0 && times[i - 1]! >= zeroFromMs) nitrateN += doseN
+    readings.push(assumedTest(base, t, zero, i, nitrateN))
     if (zero && base.doseAfterZeroTests) {
-      const dose: CycleEvent = { id: `forecast-dose-${i}`, at: toIso(t + 60_000), kind: 'ammonia-dose', amount: base.thresholds.clearanceDoseN }
+      const dose: CycleEvent = { id: `forecast-dose-${i}`, at: toIso(t + 60_000), kind: 'ammonia-dose', amount: doseN }
       events.push(dose)
+      readings.push({ id: `forecast-arrival-${i}`, takenAt: toIso(t + ARRIVAL_TEST_HOURS * HOUR_MS), ammoniaN: doseN, nitriteN: 0, nitrateN })
     }
   })
   const last = times[times.length - 1]
