@@ -4,12 +4,12 @@
  * build plan (the substrate stage's sand depth, the water-fill stage's rock weight).
  */
 
-import { tankShapeFrom, tankVolume, type TankShapeKind } from '../calc/volume'
+import { tankShapeFrom, tankVolume, type TankDimensionsMm, type TankShapeKind } from '../calc/volume'
 
 /** What the net volume needs to know about a tank. */
 export interface NetVolumeTank {
   shape: string
-  dimensions: Record<string, number | undefined>
+  dimensions: TankDimensionsMm
   volumeLitres: number
   sumpLitres: number
 }

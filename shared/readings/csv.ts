@@ -62,7 +62,8 @@ export function parseCsvTime(cell: string): string | null {
   return Number.isFinite(t) ? new Date(t).toISOString() : null
 }
 
-type Options = Pick<ReadingImportInput, 'basis' | 'temperatureUnit' | 'salinityMode' | 'sgBasis'>
+/** How each row is read; the basis is settled before the rows are (see importBasis). */
+type Options = Pick<ReadingImportInput, 'temperatureUnit' | 'salinityMode' | 'sgBasis'> & { basis: KitBasisChoice }
 
 const NUMERIC: readonly ImportTarget[] = ['ammonia', 'nitrite', 'nitrate', 'pH', 'temperature', 'salinity', 'alkalinityDkh', 'calciumMgL', 'magnesiumMgL', 'phosphateMgL']
 
