@@ -7,8 +7,8 @@ import { readings } from '../../../db/schema'
 
 /**
  * GET /api/tanks/:id/verdict — the rule engine's verdict as of now (the stored one, made
- * again first when missing or older than the verdict interval), with each cited rule's description and source and the readings the
- * findings rest on. Returns VerdictView.
+ * again first when missing or older than the verdict interval), with each cited rule's
+ * description and source and the readings the findings rest on. Returns VerdictView.
  */
 export default defineEventHandler(async (event): Promise<VerdictView> => {
   const actor = await requireActor(event)
