@@ -15,13 +15,20 @@ function holds(f: CycleForecast, completedOn: string): boolean {
   return day(f.completion!.from) <= day(completedOn) && day(completedOn) <= day(f.completion!.to)
 }
 
-/**
- * Every daily cut of a tank's history that got a range, with the engine's completion on the
- * whole history, read at the last morning test (after it, a fishless tank's routine dose is
- * still being worked off and rule set 2 holds the completion until the next test).
- */
+/** When the engine first proved the cycle, run right after each test as the server does; null when it never did. */
+function realCompletion(log: TankLog): { completedOn: string, provenAt: string } | null {
+  const input = log.input(0)
+  for (const at of [...new Set(log.readings.map(r => r.takenAt))].sort()) {
+    const provenAt = new Date(Date.parse(at) + 60_000).toISOString()
+    const completedOn = evaluateCycle({ ...input, now: provenAt }).completedOn
+    if (completedOn !== null) return { completedOn, provenAt }
+  }
+  return null
+}
+
+/** Every daily cut of a tank's history that got a range, with the engine's completion on the whole history. */
 function cuts(log: TankLog, lastDay: number) {
-  const completedOn = evaluateCycle(log.input(lastDay, 9)).completedOn
+  const completedOn = realCompletion(log)?.completedOn ?? null
   const forecasts: Array<{ day: number, f: CycleForecast }> = []
   for (let d = 1; d <= lastDay; d += 1) {
     const f = forecastCycle(log.input(d))
@@ -54,8 +61,7 @@ describe('completion forecast on the textbook fishless cycle', () => {
   })
 
   it('gives a range once nitrite has fallen for a few tests, and the range narrows as tests arrive', () => {
-    // Rule set 2 proves the textbook tank on day 23, the morning after its third proof dose cleared.
-    const { completedOn, forecasts } = cuts(log, 23)
+    const { completedOn, forecasts } = cuts(log, 22)
     expect(completedOn).not.toBeNull()
     expect(forecasts.length).toBeGreaterThanOrEqual(4)
     const widths = forecasts.map(x => width(x.f))
@@ -65,9 +71,9 @@ describe('completion forecast on the textbook fishless cycle', () => {
   })
 
   it('turns into the verdict once the engine proves the cycle', () => {
-    // Rule set 2 proves this tank on day 23, the morning after the third proof dose cleared.
-    const f = forecastCycle(log.input(24))
-    const verdict = evaluateCycle(log.input(24))
+    const proven = { ...log.input(0), now: realCompletion(log)!.provenAt }
+    const f = forecastCycle(proven)
+    const verdict = evaluateCycle(proven)
     expect(f.status).toBe('complete')
     expect(f.completion).toEqual({ from: verdict.completedOn, to: verdict.completedOn })
     expect(f.groups['lps-coral']!.from).toBe(verdict.readiness['lps-coral'].earliest)
@@ -146,8 +152,7 @@ describe('not enough data', () => {
 
 describe('fish-in cycle', () => {
   it('forecasts from the nitrite fall after the water change and holds the completion near the end', () => {
-    // Rule set 2 asks a fish-in tank for a week of zero tests: proven on day 25 of its 26.
-    const { completedOn, forecasts } = cuts(fishInWithSpike(), 26)
+    const { completedOn, forecasts } = cuts(fishInWithSpike(), 21)
     expect(completedOn).not.toBeNull()
     expect(forecasts.length).toBeGreaterThanOrEqual(3)
     for (const { f } of forecasts.slice(-2)) expect(holds(f, completedOn!)).toBe(true)
