@@ -244,12 +244,13 @@ class CourseScan {
     for (const dose of this.pending) {
       if (!dose.diluted && dose.t < r.t && r.t <= dose.t + this.s.windowMs) deadline = Math.max(deadline, dose.t + this.s.windowMs)
     }
-    // A proven tank is not undone by one test of a little ammonia (under the action level,
-    // nitrite at zero) that the next test, inside the clearance window, shows gone: a feeding
-    // spike the bacteria dealt with. A second test above zero, or none in time, loses it.
+    // One test of a little ammonia (under the action level, nitrite at zero) that the next
+    // test, inside the clearance window, shows gone is a feeding spike the bacteria dealt
+    // with: it neither undoes a proven tank nor restarts the week of zero tests a tank with
+    // animals proves itself by. A second test above zero, or none in time, does.
     const th = this.s.thresholds
     const spike = (r.ammoniaN ?? 0) <= th.ammoniaActionN && (r.nitriteN ?? 0) <= th.nitriteZeroN
-    if (this.completed && spike && this.held.length === 0) deadline = Math.max(deadline, r.t + this.s.windowMs)
+    if ((this.completed || this.animalsIn(r.t)) && spike && this.held.length === 0) deadline = Math.max(deadline, r.t + this.s.windowMs)
     if (Number.isFinite(deadline) && this.run !== null) this.held.push({ reading: r, deadline })
     else this.breakRun(r)
   }

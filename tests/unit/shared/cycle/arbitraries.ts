@@ -162,7 +162,7 @@ export const reefReadyArb: fc.Arbitrary<HistoryKnobs> = historyArb.map(k => ({
   nitrateMax: 2,
   reefChemistry: true,
   clearanceAfter: k.clearanceAfter ?? 1,
-  clearanceDays: Math.max(3, k.clearanceDays),
+  clearanceDays: k.clearanceDays === 1 ? 3 : k.clearanceDays,
   clearanceCheck: { hours: 4, ammoniaN: 1.6, nitriteN: 0 },
   days: k.days.map(d => ({ ...d, pH: 8.1 as const, temperatureC: 25, salinity: 0 })),
 }))

@@ -291,6 +291,20 @@ describe('a water change mid-cycle', () => {
   })
 })
 
+describe('one small spike during a fish-in tank\'s week of zeros', () => {
+  // Fish in, zero since day 18; one afternoon test on day 21 reads 0.25 ppm as NH3 after a
+  // heavy feed and the next morning reads zero again. An aquarist keeps counting the week.
+  it('does not restart the week when the next test shows it gone', () => {
+    const v = evaluateCycle(fishInWithSpike().test(21, { ammoniaN: 0.21, nitriteN: 0, nitrateN: 1.3 }, 15).input(25, 12))
+    expect(v.completedOn).toBe(at(25))
+  })
+
+  it('restarts it when the ammonia was past the action level', () => {
+    const v = evaluateCycle(fishInWithSpike().test(21, { ammoniaN: 0.6, nitriteN: 0, nitrateN: 1.3 }, 15).input(26, 12))
+    expect(v.completedOn).toBeNull()
+  })
+})
+
 describe('one small spike after completion', () => {
   // A proven fish-in tank reads 0.25 ppm as NH3 (0.21 as N, a kit's first colour step) the
   // morning after a heavy feed. An aquarist re-tests: gone the next morning, the cycle stands;
