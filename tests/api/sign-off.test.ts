@@ -5,7 +5,7 @@ import { evaluateCycle } from '../../shared/cycle/engine'
 import { RULE_SET_VERSION } from '../../shared/cycle/registry'
 import type { Evidence, ReviewItem, SignOffRecordWithSnapshot, SignOffState, VerifyResult } from '../../shared/types/sign-off'
 import { openDatabase, type TidewrightDB } from '../../server/db/connection'
-import { alerts, auditLog, events, readings, signOffs, tanks } from '../../server/db/schema'
+import { alerts, auditLog, events, planStages, readings, signOffs, tanks } from '../../server/db/schema'
 import { OTHER_AQUARIST_EMAIL } from '../support/fixtures'
 import { ApiClient, signedIn } from '../support/http'
 import { SIGN_OFF_COMPANY, SIGN_OFF_USERS, seedSignOffCompany, type SignOffCompany } from '../support/sign-off-tanks'
@@ -34,6 +34,8 @@ beforeAll(async () => {
   db = openDatabase(inject('dbPath'))
   company = await seedSignOffCompany(db, demo.tanks)
   ;({ complete, toReturn, midCycle } = company.tanks)
+  // The sign-off copies carry no build plan: give the one to be signed its lighting stage.
+  db.insert(planStages).values({ tankId: complete, position: 8, key: 'lighting-ramp', title: 'Lighting ramp', data: {} }).run()
   const set = await (await signedIn(U.aquarist.email)).patch(`/api/tanks/${complete}/stages/${lightingStage(complete).id}`, { data: OWN_ACCLIMATION })
   if (set.status !== 200) throw new Error(`could not set the lighting stage: ${set.status}`)
 })

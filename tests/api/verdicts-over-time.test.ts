@@ -94,15 +94,20 @@ describe('time alone', () => {
     const now = await client.get<VerdictView>(`/api/tanks/${tank}/verdict`)
     expect(now.body.verdict.findings.map(f => f.ruleId)).not.toContain('testing.overdue')
 
-    const later = new Date(Date.now() + 3 * 24 * HOUR).toISOString()
-    const read = await client.request<VerdictView>('GET', `/api/tanks/${tank}/verdict`, undefined, { [NOW_HEADER]: later })
+    // A day and a bit after the lounge's latest test; signed in at that moment, as a session is
+    // judged by the request's clock too.
+    const latest = queryFile<{ t: string }>(own.dbPath, 'select max(taken_at) as t from readings where tank_id = ?', tank)[0]!.t
+    const later = new Date(Math.max(Date.parse(latest) + 26 * HOUR, Date.now() + HOUR)).toISOString()
+    const then = new ApiClient(own.server.baseURL)
+    expect((await then.request('POST', '/api/auth/login', { email: 'client@tidewright.test', password: 'tidewright-demo' }, { [NOW_HEADER]: later })).status).toBe(200)
+    const read = await then.request<VerdictView>('GET', `/api/tanks/${tank}/verdict`, undefined, { [NOW_HEADER]: later })
     expect(read.status).toBe(200)
     expect(read.body.evaluatedAt).toBe(later)
     expect(read.body.verdict.findings.map(f => f.ruleId)).toContain('testing.overdue')
 
     // Within the interval the stored verdict stands: read again five minutes on, it is the same one.
     const soon = new Date(Date.parse(later) + 5 * 60_000).toISOString()
-    const again = await client.request<VerdictView>('GET', `/api/tanks/${tank}/verdict`, undefined, { [NOW_HEADER]: soon })
+    const again = await then.request<VerdictView>('GET', `/api/tanks/${tank}/verdict`, undefined, { [NOW_HEADER]: soon })
     expect(again.body.evaluatedAt).toBe(later)
   })
 
