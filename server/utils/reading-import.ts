@@ -7,10 +7,11 @@
 import { hash, randomUUID } from 'node:crypto'
 import Papa from 'papaparse'
 import type { ReadingImportInput } from '#shared/schemas/reading'
-import { arrayRowToEntry, columnIndexes, guessMapping, importBasis } from '#shared/readings/csv'
+import { arrayRowToEntry, columnIndexes, duplicateHeaderColumns, guessMapping, importBasis } from '#shared/readings/csv'
 import { toCanonicalReading, type CanonicalReading, type KitBasisChoice } from '#shared/readings/entry'
 import { MEASURED_FIELDS } from '#shared/vocabulary'
 import type { ImportPreview, ImportRowError } from '#shared/types/readings'
+import type { Actor } from './access'
 
 /** At most this many row errors are reported; the count is always complete. */
 const MAX_REPORTED_ERRORS = 200
@@ -45,6 +46,10 @@ export function planImport(tankId: string, input: ReadingImportInput, kit: KitBa
   // Rows as arrays, not objects: several times faster on large files.
   const parsed = Papa.parse<string[]>(input.csv, { header: false, skipEmptyLines: 'greedy' })
   const headers = (parsed.data.shift() ?? []).map(h => h.trim())
+  const repeats = duplicateHeaderColumns(headers)
+  if (repeats.length) {
+    fieldError([{ field: 'csv', message: `The header row repeats a column name (column ${repeats.join(', ')}), so it is unclear which column holds what. Rename or remove the repeated column and import again.` }])
+  }
   const mapping = guessMapping(headers, input.mapping) as Record<string, string>
   const indexes = columnIndexes(headers, mapping)
   if (!mapping.takenAt) {
@@ -89,7 +94,7 @@ const INSERT_SQL = `INSERT INTO readings (id, tank_id, taken_at, entered_by, amm
   ON CONFLICT (tank_id, import_key) DO NOTHING`
 
 /** Writes the planned rows in one transaction; returns how many were new. */
-export function writeImport(tankId: string, actorId: string, plan: ImportPlan): number {
+export function writeImport(tankId: string, actor: Actor, plan: ImportPlan): number {
   const sqlite = useDB().$client
   const insert = sqlite.prepare(INSERT_SQL)
   const stamp = new Date().toISOString()
@@ -97,9 +102,11 @@ export function writeImport(tankId: string, actorId: string, plan: ImportPlan): 
     let inserted = 0
     for (const { reading, key } of plan.rows) {
       const v = reading.values
-      inserted += insert.run(randomUUID(), tankId, reading.takenAt, actorId, v.ammoniaN, v.nitriteN, v.nitrateN, v.pH, v.temperatureC, v.salinity,
+      inserted += insert.run(randomUUID(), tankId, reading.takenAt, actor.id, v.ammoniaN, v.nitriteN, v.nitrateN, v.pH, v.temperatureC, v.salinity,
         v.alkalinityDkh, v.calciumMgL, v.magnesiumMgL, v.phosphateMgL, reading.notes, JSON.stringify({ ...reading.entered, source: 'csv' }), key, stamp, stamp).changes
     }
+    // Same connection, same transaction: the rows and their audit line commit together or not at all.
+    writeAudit(actor, { action: 'reading.import', entity: 'tank', entityId: tankId, after: { rows: plan.rowCount, inserted, skipped: plan.rowCount - inserted, errors: plan.errors.length } })
     return inserted
   })()
 }

@@ -18,8 +18,7 @@ export default defineEventHandler(async (event): Promise<ImportPreview> => {
   const input = await readValidatedBody(event, valid(ReadingImportSchema))
   const plan = planImport(tank.id, input, tank.kitBasis)
   if (input.dryRun) return toPreview(plan, true, 0)
-  const inserted = writeImport(tank.id, actor.id, plan)
-  writeAudit(actor, { action: 'reading.import', entity: 'tank', entityId: tank.id, after: { rows: plan.rowCount, inserted, skipped: plan.rowCount - inserted, errors: plan.errors.length } })
+  const inserted = writeImport(tank.id, actor, plan)
   // One verdict refresh for the whole file, run as soon as the answer has been handed to
   // the socket. The engine is synchronous, so it still finishes before this process
   // serves another request: nobody reads a stale verdict, and the importer does not wait.
