@@ -94,10 +94,10 @@ describe('time alone', () => {
     const now = await client.get<VerdictView>(`/api/tanks/${tank}/verdict`)
     expect(now.body.verdict.findings.map(f => f.ruleId)).not.toContain('testing.overdue')
 
-    // A day and a bit after the lounge's latest test; signed in at that moment, as a session is
-    // judged by the request's clock too.
+    // Three days and an hour after the lounge's latest test, whatever the time of day the suite
+    // runs; signed in at that moment, as a session is judged by the request's clock too.
     const latest = queryFile<{ t: string }>(own.dbPath, 'select max(taken_at) as t from readings where tank_id = ?', tank)[0]!.t
-    const later = new Date(Math.max(Date.parse(latest) + 26 * HOUR, Date.now() + HOUR)).toISOString()
+    const later = new Date(Math.max(Date.parse(latest) + 73 * HOUR, Date.now() + HOUR)).toISOString()
     const then = new ApiClient(own.server.baseURL)
     expect((await then.request('POST', '/api/auth/login', { email: 'client@tidewright.test', password: 'tidewright-demo' }, { [NOW_HEADER]: later })).status).toBe(200)
     const read = await then.request<VerdictView>('GET', `/api/tanks/${tank}/verdict`, undefined, { [NOW_HEADER]: later })
