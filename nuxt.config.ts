@@ -53,6 +53,8 @@ export default defineNuxtConfig({
     testHooks: false,
     // How often the mail worker looks for due mail and runs escalations and reminders.
     workerIntervalMs: 5000,
+    // Stored verdicts older than this are made again, on read and by the worker (at most an hour).
+    verdictIntervalMs: 900000,
     public: {
       // Absolute links in e-mails and on certificates (NUXT_PUBLIC_BASE_URL); never taken from a request.
       baseUrl: 'http://localhost:3000',

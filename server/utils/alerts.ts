@@ -35,13 +35,14 @@ export function resolveAlert(actor: Actor, alertId: string, note: string, now = 
   return done?.alert ?? null
 }
 
-/** The clocked jobs: escalations, test reminders and weekly digests due at `now`, then database housekeeping. */
+/** The clocked jobs at `now`: verdicts made again where time alone may have changed them, then escalations, test reminders and weekly digests, then database housekeeping. */
 export function runClockedJobs(now: Date) {
+  const verdicts = refreshStaleVerdicts(now)
   const db = useDB()
   const escalation = escalateDueAlerts(db, now, publicBaseUrl())
   const reminders = runTestReminders(db, now, publicBaseUrl())
   const digests = runWeeklyDigest(db, now, publicBaseUrl())
   announceNotices([...escalation.notifiedUserIds, ...reminders.notifiedUserIds])
   runHousekeeping(db, now)
-  return { escalated: escalation.escalated.length, reminded: reminders.reminded.length, aquaristsTold: reminders.aquaristsTold.length, digests: digests.sent.length }
+  return { verdicts, escalated: escalation.escalated.length, reminded: reminders.reminded.length, aquaristsTold: reminders.aquaristsTold.length, digests: digests.sent.length }
 }

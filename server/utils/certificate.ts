@@ -212,7 +212,8 @@ export async function renderCertificate(facts: CertificateFacts): Promise<Uint8A
     const when = step.allowed ? `from ${certificateDate(step.earliest ?? facts.signedAt)}` : step.earliest ? `not before ${certificateDate(step.earliest)}` : 'not yet'
     w.text(`${step.order}. ${step.label} — ${when}${step.blockers.length && !step.allowed ? `: ${step.blockers.join(' ')}` : ''}`, { size: 9.5 })
   }
-  const lighting = datedAcclimation(facts.signedAt)
+  // The tank's own acclimation as it stood when signed (older records: the defaults they were printed with).
+  const lighting = datedAcclimation(facts.signedAt, facts.snapshot.acclimation)
   const first = lighting[0]!
   const last = lighting.at(-1)!
   w.text(`Lighting: hold the plateau at ${first.plateauPercent} % from ${certificateDate(first.from)} and raise it weekly to ${last.plateauPercent} % by ${certificateDate(last.from)} (${lighting.map(l => `${l.plateauPercent} %`).join(', ')}).`, { size: 9.5, gap: 2 })

@@ -7,8 +7,8 @@
 import { hash, randomUUID } from 'node:crypto'
 import Papa from 'papaparse'
 import type { ReadingImportInput } from '#shared/schemas/reading'
-import { arrayRowToEntry, columnIndexes, duplicateHeaderColumns, guessMapping } from '#shared/readings/csv'
-import { toCanonicalReading, type CanonicalReading } from '#shared/readings/entry'
+import { arrayRowToEntry, columnIndexes, duplicateHeaderColumns, guessMapping, importBasis } from '#shared/readings/csv'
+import { toCanonicalReading, type CanonicalReading, type KitBasisChoice } from '#shared/readings/entry'
 import { MEASURED_FIELDS } from '#shared/vocabulary'
 import type { ImportPreview, ImportRowError } from '#shared/types/readings'
 import type { Actor } from './access'
@@ -20,6 +20,8 @@ const PREVIEW_ROWS = 20
 export interface ImportPlan {
   headers: string[]
   mapping: Record<string, string>
+  /** The basis every row's nitrogen values were read in. */
+  basis: KitBasisChoice
   rowCount: number
   rows: { row: number, reading: CanonicalReading, key: string }[]
   errors: ImportRowError[]
@@ -39,8 +41,8 @@ export function importKeyOf(reading: CanonicalReading): string {
   return hash('sha256', normalised, 'hex').slice(0, 32)
 }
 
-/** Parses and converts the whole file without writing anything. */
-export function planImport(tankId: string, input: ReadingImportInput): ImportPlan {
+/** Parses and converts the whole file without writing anything; `kit` is the tank's remembered kit basis. */
+export function planImport(tankId: string, input: ReadingImportInput, kit: KitBasisChoice): ImportPlan {
   // Rows as arrays, not objects: several times faster on large files.
   const parsed = Papa.parse<string[]>(input.csv, { header: false, skipEmptyLines: 'greedy' })
   const headers = (parsed.data.shift() ?? []).map(h => h.trim())
@@ -60,7 +62,8 @@ export function planImport(tankId: string, input: ReadingImportInput): ImportPla
   // Rows inside a signed-off period would change what the supervisor signed: refused per row.
   const locked = tankLockedUntil(tankId)
   const lockedMs = locked ? Date.parse(locked) : Number.NEGATIVE_INFINITY
-  const options = { basis: input.basis, temperatureUnit: input.temperatureUnit, salinityMode: input.salinityMode, sgBasis: input.sgBasis }
+  const basis = importBasis(input.basis, mapping, kit)
+  const options = { basis, temperatureUnit: input.temperatureUnit, salinityMode: input.salinityMode, sgBasis: input.sgBasis }
   const rows: ImportPlan['rows'] = []
   const errors: ImportRowError[] = []
   let errorCount = 0
@@ -82,7 +85,7 @@ export function planImport(tankId: string, input: ReadingImportInput): ImportPla
     seen.add(key)
     rows.push({ row, reading: result.reading, key })
   })
-  return { headers, mapping, rowCount: parsed.data.length, rows, errors, errorCount, duplicates }
+  return { headers, mapping, basis, rowCount: parsed.data.length, rows, errors, errorCount, duplicates }
 }
 
 const INSERT_SQL = `INSERT INTO readings (id, tank_id, taken_at, entered_by, ammonia_n, nitrite_n, nitrate_n, ph, temperature_c, salinity,
@@ -113,6 +116,7 @@ export function toPreview(plan: ImportPlan, dryRun: boolean, inserted: number): 
   return {
     headers: plan.headers,
     mapping: plan.mapping,
+    basis: plan.basis,
     rows: plan.rowCount,
     valid: plan.rows.length,
     duplicates: plan.duplicates,

@@ -7,14 +7,14 @@ import { randomBytes } from 'node:crypto'
 import { and, asc, desc, eq, inArray, ne, sql } from 'drizzle-orm'
 import { evaluateCycle } from '#shared/cycle/engine'
 import type { Verdict } from '#shared/cycle/types'
-import { datedAcclimation, overrideGrounds, stockingSteps } from '#shared/sign-off/plan'
+import { acclimationSettingsOf, datedAcclimation, overrideGrounds, stockingSteps, type AcclimationSettings } from '#shared/sign-off/plan'
 import { OVERRIDE_REASON_MESSAGE } from '#shared/schemas/sign-off'
 import type { ReviewItem, SignOffRecord, SignOffRecordWithSnapshot, SignOffSnapshot, SignOffState, StockingPlanView } from '#shared/types/sign-off'
 import type { CyclePhase } from '#shared/types/tanks'
 import { readOrganisationSettings } from '../db/settings'
 import { cycleInputFor } from '../db/verdicts'
 import { captureSignedFacts } from '../domain/sign-off/signed-record'
-import { alerts, clients, events, signOffs, tankVerdicts, tanks, users } from '../db/schema'
+import { alerts, clients, events, planStages, signOffs, tankVerdicts, tanks, users } from '../db/schema'
 import { canManageTank, visibleTankCondition, type Actor } from './access'
 import { currentApprovedSignOff } from './sign-off-lock'
 
@@ -194,7 +194,9 @@ export function decideSignOff(actor: Actor, tank: TankRow, decision: 'approve' |
   }
   // The tank's facts and stages are kept with the decision: the certificate prints them, never the live tank.
   const facts = captureSignedFacts(useDB(), tank.id, actor.id)
-  const snapshot: SignOffSnapshot = { facts, input, verdict, overrideGrounds: decision === 'approve' ? grounds : [], unresolvedAlerts }
+  // The tank's own lighting acclimation, kept with the decision so the plan stays as signed.
+  const acclimation = acclimationSettingsOf(useDB().select({ key: planStages.key, data: planStages.data }).from(planStages).where(eq(planStages.tankId, tank.id)).all())
+  const snapshot: SignOffSnapshot = { facts, input, verdict, overrideGrounds: decision === 'approve' ? grounds : [], unresolvedAlerts, acclimation }
   const at = now.toISOString()
   const code = decision === 'approve' ? newVerificationCode() : null
   const row = useDB().transaction(() => {
@@ -238,9 +240,9 @@ export function reopenSignOff(actor: Actor, tank: TankRow, reason: string, now =
   })
 }
 
-/** The livestock and lighting plan for the first weeks after the sign-off. */
-export function stockingPlan(signedAt: string, verdict: Verdict): StockingPlanView {
-  return { signedAt, steps: stockingSteps(verdict), lighting: datedAcclimation(signedAt) }
+/** The livestock and lighting plan for the first weeks after the sign-off, lighting as signed. */
+export function stockingPlan(signedAt: string, verdict: Verdict, acclimation?: AcclimationSettings): StockingPlanView {
+  return { signedAt, steps: stockingSteps(verdict), lighting: datedAcclimation(signedAt, acclimation) }
 }
 
 /** Everything the tank page needs to show and offer about sign-off. */
@@ -264,7 +266,7 @@ export function signOffState(actor: Actor, tank: TankRow, now = new Date()): Sig
     canReopen: maySignOff(actor, tank) && !!approved,
     canStartStocking: canManageTank(actor, tank) && tank.status === 'signed-off',
     hasCertificate: !!approved,
-    plan: approved && signedPhase && approved.decidedAt ? stockingPlan(approved.decidedAt, verdict) : null,
+    plan: approved && signedPhase && approved.decidedAt ? stockingPlan(approved.decidedAt, verdict, (approved.snapshot as SignOffSnapshot | null)?.acclimation) : null,
   }
 }
 

@@ -4,7 +4,7 @@
  */
 import type { ImportTarget, ReadingImportInput } from '../schemas/reading'
 import { IMPORT_TARGETS } from '../schemas/reading'
-import type { EntryIssue, ReadingEntry } from './entry'
+import type { EntryIssue, KitBasisChoice, ReadingEntry } from './entry'
 import { calendarDateExists, parseDecimal } from './fields'
 
 /** Header words each target is recognised by (lower case, punctuation removed). */
@@ -79,7 +79,8 @@ export function parseCsvTime(cell: string): string | null {
   return Number.isFinite(t) ? new Date(t).toISOString() : null
 }
 
-type Options = Pick<ReadingImportInput, 'basis' | 'temperatureUnit' | 'salinityMode' | 'sgBasis'>
+/** How each row is read; the basis is settled before the rows are (see importBasis). */
+type Options = Pick<ReadingImportInput, 'temperatureUnit' | 'salinityMode' | 'sgBasis'> & { basis: KitBasisChoice }
 
 const NUMERIC: readonly ImportTarget[] = ['ammonia', 'nitrite', 'nitrate', 'pH', 'temperature', 'salinity', 'alkalinityDkh', 'calciumMgL', 'magnesiumMgL', 'phosphateMgL']
 
@@ -176,4 +177,19 @@ export const EXPORT_MAPPING: Partial<Record<ImportTarget, string>> = {
   magnesiumMgL: 'magnesium_mg_l',
   phosphateMgL: 'phosphate_mg_l',
   notes: 'notes',
+}
+
+/**
+ * The basis an import reads nitrogen values in: the one chosen, if any; otherwise, per test,
+ * as N when its column is Tidewright's own export (the header says mg/L as N), else the
+ * tank's remembered kit basis, as the entry form would default it.
+ */
+export function importBasis(chosen: KitBasisChoice | undefined, mapping: Partial<Record<ImportTarget, string>>, kit: KitBasisChoice): KitBasisChoice {
+  if (chosen) return { ...chosen }
+  const fromFile = (target: 'ammonia' | 'nitrite' | 'nitrate') => mapping[target] !== undefined && mapping[target] === EXPORT_MAPPING[target]
+  return {
+    ammonia: fromFile('ammonia') ? 'N' : kit.ammonia,
+    nitrite: fromFile('nitrite') ? 'N' : kit.nitrite,
+    nitrate: fromFile('nitrate') ? 'N' : kit.nitrate,
+  }
 }

@@ -119,7 +119,8 @@ export const ReadingImportSchema = v.object({
   csv: v.pipe(v.string('Attach the CSV text.'), v.minLength(1, 'The file is empty.')),
   /** Target -> the CSV header that holds it. Unmapped targets are guessed from the header. */
   mapping: v.optional(v.record(v.picklist(IMPORT_TARGETS, 'Unknown column target.'), v.pipe(v.string(), v.maxLength(200))), {}),
-  basis: v.optional(KitBasisSchema, { ammonia: 'N', nitrite: 'N', nitrate: 'N' }),
+  /** How the kit reads; when left out, as the file's headers say (Tidewright's export: as N), else the tank's remembered kit. */
+  basis: v.optional(KitBasisSchema),
   temperatureUnit: v.optional(v.picklist(TEMPERATURE_UNITS, 'Temperature unit is C or F.'), 'C'),
   salinityMode: v.optional(v.picklist(SALINITY_MODES, 'Unknown salinity mode.'), 'practical'),
   sgBasis: v.optional(v.picklist(SG_KEYS, 'Unknown specific-gravity basis.')),

@@ -1,7 +1,7 @@
 /** API response shapes for sign-off, evidence, certificate verification and the stocking plan. */
 import type { CycleInput, Verdict } from '../cycle/types'
 import type { CanonicalValues } from '../readings/entry'
-import type { DatedAcclimationStep, FinalValue, StockingStep } from '../sign-off/plan'
+import type { AcclimationSettings, DatedAcclimationStep, FinalValue, StockingStep } from '../sign-off/plan'
 import type { CyclePhase, TankStatus, TankView } from './tanks'
 
 import type { CycleMethod, SignOffStatus, StageStatus } from '../vocabulary'
@@ -52,6 +52,11 @@ export interface SignOffSnapshot {
   overrideGrounds: string[]
   /** Unresolved danger alerts at decision time. */
   unresolvedAlerts: number
+  /**
+   * The tank's lighting acclimation at decision time (its lighting-ramp stage). Absent on
+   * records signed before it was kept: those were printed with Tidewright's defaults.
+   */
+  acclimation?: AcclimationSettings
 }
 
 export interface SignOffRecord {
