@@ -28,6 +28,8 @@ export const organisations = sqliteTable('organisations', {
   name: text('name').notNull(),
   /** Company settings; read only through readOrganisationSettings (shared/schemas/settings.ts fills defaults). */
   settings: text('settings', { mode: 'json' }).$type<StoredOrganisationSettings>().notNull().default(sql`'{}'`),
+  /** Bumped by every save of the settings, so a form loaded before someone else's save is refused instead of overwriting it. */
+  settingsVersion: integer('settings_version').notNull().default(0),
   ...timestamps,
 })
 
@@ -55,6 +57,7 @@ export const users = sqliteTable('users', {
   /** For role `client`: the client record whose tanks this account may see. */
   clientId: text('client_id').references(() => clients.id, { onDelete: 'set null' }),
   active: integer('active', { mode: 'boolean' }).notNull().default(true),
+  lastSignInAt: text('last_sign_in_at'),
   ...timestamps,
 }, t => [
   uniqueIndex('users_email_unique').on(t.email),

@@ -20,7 +20,7 @@ export async function setPasswordWithToken(event: H3Event, purpose: TokenPurpose
   const userId = db.transaction((tx) => {
     const t = tx as unknown as TidewrightDB
     const id = consumeToken(t, token, purpose, now)
-    if (id) t.update(users).set({ passwordHash }).where(eq(users.id, id)).run()
+    if (id) t.update(users).set({ passwordHash, lastSignInAt: now.toISOString() }).where(eq(users.id, id)).run()
     return id
   })
   if (!userId) throw createError({ statusCode: 410, statusMessage: GONE })

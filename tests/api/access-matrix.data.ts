@@ -18,6 +18,8 @@ import { DEFAULT_PLAN_TEMPLATE } from '../../shared/plan/default-template'
 import { LoginSchema } from '../../shared/schemas/auth'
 import { AlertAcknowledgeSchema, AlertResolveSchema } from '../../shared/schemas/alerts'
 import { ForgotPasswordSchema, InvitationSchema, SetPasswordSchema } from '../../shared/schemas/account'
+import { RoleChangeSchema } from '../../shared/schemas/people'
+import { CompanySettingsUpdateSchema, DEFAULT_ORGANISATION_SETTINGS } from '../../shared/schemas/settings'
 import { NotificationPreferencesSchema } from '../../shared/schemas/notifications'
 import { EventCorrectionSchema, ReadingCorrectionSchema, SignOffDecisionSchema, SignOffReopenSchema, SignOffRequestSchema, StartStockingSchema } from '../../shared/schemas/sign-off'
 import { ClientCreateSchema, ClientPatchSchema, SiteCreateSchema, SitePatchSchema } from '../../shared/schemas/clients'
@@ -216,6 +218,37 @@ function signedOffNano(c: MatrixContext): Promise<string> {
 }
 let inviteCounter = 0
 const UNUSED_TOKEN = 'A'.repeat(43)
+
+/** A staff account made for one matrix route, so deactivating or resetting it touches no persona. */
+const matrixPeople = new Map<string, string>()
+function matrixPerson(c: MatrixContext, purpose: string): string {
+  const known = matrixPeople.get(purpose)
+  if (known) return known
+  const id = crypto.randomUUID()
+  const now = new Date().toISOString()
+  c.run(`insert into users (id, organisation_id, email, name, role, password_hash, units, active, created_at, updated_at) values (?, ?, ?, ?, 'aquarist', 'not-a-usable-hash', 'metric', 1, ?, ?)`,
+    id, c.f.demo.organisationId, `matrix-${purpose}@tidewright.test`, `Matrix ${purpose}`, now, now)
+  matrixPeople.set(purpose, id)
+  return id
+}
+/** A fresh client invitation nobody accepted, with a live link, for each call. */
+let invitationCounter = 0
+function freshInvitation(c: MatrixContext): string {
+  const id = crypto.randomUUID()
+  const now = new Date()
+  const n = ++invitationCounter
+  c.run(`insert into users (id, organisation_id, email, name, role, client_id, password_hash, units, active, created_at, updated_at) values (?, ?, ?, ?, 'client', ?, null, 'metric', 1, ?, ?)`,
+    id, c.f.demo.organisationId, `matrix-invitee-${n}@tidewright.test`, `Matrix invitee ${n}`, c.f.demo.clients.lowe, now.toISOString(), now.toISOString())
+  c.run(`insert into auth_tokens (id, user_id, purpose, token_hash, expires_at, created_at, updated_at) values (?, ?, 'invite', ?, ?, ?, ?)`,
+    crypto.randomUUID(), id, `matrix-invite-${id}`, new Date(now.getTime() + 86_400_000).toISOString(), now.toISOString(), now.toISOString())
+  return id
+}
+const settingsVersion = (c: MatrixContext) => c.query<{ v: number }>('select settings_version as v from organisations where id = ?', c.f.demo.organisationId)[0]!.v
+const settingsBody = (c: MatrixContext) => ({ name: 'Saltline Reef Services', settings: structuredClone(DEFAULT_ORGANISATION_SETTINGS), version: settingsVersion(c) })
+/** Company administration: the admin alone; other companies' staff are refused by role before anything is looked up. */
+const adminOnly = (ok = 200): Expectations => ({ signedOut: 401, admin: ok, aquarist: 403, supervisor: 403, client: 403, otherClient: 403, otherCompany: 403 })
+/** The audit trail: admins, and supervisors for their own tanks. */
+const auditReader = (ok = 200): Expectations => ({ signedOut: 401, admin: ok, aquarist: 403, supervisor: ok, client: 403, otherClient: 403, otherCompany: 403 })
 
 export const ACCESS_MATRIX: Record<string, MatrixEntry> = {
   'ANY /api/[...path]': {
@@ -506,6 +539,31 @@ export const ACCESS_MATRIX: Record<string, MatrixEntry> = {
     fuzz: 'no-body',
   },
   'GET /api/bench/tanks/[id]/verdict': { url: c => `/api/bench/tanks/${c.f.demo.tanks.lounge}/verdict`, expect: everyone(404) },
+
+  // Company administration: people, invitations, settings, audit trail
+  'GET /api/people': { url: () => '/api/people', expect: { signedOut: 401, admin: 200, aquarist: 200, supervisor: 403, client: 403, otherClient: 403, otherCompany: 200 } },
+  'POST /api/people/[id]/role': {
+    url: c => `/api/people/${matrixPerson(c, 'role')}/role`,
+    body: () => ({ role: 'aquarist' }),
+    expect: adminOnly(),
+    fuzz: { as: 'admin', schema: RoleChangeSchema, validBody: () => ({ role: 'aquarist' }) },
+  },
+  'POST /api/people/[id]/deactivate': { url: c => `/api/people/${matrixPerson(c, 'deactivate')}/deactivate`, expect: adminOnly(), fuzz: 'no-body' },
+  'POST /api/people/[id]/reactivate': { url: c => `/api/people/${matrixPerson(c, 'reactivate')}/reactivate`, expect: adminOnly(), fuzz: 'no-body' },
+  'POST /api/people/[id]/password-reset': { url: c => `/api/people/${matrixPerson(c, 'reset')}/password-reset`, expect: adminOnly(), fuzz: 'no-body' },
+  'POST /api/invitations/[id]/resend': { url: c => `/api/invitations/${freshInvitation(c)}/resend`, expect: recordManager(), fuzz: 'no-body' },
+  'DELETE /api/invitations/[id]': { url: c => `/api/invitations/${freshInvitation(c)}`, expect: recordManager() },
+  'GET /api/admin/attention': { url: () => '/api/admin/attention', expect: adminOnly() },
+  'GET /api/settings': { url: () => '/api/settings', expect: adminOnly() },
+  'PUT /api/settings': {
+    url: () => '/api/settings',
+    body: settingsBody,
+    expect: adminOnly(),
+    fuzz: { as: 'admin', schema: CompanySettingsUpdateSchema, validBody: settingsBody },
+  },
+  'GET /api/audit': { url: c => `/api/audit?tankId=${c.f.demo.tanks.lounge}`, expect: auditReader() },
+  'GET /api/audit/export.csv': { url: () => '/api/audit/export.csv', expect: auditReader() },
+  'GET /api/audit/people': { url: () => '/api/audit/people', expect: auditReader() },
 }
 
 /** Routes a module registers rather than a file under server/api; checked the same way. */

@@ -29,6 +29,7 @@ export default defineEventHandler(async (event) => {
   }
 
   clearSignInFailures(email)
+  useDB().update(users).set({ lastSignInAt: new Date().toISOString() }).where(eq(users.id, user.id)).run()
   await replaceUserSession(event, {
     user: { id: user.id, name: user.name, role: user.role, organisationId: user.organisationId, units: user.units },
     loggedInAt: new Date().toISOString(),
