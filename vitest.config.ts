@@ -31,6 +31,9 @@ export default defineConfig({
           testTimeout: 60_000,
           hookTimeout: 120_000,
           fileParallelism: false,
+          // A page under a loaded machine can take seconds to hydrate; expect.poll's own
+          // default (1 s) made browser steps fail on a busy CI box, not on a wrong page.
+          expect: { poll: { timeout: 15_000, interval: 100 } },
         },
       },
     ],

@@ -1,6 +1,5 @@
 import { litresToUsGallons } from '#shared/units'
-
-export type UnitSystem = 'us' | 'metric'
+import type { UnitSystem } from '#shared/vocabulary'
 
 /** A volume in the user's units: US gallons or litres, to the nearest whole unit. */
 export function formatVolume(litres: number, units: UnitSystem): string {

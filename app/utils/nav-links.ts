@@ -1,4 +1,4 @@
-import type { Role } from '#shared/types/roles'
+import { ROLES, STAFF_ROLES, type Role } from '#shared/vocabulary'
 
 export interface NavLink {
   to: string
@@ -6,8 +6,8 @@ export interface NavLink {
   roles: readonly Role[]
 }
 
-const EVERYONE: readonly Role[] = ['admin', 'aquarist', 'supervisor', 'client']
-const STAFF: readonly Role[] = ['admin', 'aquarist', 'supervisor']
+const EVERYONE: readonly Role[] = ROLES
+const STAFF: readonly Role[] = STAFF_ROLES
 
 /** The main navigation, one line per destination; each feature adds its own line. */
 export const NAV_LINKS: readonly NavLink[] = [

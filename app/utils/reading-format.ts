@@ -1,5 +1,6 @@
 import type { KitBasisChoice } from '#shared/readings/entry'
 import { nitrogenToKit, temperatureFromC } from '#shared/readings/entry'
+import type { UnitSystem } from '#shared/vocabulary'
 
 /** A number rounded for a reading table: at most `digits` decimals, no trailing zeros. */
 export function roundReading(value: number | null | undefined, digits = 2): string {
@@ -14,7 +15,7 @@ export function showNitrogen(valueN: number | null, basis: KitBasisChoice[keyof 
 }
 
 /** A temperature in the user's units. */
-export function showTemperature(valueC: number | null, units: 'us' | 'metric'): string {
+export function showTemperature(valueC: number | null, units: UnitSystem): string {
   return valueC === null ? '—' : `${roundReading(temperatureFromC(valueC, units === 'us' ? 'F' : 'C'), 1)} °${units === 'us' ? 'F' : 'C'}`
 }
 

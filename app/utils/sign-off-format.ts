@@ -1,5 +1,6 @@
 import { celsiusToFahrenheit } from '#shared/units'
 import type { SignOffStatus } from '#shared/types/sign-off'
+import type { UnitSystem } from '#shared/vocabulary'
 
 /** Plain words for a sign-off's state. */
 export const SIGN_OFF_STATUS_LABELS: Record<SignOffStatus, string> = {
@@ -21,7 +22,7 @@ export function formatN(value: number | null | undefined): string {
 }
 
 /** A temperature in the user's units. */
-export function formatTemperature(celsius: number | null | undefined, units: 'us' | 'metric'): string {
+export function formatTemperature(celsius: number | null | undefined, units: UnitSystem): string {
   if (celsius === null || celsius === undefined) return '—'
   return units === 'us' ? `${celsiusToFahrenheit(celsius).toFixed(1)} °F` : `${celsius.toFixed(1)} °C`
 }

@@ -1,5 +1,5 @@
 import { CM_PER_INCH, KG_PER_POUND, LITRES_PER_US_GALLON, MM_PER_INCH } from '#shared/units'
-import type { UnitSystem } from '~/utils/format'
+import type { UnitSystem } from '#shared/vocabulary'
 
 /** Labels and conversions for form inputs in the user's units; the API speaks mm, L and kg. */
 export const lengthUnit = (u: UnitSystem) => (u === 'us' ? 'in' : 'cm')

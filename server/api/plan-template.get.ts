@@ -1,5 +1,5 @@
 import type { PlanTemplateView } from '#shared/types/plan'
-import { STAFF_ROLES } from '#shared/types/roles'
+import { STAFF_ROLES } from '#shared/vocabulary'
 
 /** GET /api/plan-template — the company's build-plan template (Tidewright's default until the admin edits it). Returns PlanTemplateView. */
 export default defineEventHandler(async (event): Promise<PlanTemplateView> => {

@@ -6,6 +6,7 @@ import { fromNitrogen } from '../../shared/chemistry/nitrogen'
 import { formatNumber, formatPercent } from '../../shared/cycle/words'
 import type { CycleAction, Finding } from '../../shared/cycle/types'
 import { celsiusToFahrenheit } from '../../shared/units'
+import type { UnitSystem } from '../../shared/vocabulary'
 
 export interface MeasuredReading {
   takenAt: string
@@ -23,7 +24,7 @@ export interface AlertMailInput {
   finding: Pick<Finding, 'message' | 'ruleId'>
   actions: readonly CycleAction[]
   reading: MeasuredReading | null
-  units: 'us' | 'metric'
+  units: UnitSystem
 }
 
 export interface MailWords {
@@ -37,7 +38,7 @@ function escapeHtml(text: string): string {
 }
 
 /** The values of a reading, one short phrase each, in the reader's units. */
-export function measuredLines(reading: MeasuredReading | null, units: 'us' | 'metric'): string[] {
+export function measuredLines(reading: MeasuredReading | null, units: UnitSystem): string[] {
   if (!reading) return []
   const lines: string[] = []
   if (reading.ammoniaN !== null) lines.push(`Total ammonia ${formatNumber(reading.ammoniaN)} mg/L as N (${formatNumber(fromNitrogen(reading.ammoniaN, 'NH3'))} ppm as NH3)`)

@@ -7,9 +7,16 @@ import { dirname, resolve } from 'node:path'
 import Database from 'better-sqlite3'
 import { drizzle, type BetterSQLite3Database } from 'drizzle-orm/better-sqlite3'
 import { migrate } from 'drizzle-orm/better-sqlite3/migrator'
+import type { BaseSQLiteDatabase } from 'drizzle-orm/sqlite-core'
 import * as schema from './schema'
 
 export type TidewrightDB = BetterSQLite3Database<typeof schema> & { $client: Database.Database }
+
+/**
+ * A database handle or a transaction on it. Domain commands and queries take a `Db`, so
+ * the same function runs on its own or inside the caller's transaction.
+ */
+export type Db = BaseSQLiteDatabase<'sync', Database.RunResult, typeof schema>
 
 export const DEFAULT_DB_PATH = 'data/tidewright.sqlite'
 

@@ -7,13 +7,11 @@ import { sql } from 'drizzle-orm'
 import { index, integer, real, sqliteTable, text, uniqueIndex } from 'drizzle-orm/sqlite-core'
 import type { StoredOrganisationSettings } from '../../shared/schemas/settings'
 
-export const ROLES = ['admin', 'aquarist', 'supervisor', 'client'] as const
-export const TANK_STATUSES = ['planned', 'building', 'cycling', 'cycled', 'signed-off', 'stocking'] as const
-export const TANK_SHAPES = ['rectangular', 'cube', 'cylinder', 'bow-front', 'corner', 'hexagonal'] as const
-export const CYCLE_METHODS = ['fishless', 'fish-in'] as const
-export const STAGE_STATUSES = ['not-started', 'in-progress', 'done', 'skipped'] as const
-export const EVENT_KINDS = ['ammonia-dose', 'bacteria-dose', 'water-change', 'livestock-added', 'lighting-change', 'note'] as const
-export const UNIT_SYSTEMS = ['us', 'metric'] as const
+import {
+  ALERT_STATUSES, AUTH_TOKEN_PURPOSES, CYCLE_METHODS, CYCLE_PHASES, EVENT_KINDS, LIVESTOCK_GROUPS, MAIL_STATUSES, ROLES, SIGN_OFF_STATUSES,
+  STAGE_STATUSES, TANK_MATERIALS, TANK_SHAPES, TANK_STATUSES, UNIT_SYSTEMS, WATER_SOURCES,
+  type AmmoniaBasis, type NitrateBasis, type NitriteBasis,
+} from '../../shared/vocabulary'
 
 const id = () => text('id').primaryKey().$defaultFn(() => crypto.randomUUID())
 const now = () => new Date().toISOString()
@@ -90,9 +88,9 @@ export interface TankDimensions {
 
 /** How the client's test kits report nitrogen compounds; remembered per tank. */
 export interface KitBasis {
-  ammonia: 'NH3' | 'NH4' | 'N'
-  nitrite: 'NO2' | 'N'
-  nitrate: 'NO3' | 'N'
+  ammonia: AmmoniaBasis
+  nitrite: NitriteBasis
+  nitrate: NitrateBasis
 }
 
 export const tanks = sqliteTable('tanks', {
@@ -105,8 +103,8 @@ export const tanks = sqliteTable('tanks', {
   dimensions: text('dimensions', { mode: 'json' }).$type<TankDimensions>().notNull().default(sql`'{}'`),
   volumeLitres: real('volume_litres').notNull(),
   sumpLitres: real('sump_litres').notNull().default(0),
-  material: text('material', { enum: ['glass', 'acrylic'] }).notNull().default('glass'),
-  waterSource: text('water_source', { enum: ['natural', 'mixed'] }).notNull().default('mixed'),
+  material: text('material', { enum: TANK_MATERIALS }).notNull().default('glass'),
+  waterSource: text('water_source', { enum: WATER_SOURCES }).notNull().default('mixed'),
   cycleMethod: text('cycle_method', { enum: CYCLE_METHODS }).notNull().default('fishless'),
   status: text('status', { enum: TANK_STATUSES }).notNull().default('planned'),
   aquaristId: text('aquarist_id').references(() => users.id, { onDelete: 'set null' }),
@@ -177,6 +175,8 @@ export const readings = sqliteTable('readings', {
 }, t => [
   index('readings_tank_taken').on(t.tankId, t.takenAt),
   uniqueIndex('readings_tank_import_key').on(t.tankId, t.importKey),
+  // One correction per row: the current value is never in doubt, even for two corrections at once.
+  uniqueIndex('readings_corrects_unique').on(t.correctsId),
 ])
 
 export const events = sqliteTable('events', {
@@ -186,18 +186,18 @@ export const events = sqliteTable('events', {
   kind: text('kind', { enum: EVENT_KINDS }).notNull(),
   /** Dose in mg/L as N added, water change in litres, livestock count... by kind. */
   amount: real('amount'),
-  group: text('group'),
+  group: text('group', { enum: LIVESTOCK_GROUPS }),
   notes: text('notes'),
   enteredBy: text('entered_by').references(() => users.id, { onDelete: 'set null' }),
   correctsId: text('corrects_id'),
   correctionReason: text('correction_reason'),
   ...timestamps,
-}, t => [index('events_tank_at').on(t.tankId, t.at)])
+}, t => [index('events_tank_at').on(t.tankId, t.at), uniqueIndex('events_corrects_unique').on(t.correctsId)])
 
 /** The engine's current verdict per tank, stored so lists read it without recomputing. */
 export const tankVerdicts = sqliteTable('tank_verdicts', {
   tankId: text('tank_id').primaryKey().references(() => tanks.id, { onDelete: 'cascade' }),
-  phase: text('phase').notNull(),
+  phase: text('phase', { enum: CYCLE_PHASES }).notNull(),
   verdict: text('verdict', { mode: 'json' }).$type<Record<string, unknown>>().notNull(),
   ruleSetVersion: text('rule_set_version').notNull(),
   evaluatedAt: text('evaluated_at').notNull(),
@@ -222,8 +222,6 @@ export const signInFailures = sqliteTable('sign_in_failures', {
   key: text('key').notNull(),
   at: text('at').notNull(),
 }, t => [index('sign_in_failures_key_at').on(t.key, t.at)])
-
-export const ALERT_STATUSES = ['open', 'acknowledged', 'resolved'] as const
 
 /** The company's build-plan template, one row per stage; new tanks copy it. */
 export const planTemplateStages = sqliteTable('plan_template_stages', {
@@ -307,7 +305,7 @@ export const mailOutbox = sqliteTable('mail_outbox', {
   kind: text('kind').notNull(),
   /** Stable id sent as Message-ID so a retried delivery can be recognised downstream. */
   messageId: text('message_id').notNull(),
-  status: text('status', { enum: ['pending', 'sending', 'sent', 'failed'] }).notNull().default('pending'),
+  status: text('status', { enum: MAIL_STATUSES }).notNull().default('pending'),
   attempts: integer('attempts').notNull().default(0),
   nextAttemptAt: text('next_attempt_at').notNull().$defaultFn(now),
   lastError: text('last_error'),
@@ -319,7 +317,7 @@ export const mailOutbox = sqliteTable('mail_outbox', {
 export const authTokens = sqliteTable('auth_tokens', {
   id: id(),
   userId: text('user_id').notNull().references(() => users.id, { onDelete: 'cascade' }),
-  purpose: text('purpose', { enum: ['invite', 'reset'] }).notNull(),
+  purpose: text('purpose', { enum: AUTH_TOKEN_PURPOSES }).notNull(),
   tokenHash: text('token_hash').notNull(),
   expiresAt: text('expires_at').notNull(),
   usedAt: text('used_at'),
@@ -341,7 +339,7 @@ export const signOffs = sqliteTable('sign_offs', {
   requestedBy: text('requested_by').references(() => users.id, { onDelete: 'set null' }),
   requestedAt: text('requested_at').notNull(),
   requestNote: text('request_note'),
-  status: text('status', { enum: ['requested', 'approved', 'returned', 'reopened'] }).notNull().default('requested'),
+  status: text('status', { enum: SIGN_OFF_STATUSES }).notNull().default('requested'),
   decidedBy: text('decided_by').references(() => users.id, { onDelete: 'set null' }),
   decidedAt: text('decided_at'),
   decisionNote: text('decision_note'),

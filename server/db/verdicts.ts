@@ -3,15 +3,16 @@
  * read the phase without recomputing. Framework-free: the server, the seed and the
  * tests share it.
  */
-import { asc, eq } from 'drizzle-orm'
+import { eq } from 'drizzle-orm'
 import { evaluateCycle } from '../../shared/cycle/engine'
-import type { CycleEvent, CycleEventKind, CycleInput, CycleReading, LivestockGroup, Verdict } from '../../shared/cycle/types'
+import type { CycleEvent, CycleInput, CycleReading, Verdict } from '../../shared/cycle/types'
+import { CYCLE_EVENT_KINDS, type CycleEventKind, type EventKind } from '../../shared/vocabulary'
 import type { TidewrightDB } from './connection'
-import { events, readings, tankVerdicts, tanks } from './schema'
+import { tankEvents, tankReadings } from '../domain/readings/current'
+import { tankVerdicts, tanks } from './schema'
 import { readOrganisationSettings } from './settings'
 
-const ENGINE_EVENT_KINDS = new Set<string>(['ammonia-dose', 'bacteria-dose', 'water-change', 'livestock-added', 'note'])
-const LIVESTOCK = new Set<string>(['fish', 'invertebrates', 'soft-coral', 'lps-coral', 'sps-coral'])
+const isCycleEventKind = (kind: EventKind): kind is CycleEventKind => (CYCLE_EVENT_KINDS as readonly string[]).includes(kind)
 
 const defined = <T>(value: T | null): T | undefined => value ?? undefined
 
@@ -20,14 +21,12 @@ export function cycleInputFor(db: TidewrightDB, tankId: string, now: Date): Cycl
   const tank = db.select().from(tanks).where(eq(tanks.id, tankId)).get()
   if (!tank) return undefined
   const { thresholds } = readOrganisationSettings(db, tank.organisationId)
-  const readingRows = db.select().from(readings).where(eq(readings.tankId, tankId)).orderBy(asc(readings.takenAt), asc(readings.id)).all()
-  const eventRows = db.select().from(events).where(eq(events.tankId, tankId)).orderBy(asc(events.at), asc(events.id)).all()
   // A correction replaces the entry it corrects; the engine sees only the current value.
-  const corrected = new Set(readingRows.map(r => r.correctsId).filter(Boolean))
-  const correctedEvents = new Set(eventRows.map(e => e.correctsId).filter(Boolean))
+  const readingRows = tankReadings(db, tankId)
+  const eventRows = tankEvents(db, tankId)
   return {
     tank: { volumeLitres: tank.volumeLitres + tank.sumpLitres, cycleMethod: tank.cycleMethod, startedAt: tank.cycleStartedAt ?? tank.createdAt },
-    readings: readingRows.filter(r => !corrected.has(r.id)).map((r): CycleReading => ({
+    readings: readingRows.map((r): CycleReading => ({
       id: r.id,
       takenAt: r.takenAt,
       ammoniaN: defined(r.ammoniaN),
@@ -40,13 +39,9 @@ export function cycleInputFor(db: TidewrightDB, tankId: string, now: Date): Cycl
       calciumMgL: defined(r.calciumMgL),
       magnesiumMgL: defined(r.magnesiumMgL),
     })),
-    events: eventRows.filter(e => ENGINE_EVENT_KINDS.has(e.kind) && !correctedEvents.has(e.id)).map((e): CycleEvent => ({
-      id: e.id,
-      at: e.at,
-      kind: e.kind as CycleEventKind,
-      amount: defined(e.amount),
-      group: e.group && LIVESTOCK.has(e.group) ? e.group as LivestockGroup : undefined,
-    })),
+    events: eventRows.flatMap(({ kind, ...e }): CycleEvent[] => isCycleEventKind(kind)
+      ? [{ id: e.id, at: e.at, kind, amount: defined(e.amount), group: defined(e.group) }]
+      : []),
     thresholds,
     now: now.toISOString(),
   }

@@ -5,7 +5,7 @@
  */
 import { and, eq, isNull, type SQL } from 'drizzle-orm'
 import type { H3Event } from 'h3'
-import type { Role } from '#shared/types/roles'
+import type { Role, UnitSystem } from '#shared/vocabulary'
 import { tanks, users } from '../db/schema'
 
 export interface Actor {
@@ -15,7 +15,7 @@ export interface Actor {
   organisationId: string
   /** The client record a client account belongs to; null for staff. */
   clientId: string | null
-  units: 'us' | 'metric'
+  units: UnitSystem
 }
 
 /** 401 when signed out, 403 when the role may not use the route; the user is re-read so a deactivated account stops at once. */

@@ -3,6 +3,7 @@ import { and, asc, desc, eq, inArray, type SQL } from 'drizzle-orm'
 import { alias } from 'drizzle-orm/sqlite-core'
 import type { AlertListQueryInput } from '#shared/schemas/alerts'
 import type { AlertView } from '#shared/types/alerts'
+import { ACTIVE_ALERT_STATUSES } from '#shared/vocabulary'
 import { alerts, tanks, users } from '../db/schema'
 import type { Actor } from './access'
 
@@ -33,7 +34,7 @@ function toView(row: Row, now: Date): AlertView {
 /** The organisation's alerts, filtered; newest first unless asked otherwise. */
 export function listAlerts(actor: Actor, q: AlertListQueryInput, now = new Date()): AlertView[] {
   const conditions: SQL[] = [eq(alerts.organisationId, actor.organisationId)]
-  if (q.status === 'active') conditions.push(inArray(alerts.status, ['open', 'acknowledged']))
+  if (q.status === 'active') conditions.push(inArray(alerts.status, ACTIVE_ALERT_STATUSES))
   else if (q.status) conditions.push(eq(alerts.status, q.status))
   if (q.tankId) conditions.push(eq(alerts.tankId, q.tankId))
   const order = q.sort === 'oldest' ? asc(alerts.openedAt) : desc(alerts.openedAt)

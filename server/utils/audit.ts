@@ -1,9 +1,9 @@
 import type { Actor } from './access'
-import { appendAudit, type AuditEntry } from '../db/audit'
+import { recordAudit, type AuditEntry } from '../domain/audit/record'
 
-export type { AuditEntry }
+export type { AuditEntry } from '../domain/audit/record'
 
 /** Appends one line to the organisation's audit log. The log is never updated or deleted. */
 export function writeAudit(actor: Pick<Actor, 'id' | 'organisationId'>, entry: AuditEntry): void {
-  appendAudit(useDB(), actor, entry)
+  recordAudit(useDB(), actor, entry)
 }

@@ -6,8 +6,9 @@ import { createHash, randomBytes } from 'node:crypto'
 import { and, eq, gt, isNull } from 'drizzle-orm'
 import type { TidewrightDB } from '../db/connection'
 import { authTokens, users } from '../db/schema'
+import type { AuthTokenPurpose } from '#shared/vocabulary'
 
-export type TokenPurpose = 'invite' | 'reset'
+export type TokenPurpose = AuthTokenPurpose
 
 /** How long each kind of link stays valid. */
 export const TOKEN_TTL_MS: Record<TokenPurpose, number> = { invite: 7 * 86_400_000, reset: 60 * 60_000 }

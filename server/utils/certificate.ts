@@ -8,6 +8,7 @@ import { PDFDocument, rgb, type PDFFont, type PDFPage } from 'pdf-lib'
 import { celsiusToFahrenheit, litresToUsGallons } from '#shared/units'
 import { datedAcclimation, finalReadings, stockingSteps, type FinalReadingKey } from '#shared/sign-off/plan'
 import type { SignOffSnapshot } from '#shared/types/sign-off'
+import type { CycleMethod, UnitSystem } from '#shared/vocabulary'
 
 export interface CertificateFacts {
   company: string
@@ -15,7 +16,7 @@ export interface CertificateFacts {
   clientName: string
   siteLabel: string | null
   volumeLitres: number
-  cycleMethod: 'fishless' | 'fish-in'
+  cycleMethod: CycleMethod
   cycleStartedAt: string | null
   requestedAt: string
   signedAt: string
@@ -26,7 +27,7 @@ export interface CertificateFacts {
   snapshot: SignOffSnapshot
   verificationCode: string
   verifyUrl: string
-  units: 'us' | 'metric'
+  units: UnitSystem
 }
 
 const INK = rgb(0.07, 0.19, 0.23)
@@ -53,7 +54,7 @@ const READING_LABELS: Record<FinalReadingKey, string> = {
 }
 
 /** A final reading in words and the reader's units. */
-export function formatFinalValue(key: FinalReadingKey, value: number, units: 'us' | 'metric'): string {
+export function formatFinalValue(key: FinalReadingKey, value: number, units: UnitSystem): string {
   switch (key) {
     case 'ammoniaN': case 'nitriteN': case 'nitrateN': return `${value.toFixed(2)} mg/L as N`
     case 'pH': return value.toFixed(2)

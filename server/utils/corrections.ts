@@ -5,11 +5,13 @@
  */
 import { and, eq } from 'drizzle-orm'
 import type { EventCorrectionInput, ReadingCorrectionInput, StartStockingInput } from '#shared/schemas/sign-off'
-import { events, readings, tanks } from '../db/schema'
+import { MEASURED_FIELDS } from '#shared/vocabulary'
+import type { tanks } from '../db/schema'
+import { events, readings } from '../db/schema'
 import { canManageTank, type Actor } from './access'
 import { assertEntryUnlocked } from './sign-off-lock'
 
-const READING_VALUE_KEYS = ['ammoniaN', 'nitriteN', 'nitrateN', 'pH', 'temperatureC', 'salinity', 'alkalinityDkh', 'calciumMgL', 'magnesiumMgL', 'phosphateMgL', 'notes'] as const
+const READING_VALUE_KEYS = [...MEASURED_FIELDS, 'notes'] as const
 
 function alreadyCorrected(kind: 'reading' | 'event', correctionId: string): never {
   throw createError({
@@ -86,7 +88,7 @@ export function startStocking(actor: Actor, tank: typeof tanks.$inferSelect, inp
     const livestock = input.livestock
       ? db.insert(events).values({ tankId: tank.id, at, kind: 'livestock-added', group: input.livestock.group, amount: input.livestock.count ?? null, notes: input.livestock.notes || null, enteredBy: actor.id }).returning().get()
       : undefined
-    db.update(tanks).set({ status: 'stocking' }).where(eq(tanks.id, tank.id)).run()
+    moveTank({ tankId: tank.id, trigger: 'stocking-started', actor })
     writeAudit(actor, { action: 'tank.start-stocking', entity: 'tank', entityId: tank.id, before: { status: tank.status }, after: { status: 'stocking', livestockEventId: livestock?.id ?? null, group: livestock?.group ?? null } })
     return livestock?.id ?? null
   })

@@ -1,7 +1,8 @@
 /** The evidence a supervisor reviews: read straight from the tables, shaped for the API. */
 import { asc, eq } from 'drizzle-orm'
 import type { Evidence } from '#shared/types/sign-off'
-import { alerts, events, planStages, readings, uploads } from '../db/schema'
+import { alerts, planStages, uploads } from '../db/schema'
+import { tankEvents, tankReadings } from '../domain/readings/current'
 import type { Actor } from './access'
 import { evaluateNow, maySignOff, pendingRequest, signOffHistory, toSignOffRecordWithSnapshot, unresolvedAlertCount, userNames } from './sign-offs'
 import { overrideGrounds } from '#shared/sign-off/plan'
@@ -16,10 +17,9 @@ export function tankEvidence(actor: Actor, tankId: string, now = new Date()): Ev
   const names = userNames(actor.organisationId)
   const name = (id: string | null) => (id ? names.get(id) ?? null : null)
   const { verdict } = evaluateNow(tankId, now)
-  const readingRows = db.select().from(readings).where(eq(readings.tankId, tankId)).orderBy(asc(readings.takenAt), asc(readings.createdAt)).all()
-  const eventRows = db.select().from(events).where(eq(events.tankId, tankId)).orderBy(asc(events.at), asc(events.createdAt)).all()
-  const readingCorrectedBy = new Map(readingRows.filter(r => r.correctsId).map(r => [r.correctsId!, r.id]))
-  const eventCorrectedBy = new Map(eventRows.filter(e => e.correctsId).map(e => [e.correctsId!, e.id]))
+  // Every row with its trail: the supervisor sees what was corrected, by whom and why.
+  const readingRows = tankReadings(db, tankId, { which: 'all' })
+  const eventRows = tankEvents(db, tankId, { which: 'all' })
   const stageRows = db.select().from(planStages).where(eq(planStages.tankId, tankId)).orderBy(asc(planStages.position)).all()
   const uploadRows = db.select().from(uploads).where(eq(uploads.tankId, tankId)).orderBy(asc(uploads.createdAt)).all()
   const alertRows = db.select().from(alerts).where(eq(alerts.tankId, tankId)).orderBy(asc(alerts.openedAt)).all()
@@ -32,7 +32,7 @@ export function tankEvidence(actor: Actor, tankId: string, now = new Date()): Ev
     readings: readingRows.map(r => ({
       id: r.id,
       takenAt: r.takenAt,
-      enteredByName: name(r.enteredBy),
+      enteredByName: r.enteredByName,
       ammoniaN: r.ammoniaN,
       nitriteN: r.nitriteN,
       nitrateN: r.nitrateN,
@@ -46,7 +46,7 @@ export function tankEvidence(actor: Actor, tankId: string, now = new Date()): Ev
       notes: r.notes,
       correctsId: r.correctsId,
       correctionReason: r.correctionReason,
-      correctedById: readingCorrectedBy.get(r.id) ?? null,
+      correctedById: r.replacedBy?.id ?? null,
       createdAt: r.createdAt,
     })),
     events: eventRows.map(e => ({
@@ -56,10 +56,10 @@ export function tankEvidence(actor: Actor, tankId: string, now = new Date()): Ev
       amount: e.amount,
       group: e.group,
       notes: e.notes,
-      enteredByName: name(e.enteredBy),
+      enteredByName: e.enteredByName,
       correctsId: e.correctsId,
       correctionReason: e.correctionReason,
-      correctedById: eventCorrectedBy.get(e.id) ?? null,
+      correctedById: e.replacedBy?.id ?? null,
     })),
     stages: stageRows.map(s => ({
       id: s.id,

@@ -4,6 +4,8 @@ import * as v from 'valibot'
 import { DEFAULT_PLAN_TEMPLATE, type PlanTemplateStage } from '#shared/plan/default-template'
 import { CustomStageDataSchema, STAGE_DATA_SCHEMAS, type StagePatch } from '#shared/schemas/plan'
 import type { PlanView, StageView, UploadView } from '#shared/types/plan'
+import { appliesTo, type TankTrigger } from '#shared/tanks/lifecycle'
+import type { StageStatus } from '#shared/vocabulary'
 import type { tanks, ChecklistItem } from '../db/schema'
 import { planStages, planTemplateStages, uploads, users } from '../db/schema'
 import { planStageRows } from '../db/plan-stages'
@@ -144,11 +146,8 @@ export function applyStagePatch(actor: Actor, stage: typeof planStages.$inferSel
 }
 
 /** What a stage change does to the tank's own status: the first started stage starts the build, a finished fill starts the cycle. */
-export function tankStatusAfterStage(tank: typeof tanks.$inferSelect, stageKey: string, newStatus: string | undefined, now: Date): Partial<typeof tanks.$inferInsert> {
-  if (!newStatus || newStatus === 'not-started') return {}
-  if (stageKey === 'water-fill' && newStatus === 'done' && (tank.status === 'planned' || tank.status === 'building')) {
-    return { status: 'cycling', cycleStartedAt: tank.cycleStartedAt ?? now.toISOString() }
-  }
-  if (tank.status === 'planned') return { status: 'building' }
-  return {}
+export function tankTriggerAfterStage(tank: Pick<typeof tanks.$inferSelect, 'status'>, stageKey: string, newStatus: StageStatus | undefined): TankTrigger | null {
+  if (!newStatus || newStatus === 'not-started') return null
+  const trigger = stageKey === 'water-fill' && newStatus === 'done' ? 'water-filled' : 'stage-started'
+  return appliesTo(trigger, tank.status) ? trigger : null
 }

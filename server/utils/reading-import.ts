@@ -8,7 +8,8 @@ import { hash, randomUUID } from 'node:crypto'
 import Papa from 'papaparse'
 import type { ReadingImportInput } from '#shared/schemas/reading'
 import { arrayRowToEntry, columnIndexes, guessMapping } from '#shared/readings/csv'
-import { MEASURED_FIELDS, toCanonicalReading, type CanonicalReading } from '#shared/readings/entry'
+import { toCanonicalReading, type CanonicalReading } from '#shared/readings/entry'
+import { MEASURED_FIELDS } from '#shared/vocabulary'
 import type { ImportPreview, ImportRowError } from '#shared/types/readings'
 
 /** At most this many row errors are reported; the count is always complete. */

@@ -1,20 +1,29 @@
 /** Reads and writes a tank's readings and events, shaped for the API. Scoping is done by the caller (requireVisibleTank). */
-import { and, asc, desc, eq, gte, isNull, lte, sql, type SQL } from 'drizzle-orm'
+import { and, eq, isNull } from 'drizzle-orm'
 import type { EventListQuery, ReadingListQuery } from '#shared/schemas/reading'
 import type { CanonicalReading } from '#shared/readings/entry'
 import { flagsForValues } from '#shared/readings/entry'
 import type { CanonicalEvent } from '#shared/readings/events'
-import type { EventList, EventView, ReadingList, ReadingView } from '#shared/types/readings'
+import type { CorrectionTrail, EventList, EventView, ReadingList, ReadingView, Replacement } from '#shared/types/readings'
 import { events, readings, uploads, users } from '../db/schema'
+import { eventHistoryPage, readingHistoryPage } from '../domain/readings/current'
 import type { Actor } from './access'
 import { editRefusal, tankLockedUntil } from './entry-rules'
 
 type ReadingRow = typeof readings.$inferSelect
 type EventRow = typeof events.$inferSelect
+/** A freshly written row has no replacement yet; a listed row says whether it has one. */
+type Trail = { replacedBy?: Replacement | null }
 type Tank = { id: string, organisationId: string }
 
+/** The correction trail of a row: what it corrects and why, and what replaced it. */
+function trailOf(row: { correctsId: string | null, correctionReason: string | null } & Trail): CorrectionTrail {
+  const replacedBy = row.replacedBy ?? null
+  return { current: !replacedBy, correctsId: row.correctsId, correctionReason: row.correctionReason, replacedBy }
+}
+
 /** A stored reading as the API shows it. */
-export function toReadingView(row: ReadingRow, enteredByName: string | null, actor: Actor, tank: Tank, now = new Date(), locked: string | null = tankLockedUntil(tank.id)): ReadingView {
+export function toReadingView(row: ReadingRow & Trail, enteredByName: string | null, actor: Actor, tank: Tank, now = new Date(), locked: string | null = tankLockedUntil(tank.id)): ReadingView {
   const values = {
     ammoniaN: row.ammoniaN, nitriteN: row.nitriteN, nitrateN: row.nitrateN, pH: row.pH, temperatureC: row.temperatureC,
     salinity: row.salinity, alkalinityDkh: row.alkalinityDkh, calciumMgL: row.calciumMgL, magnesiumMgL: row.magnesiumMgL, phosphateMgL: row.phosphateMgL,
@@ -29,13 +38,14 @@ export function toReadingView(row: ReadingRow, enteredByName: string | null, act
     enteredByName,
     createdAt: row.createdAt,
     updatedAt: row.updatedAt,
-    canEdit: editRefusal(actor, tank, { enteredBy: row.enteredBy, createdAt: row.createdAt, at: row.takenAt }, now, locked) === null,
+    ...trailOf(row),
+    canEdit: !row.replacedBy && editRefusal(actor, tank, { enteredBy: row.enteredBy, createdAt: row.createdAt, at: row.takenAt }, now, locked) === null,
     flags: flagsForValues(values),
   }
 }
 
 /** A stored event as the API shows it. */
-export function toEventView(row: EventRow, enteredByName: string | null, actor: Actor, tank: Tank, now = new Date(), locked: string | null = tankLockedUntil(tank.id)): EventView {
+export function toEventView(row: EventRow & Trail, enteredByName: string | null, actor: Actor, tank: Tank, now = new Date(), locked: string | null = tankLockedUntil(tank.id)): EventView {
   return {
     id: row.id,
     at: row.at,
@@ -46,7 +56,8 @@ export function toEventView(row: EventRow, enteredByName: string | null, actor: 
     enteredBy: row.enteredBy,
     enteredByName,
     createdAt: row.createdAt,
-    canEdit: editRefusal(actor, tank, { enteredBy: row.enteredBy, createdAt: row.createdAt, at: row.at }, now, locked) === null,
+    ...trailOf(row),
+    canEdit: !row.replacedBy && editRefusal(actor, tank, { enteredBy: row.enteredBy, createdAt: row.createdAt, at: row.at }, now, locked) === null,
   }
 }
 
@@ -61,42 +72,22 @@ const READING_SORT = {
   createdAt: readings.createdAt,
 } as const
 
-/** One page of a tank's readings in a time range. */
+/** One page of a tank's readings in a time range, replaced ones included with their trail. */
 export function listReadings(actor: Actor, tank: Tank, query: ReadingListQuery): ReadingList {
-  const conditions: SQL[] = [eq(readings.tankId, tank.id)]
-  if (query.from) conditions.push(gte(readings.takenAt, new Date(query.from).toISOString()))
-  if (query.to) conditions.push(lte(readings.takenAt, new Date(query.to).toISOString()))
-  const where = and(...conditions)
-  const column = READING_SORT[query.sort]
-  const rows = useDB().select({ reading: readings, name: users.name }).from(readings)
-    .leftJoin(users, eq(users.id, readings.enteredBy))
-    .where(where)
-    .orderBy(query.dir === 'asc' ? asc(column) : desc(column), query.dir === 'asc' ? asc(readings.id) : desc(readings.id))
-    .limit(query.pageSize).offset((query.page - 1) * query.pageSize).all()
-  const total = useDB().select({ n: sql<number>`count(*)` }).from(readings).where(where).get()?.n ?? 0
+  const { rows, total } = readingHistoryPage(useDB(), tank.id, query, { ...query, sort: READING_SORT[query.sort] })
   const now = new Date()
   const locked = tankLockedUntil(tank.id)
-  return { items: rows.map(r => toReadingView(r.reading, r.name, actor, tank, now, locked)), total, page: query.page, pageSize: query.pageSize }
+  return { items: rows.map(r => toReadingView(r, r.enteredByName, actor, tank, now, locked)), total, page: query.page, pageSize: query.pageSize }
 }
 
 const EVENT_SORT = { at: events.at, kind: events.kind, createdAt: events.createdAt } as const
 
-/** One page of a tank's events in a time range. */
+/** One page of a tank's events in a time range, replaced ones included with their trail. */
 export function listEvents(actor: Actor, tank: Tank, query: EventListQuery): EventList {
-  const conditions: SQL[] = [eq(events.tankId, tank.id)]
-  if (query.from) conditions.push(gte(events.at, new Date(query.from).toISOString()))
-  if (query.to) conditions.push(lte(events.at, new Date(query.to).toISOString()))
-  const where = and(...conditions)
-  const column = EVENT_SORT[query.sort]
-  const rows = useDB().select({ event: events, name: users.name }).from(events)
-    .leftJoin(users, eq(users.id, events.enteredBy))
-    .where(where)
-    .orderBy(query.dir === 'asc' ? asc(column) : desc(column), query.dir === 'asc' ? asc(events.id) : desc(events.id))
-    .limit(query.pageSize).offset((query.page - 1) * query.pageSize).all()
-  const total = useDB().select({ n: sql<number>`count(*)` }).from(events).where(where).get()?.n ?? 0
+  const { rows, total } = eventHistoryPage(useDB(), tank.id, query, { ...query, sort: EVENT_SORT[query.sort] })
   const now = new Date()
   const locked = tankLockedUntil(tank.id)
-  return { items: rows.map(r => toEventView(r.event, r.name, actor, tank, now, locked)), total, page: query.page, pageSize: query.pageSize }
+  return { items: rows.map(r => toEventView(r, r.enteredByName, actor, tank, now, locked)), total, page: query.page, pageSize: query.pageSize }
 }
 
 /** The reading row of this tank, or a 404. */

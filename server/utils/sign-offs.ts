@@ -113,7 +113,7 @@ export function requestSignOff(actor: Actor, tank: TankRow, note: string, now = 
     const row = useDB().insert(signOffs).values({
       organisationId: tank.organisationId, tankId: tank.id, requestedBy: actor.id, requestedAt: at, requestNote: note || null, status: 'requested',
     }).returning().get()
-    useDB().update(tanks).set({ status: 'cycled' }).where(eq(tanks.id, tank.id)).run()
+    moveTank({ tankId: tank.id, trigger: 'sign-off-requested', actor })
     writeAudit(actor, { action: 'sign-off.request', entity: 'sign_off', entityId: row.id, before: { tankStatus: tank.status }, after: { tankId: tank.id, note: row.requestNote, tankStatus: 'cycled' } })
     return row
   })
@@ -179,7 +179,6 @@ export function decideSignOff(actor: Actor, tank: TankRow, decision: 'approve' |
   const snapshot: SignOffSnapshot = { input, verdict, overrideGrounds: decision === 'approve' ? grounds : [], unresolvedAlerts }
   const at = now.toISOString()
   const code = decision === 'approve' ? newVerificationCode() : null
-  const nextStatus = decision === 'approve' ? 'signed-off' as const : 'cycling' as const
   const row = useDB().transaction(() => {
     const updated = useDB().update(signOffs).set({
       status: decision === 'approve' ? 'approved' : 'returned',
@@ -192,13 +191,13 @@ export function decideSignOff(actor: Actor, tank: TankRow, decision: 'approve' |
       verificationCode: code,
     }).where(and(eq(signOffs.id, request.id), eq(signOffs.status, 'requested'))).returning().get()
     if (!updated) conflict('This request was decided a moment ago')
-    useDB().update(tanks).set({ status: nextStatus }).where(eq(tanks.id, tank.id)).run()
+    const moved = moveTank({ tankId: tank.id, trigger: decision === 'approve' ? 'sign-off-approved' : 'sign-off-returned', actor })
     writeAudit(actor, {
       action: decision === 'approve' ? (override ? 'sign-off.approve-override' : 'sign-off.approve') : 'sign-off.return',
       entity: 'sign_off',
       entityId: request.id,
       before: { status: 'requested', tankStatus: tank.status },
-      after: { status: updated.status, tankStatus: nextStatus, note: updated.decisionNote, override, overrideGrounds: snapshot.overrideGrounds, phase: verdict.phase, ruleSetVersion: verdict.ruleSetVersion },
+      after: { status: updated.status, tankStatus: moved.status, note: updated.decisionNote, override, overrideGrounds: snapshot.overrideGrounds, phase: verdict.phase, ruleSetVersion: verdict.ruleSetVersion },
     })
     return updated
   })
@@ -215,7 +214,7 @@ export function reopenSignOff(actor: Actor, tank: TankRow, reason: string, now =
     const row = useDB().update(signOffs).set({ status: 'reopened', reopenedBy: actor.id, reopenedAt: at, reopenReason: reason })
       .where(and(eq(signOffs.id, current.id), eq(signOffs.status, 'approved'))).returning().get()
     if (!row) conflict('This sign-off was reopened a moment ago')
-    useDB().update(tanks).set({ status: 'cycling' }).where(eq(tanks.id, tank.id)).run()
+    moveTank({ tankId: tank.id, trigger: 'sign-off-reopened', actor })
     writeAudit(actor, { action: 'sign-off.reopen', entity: 'sign_off', entityId: row.id, before: { status: 'approved', tankStatus: tank.status }, after: { status: 'reopened', reason, tankStatus: 'cycling' } })
     return row
   })
@@ -259,5 +258,5 @@ export function advanceToStockingIfLivestock(tankId: string): void {
   if (!approved?.decidedAt) return
   const livestock = useDB().select({ id: events.id }).from(events)
     .where(and(eq(events.tankId, tankId), eq(events.kind, 'livestock-added'), sql`${events.at} > ${approved.decidedAt}`)).get()
-  if (livestock) useDB().update(tanks).set({ status: 'stocking' }).where(eq(tanks.id, tankId)).run()
+  if (livestock) moveTank({ tankId, trigger: 'livestock-logged', actor: null })
 }

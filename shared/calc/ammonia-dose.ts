@@ -5,6 +5,7 @@
 
 import { ATOMIC_WEIGHT_H, ATOMIC_WEIGHT_N, fromNitrogen, toNitrogen } from '../chemistry/nitrogen'
 import { assertFinite, assertInRange, assertPositive } from '../units'
+import type { AmmoniaBasis } from '../vocabulary'
 
 /** IUPAC 1996 standard atomic weight of chlorine (Pure Appl. Chem. 68: 2339). */
 export const ATOMIC_WEIGHT_CL = 35.4527
@@ -12,9 +13,6 @@ export const MOLAR_MASS_NH4CL = ATOMIC_WEIGHT_N + 4 * ATOMIC_WEIGHT_H + ATOMIC_W
 
 /** Total ammonia for a fishless cycle, mg/L: about 1-2 ppm (common practice, no published source). */
 export const FISHLESS_TARGET_TOTAL_AMMONIA_RANGE = [1, 2] as const
-
-/** Basis of an ammonia concentration: as nitrogen, as NH3 or as NH4+. */
-export type AmmoniaBasis = 'N' | 'NH3' | 'NH4'
 
 /** Converts an ammonia concentration on any basis to mg/L as N. */
 export function ammoniaToN(value: number, basis: AmmoniaBasis): number {

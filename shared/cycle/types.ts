@@ -3,20 +3,12 @@
  * and what a verdict looks like. All nitrogen concentrations are mg/L as nitrogen.
  */
 
-/** Kinds of livestock the engine gives a go/no-go for, least to most demanding. */
-export type LivestockGroup = 'fish' | 'invertebrates' | 'soft-coral' | 'lps-coral' | 'sps-coral'
+import type { CycleEventKind, CycleMethod, CyclePhase, LivestockGroup, Severity } from '../vocabulary'
 
-/** Every livestock group, in the order the readiness record lists them. */
-export const LIVESTOCK_GROUPS: readonly LivestockGroup[] = Object.freeze([
-  'fish',
-  'invertebrates',
-  'soft-coral',
-  'lps-coral',
-  'sps-coral',
-])
-
-/** How the tank is being cycled: fishless with dosed ammonia, or with a few hardy fish. */
-export type CycleMethod = 'fishless' | 'fish-in'
+// The engine's names come from the vocabulary; re-exported so engine callers import one module.
+// LIVESTOCK_GROUPS lists the groups in the order the readiness record lists them (fish first).
+export { LIVESTOCK_GROUPS } from '../vocabulary'
+export type { CycleEventKind, CycleMethod, CyclePhase, LivestockGroup, Severity } from '../vocabulary'
 
 /** The tank profile the engine needs. */
 export interface CycleTank {
@@ -48,10 +40,14 @@ export interface CycleReading {
   calciumMgL?: number
   /** Magnesium, mg/L. */
   magnesiumMgL?: number
+  /** Phosphate, mg/L as PO4 (what hobby kits read). */
+  phosphateMgL?: number
+  /**
+   * ISO 8601 time the test was entered (the server's record time). Orders tests that share a
+   * `takenAt`: the one entered last is the latest.
+   */
+  enteredAt?: string
 }
-
-/** Kinds of logged event that matter to the cycle. */
-export type CycleEventKind = 'ammonia-dose' | 'bacteria-dose' | 'water-change' | 'livestock-added' | 'note'
 
 /** Something done to the tank. */
 export interface CycleEvent {
@@ -60,12 +56,14 @@ export interface CycleEvent {
   at: string
   kind: CycleEventKind
   /**
-   * ammonia-dose: total ammonia added, mg/L as N. water-change: litres replaced.
-   * Other kinds: free use; the engine ignores it.
+   * ammonia-dose: total ammonia added, mg/L as N (a dose without it proves nothing).
+   * water-change: litres replaced. livestock-added: number of animals. Other kinds: ignored.
    */
   amount?: number
   /** livestock-added: which group went in. */
   group?: LivestockGroup
+  /** ISO 8601 time the event was entered; orders events that share an `at`. */
+  enteredAt?: string
 }
 
 /** Everything a verdict is computed from. `now` is an input so the verdict is reproducible. */
@@ -78,12 +76,6 @@ export interface CycleInput {
   /** ISO 8601 time the verdict is for. */
   now: string
 }
-
-/** Where the cycle stands. */
-export type CyclePhase = 'not-started' | 'ammonia' | 'nitrite' | 'settling' | 'complete'
-
-/** How much a finding matters. */
-export type Severity = 'info' | 'caution' | 'danger'
 
 /** One reason in a verdict. */
 export interface Finding {
@@ -198,4 +190,51 @@ export interface Thresholds {
   dangerRetestHours: number
   /** A suggested water change aims for this fraction of the limit, not the limit itself. */
   waterChangeTargetFraction: number
+  /** Fishless proof: the doses of this many consecutive days must each be seen to arrive and clear. */
+  clearanceDays: number
+  /** A test after a dose shows it arrived when ammonia reads at least this fraction of the dose. */
+  doseArrivalFraction: number
+  /** Nitrate must rise by at least this over the cycle (first nitrate test to latest). */
+  nitrateRiseN: number
+  /** Fish-in proof: zero ammonia and nitrite held at least this many days. */
+  fishInStableDays: number
+  /** A seeded tank with animals in that never shows ammonia or nitrite proves itself by nitrate rising over this many days. */
+  seededNitrateRiseDays: number
+  /** Nitrate above which each group waits (a water change first). */
+  nitrateMaxFishN: number
+  nitrateMaxInvertebratesN: number
+  nitrateMaxSoftCoralN: number
+  nitrateMaxStonyCoralN: number
+  /** Phosphate above which fish and invertebrates wait, mg/L as PO4. */
+  phosphateMaxFishMgL: number
+  /** Phosphate above which corals wait, mg/L as PO4. */
+  phosphateMaxCoralMgL: number
+  /** The usual reef pH range: outside it is a caution and livestock waits. */
+  pHMin: number
+  pHMax: number
+  /** With animals in, pH outside this is a danger. */
+  pHHardMin: number
+  pHHardMax: number
+  /** With animals in, nitrite above this is a danger. */
+  nitriteDangerWithAnimalsN: number
+  /** With animals in, salinity outside this is a danger. */
+  salinityHardMin: number
+  salinityHardMax: number
+  /** With animals in, temperature outside this is a danger. */
+  temperatureHardMinC: number
+  temperatureHardMaxC: number
+  /** Free ammonia averaged over this many days against the chronic criterion. */
+  chronicAveragingDays: number
+  /** More animals than this in one addition is a large addition. */
+  stockingBatchMax: number
+  /** Days between additions of fish after a small addition ... */
+  stockingIntervalDays: number
+  /** ... and after a large one. */
+  stockingLargeIntervalDays: number
+  /** A cycled tank with no livestock must be fed ammonia at least this often, or the bacteria starve. */
+  ghostFeedHours: number
+  /** No single water change larger than this percent; repeat with a re-test between. */
+  waterChangeMaxPercent: number
+  /** Nitrite at or above this while dosing says the dose is too high for the bacteria: lower it. */
+  doseLowerNitriteN: number
 }

@@ -2,11 +2,12 @@
  * Plain-language progress of a build plan, for the client's view and the tank list.
  * Pure: the same words on server and client.
  */
+import type { StageStatus } from '../vocabulary'
 
 export interface StageProgressInput {
   key: string
   title: string
-  status: 'not-started' | 'in-progress' | 'done' | 'skipped'
+  status: StageStatus
 }
 
 /** What the client is told about each default stage while it is the current one. */

@@ -13,12 +13,12 @@ import { toNitrogen, fromNitrogen, type NitrogenSpecies } from '../chemistry/nit
 import { SG_BASES, salinityFromConductivity, salinityFromSpecificGravity } from '../chemistry/seawater'
 import { DEFAULT_THRESHOLDS } from '../cycle/thresholds'
 import { celsiusToFahrenheit, fahrenheitToCelsius } from '../units'
+import {
+  MEASURED_FIELDS, PHYSICAL_BOUNDS,
+  type AmmoniaBasis, type FlagSeverity, type MeasuredField, type NitrateBasis, type NitriteBasis, type SalinityMode, type TemperatureUnit,
+} from '../vocabulary'
 
-export type AmmoniaBasis = 'NH3' | 'NH4' | 'N'
-export type NitriteBasis = 'NO2' | 'N'
-export type NitrateBasis = 'NO3' | 'N'
 export type SgBasisKey = keyof typeof SG_BASES
-export type SalinityMode = 'practical' | 'sg' | 'conductivity'
 
 export interface KitBasisChoice {
   ammonia: AmmoniaBasis
@@ -38,7 +38,7 @@ export interface ReadingEntry {
   basis: KitBasisChoice
   pH?: number | null
   temperature?: number | null
-  temperatureUnit: 'C' | 'F'
+  temperatureUnit: TemperatureUnit
   salinity?: number | null
   salinityMode: SalinityMode
   /** Specific-gravity basis when salinityMode is 'sg'. */
@@ -69,8 +69,6 @@ export interface CanonicalValues {
   phosphateMgL: number | null
 }
 
-export const MEASURED_FIELDS = ['ammoniaN', 'nitriteN', 'nitrateN', 'pH', 'temperatureC', 'salinity', 'alkalinityDkh', 'calciumMgL', 'magnesiumMgL', 'phosphateMgL'] as const
-
 export interface EntryIssue {
   field: string
   message: string
@@ -79,7 +77,7 @@ export interface EntryIssue {
 /** A possible but worrying value: stored, and shown to the user. */
 export interface EntryFlag {
   field: string
-  severity: 'caution' | 'danger'
+  severity: FlagSeverity
   message: string
 }
 
@@ -101,25 +99,6 @@ export const FUTURE_SKEW_MS = 5 * 60_000
 /** Readings older than this are refused as typing mistakes. */
 export const OLDEST_READING_YEARS = 20
 
-/**
- * Physical bounds, canonical units. Nitrogen limits are far above anything a test kit
- * reads (the top colour steps are about 8 ppm NH3, 5 ppm NO2, 160 ppm NO3); pH is the
- * scale itself; temperature is liquid sea water near the surface; salinity is the
- * EOS-80 / PSS-78 range the conversions are valid for.
- */
-export const PHYSICAL_BOUNDS: Readonly<Record<(typeof MEASURED_FIELDS)[number], readonly [number, number]>> = Object.freeze({
-  ammoniaN: [0, 50],
-  nitriteN: [0, 50],
-  nitrateN: [0, 500],
-  pH: [0, 14],
-  temperatureC: [-2, 40],
-  salinity: [0, 42],
-  alkalinityDkh: [0, 40],
-  calciumMgL: [0, 2000],
-  magnesiumMgL: [0, 3000],
-  phosphateMgL: [0, 50],
-})
-
 const NH3_N = (ppm: number) => toNitrogen(ppm, 'NH3')
 const NO2_N = (ppm: number) => toNitrogen(ppm, 'NO2')
 
@@ -130,7 +109,7 @@ const NO2_N = (ppm: number) => toNitrogen(ppm, 'NO2')
  * above 20 mg NO3-N/L (Camargo, Alonso & Salamanca 2005, Chemosphere 58: 1255-1267).
  * pH 7.6-8.6 (common practice, no published source). The rest: DEFAULT_THRESHOLDS.
  */
-export const ALARM_RANGES: Readonly<Record<(typeof MEASURED_FIELDS)[number], readonly [number, number]>> = Object.freeze({
+export const ALARM_RANGES: Readonly<Record<MeasuredField, readonly [number, number]>> = Object.freeze({
   ammoniaN: [0, NH3_N(4)],
   nitriteN: [0, NO2_N(5)],
   nitrateN: [0, 20],
@@ -157,7 +136,7 @@ export const FIELD_LABELS: Readonly<Record<string, string>> = Object.freeze({
 })
 
 /** The form field each canonical value comes from, so messages land next to the right input. */
-const INPUT_FIELD: Record<(typeof MEASURED_FIELDS)[number], string> = {
+const INPUT_FIELD: Record<MeasuredField, string> = {
   ammoniaN: 'ammonia',
   nitriteN: 'nitrite',
   nitrateN: 'nitrate',
@@ -183,12 +162,12 @@ export function nitrogenToKit(valueN: number, basis: AmmoniaBasis | NitriteBasis
 }
 
 /** Temperature as typed -> degrees C. */
-export function temperatureToC(value: number, unit: 'C' | 'F'): number {
+export function temperatureToC(value: number, unit: TemperatureUnit): number {
   return unit === 'F' ? fahrenheitToCelsius(value) : value
 }
 
 /** Degrees C -> the user's unit. */
-export function temperatureFromC(valueC: number, unit: 'C' | 'F'): number {
+export function temperatureFromC(valueC: number, unit: TemperatureUnit): number {
   return unit === 'F' ? celsiusToFahrenheit(valueC) : valueC
 }
 
@@ -225,7 +204,7 @@ function salinityFrom(entry: ReadingEntry): { value: number } | { message: strin
   return { value: salinity }
 }
 
-function flagFor(field: (typeof MEASURED_FIELDS)[number], value: number): EntryFlag | null {
+function flagFor(field: MeasuredField, value: number): EntryFlag | null {
   const [low, high] = ALARM_RANGES[field]
   const label = FIELD_LABELS[field]
   if (value > high) {
@@ -319,7 +298,7 @@ export function toCanonicalReading(entry: ReadingEntry, now: Date = new Date()):
 }
 
 /** The refusal for a value outside physical bounds, in the units the user typed. */
-function boundsMessage(field: (typeof MEASURED_FIELDS)[number], entry: ReadingEntry): string {
+function boundsMessage(field: MeasuredField, entry: ReadingEntry): string {
   const [min, max] = PHYSICAL_BOUNDS[field]
   const label = FIELD_LABELS[field]
   const round = (x: number) => String(Math.round(x * 100) / 100)
@@ -368,7 +347,7 @@ const num = (x: unknown): number | undefined => (typeof x === 'number' && Number
  * Rebuilds the entry a stored reading came from, so an edit starts from what was typed
  * (falling back to the canonical value in the tank's basis when nothing was kept).
  */
-export function entryFromStored(row: StoredReading, kit: KitBasisChoice, temperatureUnit: 'C' | 'F'): ReadingEntry {
+export function entryFromStored(row: StoredReading, kit: KitBasisChoice, temperatureUnit: TemperatureUnit): ReadingEntry {
   const e = row.entered ?? {}
   const nitrogen = <B extends AmmoniaBasis | NitriteBasis | NitrateBasis>(key: 'ammonia' | 'nitrite' | 'nitrate', canonical: number | null, fallback: B): [number | null, B] => {
     const typed = obj(e[key])

@@ -5,13 +5,14 @@
 import { toNitrogen } from '../chemistry/nitrogen'
 import { usGallonsToLitres, litresToUsGallons } from '../units'
 import type { EventInput } from '../schemas/reading'
+import type { LivestockGroup, UnitSystem } from '../vocabulary'
 import { checkTakenAt, type EntryIssue } from './entry'
 
 export interface CanonicalEvent {
   at: string
   kind: EventInput['kind']
   amount: number | null
-  group: string | null
+  group: LivestockGroup | null
   notes: string | null
 }
 
@@ -38,7 +39,7 @@ export function toCanonicalEvent(input: EventInput, now: Date = new Date()): Eve
   const timeIssue = checkTakenAt(input.at, now)
   if (timeIssue) issues.push({ field: 'at', message: timeIssue.message.replace('A test cannot be taken', 'An event cannot be') })
   let amount: number | null = null
-  let group: string | null = null
+  let group: LivestockGroup | null = null
   const typed = input.amount ?? null
   switch (input.kind) {
     case 'ammonia-dose':
@@ -72,7 +73,7 @@ export function toCanonicalEvent(input: EventInput, now: Date = new Date()): Eve
 }
 
 /** A stored event's amount in the user's units, for display. */
-export function describeEventAmount(kind: string, amount: number | null, units: 'us' | 'metric', group?: string | null): string {
+export function describeEventAmount(kind: string, amount: number | null, units: UnitSystem, group?: string | null): string {
   if (amount === null) return ''
   if (kind === 'ammonia-dose') return `${(Math.round(amount * 100) / 100)} mg/L as N`
   if (kind === 'water-change') return units === 'us' ? `${Math.round(litresToUsGallons(amount) * 10) / 10} gal` : `${Math.round(amount * 10) / 10} L`

@@ -1,4 +1,5 @@
 import * as v from 'valibot'
+import { ROLES } from '../vocabulary'
 
 const Email = v.pipe(v.string('Enter an e-mail address.'), v.trim(), v.toLowerCase(), v.maxLength(254, 'That e-mail address is too long.'), v.email('Enter a valid e-mail address.'))
 
@@ -22,7 +23,7 @@ export const InvitationSchema = v.pipe(
   v.object({
     email: Email,
     name: v.pipe(v.string('Enter a name.'), v.trim(), v.minLength(1, 'Enter a name.'), v.maxLength(120, 'Keep the name under 120 characters.')),
-    role: v.picklist(['admin', 'aquarist', 'supervisor', 'client'], 'Choose a role.'),
+    role: v.picklist(ROLES, 'Choose a role.'),
     clientId: v.optional(v.pipe(v.string(), v.uuid('Not a valid client id.'))),
   }),
   v.forward(v.check(input => input.role !== 'client' || !!input.clientId, 'Choose the client this account belongs to.'), ['clientId']),

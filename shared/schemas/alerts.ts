@@ -1,6 +1,9 @@
 import * as v from 'valibot'
+import { ALERT_STATUSES } from '../vocabulary'
 
-export const ALERT_STATUS_FILTERS = ['open', 'acknowledged', 'resolved', 'active'] as const
+/** An alert status, or `active` for every status still asking for attention. */
+export const ALERT_STATUS_FILTERS = [...ALERT_STATUSES, 'active'] as const
+export type AlertStatusFilter = (typeof ALERT_STATUS_FILTERS)[number]
 
 /** GET /api/alerts query: `active` means open or acknowledged. */
 export const AlertListQuery = v.object({

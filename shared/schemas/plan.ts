@@ -1,6 +1,5 @@
 import * as v from 'valibot'
-
-export const STAGE_STATUS_NAMES = ['not-started', 'in-progress', 'done', 'skipped'] as const
+import { STAGE_STATUSES } from '../vocabulary'
 
 const finite = (label: string, min: number, max: number) => v.optional(v.nullable(v.pipe(
   v.number(`${label} must be a number.`), v.finite(`${label} must be a number.`),
@@ -53,7 +52,7 @@ export const CustomStageDataSchema = v.pipe(
 /** PATCH /api/tanks/:id/stages/:stageId body. `data` is checked against the stage's own schema by the server. */
 export const StagePatchSchema = v.pipe(
   v.object({
-    status: v.optional(v.picklist(STAGE_STATUS_NAMES, 'Unknown stage status.')),
+    status: v.optional(v.picklist(STAGE_STATUSES, 'Unknown stage status.')),
     skipReason: v.optional(v.nullable(v.pipe(v.string(), v.trim(), v.maxLength(500, 'The reason is at most 500 characters.')))),
     checklist: v.optional(v.pipe(v.array(v.object({
       id: v.pipe(v.string(), v.maxLength(80, 'Unknown checklist item.')),

@@ -5,6 +5,9 @@
  */
 import * as v from 'valibot'
 import { SG_BASES } from '../chemistry/seawater'
+import {
+  AMMONIA_BASES, EVENT_KINDS, LIVESTOCK_GROUPS, NITRATE_BASES, NITRITE_BASES, SALINITY_MODES, TEMPERATURE_UNITS, VOLUME_UNITS,
+} from '../vocabulary'
 
 const SG_KEYS = Object.keys(SG_BASES) as [keyof typeof SG_BASES, ...(keyof typeof SG_BASES)[]]
 
@@ -12,9 +15,9 @@ const measured = (label: string) => v.nullish(v.pipe(v.number(`${label} must be 
 const isoTime = (message: string) => v.pipe(v.string(message), v.maxLength(40, message), v.check(s => Number.isFinite(Date.parse(s)), message))
 
 export const KitBasisSchema = v.object({
-  ammonia: v.picklist(['NH3', 'NH4', 'N'], 'Ammonia basis is NH3, NH4 or N.'),
-  nitrite: v.picklist(['NO2', 'N'], 'Nitrite basis is NO2 or N.'),
-  nitrate: v.picklist(['NO3', 'N'], 'Nitrate basis is NO3 or N.'),
+  ammonia: v.picklist(AMMONIA_BASES, 'Ammonia basis is NH3, NH4 or N.'),
+  nitrite: v.picklist(NITRITE_BASES, 'Nitrite basis is NO2 or N.'),
+  nitrate: v.picklist(NITRATE_BASES, 'Nitrate basis is NO3 or N.'),
 })
 
 const readingEntries = {
@@ -25,9 +28,9 @@ const readingEntries = {
   basis: KitBasisSchema,
   pH: measured('pH'),
   temperature: measured('Temperature'),
-  temperatureUnit: v.picklist(['C', 'F'], 'Temperature unit is C or F.'),
+  temperatureUnit: v.picklist(TEMPERATURE_UNITS, 'Temperature unit is C or F.'),
   salinity: measured('Salinity'),
-  salinityMode: v.picklist(['practical', 'sg', 'conductivity'], 'Salinity is practical salinity, specific gravity or conductivity.'),
+  salinityMode: v.picklist(SALINITY_MODES, 'Salinity is practical salinity, specific gravity or conductivity.'),
   sgBasis: v.optional(v.picklist(SG_KEYS, 'Unknown specific-gravity basis.')),
   conductivityTemperatureC: measured('Conductivity temperature'),
   alkalinityDkh: measured('Alkalinity'),
@@ -69,6 +72,7 @@ const pageQuery = (maxPageSize: number) => ({
 })
 
 export const READING_SORT_FIELDS = ['takenAt', 'ammoniaN', 'nitriteN', 'nitrateN', 'pH', 'temperatureC', 'salinity', 'createdAt'] as const
+export type ReadingSortField = (typeof READING_SORT_FIELDS)[number]
 
 /** GET /api/tanks/:id/readings query. */
 export const ReadingListQuerySchema = v.object({
@@ -86,17 +90,14 @@ export const EventListQuerySchema = v.object({
 })
 export type EventListQuery = v.InferOutput<typeof EventListQuerySchema>
 
-export const EVENT_KIND_VALUES = ['ammonia-dose', 'bacteria-dose', 'water-change', 'livestock-added', 'lighting-change', 'note'] as const
-export const LIVESTOCK_GROUP_VALUES = ['fish', 'invertebrates', 'soft-coral', 'lps-coral', 'sps-coral'] as const
-
 const eventEntries = {
   at: isoTime('Give the date and time.'),
-  kind: v.picklist(EVENT_KIND_VALUES, 'Unknown kind of event.'),
+  kind: v.picklist(EVENT_KINDS, 'Unknown kind of event.'),
   /** ammonia-dose: mg/L in `doseBasis`. water-change: volume in `volumeUnit`. livestock-added: count. */
   amount: measured('Amount'),
-  doseBasis: v.optional(v.picklist(['NH3', 'NH4', 'N'], 'Dose basis is NH3, NH4 or N.'), 'N'),
-  volumeUnit: v.optional(v.picklist(['L', 'usgal'], 'Volume is in litres or US gallons.'), 'L'),
-  group: v.nullish(v.picklist(LIVESTOCK_GROUP_VALUES, 'Unknown livestock group.')),
+  doseBasis: v.optional(v.picklist(AMMONIA_BASES, 'Dose basis is NH3, NH4 or N.'), 'N'),
+  volumeUnit: v.optional(v.picklist(VOLUME_UNITS, 'Volume is in litres or US gallons.'), 'L'),
+  group: v.nullish(v.picklist(LIVESTOCK_GROUPS, 'Unknown livestock group.')),
   notes: v.nullish(v.pipe(v.string('Notes must be text.'), v.maxLength(2000, 'Notes are at most 2000 characters.'))),
 }
 
@@ -118,8 +119,8 @@ export const ReadingImportSchema = v.object({
   /** Target -> the CSV header that holds it. Unmapped targets are guessed from the header. */
   mapping: v.optional(v.record(v.picklist(IMPORT_TARGETS, 'Unknown column target.'), v.pipe(v.string(), v.maxLength(200))), {}),
   basis: v.optional(KitBasisSchema, { ammonia: 'N', nitrite: 'N', nitrate: 'N' }),
-  temperatureUnit: v.optional(v.picklist(['C', 'F'], 'Temperature unit is C or F.'), 'C'),
-  salinityMode: v.optional(v.picklist(['practical', 'sg', 'conductivity'], 'Unknown salinity mode.'), 'practical'),
+  temperatureUnit: v.optional(v.picklist(TEMPERATURE_UNITS, 'Temperature unit is C or F.'), 'C'),
+  salinityMode: v.optional(v.picklist(SALINITY_MODES, 'Unknown salinity mode.'), 'practical'),
   sgBasis: v.optional(v.picklist(SG_KEYS, 'Unknown specific-gravity basis.')),
   dryRun: v.optional(v.boolean('dryRun is true or false.'), true),
 })

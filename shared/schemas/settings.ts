@@ -5,8 +5,9 @@
  * falls back to its default instead of taking the company's other settings with it.
  */
 import * as v from 'valibot'
-import { DEFAULT_THRESHOLDS } from '../cycle/thresholds'
+import { THRESHOLD_SPECS } from '../cycle/thresholds'
 import type { Thresholds } from '../cycle/types'
+import { UNIT_SYSTEMS } from '../vocabulary'
 
 export type ThresholdKey = keyof Thresholds
 
@@ -62,11 +63,16 @@ const TimeZoneSchema = v.pipe(
   v.check(isTimeZone, 'Choose a time zone from the list.'),
 )
 
-/** Why a company's value for a threshold is refused, or null when it is fine (canonical units). */
+/**
+ * Why a company's value for a threshold is refused, or null when it is fine (canonical units).
+ * The range is the rule engine's own (THRESHOLD_SPECS), so a stored value the form accepted
+ * is always one the engine accepts.
+ */
 export function thresholdProblem(key: string, value: unknown): string | null {
-  if (!(key in DEFAULT_THRESHOLDS)) return 'Tidewright has no such threshold.'
+  if (!Object.hasOwn(THRESHOLD_SPECS, key)) return 'Tidewright has no such threshold.'
   if (typeof value !== 'number' || !Number.isFinite(value)) return 'Give a number.'
-  if (value < 0) return 'Must be zero or more.'
+  const { min, max, unit } = THRESHOLD_SPECS[key as ThresholdKey]
+  if (value < min || value > max) return `Give a value from ${min} to ${max} (${unit}).`
   return null
 }
 
@@ -90,7 +96,7 @@ const ThresholdOverridesSchema = v.pipe(
 const OrganisationSettingsEntries = {
   contact: v.object(ContactEntries, 'Give the contact details.'),
   timeZone: TimeZoneSchema,
-  defaultUnits: v.picklist(['us', 'metric'], 'Choose US or metric units.'),
+  defaultUnits: v.picklist(UNIT_SYSTEMS, 'Choose US or metric units.'),
   escalationMinutes: wholeNumber(5, 1440, 'the escalation delay'),
   reminders: v.object(RemindersEntries, 'Give the reminder settings.'),
   signOff: v.object(SignOffEntries, 'Give the sign-off policy.'),

@@ -1,5 +1,6 @@
 /** Inputs for sign-off: request, decision, reopening, corrections and the start of stocking. */
 import * as v from 'valibot'
+import { LIVESTOCK_GROUPS, MEASURED_FIELDS, PHYSICAL_BOUNDS, type MeasuredField } from '../vocabulary'
 
 const note = (max: number) => v.pipe(v.string('Write a note.'), v.trim(), v.maxLength(max, `Keep it under ${max} characters.`))
 const requiredNote = (what: string, max = 2000) => v.pipe(v.string(`Write ${what}.`), v.trim(), v.minLength(3, `Write ${what}.`), v.maxLength(max, `Keep it under ${max} characters.`))
@@ -35,7 +36,11 @@ export const SignOffReopenSchema = v.object({
   reason: requiredNote('why the sign-off is reopened'),
 })
 
-const optionalNumber = (min: number, max: number) => v.optional(v.nullable(v.pipe(v.number('Give a number.'), v.finite('Give a number.'), v.minValue(min, `At least ${min}.`), v.maxValue(max, `At most ${max}.`))))
+/** A canonical value within the same physical bounds a reading must meet; null clears it. */
+const measured = (field: MeasuredField) => {
+  const [min, max] = PHYSICAL_BOUNDS[field]
+  return v.optional(v.nullable(v.pipe(v.number('Give a number.'), v.finite('Give a number.'), v.minValue(min, `At least ${min}.`), v.maxValue(max, `At most ${max}.`))))
+}
 
 /**
  * A correction of a reading: canonical values (mg/L as N, degrees C, practical salinity)
@@ -43,27 +48,16 @@ const optionalNumber = (min: number, max: number) => v.optional(v.nullable(v.pip
  */
 export const ReadingCorrectionSchema = v.object({
   reason: requiredNote('what was wrong', 1000),
-  ammoniaN: optionalNumber(0, 50),
-  nitriteN: optionalNumber(0, 50),
-  nitrateN: optionalNumber(0, 500),
-  pH: optionalNumber(0, 14),
-  temperatureC: optionalNumber(0, 45),
-  salinity: optionalNumber(0, 50),
-  alkalinityDkh: optionalNumber(0, 30),
-  calciumMgL: optionalNumber(0, 1000),
-  magnesiumMgL: optionalNumber(0, 3000),
-  phosphateMgL: optionalNumber(0, 20),
+  ...Object.fromEntries(MEASURED_FIELDS.map(field => [field, measured(field)])) as Record<MeasuredField, ReturnType<typeof measured>>,
   notes: v.optional(v.nullable(note(2000))),
 })
 export type ReadingCorrectionInput = v.InferOutput<typeof ReadingCorrectionSchema>
-
-export const LIVESTOCK_GROUP_VALUES = ['fish', 'invertebrates', 'soft-coral', 'lps-coral', 'sps-coral'] as const
 
 /** A correction of an event; fields left out are carried over. */
 export const EventCorrectionSchema = v.object({
   reason: requiredNote('what was wrong', 1000),
   amount: v.optional(v.nullable(v.pipe(v.number('Give a number.'), v.finite('Give a number.'), v.minValue(0, 'At least 0.'), v.maxValue(100000, 'Too large.')))),
-  group: v.optional(v.nullable(v.picklist(LIVESTOCK_GROUP_VALUES, 'Choose a livestock group.'))),
+  group: v.optional(v.nullable(v.picklist(LIVESTOCK_GROUPS, 'Choose a livestock group.'))),
   notes: v.optional(v.nullable(note(2000))),
 })
 export type EventCorrectionInput = v.InferOutput<typeof EventCorrectionSchema>
@@ -71,7 +65,7 @@ export type EventCorrectionInput = v.InferOutput<typeof EventCorrectionSchema>
 /** "Start stocking", optionally with the first livestock that went in. */
 export const StartStockingSchema = v.object({
   livestock: v.optional(v.object({
-    group: v.picklist(LIVESTOCK_GROUP_VALUES, 'Choose a livestock group.'),
+    group: v.picklist(LIVESTOCK_GROUPS, 'Choose a livestock group.'),
     count: v.optional(v.pipe(v.number('Give a number.'), v.integer('A whole number.'), v.minValue(1, 'At least 1.'), v.maxValue(500, 'At most 500.'))),
     notes: v.optional(note(1000)),
     at: v.optional(isoTime),

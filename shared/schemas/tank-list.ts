@@ -1,11 +1,12 @@
 import * as v from 'valibot'
+import { TANK_STATUSES } from '../vocabulary'
 
 export const TANK_SORT_FIELDS = ['name', 'status', 'client', 'updated', 'stage'] as const
 
 /** Query string of GET /api/tanks. */
 export const TankListQuerySchema = v.object({
   q: v.optional(v.pipe(v.string(), v.trim(), v.maxLength(100, 'Search text is too long.'))),
-  status: v.optional(v.picklist(['planned', 'building', 'cycling', 'cycled', 'signed-off', 'stocking'], 'Unknown status.')),
+  status: v.optional(v.picklist(TANK_STATUSES, 'Unknown status.')),
   clientId: v.optional(v.pipe(v.string(), v.uuid('Not a valid client id.'))),
   /** A plan stage key: tanks whose current stage it is; `complete` for tanks with every stage finished. */
   stage: v.optional(v.pipe(v.string(), v.regex(/^[a-z0-9]+(-[a-z0-9]+)*$/, 'Unknown stage.'), v.maxLength(40, 'Unknown stage.'))),

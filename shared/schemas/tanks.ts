@@ -1,6 +1,5 @@
 import * as v from 'valibot'
-
-export const TANK_SHAPE_NAMES = ['rectangular', 'cube', 'cylinder', 'bow-front', 'corner', 'hexagonal'] as const
+import { CYCLE_METHODS, TANK_MATERIALS, TANK_SHAPES, WATER_SOURCES, type TankShape } from '../vocabulary'
 
 /** Which inside dimensions each shape needs, in the order the form asks for them. */
 export const SHAPE_DIMENSIONS = {
@@ -10,7 +9,7 @@ export const SHAPE_DIMENSIONS = {
   'bow-front': ['lengthMm', 'widthMm', 'bowDepthMm', 'heightMm'],
   'corner': ['radiusMm', 'heightMm'],
   'hexagonal': ['sideMm', 'heightMm'],
-} as const
+} as const satisfies Record<TankShape, readonly string[]>
 
 const mm = (label: string) => v.optional(v.pipe(
   v.number(`${label} must be a number.`),
@@ -36,12 +35,12 @@ const TankFields = {
   name: v.pipe(v.string('Name the tank.'), v.trim(), v.minLength(1, 'Name the tank.'), v.maxLength(120, 'That name is too long.')),
   clientId: v.pipe(v.string('Choose a client.'), v.uuid('Choose a client.')),
   siteId: optionalId('Choose a site.'),
-  shape: v.picklist(TANK_SHAPE_NAMES, 'Choose a shape.'),
+  shape: v.picklist(TANK_SHAPES, 'Choose a shape.'),
   dimensions: DimensionsSchema,
   sumpLitres: v.optional(v.pipe(v.number('Sump volume must be a number.'), v.finite('Sump volume must be a number.'), v.minValue(0, 'Sump volume cannot be negative.'), v.maxValue(20_000, 'Sump volume is at most 20,000 L.')), 0),
-  material: v.optional(v.picklist(['glass', 'acrylic'], 'Glass or acrylic.'), 'glass'),
-  waterSource: v.optional(v.picklist(['natural', 'mixed'], 'Natural seawater or mixed salt.'), 'mixed'),
-  cycleMethod: v.optional(v.picklist(['fishless', 'fish-in'], 'Fishless or fish-in.'), 'fishless'),
+  material: v.optional(v.picklist(TANK_MATERIALS, 'Glass or acrylic.'), 'glass'),
+  waterSource: v.optional(v.picklist(WATER_SOURCES, 'Natural seawater or mixed salt.'), 'mixed'),
+  cycleMethod: v.optional(v.picklist(CYCLE_METHODS, 'Fishless or fish-in.'), 'fishless'),
   aquaristId: optionalId('Choose an aquarist.'),
   supervisorId: optionalId('Choose a supervisor.'),
 }
@@ -55,9 +54,9 @@ export const TankPatchSchema = v.pipe(
   v.partial(v.object({
     ...TankFields,
     sumpLitres: v.pipe(v.number('Sump volume must be a number.'), v.finite('Sump volume must be a number.'), v.minValue(0, 'Sump volume cannot be negative.'), v.maxValue(20_000, 'Sump volume is at most 20,000 L.')),
-    material: v.picklist(['glass', 'acrylic'], 'Glass or acrylic.'),
-    waterSource: v.picklist(['natural', 'mixed'], 'Natural seawater or mixed salt.'),
-    cycleMethod: v.picklist(['fishless', 'fish-in'], 'Fishless or fish-in.'),
+    material: v.picklist(TANK_MATERIALS, 'Glass or acrylic.'),
+    waterSource: v.picklist(WATER_SOURCES, 'Natural seawater or mixed salt.'),
+    cycleMethod: v.picklist(CYCLE_METHODS, 'Fishless or fish-in.'),
   })),
   v.forward(
     v.check(input => (input.shape === undefined) === (input.dimensions === undefined), 'Send the shape and its dimensions together.'),

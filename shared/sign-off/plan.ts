@@ -5,7 +5,8 @@
  * No framework imports; the server, the pages and the certificate share them.
  */
 import { acclimationPlan, ACCLIMATION_DEFAULTS } from '../lighting/schedule'
-import { LIVESTOCK_GROUPS, type CycleInput, type LivestockGroup, type Verdict } from '../cycle/types'
+import type { CycleInput, Verdict } from '../cycle/types'
+import { LIVESTOCK_GROUPS, type LivestockGroup } from '../vocabulary'
 
 const DAY_MS = 86_400_000
 

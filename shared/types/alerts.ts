@@ -1,3 +1,5 @@
+import type { AlertStatus } from '../vocabulary'
+
 /** An alert as the API returns it. */
 export interface AlertView {
   id: string
@@ -6,7 +8,7 @@ export interface AlertView {
   aquaristName: string | null
   /** The rule id of the danger finding, e.g. `ammonia.action-threshold`. */
   kind: string
-  status: 'open' | 'acknowledged' | 'resolved'
+  status: AlertStatus
   message: string
   openedAt: string
   /** Minutes from opening until now, or until it was resolved. */

@@ -1,4 +1,6 @@
 /** API response shapes for clients and their sites. */
+import type { StaffRole } from '../vocabulary'
+
 export interface SiteView {
   id: string
   clientId: string
@@ -36,5 +38,5 @@ export interface ClientView extends ClientSummary {
 export interface StaffMember {
   id: string
   name: string
-  role: 'admin' | 'aquarist' | 'supervisor'
+  role: StaffRole
 }

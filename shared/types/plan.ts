@@ -1,5 +1,7 @@
 /** API response shapes for a tank's build plan. */
-export type StageStatus = 'not-started' | 'in-progress' | 'done' | 'skipped'
+import type { StageStatus } from '../vocabulary'
+
+export type { StageStatus } from '../vocabulary'
 
 export interface ChecklistItemView {
   id: string

@@ -2,8 +2,31 @@
 import type { CyclePhase, Verdict } from '../cycle/types'
 import type { RuleInfo } from '../cycle/registry'
 import type { CanonicalValues, EntryFlag } from '../readings/entry'
+import type { EventKind, LivestockGroup } from '../vocabulary'
 
-export interface ReadingView extends CanonicalValues {
+/** The correction that replaced a reading or event: the value every other view shows instead. */
+export interface Replacement {
+  id: string
+  reason: string | null
+  byName: string | null
+  at: string
+}
+
+/**
+ * Where a row stands among corrections. A correction is a new row naming the row it
+ * replaces; the chart, the export and the engine show only current rows.
+ */
+export interface CorrectionTrail {
+  /** False once a correction replaced it. */
+  current: boolean
+  /** On a correction: the row it replaces, and why. */
+  correctsId: string | null
+  correctionReason: string | null
+  /** Once replaced: the correction, who made it, when and why. */
+  replacedBy: Replacement | null
+}
+
+export interface ReadingView extends CanonicalValues, CorrectionTrail {
   id: string
   takenAt: string
   notes: string | null
@@ -31,12 +54,12 @@ export interface ReadingSaved {
   phase: CyclePhase | null
 }
 
-export interface EventView {
+export interface EventView extends CorrectionTrail {
   id: string
   at: string
-  kind: string
+  kind: EventKind
   amount: number | null
-  group: string | null
+  group: LivestockGroup | null
   notes: string | null
   enteredBy: string | null
   enteredByName: string | null

@@ -1,5 +1,2 @@
-/** The four kinds of Tidewright user. */
-export type Role = 'admin' | 'aquarist' | 'supervisor' | 'client'
-
-/** Staff roles: everyone at the company who is not a client. */
-export const STAFF_ROLES: readonly Role[] = ['admin', 'aquarist', 'supervisor']
+/** Roles live in the vocabulary; re-exported here so pages get `Role` auto-imported. */
+export { STAFF_ROLES, type Role, type StaffRole } from '../vocabulary'

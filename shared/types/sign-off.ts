@@ -4,7 +4,9 @@ import type { CanonicalValues } from '../readings/entry'
 import type { DatedAcclimationStep, FinalValue, StockingStep } from '../sign-off/plan'
 import type { CyclePhase, TankStatus, TankView } from './tanks'
 
-export type SignOffStatus = 'requested' | 'approved' | 'returned' | 'reopened'
+import type { SignOffStatus } from '../vocabulary'
+
+export type { SignOffStatus } from '../vocabulary'
 
 /** What the engine was given and what it answered when the supervisor decided. */
 export interface SignOffSnapshot {

@@ -1,12 +1,13 @@
 /** API response shapes for tanks. Values are canonical (litres, mm); the client converts for display. */
-export type TankStatus = 'planned' | 'building' | 'cycling' | 'cycled' | 'signed-off' | 'stocking'
-export type CyclePhase = 'not-started' | 'ammonia' | 'nitrite' | 'settling' | 'complete'
+import type { CycleMethod, CyclePhase, TankMaterial, TankShape, TankStatus, WaterSource } from '../vocabulary'
+
+export type { CyclePhase, TankStatus } from '../vocabulary'
 
 export interface TankSummary {
   id: string
   name: string
   status: TankStatus
-  cycleMethod: 'fishless' | 'fish-in'
+  cycleMethod: CycleMethod
   volumeLitres: number
   clientId: string
   clientName: string
@@ -30,12 +31,12 @@ export interface TankList {
 }
 
 export interface TankView extends TankSummary {
-  shape: string
+  shape: TankShape
   siteId: string | null
   dimensions: Record<string, number | undefined>
   sumpLitres: number
-  material: 'glass' | 'acrylic'
-  waterSource: 'natural' | 'mixed'
+  material: TankMaterial
+  waterSource: WaterSource
   aquaristId: string | null
   supervisorId: string | null
   supervisorName: string | null

@@ -18,7 +18,6 @@ import { DEFAULT_PLAN_TEMPLATE } from '../../shared/plan/default-template'
 import { LoginSchema } from '../../shared/schemas/auth'
 import { AlertAcknowledgeSchema, AlertResolveSchema } from '../../shared/schemas/alerts'
 import { ForgotPasswordSchema, InvitationSchema, SetPasswordSchema } from '../../shared/schemas/account'
-import { RoleChangeSchema } from '../../shared/schemas/people'
 import { CompanySettingsUpdateSchema, DEFAULT_ORGANISATION_SETTINGS } from '../../shared/schemas/settings'
 import { NotificationPreferencesSchema } from '../../shared/schemas/notifications'
 import { EventCorrectionSchema, ReadingCorrectionSchema, SignOffDecisionSchema, SignOffReopenSchema, SignOffRequestSchema, StartStockingSchema } from '../../shared/schemas/sign-off'
@@ -542,14 +541,6 @@ export const ACCESS_MATRIX: Record<string, MatrixEntry> = {
 
   // Company administration: people, invitations, settings, audit trail
   'GET /api/people': { url: () => '/api/people', expect: { signedOut: 401, admin: 200, aquarist: 200, supervisor: 403, client: 403, otherClient: 403, otherCompany: 200 } },
-  'POST /api/people/[id]/role': {
-    url: c => `/api/people/${matrixPerson(c, 'role')}/role`,
-    body: () => ({ role: 'aquarist' }),
-    expect: adminOnly(),
-    fuzz: { as: 'admin', schema: RoleChangeSchema, validBody: () => ({ role: 'aquarist' }) },
-  },
-  'POST /api/people/[id]/deactivate': { url: c => `/api/people/${matrixPerson(c, 'deactivate')}/deactivate`, expect: adminOnly(), fuzz: 'no-body' },
-  'POST /api/people/[id]/reactivate': { url: c => `/api/people/${matrixPerson(c, 'reactivate')}/reactivate`, expect: adminOnly(), fuzz: 'no-body' },
   'POST /api/people/[id]/password-reset': { url: c => `/api/people/${matrixPerson(c, 'reset')}/password-reset`, expect: adminOnly(), fuzz: 'no-body' },
   'POST /api/invitations/[id]/resend': { url: c => `/api/invitations/${freshInvitation(c)}/resend`, expect: recordManager(), fuzz: 'no-body' },
   'DELETE /api/invitations/[id]': { url: c => `/api/invitations/${freshInvitation(c)}`, expect: recordManager() },

@@ -1,5 +1,5 @@
 import { AlertListQuery } from '#shared/schemas/alerts'
-import { STAFF_ROLES } from '#shared/types/roles'
+import { STAFF_ROLES } from '#shared/vocabulary'
 
 /** GET /api/alerts — the company's alerts for staff, by status (open, acknowledged, resolved, active), tank and age. Returns { items: AlertView[] }. */
 export default defineEventHandler(async (event) => {

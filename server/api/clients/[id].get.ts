@@ -1,5 +1,5 @@
 import { IdParams } from '#shared/schemas/common'
-import { STAFF_ROLES } from '#shared/types/roles'
+import { STAFF_ROLES } from '#shared/vocabulary'
 
 /** GET /api/clients/:id — one client of the company with its sites. Returns ClientView; 404 otherwise. */
 export default defineEventHandler(async (event) => {

@@ -1,5 +1,5 @@
 import { ClientListQuerySchema } from '#shared/schemas/clients'
-import { STAFF_ROLES } from '#shared/types/roles'
+import { STAFF_ROLES } from '#shared/vocabulary'
 
 /** GET /api/clients — the company's clients, searched, sorted and paginated on the server. Returns ClientList. */
 export default defineEventHandler(async (event) => {

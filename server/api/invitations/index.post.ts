@@ -1,7 +1,8 @@
 import { and, eq } from 'drizzle-orm'
 import { InvitationSchema } from '#shared/schemas/account'
+import { enqueueMail } from '../../db/outbox'
 import { readOrganisationSettings } from '../../db/settings'
-import { clients, users } from '../../db/schema'
+import { clients, organisations, users } from '../../db/schema'
 import type { TidewrightDB } from '../../db/connection'
 
 /**
@@ -22,6 +23,7 @@ export default defineEventHandler(async (event) => {
     throw createError({ statusCode: 409, statusMessage: 'That e-mail address already has an account' })
   }
   const now = requestNow(event)
+  const company = db.select({ name: organisations.name }).from(organisations).where(eq(organisations.id, actor.organisationId)).get()?.name ?? 'your company'
   const user = db.transaction((tx) => {
     const t = tx as unknown as TidewrightDB
     const created = t.insert(users).values({
@@ -29,7 +31,9 @@ export default defineEventHandler(async (event) => {
       clientId: input.role === 'client' ? input.clientId! : null, passwordHash: null,
       units: readOrganisationSettings(t, actor.organisationId).defaultUnits,
     }).returning().get()
-    queueInvitation(t, created, actor.name, now)
+    const token = issueToken(t, created.id, 'invite', now)
+    const words = inviteMail(created.name, actor.name, company, `${publicBaseUrl().replace(/\/+$/, '')}/accept-invite?token=${token}`)
+    enqueueMail(t, { organisationId: actor.organisationId, to: created.email, kind: 'invite', ...words }, now)
     return created
   })
   writeAudit(actor, { action: 'user.invite', entity: 'user', entityId: user.id, after: { email: user.email, role: user.role, clientId: user.clientId } })

@@ -11,6 +11,7 @@ import { computeAndStoreVerdict } from '../verdicts'
 import { clients, events, organisations, planStages, readings, signOffs, sites, tanks, users } from '../schema'
 import { FISHLESS_CURVE, FISH_IN_CURVE, simulateHistory } from './histories'
 import { hashPasswordOffline } from './password'
+import type { Role, UnitSystem } from '../../../shared/vocabulary'
 
 export const DEMO_PASSWORD = 'tidewright-demo'
 const DAY = 86_400_000
@@ -57,7 +58,7 @@ export async function seedDemo(db: TidewrightDB, now = new Date()): Promise<Demo
     const quayle = client('Idris Quayle', 'client2@tidewright.test', '+1 555 0187')
     const hart = client('Fenella Hart', 'client3@tidewright.test', '+1 555 0119')
 
-    const user = (email: string, name: string, role: 'admin' | 'aquarist' | 'supervisor' | 'client', clientId: string | null = null, units: 'us' | 'metric' = 'us') =>
+    const user = (email: string, name: string, role: Role, clientId: string | null = null, units: UnitSystem = 'us') =>
       tx.insert(users).values({ organisationId: orgId, email, name, role, passwordHash, clientId, units }).returning().get().id
     const ids = {
       admin: user('admin@tidewright.test', 'Odile Fairbanks', 'admin'),

@@ -4,6 +4,8 @@
  * the stepped values clients really enter.
  */
 import { fromNitrogen, toNitrogen } from '../../../shared/chemistry/nitrogen'
+import { AMMONIA_KIT, NITRATE_KIT, NITRITE_KIT } from '../../../shared/cycle/simulate/kits'
+import { seededRandom } from '../../../shared/cycle/simulate/simulate'
 
 export interface SimulatedReading {
   takenAt: string
@@ -16,22 +18,12 @@ export interface SimulatedReading {
   entered: Record<string, unknown>
 }
 
-/** Colour-chart steps of typical ammonia, nitrite and nitrate kits, in ppm as the ion. */
-const AMMONIA_CHART = [0, 0.25, 0.5, 1, 2, 4, 8]
-const NITRITE_CHART = [0, 0.25, 0.5, 1, 2, 5]
-const NITRATE_CHART = [0, 5, 10, 20, 40, 80, 160]
+const AMMONIA_CHART = AMMONIA_KIT.steps
+const NITRITE_CHART = NITRITE_KIT.steps
+const NITRATE_CHART = NITRATE_KIT.steps
 
-function nearestStep(chart: number[], value: number): number {
+function nearestStep(chart: readonly number[], value: number): number {
   return chart.reduce((best, step) => (Math.abs(step - value) < Math.abs(best - value) ? step : best), chart[0] ?? 0)
-}
-
-/** A tiny linear-congruential generator: the demo must look the same on every seed. */
-export function seededRandom(seed: number): () => number {
-  let state = seed >>> 0
-  return () => {
-    state = (Math.imul(state, 1664525) + 1013904223) >>> 0
-    return state / 2 ** 32
-  }
 }
 
 /** Curve shape of a concentration that rises, holds and decays (days from cycle start). */

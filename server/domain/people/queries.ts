@@ -68,12 +68,6 @@ export function findPerson(db: TidewrightDB, organisationId: string, personId: s
   return db.select().from(users).where(and(eq(users.id, personId), eq(users.organisationId, organisationId))).get()
 }
 
-/** How many admins of the company can still sign in. */
-export function activeAdminCount(db: Pick<TidewrightDB, 'select'>, organisationId: string): number {
-  return Number(db.select({ n: sql<number>`count(*)` }).from(users)
-    .where(and(eq(users.organisationId, organisationId), eq(users.role, 'admin'), eq(users.active, true))).get()?.n ?? 0)
-}
-
 /** Pending invitations, deactivated people still on open tanks, and tanks with no aquarist. */
 export function adminAttention(db: TidewrightDB, organisationId: string, now = new Date()): AdminAttention {
   const status = statusOf(now)

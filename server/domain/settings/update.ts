@@ -8,7 +8,7 @@ import { resolveThresholds } from '../../../shared/cycle/thresholds'
 import { parseStoredSettings, type CompanySettingsUpdate, type OrganisationSettings } from '../../../shared/schemas/settings'
 import type { CompanySettingsView } from '../../../shared/types/settings'
 import type { TidewrightDB } from '../../db/connection'
-import { appendAudit } from '../../db/audit'
+import { recordAudit } from '../audit/record'
 import { auditLog, organisations, users } from '../../db/schema'
 
 
@@ -77,7 +77,7 @@ export function saveCompanySettings(db: TidewrightDB, actor: { id: string, organ
       .where(and(eq(organisations.id, actor.organisationId), eq(organisations.settingsVersion, input.version)))
       .returning().get()
     if (!row) return { ok: false, status: 409, message: conflictMessage(t, actor.organisationId) }
-    appendAudit(t, actor, { action: 'organisation.settings', entity: 'organisation', entityId: actor.organisationId, before: was, after }, now)
+    recordAudit(t, actor, { action: 'organisation.settings', entity: 'organisation', entityId: actor.organisationId, before: was, after })
     return { ok: true, view: { name: row.name, settings: parseStoredSettings(row.settings), version: row.settingsVersion }, thresholdsChanged: thresholdKeys }
   })
 }

@@ -6,11 +6,12 @@
 
 import { DAY_MS, formatWhen } from '../time'
 import type { ReadinessContext } from '../context'
+import { LIVESTOCK_GROUPS } from '../../vocabulary'
 import type { CyclePhase, LivestockGroup } from '../types'
 import { reefChemistryProblems, salinityStability } from './environment'
 import { COMMON_PRACTICE, type ReadinessRule } from './rule'
 
-const ALL: readonly LivestockGroup[] = ['fish', 'invertebrates', 'soft-coral', 'lps-coral', 'sps-coral']
+const ALL: readonly LivestockGroup[] = LIVESTOCK_GROUPS
 const STONY: readonly LivestockGroup[] = ['lps-coral', 'sps-coral']
 
 const GROUP_WORDS: Record<LivestockGroup, string> = {

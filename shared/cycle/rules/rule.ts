@@ -8,7 +8,7 @@ import type { TimedReading } from '../history'
 import type { CycleAction, LivestockGroup, Severity } from '../types'
 
 /** Source string for trade practice with no primary publication. */
-export const COMMON_PRACTICE = 'common practice, no published source'
+export { COMMON_PRACTICE } from '../thresholds'
 
 /** A finding before the engine stamps the rule id on it. */
 export interface Hit {

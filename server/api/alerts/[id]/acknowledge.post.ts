@@ -1,6 +1,6 @@
 import { AlertAcknowledgeSchema } from '#shared/schemas/alerts'
 import { IdParams } from '#shared/schemas/common'
-import { STAFF_ROLES } from '#shared/types/roles'
+import { STAFF_ROLES } from '#shared/vocabulary'
 
 /** POST /api/alerts/:id/acknowledge — staff acknowledge an open alert (optional note); this stops its escalation. Returns AlertView; 409 if it is not open. */
 export default defineEventHandler(async (event) => {

@@ -1,9 +1,10 @@
 import { AlertResolveSchema } from '#shared/schemas/alerts'
 import { IdParams } from '#shared/schemas/common'
+import { STAFF_ROLES } from '#shared/vocabulary'
 
 /** POST /api/alerts/:id/resolve — an aquarist, supervisor or admin resolves an alert by hand with a note. Returns AlertView; 409 if already resolved. */
 export default defineEventHandler(async (event) => {
-  const actor = await requireActor(event, ['admin', 'aquarist', 'supervisor'])
+  const actor = await requireActor(event, STAFF_ROLES)
   const { id } = await getValidatedRouterParams(event, valid(IdParams))
   const { note } = await readValidatedBody(event, valid(AlertResolveSchema))
   const now = requestNow(event)

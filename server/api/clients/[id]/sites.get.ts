@@ -1,5 +1,5 @@
 import { asc, eq } from 'drizzle-orm'
-import { STAFF_ROLES } from '#shared/types/roles'
+import { STAFF_ROLES } from '#shared/vocabulary'
 import { IdParams } from '#shared/schemas/common'
 import { sites } from '../../../db/schema'
 

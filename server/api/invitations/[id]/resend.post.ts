@@ -1,7 +1,7 @@
 import { IdParams } from '#shared/schemas/common'
-import { appendAudit } from '../../../db/audit'
+import { recordAudit } from '../../../domain/audit/record'
 import type { TidewrightDB } from '../../../db/connection'
-import { mayHandleAccountOf } from '../../../domain/people/commands'
+import { mayHandleAccountOf } from '../../../domain/people/invitations'
 import { findPerson } from '../../../domain/people/queries'
 
 /** POST /api/invitations/:id/resend — e-mails a fresh invitation link; the older link stops working. `:id` is the invited person. Returns { sentTo, expiresAt }. */
@@ -17,7 +17,7 @@ export default defineEventHandler(async (event) => {
   db.transaction((tx) => {
     const t = tx as unknown as TidewrightDB
     queueInvitation(t, person, actor.name, now)
-    appendAudit(t, actor, { action: 'user.invite-resend', entity: 'user', entityId: person.id, after: { email: person.email } }, now)
+    recordAudit(t, actor, { action: 'user.invite-resend', entity: 'user', entityId: person.id, after: { email: person.email } })
   })
   kickMailWorker()
   return { sentTo: person.email, expiresAt: new Date(now.getTime() + TOKEN_TTL_MS.invite).toISOString() }

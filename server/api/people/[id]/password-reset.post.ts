@@ -1,5 +1,5 @@
 import { IdParams } from '#shared/schemas/common'
-import { appendAudit } from '../../../db/audit'
+import { recordAudit } from '../../../domain/audit/record'
 import type { TidewrightDB } from '../../../db/connection'
 import { findPerson } from '../../../domain/people/queries'
 
@@ -16,7 +16,7 @@ export default defineEventHandler(async (event) => {
   db.transaction((tx) => {
     const t = tx as unknown as TidewrightDB
     queuePasswordReset(t, person, now)
-    appendAudit(t, actor, { action: 'user.reset-sent', entity: 'user', entityId: person.id, after: { email: person.email } }, now)
+    recordAudit(t, actor, { action: 'user.reset-sent', entity: 'user', entityId: person.id, after: { email: person.email } })
   })
   kickMailWorker()
   return { sentTo: person.email }

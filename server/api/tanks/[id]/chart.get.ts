@@ -1,11 +1,12 @@
-import { and, asc, eq, gte, lte, type SQL } from 'drizzle-orm'
+import { eq } from 'drizzle-orm'
 import * as v from 'valibot'
 import { resolveThresholds } from '#shared/cycle/thresholds'
 import type { CyclePhase } from '#shared/cycle/types'
 import type { ChartData } from '#shared/types/readings'
 import { IdParams } from '#shared/schemas/common'
-import { events, readings, tankVerdicts } from '../../../db/schema'
+import { tankVerdicts } from '../../../db/schema'
 import { readOrganisationSettings } from '../../../db/settings'
+import { tankEvents, tankReadings } from '../../../domain/readings/current'
 
 const ChartQuery = v.object({
   from: v.optional(v.pipe(v.string(), v.check(s => Number.isFinite(Date.parse(s)), 'From must be a date.'))),
@@ -13,7 +14,7 @@ const ChartQuery = v.object({
 })
 
 /**
- * GET /api/tanks/:id/chart — the tank's readings as compact parallel arrays (epoch
+ * GET /api/tanks/:id/chart — the tank's current readings as compact parallel arrays (epoch
  * seconds, canonical values), its events, the current phase and the limits the charts
  * draw. Returns ChartData.
  */
@@ -23,16 +24,9 @@ export default defineEventHandler(async (event): Promise<ChartData> => {
   const tank = requireVisibleTank(actor, id)
   const query = await getValidatedQuery(event, valid(ChartQuery))
   const db = useDB()
-  const rc: SQL[] = [eq(readings.tankId, tank.id)]
-  const ec: SQL[] = [eq(events.tankId, tank.id)]
-  if (query.from) { const f = new Date(query.from).toISOString(); rc.push(gte(readings.takenAt, f)); ec.push(gte(events.at, f)) }
-  if (query.to) { const t = new Date(query.to).toISOString(); rc.push(lte(readings.takenAt, t)); ec.push(lte(events.at, t)) }
-  const rows = db.select({
-    takenAt: readings.takenAt, ammoniaN: readings.ammoniaN, nitriteN: readings.nitriteN, nitrateN: readings.nitrateN,
-    pH: readings.pH, temperatureC: readings.temperatureC, salinity: readings.salinity,
-  }).from(readings).where(and(...rc)).orderBy(asc(readings.takenAt)).all()
-  const eventRows = db.select({ at: events.at, kind: events.kind, amount: events.amount, group: events.group })
-    .from(events).where(and(...ec)).orderBy(asc(events.at)).all()
+  // Current rows only: a corrected value is drawn once, as corrected.
+  const rows = tankReadings(db, tank.id, { range: query })
+  const eventRows = tankEvents(db, tank.id, { range: query })
   const stored = db.select({ phase: tankVerdicts.phase, verdict: tankVerdicts.verdict }).from(tankVerdicts).where(eq(tankVerdicts.tankId, tank.id)).get()
   const limits = resolveThresholds(readOrganisationSettings(db, tank.organisationId).thresholds)
   // Three significant decimals are far finer than any kit reads and keep the payload small.

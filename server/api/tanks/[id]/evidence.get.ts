@@ -1,4 +1,5 @@
 import { IdParams } from '#shared/schemas/common'
+import { STAFF_ROLES } from '#shared/vocabulary'
 
 /**
  * GET /api/tanks/:id/evidence — everything behind a sign-off decision: the tank, the
@@ -7,7 +8,7 @@ import { IdParams } from '#shared/schemas/common'
  * snapshot. Staff only. Returns Evidence.
  */
 export default defineEventHandler(async (event) => {
-  const actor = await requireActor(event, ['admin', 'aquarist', 'supervisor'])
+  const actor = await requireActor(event, STAFF_ROLES)
   const { id } = await getValidatedRouterParams(event, valid(IdParams))
   const evidence = tankEvidence(actor, id)
   if (!evidence) throw createError({ statusCode: 404, statusMessage: 'Tank not found' })

@@ -7,8 +7,8 @@ import {
   ammoniaToN,
   ammoniumChlorideGrams,
   stockMgPerLFromPercent,
-  type AmmoniaBasis,
 } from '../../../../shared/calc/ammonia-dose'
+import type { AmmoniaBasis } from '../../../../shared/vocabulary'
 
 const FC = { seed: 4, numRuns: 200 }
 

@@ -1,6 +1,7 @@
 import * as v from 'valibot'
 import { describe, expect, it } from 'vitest'
 import { DEFAULT_ORGANISATION_SETTINGS, OrganisationSettingsSchema, parseStoredSettings, type OrganisationSettings } from '../../../../shared/schemas/settings'
+import { resolveThresholds, THRESHOLD_SPECS } from '../../../../shared/cycle/thresholds'
 
 const valid = (): OrganisationSettings => structuredClone(DEFAULT_ORGANISATION_SETTINGS) as OrganisationSettings
 
@@ -53,6 +54,17 @@ describe('company settings input', () => {
   it('refuses an unknown threshold and a negative one under its own key', () => {
     const input = { ...valid(), thresholds: { ammoniaZeroN: -0.1, madeUp: 1, nitriteZeroN: 0.1 } }
     expect(fieldsOf(input).sort()).toEqual(['thresholds.ammoniaZeroN', 'thresholds.madeUp'])
+  })
+
+  it('refuses a threshold outside the engine\'s own range, naming the range, and never stores one the engine would refuse', () => {
+    const { min, max } = THRESHOLD_SPECS.ammoniaZeroN
+    const input = { ...valid(), thresholds: { ammoniaZeroN: max * 2 } }
+    const result = v.safeParse(OrganisationSettingsSchema, input)
+    expect(result.success).toBe(false)
+    expect(result.issues?.[0]?.message).toContain(`from ${min} to ${max}`)
+    const stored = parseStoredSettings({ thresholds: { ammoniaZeroN: max * 2, nitriteZeroN: THRESHOLD_SPECS.nitriteZeroN.default } })
+    expect(stored.thresholds).toEqual({ nitriteZeroN: THRESHOLD_SPECS.nitriteZeroN.default })
+    expect(() => resolveThresholds(stored.thresholds)).not.toThrow()
   })
 
   it('drops keys it does not know, including prototype keys', () => {

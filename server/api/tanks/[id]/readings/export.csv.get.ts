@@ -1,11 +1,10 @@
-import { asc, eq } from 'drizzle-orm'
 import Papa from 'papaparse'
 import { IdParams } from '#shared/schemas/common'
 import { EXPORT_COLUMNS } from '#shared/readings/csv'
-import { readings } from '../../../../db/schema'
+import { tankReadings } from '../../../../domain/readings/current'
 
 /**
- * GET /api/tanks/:id/readings/export.csv — every reading of the tank as CSV in canonical
+ * GET /api/tanks/:id/readings/export.csv — the tank's current readings (as corrected) as CSV in canonical
  * units (mg/L as N, degrees C, practical salinity); the header names the units. Re-importing
  * the file with its own mapping adds nothing twice.
  */
@@ -13,7 +12,7 @@ export default defineEventHandler(async (event) => {
   const actor = await requireActor(event)
   const { id } = await getValidatedRouterParams(event, valid(IdParams))
   const tank = requireVisibleTank(actor, id)
-  const rows = useDB().select().from(readings).where(eq(readings.tankId, tank.id)).orderBy(asc(readings.takenAt), asc(readings.id)).all()
+  const rows = tankReadings(useDB(), tank.id)
   const data = rows.map(r => EXPORT_COLUMNS.map(([, key]) => r[key] ?? ''))
   const csv = Papa.unparse({ fields: EXPORT_COLUMNS.map(([header]) => header), data }, { newline: '\n', escapeFormulae: true })
   const safeName = tank.name.replace(/[^A-Za-z0-9-]+/g, '-').replace(/^-|-$/g, '').toLowerCase() || 'tank'

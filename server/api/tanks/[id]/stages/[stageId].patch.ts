@@ -1,6 +1,6 @@
 import { eq } from 'drizzle-orm'
 import { StageParams, StagePatchSchema } from '#shared/schemas/plan'
-import { planStages, tanks } from '../../../../db/schema'
+import { planStages } from '../../../../db/schema'
 
 /**
  * PATCH /api/tanks/:id/stages/:stageId — changes a stage's status, ticks, notes or helper values.
@@ -16,21 +16,18 @@ export default defineEventHandler(async (event) => {
   if (!stage) throw createError({ statusCode: 404, statusMessage: 'Stage not found' })
   const now = new Date()
   const changes = applyStagePatch(actor, stage, patch, now)
-  const tankChanges = tankStatusAfterStage(tank, stage.key, changes.status, now)
+  const trigger = tankTriggerAfterStage(tank, stage.key, changes.status)
   const db = useDB()
   const { after, tankAfter } = db.transaction((tx) => {
     const after = Object.keys(changes).length
       ? tx.update(planStages).set(changes).where(eq(planStages.id, stage.id)).returning().get()
       : stage
-    const tankAfter = Object.keys(tankChanges).length
-      ? tx.update(tanks).set(tankChanges).where(eq(tanks.id, tank.id)).returning().get()
+    const tankAfter = trigger
+      ? moveTank({ tankId: tank.id, trigger, actor, cycleStartedAt: trigger === 'water-filled' ? tank.cycleStartedAt ?? now.toISOString() : undefined }, tx)
       : undefined
     return { after, tankAfter }
   })
   if (Object.keys(changes).length) writeAudit(actor, { action: 'plan-stage.update', entity: 'plan_stage', entityId: stage.id, before: stage, after })
-  if (tankAfter) {
-    writeAudit(actor, { action: 'tank.status', entity: 'tank', entityId: tank.id, before: { status: tank.status, cycleStartedAt: tank.cycleStartedAt }, after: { status: tankAfter.status, cycleStartedAt: tankAfter.cycleStartedAt } })
-    onTankDataChanged(tank.id, { actor, now })
-  }
+  if (tankAfter) onTankDataChanged(tank.id, { actor, now })
   return planView(actor, tankAfter ?? tank)
 })

@@ -1,4 +1,5 @@
 import { EventCorrectionSchema, EventParams } from '#shared/schemas/sign-off'
+import { STAFF_ROLES } from '#shared/vocabulary'
 
 /**
  * POST /api/tanks/:id/events/:eventId/corrections — corrects an event with a new, linked
@@ -6,7 +7,7 @@ import { EventCorrectionSchema, EventParams } from '#shared/schemas/sign-off'
  * only. Returns 201 with the new event; 409 when it was already corrected.
  */
 export default defineEventHandler(async (event) => {
-  const actor = await requireActor(event, ['admin', 'aquarist', 'supervisor'])
+  const actor = await requireActor(event, STAFF_ROLES)
   const { id, eventId } = await getValidatedRouterParams(event, valid(EventParams))
   const input = await readValidatedBody(event, valid(EventCorrectionSchema))
   const tank = requireVisibleTank(actor, id)

@@ -1,4 +1,5 @@
 import { ReadingCorrectionSchema, ReadingParams } from '#shared/schemas/sign-off'
+import { STAFF_ROLES } from '#shared/vocabulary'
 
 /**
  * POST /api/tanks/:id/readings/:readingId/corrections — corrects a reading with a new,
@@ -7,7 +8,7 @@ import { ReadingCorrectionSchema, ReadingParams } from '#shared/schemas/sign-off
  * reading; 409 when the reading was already corrected (correct the latest correction).
  */
 export default defineEventHandler(async (event) => {
-  const actor = await requireActor(event, ['admin', 'aquarist', 'supervisor'])
+  const actor = await requireActor(event, STAFF_ROLES)
   const { id, readingId } = await getValidatedRouterParams(event, valid(ReadingParams))
   const input = await readValidatedBody(event, valid(ReadingCorrectionSchema))
   const tank = requireVisibleTank(actor, id)

@@ -1,0 +1,129 @@
+/**
+ * A tank's readings and events as they stand now, and the trail of corrections behind them.
+ *
+ * A correction never changes a row: it adds a new row whose `corrects_id` names the row it
+ * replaces. A row is current while no correction names it. The rule engine, the chart and
+ * the CSV export read current rows only, so a corrected value is shown once; the history
+ * and the evidence read every row, each carrying who replaced it, when and why.
+ *
+ * Framework-free: takes a `Db` (the connection or a transaction).
+ */
+import { and, asc, count, desc, eq, gte, isNull, lte, sql, type SQL } from 'drizzle-orm'
+import { alias, type AnySQLiteColumn } from 'drizzle-orm/sqlite-core'
+import type { Replacement } from '../../../shared/types/readings'
+import type { Db } from '../../db/connection'
+import { events, readings, users } from '../../db/schema'
+
+/** An inclusive time window, ISO-8601; either end may be open. */
+export interface TimeRange {
+  from?: string
+  to?: string
+}
+
+type ReadingRow = typeof readings.$inferSelect
+type EventRow = typeof events.$inferSelect
+
+/** A stored row with who entered it and, once corrected, what replaced it. */
+export type WithTrail<Row> = Row & { enteredByName: string | null, replacedBy: Replacement | null }
+export type ReadingWithTrail = WithTrail<ReadingRow>
+export type EventWithTrail = WithTrail<EventRow>
+
+/** Which rows to read: only the current ones, or every row with its trail. */
+export type Which = 'current' | 'all'
+
+const author = alias(users, 'author')
+const laterReading = alias(readings, 'later_reading')
+const laterEvent = alias(events, 'later_event')
+const corrector = alias(users, 'corrector')
+
+const iso = (time: string) => new Date(time).toISOString()
+
+function countOf(db: Db, table: typeof readings | typeof events, where: SQL | undefined): number {
+  return db.select({ n: count() }).from(table).where(where).get()?.n ?? 0
+}
+
+function withTrail<Row>(row: Row, enteredByName: string | null, later: Omit<Replacement, 'byName'> | null, byName: string | null): WithTrail<Row> {
+  return { ...row, enteredByName, replacedBy: later ? { ...later, byName } : null }
+}
+
+/** The filter for a tank's readings in a range; `current` leaves out replaced rows. */
+function readingFilter(tankId: string, range: TimeRange, which: Which): SQL | undefined {
+  const conditions: SQL[] = [eq(readings.tankId, tankId)]
+  if (range.from) conditions.push(gte(readings.takenAt, iso(range.from)))
+  if (range.to) conditions.push(lte(readings.takenAt, iso(range.to)))
+  if (which === 'current') conditions.push(isNull(laterReading.id))
+  return and(...conditions)
+}
+
+/** The filter for a tank's events in a range; `current` leaves out replaced rows. */
+function eventFilter(tankId: string, range: TimeRange, which: Which): SQL | undefined {
+  const conditions: SQL[] = [eq(events.tankId, tankId)]
+  if (range.from) conditions.push(gte(events.at, iso(range.from)))
+  if (range.to) conditions.push(lte(events.at, iso(range.to)))
+  if (which === 'current') conditions.push(isNull(laterEvent.id))
+  return and(...conditions)
+}
+
+/** Readings joined to their author and to the correction that replaced them, if any. */
+function readingQuery(db: Db) {
+  return db.select({
+    row: readings, enteredByName: author.name, byName: corrector.name,
+    later: { id: laterReading.id, reason: laterReading.correctionReason, at: laterReading.createdAt },
+  }).from(readings)
+    .leftJoin(author, eq(author.id, readings.enteredBy))
+    .leftJoin(laterReading, eq(laterReading.correctsId, readings.id))
+    .leftJoin(corrector, eq(corrector.id, laterReading.enteredBy))
+    .$dynamic()
+}
+
+/** Events joined to their author and to the correction that replaced them, if any. */
+function eventQuery(db: Db) {
+  return db.select({
+    row: events, enteredByName: author.name, byName: corrector.name,
+    later: { id: laterEvent.id, reason: laterEvent.correctionReason, at: laterEvent.createdAt },
+  }).from(events)
+    .leftJoin(author, eq(author.id, events.enteredBy))
+    .leftJoin(laterEvent, eq(laterEvent.correctsId, events.id))
+    .leftJoin(corrector, eq(corrector.id, laterEvent.enteredBy))
+    .$dynamic()
+}
+
+/** A tank's readings, oldest first: the current ones, or every row with its trail. */
+export function tankReadings(db: Db, tankId: string, options: { range?: TimeRange, which?: Which } = {}): ReadingWithTrail[] {
+  return readingQuery(db).where(readingFilter(tankId, options.range ?? {}, options.which ?? 'current'))
+    .orderBy(asc(readings.takenAt), asc(readings.createdAt), asc(sql`${readings}.rowid`)).all()
+    .map(r => withTrail(r.row, r.enteredByName, r.later, r.byName))
+}
+
+/** A tank's events, oldest first: the current ones, or every row with its trail. */
+export function tankEvents(db: Db, tankId: string, options: { range?: TimeRange, which?: Which } = {}): EventWithTrail[] {
+  return eventQuery(db).where(eventFilter(tankId, options.range ?? {}, options.which ?? 'current'))
+    .orderBy(asc(events.at), asc(events.createdAt), asc(sql`${events}.rowid`)).all()
+    .map(r => withTrail(r.row, r.enteredByName, r.later, r.byName))
+}
+
+/** How a page of a history list is cut: the sort column, its direction and the page. */
+export interface HistoryPage {
+  sort: AnySQLiteColumn
+  dir: 'asc' | 'desc'
+  page: number
+  pageSize: number
+}
+
+/** One page of a tank's readings, every row with its trail, so the history shows what was replaced. */
+export function readingHistoryPage(db: Db, tankId: string, range: TimeRange, page: HistoryPage): { rows: ReadingWithTrail[], total: number } {
+  const where = readingFilter(tankId, range, 'all')
+  const by = page.dir === 'asc' ? asc : desc
+  const rows = readingQuery(db).where(where).orderBy(by(page.sort), by(readings.id))
+    .limit(page.pageSize).offset((page.page - 1) * page.pageSize).all()
+  return { rows: rows.map(r => withTrail(r.row, r.enteredByName, r.later, r.byName)), total: countOf(db, readings, where) }
+}
+
+/** One page of a tank's events, every row with its trail. */
+export function eventHistoryPage(db: Db, tankId: string, range: TimeRange, page: HistoryPage): { rows: EventWithTrail[], total: number } {
+  const where = eventFilter(tankId, range, 'all')
+  const by = page.dir === 'asc' ? asc : desc
+  const rows = eventQuery(db).where(where).orderBy(by(page.sort), by(events.id))
+    .limit(page.pageSize).offset((page.page - 1) * page.pageSize).all()
+  return { rows: rows.map(r => withTrail(r.row, r.enteredByName, r.later, r.byName)), total: countOf(db, events, where) }
+}

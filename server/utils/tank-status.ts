@@ -1,0 +1,18 @@
+import type { Db } from '../db/connection'
+import { changeTankStatus, TankStatusRefused, type StatusChange } from '../domain/tanks/status'
+
+/**
+ * `changeTankStatus` for a route: a change the lifecycle refuses is a 403 (the role may
+ * not) or a 409 (the tank is not in a status it applies to). Pass the route's transaction
+ * when the status changes together with other rows.
+ */
+export function moveTank(change: StatusChange, db: Db = useDB()) {
+  try {
+    return changeTankStatus(db, change)
+  }
+  catch (error) {
+    if (!(error instanceof TankStatusRefused)) throw error
+    const statusCode = error.refusal === 'role' ? 403 : error.refusal === 'missing' ? 404 : 409
+    throw createError({ statusCode, statusMessage: error.message })
+  }
+}

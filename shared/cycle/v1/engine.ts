@@ -1,0 +1,76 @@
+/**
+ * The cycle rule engine: one pure function from a tank's tests and events to a
+ * verdict. No clock, no randomness, no I/O: `now` is part of the input, so the
+ * server and the browser reach the same verdict and a signed one can be re-run.
+ */
+
+import { mergeActions } from './actions'
+import { traceCourse } from './course'
+import { buildHistory } from './history'
+import { decidePhase, firstSourceTime } from './phase'
+import { assessReadiness } from './readiness'
+import { FINDING_RULES, RULE_SET_VERSION } from './registry'
+import { latestValues } from './snapshot'
+import { resolveThresholds } from './thresholds'
+import { requireTime, toIso } from './time'
+import type { RuleContext } from './context'
+import type { CycleAction, CycleInput, Finding, Severity, Verdict } from './types'
+
+const SEVERITY_RANK: Record<Severity, number> = { danger: 0, caution: 1, info: 2 }
+
+function compareStrings(a: string, b: string): number {
+  return a < b ? -1 : a > b ? 1 : 0
+}
+
+function compareFindings(a: Finding, b: Finding): number {
+  return SEVERITY_RANK[a.severity] - SEVERITY_RANK[b.severity]
+    || compareStrings(a.ruleId, b.ruleId)
+    || compareStrings(a.message, b.message)
+    || compareStrings(a.readingIds.join('\u0000'), b.readingIds.join('\u0000'))
+}
+
+function buildContext(input: CycleInput): RuleContext {
+  const nowMs = requireTime('now', input.now)
+  const startedMs = requireTime('tank.startedAt', input.tank.startedAt)
+  const thresholds = resolveThresholds(input.thresholds)
+  const history = buildHistory(input.readings, input.events ?? [], nowMs)
+  const course = traceCourse(history, thresholds, input.tank.cycleMethod, nowMs)
+  const latest = latestValues(history.readings)
+  const sourceT = firstSourceTime(history, input.tank, startedMs, thresholds, nowMs)
+  const phase = decidePhase({ history, course, latest, thresholds, sourceT })
+  const livestock = history.events.filter(e => e.event.kind === 'livestock-added')
+  return { tank: input.tank, startedMs, nowMs, thresholds, history, course, phase, latest, sourceT, livestock }
+}
+
+function runRules(ctx: RuleContext): { findings: Finding[], actions: CycleAction[] } {
+  const findings: Finding[] = []
+  const actions: CycleAction[] = []
+  for (const rule of FINDING_RULES) {
+    const result = rule.evaluate(ctx)
+    for (const hit of result.hits) {
+      // The same test can back a finding twice (e.g. pH and temperature from one test); list it once, oldest first.
+      const ids = [...new Set(hit.readings.slice().sort((a, b) => a.t - b.t || compareStrings(a.id, b.id)).map(r => r.id))]
+      findings.push({ ruleId: rule.id, severity: hit.severity, message: hit.message, readingIds: ids })
+    }
+    actions.push(...result.actions)
+  }
+  return { findings: findings.sort(compareFindings), actions: mergeActions(actions) }
+}
+
+/**
+ * Evaluates a tank's nitrogen cycle: phase, completion, findings with reasons,
+ * readiness per livestock group and next actions. Throws a RangeError when `now`
+ * or `tank.startedAt` is not an ISO time or a threshold is not a finite number >= 0.
+ */
+export function evaluateCycle(input: CycleInput): Verdict {
+  const ctx = buildContext(input)
+  const { findings, actions } = runRules(ctx)
+  return {
+    phase: ctx.phase,
+    completedOn: ctx.course.completion ? toIso(ctx.course.completion.reading.t) : null,
+    findings,
+    readiness: assessReadiness(ctx, findings),
+    actions,
+    ruleSetVersion: RULE_SET_VERSION,
+  }
+}

@@ -1,0 +1,111 @@
+/**
+ * Turns the raw readings and events into one ordered history. The order is total
+ * (time, then id, then content), so the verdict cannot depend on input order.
+ */
+
+import { parseTime } from './time'
+import type { CycleEvent, CycleReading } from './types'
+
+/** A reading with its parsed time; only values the engine can trust are kept. */
+export interface TimedReading {
+  readonly id: string
+  readonly t: number
+  readonly ammoniaN?: number
+  readonly nitriteN?: number
+  readonly nitrateN?: number
+  readonly pH?: number
+  readonly temperatureC?: number
+  readonly salinity?: number
+  readonly alkalinityDkh?: number
+  readonly calciumMgL?: number
+  readonly magnesiumMgL?: number
+}
+
+/** An event with its parsed time. */
+export interface TimedEvent {
+  readonly event: CycleEvent
+  readonly t: number
+}
+
+/** The ordered history as of `now`. */
+export interface History {
+  readonly readings: readonly TimedReading[]
+  readonly events: readonly TimedEvent[]
+  /** Readings left out because their time does not parse. Sorted. */
+  readonly ignoredReadingIds: readonly string[]
+  /** Readings that kept their time but lost a value that was negative or not a number. Sorted. */
+  readonly repairedReadingIds: readonly string[]
+}
+
+type NumericKey = Exclude<keyof TimedReading, 'id' | 't'>
+
+const VALUE_KEYS: readonly NumericKey[] = [
+  'ammoniaN', 'nitriteN', 'nitrateN', 'pH', 'temperatureC', 'salinity', 'alkalinityDkh', 'calciumMgL', 'magnesiumMgL',
+]
+
+// Temperature may legitimately be below zero on a broken heater's log; every other value may not.
+function acceptable(key: NumericKey, value: number): boolean {
+  return Number.isFinite(value) && (key === 'temperatureC' || value >= 0)
+}
+
+function compareStrings(a: string, b: string): number {
+  return a < b ? -1 : a > b ? 1 : 0
+}
+
+function valueKey(reading: TimedReading): string {
+  return VALUE_KEYS.map(key => String(reading[key] ?? '')).join('|')
+}
+
+function compareReadings(a: TimedReading, b: TimedReading): number {
+  return a.t - b.t || compareStrings(a.id, b.id) || compareStrings(valueKey(a), valueKey(b))
+}
+
+function compareEvents(a: TimedEvent, b: TimedEvent): number {
+  return a.t - b.t
+    || compareStrings(a.event.id, b.event.id)
+    || compareStrings(a.event.kind, b.event.kind)
+    || (a.event.amount ?? -1) - (b.event.amount ?? -1)
+    || compareStrings(a.event.group ?? '', b.event.group ?? '')
+}
+
+function sanitize(raw: CycleReading, t: number): { reading: TimedReading, repaired: boolean } {
+  const values: Partial<Record<NumericKey, number>> = {}
+  let repaired = false
+  for (const key of VALUE_KEYS) {
+    const value = raw[key]
+    if (value === undefined || value === null) continue
+    if (acceptable(key, value)) values[key] = value
+    else repaired = true
+  }
+  return { reading: { id: raw.id, t, ...values }, repaired }
+}
+
+/** Builds the ordered history from raw input, dropping what happened after `nowMs`. */
+export function buildHistory(readings: readonly CycleReading[], events: readonly CycleEvent[], nowMs: number): History {
+  const kept: TimedReading[] = []
+  const ignored: string[] = []
+  const repaired: string[] = []
+  for (const raw of readings) {
+    const t = parseTime(raw.takenAt)
+    if (!Number.isFinite(t)) {
+      ignored.push(raw.id)
+      continue
+    }
+    // A reading after `now` is in the verdict's future: leaving it out keeps old verdicts reproducible.
+    if (t > nowMs) continue
+    const result = sanitize(raw, t)
+    kept.push(result.reading)
+    if (result.repaired) repaired.push(raw.id)
+  }
+  const timedEvents: TimedEvent[] = []
+  for (const event of events) {
+    const t = parseTime(event.at)
+    if (Number.isFinite(t) && t <= nowMs) timedEvents.push({ event, t })
+  }
+  return {
+    readings: kept.sort(compareReadings),
+    events: timedEvents.sort(compareEvents),
+    ignoredReadingIds: ignored.sort(compareStrings),
+    repairedReadingIds: repaired.sort(compareStrings),
+  }
+}

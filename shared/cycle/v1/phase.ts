@@ -1,0 +1,78 @@
+/**
+ * The phase of the cycle, read from the course of the readings rather than from a
+ * single test: ammonia that is still climbing, ammonia being turned into nitrite,
+ * both at zero but unproven, or proven.
+ */
+
+import { latestNitrogen, type Latest } from './snapshot'
+import { HOUR_MS } from './time'
+import type { Course } from './course'
+import type { History, TimedReading } from './history'
+import type { CyclePhase, CycleTank, Thresholds } from './types'
+
+/**
+ * When something first fed the bacteria, as of `nowMs`: a dose, bacteria, livestock, the fish of a
+ * fish-in cycle, or a test showing ammonia or nitrite. Null when nothing has yet.
+ */
+export function firstSourceTime(history: History, tank: CycleTank, startedMs: number, thresholds: Thresholds, nowMs: number): number | null {
+  // History is already cut at `now`; the fish of a fish-in start that lies in the future are not in yet.
+  let first = tank.cycleMethod === 'fish-in' && startedMs <= nowMs ? startedMs : Number.POSITIVE_INFINITY
+  for (const { event, t } of history.events) {
+    if (event.kind === 'ammonia-dose' || event.kind === 'bacteria-dose' || event.kind === 'livestock-added') {
+      first = Math.min(first, t)
+      break
+    }
+  }
+  // Ammonia nobody logged (rock, food, tap water) still feeds the bacteria.
+  const shown = history.readings.find(r => (r.ammoniaN ?? 0) > thresholds.ammoniaZeroN || (r.nitriteN ?? 0) > thresholds.nitriteZeroN)
+  if (shown) first = Math.min(first, shown.t)
+  return Number.isFinite(first) ? first : null
+}
+
+/** True when the latest ammonia is at least `fallFraction` below its peak since the last dose or water change. */
+export function ammoniaFalling(history: History, latest: TimedReading, fallFraction: number): boolean {
+  let since = Number.NEGATIVE_INFINITY
+  for (const { event, t } of history.events) {
+    // A dose raises ammonia on purpose and a water change lowers it by dilution: neither is the bacteria's doing.
+    if ((event.kind === 'ammonia-dose' || event.kind === 'water-change') && t <= latest.t) since = t
+  }
+  let peak = 0
+  for (const r of history.readings) {
+    if (r.t > latest.t) break
+    if (r.t > since && r.ammoniaN !== undefined) peak = Math.max(peak, r.ammoniaN)
+  }
+  return (latest.ammoniaN ?? 0) <= (1 - fallFraction) * peak
+}
+
+/** True when `t` falls within `windowHours` after an ammonia dose. */
+function insideDoseWindow(history: History, t: number, windowHours: number): boolean {
+  return history.events.some(({ event, t: at }) => event.kind === 'ammonia-dose' && at < t && t <= at + windowHours * HOUR_MS)
+}
+
+/** Everything the phase decision looks at. */
+export interface PhaseInput {
+  readonly history: History
+  readonly course: Course
+  readonly latest: Latest
+  readonly thresholds: Thresholds
+  readonly sourceT: number | null
+}
+
+/** Decides the phase; `complete` only when the course holds a completion that no later test has ended. */
+export function decidePhase({ history, course, latest, thresholds, sourceT }: PhaseInput): CyclePhase {
+  if (course.completion) return 'complete'
+  if (sourceT === null) return 'not-started'
+  const lastTest = latestNitrogen(history.readings)
+  // The source went in after the last test: ammonia is expected, not yet measured.
+  if (lastTest === null || lastTest.t < sourceT) return 'ammonia'
+  const ammonia = latest.ammoniaN
+  const nitriteUp = (latest.nitriteN?.nitriteN ?? 0) > thresholds.nitriteZeroN
+  const ammoniaUp = ammonia !== undefined && (ammonia.ammoniaN ?? 0) > thresholds.ammoniaZeroN
+  if (!ammoniaUp) return nitriteUp ? 'nitrite' : 'settling'
+  // Once ammonia has fallen, ammonia inside a dose's window is that dose being worked off: feeding
+  // during the nitrite stage, or a clearance test under way. Anywhere else it is a relapse.
+  const dosed = course.ammoniaFallen !== null && insideDoseWindow(history, ammonia.t, thresholds.clearanceWindowHours)
+  if (nitriteUp && (dosed || ammoniaFalling(history, ammonia, thresholds.fallFraction))) return 'nitrite'
+  if (dosed) return 'settling'
+  return 'ammonia'
+}

@@ -1,0 +1,58 @@
+/**
+ * The latest value of each measured quantity, and the water conditions that go
+ * with an ammonia test (carried forward from an earlier test when not retaken).
+ */
+
+import { HOUR_MS } from './time'
+import type { TimedReading } from './history'
+
+type Measured = Exclude<keyof TimedReading, 'id' | 't'>
+
+/** Latest reading carrying each value; readings are in time order. */
+export type Latest = Readonly<Partial<Record<Measured, TimedReading>>>
+
+const MEASURED: readonly Measured[] = [
+  'ammoniaN', 'nitriteN', 'nitrateN', 'pH', 'temperatureC', 'salinity', 'alkalinityDkh', 'calciumMgL', 'magnesiumMgL',
+]
+
+/** Latest reading for each measured value. */
+export function latestValues(readings: readonly TimedReading[]): Latest {
+  const latest: Partial<Record<Measured, TimedReading>> = {}
+  for (const reading of readings) {
+    for (const key of MEASURED) if (reading[key] !== undefined) latest[key] = reading
+  }
+  return latest
+}
+
+/** The latest reading with ammonia or nitrite, or null. */
+export function latestNitrogen(readings: readonly TimedReading[]): TimedReading | null {
+  for (let i = readings.length - 1; i >= 0; i -= 1) {
+    const reading = readings[i]
+    if (reading && (reading.ammoniaN !== undefined || reading.nitriteN !== undefined)) return reading
+  }
+  return null
+}
+
+/** Water conditions for a test, each taken from it or from the latest earlier test within `maxAgeHours`. */
+export interface Conditions {
+  pH?: { value: number, from: TimedReading }
+  temperatureC?: { value: number, from: TimedReading }
+  salinity?: { value: number, from: TimedReading }
+}
+
+/** Finds pH, temperature and salinity for the test `at` (which must be in `readings`). */
+export function conditionsAt(readings: readonly TimedReading[], at: TimedReading, maxAgeHours: number): Conditions {
+  const oldest = at.t - maxAgeHours * HOUR_MS
+  const found: Conditions = {}
+  const index = readings.indexOf(at)
+  // Walk back from the test itself: the nearest earlier value describes the water best.
+  for (let i = index; i >= 0; i -= 1) {
+    const r = readings[i]
+    if (!r || r.t < oldest) break
+    if (found.pH === undefined && r.pH !== undefined) found.pH = { value: r.pH, from: r }
+    if (found.temperatureC === undefined && r.temperatureC !== undefined) found.temperatureC = { value: r.temperatureC, from: r }
+    if (found.salinity === undefined && r.salinity !== undefined) found.salinity = { value: r.salinity, from: r }
+    if (found.pH && found.temperatureC && found.salinity) break
+  }
+  return found
+}

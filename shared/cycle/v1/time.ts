@@ -1,0 +1,54 @@
+/**
+ * Time arithmetic on epoch milliseconds. The engine never reads the clock: every
+ * instant comes from the input, so a verdict can be reproduced later.
+ */
+
+/** Milliseconds in an hour. */
+export const HOUR_MS = 3_600_000
+/** Milliseconds in a day (UTC days: the engine never uses local time). */
+export const DAY_MS = 24 * HOUR_MS
+
+// ISO 8601 date or date-time. Anything else is refused: engines parse other formats differently.
+const ISO_TIME = /^\d{4}-\d{2}-\d{2}(?:T\d{2}:\d{2}(?::\d{2}(?:\.\d{1,9})?)?(Z|[+-]\d{2}:?\d{2})?)?$/
+
+/**
+ * Epoch milliseconds of an ISO 8601 string, or NaN when it is not one. A date-time
+ * without an offset is read as UTC, never as local time, so browser and server agree.
+ */
+export function parseTime(iso: string): number {
+  if (typeof iso !== 'string') return Number.NaN
+  const match = ISO_TIME.exec(iso)
+  if (match === null) return Number.NaN
+  const hasClock = iso.includes('T')
+  return Date.parse(hasClock && match[1] === undefined ? `${iso}Z` : iso)
+}
+
+/** Epoch milliseconds of a required ISO time; throws a RangeError naming the field when it does not parse. */
+export function requireTime(name: string, iso: string): number {
+  const ms = parseTime(iso)
+  if (!Number.isFinite(ms)) throw new RangeError(`${name} must be an ISO 8601 time (got ${String(iso)})`)
+  return ms
+}
+
+/** Canonical ISO string (UTC, milliseconds) for epoch milliseconds. */
+export function toIso(ms: number): string {
+  return new Date(ms).toISOString()
+}
+
+/** "2026-03-14 08:00 UTC": unambiguous in a message whatever the reader's time zone. */
+export function formatWhen(ms: number): string {
+  return `${toIso(ms).slice(0, 16).replace('T', ' ')} UTC`
+}
+
+/** "2026-03-14". */
+export function formatDate(ms: number): string {
+  return toIso(ms).slice(0, 10)
+}
+
+/** A duration in words: hours below two days, days above. */
+export function formatDuration(ms: number): string {
+  const hours = ms / HOUR_MS
+  if (hours < 48) return `${Math.round(hours)} h`
+  const days = Math.round((hours / 24) * 10) / 10
+  return `${days} days`
+}
