@@ -54,7 +54,7 @@ describe('GET and PUT /api/settings', () => {
     expect(bad.status).toBe(400)
     const fields = Object.fromEntries(bad.body.data.issues.map((i: { field: string, message: string }) => [i.field, i.message]))
     expect(Object.keys(fields).sort()).toEqual(['name', 'settings.contact.email', 'settings.escalationMinutes', 'settings.thresholds.madeUp', 'settings.thresholds.temperatureMaxC', 'settings.timeZone'])
-    expect(fields['settings.thresholds.temperatureMaxC']).toBe('Must be between 0 and 40 °C.')
+    expect(fields['settings.thresholds.temperatureMaxC']).toBe('Give a value from 0 to 40 (°C).')
     expect((await admin.get('/api/settings')).body.version).toBe(0)
   })
 

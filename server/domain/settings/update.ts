@@ -11,7 +11,6 @@ import type { TidewrightDB } from '../../db/connection'
 import { recordAudit } from '../audit/record'
 import { auditLog, organisations, users } from '../../db/schema'
 
-
 /** The company's name, settings (defaults filled in) and the version a form must send back. */
 export function readCompanySettings(db: TidewrightDB, organisationId: string): CompanySettingsView | undefined {
   const row = db.select().from(organisations).where(eq(organisations.id, organisationId)).get()
