@@ -1,3 +1,5 @@
+import { THRESHOLD_SPECS } from '../cycle/thresholds'
+
 /**
  * The audit trail in plain words: what each recorded action means, and a before/after
  * list of the fields that changed, with names people read rather than column names.
@@ -31,6 +33,7 @@ export const AUDIT_ACTION_LABELS: Readonly<Record<string, string>> = Object.free
   'sign-off.approve-override': 'Signed the cycle off against the verdict',
   'sign-off.return': 'Returned the tank for more work',
   'sign-off.reopen': 'Reopened a sign-off',
+  'sign-off.amend': 'Amended a signed record',
   'client.create': 'Added a client',
   'client.update': 'Changed a client',
   'client.archive': 'Archived a client',
@@ -43,7 +46,8 @@ export const AUDIT_ACTION_LABELS: Readonly<Record<string, string>> = Object.free
   'user.invite-resend': 'Sent an invitation again',
   'user.invite-withdraw': 'Withdrew an invitation',
   'user.invite-accepted': 'Accepted an invitation',
-  'user.role': 'Changed a role',
+  'user.invite-existing': 'Invited an address that already has an account',
+  'user.role-change': 'Changed a role',
   'user.deactivate': 'Deactivated an account',
   'user.reactivate': 'Reactivated an account',
   'user.reset-sent': 'Sent a password-reset link',
@@ -103,22 +107,27 @@ const FIELD_LABELS: Readonly<Record<string, string>> = Object.freeze({
   requesterMayApprove: 'requester may approve',
   timeZone: 'time zone',
   defaultUnits: 'default units',
-  thresholds: 'threshold',
   signOff: 'sign-off',
 })
-
-/** Unit suffixes of engine threshold names (`ammoniaZeroN`, `temperatureMaxC`), read out as units. */
-const UNIT_SUFFIXES: ReadonlyArray<[RegExp, string]> = [[/MgL$/, 'mg/L'], [/Dkh$/, 'dKH'], [/C$/, '°C'], [/N$/, 'mg/L as N']]
 
 const words = (key: string) => key.replace(/([a-z0-9])([A-Z])/g, '$1 $2').replace(/[_-]/g, ' ').toLowerCase()
 
 function fieldLabel(key: string): string {
-  const known = FIELD_LABELS[key]
-  if (known) return known
-  for (const [suffix, unit] of UNIT_SUFFIXES) {
-    if (suffix.test(key) && /[a-z]/.test(key.replace(suffix, '').slice(-1))) return `${words(key.replace(suffix, ''))} (${unit})`
-  }
-  return words(key)
+  return FIELD_LABELS[key] ?? words(key)
+}
+
+/** An engine limit by what it does and its unit, from THRESHOLD_SPECS. */
+function thresholdLabel(key: string): string {
+  if (!Object.hasOwn(THRESHOLD_SPECS, key)) return words(key)
+  const spec = THRESHOLD_SPECS[key as keyof typeof THRESHOLD_SPECS]
+  return `${spec.description.replace(/\.$/, '')} (${spec.unit})`
+}
+
+/** A dotted path in words; a threshold reads as its description. */
+function pathLabel(field: string): string {
+  const parts = field.split('.').filter(part => part !== 'settings')
+  if (parts.length === 2 && parts[0] === 'thresholds') return `limit: ${thresholdLabel(parts[1]!)}`
+  return parts.map(fieldLabel).join(': ')
 }
 
 /** One value as a reader sees it: numbers to at most three decimals, yes/no, dash for nothing. */
@@ -168,8 +177,7 @@ export function auditChanges(before: unknown, after: unknown): AuditChange[] {
     const was = auditValueText(b.get(field))
     const now = auditValueText(a.get(field))
     if (was === now) continue
-    const label = field.split('.').filter(part => part !== 'settings').map(fieldLabel).join(': ')
-    changes.push({ field, label, before: was, after: now })
+    changes.push({ field, label: pathLabel(field), before: was, after: now })
   }
   return changes
 }

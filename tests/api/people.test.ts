@@ -78,50 +78,13 @@ describe('invitations: resend and withdraw', () => {
   })
 })
 
-describe('roles and deactivation', () => {
-  it('changes a staff role, never the last admin, never a client into staff', async () => {
-    const co = await seedScratchCompany('people-role')
-    const admin = await signedIn(co.emails.admin)
-    const promoted = await admin.post(`/api/people/${co.ids.aquarist}/role`, { role: 'supervisor' })
-    expect(promoted.status).toBe(200)
-    expect(promoted.body.role).toBe('supervisor')
-    const lastAdmin = await admin.post(`/api/people/${co.ids.admin}/role`, { role: 'aquarist' })
-    expect(lastAdmin.status).toBe(409)
-    expect(lastAdmin.body.statusMessage).toMatch(/only active admin/)
-    expect((await admin.post(`/api/people/${co.ids.client}/role`, { role: 'admin' })).status).toBe(409)
-    expect((await admin.post(`/api/people/${co.ids.aquarist}/role`, { role: 'client' })).status).toBe(400)
-    expect(auditRows(co.ids.aquarist).filter(r => r.action === 'user.role')).toEqual([
-      expect.objectContaining({ actorId: co.ids.admin, before: { role: 'aquarist' }, after: { role: 'supervisor' } }),
-    ])
-    // With a second admin, the first may step down.
-    expect((await admin.post(`/api/people/${co.ids.supervisor}/role`, { role: 'admin' })).status).toBe(200)
-    expect((await admin.post(`/api/people/${co.ids.admin}/role`, { role: 'aquarist' })).status).toBe(200)
-  })
-
-  it('deactivation stops the person\'s signed-in session at once; reactivation lets them sign in again', async () => {
-    const co = await seedScratchCompany('people-deactivate')
-    const admin = await signedIn(co.emails.admin)
-    const aquarist = await signedIn(co.emails.aquarist)
-    expect((await aquarist.get('/api/me')).status).toBe(200)
-    const off = await admin.post(`/api/people/${co.ids.aquarist}/deactivate`)
-    expect(off.status).toBe(200)
-    expect((await aquarist.get('/api/tanks')).status).toBe(401)
-    expect((await new ApiClient().post('/api/auth/login', { email: co.emails.aquarist, password: 'tidewright-demo' })).status).toBe(401)
-    const deactivated = await admin.get(`/api/people?status=deactivated`)
-    expect(deactivated.body.items.map((p: { id: string }) => p.id)).toEqual([co.ids.aquarist])
-    expect((await admin.post(`/api/people/${co.ids.aquarist}/reactivate`)).status).toBe(200)
-    expect((await new ApiClient().post('/api/auth/login', { email: co.emails.aquarist, password: 'tidewright-demo' })).status).toBe(200)
-    expect(auditRows(co.ids.aquarist).map(r => r.action)).toEqual(['user.deactivate', 'user.reactivate'])
-  })
-
-  it('refuses to deactivate yourself or the last admin (409), and another company\'s people are not found', async () => {
+describe('account follow-up by the admin', () => {
+  it('finds no person of another company (404) for a reset, a resend or a withdrawal', async () => {
     const co = await seedScratchCompany('people-self')
     const other = await seedScratchCompany('people-other')
     const admin = await signedIn(co.emails.admin)
-    expect((await admin.post(`/api/people/${co.ids.admin}/deactivate`)).status).toBe(409)
-    expect((await admin.post(`/api/people/${other.ids.aquarist}/deactivate`)).status).toBe(404)
-    expect((await admin.post(`/api/people/${other.ids.aquarist}/role`, { role: 'admin' })).status).toBe(404)
     expect((await admin.post(`/api/people/${other.ids.aquarist}/password-reset`)).status).toBe(404)
+    expect((await admin.post(`/api/invitations/${other.ids.aquarist}/resend`)).status).toBe(404)
     expect((await admin.delete(`/api/invitations/${other.ids.aquarist}`)).status).toBe(404)
   })
 
@@ -139,17 +102,16 @@ describe('roles and deactivation', () => {
 })
 
 describe('GET /api/admin/attention', () => {
-  it('names pending invitations, deactivated people still on open tanks and tanks with no aquarist', async () => {
+  it('names pending invitations and tanks with no aquarist', async () => {
     const co = await seedScratchCompany('people-attention')
     const admin = await signedIn(co.emails.admin)
     const tank = await admin.post('/api/tanks', { name: 'Attention reef', clientId: co.clientId, shape: 'rectangular', dimensions: { lengthMm: 900, widthMm: 450, heightMm: 500 }, aquaristId: co.ids.aquarist })
     expect(tank.status).toBe(201)
     await admin.post('/api/invitations', { email: `pending-${co.organisationId.slice(0, 8)}@scratch.test`, name: 'Pending Person', role: 'aquarist' })
-    await admin.post(`/api/people/${co.ids.aquarist}/deactivate`)
     const attention = await admin.get('/api/admin/attention')
     expect(attention.status).toBe(200)
     expect(attention.body.pendingInvitations.map((p: { name: string }) => p.name)).toEqual(['Pending Person'])
-    expect(attention.body.deactivatedWithTanks).toEqual([expect.objectContaining({ id: co.ids.aquarist, openTanks: 1 })])
+    expect(attention.body.deactivatedWithTanks).toEqual([])
     expect(attention.body.unassignedTanks).toEqual([])
     await admin.patch(`/api/tanks/${tank.body.id}`, { aquaristId: null })
     const after = await admin.get('/api/admin/attention')

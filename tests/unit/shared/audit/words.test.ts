@@ -1,7 +1,29 @@
+import { readdirSync, readFileSync } from 'node:fs'
+import { join } from 'node:path'
 import { describe, expect, it } from 'vitest'
-import { auditActionLabel, auditChanges, auditValueText } from '../../../../shared/audit/words'
+import { AUDIT_ACTION_GROUPS, AUDIT_ACTION_LABELS, auditActionLabel, auditChanges, auditValueText } from '../../../../shared/audit/words'
+
+/** Every action code the server writes: `action: 'x.y'`, including both arms of a conditional. */
+function actionsWritten(dir: string): Set<string> {
+  const found = new Set<string>()
+  for (const entry of readdirSync(dir, { withFileTypes: true, recursive: true })) {
+    if (!entry.isFile() || !entry.name.endsWith('.ts')) continue
+    const text = readFileSync(join(entry.parentPath, entry.name), 'utf8')
+    for (const line of text.matchAll(/action: ([^,}]+)/g)) {
+      for (const code of line[1]!.matchAll(/'([a-z-]+\.[a-z-]+)'/g)) found.add(code[1]!)
+    }
+  }
+  return found
+}
 
 describe('the audit trail in plain words', () => {
+  it('has words and a filter group for every action the server writes', () => {
+    const written = [...actionsWritten(join(__dirname, '../../../../server'))]
+    expect(written.length).toBeGreaterThan(20)
+    expect(written.filter(code => !AUDIT_ACTION_LABELS[code])).toEqual([])
+    expect(written.filter(code => !AUDIT_ACTION_GROUPS[code.split('.')[0]!])).toEqual([])
+  })
+
   it('names actions in words and falls back to the code for one it does not know', () => {
     expect(auditActionLabel('reading.update')).toBe('Edited a test')
     expect(auditActionLabel('something.new')).toBe('something.new')
@@ -16,16 +38,16 @@ describe('the audit trail in plain words', () => {
     ])
   })
 
-  it('walks nested settings and reads threshold names with their units', () => {
+  it('walks nested settings and reads each threshold as what it does, with its unit (THRESHOLD_SPECS)', () => {
     const changes = auditChanges(
       { reminders: { enabled: true, graceMinutes: 60 }, thresholds: { ammoniaZeroN: 0.05, temperatureMaxC: 29, calciumMinMgL: 380 } },
       { reminders: { enabled: false, graceMinutes: 60 }, thresholds: { ammoniaZeroN: 0.1, temperatureMaxC: 28, calciumMinMgL: 400 } },
     )
     expect(changes.map(c => `${c.label}: ${c.before} → ${c.after}`)).toEqual([
       'reminders: enabled: yes → no',
-      'threshold: ammonia zero (mg/L as N): 0.05 → 0.1',
-      'threshold: temperature max (°C): 29 → 28',
-      'threshold: calcium min (mg/L): 380 → 400',
+      'limit: Total ammonia at or below this reads as zero (mg/L as N): 0.05 → 0.1',
+      'limit: Temperature above this is a caution (°C): 29 → 28',
+      'limit: Stony corals wait for calcium at or above this (mg/L): 380 → 400',
     ])
   })
 
