@@ -33,6 +33,9 @@ export default defineNuxtConfig({
       maxAge: 60 * 60 * 24 * 7,
       cookie: { sameSite: 'lax', httpOnly: true, secure: true },
     },
+    // Server-side sessions (NUXT_SESSION_LIFETIME_IDLE_MINUTES, _ABSOLUTE_MINUTES): unused for
+    // 3 days or 7 days after sign-in, a session ends. The cookie's maxAge matches the absolute lifetime.
+    sessionLifetime: { idleMinutes: 3 * 24 * 60, absoluteMinutes: 7 * 24 * 60 },
     signIn: { accountFailureLimit: 8, addressFailureLimit: 30, windowMinutes: 15 },
     // NUXT_BENCH_ROUTES=1 enables the benchmark floor routes under server/api/bench (npm run bench only).
     benchRoutes: false,

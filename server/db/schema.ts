@@ -216,6 +216,25 @@ export const auditLog = sqliteTable('audit_log', {
   at: text('at').notNull().$defaultFn(now),
 }, t => [index('audit_org_at').on(t.organisationId, t.at)])
 
+/**
+ * A signed-in browser. The sealed cookie carries only a random token; the row keeps its
+ * SHA-256, so neither a copied database nor the person's own session list can rebuild a
+ * cookie. Ended rows stay (with why) until the housekeeping prunes them.
+ */
+export const sessions = sqliteTable('sessions', {
+  id: id(),
+  userId: text('user_id').notNull().references(() => users.id, { onDelete: 'cascade' }),
+  tokenHash: text('token_hash').notNull(),
+  createdAt: text('created_at').notNull(),
+  lastSeenAt: text('last_seen_at').notNull(),
+  expiresAt: text('expires_at').notNull(),
+  /** A short description of the browser, for the person's own list of sessions. */
+  userAgent: text('user_agent'),
+  address: text('address'),
+  endedAt: text('ended_at'),
+  endReason: text('end_reason'),
+}, t => [uniqueIndex('sessions_token_hash').on(t.tokenHash), index('sessions_user_idx').on(t.userId, t.endedAt)])
+
 /** Failed sign-ins, for throttling; keyed by normalised e-mail and by client address. */
 export const signInFailures = sqliteTable('sign_in_failures', {
   id: integer('id').primaryKey({ autoIncrement: true }),

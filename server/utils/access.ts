@@ -6,7 +6,7 @@
 import { and, eq, isNull, type SQL } from 'drizzle-orm'
 import type { H3Event } from 'h3'
 import type { Role, UnitSystem } from '#shared/vocabulary'
-import { tanks, users } from '../db/schema'
+import { tanks } from '../db/schema'
 
 export interface Actor {
   id: string
@@ -16,20 +16,24 @@ export interface Actor {
   /** The client record a client account belongs to; null for staff. */
   clientId: string | null
   units: UnitSystem
+  /** The server-side session this request came with. */
+  sessionId: string
 }
 
-/** 401 when signed out, 403 when the role may not use the route; the user is re-read so a deactivated account stops at once. */
+/**
+ * 401 when signed out, 403 when the role may not use the route. The session row and the
+ * person are read on every request, so a session ended anywhere (sign-out, reset,
+ * deactivation, role change, an archived client record, a lifetime running out) stops at once.
+ */
 export async function requireActor(event: H3Event, roles?: readonly Role[]): Promise<Actor> {
-  // Without a session cookie there is nothing to unseal; asking for the session anyway
-  // would create an empty one and send a fresh cookie with every 401.
-  if (!getCookie(event, useRuntimeConfig().session.name ?? 'nuxt-session')) throw createError({ statusCode: 401, statusMessage: 'Sign in to continue' })
-  const session = await getUserSession(event)
-  if (!session.user) throw createError({ statusCode: 401, statusMessage: 'Sign in to continue' })
-  const row = useDB().select().from(users).where(eq(users.id, session.user.id)).get()
-  if (!row || !row.active) {
-    await clearUserSession(event)
+  const signedIn = await resolveSignedIn(event)
+  if (!signedIn) {
+    // Only a request that brought a cookie gets the cookie cleared; otherwise asking for
+    // the session would create an empty one and send a fresh cookie with every 401.
+    if (hasSessionCookie(event)) await clearUserSession(event)
     throw createError({ statusCode: 401, statusMessage: 'Sign in to continue' })
   }
+  const row = signedIn.user
   if (roles && !roles.includes(row.role)) throw createError({ statusCode: 403, statusMessage: 'Your role may not do this' })
   return {
     id: row.id,
@@ -38,6 +42,7 @@ export async function requireActor(event: H3Event, roles?: readonly Role[]): Pro
     organisationId: row.organisationId,
     clientId: row.role === 'client' ? row.clientId : null,
     units: row.units,
+    sessionId: signedIn.sessionId,
   }
 }
 

@@ -4,10 +4,11 @@ import { passwordProblem, SetPasswordSchema } from '#shared/schemas/account'
 import { users } from '../db/schema'
 import type { TidewrightDB } from '../db/connection'
 import type { TokenPurpose } from './auth-tokens'
+import { endSessionsOfUser } from '../domain/sessions/sessions'
 
 const GONE = 'This link has expired or has already been used'
 
-/** Shared by accept-invite and reset-password: checks the token and password rules, uses the token once, sets the password and signs in. */
+/** Shared by accept-invite and reset-password: checks the token and password rules, uses the token once, sets the password, ends every older session and signs in. */
 export async function setPasswordWithToken(event: H3Event, purpose: TokenPurpose) {
   const { token, password } = await readValidatedBody(event, valid(SetPasswordSchema))
   const now = requestNow(event)
@@ -20,16 +21,17 @@ export async function setPasswordWithToken(event: H3Event, purpose: TokenPurpose
   const userId = db.transaction((tx) => {
     const t = tx as unknown as TidewrightDB
     const id = consumeToken(t, token, purpose, now)
-    if (id) t.update(users).set({ passwordHash, lastSignInAt: now.toISOString() }).where(eq(users.id, id)).run()
+    if (id) {
+      t.update(users).set({ passwordHash }).where(eq(users.id, id)).run()
+      // Whoever knew the old password (or holds a cookie from then) is out.
+      endSessionsOfUser(t, id, { reason: 'password-reset', now })
+    }
     return id
   })
   if (!userId) throw createError({ statusCode: 410, statusMessage: GONE })
   const user = db.select().from(users).where(eq(users.id, userId)).get()!
   clearSignInFailures(user.email)
   writeAudit({ id: user.id, organisationId: user.organisationId }, { action: purpose === 'invite' ? 'user.invite-accepted' : 'user.password-reset', entity: 'user', entityId: user.id })
-  await replaceUserSession(event, {
-    user: { id: user.id, name: user.name, role: user.role, organisationId: user.organisationId, units: user.units },
-    loggedInAt: new Date().toISOString(),
-  })
+  await signInAs(event, user)
   return { user: { id: user.id, name: user.name, role: user.role } }
 }

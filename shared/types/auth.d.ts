@@ -1,5 +1,6 @@
-// The signed-in user as stored in the sealed session cookie. Role and organisation are
-// re-checked against the database on every API request (server/utils/access.ts).
+// The sealed session cookie carries only a session token (server-side sessions, server/domain/sessions).
+// `user` is filled in from the database each time the browser asks for its session
+// (server/plugins/03.session-view.ts) and re-checked on every API request (server/utils/access.ts).
 import type { Role, UnitSystem } from '../vocabulary'
 
 declare module '#auth-utils' {
@@ -9,6 +10,9 @@ declare module '#auth-utils' {
     role: Role
     organisationId: string
     units: UnitSystem
+  }
+  interface SecureSessionData {
+    sessionToken?: string
   }
 }
 

@@ -20,6 +20,7 @@ import { AlertAcknowledgeSchema, AlertResolveSchema } from '../../shared/schemas
 import { ForgotPasswordSchema, InvitationSchema, SetPasswordSchema } from '../../shared/schemas/account'
 import { CompanySettingsUpdateSchema, DEFAULT_ORGANISATION_SETTINGS } from '../../shared/schemas/settings'
 import { NotificationPreferencesSchema } from '../../shared/schemas/notifications'
+import { PersonRoleSchema } from '../../shared/schemas/people'
 import { EventCorrectionSchema, ReadingCorrectionSchema, SignOffDecisionSchema, SignOffReopenSchema, SignOffRequestSchema, StartStockingSchema } from '../../shared/schemas/sign-off'
 import { ClientCreateSchema, ClientPatchSchema, SiteCreateSchema, SitePatchSchema } from '../../shared/schemas/clients'
 import { PlanTemplateSchema, StagePatchSchema } from '../../shared/schemas/plan'
@@ -191,6 +192,23 @@ function freshAlert(c: MatrixContext): string {
     values (?, ?, ?, ?, 'open', 'Access matrix alert', '{}', ?, ?, ?, ?)`, id, c.f.demo.organisationId, c.f.demo.tanks.study, kind, now, `${c.f.demo.tanks.study}:${kind}`, now, now)
   return id
 }
+let personCounter = 0
+/** A fresh aquarist of the demo company, so deactivating or moving one never touches a persona. */
+function freshPerson(c: MatrixContext): string {
+  const id = crypto.randomUUID()
+  const now = new Date().toISOString()
+  c.run(`insert into users (id, organisation_id, email, name, role, units, active, created_at, updated_at) values (?, ?, ?, 'Matrix Person', 'aquarist', 'metric', 1, ?, ?)`,
+    id, c.f.demo.organisationId, `matrix-person-${++personCounter}@tidewright.test`, now, now)
+  return id
+}
+/** A live session of client3@ (no persona): everyone else's attempt to end it is a 404. */
+function someoneElsesSession(c: MatrixContext): string {
+  const id = `matrix-session-${String(++personCounter).padStart(7, '0')}`
+  const now = new Date()
+  c.run(`insert into sessions (id, user_id, token_hash, created_at, last_seen_at, expires_at) values (?, ?, ?, ?, ?, ?)`,
+    id, c.f.demo.users.client3, `matrix-${id}`, now.toISOString(), now.toISOString(), new Date(now.getTime() + 86_400_000).toISOString())
+  return id
+}
 /** A fresh unread notice for aquarist@ (only its owner may mark it read). */
 function freshNotice(c: MatrixContext): string {
   const id = crypto.randomUUID()
@@ -218,16 +236,10 @@ function signedOffNano(c: MatrixContext): Promise<string> {
 let inviteCounter = 0
 const UNUSED_TOKEN = 'A'.repeat(43)
 
-/** A staff account made for one matrix route, so deactivating or resetting it touches no persona. */
-const matrixPeople = new Map<string, string>()
-function matrixPerson(c: MatrixContext, purpose: string): string {
-  const known = matrixPeople.get(purpose)
-  if (known) return known
-  const id = crypto.randomUUID()
-  const now = new Date().toISOString()
-  c.run(`insert into users (id, organisation_id, email, name, role, password_hash, units, active, created_at, updated_at) values (?, ?, ?, ?, 'aquarist', 'not-a-usable-hash', 'metric', 1, ?, ?)`,
-    id, c.f.demo.organisationId, `matrix-${purpose}@tidewright.test`, `Matrix ${purpose}`, now, now)
-  matrixPeople.set(purpose, id)
+/** A fresh staff account that has chosen a password, so a reset link may be sent to it. */
+function acceptedPerson(c: MatrixContext): string {
+  const id = freshPerson(c)
+  c.run(`update users set password_hash = 'not-a-usable-hash' where id = ?`, id)
   return id
 }
 /** A fresh client invitation nobody accepted, with a live link, for each call. */
@@ -245,9 +257,9 @@ function freshInvitation(c: MatrixContext): string {
 const settingsVersion = (c: MatrixContext) => c.query<{ v: number }>('select settings_version as v from organisations where id = ?', c.f.demo.organisationId)[0]!.v
 const settingsBody = (c: MatrixContext) => ({ name: 'Saltline Reef Services', settings: structuredClone(DEFAULT_ORGANISATION_SETTINGS), version: settingsVersion(c) })
 /** Company administration: the admin alone; other companies' staff are refused by role before anything is looked up. */
-const adminOnly = (ok = 200): Expectations => ({ signedOut: 401, admin: ok, aquarist: 403, supervisor: 403, client: 403, otherClient: 403, otherCompany: 403 })
+const adminOnly = (ok = 200): Expectations => ({ ...staffList(403), admin: ok })
 /** The audit trail: admins, and supervisors for their own tanks. */
-const auditReader = (ok = 200): Expectations => ({ signedOut: 401, admin: ok, aquarist: 403, supervisor: ok, client: 403, otherClient: 403, otherCompany: 403 })
+const auditReader = (ok = 200): Expectations => ({ ...staffList(403), admin: ok, supervisor: ok })
 
 export const ACCESS_MATRIX: Record<string, MatrixEntry> = {
   'ANY /api/[...path]': {
@@ -314,6 +326,31 @@ export const ACCESS_MATRIX: Record<string, MatrixEntry> = {
     fuzz: { as: 'aquarist', schema: ARCHIVE_BODY, validBody: () => ({ archived: false }) },
   },
   'GET /api/staff': { url: () => '/api/staff', expect: staffList() },
+
+  // People (admins only) and a person's own sessions
+  'POST /api/people/[id]/deactivate': {
+    url: c => `/api/people/${freshPerson(c)}/deactivate`,
+    expect: { ...staffList(403), admin: 200 },
+    fuzz: 'no-body',
+  },
+  'POST /api/people/[id]/reactivate': {
+    url: c => `/api/people/${freshPerson(c)}/reactivate`,
+    expect: { ...staffList(403), admin: 200 },
+    fuzz: 'no-body',
+  },
+  'PATCH /api/people/[id]/role': {
+    url: c => `/api/people/${freshPerson(c)}/role`,
+    body: () => ({ role: 'supervisor' }),
+    expect: { ...staffList(403), admin: 200 },
+    fuzz: { as: 'admin', schema: PersonRoleSchema, validBody: () => ({ role: 'supervisor' }) },
+  },
+  'GET /api/me/sessions': { url: () => '/api/me/sessions', expect: anySignedIn() },
+  'POST /api/me/sessions/[id]/end': {
+    url: c => `/api/me/sessions/${someoneElsesSession(c)}/end`,
+    expect: anySignedIn(404),
+    fuzz: 'no-body',
+  },
+  'POST /api/me/sessions/end-others': { url: () => '/api/me/sessions/end-others', expect: anySignedIn(), fuzz: 'no-body' },
 
   // Plan template and stages
   'GET /api/plan-template': { url: () => '/api/plan-template', expect: staffList() },
@@ -541,7 +578,7 @@ export const ACCESS_MATRIX: Record<string, MatrixEntry> = {
 
   // Company administration: people, invitations, settings, audit trail
   'GET /api/people': { url: () => '/api/people', expect: { signedOut: 401, admin: 200, aquarist: 200, supervisor: 403, client: 403, otherClient: 403, otherCompany: 200 } },
-  'POST /api/people/[id]/password-reset': { url: c => `/api/people/${matrixPerson(c, 'reset')}/password-reset`, expect: adminOnly(), fuzz: 'no-body' },
+  'POST /api/people/[id]/password-reset': { url: c => `/api/people/${acceptedPerson(c)}/password-reset`, expect: adminOnly(), fuzz: 'no-body' },
   'POST /api/invitations/[id]/resend': { url: c => `/api/invitations/${freshInvitation(c)}/resend`, expect: recordManager(), fuzz: 'no-body' },
   'DELETE /api/invitations/[id]': { url: c => `/api/invitations/${freshInvitation(c)}`, expect: recordManager() },
   'GET /api/admin/attention': { url: () => '/api/admin/attention', expect: adminOnly() },

@@ -41,7 +41,26 @@ export async function openPage(browser: Browser, width = 1280): Promise<WatchedP
     // 401s are how a signed-out page learns it is signed out; everything else >= 400 is a problem.
     if (response.status() >= 400 && response.status() !== 401) problems.push(`${response.status()} ${response.url()}`)
   })
+  // A full page load is only usable once Vue has hydrated it: a click before then submits a
+  // form natively or is lost, which a loaded machine turns into a failed test. Every goto
+  // therefore waits for hydration, as a person waits for the page to respond.
+  const goto = page.goto.bind(page)
+  page.goto = async (url, options) => {
+    const response = await goto(url, options)
+    await waitForHydration(page)
+    return response
+  }
   return { page, context, problems }
+}
+
+/** Resolves when Nuxt has finished hydrating the page (or the page is not a Nuxt page). */
+export async function waitForHydration(page: Page): Promise<void> {
+  await page.waitForFunction(() => {
+    const root = document.querySelector('#__nuxt') as (Element & { __vue_app__?: { config: { globalProperties: { $nuxt?: { isHydrating?: boolean } } } } }) | null
+    if (!root) return true
+    const nuxt = root.__vue_app__?.config.globalProperties.$nuxt
+    return nuxt !== undefined && nuxt.isHydrating === false
+  }, undefined, { timeout: 30_000 })
 }
 
 /** Saves a full-page screenshot under tests/browser/screenshots for people to look at. */

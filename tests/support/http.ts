@@ -36,6 +36,13 @@ export class ApiClient {
   patch<T = any>(path: string, body?: unknown) { return this.request<T>('PATCH', path, body ?? {}) }
   delete<T = any>(path: string) { return this.request<T>('DELETE', path) }
 
+  /** Another client holding the same cookies now: a replayed or stolen cookie once this one moves on. */
+  copy(): ApiClient {
+    const twin = new ApiClient(this.baseURL)
+    for (const [name, value] of this.cookies) twin.cookies.set(name, value)
+    return twin
+  }
+
   cookieHeader(): string {
     return [...this.cookies].map(([k, v]) => `${k}=${v}`).join('; ')
   }

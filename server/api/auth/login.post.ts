@@ -29,10 +29,6 @@ export default defineEventHandler(async (event) => {
   }
 
   clearSignInFailures(email)
-  useDB().update(users).set({ lastSignInAt: new Date().toISOString() }).where(eq(users.id, user.id)).run()
-  await replaceUserSession(event, {
-    user: { id: user.id, name: user.name, role: user.role, organisationId: user.organisationId, units: user.units },
-    loggedInAt: new Date().toISOString(),
-  })
+  await signInAs(event, user)
   return { user: { id: user.id, name: user.name, role: user.role } }
 })

@@ -1,0 +1,8 @@
+import { endSessionsOfUser } from '../../../domain/sessions/sessions'
+
+/** POST /api/me/sessions/end-others — ends every session of the signed-in person except this one. Returns { ended: number }. */
+export default defineEventHandler(async (event) => {
+  const actor = await requireActor(event)
+  const ended = endSessionsOfUser(useDB(), actor.id, { except: actor.sessionId, reason: 'ended-by-person', now: requestNow(event) })
+  return { ended }
+})

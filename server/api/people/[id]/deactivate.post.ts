@@ -1,0 +1,9 @@
+import { IdParams } from '#shared/schemas/common'
+import { deactivatePerson } from '../../../domain/people/people'
+
+/** POST /api/people/:id/deactivate — admin only: the person can no longer sign in and their sessions end now. Returns { person: PersonView }. */
+export default defineEventHandler(async (event) => {
+  const actor = await requireActor(event, ['admin'])
+  const { id } = await getValidatedRouterParams(event, valid(IdParams))
+  return { person: personChange(() => deactivatePerson(useDB(), actor, id, requestNow(event))) }
+})

@@ -1,0 +1,91 @@
+/**
+ * A company's people, framework-free: deactivation, reactivation and role changes. Each
+ * ends the person's sessions and writes its audit row in the same transaction, and none
+ * may leave the company without an active admin.
+ */
+import { and, eq, ne, sql } from 'drizzle-orm'
+import type { StaffRole } from '#shared/vocabulary'
+import type { TidewrightDB } from '../../db/connection'
+import { users } from '../../db/schema'
+import { recordAudit, type AuditWho } from '../audit/record'
+import { endSessionsOfUser } from '../sessions/sessions'
+
+export interface PersonView {
+  id: string
+  name: string
+  email: string
+  role: typeof users.$inferSelect.role
+  active: boolean
+}
+
+/** Why a change to a person was refused; the route turns it into a 404 or 409. */
+export class PersonChangeRefused extends Error {
+  constructor(readonly status: 404 | 409, message: string) {
+    super(message)
+  }
+}
+
+type Actor = AuditWho & { id: string }
+
+function toView(row: typeof users.$inferSelect): PersonView {
+  return { id: row.id, name: row.name, email: row.email, role: row.role, active: row.active }
+}
+
+function findPerson(db: TidewrightDB, actor: Actor, personId: string) {
+  const row = db.select().from(users).where(and(eq(users.id, personId), eq(users.organisationId, actor.organisationId))).get()
+  if (!row) throw new PersonChangeRefused(404, 'Person not found')
+  return row
+}
+
+function otherActiveAdmins(db: TidewrightDB, organisationId: string, personId: string): number {
+  return db.select({ n: sql<number>`count(*)` }).from(users).where(and(
+    eq(users.organisationId, organisationId), eq(users.role, 'admin'), eq(users.active, true), ne(users.id, personId),
+  )).get()?.n ?? 0
+}
+
+const LAST_ADMIN = 'The company needs at least one active admin. Make someone else an admin first.'
+
+/** Deactivates a person: they cannot sign in, and every session of theirs ends now. */
+export function deactivatePerson(db: TidewrightDB, actor: Actor, personId: string, now = new Date()): PersonView {
+  return db.transaction((tx) => {
+    const t = tx as unknown as TidewrightDB
+    const before = findPerson(t, actor, personId)
+    if (before.id === actor.id) throw new PersonChangeRefused(409, 'You cannot deactivate your own account. Ask another admin.')
+    if (before.role === 'admin' && otherActiveAdmins(t, actor.organisationId, personId) === 0) throw new PersonChangeRefused(409, LAST_ADMIN)
+    if (!before.active) return toView(before)
+    const after = t.update(users).set({ active: false }).where(eq(users.id, personId)).returning().get()
+    const ended = endSessionsOfUser(t, personId, { reason: 'deactivated', now })
+    recordAudit(t, actor, { action: 'user.deactivate', entity: 'user', entityId: personId, before: toView(before), after: { ...toView(after), sessionsEnded: ended } })
+    return toView(after)
+  })
+}
+
+/** Lets a deactivated person sign in again (their old sessions stay ended). */
+export function reactivatePerson(db: TidewrightDB, actor: Actor, personId: string): PersonView {
+  return db.transaction((tx) => {
+    const t = tx as unknown as TidewrightDB
+    const before = findPerson(t, actor, personId)
+    if (before.active) return toView(before)
+    const after = t.update(users).set({ active: true }).where(eq(users.id, personId)).returning().get()
+    recordAudit(t, actor, { action: 'user.reactivate', entity: 'user', entityId: personId, before: toView(before), after: toView(after) })
+    return toView(after)
+  })
+}
+
+/**
+ * Moves a staff member to another staff role and ends their sessions, so the new role
+ * applies from their next sign-in everywhere. Client accounts keep their role.
+ */
+export function changePersonRole(db: TidewrightDB, actor: Actor, personId: string, role: StaffRole, now = new Date()): PersonView {
+  return db.transaction((tx) => {
+    const t = tx as unknown as TidewrightDB
+    const before = findPerson(t, actor, personId)
+    if (before.role === role) return toView(before)
+    if (before.role === 'client') throw new PersonChangeRefused(409, 'A client account keeps its role. Invite the person as staff with another address.')
+    if (before.role === 'admin' && before.active && otherActiveAdmins(t, actor.organisationId, personId) === 0) throw new PersonChangeRefused(409, LAST_ADMIN)
+    const after = t.update(users).set({ role }).where(eq(users.id, personId)).returning().get()
+    const ended = endSessionsOfUser(t, personId, { reason: 'role-changed', now })
+    recordAudit(t, actor, { action: 'user.role-change', entity: 'user', entityId: personId, before: toView(before), after: { ...toView(after), sessionsEnded: ended } })
+    return toView(after)
+  })
+}

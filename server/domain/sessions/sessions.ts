@@ -1,0 +1,138 @@
+/**
+ * Server-side sessions, framework-free: the cookie names a row here and the row decides.
+ * Every way a session ends (sign-out, password reset, deactivation, role change, the
+ * person ending it, a lifetime running out) is one UPDATE of `ended_at`, never a delete,
+ * so a replayed cookie finds an ended row and is refused.
+ */
+import { createHash, randomBytes } from 'node:crypto'
+import { and, desc, eq, gt, isNull, lt, ne, or } from 'drizzle-orm'
+import type { TidewrightDB } from '../../db/connection'
+import { sessions } from '../../db/schema'
+import { addressGroup } from '../net/address-group'
+
+export const SESSION_END_REASONS = [
+  'signed-out', 'ended-by-person', 'password-reset', 'deactivated', 'role-changed', 'idle', 'expired',
+] as const
+export type SessionEndReason = typeof SESSION_END_REASONS[number]
+
+export interface SessionLifetimes {
+  /** A session unused this long ends. */
+  idleMs: number
+  /** A session ends this long after sign-in, used or not. */
+  absoluteMs: number
+}
+
+/** How often a session's last-seen time is written: reads stay reads most of the time. */
+const TOUCH_EVERY_MS = 60_000
+/** Ended and expired rows are kept this long for the person's record, then pruned. */
+const KEEP_ENDED_MS = 30 * 86_400_000
+
+export type SessionRow = typeof sessions.$inferSelect
+
+/** The stored form of a cookie token: SHA-256, hex. */
+export function hashSessionToken(token: string): string {
+  return createHash('sha256').update(token).digest('hex')
+}
+
+/** Opens a session; returns the token the sealed cookie carries (256 random bits) and the row id. */
+export function startSession(db: TidewrightDB, input: { userId: string, now: Date, lifetimes: SessionLifetimes, userAgent?: string | null, address?: string | null }): { token: string, id: string } {
+  const token = randomBytes(32).toString('base64url')
+  const at = input.now.toISOString()
+  const row = db.insert(sessions).values({
+    id: randomBytes(16).toString('base64url'),
+    userId: input.userId,
+    tokenHash: hashSessionToken(token),
+    createdAt: at,
+    lastSeenAt: at,
+    expiresAt: new Date(input.now.getTime() + input.lifetimes.absoluteMs).toISOString(),
+    userAgent: summariseUserAgent(input.userAgent),
+    address: input.address ? addressGroup(input.address) : null,
+  }).returning({ id: sessions.id }).get()
+  return { token, id: row.id }
+}
+
+export type SessionCheck
+  = | { live: true, session: SessionRow }
+    | { live: false, reason: 'unknown' | 'ended' | SessionEndReason }
+
+/**
+ * The session behind a cookie token at `now`. A session past its idle or absolute lifetime
+ * is ended here, so it stays ended even if the clock is later read differently.
+ */
+export function checkSession(db: TidewrightDB, token: string, now: Date, lifetimes: SessionLifetimes): SessionCheck {
+  const row = db.select().from(sessions).where(eq(sessions.tokenHash, hashSessionToken(token))).get()
+  if (!row) return { live: false, reason: 'unknown' }
+  if (row.endedAt) return { live: false, reason: 'ended' }
+  const at = now.getTime()
+  const lapsed: SessionEndReason | null = at >= Date.parse(row.expiresAt)
+    ? 'expired'
+    : at - Date.parse(row.lastSeenAt) >= lifetimes.idleMs ? 'idle' : null
+  if (lapsed) {
+    endSession(db, row.id, lapsed, now)
+    return { live: false, reason: lapsed }
+  }
+  if (at - Date.parse(row.lastSeenAt) >= TOUCH_EVERY_MS) {
+    db.update(sessions).set({ lastSeenAt: now.toISOString() }).where(eq(sessions.id, row.id)).run()
+  }
+  return { live: true, session: row }
+}
+
+/** Ends one session; true if it was live. */
+export function endSession(db: TidewrightDB, sessionId: string, reason: SessionEndReason, now = new Date()): boolean {
+  const done = db.update(sessions).set({ endedAt: now.toISOString(), endReason: reason })
+    .where(and(eq(sessions.id, sessionId), isNull(sessions.endedAt))).run()
+  return done.changes > 0
+}
+
+/** Ends the live session with this cookie token, if any (sign-out). */
+export function endSessionByToken(db: TidewrightDB, token: string, reason: SessionEndReason, now = new Date()): void {
+  db.update(sessions).set({ endedAt: now.toISOString(), endReason: reason })
+    .where(and(eq(sessions.tokenHash, hashSessionToken(token)), isNull(sessions.endedAt))).run()
+}
+
+/**
+ * Ends every live session of a person at once, except (optionally) one: used by password
+ * reset, deactivation, role change and "end all my other sessions". Returns how many ended.
+ */
+export function endSessionsOfUser(db: TidewrightDB, userId: string, options: { except?: string, reason?: SessionEndReason, now?: Date } = {}): number {
+  const conditions = [eq(sessions.userId, userId), isNull(sessions.endedAt)]
+  if (options.except) conditions.push(ne(sessions.id, options.except))
+  const done = db.update(sessions)
+    .set({ endedAt: (options.now ?? new Date()).toISOString(), endReason: options.reason ?? 'ended-by-person' })
+    .where(and(...conditions)).run()
+  return done.changes
+}
+
+/** A person's sessions that are still live at `now`, newest activity first. */
+export function liveSessionsOfUser(db: TidewrightDB, userId: string, now: Date, lifetimes: SessionLifetimes): SessionRow[] {
+  const idleSince = new Date(now.getTime() - lifetimes.idleMs).toISOString()
+  return db.select().from(sessions).where(and(
+    eq(sessions.userId, userId),
+    isNull(sessions.endedAt),
+    gt(sessions.expiresAt, now.toISOString()),
+    gt(sessions.lastSeenAt, idleSince),
+  )).orderBy(desc(sessions.lastSeenAt)).all()
+}
+
+/** Deletes sessions ended or expired more than 30 days ago; returns how many. */
+export function pruneSessions(db: TidewrightDB, now = new Date()): number {
+  const before = new Date(now.getTime() - KEEP_ENDED_MS).toISOString()
+  return db.delete(sessions).where(or(lt(sessions.endedAt, before), lt(sessions.expiresAt, before))).run().changes
+}
+
+/** "Firefox on Linux"-style summary: enough for a person to recognise a device, no fingerprint kept. */
+export function summariseUserAgent(userAgent: string | null | undefined): string | null {
+  if (!userAgent) return null
+  const browser = /Edg\//.test(userAgent)
+    ? 'Edge'
+    : /Firefox\//.test(userAgent)
+      ? 'Firefox'
+      : /Chrome\/|Chromium\//.test(userAgent) ? 'Chrome' : /Safari\//.test(userAgent) ? 'Safari' : null
+  const system = /iPhone|iPad/.test(userAgent)
+    ? 'iOS'
+    : /Android/.test(userAgent)
+      ? 'Android'
+      : /Mac OS X/.test(userAgent) ? 'macOS' : /Windows/.test(userAgent) ? 'Windows' : /Linux/.test(userAgent) ? 'Linux' : null
+  if (browser && system) return `${browser} on ${system}`
+  return browser ?? system ?? userAgent.slice(0, 60)
+}

@@ -1,0 +1,24 @@
+/**
+ * What the browser learns about its session (GET /api/_auth/session, also during SSR) comes
+ * from the database, not from the cookie: the person as they are now, or nobody when the
+ * session has ended. Clearing the session (sign-out, DELETE /api/_auth/session) ends its row.
+ */
+import { endSessionByToken } from '../domain/sessions/sessions'
+
+export default defineNitroPlugin(() => {
+  sessionHooks.hook('fetch', async (session, event) => {
+    const signedIn = await resolveSignedIn(event)
+    delete session.secure
+    if (!signedIn) {
+      delete session.user
+      if (hasSessionCookie(event)) await clearUserSession(event)
+      return
+    }
+    const { user } = signedIn
+    session.user = { id: user.id, name: user.name, role: user.role, organisationId: user.organisationId, units: user.units }
+  })
+  sessionHooks.hook('clear', (session, event) => {
+    const token = session.secure?.sessionToken
+    if (token) endSessionByToken(useDB(), token, 'signed-out', requestNow(event))
+  })
+})

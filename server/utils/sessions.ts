@@ -1,0 +1,72 @@
+/**
+ * Nitro glue for server-side sessions (server/domain/sessions): the sealed nuxt-auth-utils
+ * cookie carries only `secure.sessionToken`; who the person is comes from the database on
+ * every request. Lifetimes from runtimeConfig.sessionLifetime (NUXT_SESSION_LIFETIME_*).
+ */
+import type { H3Event } from 'h3'
+import { eq } from 'drizzle-orm'
+import { checkSession, startSession, type SessionLifetimes } from '../domain/sessions/sessions'
+import { clients, users } from '../db/schema'
+
+type UserRow = typeof users.$inferSelect
+
+/** Idle and absolute lifetimes from the runtime config. */
+export function sessionLifetimes(): SessionLifetimes {
+  const { idleMinutes, absoluteMinutes } = useRuntimeConfig().sessionLifetime
+  return { idleMs: Number(idleMinutes) * 60_000, absoluteMs: Number(absoluteMinutes) * 60_000 }
+}
+
+/** The address a request came from, as far as this server trusts it. */
+export function clientAddress(event: H3Event): string | null {
+  return getRequestIP(event) ?? null
+}
+
+/** Opens a server-side session for the user and seals its token into the cookie (replacing any older one); notes the sign-in for the people list. */
+export async function signInAs(event: H3Event, user: Pick<UserRow, 'id'>): Promise<void> {
+  const now = requestNow(event)
+  // Kept on the person: session rows are pruned, the last sign-in an admin reads should not be.
+  useDB().update(users).set({ lastSignInAt: now.toISOString() }).where(eq(users.id, user.id)).run()
+  const { token } = startSession(useDB(), {
+    userId: user.id,
+    now,
+    lifetimes: sessionLifetimes(),
+    userAgent: getHeader(event, 'user-agent'),
+    address: clientAddress(event),
+  })
+  await replaceUserSession(event, { secure: { sessionToken: token } })
+}
+
+/** Whether the request brought a session cookie at all (asking for the session without one would create one). */
+export function hasSessionCookie(event: H3Event): boolean {
+  return Boolean(getCookie(event, useRuntimeConfig().session.name ?? 'nuxt-session'))
+}
+
+/** The token in the request's sealed cookie, without creating a session when there is no cookie. */
+export async function sessionTokenOf(event: H3Event): Promise<string | null> {
+  if (!hasSessionCookie(event)) return null
+  const session = await getUserSession(event)
+  return session.secure?.sessionToken ?? null
+}
+
+export interface SignedIn {
+  sessionId: string
+  user: UserRow
+}
+
+/**
+ * The live session and its person, or null: no cookie, an unknown, ended or lapsed session,
+ * a deactivated person, or a client whose client record is archived.
+ */
+export async function resolveSignedIn(event: H3Event): Promise<SignedIn | null> {
+  const token = await sessionTokenOf(event)
+  if (!token) return null
+  const db = useDB()
+  const check = checkSession(db, token, requestNow(event), sessionLifetimes())
+  if (!check.live) return null
+  const row = db.select({ user: users, clientArchivedAt: clients.archivedAt }).from(users)
+    .leftJoin(clients, eq(clients.id, users.clientId))
+    .where(eq(users.id, check.session.userId)).get()
+  if (!row || !row.user.active) return null
+  if (row.user.role === 'client' && row.clientArchivedAt) return null
+  return { sessionId: check.session.id, user: row.user }
+}
