@@ -102,16 +102,17 @@ describe('account follow-up by the admin', () => {
 })
 
 describe('GET /api/admin/attention', () => {
-  it('names pending invitations and tanks with no aquarist', async () => {
+  it('names pending invitations, deactivated people still on open tanks and tanks with no aquarist', async () => {
     const co = await seedScratchCompany('people-attention')
     const admin = await signedIn(co.emails.admin)
     const tank = await admin.post('/api/tanks', { name: 'Attention reef', clientId: co.clientId, shape: 'rectangular', dimensions: { lengthMm: 900, widthMm: 450, heightMm: 500 }, aquaristId: co.ids.aquarist })
     expect(tank.status).toBe(201)
     await admin.post('/api/invitations', { email: `pending-${co.organisationId.slice(0, 8)}@scratch.test`, name: 'Pending Person', role: 'aquarist' })
+    expect((await admin.post(`/api/people/${co.ids.aquarist}/deactivate`)).status).toBe(200)
     const attention = await admin.get('/api/admin/attention')
     expect(attention.status).toBe(200)
     expect(attention.body.pendingInvitations.map((p: { name: string }) => p.name)).toEqual(['Pending Person'])
-    expect(attention.body.deactivatedWithTanks).toEqual([])
+    expect(attention.body.deactivatedWithTanks).toEqual([expect.objectContaining({ id: co.ids.aquarist, openTanks: 1 })])
     expect(attention.body.unassignedTanks).toEqual([])
     await admin.patch(`/api/tanks/${tank.body.id}`, { aquaristId: null })
     const after = await admin.get('/api/admin/attention')
