@@ -1,5 +1,5 @@
 /** API response shapes for the company's people (staff and client accounts) and its admin home. */
-import type { Role } from './roles'
+import type { Role, UnitSystem } from '../vocabulary'
 
 /** Where an account stands: signing in, invited and not yet accepted (or the link ran out), or switched off. */
 export const PERSON_STATUSES = ['active', 'invited', 'invitation-expired', 'deactivated'] as const
@@ -11,7 +11,7 @@ export interface PersonView {
   email: string
   role: Role
   status: PersonStatus
-  units: 'us' | 'metric'
+  units: UnitSystem
   lastSignInAt: string | null
   /** For client accounts: the client record they belong to. */
   clientName: string | null
