@@ -55,7 +55,6 @@ export const users = sqliteTable('users', {
   /** For role `client`: the client record whose tanks this account may see. */
   clientId: text('client_id').references(() => clients.id, { onDelete: 'set null' }),
   active: integer('active', { mode: 'boolean' }).notNull().default(true),
-  lastSignInAt: text('last_sign_in_at'),
   ...timestamps,
 }, t => [
   uniqueIndex('users_email_unique').on(t.email),

@@ -21,14 +21,11 @@ export function clientAddress(event: H3Event): string | null {
   return getRequestIP(event) ?? null
 }
 
-/** Opens a server-side session for the user and seals its token into the cookie (replacing any older one); notes the sign-in for the people list. */
+/** Opens a server-side session for the user and seals its token into the cookie (replacing any older one). */
 export async function signInAs(event: H3Event, user: Pick<UserRow, 'id'>): Promise<void> {
-  const now = requestNow(event)
-  // Kept on the person: session rows are pruned, the last sign-in an admin reads should not be.
-  useDB().update(users).set({ lastSignInAt: now.toISOString() }).where(eq(users.id, user.id)).run()
   const { token } = startSession(useDB(), {
     userId: user.id,
-    now,
+    now: requestNow(event),
     lifetimes: sessionLifetimes(),
     userAgent: getHeader(event, 'user-agent'),
     address: clientAddress(event),

@@ -12,6 +12,7 @@ export interface PersonView {
   role: Role
   status: PersonStatus
   units: UnitSystem
+  /** The newest sign-in still on record (sessions are kept 30 days after they end); null when none is. */
   lastSignInAt: string | null
   /** For client accounts: the client record they belong to. */
   clientName: string | null

@@ -18,7 +18,7 @@ async function companyWithHistory(label: string) {
   const unsupervised = await make('Other reef', null)
   const aquarist = await signedIn(co.emails.aquarist)
   const entered = await aquarist.post(`/api/tanks/${supervised}/readings`, reading(new Date(Date.now() - 3_600_000), 0.5))
-  expect(entered.status).toBe(201)
+  expect(entered.status, JSON.stringify(entered.body)).toBe(201)
   const edited = await aquarist.patch(`/api/tanks/${supervised}/readings/${entered.body.id}`, { ...reading(new Date(Date.now() - 3_600_000), 0.25), notes: 'Re-read the card' })
   expect(edited.status).toBe(200)
   await admin.patch(`/api/tanks/${unsupervised}`, { name: 'Other reef, renamed' })

@@ -12,6 +12,8 @@ import { clients, tanks, users } from '../../db/schema'
 // Columns written out in full: drizzle drops table names in single-table selects, which would break the correlation.
 const newestInvite = sql`(select max(t."expires_at") from "auth_tokens" t where t."user_id" = "users"."id" and t."purpose" = 'invite' and t."used_at" is null)`
 const invitedAt = sql<string | null>`(select max(t."created_at") from "auth_tokens" t where t."user_id" = "users"."id" and t."purpose" = 'invite')`
+// From the sessions table, which keeps a session 30 days after it ends: older sign-ins read as none.
+const lastSignIn = sql<string | null>`(select max(s."created_at") from "sessions" s where s."user_id" = "users"."id")`
 const openTanks = sql<number>`(select count(*) from "tanks" k where k."archived_at" is null and (k."aquarist_id" = "users"."id" or k."supervisor_id" = "users"."id"))`
 
 /** The status of each account as SQL, so the list can filter and show it alike. */
@@ -38,7 +40,7 @@ export function listPeople(db: TidewrightDB, actor: { organisationId: string, ro
   if (query.status) conditions.push(sql`${status} = ${query.status}`)
   const where = and(...conditions)
   const rows = db.select({
-    user: users, status, expiresAt: sql<string | null>`${newestInvite}`, invitedAt, openTanks, clientName: clients.name,
+    user: users, status, expiresAt: sql<string | null>`${newestInvite}`, invitedAt, lastSignIn, openTanks, clientName: clients.name,
   }).from(users).leftJoin(clients, eq(clients.id, users.clientId)).where(where)
     .orderBy(asc(sql`lower(${users.name})`), asc(users.id))
     .limit(query.pageSize).offset((query.page - 1) * query.pageSize).all()
@@ -51,7 +53,7 @@ export function listPeople(db: TidewrightDB, actor: { organisationId: string, ro
       role: r.user.role,
       status: r.status,
       units: r.user.units,
-      lastSignInAt: r.user.lastSignInAt,
+      lastSignInAt: r.lastSignIn,
       clientName: r.clientName,
       invitedAt: r.user.passwordHash === null ? r.invitedAt : null,
       invitationExpiresAt: r.user.passwordHash === null ? r.expiresAt : null,
