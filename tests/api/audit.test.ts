@@ -3,7 +3,7 @@ import { seedScratchCompany } from '../support/company'
 import { signedIn } from '../support/http'
 
 const reading = (at: Date, ammonia: number) => ({
-  takenAt: at.toISOString(), ammonia, nitrite: 0, nitrate: 5, basis: { ammonia: 'NH3', nitrite: 'NO2', nitrate: 'NO3' },
+  takenAt: at.toISOString(), ammonia, nitrite: 0, nitrate: 5, basis: { ammonia: 'NH3', nitrite: 'NO2', nitrate: 'NO3' }, temperatureUnit: 'C', salinityMode: 'practical',
 })
 
 async function companyWithHistory(label: string) {

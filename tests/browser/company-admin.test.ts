@@ -32,7 +32,7 @@ describe('company administration', () => {
     await admin.page.getByRole('button', { name: 'Deactivate', exact: true }).click()
     await admin.page.getByRole('button', { name: 'Yes, deactivate' }).click()
     await expect.poll(() => admin.page.getByRole('status').filter({ hasText: 'signed out everywhere' }).isVisible()).toBe(true)
-    await expect.poll(() => admin.page.getByText('Deactivated', { exact: true }).first().isVisible()).toBe(true)
+    await expect.poll(() => admin.page.getByRole('list', { name: 'People' }).getByText('Deactivated', { exact: true }).isVisible()).toBe(true)
 
     // The aquarist's very next request is refused, and the next page they open is the sign-in page.
     expect(await aquarist.page.evaluate(async () => (await fetch('/api/tanks')).status)).toBe(401)
@@ -54,7 +54,7 @@ describe('company administration', () => {
     await page.waitForURL(/\/admin$/)
     await page.getByRole('link', { name: /Company settings/ }).click()
     await page.waitForURL(/\/settings$/)
-    await page.getByText('zero and rise', { exact: true }).click()
+    await page.getByText('Zero and rise', { exact: true }).click()
     const field = page.getByRole('textbox', { name: 'Total ammonia at or below this reads as zero.' })
     await field.fill('0.9')
     await page.getByRole('button', { name: 'Save settings' }).click()
