@@ -1,10 +1,15 @@
+import { fileURLToPath } from 'node:url'
 import { defineConfig } from 'vitest/config'
+
+const here = (path: string) => fileURLToPath(new URL(path, import.meta.url))
 
 // Three tiers: pure unit tests, API tests against the built server, browser tests in Chromium.
 export default defineConfig({
   test: {
     projects: [
       {
+        // app/ code under unit test names its neighbours by the Nuxt aliases.
+        resolve: { alias: { '~': here('./app'), '#shared': here('./shared') } },
         test: {
           name: 'unit',
           environment: 'node',

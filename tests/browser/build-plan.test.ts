@@ -151,7 +151,7 @@ describe('building a tank through its plan', () => {
     expect(await addSite.getByLabel('Site name').inputValue()).toBe('')
     await screenshot(page, 'client-detail-375')
     // Editing the tank: the form opens with its values in inches and saves.
-    await page.goto(tankUrl.replace('/tanks/', '/tanks/edit/'))
+    await page.goto(`${tankUrl}/edit`)
     expect(await page.getByLabel('Length (in)').inputValue()).toBe('48')
     await page.getByLabel('Tank name').fill('Orchard room reef (renamed)')
     await page.getByRole('button', { name: 'Save changes' }).click()

@@ -1,0 +1,127 @@
+import * as v from 'valibot'
+import { nextTick } from 'vue'
+import { describe, expect, it } from 'vitest'
+import { CHECK_FIELDS, leaves, unshown, useSchemaForm, withoutFields } from '../../../../app/composables/useSchemaForm'
+import type { FieldErrors } from '../../../../app/utils/api-error'
+
+const ClientSchema = v.object({
+  name: v.pipe(v.string(), v.trim(), v.minLength(1, 'Give the client a name.')),
+  email: v.pipe(v.string(), v.email('Enter an e-mail address.')),
+  notes: v.optional(v.string()),
+})
+const blank = () => ({ name: '', email: '', notes: '' })
+const failed = (data: unknown) => Object.assign(new Error('request failed'), { data })
+
+/** Stands in for the form element: remembers which control was focused. */
+function fakeForm(invalidId: string | null) {
+  const focused: string[] = []
+  const form = {
+    querySelector: (selector: string) => (selector === '[aria-invalid="true"]' && invalidId
+      ? { focus: () => focused.push(invalidId), scrollIntoView: () => undefined }
+      : null),
+  }
+  return { event: { currentTarget: form } as unknown as Event, focused }
+}
+
+describe('useSchemaForm', () => {
+  it('reports every field the schema refuses at once, and sends nothing', async () => {
+    const form = useSchemaForm(ClientSchema, blank())
+    const sent: unknown[] = []
+    const ok = await form.handleSubmit(async body => sent.push(body))()
+    expect(ok).toBe(false)
+    expect(sent).toEqual([])
+    expect(form.errors).toEqual({ name: 'Give the client a name.', email: 'Enter an e-mail address.' })
+    expect(form.formError).toBe(CHECK_FIELDS)
+  })
+
+  it('adds the checks a schema cannot make to the same list', () => {
+    const form = useSchemaForm(ClientSchema, { ...blank(), email: 'a@b.test' }, {
+      check: (values): FieldErrors => (values.notes === '' ? { notes: 'Say something.' } : {}),
+    })
+    expect(form.validate().ok).toBe(false)
+    expect(form.errors).toEqual({ name: 'Give the client a name.', notes: 'Say something.' })
+  })
+
+  it('sends the body built from the values and reports the submit state while it waits', async () => {
+    const form = useSchemaForm(ClientSchema, { name: 'Ada', email: 'ada@example.test', notes: '' }, {
+      toBody: values => ({ ...values, name: values.name.toUpperCase() }),
+    })
+    let release!: () => void
+    const sent: unknown[] = []
+    const pending = form.handleSubmit(body => new Promise<void>((resolve) => {
+      sent.push(body)
+      release = resolve
+    }))()
+    expect(form.submitting).toBe(true)
+    release()
+    expect(await pending).toBe(true)
+    expect(form.submitting).toBe(false)
+    expect(sent).toEqual([{ name: 'ADA', email: 'ada@example.test', notes: '' }])
+    expect(form.errors).toEqual({})
+  })
+
+  it('puts the server\'s field messages beside their fields, and the rest above the button', async () => {
+    const form = useSchemaForm(ClientSchema, { name: 'Ada', email: 'ada@example.test', notes: '' }, { fieldOf: { emailAddress: 'email' } })
+    await form.handleSubmit(async () => {
+      throw failed({ statusMessage: 'Validation Error', data: { issues: [{ field: 'emailAddress', message: 'That e-mail is taken.' }, { field: '(body)', message: 'Too many fields.' }] } })
+    })()
+    expect(form.errors).toEqual({ 'emailAddress': 'That e-mail is taken.', '(body)': 'Too many fields.' })
+    expect(form.formError).toBe('Too many fields.')
+  })
+
+  it('shows the server\'s own message when it names no field, or the form\'s fallback', async () => {
+    const form = useSchemaForm(ClientSchema, { name: 'Ada', email: 'ada@example.test', notes: '' }, { failure: 'The client could not be saved.' })
+    await form.handleSubmit(async () => { throw failed({ statusMessage: 'Client archived' }) })()
+    expect(form.formError).toBe('Client archived')
+    await form.handleSubmit(async () => { throw new TypeError('fetch failed') })()
+    expect(form.formError).toBe('The client could not be saved.')
+  })
+
+  it('forgets a field\'s message when its value changes and keeps the others', async () => {
+    const form = useSchemaForm(ClientSchema, blank())
+    form.validate()
+    form.values.name = 'Ada'
+    await nextTick()
+    expect(form.errors).toEqual({ email: 'Enter an e-mail address.' })
+  })
+
+  it('moves focus to the first field marked invalid, after a refusal of either kind', async () => {
+    const form = useSchemaForm(ClientSchema, blank())
+    const local = fakeForm('client-name')
+    await form.handleSubmit(async () => undefined)(local.event)
+    expect(local.focused).toEqual(['client-name'])
+    Object.assign(form.values, { name: 'Ada', email: 'ada@example.test' })
+    const server = fakeForm('client-email')
+    await form.handleSubmit(async () => {
+      throw failed({ data: { issues: [{ field: 'email', message: 'That e-mail is taken.' }] } })
+    })(server.event)
+    expect(server.focused).toEqual(['client-email'])
+  })
+
+  it('never edits the values it was given, and resets to them', () => {
+    const start = { name: 'Ada', email: '', notes: '', tags: ['reef'] }
+    const form = useSchemaForm(ClientSchema, start)
+    form.values.name = 'Grace'
+    form.values.tags.push('fowlr')
+    expect(start).toEqual({ name: 'Ada', email: '', notes: '', tags: ['reef'] })
+    form.validate()
+    form.reset()
+    expect(form.values).toEqual(start)
+    expect(form.errors).toEqual({})
+  })
+})
+
+describe('the pieces', () => {
+  it('leaves: nested values by path', () => {
+    expect(leaves({ a: 1, b: { c: '', d: { e: null } }, f: [] })).toEqual({ 'a': 1, 'b.c': '', 'b.d.e': null })
+  })
+  it('withoutFields: a changed field takes its children\'s messages and its parent\'s', () => {
+    const errors = { 'dims': 'Enter the dimensions.', 'dims.lengthMm': 'Too long.', 'name': 'Name it.' }
+    expect(withoutFields(errors, ['dims.lengthMm'])).toEqual({ name: 'Name it.' })
+    expect(withoutFields(errors, ['sump'], p => (p === 'sumpLitres' ? 'sump' : p))).toBe(errors)
+    expect(withoutFields({ sumpLitres: 'Too big.' }, ['sump'], p => (p === 'sumpLitres' ? 'sump' : p))).toEqual({})
+  })
+  it('unshown: messages for fields no input shows', () => {
+    expect(unshown({ 'name': 'a', 'dims.lengthMm': 'b', '(body)': 'c', 'sumpLitres': 'd' }, ['name', 'dims', 'sump'], p => (p === 'sumpLitres' ? 'sump' : p))).toEqual(['c'])
+  })
+})
