@@ -17,8 +17,10 @@ export const NAV_LINKS: readonly NavLink[] = [
   { to: '/plan-template', label: 'Plan template', roles: ['admin'] },
   { to: '/reviews', label: 'Reviews', roles: ['admin', 'supervisor'] },
   { to: '/alerts', label: 'Alerts', roles: STAFF },
-  { to: '/people/invite', label: 'Invite', roles: ['admin', 'aquarist'] },
+  { to: '/people', label: 'People', roles: ['admin', 'aquarist'] },
+  { to: '/audit', label: 'Audit trail', roles: ['supervisor'] },
   { to: '/admin/mail', label: 'Caught mail', roles: ['admin'] },
+  { to: '/admin', label: 'Company', roles: ['admin'] },
 ]
 
 /** The links a role sees, with the client's wording for their own tanks. */

@@ -26,6 +26,8 @@ export const organisations = sqliteTable('organisations', {
   name: text('name').notNull(),
   /** Company settings; read only through readOrganisationSettings (shared/schemas/settings.ts fills defaults). */
   settings: text('settings', { mode: 'json' }).$type<StoredOrganisationSettings>().notNull().default(sql`'{}'`),
+  /** Bumped by every save of the settings, so a form loaded before someone else's save is refused instead of overwriting it. */
+  settingsVersion: integer('settings_version').notNull().default(0),
   ...timestamps,
 })
 

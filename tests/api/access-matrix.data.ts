@@ -18,6 +18,7 @@ import { DEFAULT_PLAN_TEMPLATE } from '../../shared/plan/default-template'
 import { LoginSchema } from '../../shared/schemas/auth'
 import { AlertAcknowledgeSchema, AlertResolveSchema } from '../../shared/schemas/alerts'
 import { ForgotPasswordSchema, InvitationSchema, SetPasswordSchema } from '../../shared/schemas/account'
+import { CompanySettingsUpdateSchema, DEFAULT_ORGANISATION_SETTINGS } from '../../shared/schemas/settings'
 import { NotificationPreferencesSchema } from '../../shared/schemas/notifications'
 import { PersonRoleSchema } from '../../shared/schemas/people'
 import { EventCorrectionSchema, ReadingCorrectionSchema, SignOffDecisionSchema, SignOffReopenSchema, SignOffRequestSchema, StartStockingSchema } from '../../shared/schemas/sign-off'
@@ -234,6 +235,31 @@ function signedOffNano(c: MatrixContext): Promise<string> {
 }
 let inviteCounter = 0
 const UNUSED_TOKEN = 'A'.repeat(43)
+
+/** A fresh staff account that has chosen a password, so a reset link may be sent to it. */
+function acceptedPerson(c: MatrixContext): string {
+  const id = freshPerson(c)
+  c.run(`update users set password_hash = 'not-a-usable-hash' where id = ?`, id)
+  return id
+}
+/** A fresh client invitation nobody accepted, with a live link, for each call. */
+let invitationCounter = 0
+function freshInvitation(c: MatrixContext): string {
+  const id = crypto.randomUUID()
+  const now = new Date()
+  const n = ++invitationCounter
+  c.run(`insert into users (id, organisation_id, email, name, role, client_id, password_hash, units, active, created_at, updated_at) values (?, ?, ?, ?, 'client', ?, null, 'metric', 1, ?, ?)`,
+    id, c.f.demo.organisationId, `matrix-invitee-${n}@tidewright.test`, `Matrix invitee ${n}`, c.f.demo.clients.lowe, now.toISOString(), now.toISOString())
+  c.run(`insert into auth_tokens (id, user_id, purpose, token_hash, expires_at, created_at, updated_at) values (?, ?, 'invite', ?, ?, ?, ?)`,
+    crypto.randomUUID(), id, `matrix-invite-${id}`, new Date(now.getTime() + 86_400_000).toISOString(), now.toISOString(), now.toISOString())
+  return id
+}
+const settingsVersion = (c: MatrixContext) => c.query<{ v: number }>('select settings_version as v from organisations where id = ?', c.f.demo.organisationId)[0]!.v
+const settingsBody = (c: MatrixContext) => ({ name: 'Saltline Reef Services', settings: structuredClone(DEFAULT_ORGANISATION_SETTINGS), version: settingsVersion(c) })
+/** Company administration: the admin alone; other companies' staff are refused by role before anything is looked up. */
+const adminOnly = (ok = 200): Expectations => ({ ...staffList(403), admin: ok })
+/** The audit trail: admins, and supervisors for their own tanks. */
+const auditReader = (ok = 200): Expectations => ({ ...staffList(403), admin: ok, supervisor: ok })
 
 export const ACCESS_MATRIX: Record<string, MatrixEntry> = {
   'ANY /api/[...path]': {
@@ -552,6 +578,23 @@ export const ACCESS_MATRIX: Record<string, MatrixEntry> = {
     fuzz: 'no-body',
   },
   'GET /api/bench/tanks/[id]/verdict': { url: c => `/api/bench/tanks/${c.f.demo.tanks.lounge}/verdict`, expect: everyone(404) },
+
+  // Company administration: people, invitations, settings, audit trail
+  'GET /api/people': { url: () => '/api/people', expect: { signedOut: 401, admin: 200, aquarist: 200, supervisor: 403, client: 403, otherClient: 403, otherCompany: 200 } },
+  'POST /api/people/[id]/password-reset': { url: c => `/api/people/${acceptedPerson(c)}/password-reset`, expect: adminOnly(), fuzz: 'no-body' },
+  'POST /api/invitations/[id]/resend': { url: c => `/api/invitations/${freshInvitation(c)}/resend`, expect: recordManager(), fuzz: 'no-body' },
+  'DELETE /api/invitations/[id]': { url: c => `/api/invitations/${freshInvitation(c)}`, expect: recordManager() },
+  'GET /api/admin/attention': { url: () => '/api/admin/attention', expect: adminOnly() },
+  'GET /api/settings': { url: () => '/api/settings', expect: adminOnly() },
+  'PUT /api/settings': {
+    url: () => '/api/settings',
+    body: settingsBody,
+    expect: adminOnly(),
+    fuzz: { as: 'admin', schema: CompanySettingsUpdateSchema, validBody: settingsBody },
+  },
+  'GET /api/audit': { url: c => `/api/audit?tankId=${c.f.demo.tanks.lounge}`, expect: auditReader() },
+  'GET /api/audit/export.csv': { url: () => '/api/audit/export.csv', expect: auditReader() },
+  'GET /api/audit/people': { url: () => '/api/audit/people', expect: auditReader() },
 }
 
 /** Routes a module registers rather than a file under server/api; checked the same way. */

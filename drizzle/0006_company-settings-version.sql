@@ -1,0 +1,1 @@
+ALTER TABLE `organisations` ADD `settings_version` integer DEFAULT 0 NOT NULL;
