@@ -3,12 +3,14 @@
  * the reference it is compared with, measured in the same run on this machine, and the
  * ratio. Nothing here asserts a time; the table is for people (and README's figures).
  * Loopback only. BENCH_SECONDS (default 4) sets the length of each API case;
- * BENCH_ONLY=api,bulk,engine,frontend runs a subset.
+ * BENCH_ONLY=api,bulk,engine,frontend,backtest runs a subset (backtest: the completion
+ * forecast's hit rate and median error, the same figures as npm run backtest).
  */
 import { existsSync } from 'node:fs'
 import { cpus } from 'node:os'
 import { execSync } from 'node:child_process'
 import { runApiBench } from './api.bench'
+import { runBacktest, summarise } from './backtest'
 import { runBulkBench } from './bulk.bench'
 import { runEngineBench } from './engine.bench'
 import { runFrontendBench } from './frontend.bench'
@@ -16,7 +18,7 @@ import { startBenchServer, type Row } from './support'
 import { buildIsStale } from '../scripts/build-state.mjs'
 
 const SECONDS = Number(process.env.BENCH_SECONDS ?? 4)
-const ONLY = new Set((process.env.BENCH_ONLY ?? 'api,bulk,engine,frontend').split(','))
+const ONLY = new Set((process.env.BENCH_ONLY ?? 'api,bulk,engine,frontend,backtest').split(','))
 
 function fmt(n: number): string {
   if (!Number.isFinite(n)) return 'n/a'
@@ -67,6 +69,13 @@ async function main() {
     }
     finally {
       await bench.stop()
+    }
+  }
+  if (ONLY.has('backtest')) {
+    for (const r of summarise(runBacktest(Number(process.env.BACKTEST_SEED ?? 1), Number(process.env.BACKTEST_SEEDS ?? 40)))) {
+      if (Number.isNaN(r.hitRate)) continue
+      rows.push({ area: 'Forecast', name: `${r.name}: ranges holding the completion (80 % aimed)`, value: r.hitRate * 100, unit: '%', aim: '~80 %' })
+      rows.push({ area: 'Forecast', name: `${r.name}: median error of the likely day`, value: r.medianErrorDays, unit: 'days' })
     }
   }
   print(rows)

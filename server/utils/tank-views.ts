@@ -5,6 +5,7 @@ import type { TankListQuery } from '#shared/schemas/tank-list'
 import type { CyclePhase, TankList, TankSummary, TankView } from '#shared/types/tanks'
 import { clients, planStages, sites, tankVerdicts, tanks, users } from '../db/schema'
 import { visibleTankCondition, type Actor } from './access'
+import { FORECAST_STATUSES, forecastTank } from '../domain/forecast/tank-forecast'
 
 const aquarist = alias(users, 'aquarist')
 const supervisor = alias(users, 'supervisor')
@@ -68,8 +69,14 @@ const SORT_COLUMNS = {
   stage: currentStagePosition,
 } as const
 
+/** A list item with its forecast when the cycle is what the reader waits for. */
+function withForecast(summary: TankSummary, now: Date): TankSummary {
+  if (!FORECAST_STATUSES.has(summary.status)) return summary
+  return { ...summary, forecast: forecastTank(useDB(), summary.id, now) ?? null }
+}
+
 /** One page of the tanks the actor may see, filtered and sorted on the server. */
-export function listTanks(actor: Actor, query: TankListQuery): TankList {
+export function listTanks(actor: Actor, query: TankListQuery, now = new Date()): TankList {
   const conditions: SQL[] = [visibleTankCondition(actor)]
   if (query.status) conditions.push(eq(tanks.status, query.status))
   if (query.clientId) conditions.push(eq(tanks.clientId, query.clientId))
@@ -86,7 +93,7 @@ export function listTanks(actor: Actor, query: TankListQuery): TankList {
     .limit(query.pageSize).offset((query.page - 1) * query.pageSize).all()
   const total = useDB().select({ n: sql<number>`count(*)` }).from(tanks)
     .innerJoin(clients, eq(clients.id, tanks.clientId)).where(where).get()?.n ?? 0
-  return { items: rows.map(toSummary), total, page: query.page, pageSize: query.pageSize }
+  return { items: rows.map(row => withForecast(toSummary(row), now)), total, page: query.page, pageSize: query.pageSize }
 }
 
 /** The full view of one tank, or undefined when the actor may not see it. */

@@ -1,4 +1,5 @@
 /** API response shapes for tanks. Values are canonical (litres, mm); the client converts for display. */
+import type { CycleForecast } from '../cycle/forecast/types'
 import type { CycleMethod, CyclePhase, TankMaterial, TankShape, TankStatus, WaterSource } from '../vocabulary'
 
 export type { CyclePhase, TankStatus } from '../vocabulary'
@@ -21,6 +22,8 @@ export interface TankSummary {
   stagesTotal: number
   cycleStartedAt: string | null
   updatedAt: string
+  /** In lists, for tanks cycling or awaiting sign-off: when the cycle is likely to be proven (never a promise). */
+  forecast?: CycleForecast | null
 }
 
 export interface TankList {

@@ -416,6 +416,7 @@ export const ACCESS_MATRIX: Record<string, MatrixEntry> = {
     expect: tankEntry(204),
   },
   'GET /api/tanks/[id]/verdict': { url: c => `/api/tanks/${c.f.demo.tanks.lounge}/verdict`, expect: tankReader() },
+  'GET /api/tanks/[id]/forecast': { url: c => `/api/tanks/${c.f.demo.tanks.lounge}/forecast`, expect: tankReader() },
   'GET /api/tanks/[id]/chart': { url: c => `/api/tanks/${c.f.demo.tanks.lounge}/chart`, expect: tankReader() },
 
   // Accounts, invitations and resets

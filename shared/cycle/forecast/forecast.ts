@@ -1,0 +1,177 @@
+/**
+ * The completion forecast: from a tank's tests and events so far, the range of
+ * dates in which the rule engine is likely to prove the cycle complete, and from it
+ * the earliest range for each livestock group. Pure and deterministic like the
+ * engine (`now` is input). It says "not enough data yet" instead of guessing:
+ * before the nitrite stage, with too few or too old tests, and for a curve that is
+ * flat or erratic. See README.md beside this file for the model and its limits.
+ */
+
+import { evaluateCycle } from '../engine'
+import { RULE_SET_VERSION } from '../registry'
+import { resolveThresholds } from '../thresholds'
+import { DAY_MS, HOUR_MS, parseTime, requireTime, toIso } from '../time'
+import { LIVESTOCK_GROUPS, type CycleInput, type LivestockGroup, type Verdict } from '../types'
+import { fitDecline, type DeclineResult, type SeriesPoint } from './decline'
+import { HORIZON_DAYS, INTERVAL_PROBABILITY, MAX_RANGE_DAYS, MIN_TESTS, RANGE_SLACK_DAYS } from './parameters'
+import { futureTestTimes, projectCompletion, type ProjectionBase } from './project'
+import type { CycleForecast, DeclineFit, ForecastBasis, ForecastGap, ForecastRange } from './types'
+import { FORECAST_VERSION } from './version'
+
+interface TimedTest {
+  t: number
+  ammoniaN?: number
+  nitriteN?: number
+  nitrateN?: number
+}
+
+const NO_GROUPS = (): Record<LivestockGroup, ForecastRange | null> =>
+  Object.fromEntries(LIVESTOCK_GROUPS.map(g => [g, null])) as Record<LivestockGroup, ForecastRange | null>
+
+function shell(status: CycleForecast['status'], gap: ForecastGap | null, basis: ForecastBasis): CycleForecast {
+  return {
+    forecastVersion: FORECAST_VERSION,
+    ruleSetVersion: RULE_SET_VERSION,
+    status,
+    gap,
+    probability: INTERVAL_PROBABILITY,
+    completion: null,
+    likely: null,
+    groups: NO_GROUPS(),
+    basis,
+  }
+}
+
+/** Ammonia and nitrite tests up to now, oldest first (same order rule as the engine: time, then id). */
+function testsUpTo(input: CycleInput, nowMs: number): TimedTest[] {
+  return input.readings
+    .map(r => ({ r, t: parseTime(r.takenAt) }))
+    .filter(({ r, t }) => Number.isFinite(t) && t <= nowMs && (r.ammoniaN !== undefined || r.nitriteN !== undefined))
+    .sort((a, b) => a.t - b.t || (a.r.id < b.r.id ? -1 : a.r.id > b.r.id ? 1 : 0))
+    .map(({ r, t }) => ({ t, ammoniaN: r.ammoniaN, nitriteN: r.nitriteN, nitrateN: r.nitrateN }))
+}
+
+/** The input without tests or events after now: the assumed routine must continue from now, not from a later record. */
+function pastOnly(input: CycleInput, nowMs: number): CycleInput {
+  const past = (iso: string) => !(parseTime(iso) > nowMs)
+  return { ...input, readings: input.readings.filter(r => past(r.takenAt)), events: (input.events ?? []).filter(e => past(e.at)) }
+}
+
+/** Time of the last water change at or before now: dilution breaks a curve, so fits start after it. */
+function lastWaterChange(input: CycleInput, nowMs: number): number {
+  let last = Number.NEGATIVE_INFINITY
+  for (const e of input.events ?? []) {
+    const t = parseTime(e.at)
+    if (e.kind === 'water-change' && Number.isFinite(t) && t <= nowMs && t > last) last = t
+  }
+  return last
+}
+
+function seriesOf(tests: readonly TimedTest[], key: 'ammoniaN' | 'nitriteN', fromMs: number): SeriesPoint[] {
+  const points: SeriesPoint[] = []
+  for (const test of tests) {
+    const value = test[key]
+    if (value !== undefined && Number.isFinite(value) && value >= 0 && test.t > fromMs) points.push({ t: test.t, value })
+  }
+  return points
+}
+
+function completeForecast(verdict: Verdict, basis: ForecastBasis): CycleForecast {
+  const done = verdict.completedOn!
+  const forecast = shell('complete', null, basis)
+  forecast.completion = { from: done, to: done }
+  forecast.likely = done
+  for (const g of LIVESTOCK_GROUPS) {
+    const earliest = verdict.readiness[g].earliest
+    forecast.groups[g] = earliest === null ? null : { from: earliest, to: earliest }
+  }
+  return forecast
+}
+
+/** The zero-reading window of both curves: each either reads zero now or has a fitted decline. */
+function zeroWindow(results: readonly DeclineResult[], nextTestMs: number): { gap: ForecastGap } | { fromMs: number, midMs: number, toMs: number } {
+  let fromMs = nextTestMs
+  let midMs = nextTestMs
+  let toMs = nextTestMs
+  for (const r of results) {
+    if (!r.ok) return { gap: r.gap }
+    fromMs = Math.max(fromMs, r.zeroFromMs)
+    midMs = Math.max(midMs, r.zeroMidMs)
+    toMs = Math.max(toMs, r.zeroToMs)
+  }
+  return { fromMs, midMs, toMs }
+}
+
+/**
+ * Forecasts when the cycle will be proven complete. Throws a RangeError for the same
+ * bad input the engine refuses (`now`, `tank.startedAt`, thresholds).
+ */
+export function forecastCycle(input: CycleInput): CycleForecast {
+  const nowMs = requireTime('now', input.now)
+  const thresholds = resolveThresholds(input.thresholds)
+  const verdict = evaluateCycle(input)
+  const tests = testsUpTo(input, nowMs)
+  const lastTest = tests[tests.length - 1]
+  const testEveryHours = thresholds.retestHours
+  const basis: ForecastBasis = { fits: [], readingZero: false, testEveryHours, latestTest: lastTest ? toIso(lastTest.t) : null }
+  if (verdict.completedOn !== null) return completeForecast(verdict, basis)
+  if (verdict.phase === 'not-started') return shell('not-enough-data', 'not-started', basis)
+  if (!lastTest || tests.length < MIN_TESTS) return shell('not-enough-data', 'sparse', basis)
+  if (verdict.phase === 'ammonia') return shell('not-enough-data', 'before-nitrite', basis)
+  // The engine expects a test at least every testIntervalHours; twice that missed leaves the curve unknown.
+  if (nowMs - lastTest.t > 2 * thresholds.testIntervalHours * HOUR_MS) return shell('not-enough-data', 'stale', basis)
+
+  const fromMs = lastWaterChange(input, nowMs)
+  const latest = (key: 'ammoniaN' | 'nitriteN') => seriesOf(tests, key, fromMs).at(-1)?.value
+  const limits = { ammoniaN: thresholds.ammoniaZeroN, nitriteN: thresholds.nitriteZeroN } as const
+  const above = (key: 'ammoniaN' | 'nitriteN') => (latest(key) ?? 0) > limits[key]
+  const ammoniaAbove = above('ammoniaN')
+  const nitriteAbove = above('nitriteN')
+  const results: DeclineResult[] = []
+  if (ammoniaAbove) results.push(fitDecline('ammonia', seriesOf(tests, 'ammoniaN', fromMs), limits.ammoniaN))
+  if (nitriteAbove) results.push(fitDecline('nitrite', seriesOf(tests, 'nitriteN', fromMs), limits.nitriteN))
+  basis.fits = results.flatMap(r => (r.ok ? [r.fit] : [] as DeclineFit[]))
+  basis.readingZero = !ammoniaAbove && !nitriteAbove
+
+  const lastNitrate = [...tests].reverse().find(x => x.nitrateN !== undefined)?.nitrateN ?? 0
+  const livestockIn = (input.events ?? []).some(e => e.kind === 'livestock-added' && parseTime(e.at) <= nowMs)
+  const base: ProjectionBase = {
+    input: pastOnly(input, nowMs),
+    thresholds,
+    lastTestMs: lastTest.t,
+    nowMs,
+    ammoniaAbove,
+    nitriteAbove,
+    nitrateN: Math.max(lastNitrate, 2 * thresholds.nitratePresentN),
+    doseAfterZeroTests: input.tank.cycleMethod === 'fishless' && !livestockIn,
+    testEveryHours,
+  }
+  const nextTestMs = futureTestTimes(base)[0] ?? nowMs
+  const window = zeroWindow(results, nextTestMs)
+  if ('gap' in window) return shell('not-enough-data', window.gap, basis)
+  if (window.toMs - lastTest.t > HORIZON_DAYS * DAY_MS) return shell('not-enough-data', 'too-far', basis)
+
+  const soonest = projectCompletion(base, nextTestMs)
+  const early = projectCompletion(base, window.fromMs)
+  const likely = projectCompletion(base, window.midMs)
+  const late = projectCompletion(base, window.toMs)
+  if (!soonest || !early || !likely || !late) return shell('not-enough-data', 'too-far', basis)
+
+  const slack = RANGE_SLACK_DAYS * DAY_MS
+  // Nothing can beat the engine's proof with zeros from the very next test.
+  const fromMsDone = Math.max(soonest.completedMs, early.completedMs - slack)
+  const toMsDone = late.completedMs + slack
+  if (toMsDone - fromMsDone > MAX_RANGE_DAYS * DAY_MS) return shell('not-enough-data', 'too-far', basis)
+
+  const forecast = shell('forecast', null, basis)
+  forecast.completion = { from: toIso(fromMsDone), to: toIso(toMsDone) }
+  forecast.likely = toIso(Math.min(Math.max(likely.completedMs, fromMsDone), toMsDone))
+  for (const g of LIVESTOCK_GROUPS) {
+    const lo = early.groups[g]
+    const hi = late.groups[g]
+    if (lo === null || hi === null) continue
+    // A group waits a fixed time after completion, so its range is the completion range moved by that wait.
+    forecast.groups[g] = { from: toIso(fromMsDone + lo - early.completedMs), to: toIso(toMsDone + hi - late.completedMs) }
+  }
+  return forecast
+}

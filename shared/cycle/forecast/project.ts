@@ -1,0 +1,105 @@
+/**
+ * Turns "ammonia and nitrite read zero from time T" into the time the rule engine
+ * would prove the cycle complete, and each livestock group's earliest time, by
+ * running the engine itself on the tank's real history followed by a routine of
+ * future tests. The forecast therefore copies none of the engine's limits: a
+ * longer zero run, a clearance dose or a coral wait in any rule set moves the
+ * forecast exactly as it moves the verdict.
+ *
+ * The routine assumed for the days ahead (said to the reader as an assumption):
+ * - a test every `testEveryHours` (the engine's ordinary re-test interval), at the
+ *   time of day of the latest test;
+ * - before T the test still shows ammonia or nitrite above the kit's zero; from T
+ *   on it reads zero for both, with nitrate present (nitrification makes nitrate);
+ * - a fishless tank with no livestock gets the engine's clearance dose after each
+ *   zero test, as the engine asks, and clears it by the next test;
+ * - no water change, and nothing else that restarts the engine's count.
+ */
+
+import { evaluateCycle } from '../engine'
+import { DAY_MS, HOUR_MS, toIso } from '../time'
+import { LIVESTOCK_GROUPS, type CycleEvent, type CycleInput, type CycleReading, type LivestockGroup, type Thresholds } from '../types'
+import { HORIZON_DAYS } from './parameters'
+
+/** What the engine decides under one assumed future. */
+export interface Projection {
+  completedMs: number
+  /** Earliest time per group from the engine's readiness (null where the engine gives none). */
+  groups: Record<LivestockGroup, number | null>
+}
+
+/** The tank's state the routine continues from. */
+export interface ProjectionBase {
+  input: CycleInput
+  thresholds: Thresholds
+  /** Time of the latest real test. */
+  lastTestMs: number
+  nowMs: number
+  /** Which series still read above zero now (they stay above zero until T). */
+  ammoniaAbove: boolean
+  nitriteAbove: boolean
+  /** Nitrate assumed present from T on, mg/L as N. */
+  nitrateN: number
+  /** Add the clearance dose after each zero test (fishless, no livestock yet). */
+  doseAfterZeroTests: boolean
+  testEveryHours: number
+}
+
+/** Most proofs need a few days of zero tests; the engine first runs on this many days past T, then on the whole horizon. */
+const FIRST_TRY_DAYS = 14
+
+/** Times of the assumed future tests: on the latest test's rhythm, from the first one after now, up to `untilMs`. */
+export function futureTestTimes(base: ProjectionBase, untilMs = base.lastTestMs + HORIZON_DAYS * DAY_MS): number[] {
+  const step = base.testEveryHours * HOUR_MS
+  const end = Math.min(untilMs, base.lastTestMs + HORIZON_DAYS * DAY_MS)
+  const times: number[] = []
+  let t = base.lastTestMs + step
+  while (t <= base.nowMs) t += step
+  for (; t <= end; t += step) times.push(t)
+  return times
+}
+
+function assumedTest(base: ProjectionBase, t: number, zero: boolean, index: number): CycleReading {
+  const th = base.thresholds
+  // Before T only "above the kit's zero" matters to the proof; twice the limit says exactly that.
+  return {
+    id: `forecast-${index}`,
+    takenAt: toIso(t),
+    ammoniaN: zero || !base.ammoniaAbove ? 0 : 2 * th.ammoniaZeroN,
+    nitriteN: zero || !base.nitriteAbove ? 0 : 2 * th.nitriteZeroN,
+    nitrateN: base.nitrateN,
+  }
+}
+
+/**
+ * Runs the engine on the real history plus the assumed routine in which ammonia and
+ * nitrite read zero from `zeroFromMs`; null when the engine would not prove the cycle
+ * inside the horizon.
+ */
+export function projectCompletion(base: ProjectionBase, zeroFromMs: number): Projection | null {
+  return projectUntil(base, zeroFromMs, zeroFromMs + FIRST_TRY_DAYS * DAY_MS) ?? projectUntil(base, zeroFromMs, Number.POSITIVE_INFINITY)
+}
+
+function projectUntil(base: ProjectionBase, zeroFromMs: number, untilMs: number): Projection | null {
+  const readings = [...base.input.readings]
+  const events = [...(base.input.events ?? [])]
+  const times = futureTestTimes(base, untilMs)
+  times.forEach((t, i) => {
+    const zero = t >= zeroFromMs
+    readings.push(assumedTest(base, t, zero, i))
+    if (zero && base.doseAfterZeroTests) {
+      const dose: CycleEvent = { id: `forecast-dose-${i}`, at: toIso(t + 60_000), kind: 'ammonia-dose', amount: base.thresholds.clearanceDoseN }
+      events.push(dose)
+    }
+  })
+  const last = times[times.length - 1]
+  if (last === undefined) return null
+  const verdict = evaluateCycle({ ...base.input, readings, events, now: toIso(last) })
+  if (verdict.completedOn === null) return null
+  const groups = {} as Record<LivestockGroup, number | null>
+  for (const g of LIVESTOCK_GROUPS) {
+    const earliest = verdict.readiness[g].earliest
+    groups[g] = earliest === null ? null : Date.parse(earliest)
+  }
+  return { completedMs: Date.parse(verdict.completedOn), groups }
+}

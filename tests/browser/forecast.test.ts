@@ -1,0 +1,49 @@
+import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import type { Browser } from 'playwright-core'
+import { launchBrowser, openPage, screenshot, signInThroughForm } from '../support/browser'
+import { seedScratchCompany, type ScratchCompany } from '../support/company'
+import { NITRITE_FALLING, seedCyclingTank } from '../support/forecast-tanks'
+
+let browser: Browser
+let company: ScratchCompany
+beforeAll(async () => {
+  browser = await launchBrowser()
+  company = await seedScratchCompany('forecast-page', 'us')
+  seedCyclingTank(company, 'Falling nitrite reef', NITRITE_FALLING)
+  seedCyclingTank(company, 'Three tests reef', { ammonia: [1.6, 1.2, 0.6], nitrite: [0.3, 0.9, 1.2], nitrate: [0, 0, 0.1] })
+})
+afterAll(async () => { await browser?.close() })
+
+describe('completion forecast', () => {
+  for (const width of [375, 1280]) {
+    it(`a client sees the likely range on the card and the tank page, and "not enough data yet" for a tank with three tests (${width} px)`, async () => {
+      const { page, context, problems } = await openPage(browser, width)
+      await signInThroughForm(page, company.emails.client)
+      const card = page.getByRole('link', { name: /Falling nitrite reef/ })
+      await expect.poll(() => card.textContent()).toMatch(/Likely ready for fish between .+ and .+\(a forecast; the verdict decides\)/)
+      await expect.poll(() => page.getByRole('link', { name: /Three tests reef/ }).textContent()).toContain('Forecast: not enough data yet')
+      await screenshot(page, `forecast-cards-${width}`)
+
+      await card.click()
+      await page.waitForURL(/\/tanks\/[^/]+$/)
+      const section = page.locator('section[aria-labelledby="forecast-heading"]')
+      await expect.poll(() => section.getByTestId('forecast-headline').textContent()).toMatch(/^\s*Likely ready for fish between .+ and .+$/)
+      const text = await section.textContent()
+      expect(text).toMatch(/Nitrite has halved about every \d+ days? since/)
+      expect(text).toMatch(/LPS corals, SPS corals: likely between/)
+      expect(text).toContain('A forecast, not a promise: livestock goes in only when the verdict says the cycle is complete.')
+      await section.scrollIntoViewIfNeeded()
+      await screenshot(page, `forecast-tank-${width}`)
+      await section.screenshot({ path: `tests/browser/screenshots/forecast-section-${width}.png` })
+
+      await page.goto('/')
+      await page.getByRole('link', { name: /Three tests reef/ }).click()
+      await page.waitForURL(/\/tanks\/[^/]+$/)
+      await expect.poll(() => page.getByTestId('forecast-headline').textContent()).toContain('Not enough data yet')
+      await page.getByTestId('forecast').screenshot({ path: `tests/browser/screenshots/forecast-not-enough-${width}.png` })
+      expect(await page.evaluate(() => document.documentElement.scrollWidth)).toBeLessThanOrEqual(width)
+      expect(problems).toEqual([])
+      await context.close()
+    })
+  }
+})
