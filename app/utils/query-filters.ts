@@ -1,4 +1,6 @@
-import type { LocationQuery, LocationQueryRaw } from 'vue-router'
+/** A URL query as the router gives it, and as it takes one back (undefined drops a key). */
+type LocationQuery = Record<string, string | null | (string | null)[] | undefined>
+type LocationQueryRaw = Record<string, string | null | (string | null)[] | undefined>
 
 /** A list's filters and their defaults: text, a whole number from 1 (the page) or a yes/no. */
 export type FilterValue = string | number | boolean
