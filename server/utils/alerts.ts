@@ -5,6 +5,7 @@
 import type { Verdict } from '#shared/cycle/types'
 import { acknowledgeAlertInDb, escalateDueAlerts, resolveAlertInDb, syncAlertsInDb, type AlertSyncResult } from '../db/alerts'
 import { runTestReminders } from '../db/reminders'
+import { runWeeklyDigest } from '../domain/forecast/weekly-digest'
 import type { Actor } from './access'
 
 /** Opens, updates and resolves the tank's alerts to match its verdict; called from onTankDataChanged. */
@@ -33,11 +34,12 @@ export function resolveAlert(actor: Actor, alertId: string, note: string, now = 
   return done?.alert ?? null
 }
 
-/** The clocked jobs: escalations and test reminders due at `now`. */
+/** The clocked jobs: escalations, test reminders and weekly digests due at `now`. */
 export function runClockedJobs(now: Date) {
   const db = useDB()
   const escalation = escalateDueAlerts(db, now, publicBaseUrl())
   const reminders = runTestReminders(db, now, publicBaseUrl())
+  const digests = runWeeklyDigest(db, now, publicBaseUrl())
   announceNotices([...escalation.notifiedUserIds, ...reminders.notifiedUserIds])
-  return { escalated: escalation.escalated.length, reminded: reminders.reminded.length, aquaristsTold: reminders.aquaristsTold.length }
+  return { escalated: escalation.escalated.length, reminded: reminders.reminded.length, aquaristsTold: reminders.aquaristsTold.length, digests: digests.sent.length }
 }

@@ -1,9 +1,10 @@
 /**
  * The kinds of notice Tidewright sends, and which of them a user may keep out of their
- * e-mail. Every notice also appears in the app's notification centre.
+ * e-mail. Every notice also appears in the app's notification centre, except the weekly
+ * digest, which is e-mail only (it repeats what the tank page shows).
  */
 
-export type NoticeKind = 'alert-opened' | 'alert-escalated' | 'alert-resolved' | 'test-reminder' | 'tests-missed'
+export type NoticeKind = 'alert-opened' | 'alert-escalated' | 'alert-resolved' | 'test-reminder' | 'tests-missed' | 'weekly-digest'
 
 export interface NoticeKindInfo {
   kind: NoticeKind
@@ -18,6 +19,7 @@ export const NOTICE_KINDS: readonly NoticeKindInfo[] = [
   { kind: 'alert-resolved', label: 'Alerts cleared', description: 'A later reading cleared an alert.' },
   { kind: 'test-reminder', label: 'Test reminders', description: 'Today\'s water test has not been entered by the usual time.' },
   { kind: 'tests-missed', label: 'Missed tests', description: 'A client has missed several days of tests.' },
+  { kind: 'weekly-digest', label: 'Weekly summary', description: 'Monday mornings while a tank is cycling: where it stands and when it is likely to be ready (a forecast, never a promise).' },
 ]
 
 /** E-mail for a kind, given the user's stored choices: on unless switched off. */

@@ -18,9 +18,9 @@ export interface ScratchCompany {
   emails: Record<'admin' | 'aquarist' | 'supervisor' | 'client' | 'otherClient', string>
 }
 
-/** Adds a company with one of each role and two clients (the first with a site and an account). */
-export async function seedScratchCompany(label: string, units: 'us' | 'metric' = 'metric'): Promise<ScratchCompany> {
-  const db = openDatabase(inject('dbPath'))
+/** Adds a company with one of each role and two clients (the first with a site and an account); `dbPath`: a server of the test's own. */
+export async function seedScratchCompany(label: string, units: 'us' | 'metric' = 'metric', dbPath: string = inject('dbPath')): Promise<ScratchCompany> {
+  const db = openDatabase(dbPath)
   const passwordHash = await hashPasswordOffline(PASSWORD)
   const tag = `${label}-${randomUUID().slice(0, 8)}`
   try {

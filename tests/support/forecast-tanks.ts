@@ -29,9 +29,9 @@ export const NITRITE_FALLING: DailyColumns = {
   nitrate: [0, 0, 0, 0, 0.05, 0.1, 0.15, 0.2, 0.3, 0.4, 0.5, 0.7, 0.9, 1.1, 1.3, 1.5],
 }
 
-/** Adds a fishless cycling tank for the company's client with these daily tests; returns its id. */
-export function seedCyclingTank(company: ScratchCompany, name: string, columns: DailyColumns, now = new Date()): string {
-  const db = openDatabase(inject('dbPath'))
+/** Adds a fishless cycling tank for the company's client with these daily tests; returns its id. `dbPath`: a server of the test's own. */
+export function seedCyclingTank(company: ScratchCompany, name: string, columns: DailyColumns, now = new Date(), dbPath: string = inject('dbPath')): string {
+  const db = openDatabase(dbPath)
   try {
     const days = columns.ammonia.length
     const lastAt = now.getTime() - 3_600_000

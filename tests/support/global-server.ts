@@ -10,6 +10,7 @@ import { join } from 'node:path'
 import type { TestProject } from 'vitest/node'
 import { migrateDatabase, openDatabase } from '../../server/db/connection'
 import { startMailCatcher, type MailCatcher } from '../../scripts/mail-catcher'
+import { mailCatcherEnv } from './mail-env'
 import { buildIsStale } from '../../scripts/build-state.mjs'
 import { seedFixtures, type Fixtures } from './fixtures'
 import { startServer, type RunningServer } from './server'
@@ -43,18 +44,6 @@ export async function setup(project: TestProject) {
   project.provide('dbPath', dbPath)
   project.provide('fixtures', fixtures)
   project.provide('mailControlURL', catcher.controlURL ?? '')
-}
-
-/** Server settings that send mail to the catcher and enable the test-only routes. */
-function mailCatcherEnv(mail: MailCatcher): Record<string, string> {
-  return {
-    NUXT_SMTP_HOST: '127.0.0.1',
-    NUXT_SMTP_PORT: String(mail.port),
-    NUXT_DEV_MAIL: '1',
-    NUXT_DEV_MAIL_FILE: mail.file,
-    NUXT_TEST_HOOKS: '1',
-    NUXT_WORKER_INTERVAL_MS: '300',
-  }
 }
 
 export async function teardown() {

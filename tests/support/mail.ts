@@ -5,34 +5,36 @@
  */
 import { inject } from 'vitest'
 import type { CaughtMail } from '../../scripts/mail-catcher'
-import { ApiClient, signedIn } from './http'
+import { ApiClient } from './http'
 
-let admin: ApiClient | undefined
+/** A signed-in demo admin per server (the caught mail is read through the server's test route). */
+const admins = new Map<string, Promise<ApiClient>>()
 
-/** Everything caught so far, oldest first. */
-export async function caughtMail(): Promise<CaughtMail[]> {
-  admin ??= await signedIn('admin@tidewright.test')
+/** Everything caught so far, oldest first; `baseURL` picks a server of the test's own. */
+export async function caughtMail(baseURL: string = inject('baseURL')): Promise<CaughtMail[]> {
+  if (!admins.has(baseURL)) admins.set(baseURL, new ApiClient(baseURL).signIn('admin@tidewright.test'))
+  const admin = await admins.get(baseURL)!
   const response = await admin.get<{ items: CaughtMail[] }>('/api/dev/mail')
   if (response.status !== 200) throw new Error(`GET /api/dev/mail answered ${response.status}`)
   return [...response.body.items].reverse()
 }
 
 /** Polls until `pick` finds something in the caught mail; fails with `what` after the deadline. */
-export async function waitForMail<T>(what: string, pick: (mail: CaughtMail[]) => T | undefined | false, timeoutMs = 20_000): Promise<T> {
+export async function waitForMail<T>(what: string, pick: (mail: CaughtMail[]) => T | undefined | false, timeoutMs = 20_000, baseURL: string = inject('baseURL')): Promise<T> {
   const deadline = Date.now() + timeoutMs
   for (;;) {
-    const found = pick(await caughtMail())
+    const found = pick(await caughtMail(baseURL))
     if (found) return found
     if (Date.now() > deadline) throw new Error(`No mail: ${what}`)
     await new Promise(resolve => setTimeout(resolve, 200))
   }
 }
 
-export interface TickResult { escalated: number, reminded: number, aquaristsTold: number, sent: number, failed: number }
+export interface TickResult { escalated: number, reminded: number, aquaristsTold: number, digests: number, sent: number, failed: number }
 
-/** Runs the worker once at `now` (test hooks only). */
-export async function tick(now: Date): Promise<TickResult> {
-  const response = await new ApiClient().post<TickResult>('/api/dev/worker-tick', { now: now.toISOString() })
+/** Runs the worker once at `now` (test hooks only); `baseURL` picks a server of the test's own. */
+export async function tick(now: Date, baseURL: string = inject('baseURL')): Promise<TickResult> {
+  const response = await new ApiClient(baseURL).post<TickResult>('/api/dev/worker-tick', { now: now.toISOString() })
   if (response.status !== 200) throw new Error(`worker-tick answered ${response.status}`)
   return response.body
 }

@@ -7,7 +7,7 @@ const TickSchema = v.object({
 /**
  * POST /api/dev/worker-tick — tests only (NUXT_TEST_HOOKS=1, otherwise 404): runs the
  * worker once at an injected time `now` — escalations, reminders, then mail delivery.
- * Returns { escalated, reminded, aquaristsTold, sent, failed }.
+ * Returns { escalated, reminded, aquaristsTold, digests, sent, failed }.
  */
 export default defineEventHandler(async (event) => {
   requireSwitch(useRuntimeConfig().testHooks)

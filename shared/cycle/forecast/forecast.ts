@@ -11,10 +11,10 @@ import { evaluateCycle } from '../engine'
 import { RULE_SET_VERSION } from '../registry'
 import { resolveThresholds } from '../thresholds'
 import { DAY_MS, HOUR_MS, parseTime, requireTime, toIso } from '../time'
-import { LIVESTOCK_GROUPS, type CycleInput, type LivestockGroup, type Verdict } from '../types'
+import { LIVESTOCK_GROUPS, type CycleInput, type LivestockGroup, type Thresholds, type Verdict } from '../types'
 import { fitDecline, type DeclineResult, type SeriesPoint } from './decline'
-import { HORIZON_DAYS, INTERVAL_PROBABILITY, MAX_RANGE_DAYS, MIN_TESTS, RANGE_SLACK_DAYS } from './parameters'
-import { futureTestTimes, projectCompletion, type ProjectionBase } from './project'
+import { DOSE_CHECK_HOURS, HORIZON_DAYS, INTERVAL_PROBABILITY, MAX_RANGE_DAYS, MAX_RELAPSE_DAYS, MIN_TESTS, RANGE_SLACK_DAYS } from './parameters'
+import { firstProvingRoutine, futureTestTimes, projectCompletion, type ProjectionBase } from './project'
 import type { CycleForecast, DeclineFit, ForecastBasis, ForecastGap, ForecastRange } from './types'
 import { FORECAST_VERSION } from './version'
 
@@ -49,6 +49,55 @@ function testsUpTo(input: CycleInput, nowMs: number): TimedTest[] {
     .filter(({ r, t }) => Number.isFinite(t) && t <= nowMs && (r.ammoniaN !== undefined || r.nitriteN !== undefined))
     .sort((a, b) => a.t - b.t || (a.r.id < b.r.id ? -1 : a.r.id > b.r.id ? 1 : 0))
     .map(({ r, t }) => ({ t, ammoniaN: r.ammoniaN, nitriteN: r.nitriteN, nitrateN: r.nitrateN }))
+}
+
+interface ProofDose {
+  t: number
+  /** mg/L as N; 0 when logged without an amount. */
+  amount: number
+}
+
+/** Ammonia doses at or before now, oldest first. */
+function dosesUpTo(input: CycleInput, nowMs: number): ProofDose[] {
+  return (input.events ?? [])
+    .filter(e => e.kind === 'ammonia-dose')
+    .map(e => ({ t: parseTime(e.at), amount: e.amount ?? 0 }))
+    .filter(d => Number.isFinite(d.t) && d.t <= nowMs)
+    .sort((a, b) => a.t - b.t)
+}
+
+function readsZero(test: TimedTest, th: Thresholds): boolean {
+  return test.ammoniaN !== undefined && test.nitriteN !== undefined && test.ammoniaN <= th.ammoniaZeroN && test.nitriteN <= th.nitriteZeroN
+}
+
+/**
+ * The tests that trace the curves: all but the checks that a proof dose arrived (a test
+ * within DOSE_CHECK_HOURS of a dose given after a zero test), which show the dose, not
+ * the bacteria's progress.
+ */
+function curveTests(tests: readonly TimedTest[], doses: readonly ProofDose[], th: Thresholds): TimedTest[] {
+  const kept: TimedTest[] = []
+  let d = 0
+  let lastDose = Number.NEGATIVE_INFINITY
+  let lastDoseProof = false
+  for (const test of tests) {
+    while (d < doses.length && doses[d]!.t < test.t) {
+      lastDose = doses[d]!.t
+      const before = kept[kept.length - 1]
+      lastDoseProof = before !== undefined && readsZero(before, th)
+      d += 1
+    }
+    if (lastDoseProof && test.t - lastDose <= DOSE_CHECK_HOURS * HOUR_MS) continue
+    kept.push(test)
+  }
+  return kept
+}
+
+/** The latest dose after the latest curve test, when no test at all has followed it yet. */
+function uncheckedDose(doses: readonly ProofDose[], allTests: readonly TimedTest[], lastCurveTestMs: number): number | null {
+  const last = doses[doses.length - 1]
+  if (!last || last.t <= lastCurveTestMs) return null
+  return allTests.some(t => t.t > last.t) ? null : last.t
 }
 
 /** The input without tests or events after now: the assumed routine must continue from now, not from a later record. */
@@ -103,6 +152,30 @@ function zeroWindow(results: readonly DeclineResult[], nextTestMs: number): { ga
 }
 
 /**
+ * Time the late end leaves for nitrite to come back once: the first full proof doses
+ * often overwhelm nitrite bacteria that grew on smaller feeding doses, and nitrite then
+ * falls again at about the pace it fell the first time (common practice, no published
+ * source). Only for a fishless proof that has not yet seen a full dose cleared.
+ */
+function relapseAllowanceMs(base: ProjectionBase, tests: readonly TimedTest[], doses: readonly ProofDose[], fromMs: number, zeroMidMs: number): number {
+  if (!base.doseAfterZeroTests) return 0
+  const th = base.thresholds
+  const cleared = doses.some((d) => {
+    if (d.amount < th.clearanceMinDoseN) return false
+    const before = [...tests].reverse().find(x => x.t < d.t)
+    const after = tests.find(x => x.t > d.t + DOSE_CHECK_HOURS * HOUR_MS)
+    return before !== undefined && after !== undefined && readsZero(before, th) && readsZero(after, th)
+  })
+  if (cleared) return 0
+  const nitrite = seriesOf(tests, 'nitriteN', fromMs)
+  let peak: SeriesPoint | undefined
+  for (const p of nitrite) if (!peak || p.value >= peak.value) peak = p
+  if (!peak || peak.value <= th.nitriteZeroN) return 0
+  const firstZero = nitrite.find(p => p.t > peak.t && p.value <= th.nitriteZeroN)?.t ?? zeroMidMs
+  return Math.min(Math.max(0, firstZero - peak.t), MAX_RELAPSE_DAYS * DAY_MS)
+}
+
+/**
  * Forecasts when the cycle will be proven complete. Throws a RangeError for the same
  * bad input the engine refuses (`now`, `tank.startedAt`, thresholds).
  */
@@ -110,10 +183,12 @@ export function forecastCycle(input: CycleInput): CycleForecast {
   const nowMs = requireTime('now', input.now)
   const thresholds = resolveThresholds(input.thresholds)
   const verdict = evaluateCycle(input)
-  const tests = testsUpTo(input, nowMs)
+  const doses = dosesUpTo(input, nowMs)
+  const allTests = testsUpTo(input, nowMs)
+  const tests = curveTests(allTests, doses, thresholds)
   const lastTest = tests[tests.length - 1]
   const testEveryHours = thresholds.retestHours
-  const basis: ForecastBasis = { fits: [], readingZero: false, testEveryHours, latestTest: lastTest ? toIso(lastTest.t) : null }
+  const basis: ForecastBasis = { fits: [], readingZero: false, testEveryHours, latestTest: lastTest ? toIso(lastTest.t) : null, relapseDays: 0 }
   if (verdict.completedOn !== null) return completeForecast(verdict, basis)
   if (verdict.phase === 'not-started') return shell('not-enough-data', 'not-started', basis)
   if (!lastTest || tests.length < MIN_TESTS) return shell('not-enough-data', 'sparse', basis)
@@ -135,6 +210,7 @@ export function forecastCycle(input: CycleInput): CycleForecast {
 
   const lastNitrate = [...tests].reverse().find(x => x.nitrateN !== undefined)?.nitrateN ?? 0
   const livestockIn = (input.events ?? []).some(e => e.kind === 'livestock-added' && parseTime(e.at) <= nowMs)
+  const doseAfterZeroTests = input.tank.cycleMethod === 'fishless' && !livestockIn
   const base: ProjectionBase = {
     input: pastOnly(input, nowMs),
     thresholds,
@@ -143,7 +219,10 @@ export function forecastCycle(input: CycleInput): CycleForecast {
     ammoniaAbove,
     nitriteAbove,
     nitrateN: Math.max(lastNitrate, 2 * thresholds.nitratePresentN),
-    doseAfterZeroTests: input.tank.cycleMethod === 'fishless' && !livestockIn,
+    doseAfterZeroTests,
+    // The latest test read zero and no dose followed it yet: the routine starts with that dose.
+    doseNow: doseAfterZeroTests && basis.readingZero && !doses.some(d => d.t > lastTest.t),
+    uncheckedDoseMs: uncheckedDose(doses, allTests, lastTest.t),
     testEveryHours,
   }
   const nextTestMs = futureTestTimes(base)[0] ?? nowMs
@@ -151,18 +230,22 @@ export function forecastCycle(input: CycleInput): CycleForecast {
   if ('gap' in window) return shell('not-enough-data', window.gap, basis)
   if (window.toMs - lastTest.t > HORIZON_DAYS * DAY_MS) return shell('not-enough-data', 'too-far', basis)
 
-  const soonest = projectCompletion(base, nextTestMs)
-  const early = projectCompletion(base, window.fromMs)
-  const likely = projectCompletion(base, window.midMs)
-  const late = projectCompletion(base, window.toMs)
-  if (!soonest || !early || !likely || !late) return shell('not-enough-data', 'too-far', basis)
+  const first = firstProvingRoutine(base, nextTestMs)
+  if (!first) return shell('not-enough-data', 'too-far', basis)
+  const soonest = first.projection
+  const early = projectCompletion(base, window.fromMs, first.routine)
+  const likely = projectCompletion(base, window.midMs, first.routine)
+  const late = projectCompletion(base, window.toMs, first.routine)
+  if (!early || !likely || !late) return shell('not-enough-data', 'too-far', basis)
 
   const slack = RANGE_SLACK_DAYS * DAY_MS
   // Nothing can beat the engine's proof with zeros from the very next test.
   const fromMsDone = Math.max(soonest.completedMs, early.completedMs - slack)
-  const toMsDone = late.completedMs + slack
+  const relapseMs = relapseAllowanceMs(base, tests, doses, fromMs, window.midMs)
+  const toMsDone = late.completedMs + slack + relapseMs
   if (toMsDone - fromMsDone > MAX_RANGE_DAYS * DAY_MS) return shell('not-enough-data', 'too-far', basis)
 
+  basis.relapseDays = Math.round(relapseMs / DAY_MS)
   const forecast = shell('forecast', null, basis)
   forecast.completion = { from: toIso(fromMsDone), to: toIso(toMsDone) }
   forecast.likely = toIso(Math.min(Math.max(likely.completedMs, fromMsDone), toMsDone))

@@ -38,3 +38,13 @@ export const WEIGHT_HALF_LIFE_DAYS = 4
 
 /** Days added either side of the range to cover a missed test day and the kit's colour steps. */
 export const RANGE_SLACK_DAYS = 1
+
+/**
+ * A test taken within this many hours after an ammonia dose given while the tank read
+ * zero is the check that the dose arrived, not a point on the falling curve: the fit
+ * leaves it out (the trade checks "a few hours" after a proof dose).
+ */
+export const DOSE_CHECK_HOURS = 8
+
+/** The late end's allowance for nitrite coming back after the first full proof doses is at most this many days. */
+export const MAX_RELAPSE_DAYS = 10

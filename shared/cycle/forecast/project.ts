@@ -12,7 +12,10 @@
  * - before T the test still shows ammonia or nitrite above the kit's zero; from T
  *   on it reads zero for both, with nitrate present (nitrification makes nitrate);
  * - a fishless tank with no livestock gets the engine's clearance dose after each
- *   zero test, as the engine asks, and clears it by the next test;
+ *   zero test and clears it by the next test; rule sets differ in how a dose is shown
+ *   to arrive, so two routines are tried in turn (ROUTINES): with a check test a few
+ *   hours after each dose showing it arrived, and without one. The first the engine
+ *   accepts as proof is the one the forecast follows;
  * - no water change, and nothing else that restarts the engine's count.
  */
 
@@ -42,11 +45,24 @@ export interface ProjectionBase {
   nitrateN: number
   /** Add the clearance dose after each zero test (fishless, no livestock yet). */
   doseAfterZeroTests: boolean
+  /** The latest real test read zero and no dose followed it: the routine doses right after now. */
+  doseNow: boolean
+  /** A real dose after the latest test whose arrival no test has shown yet (time), or null. */
+  uncheckedDoseMs: number | null
   testEveryHours: number
 }
 
 /** Most proofs need a few days of zero tests; the engine first runs on this many days past T, then on the whole horizon. */
 const FIRST_TRY_DAYS = 14
+
+/** Hours after a clearance dose at which the check test shows it arrived (the trade's "a few hours later"). */
+const ARRIVAL_CHECK_HOURS = 3
+
+/** How the assumed future shows each clearance dose: with a check test that it arrived, or without. */
+export type Routine = 'checked' | 'unchecked'
+
+/** Tried in this order; a routine the rule set does not accept as proof never proves the cycle. */
+export const ROUTINES: readonly Routine[] = ['checked', 'unchecked']
 
 /** Times of the assumed future tests: on the latest test's rhythm, from the first one after now, up to `untilMs`. */
 export function futureTestTimes(base: ProjectionBase, untilMs = base.lastTestMs + HORIZON_DAYS * DAY_MS): number[] {
@@ -54,7 +70,8 @@ export function futureTestTimes(base: ProjectionBase, untilMs = base.lastTestMs 
   const end = Math.min(untilMs, base.lastTestMs + HORIZON_DAYS * DAY_MS)
   const times: number[] = []
   let t = base.lastTestMs + step
-  while (t <= base.nowMs) t += step
+  // A test already due is taken within the hour; after a dose given now, a full interval later.
+  if (t <= base.nowMs) t = base.nowMs + (base.doseNow ? step : HOUR_MS)
   for (; t <= end; t += step) times.push(t)
   return times
 }
@@ -76,24 +93,44 @@ function assumedTest(base: ProjectionBase, t: number, zero: boolean, index: numb
  * nitrite read zero from `zeroFromMs`; null when the engine would not prove the cycle
  * inside the horizon.
  */
-export function projectCompletion(base: ProjectionBase, zeroFromMs: number): Projection | null {
-  return projectUntil(base, zeroFromMs, zeroFromMs + FIRST_TRY_DAYS * DAY_MS) ?? projectUntil(base, zeroFromMs, Number.POSITIVE_INFINITY)
+export function projectCompletion(base: ProjectionBase, zeroFromMs: number, routine: Routine): Projection | null {
+  return projectUntil(base, zeroFromMs, zeroFromMs + FIRST_TRY_DAYS * DAY_MS, routine) ?? projectUntil(base, zeroFromMs, Number.POSITIVE_INFINITY, routine)
 }
 
-function projectUntil(base: ProjectionBase, zeroFromMs: number, untilMs: number): Projection | null {
+/** The first routine under which the engine proves the cycle with zeros from `zeroFromMs`, with that projection. */
+export function firstProvingRoutine(base: ProjectionBase, zeroFromMs: number): { routine: Routine, projection: Projection } | null {
+  for (const routine of base.doseAfterZeroTests ? ROUTINES : ROUTINES.slice(0, 1)) {
+    const projection = projectCompletion(base, zeroFromMs, routine)
+    if (projection) return { routine, projection }
+  }
+  return null
+}
+
+function projectUntil(base: ProjectionBase, zeroFromMs: number, untilMs: number, routine: Routine): Projection | null {
   const readings = [...base.input.readings]
   const events = [...(base.input.events ?? [])]
   const times = futureTestTimes(base, untilMs)
+  const last = times[times.length - 1]
+  if (last === undefined) return null
+  const dose = (t: number, key: string) => {
+    const amount = base.thresholds.clearanceDoseN
+    events.push({ id: `forecast-dose-${key}`, at: toIso(t + 60_000), kind: 'ammonia-dose', amount } satisfies CycleEvent)
+    if (routine === 'checked') {
+      readings.push({ id: `forecast-check-${key}`, takenAt: toIso(t + ARRIVAL_CHECK_HOURS * HOUR_MS), ammoniaN: amount, nitriteN: 0, nitrateN: base.nitrateN })
+    }
+  }
+  if (base.doseNow) dose(base.nowMs, 'now')
+  // A dose given today is checked a few hours later, as the routine checks its own doses.
+  if (routine === 'checked' && base.uncheckedDoseMs !== null) {
+    const at = Math.max(base.uncheckedDoseMs + ARRIVAL_CHECK_HOURS * HOUR_MS, base.nowMs + 60_000)
+    if (times[0] === undefined || at < times[0]) readings.push({ id: 'forecast-check-pending', takenAt: toIso(at), ammoniaN: base.thresholds.clearanceDoseN, nitriteN: 0, nitrateN: base.nitrateN })
+  }
   times.forEach((t, i) => {
     const zero = t >= zeroFromMs
     readings.push(assumedTest(base, t, zero, i))
-    if (zero && base.doseAfterZeroTests) {
-      const dose: CycleEvent = { id: `forecast-dose-${i}`, at: toIso(t + 60_000), kind: 'ammonia-dose', amount: base.thresholds.clearanceDoseN }
-      events.push(dose)
-    }
+    // The routine ends on a test before the next dose: the engine judges the proof there.
+    if (zero && base.doseAfterZeroTests && t !== last) dose(t, String(i))
   })
-  const last = times[times.length - 1]
-  if (last === undefined) return null
   const verdict = evaluateCycle({ ...base.input, readings, events, now: toIso(last) })
   if (verdict.completedOn === null) return null
   const groups = {} as Record<LivestockGroup, number | null>

@@ -47,6 +47,8 @@ export interface ForecastBasis {
   testEveryHours: number
   /** Latest test used, ISO. */
   latestTest: string | null
+  /** Days the late end leaves for nitrite to come back once after the first full proof doses (0: none). */
+  relapseDays: number
 }
 
 /** The forecast for one tank at one moment. */

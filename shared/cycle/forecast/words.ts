@@ -43,6 +43,7 @@ export function explainForecast(forecast: CycleForecast, date: DateWords): strin
   if (forecast.status === 'not-enough-data') return forecastGapWords(forecast.gap ?? 'sparse')
   const parts = forecast.basis.fits.map(f => fitWords(f, date))
   if (forecast.basis.readingZero) parts.push('Ammonia and nitrite already read zero; what is left is the run of zero tests the verdict needs as proof.')
+  if (forecast.basis.relapseDays > 0) parts.push(`The later date leaves about ${forecast.basis.relapseDays} days for nitrite to come back once when the full proof doses start, as it often does.`)
   parts.push(`It assumes a test about every ${forecast.basis.testEveryHours} hours from now on, and no water change meanwhile; ${Math.round(forecast.probability * 100)} out of 100 such ranges should hold the real date.`)
   return parts.join(' ')
 }

@@ -15,9 +15,20 @@ function holds(f: CycleForecast, completedOn: string): boolean {
   return day(f.completion!.from) <= day(completedOn) && day(completedOn) <= day(f.completion!.to)
 }
 
+/** When the engine first proved the cycle, run right after each test as the server does; null when it never did. */
+function realCompletion(log: TankLog): { completedOn: string, provenAt: string } | null {
+  const input = log.input(0)
+  for (const at of [...new Set(log.readings.map(r => r.takenAt))].sort()) {
+    const provenAt = new Date(Date.parse(at) + 60_000).toISOString()
+    const completedOn = evaluateCycle({ ...input, now: provenAt }).completedOn
+    if (completedOn !== null) return { completedOn, provenAt }
+  }
+  return null
+}
+
 /** Every daily cut of a tank's history that got a range, with the engine's completion on the whole history. */
 function cuts(log: TankLog, lastDay: number) {
-  const completedOn = evaluateCycle(log.input(lastDay + 1)).completedOn
+  const completedOn = realCompletion(log)?.completedOn ?? null
   const forecasts: Array<{ day: number, f: CycleForecast }> = []
   for (let d = 1; d <= lastDay; d += 1) {
     const f = forecastCycle(log.input(d))
@@ -60,8 +71,9 @@ describe('completion forecast on the textbook fishless cycle', () => {
   })
 
   it('turns into the verdict once the engine proves the cycle', () => {
-    const f = forecastCycle(log.input(22))
-    const verdict = evaluateCycle(log.input(22))
+    const proven = { ...log.input(0), now: realCompletion(log)!.provenAt }
+    const f = forecastCycle(proven)
+    const verdict = evaluateCycle(proven)
     expect(f.status).toBe('complete')
     expect(f.completion).toEqual({ from: verdict.completedOn, to: verdict.completedOn })
     expect(f.groups['lps-coral']!.from).toBe(verdict.readiness['lps-coral'].earliest)
