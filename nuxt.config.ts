@@ -37,6 +37,11 @@ export default defineNuxtConfig({
     // 3 days or 7 days after sign-in, a session ends. The cookie's maxAge matches the absolute lifetime.
     sessionLifetime: { idleMinutes: 3 * 24 * 60, absoluteMinutes: 7 * 24 * 60 },
     signIn: { accountFailureLimit: 8, addressFailureLimit: 30, windowMinutes: 15 },
+    // NUXT_TRUST_PROXY=1 only behind a reverse proxy that sets X-Forwarded-For/-Host itself:
+    // otherwise a client could choose its own address (throttles) and host (origin check).
+    trustProxy: false,
+    // Account e-mails one address, network or inviting account may cause (NUXT_MAIL_THROTTLE_*).
+    mailThrottle: { resetPerAddressPerHour: 3, resetPerNetworkPerHour: 20, invitePerAddressPerDay: 3, invitePerAccountPerHour: 30 },
     // NUXT_BENCH_ROUTES=1 enables the benchmark floor routes under server/api/bench (npm run bench only).
     benchRoutes: false,
     // Outgoing mail (NUXT_SMTP_HOST, _PORT, _USER, _PASS, _FROM, _SECURE). No host: mail stays queued in the outbox.
@@ -48,16 +53,11 @@ export default defineNuxtConfig({
     testHooks: false,
     // How often the mail worker looks for due mail and runs escalations and reminders.
     workerIntervalMs: 5000,
+    // Stored verdicts older than this are made again, on read and by the worker (at most an hour).
+    verdictIntervalMs: 900000,
     public: {
-      // Absolute links in e-mails (NUXT_PUBLIC_BASE_URL).
+      // Absolute links in e-mails and on certificates (NUXT_PUBLIC_BASE_URL); never taken from a request.
       baseUrl: 'http://localhost:3000',
-    },
-  },
-  routeRules: {
-    // A year of twice-daily readings is ~50 kB; bulk imports of 100,000 rows are ~8 MB.
-    // Only the import route accepts large bodies; everything else keeps the 2 MB default.
-    '/api/tanks/*/readings/import': {
-      security: { requestSizeLimiter: { maxRequestSizeInBytes: 24_000_000, maxUploadFileRequestInBytes: 24_000_000 } },
     },
   },
   compatibilityDate: '2025-07-15',
@@ -95,14 +95,15 @@ export default defineNuxtConfig({
       },
       crossOriginEmbedderPolicy: false,
       referrerPolicy: 'same-origin',
+      // Sent by server/middleware/01.response-headers.ts whenever the session cookie is Secure.
       strictTransportSecurity: false,
     },
     // Sign-in throttling is Tidewright's own (per account and address); a global
     // token bucket would refuse honest bursts such as a day's CSV import.
     rateLimiter: false,
-    // Uploads are checked by server/utils/uploads.ts (10 MB, with a clear message); this outer
-    // limit sits just above it so the app's own check answers first.
-    requestSizeLimiter: { maxRequestSizeInBytes: 2_000_000, maxUploadFileRequestInBytes: 10 * 1024 * 1024 + 128 * 1024 },
+    // Its limiter trusts Content-Length and skips PATCH and chunked bodies; Tidewright counts
+    // the bytes of every body itself (server/middleware/00.body-limit.ts).
+    requestSizeLimiter: false,
     // Tidewright serves its own pages only; no other origin may call the API.
     corsHandler: false,
     // Input is validated with valibot and Vue escapes output; this filter would refuse

@@ -13,8 +13,7 @@ export default defineEventHandler(async (event): Promise<PlanTemplateView> => {
     tx.insert(planTemplateStages).values(input.stages.map((stage, index) => ({
       organisationId: actor.organisationId, position: index + 1, key: stage.key, title: stage.title, checklist: stage.checklist,
     }))).run()
+    writeAudit(actor, { action: 'plan-template.replace', entity: 'plan_template', entityId: actor.organisationId, before, after: companyTemplate(actor.organisationId) })
   })
-  const after = companyTemplate(actor.organisationId)
-  writeAudit(actor, { action: 'plan-template.replace', entity: 'plan_template', entityId: actor.organisationId, before, after })
-  return after
+  return companyTemplate(actor.organisationId)
 })

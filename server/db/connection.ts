@@ -20,6 +20,9 @@ export type Db = BaseSQLiteDatabase<'sync', Database.RunResult, typeof schema>
 
 export const DEFAULT_DB_PATH = 'data/tidewright.sqlite'
 
+/** Largest size the WAL file keeps after a checkpoint (16 MB). */
+export const WAL_SIZE_LIMIT_BYTES = 16 * 1024 * 1024
+
 /** Opens (creating if needed) the database file with WAL, foreign keys and a busy timeout. */
 export function openDatabase(path: string): TidewrightDB {
   const file = resolve(path)
@@ -30,7 +33,19 @@ export function openDatabase(path: string): TidewrightDB {
   // Writers queue briefly instead of surfacing SQLITE_BUSY under concurrent requests.
   sqlite.pragma('busy_timeout = 5000')
   sqlite.pragma('synchronous = NORMAL')
+  // After a checkpoint resets the write-ahead log, SQLite cuts the file back to this size;
+  // without it a big import leaves a WAL file of hundreds of MB on disk for good.
+  sqlite.pragma(`journal_size_limit = ${WAL_SIZE_LIMIT_BYTES}`)
   return drizzle(sqlite, { schema }) as TidewrightDB
+}
+
+/**
+ * Copies the write-ahead log into the database file and empties it (TRUNCATE), if no reader
+ * is in the way. Returns how many pages were in the log and whether the checkpoint was blocked.
+ */
+export function checkpointWal(db: TidewrightDB): { walPages: number, busy: boolean } {
+  const [row] = db.$client.pragma('wal_checkpoint(TRUNCATE)') as { busy: number, log: number, checkpointed: number }[]
+  return { walPages: row?.log ?? 0, busy: Boolean(row?.busy) }
 }
 
 /** Applies every migration in drizzle/ that the file has not seen yet. */

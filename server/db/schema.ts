@@ -232,12 +232,12 @@ export const sessions = sqliteTable('sessions', {
   endReason: text('end_reason'),
 }, t => [uniqueIndex('sessions_token_hash').on(t.tokenHash), index('sessions_user_idx').on(t.userId, t.endedAt)])
 
-/** Failed sign-ins, for throttling; keyed by normalised e-mail and by client address. */
-export const signInFailures = sqliteTable('sign_in_failures', {
+/** One attempt counted by a throttle (sign-in, reset and invitation mail), by key and time. */
+export const throttleMarks = sqliteTable('throttle_marks', {
   id: integer('id').primaryKey({ autoIncrement: true }),
   key: text('key').notNull(),
   at: text('at').notNull(),
-}, t => [index('sign_in_failures_key_at').on(t.key, t.at)])
+}, t => [index('throttle_marks_key_at').on(t.key, t.at)])
 
 /** The company's build-plan template, one row per stage; new tanks copy it. */
 export const planTemplateStages = sqliteTable('plan_template_stages', {
@@ -370,3 +370,18 @@ export const signOffs = sqliteTable('sign_offs', {
   reopenReason: text('reopen_reason'),
   ...timestamps,
 }, t => [index('sign_offs_tank_idx').on(t.tankId), uniqueIndex('sign_offs_verification').on(t.verificationCode)])
+
+/**
+ * A change to a signed-off tank's facts (name, volume, method, dimensions, client, site)
+ * made without reopening the sign-off: a written reason, who and when, before and after.
+ * The certificate lists every amendment under the facts it was signed with. Never rewritten.
+ */
+export const signOffAmendments = sqliteTable('sign_off_amendments', {
+  id: id(),
+  signOffId: text('sign_off_id').notNull().references(() => signOffs.id, { onDelete: 'cascade' }),
+  tankId: text('tank_id').notNull().references(() => tanks.id, { onDelete: 'cascade' }),
+  amendedBy: text('amended_by').references(() => users.id, { onDelete: 'set null' }),
+  amendedAt: text('amended_at').notNull(),
+  reason: text('reason').notNull(),
+  changes: text('changes', { mode: 'json' }).$type<{ field: string, before: unknown, after: unknown }[]>().notNull(),
+}, t => [index('sign_off_amendments_sign_off_idx').on(t.signOffId)])

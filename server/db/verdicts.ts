@@ -3,7 +3,7 @@
  * read the phase without recomputing. Framework-free: the server, the seed and the
  * tests share it.
  */
-import { eq } from 'drizzle-orm'
+import { and, eq, inArray, isNull, type SQL } from 'drizzle-orm'
 import { evaluateCycle } from '../../shared/cycle/engine'
 import type { CycleEvent, CycleInput, CycleReading, Verdict } from '../../shared/cycle/types'
 import { CYCLE_EVENT_KINDS, type CycleEventKind, type EventKind } from '../../shared/vocabulary'
@@ -29,6 +29,8 @@ export function cycleInputFor(db: TidewrightDB, tankId: string, now: Date): Cycl
     readings: readingRows.map((r): CycleReading => ({
       id: r.id,
       takenAt: r.takenAt,
+      // Two tests taken in the same minute: the one entered last is the latest.
+      enteredAt: r.createdAt,
       ammoniaN: defined(r.ammoniaN),
       nitriteN: defined(r.nitriteN),
       nitrateN: defined(r.nitrateN),
@@ -38,9 +40,10 @@ export function cycleInputFor(db: TidewrightDB, tankId: string, now: Date): Cycl
       alkalinityDkh: defined(r.alkalinityDkh),
       calciumMgL: defined(r.calciumMgL),
       magnesiumMgL: defined(r.magnesiumMgL),
+      phosphateMgL: defined(r.phosphateMgL),
     })),
     events: eventRows.flatMap(({ kind, ...e }): CycleEvent[] => isCycleEventKind(kind)
-      ? [{ id: e.id, at: e.at, kind, amount: defined(e.amount), group: defined(e.group) }]
+      ? [{ id: e.id, at: e.at, enteredAt: e.createdAt, kind, amount: defined(e.amount), group: defined(e.group) }]
       : []),
     thresholds,
     now: now.toISOString(),
@@ -61,4 +64,26 @@ export function computeAndStoreVerdict(db: TidewrightDB, tankId: string, now = n
   }
   db.insert(tankVerdicts).values(row).onConflictDoUpdate({ target: tankVerdicts.tankId, set: row }).run()
   return verdict
+}
+
+/**
+ * A stored verdict speaks for `now` when it was made at most `maxAgeMs` before it. One made
+ * after `now` (a clock set back, a test's injected time) does not: it may count on time that
+ * has not passed.
+ */
+export function verdictIsCurrent(evaluatedAt: string, now: Date, maxAgeMs: number): boolean {
+  const age = now.getTime() - Date.parse(evaluatedAt)
+  return Number.isFinite(age) && age >= 0 && age <= maxAgeMs
+}
+
+/**
+ * Tanks whose stored verdict is missing or no longer current at `now`: among `tankIds` when
+ * given (a page being read), otherwise every tank not archived (the worker's round).
+ */
+export function tanksWithStaleVerdicts(db: TidewrightDB, now: Date, maxAgeMs: number, tankIds?: readonly string[]): string[] {
+  if (tankIds !== undefined && tankIds.length === 0) return []
+  const where: SQL | undefined = tankIds === undefined ? isNull(tanks.archivedAt) : inArray(tanks.id, [...tankIds])
+  const rows = db.select({ id: tanks.id, evaluatedAt: tankVerdicts.evaluatedAt }).from(tanks)
+    .leftJoin(tankVerdicts, eq(tankVerdicts.tankId, tanks.id)).where(and(where)).all()
+  return rows.filter(r => r.evaluatedAt === null || !verdictIsCurrent(r.evaluatedAt, now, maxAgeMs)).map(r => r.id)
 }

@@ -10,7 +10,9 @@ export default defineEventHandler((event) => {
   if (SAFE_METHODS.has(event.method) || !event.path.startsWith('/api/')) return
   const origin = getRequestHeader(event, 'origin')
   if (!origin) return
-  const host = getRequestHeader(event, 'x-forwarded-host') ?? getRequestHeader(event, 'host')
+  // X-Forwarded-Host is believed only behind a proxy we were told to trust (NUXT_TRUST_PROXY).
+  const forwarded = isOn(useRuntimeConfig().trustProxy) ? getRequestHeader(event, 'x-forwarded-host') : undefined
+  const host = forwarded ?? getRequestHeader(event, 'host')
   let originHost: string
   try {
     originHost = new URL(origin).host

@@ -1,6 +1,6 @@
 /**
  * The background worker: on an interval it delivers due mail from the outbox and runs
- * the clocked jobs (alert escalation, test reminders) on the real clock. With
+ * the clocked jobs (alert escalation, test reminders, housekeeping, unused test photos) on the real clock. With
  * NUXT_TEST_HOOKS=1 the clocked jobs run only from POST /api/dev/worker-tick with an
  * injected clock, so tests decide when time has passed; mail delivery still runs.
  */
@@ -13,7 +13,11 @@ export default defineNitroPlugin((nitroApp) => {
     if (busy) return
     busy = true
     try {
-      if (clocked) runClockedJobs(new Date())
+      if (clocked) {
+        const now = new Date()
+        runClockedJobs(now)
+        await removeExpiredPendingPhotos(now)
+      }
       await deliverDueMail()
     }
     catch (error) {

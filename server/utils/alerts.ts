@@ -5,6 +5,7 @@
 import type { Verdict } from '#shared/cycle/types'
 import { acknowledgeAlertInDb, escalateDueAlerts, resolveAlertInDb, syncAlertsInDb, type AlertSyncResult } from '../db/alerts'
 import { runTestReminders } from '../db/reminders'
+import { runHousekeeping } from '../domain/housekeeping/housekeeping'
 import { runWeeklyDigest } from '../domain/forecast/weekly-digest'
 import type { Actor } from './access'
 
@@ -34,12 +35,14 @@ export function resolveAlert(actor: Actor, alertId: string, note: string, now = 
   return done?.alert ?? null
 }
 
-/** The clocked jobs: escalations, test reminders and weekly digests due at `now`. */
+/** The clocked jobs at `now`: verdicts made again where time alone may have changed them, then escalations, test reminders and weekly digests, then database housekeeping. */
 export function runClockedJobs(now: Date) {
+  const verdicts = refreshStaleVerdicts(now)
   const db = useDB()
   const escalation = escalateDueAlerts(db, now, publicBaseUrl())
   const reminders = runTestReminders(db, now, publicBaseUrl())
   const digests = runWeeklyDigest(db, now, publicBaseUrl())
   announceNotices([...escalation.notifiedUserIds, ...reminders.notifiedUserIds])
-  return { escalated: escalation.escalated.length, reminded: reminders.reminded.length, aquaristsTold: reminders.aquaristsTold.length, digests: digests.sent.length }
+  runHousekeeping(db, now)
+  return { verdicts, escalated: escalation.escalated.length, reminded: reminders.reminded.length, aquaristsTold: reminders.aquaristsTold.length, digests: digests.sent.length }
 }

@@ -7,7 +7,7 @@ import fontkit from '@pdf-lib/fontkit'
 import { PDFDocument, rgb, type PDFFont, type PDFPage } from 'pdf-lib'
 import { celsiusToFahrenheit, litresToUsGallons } from '#shared/units'
 import { datedAcclimation, finalReadings, stockingSteps, type FinalReadingKey } from '#shared/sign-off/plan'
-import type { SignOffSnapshot } from '#shared/types/sign-off'
+import type { SignedStage, SignOffAmendmentView, SignOffSnapshot } from '#shared/types/sign-off'
 import type { CycleMethod, UnitSystem } from '#shared/vocabulary'
 
 export interface CertificateFacts {
@@ -25,6 +25,10 @@ export interface CertificateFacts {
   override: boolean
   decisionNote: string | null
   snapshot: SignOffSnapshot
+  /** The build plan as it stood at the decision. */
+  stages: SignedStage[]
+  /** Changes to the signed facts since, each with its reason. */
+  amendments: SignOffAmendmentView[]
   verificationCode: string
   verifyUrl: string
   units: UnitSystem
@@ -63,6 +67,19 @@ export function formatFinalValue(key: FinalReadingKey, value: number, units: Uni
     case 'alkalinityDkh': return `${value.toFixed(1)} dKH`
     case 'calciumMgL': case 'magnesiumMgL': return `${Math.round(value)} mg/L`
   }
+}
+
+const AMENDED_FIELD_LABELS: Record<string, string> = {
+  name: 'name', clientId: 'client', siteId: 'site', shape: 'shape', dimensions: 'dimensions',
+  volumeLitres: 'volume (L)', sumpLitres: 'sump (L)', cycleMethod: 'cycle method', cycleStartedAt: 'cycle start',
+}
+
+/** A changed value in a few words (dimensions as "1200 × 500 × 550 mm"). */
+function describeValue(value: unknown): string {
+  if (value === null || value === undefined) return '—'
+  if (typeof value === 'number') return String(Math.round(value * 10) / 10)
+  if (typeof value === 'object') return Object.values(value as Record<string, number>).join(' × ') + ' mm'
+  return `"${String(value)}"`
 }
 
 function wrap(text: string, font: PDFFont, size: number, width: number): string[] {
@@ -161,6 +178,17 @@ export async function renderCertificate(facts: CertificateFacts): Promise<Uint8A
   if (facts.aquaristName) w.text(`Commissioned by ${facts.aquaristName}. Engine rule set ${verdict.ruleSetVersion}; phase at sign-off: ${verdict.phase}.`, { size: 9, color: SOFT })
   else w.text(`Engine rule set ${verdict.ruleSetVersion}; phase at sign-off: ${verdict.phase}.`, { size: 9, color: SOFT })
 
+  const finished = facts.stages.filter(stage => stage.status === 'done' || stage.status === 'skipped')
+  if (facts.stages.length) w.text(`Build plan at sign-off: ${finished.length} of ${facts.stages.length} stages finished (${finished.map(stage => stage.status === 'skipped' ? `${stage.title}, skipped` : stage.title).join('; ')}).`, { size: 9, color: SOFT })
+
+  if (facts.amendments.length) {
+    w.heading('Amended after signing')
+    for (const amendment of facts.amendments) {
+      const changes = amendment.changes.map(c => `${AMENDED_FIELD_LABELS[c.field] ?? c.field} ${describeValue(c.before)} changed to ${describeValue(c.after)}`).join('; ')
+      w.text(`${certificateDate(amendment.at)}, ${amendment.byName ?? 'a former user'}: ${changes}. Reason: ${amendment.reason}`, { size: 9.5 })
+    }
+  }
+
   if (facts.override) {
     w.heading('Signed against the engine\'s verdict')
     w.text(`The supervisor signed this tank off although the rule engine did not judge it ready: ${facts.snapshot.overrideGrounds.join(' ')}`, { size: 9.5, color: DANGER })
@@ -184,7 +212,8 @@ export async function renderCertificate(facts: CertificateFacts): Promise<Uint8A
     const when = step.allowed ? `from ${certificateDate(step.earliest ?? facts.signedAt)}` : step.earliest ? `not before ${certificateDate(step.earliest)}` : 'not yet'
     w.text(`${step.order}. ${step.label} — ${when}${step.blockers.length && !step.allowed ? `: ${step.blockers.join(' ')}` : ''}`, { size: 9.5 })
   }
-  const lighting = datedAcclimation(facts.signedAt)
+  // The tank's own acclimation as it stood when signed (older records: the defaults they were printed with).
+  const lighting = datedAcclimation(facts.signedAt, facts.snapshot.acclimation)
   const first = lighting[0]!
   const last = lighting.at(-1)!
   w.text(`Lighting: hold the plateau at ${first.plateauPercent} % from ${certificateDate(first.from)} and raise it weekly to ${last.plateauPercent} % by ${certificateDate(last.from)} (${lighting.map(l => `${l.plateauPercent} %`).join(', ')}).`, { size: 9.5, gap: 2 })

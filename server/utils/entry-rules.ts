@@ -14,6 +14,8 @@ export const CLIENT_EDIT_WINDOW_MS = 24 * 3_600_000
 export const ENTRY_ROLES = ['admin', 'aquarist', 'client'] as const
 
 export interface EditableEntry {
+  /** The entry's id: an entry held in the sign-off snapshot stays locked whatever its date. */
+  id?: string
   enteredBy: string | null
   createdAt: string
   /** The reading's takenAt or the event's at: what a period lock will compare. */
@@ -43,7 +45,7 @@ export function editRefusal(actor: Actor, tank: { id: string, organisationId: st
 export function assertEditable(actor: Actor, tank: { id: string, organisationId: string }, entry: EditableEntry, now = new Date()): void {
   const refusal = editRefusal(actor, tank, entry, now)
   if (refusal) throw createError({ statusCode: 403, statusMessage: refusal })
-  assertEntryUnlocked(tank.id, entry.at)
+  assertEntryUnlocked(tank.id, entry.at, entry.id)
 }
 
 /** A new or moved entry may not be written into a signed-off period (409). */

@@ -12,3 +12,8 @@ export function requireSwitch(value: unknown): void {
 export function publicBaseUrl(): string {
   return String(useRuntimeConfig().public.baseUrl || 'http://localhost:3000')
 }
+
+/** An absolute link for mail and documents: always the configured public base URL, never a request header. */
+export function publicLink(path: string): string {
+  return `${publicBaseUrl().replace(/\/+$/, '')}${path.startsWith('/') ? path : `/${path}`}`
+}

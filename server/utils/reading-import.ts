@@ -7,10 +7,11 @@
 import { hash, randomUUID } from 'node:crypto'
 import Papa from 'papaparse'
 import type { ReadingImportInput } from '#shared/schemas/reading'
-import { arrayRowToEntry, columnIndexes, guessMapping } from '#shared/readings/csv'
-import { toCanonicalReading, type CanonicalReading } from '#shared/readings/entry'
+import { arrayRowToEntry, columnIndexes, duplicateHeaderColumns, guessMapping, importBasis } from '#shared/readings/csv'
+import { toCanonicalReading, type CanonicalReading, type KitBasisChoice } from '#shared/readings/entry'
 import { MEASURED_FIELDS } from '#shared/vocabulary'
 import type { ImportPreview, ImportRowError } from '#shared/types/readings'
+import type { Actor } from './access'
 
 /** At most this many row errors are reported; the count is always complete. */
 const MAX_REPORTED_ERRORS = 200
@@ -19,6 +20,8 @@ const PREVIEW_ROWS = 20
 export interface ImportPlan {
   headers: string[]
   mapping: Record<string, string>
+  /** The basis every row's nitrogen values were read in. */
+  basis: KitBasisChoice
   rowCount: number
   rows: { row: number, reading: CanonicalReading, key: string }[]
   errors: ImportRowError[]
@@ -38,11 +41,15 @@ export function importKeyOf(reading: CanonicalReading): string {
   return hash('sha256', normalised, 'hex').slice(0, 32)
 }
 
-/** Parses and converts the whole file without writing anything. */
-export function planImport(tankId: string, input: ReadingImportInput): ImportPlan {
+/** Parses and converts the whole file without writing anything; `kit` is the tank's remembered kit basis. */
+export function planImport(tankId: string, input: ReadingImportInput, kit: KitBasisChoice): ImportPlan {
   // Rows as arrays, not objects: several times faster on large files.
   const parsed = Papa.parse<string[]>(input.csv, { header: false, skipEmptyLines: 'greedy' })
   const headers = (parsed.data.shift() ?? []).map(h => h.trim())
+  const repeats = duplicateHeaderColumns(headers)
+  if (repeats.length) {
+    fieldError([{ field: 'csv', message: `The header row repeats a column name (column ${repeats.join(', ')}), so it is unclear which column holds what. Rename or remove the repeated column and import again.` }])
+  }
   const mapping = guessMapping(headers, input.mapping) as Record<string, string>
   const indexes = columnIndexes(headers, mapping)
   if (!mapping.takenAt) {
@@ -55,7 +62,8 @@ export function planImport(tankId: string, input: ReadingImportInput): ImportPla
   // Rows inside a signed-off period would change what the supervisor signed: refused per row.
   const locked = tankLockedUntil(tankId)
   const lockedMs = locked ? Date.parse(locked) : Number.NEGATIVE_INFINITY
-  const options = { basis: input.basis, temperatureUnit: input.temperatureUnit, salinityMode: input.salinityMode, sgBasis: input.sgBasis }
+  const basis = importBasis(input.basis, mapping, kit)
+  const options = { basis, temperatureUnit: input.temperatureUnit, salinityMode: input.salinityMode, sgBasis: input.sgBasis }
   const rows: ImportPlan['rows'] = []
   const errors: ImportRowError[] = []
   let errorCount = 0
@@ -77,7 +85,7 @@ export function planImport(tankId: string, input: ReadingImportInput): ImportPla
     seen.add(key)
     rows.push({ row, reading: result.reading, key })
   })
-  return { headers, mapping, rowCount: parsed.data.length, rows, errors, errorCount, duplicates }
+  return { headers, mapping, basis, rowCount: parsed.data.length, rows, errors, errorCount, duplicates }
 }
 
 const INSERT_SQL = `INSERT INTO readings (id, tank_id, taken_at, entered_by, ammonia_n, nitrite_n, nitrate_n, ph, temperature_c, salinity,
@@ -86,7 +94,7 @@ const INSERT_SQL = `INSERT INTO readings (id, tank_id, taken_at, entered_by, amm
   ON CONFLICT (tank_id, import_key) DO NOTHING`
 
 /** Writes the planned rows in one transaction; returns how many were new. */
-export function writeImport(tankId: string, actorId: string, plan: ImportPlan): number {
+export function writeImport(tankId: string, actor: Actor, plan: ImportPlan): number {
   const sqlite = useDB().$client
   const insert = sqlite.prepare(INSERT_SQL)
   const stamp = new Date().toISOString()
@@ -94,9 +102,11 @@ export function writeImport(tankId: string, actorId: string, plan: ImportPlan): 
     let inserted = 0
     for (const { reading, key } of plan.rows) {
       const v = reading.values
-      inserted += insert.run(randomUUID(), tankId, reading.takenAt, actorId, v.ammoniaN, v.nitriteN, v.nitrateN, v.pH, v.temperatureC, v.salinity,
+      inserted += insert.run(randomUUID(), tankId, reading.takenAt, actor.id, v.ammoniaN, v.nitriteN, v.nitrateN, v.pH, v.temperatureC, v.salinity,
         v.alkalinityDkh, v.calciumMgL, v.magnesiumMgL, v.phosphateMgL, reading.notes, JSON.stringify({ ...reading.entered, source: 'csv' }), key, stamp, stamp).changes
     }
+    // Same connection, same transaction: the rows and their audit line commit together or not at all.
+    writeAudit(actor, { action: 'reading.import', entity: 'tank', entityId: tankId, after: { rows: plan.rowCount, inserted, skipped: plan.rowCount - inserted, errors: plan.errors.length } })
     return inserted
   })()
 }
@@ -106,6 +116,7 @@ export function toPreview(plan: ImportPlan, dryRun: boolean, inserted: number): 
   return {
     headers: plan.headers,
     mapping: plan.mapping,
+    basis: plan.basis,
     rows: plan.rowCount,
     valid: plan.rows.length,
     duplicates: plan.duplicates,

@@ -5,6 +5,7 @@
  */
 import type { H3Event } from 'h3'
 import { eq } from 'drizzle-orm'
+import { accountUsable } from '../domain/people/people'
 import { checkSession, startSession, type SessionLifetimes } from '../domain/sessions/sessions'
 import { clients, users } from '../db/schema'
 
@@ -16,9 +17,9 @@ export function sessionLifetimes(): SessionLifetimes {
   return { idleMs: Number(idleMinutes) * 60_000, absoluteMs: Number(absoluteMinutes) * 60_000 }
 }
 
-/** The address a request came from, as far as this server trusts it. */
+/** The address a request came from: the socket's, or X-Forwarded-For only when a trusted proxy is configured (NUXT_TRUST_PROXY). */
 export function clientAddress(event: H3Event): string | null {
-  return getRequestIP(event) ?? null
+  return getRequestIP(event, { xForwardedFor: isOn(useRuntimeConfig().trustProxy) }) ?? null
 }
 
 /** Opens a server-side session for the user and seals its token into the cookie (replacing any older one). */
@@ -63,7 +64,6 @@ export async function resolveSignedIn(event: H3Event): Promise<SignedIn | null> 
   const row = db.select({ user: users, clientArchivedAt: clients.archivedAt }).from(users)
     .leftJoin(clients, eq(clients.id, users.clientId))
     .where(eq(users.id, check.session.userId)).get()
-  if (!row || !row.user.active) return null
-  if (row.user.role === 'client' && row.clientArchivedAt) return null
+  if (!row || !accountUsable(row.user, row.clientArchivedAt)) return null
   return { sessionId: check.session.id, user: row.user }
 }

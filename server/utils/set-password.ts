@@ -1,7 +1,8 @@
 import type { H3Event } from 'h3'
 import { eq } from 'drizzle-orm'
 import { passwordProblem, SetPasswordSchema } from '#shared/schemas/account'
-import { users } from '../db/schema'
+import { organisations, users } from '../db/schema'
+import { passwordWeakness } from '../domain/accounts/password-strength'
 import type { TidewrightDB } from '../db/connection'
 import type { TokenPurpose } from './auth-tokens'
 import { endSessionsOfUser } from '../domain/sessions/sessions'
@@ -14,7 +15,8 @@ export async function setPasswordWithToken(event: H3Event, purpose: TokenPurpose
   const now = requestNow(event)
   const found = peekToken(token, purpose, now)
   if (!found) throw createError({ statusCode: 410, statusMessage: GONE })
-  const problem = passwordProblem(password, found.user.email)
+  const company = useDB().select({ name: organisations.name }).from(organisations).where(eq(organisations.id, found.user.organisationId)).get()?.name
+  const problem = passwordProblem(password, found.user.email) ?? await passwordWeakness(password, { email: found.user.email, name: found.user.name, company })
   if (problem) throw createError({ statusCode: 400, statusMessage: 'Validation Error', data: { issues: [{ field: 'password', message: problem }] } })
   const passwordHash = await hashPassword(password)
   const db = useDB()

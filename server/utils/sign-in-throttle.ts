@@ -1,60 +1,53 @@
 /**
- * Slows, then refuses, repeated failed sign-ins, per account and per client address.
- * Failures live in the database so a restart does not reset an attack in progress.
- * Limits come from runtimeConfig.signIn (NUXT_SIGN_IN_* variables).
+ * Slows, then refuses, repeated sign-ins per account and per client network (an IPv6
+ * /64 counts as one). Each attempt is reserved before the password is checked, so
+ * guesses sent together are counted before any of them is checked; a correct password
+ * gives its reservation back. Limits from runtimeConfig.signIn (NUXT_SIGN_IN_*).
  */
-import { and, eq, gte, lt, sql } from 'drizzle-orm'
-import { signInFailures } from '../db/schema'
+import type { H3Event } from 'h3'
+import { addressGroup } from '../domain/net/address-group'
+import { clearAttempts, releaseAttempt, reserveAttempt, type ThrottleLimit } from '../domain/throttle/throttle'
 
 /** Failures after which each further attempt is slowed down. */
 const SLOW_AFTER = 3
 const MAX_DELAY_MS = 2000
 
-export interface ThrottleState {
-  refused: boolean
-  delayMs: number
-  retryAfterSeconds: number
-}
+export type SignInAttempt
+  = | { refused: true, retryAfterSeconds: number }
+    | { refused: false, delayMs: number, markIds: number[] }
 
-function limits() {
+function limitsFor(email: string, address: string | null): ThrottleLimit[] {
   const { accountFailureLimit, addressFailureLimit, windowMinutes } = useRuntimeConfig().signIn
-  return { accountLimit: Number(accountFailureLimit), addressLimit: Number(addressFailureLimit), windowMs: Number(windowMinutes) * 60_000 }
+  const windowMs = Number(windowMinutes) * 60_000
+  return [
+    { key: accountKey(email), max: Number(accountFailureLimit), windowMs },
+    { key: `sign-in:network:${addressGroup(address)}`, max: Number(addressFailureLimit), windowMs },
+  ]
 }
 
-function keys(email: string, address: string) {
-  return { account: `account:${email}`, address: `address:${address}` }
+function accountKey(email: string): string {
+  return `sign-in:account:${email}`
 }
 
-function countSince(key: string, since: string): number {
-  const row = useDB().select({ n: sql<number>`count(*)` }).from(signInFailures)
-    .where(and(eq(signInFailures.key, key), gte(signInFailures.at, since))).get()
-  return row?.n ?? 0
-}
-
-/** How this attempt must be treated, decided before the password is checked. */
-export function signInThrottle(email: string, address: string, now = Date.now()): ThrottleState {
-  const { accountLimit, addressLimit, windowMs } = limits()
-  const since = new Date(now - windowMs).toISOString()
-  const k = keys(email, address)
-  const accountFailures = countSince(k.account, since)
-  const addressFailures = countSince(k.address, since)
-  const refused = accountFailures >= accountLimit || addressFailures >= addressLimit
-  // An address trying many accounts is slowed more gently than one account guessed at.
-  const pressure = Math.max(accountFailures, addressFailures / 4)
+/** Reserves this attempt, or refuses it when the account or the network has used up its attempts. */
+export function reserveSignIn(event: H3Event, email: string): SignInAttempt {
+  const reservation = reserveAttempt(useDB(), limitsFor(email, clientAddress(event)), requestNow(event))
+  if (!reservation.granted) return { refused: true, retryAfterSeconds: reservation.retryAfterSeconds }
+  const [accountAttempts = 0, networkAttempts = 0] = reservation.counts
+  // A network trying many accounts is slowed more gently than one account guessed at.
+  const pressure = Math.max(accountAttempts, networkAttempts / 4)
   const delayMs = pressure >= SLOW_AFTER ? Math.min(MAX_DELAY_MS, 250 * (pressure - SLOW_AFTER + 1)) : 0
-  return { refused, delayMs, retryAfterSeconds: Math.ceil(windowMs / 1000) }
+  return { refused: false, delayMs, markIds: reservation.markIds }
 }
 
-/** Records a failed attempt and prunes entries older than the window. */
-export function recordSignInFailure(email: string, address: string, now = Date.now()): void {
-  const k = keys(email, address)
-  const at = new Date(now).toISOString()
+/** A successful sign-in: its own attempt does not count, and the account's earlier failures are forgotten. */
+export function signInSucceeded(email: string, attempt: { markIds: number[] }): void {
   const db = useDB()
-  db.insert(signInFailures).values([{ key: k.account, at }, { key: k.address, at }]).run()
-  db.delete(signInFailures).where(lt(signInFailures.at, new Date(now - limits().windowMs).toISOString())).run()
+  releaseAttempt(db, attempt.markIds)
+  clearAttempts(db, accountKey(email))
 }
 
-/** A successful sign-in clears the account's failures; the address keeps its record. */
+/** A password was set with an e-mailed link: the account's failed sign-ins no longer count. */
 export function clearSignInFailures(email: string): void {
-  useDB().delete(signInFailures).where(eq(signInFailures.key, keys(email, '').account)).run()
+  clearAttempts(useDB(), accountKey(email))
 }

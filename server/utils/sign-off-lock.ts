@@ -6,7 +6,9 @@
  * assertEntryUnlocked first.
  */
 import { and, desc, eq } from 'drizzle-orm'
+import type { SignOffSnapshot } from '#shared/types/sign-off'
 import { signOffs } from '../db/schema'
+import { isSignedStage, signedEntryIds } from '../domain/sign-off/signed-record'
 
 /** The tank's current approved sign-off (not reopened), if there is one. */
 export function currentApprovedSignOff(tankId: string) {
@@ -21,16 +23,27 @@ export function lockedUntil(tankId: string): string | null {
 }
 
 /**
- * Throws 409 when an entry taken at `entryTime` lies inside the signed-off period of the
- * tank. Call it with the entry's stored time before an edit or delete, and with the new
- * time when an edit or a new entry would move into that period.
+ * Throws 409 when an entry lies inside the signed-off record of the tank: taken at or
+ * before the decision, or held in the decision's snapshot whatever its date. Call it with
+ * the entry's stored time and id before an edit or delete, and with the new time when an
+ * edit or a new entry would move into that period.
  */
-export function assertEntryUnlocked(tankId: string, entryTime: string | Date): void {
-  const until = lockedUntil(tankId)
+export function assertEntryUnlocked(tankId: string, entryTime: string | Date, entryId?: string): void {
+  const signed = currentApprovedSignOff(tankId)
+  const until = signed?.decidedAt
   if (!until) return
   const at = entryTime instanceof Date ? entryTime.getTime() : Date.parse(entryTime)
-  if (Number.isNaN(at) || at <= Date.parse(until)) {
+  const inSnapshot = entryId !== undefined && signedEntryIds(signed.snapshot as SignOffSnapshot | null).has(entryId)
+  if (Number.isNaN(at) || at <= Date.parse(until) || inSnapshot) {
     const message = `This entry falls in the period signed off on ${until.slice(0, 10)} and can no longer be changed. Add a correction with a reason instead; a supervisor can reopen the sign-off if needed.`
     throw createError({ statusCode: 409, statusMessage: message, message, data: { lockedUntil: until } })
   }
+}
+
+/** Throws 409 when the stage was finished in the current sign-off's record: it changes only after reopening. */
+export function assertStageUnsigned(tankId: string, stageKey: string): void {
+  const signed = currentApprovedSignOff(tankId)
+  if (!signed || !isSignedStage(signed.snapshot as SignOffSnapshot | null, stageKey)) return
+  const message = `This stage is part of the record signed off on ${signed.decidedAt?.slice(0, 10)}. A supervisor can reopen the sign-off if it must change.`
+  throw createError({ statusCode: 409, statusMessage: message, message })
 }

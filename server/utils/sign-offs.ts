@@ -7,12 +7,14 @@ import { randomBytes } from 'node:crypto'
 import { and, asc, desc, eq, inArray, ne, sql } from 'drizzle-orm'
 import { evaluateCycle } from '#shared/cycle/engine'
 import type { Verdict } from '#shared/cycle/types'
-import { datedAcclimation, overrideGrounds, stockingSteps } from '#shared/sign-off/plan'
+import { acclimationSettingsOf, datedAcclimation, overrideGrounds, stockingSteps, type AcclimationSettings } from '#shared/sign-off/plan'
 import { OVERRIDE_REASON_MESSAGE } from '#shared/schemas/sign-off'
 import type { ReviewItem, SignOffRecord, SignOffRecordWithSnapshot, SignOffSnapshot, SignOffState, StockingPlanView } from '#shared/types/sign-off'
 import type { CyclePhase } from '#shared/types/tanks'
+import { readOrganisationSettings } from '../db/settings'
 import { cycleInputFor } from '../db/verdicts'
-import { alerts, clients, events, signOffs, tankVerdicts, tanks, users } from '../db/schema'
+import { captureSignedFacts } from '../domain/sign-off/signed-record'
+import { alerts, clients, events, planStages, signOffs, tankVerdicts, tanks, users } from '../db/schema'
 import { canManageTank, visibleTankCondition, type Actor } from './access'
 import { currentApprovedSignOff } from './sign-off-lock'
 
@@ -97,6 +99,11 @@ export function maySignOff(actor: Actor, tank: Pick<TankRow, 'organisationId' | 
   return actor.role === 'admin' || (actor.role === 'supervisor' && tank.supervisorId === actor.id)
 }
 
+/** The company's sign-off policy (settings.signOff.requesterMayApprove): may the requester approve their own sign-off request. */
+export function selfApprovalAllowed(organisationId: string): boolean {
+  return readOrganisationSettings(useDB(), organisationId).signOff.requesterMayApprove
+}
+
 function conflict(message: string): never {
   throw createError({ statusCode: 409, statusMessage: message })
 }
@@ -168,6 +175,14 @@ export function decideSignOff(actor: Actor, tank: TankRow, decision: 'approve' |
   if (!maySignOff(actor, tank)) throw createError({ statusCode: 403, statusMessage: 'Only this tank\'s supervisor or an admin may decide' })
   const request = pendingRequest(tank.id)
   if (!request) conflict('No sign-off request is waiting for this tank')
+  // Four eyes: whoever asked does not approve, unless the company allows it and a reason is written.
+  if (decision === 'approve' && request.requestedBy === actor.id) {
+    if (!selfApprovalAllowed(tank.organisationId)) throw createError({ statusCode: 403, statusMessage: 'You asked for this sign-off; another supervisor or an admin must approve it' })
+    if (note.length < 3) {
+      const message = 'You asked for this sign-off yourself: write why you approve it without a second person.'
+      throw createError({ statusCode: 400, statusMessage: 'Validation Error', message, data: { issues: [{ field: 'note', message }] } })
+    }
+  }
   const { input, verdict } = evaluateNow(tank.id, now)
   const unresolvedAlerts = unresolvedAlertCount(tank.id)
   const grounds = overrideGrounds(verdict, unresolvedAlerts)
@@ -176,7 +191,11 @@ export function decideSignOff(actor: Actor, tank: TankRow, decision: 'approve' |
     const message = OVERRIDE_REASON_MESSAGE
     throw createError({ statusCode: 400, statusMessage: 'Validation Error', message, data: { issues: [{ field: 'note', message }], overrideGrounds: grounds } })
   }
-  const snapshot: SignOffSnapshot = { input, verdict, overrideGrounds: decision === 'approve' ? grounds : [], unresolvedAlerts }
+  // The tank's facts and stages are kept with the decision: the certificate prints them, never the live tank.
+  const facts = captureSignedFacts(useDB(), tank.id, actor.id)
+  // The tank's own lighting acclimation, kept with the decision so the plan stays as signed.
+  const acclimation = acclimationSettingsOf(useDB().select({ key: planStages.key, data: planStages.data }).from(planStages).where(eq(planStages.tankId, tank.id)).all())
+  const snapshot: SignOffSnapshot = { facts, input, verdict, overrideGrounds: decision === 'approve' ? grounds : [], unresolvedAlerts, acclimation }
   const at = now.toISOString()
   const code = decision === 'approve' ? newVerificationCode() : null
   const row = useDB().transaction(() => {
@@ -220,9 +239,9 @@ export function reopenSignOff(actor: Actor, tank: TankRow, reason: string, now =
   })
 }
 
-/** The livestock and lighting plan for the first weeks after the sign-off. */
-export function stockingPlan(signedAt: string, verdict: Verdict): StockingPlanView {
-  return { signedAt, steps: stockingSteps(verdict), lighting: datedAcclimation(signedAt) }
+/** The livestock and lighting plan for the first weeks after the sign-off, lighting as signed. */
+export function stockingPlan(signedAt: string, verdict: Verdict, acclimation?: AcclimationSettings): StockingPlanView {
+  return { signedAt, steps: stockingSteps(verdict), lighting: datedAcclimation(signedAt, acclimation) }
 }
 
 /** Everything the tank page needs to show and offer about sign-off. */
@@ -246,17 +265,22 @@ export function signOffState(actor: Actor, tank: TankRow, now = new Date()): Sig
     canReopen: maySignOff(actor, tank) && !!approved,
     canStartStocking: canManageTank(actor, tank) && tank.status === 'signed-off',
     hasCertificate: !!approved,
-    plan: approved && signedPhase && approved.decidedAt ? stockingPlan(approved.decidedAt, verdict) : null,
+    plan: approved && signedPhase && approved.decidedAt ? stockingPlan(approved.decidedAt, verdict, (approved.snapshot as SignOffSnapshot | null)?.acclimation) : null,
   }
 }
 
-/** After a change to a signed-off tank: livestock logged after the sign-off means stocking has begun. */
+/**
+ * After a change to a signed-off tank: livestock logged by staff after the sign-off means
+ * stocking has begun. A client's livestock event is recorded (the engine sees it) but
+ * does not move the tank's status: only staff start stocking.
+ */
 export function advanceToStockingIfLivestock(tankId: string): void {
   const tank = useDB().select({ status: tanks.status }).from(tanks).where(eq(tanks.id, tankId)).get()
   if (tank?.status !== 'signed-off') return
   const approved = currentApprovedSignOff(tankId)
   if (!approved?.decidedAt) return
   const livestock = useDB().select({ id: events.id }).from(events)
-    .where(and(eq(events.tankId, tankId), eq(events.kind, 'livestock-added'), sql`${events.at} > ${approved.decidedAt}`)).get()
+    .innerJoin(users, eq(users.id, events.enteredBy))
+    .where(and(eq(events.tankId, tankId), eq(events.kind, 'livestock-added'), ne(users.role, 'client'), sql`${events.at} > ${approved.decidedAt}`)).get()
   if (livestock) moveTank({ tankId, trigger: 'livestock-logged', actor: null })
 }

@@ -4,6 +4,7 @@ import { alias } from 'drizzle-orm/sqlite-core'
 import type { TankListQuery } from '#shared/schemas/tank-list'
 import type { CyclePhase, TankList, TankSummary, TankView } from '#shared/types/tanks'
 import { clients, planStages, sites, tankVerdicts, tanks, users } from '../db/schema'
+import { netWaterLitres } from '#shared/plan/net-volume'
 import { visibleTankCondition, type Actor } from './access'
 import { FORECAST_STATUSES, forecastTank } from '../domain/forecast/tank-forecast'
 
@@ -75,7 +76,7 @@ function withForecast(summary: TankSummary, now: Date): TankSummary {
   return { ...summary, forecast: forecastTank(useDB(), summary.id, now) ?? null }
 }
 
-/** One page of the tanks the actor may see, filtered and sorted on the server. */
+/** One page of the tanks the actor may see, filtered and sorted on the server, phases as of `now`. */
 export function listTanks(actor: Actor, query: TankListQuery, now = new Date()): TankList {
   const conditions: SQL[] = [visibleTankCondition(actor)]
   if (query.status) conditions.push(eq(tanks.status, query.status))
@@ -89,17 +90,22 @@ export function listTanks(actor: Actor, query: TankListQuery, now = new Date()):
   const where = and(...conditions)
   const column = SORT_COLUMNS[query.sort]
   const order = query.dir === 'asc' ? asc(column) : desc(column)
-  const rows = baseQuery().where(where).orderBy(order, asc(tanks.id))
+  const page = () => baseQuery().where(where).orderBy(order, asc(tanks.id))
     .limit(query.pageSize).offset((query.page - 1) * query.pageSize).all()
+  let rows = page()
+  // A phase time alone has changed is made again before the page is shown.
+  if (refreshStaleVerdicts(now, rows.map(r => r.tank.id)) > 0) rows = page()
   const total = useDB().select({ n: sql<number>`count(*)` }).from(tanks)
     .innerJoin(clients, eq(clients.id, tanks.clientId)).where(where).get()?.n ?? 0
   return { items: rows.map(row => withForecast(toSummary(row), now)), total, page: query.page, pageSize: query.pageSize }
 }
 
-/** The full view of one tank, or undefined when the actor may not see it. */
-export function getTankView(actor: Actor, tankId: string): TankView | undefined {
-  const row = baseQuery().where(and(eq(tanks.id, tankId), visibleTankCondition(actor))).get()
+/** The full view of one tank (its phase as of `now`), or undefined when the actor may not see it. */
+export function getTankView(actor: Actor, tankId: string, now = new Date()): TankView | undefined {
+  const one = () => baseQuery().where(and(eq(tanks.id, tankId), visibleTankCondition(actor))).get()
+  let row = one()
   if (!row) return undefined
+  if (refreshStaleVerdicts(now, [tankId]) > 0) row = one() ?? row
   const t = row.tank
   return {
     ...toSummary(row),
@@ -113,6 +119,7 @@ export function getTankView(actor: Actor, tankId: string): TankView | undefined 
     supervisorId: t.supervisorId,
     supervisorName: row.supervisorName,
     kitBasis: t.kitBasis,
+    netWaterLitres: netWaterLitres(t, useDB().select({ key: planStages.key, data: planStages.data }).from(planStages).where(eq(planStages.tankId, t.id)).all()),
     createdAt: t.createdAt,
   }
 }

@@ -8,11 +8,9 @@ import sharp from 'sharp'
 import { uploads } from '../db/schema'
 import type { Actor } from './access'
 import { detectFileType, fileTypeProblem, type AcceptedMimeType } from './file-type'
+import { MAX_UPLOAD_BYTES } from '../domain/http/body-limits'
+import { removeExpiredPendingPhotos as removeExpiredPendingPhotoRows } from '../domain/uploads/pending-photos'
 
-/** Largest accepted file. */
-export const MAX_UPLOAD_BYTES = 10 * 1024 * 1024
-/** Room for the multipart boundaries and headers around the file. */
-const MULTIPART_OVERHEAD_BYTES = 64 * 1024
 /** Longest side of a thumbnail, px. */
 export const THUMBNAIL_SIZE_PX = 480
 
@@ -32,26 +30,6 @@ function refused(statusCode: 400 | 415, message: string): never {
   throw createError({ statusCode, statusMessage: statusCode === 415 ? 'Unsupported file' : 'Validation Error', data: { issues: [{ field: 'file', message }] } })
 }
 
-/** Reads the request body but stops keeping it past the limit; the rest is drained so the 413 reaches the sender. */
-async function readCappedBody(event: H3Event, limit: number): Promise<Buffer> {
-  const declared = Number(getRequestHeader(event, 'content-length') ?? 'NaN')
-  const chunks: Buffer[] = []
-  let total = 0
-  let over = Number.isFinite(declared) && declared > limit
-  for await (const chunk of event.node.req) {
-    total += (chunk as Buffer).length
-    if (total > limit) over = true
-    if (!over) chunks.push(chunk as Buffer)
-    // Do not drain forever for a sender that never stops.
-    else if (total > limit * 4) {
-      event.node.req.destroy()
-      break
-    }
-  }
-  if (over) tooLarge()
-  return Buffer.concat(chunks)
-}
-
 /**
  * Receives one file from a multipart form (field `file`): 413 past the size limit,
  * 415 when the content is not an accepted type or the name's extension lies about it.
@@ -59,9 +37,7 @@ async function readCappedBody(event: H3Event, limit: number): Promise<Buffer> {
 export async function receiveUpload(event: H3Event): Promise<ReceivedFile> {
   const contentType = getRequestHeader(event, 'content-type') ?? ''
   if (!contentType.startsWith('multipart/form-data')) refused(400, 'Send the file as multipart/form-data in the field "file".')
-  const body = await readCappedBody(event, MAX_UPLOAD_BYTES + MULTIPART_OVERHEAD_BYTES)
-  // h3's multipart parser reads the body from here once it has been read.
-  ;(event.node.req as unknown as { body?: Buffer }).body = body
+  // The body was read and held to the upload limit by server/middleware/00.body-limit.ts.
   const parts = await readMultipartFormData(event)
   const filePart = parts?.find(p => p.name === 'file' && p.filename !== undefined)
   if (!filePart) refused(400, 'Choose a file to upload.')
@@ -110,21 +86,24 @@ export async function storeUpload(actor: Actor, target: UploadTarget, file: Rece
   await storage.setItemRaw(storageKey, file.bytes)
   const thumbnailKey = thumbnail ? `${storageKey}.thumb` : null
   if (thumbnail && thumbnailKey) await storage.setItemRaw(thumbnailKey, thumbnail)
-  const row = useDB().insert(uploads).values({
-    id,
-    organisationId: actor.organisationId,
-    tankId: target.tankId,
-    stageId: target.stageId ?? null,
-    readingId: target.readingId ?? null,
-    mimeType: file.mimeType,
-    sizeBytes: file.bytes.length,
-    originalName: file.name,
-    storageKey,
-    thumbnailKey,
-    uploadedBy: actor.id,
-  }).returning().get()
-  writeAudit(actor, { action: 'upload.create', entity: 'upload', entityId: row.id, after: { tankId: row.tankId, stageId: row.stageId, readingId: row.readingId, mimeType: row.mimeType, sizeBytes: row.sizeBytes, originalName: row.originalName } })
-  return row
+  // The row and its audit line commit together.
+  return useDB().transaction(() => {
+    const row = useDB().insert(uploads).values({
+      id,
+      organisationId: actor.organisationId,
+      tankId: target.tankId,
+      stageId: target.stageId ?? null,
+      readingId: target.readingId ?? null,
+      mimeType: file.mimeType,
+      sizeBytes: file.bytes.length,
+      originalName: file.name,
+      storageKey,
+      thumbnailKey,
+      uploadedBy: actor.id,
+    }).returning().get()
+    writeAudit(actor, { action: 'upload.create', entity: 'upload', entityId: row.id, after: { tankId: row.tankId, stageId: row.stageId, readingId: row.readingId, mimeType: row.mimeType, sizeBytes: row.sizeBytes, originalName: row.originalName } })
+    return row
+  })
 }
 
 /** Sends stored bytes with headers that keep the browser from guessing or caching them publicly. */
@@ -141,4 +120,15 @@ export async function sendStoredFile(event: H3Event, key: string, mimeType: stri
     'content-disposition': `${mimeType === 'application/pdf' ? 'attachment' : 'inline'}; filename="${downloadName.replace(/[^\w.-]/g, '_')}"`,
   })
   return bytes
+}
+
+/** Removes test photos that waited a day without a reading: rows (with audit) first, then their bytes. Returns how many. */
+export async function removeExpiredPendingPhotos(now: Date): Promise<number> {
+  const removed = removeExpiredPendingPhotoRows(useDB(), now)
+  const storage = useStorage('uploads')
+  for (const upload of removed) {
+    await storage.removeItem(upload.storageKey)
+    if (upload.thumbnailKey) await storage.removeItem(upload.thumbnailKey)
+  }
+  return removed.length
 }

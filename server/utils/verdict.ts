@@ -1,7 +1,39 @@
+import { eq } from 'drizzle-orm'
 import type { Verdict } from '#shared/cycle/types'
-import { computeAndStoreVerdict } from '../db/verdicts'
+import { tankVerdicts } from '../db/schema'
+import { computeAndStoreVerdict, tanksWithStaleVerdicts } from '../db/verdicts'
+
+const MINUTE_MS = 60_000
+/** Time alone changes verdicts (a missed test, a coral date reached): none is kept longer than an hour. */
+const LONGEST_MS = 60 * MINUTE_MS
 
 /** Re-evaluates a tank after any change to its readings, events or profile, and stores the verdict. */
 export function refreshVerdict(tankId: string, now = new Date()): Verdict | undefined {
   return computeAndStoreVerdict(useDB(), tankId, now)
+}
+
+/**
+ * How long a stored verdict stands before it is made again: the verdict round of the worker
+ * (runtime config `verdictIntervalMs`, default 15 minutes, never more than an hour).
+ */
+export function verdictIntervalMs(): number {
+  const configured = Number(useRuntimeConfig().verdictIntervalMs)
+  return Number.isFinite(configured) && configured > 0 ? Math.min(configured, LONGEST_MS) : 15 * MINUTE_MS
+}
+
+/**
+ * Makes again, as of `now`, every stored verdict that is missing or older than the verdict
+ * interval (among `tankIds` when given, otherwise for every tank not archived), opening and
+ * resolving alerts exactly as a new reading would. Returns how many were made again.
+ */
+export function refreshStaleVerdicts(now: Date, tankIds?: readonly string[]): number {
+  const stale = tanksWithStaleVerdicts(useDB(), now, verdictIntervalMs(), tankIds)
+  for (const tankId of stale) onTankDataChanged(tankId, { now })
+  return stale.length
+}
+
+/** The tank's stored verdict row as of `now`: made again first when it is missing or stale. */
+export function currentVerdictRow(tankId: string, now = new Date()) {
+  refreshStaleVerdicts(now, [tankId])
+  return useDB().select().from(tankVerdicts).where(eq(tankVerdicts.tankId, tankId)).get()
 }

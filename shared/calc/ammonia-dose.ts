@@ -83,3 +83,25 @@ export function ammoniumChlorideGrams(tankVolumeL: number, target: number, basis
   if (deltaN <= 0) return 0
   return (deltaN * tankVolumeL * MOLAR_MASS_NH4CL) / ATOMIC_WEIGHT_N / 1000
 }
+
+/** Where the ammonia comes from: dry ammonium chloride, or a solution of it of a stated strength. */
+export type AmmoniaSource = { kind: 'dry' } | { kind: 'stock', gramsPerLitre: number }
+
+/** Ammonia as N in a solution of `gramsPerLitre` of ammonium chloride, mg/L. */
+export function ammoniumChlorideStockN(gramsPerLitre: number): number {
+  assertPositive('gramsPerLitre', gramsPerLitre)
+  return (gramsPerLitre * 1000 * ATOMIC_WEIGHT_N) / MOLAR_MASS_NH4CL
+}
+
+/** What to add: grams of the dry salt, or millilitres of the stock solution. */
+export type PlannedDose = { kind: 'dry', grams: number } | { kind: 'stock', millilitres: number }
+
+/**
+ * The ammonium chloride that takes `litres` of water from `current` to `target` total
+ * ammonia (both on `basis`), from the chosen source.
+ */
+export function plannedAmmoniaDose(litres: number, target: number, current: number, basis: AmmoniaBasis, source: AmmoniaSource): PlannedDose {
+  if (source.kind === 'dry') return { kind: 'dry', grams: ammoniumChlorideGrams(litres, target, basis, current) }
+  const dose = ammoniaStockDose({ tankVolumeL: litres, target, current, basis, stockMgPerL: ammoniumChlorideStockN(source.gramsPerLitre), stockBasis: 'N' })
+  return { kind: 'stock', millilitres: dose.doseMl }
+}

@@ -7,7 +7,7 @@
 import type { CycleAction } from './types'
 
 // Most urgent first; unknown kinds go last, alphabetically.
-const ORDER = ['water-change', 'test-now', 'retest', 'check-stall', 'clearance-test', 'test-nitrate', 'start-cycle']
+const ORDER = ['water-change', 'test-now', 'retest', 'check-stall', 'lower-dose', 'dose-ammonia', 'clearance-test', 'test-nitrate', 'start-cycle']
 
 function rank(kind: string): number {
   const index = ORDER.indexOf(kind)

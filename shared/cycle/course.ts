@@ -1,25 +1,31 @@
 /**
  * One forward pass over the history that follows the cycle's course: runs of zero
- * tests, rises, ammonia doses and whether they were cleared, and the moment the
- * cycle was proven. Linear in the number of readings and events.
+ * tests, rises, ammonia doses and what became of each, and the moment the cycle was
+ * proven. Linear in the number of readings and events (times the doses in a run).
  *
- * Completion at a reading R is decided from what was known at R only, and needs:
- * - R and the consecutive tests before it read zero ammonia and nitrite, at least
- *   `stableMinTests` of them spanning at least `stableSpanHours`;
- * - nitrate present on the latest nitrate test;
- * - a rise (ammonia or nitrite above `riseN`) at some point: readings that were
- *   always zero prove nothing;
- * - for a fishless tank with no livestock yet: an ammonia dose cleared, that is a
- *   zero test inside the zero run and within `clearanceWindowHours` of the dose,
- *   with no water change in between.
- * A test above a zero limit ends the run (and a completion with it) unless it
- * shows an ammonia dose being worked off: it falls inside the dose's window and a
- * zero test follows inside that window, with no water change in between. Such a
- * test neither counts nor breaks; until the zero test comes it holds the run open,
- * so the verdict is not complete meanwhile. Before completion, a water change or a
- * long gap between tests also restarts the run: dilution and missing days are not
- * evidence. Every condition is "there exists" over tests and limits, so stricter
- * limits can only delay completion.
+ * Completion at a zero test R is decided from what was known at R only. Always: R and
+ * the consecutive tests before it read zero ammonia and nitrite, at least
+ * `stableMinTests` of them, no gap longer than `zeroRunMaxGapHours`, and nitrate
+ * present on the latest nitrate test. Then:
+ * - fishless, no livestock yet: the run's zero tests after the first ammonia dose span
+ *   `stableSpanHours`; a rise was seen; nitrate rose by `nitrateRiseN` over the cycle;
+ *   and the doses of `clearanceDays` consecutive days were each proven: amount known
+ *   (at least `clearanceMinDoseN`), a later test showing the ammonia arrived (at least
+ *   `doseArrivalFraction` of the dose), then zero ammonia and nitrite within
+ *   `clearanceWindowHours`, with no water change in between;
+ * - with animals in (fish-in, or livestock added): the run's zero tests since the animals
+ *   went in span `fishInStableDays`; and either a nitrite stage was seen (nitrite
+ *   above `riseN`) or nitrate rose by `nitrateRiseN` over `seededNitrateRiseDays` with
+ *   the animals in (a seeded tank that never shows ammonia or nitrite).
+ * A test above a zero limit ends the run (and a completion with it) unless it shows
+ * an ammonia dose being worked off: inside the dose's window and followed, inside that
+ * window, by a zero test with no water change between. Until then the verdict is not
+ * complete. Before completion a water change or a long gap between tests restarts the
+ * run: dilution and missing days are not evidence. Zero tests before the first dose (or
+ * before the animals) neither count nor spoil: the part of the run after it is what is
+ * judged, so a looser zero limit that starts the run earlier never withholds a completion
+ * a stricter one grants. Every condition is "there exists" over tests and limits, so
+ * stricter limits can only delay completion.
  */
 
 import { HOUR_MS } from './time'
@@ -30,7 +36,9 @@ import type { CycleMethod, CycleEvent, Thresholds } from './types'
 export interface DoseOutcome {
   readonly event: CycleEvent
   readonly t: number
-  /** The zero test that cleared it, if any. */
+  /** The first later test showing the dose arrived (ammonia at least the arrival share of it), if any. */
+  readonly arrivedBy: TimedReading | null
+  /** The zero test after the arrival, inside the window, that cleared it; null if none. */
   readonly clearedBy: TimedReading | null
   /** A water change in its window: any fall could be dilution. */
   readonly diluted: boolean
@@ -44,7 +52,12 @@ export interface Completion {
   readonly runStart: TimedReading
   readonly zeroTests: number
   readonly nitrate: TimedReading | null
-  readonly clearedDose: DoseOutcome | null
+  /** The lowest nitrate test before it: the cycle's nitrate rise is measured from here. */
+  readonly nitrateLow: TimedReading | null
+  /** The proven doses of consecutive days that proved a fishless cycle; empty with animals in. */
+  readonly provenDoses: readonly DoseOutcome[]
+  /** True when the proof was a nitrite stage or a nitrate rise with animals in. */
+  readonly withAnimals: boolean
   readonly lostBy: TimedReading | null
 }
 
@@ -53,23 +66,41 @@ export type RunRestart
   = | { readonly reason: 'gap', readonly from: TimedReading, readonly to: TimedReading, readonly endedRun: boolean }
     | { readonly reason: 'water-change', readonly event: CycleEvent, readonly t: number, readonly endedRun: boolean, readonly dilutedDose: boolean }
 
+/** The part of a zero run that counts as evidence: its tests after the first dose, or since the animals went in. */
+export interface CountedRun {
+  readonly first: TimedReading
+  readonly zeroTests: number
+}
+
 /** The current run of consecutive zero tests. */
 export interface ZeroRun {
   readonly first: TimedReading
   readonly last: TimedReading
   readonly zeroTests: number
-  readonly clearedDoses: readonly DoseOutcome[]
+  /** Zero tests of the run after the first ammonia dose (null before it, or with no dose). */
+  readonly afterDose: CountedRun | null
+  /** Zero tests of the run since the animals went in (null while there are none). */
+  readonly withAnimals: CountedRun | null
+  /** The longest chain of proven doses on consecutive days so far in the run, latest first counted. */
+  readonly provenChain: readonly DoseOutcome[]
 }
 
 /** Everything the pass learned. */
 export interface Course {
   /** Completion within the current run: the cycle is proven as of the last test. */
   readonly completion: Completion | null
+  /**
+   * A completion waiting on a test above zero (a dose or a spike being worked off): it stands
+   * again if ammonia and nitrite read zero by `until`, and is lost otherwise.
+   */
+  readonly held: { readonly completion: Completion, readonly by: TimedReading, readonly until: number } | null
   /** Earlier completions later ended by a test above the limits. */
   readonly lost: readonly Completion[]
   readonly run: ZeroRun | null
   /** First test above `riseN`. */
   readonly firstRise: TimedReading | null
+  /** First test with nitrite above `riseN`: a nitrite stage. */
+  readonly nitriteStage: TimedReading | null
   /** First test with ammonia at zero after ammonia had been above zero. */
   readonly ammoniaFallen: TimedReading | null
   readonly doses: readonly DoseOutcome[]
@@ -77,23 +108,39 @@ export interface Course {
   readonly openDoses: readonly DoseOutcome[]
   readonly restarts: readonly RunRestart[]
   readonly latestNitrate: TimedReading | null
+  /** Lowest nitrate test so far, and the first nitrate test with animals in. */
+  readonly nitrateLow: TimedReading | null
+  readonly firstNitrateWithAnimals: TimedReading | null
 }
 
 interface MutableDose {
   event: CycleEvent
   t: number
+  arrivedBy: TimedReading | null
   clearedBy: TimedReading | null
   diluted: boolean
   lastInWindow: TimedReading | null
+}
+
+interface MutableCount {
+  first: TimedReading
+  zeroTests: number
 }
 
 interface MutableRun {
   first: TimedReading
   last: TimedReading
   zeroTests: number
-  clearedDoses: DoseOutcome[]
+  afterDose: MutableCount | null
+  withAnimals: MutableCount | null
+  provenChain: DoseOutcome[]
   completion: Completion | null
 }
+
+/** Proven doses on consecutive days: each at least this long after the previous counted one ... */
+const CHAIN_MIN_GAP_MS = 12 * 3_600_000
+/** ... and at most this long after it. */
+const CHAIN_MAX_GAP_MS = 36 * 3_600_000
 
 /** A test above zero inside a dose window, waiting for a zero test by `deadline` to excuse it. */
 interface Held {
@@ -104,16 +151,25 @@ interface Held {
 interface ScanSettings {
   readonly thresholds: Thresholds
   readonly method: CycleMethod
-  readonly firstLivestockT: number
+  /** When animals first went in: the fish of a fish-in start, or the first livestock event. */
+  readonly animalsT: number
   readonly windowMs: number
   readonly spanMs: number
   readonly gapMs: number
+}
+
+function count(counted: MutableCount | null, r: TimedReading): MutableCount {
+  return counted === null ? { first: r, zeroTests: 1 } : { first: counted.first, zeroTests: counted.zeroTests + 1 }
 }
 
 class CourseScan {
   run: MutableRun | null = null
   lost: Completion[] = []
   firstRise: TimedReading | null = null
+  nitriteStage: TimedReading | null = null
+  firstDoseT = Number.POSITIVE_INFINITY
+  nitrateLow: TimedReading | null = null
+  firstNitrateWithAnimals: TimedReading | null = null
   ammoniaUpSeen = false
   ammoniaFallen: TimedReading | null = null
   pending: MutableDose[] = []
@@ -131,7 +187,8 @@ class CourseScan {
 
   onEvent({ event, t }: TimedEvent): void {
     if (event.kind === 'ammonia-dose') {
-      const dose: MutableDose = { event, t, clearedBy: null, diluted: false, lastInWindow: null }
+      this.firstDoseT = Math.min(this.firstDoseT, t)
+      const dose: MutableDose = { event, t, arrivedBy: null, clearedBy: null, diluted: false, lastInWindow: null }
       this.pending.push(dose)
       this.doses.push(dose)
     }
@@ -148,7 +205,7 @@ class CourseScan {
   }
 
   onReading(r: TimedReading): void {
-    if (r.nitrateN !== undefined) this.latestNitrate = r
+    if (r.nitrateN !== undefined) this.noteNitrate(r, r.nitrateN)
     if (r.ammoniaN === undefined && r.nitriteN === undefined) return
     const th = this.s.thresholds
     const aboveA = r.ammoniaN !== undefined && r.ammoniaN > th.ammoniaZeroN
@@ -157,14 +214,21 @@ class CourseScan {
     this.noteMilestones(r, aboveA)
     this.checkGap(r)
     this.resolveHeld(r.t)
-    const cleared = this.settleDoses(r, zero)
+    this.settleDoses(r, zero)
     if (aboveA || aboveN) this.holdOrBreak(r)
     else if (zero) {
       // A zero test inside every held test's window excuses them all: the dose was worked off.
       this.held = []
-      this.extendRun(r, cleared)
+      this.extendRun(r)
     }
     this.lastNitrogen = r
+  }
+
+  private noteNitrate(r: TimedReading, value: number): void {
+    this.latestNitrate = r
+    // The low point is what the completion measures the rise from, so it is the low point up to now.
+    if (this.nitrateLow === null || value < (this.nitrateLow.nitrateN ?? 0)) this.nitrateLow = r
+    if (this.firstNitrateWithAnimals === null && r.t >= this.s.animalsT) this.firstNitrateWithAnimals = r
   }
 
   /** Breaks the run at the first held test whose window closed before `t`. */
@@ -180,6 +244,13 @@ class CourseScan {
     for (const dose of this.pending) {
       if (!dose.diluted && dose.t < r.t && r.t <= dose.t + this.s.windowMs) deadline = Math.max(deadline, dose.t + this.s.windowMs)
     }
+    // One test of a little ammonia (under the action level, nitrite at zero) that the next
+    // test, inside the clearance window, shows gone is a feeding spike the bacteria dealt
+    // with: it neither undoes a proven tank nor restarts the week of zero tests a tank with
+    // animals proves itself by. A second test above zero, or none in time, does.
+    const th = this.s.thresholds
+    const spike = (r.ammoniaN ?? 0) <= th.ammoniaActionN && (r.nitriteN ?? 0) <= th.nitriteZeroN
+    if ((this.completed || this.animalsIn(r.t)) && spike && this.held.length === 0) deadline = Math.max(deadline, r.t + this.s.windowMs)
     if (Number.isFinite(deadline) && this.run !== null) this.held.push({ reading: r, deadline })
     else this.breakRun(r)
   }
@@ -187,6 +258,7 @@ class CourseScan {
   private noteMilestones(r: TimedReading, aboveA: boolean): void {
     const riseN = this.s.thresholds.riseN
     if (this.firstRise === null && ((r.ammoniaN ?? 0) > riseN || (r.nitriteN ?? 0) > riseN)) this.firstRise = r
+    if (this.nitriteStage === null && (r.nitriteN ?? 0) > riseN) this.nitriteStage = r
     if (aboveA) this.ammoniaUpSeen = true
     else if (r.ammoniaN !== undefined && this.ammoniaUpSeen && this.ammoniaFallen === null) this.ammoniaFallen = r
   }
@@ -199,21 +271,25 @@ class CourseScan {
     this.held = []
   }
 
-  /** Returns the doses this test shows cleared; a dose stays open for its whole window so any zero test in it counts. */
-  private settleDoses(r: TimedReading, zero: boolean): MutableDose[] {
+  /**
+   * Notes arrivals and clearances. A dose counts as cleared only by a zero test after a
+   * test that showed it arrived; it stays open for its whole window.
+   */
+  private settleDoses(r: TimedReading, zero: boolean): void {
     const stillOpen: MutableDose[] = []
-    const cleared: MutableDose[] = []
+    const arrivalShare = this.s.thresholds.doseArrivalFraction
     for (const dose of this.pending) {
       if (r.t > dose.t + this.s.windowMs) continue
       stillOpen.push(dose)
       if (r.t <= dose.t) continue
       dose.lastInWindow = r
-      if (!zero || dose.diluted) continue
-      if (dose.clearedBy === null) dose.clearedBy = r
-      cleared.push(dose)
+      if (dose.diluted) continue
+      const amount = dose.event.amount
+      const ammonia = r.ammoniaN ?? 0
+      if (dose.arrivedBy === null && amount !== undefined && ammonia > this.s.thresholds.ammoniaZeroN && ammonia >= arrivalShare * amount) dose.arrivedBy = r
+      if (zero && dose.arrivedBy !== null && dose.clearedBy === null) dose.clearedBy = r
     }
     this.pending = stillOpen
-    return cleared
   }
 
   private breakRun(r: TimedReading): void {
@@ -223,44 +299,91 @@ class CourseScan {
     this.held = []
   }
 
-  private extendRun(r: TimedReading, cleared: readonly MutableDose[]): void {
-    const run: MutableRun = this.run ?? { first: r, last: r, zeroTests: 0, clearedDoses: [], completion: null }
+  private extendRun(r: TimedReading): void {
+    const run: MutableRun = this.run ?? { first: r, last: r, zeroTests: 0, afterDose: null, withAnimals: null, provenChain: [], completion: null }
     this.run = run
     run.last = r
     run.zeroTests += 1
-    for (const dose of cleared) {
-      if (this.countsAsClearance(dose) && !run.clearedDoses.includes(dose)) run.clearedDoses.push(dose)
-    }
+    // Events up to r are already seen, so the first dose and the animals' arrival are known here.
+    if (r.t > this.firstDoseT) run.afterDose = count(run.afterDose, r)
+    if (this.animalsIn(r.t)) run.withAnimals = count(run.withAnimals, r)
+    run.provenChain = this.provenChain(run, r.t)
     if (run.completion === null && this.proves(run, r)) {
+      const withAnimals = this.animalsIn(r.t)
+      const counted = (withAnimals ? run.withAnimals : run.afterDose) ?? run
       run.completion = {
         reading: r,
-        runStart: run.first,
-        zeroTests: run.zeroTests,
+        runStart: counted.first,
+        zeroTests: counted.zeroTests,
         nitrate: this.latestNitrate,
-        clearedDose: run.clearedDoses[run.clearedDoses.length - 1] ?? null,
+        nitrateLow: withAnimals ? this.firstNitrateWithAnimals : this.nitrateLow,
+        provenDoses: withAnimals ? [] : run.provenChain,
+        withAnimals,
         lostBy: null,
       }
     }
   }
 
-  private countsAsClearance(dose: MutableDose): boolean {
+  /** A dose is proven by `t` when its amount is known and large enough, it arrived, and it cleared by `t`. */
+  private proven(dose: MutableDose, t: number): boolean {
     const amount = dose.event.amount
-    return amount === undefined || amount >= this.s.thresholds.clearanceMinDoseN
+    return amount !== undefined && amount >= this.s.thresholds.clearanceMinDoseN
+      && !dose.diluted && dose.clearedBy !== null && dose.clearedBy.t <= t
+  }
+
+  /**
+   * The chain of proven doses on consecutive days ending with the latest decided dose in
+   * the run, as of `t`. A dose that failed (no amount, never arrived, not cleared in time,
+   * diluted) breaks the chain; a dose still inside its window is not yet decided.
+   */
+  private provenChain(run: MutableRun, t: number): MutableDose[] {
+    let chain: MutableDose[] = []
+    for (const dose of this.doses) {
+      if (dose.t <= run.first.t || dose.t >= t) continue
+      const open = !dose.diluted && dose.clearedBy === null && t <= dose.t + this.s.windowMs
+      if (open) continue
+      if (!this.proven(dose, t)) {
+        chain = []
+        continue
+      }
+      const previous = chain[chain.length - 1]
+      if (previous === undefined) chain = [dose]
+      else if (dose.t - previous.t > CHAIN_MAX_GAP_MS) chain = [dose]
+      else if (dose.t - previous.t >= CHAIN_MIN_GAP_MS) chain.push(dose)
+    }
+    return chain
+  }
+
+  private animalsIn(t: number): boolean {
+    return this.s.animalsT <= t
   }
 
   private proves(run: MutableRun, r: TimedReading): boolean {
     const th = this.s.thresholds
     const nitrate = this.latestNitrate?.nitrateN
-    return run.zeroTests >= th.stableMinTests
-      && r.t - run.first.t >= this.s.spanMs
-      && nitrate !== undefined && nitrate > th.nitratePresentN
+    if (nitrate === undefined || nitrate <= th.nitratePresentN) return false
+    // Nobody doses ammonia onto animals: with animals in, the tank proves itself under their load.
+    if (this.animalsIn(r.t)) return this.provesWithAnimals(run.withAnimals, r, nitrate)
+    const counted = run.afterDose
+    return this.s.method === 'fishless'
+      && counted !== null
+      && counted.zeroTests >= th.stableMinTests
+      && r.t - counted.first.t >= this.s.spanMs
       && this.firstRise !== null
-      && (!this.needsClearance(r.t) || run.clearedDoses.length > 0)
+      && nitrate - (this.nitrateLow?.nitrateN ?? 0) >= th.nitrateRiseN
+      && run.provenChain.length >= th.clearanceDays
   }
 
-  private needsClearance(t: number): boolean {
-    // Nobody doses ammonia onto animals: once livestock is in, a rise and fall is the proof.
-    return this.s.method === 'fishless' && !(this.s.firstLivestockT <= t)
+  private provesWithAnimals(counted: MutableCount | null, r: TimedReading, nitrate: number): boolean {
+    const th = this.s.thresholds
+    if (counted === null || counted.zeroTests < th.stableMinTests) return false
+    if (r.t - counted.first.t < Math.max(this.s.spanMs, th.fishInStableDays * 24 * 3_600_000)) return false
+    if (this.nitriteStage !== null) return true
+    const from = this.firstNitrateWithAnimals
+    return from !== null
+      && this.latestNitrate !== null
+      && this.latestNitrate.t - from.t >= th.seededNitrateRiseDays * 24 * 3_600_000
+      && nitrate - (from.nitrateN ?? 0) >= th.nitrateRiseN
   }
 
   result(nowMs: number): Course {
@@ -271,27 +394,33 @@ class CourseScan {
     const run = this.run
     // A test still waiting to be excused is above the limits now: no completion holds meanwhile.
     const onHold = this.held.length > 0
+    const waiting = this.held[this.held.length - 1]
     return {
       completion: onHold ? null : run?.completion ?? null,
+      held: onHold && run?.completion && waiting ? { completion: run.completion, by: waiting.reading, until: Math.min(...this.held.map(h => h.deadline)) } : null,
       lost: this.lost,
-      run: run ? { first: run.first, last: run.last, zeroTests: run.zeroTests, clearedDoses: run.clearedDoses } : null,
+      run: run ? { first: run.first, last: run.last, zeroTests: run.zeroTests, afterDose: run.afterDose, withAnimals: run.withAnimals, provenChain: run.provenChain } : null,
       firstRise: this.firstRise,
+      nitriteStage: this.nitriteStage,
       ammoniaFallen: this.ammoniaFallen,
       doses: this.doses,
       openDoses: open,
       restarts: this.restarts,
       latestNitrate: this.latestNitrate,
+      nitrateLow: this.nitrateLow,
+      firstNitrateWithAnimals: this.firstNitrateWithAnimals,
     }
   }
 }
 
 /** Follows the cycle through the ordered history. Events at the same instant as a test come first. */
-export function traceCourse(history: History, thresholds: Thresholds, method: CycleMethod, nowMs: number): Course {
+export function traceCourse(history: History, thresholds: Thresholds, method: CycleMethod, startedMs: number, nowMs: number): Course {
   const livestock = history.events.find(e => e.event.kind === 'livestock-added')
+  const fishIn = method === 'fish-in' ? startedMs : Number.POSITIVE_INFINITY
   const scan = new CourseScan({
     thresholds,
     method,
-    firstLivestockT: livestock ? livestock.t : Number.POSITIVE_INFINITY,
+    animalsT: Math.min(fishIn, livestock ? livestock.t : Number.POSITIVE_INFINITY),
     windowMs: thresholds.clearanceWindowHours * HOUR_MS,
     spanMs: thresholds.stableSpanHours * HOUR_MS,
     gapMs: thresholds.zeroRunMaxGapHours * HOUR_MS,

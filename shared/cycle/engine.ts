@@ -6,7 +6,7 @@
 
 import { mergeActions } from './actions'
 import { traceCourse } from './course'
-import { buildHistory } from './history'
+import { buildHistory, compareReadings } from './history'
 import { decidePhase, firstSourceTime } from './phase'
 import { assessReadiness } from './readiness'
 import { FINDING_RULES, RULE_SET_VERSION } from './registry'
@@ -34,7 +34,7 @@ function buildContext(input: CycleInput): RuleContext {
   const startedMs = requireTime('tank.startedAt', input.tank.startedAt)
   const thresholds = resolveThresholds(input.thresholds)
   const history = buildHistory(input.readings, input.events ?? [], nowMs)
-  const course = traceCourse(history, thresholds, input.tank.cycleMethod, nowMs)
+  const course = traceCourse(history, thresholds, input.tank.cycleMethod, startedMs, nowMs)
   const latest = latestValues(history.readings)
   const sourceT = firstSourceTime(history, input.tank, startedMs, thresholds, nowMs)
   const phase = decidePhase({ history, course, latest, thresholds, sourceT })
@@ -49,7 +49,7 @@ function runRules(ctx: RuleContext): { findings: Finding[], actions: CycleAction
     const result = rule.evaluate(ctx)
     for (const hit of result.hits) {
       // The same test can back a finding twice (e.g. pH and temperature from one test); list it once, oldest first.
-      const ids = [...new Set(hit.readings.slice().sort((a, b) => a.t - b.t || compareStrings(a.id, b.id)).map(r => r.id))]
+      const ids = [...new Set(hit.readings.slice().sort(compareReadings).map(r => r.id))]
       findings.push({ ruleId: rule.id, severity: hit.severity, message: hit.message, readingIds: ids })
     }
     actions.push(...result.actions)

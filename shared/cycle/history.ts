@@ -1,6 +1,8 @@
 /**
  * Turns the raw readings and events into one ordered history. The order is total
- * (time, then id, then content), so the verdict cannot depend on input order.
+ * (time taken, then time entered, then id, then content), so the verdict cannot depend
+ * on input order, and of two tests taken in the same minute the one entered last is
+ * the latest.
  */
 
 import { parseTime } from './time'
@@ -10,6 +12,8 @@ import type { CycleEvent, CycleReading } from './types'
 export interface TimedReading {
   readonly id: string
   readonly t: number
+  /** When it was entered (epoch ms); -Infinity when unknown, so it sorts first among equals. */
+  readonly entered: number
   readonly ammoniaN?: number
   readonly nitriteN?: number
   readonly nitrateN?: number
@@ -19,12 +23,14 @@ export interface TimedReading {
   readonly alkalinityDkh?: number
   readonly calciumMgL?: number
   readonly magnesiumMgL?: number
+  readonly phosphateMgL?: number
 }
 
 /** An event with its parsed time. */
 export interface TimedEvent {
   readonly event: CycleEvent
   readonly t: number
+  readonly entered: number
 }
 
 /** The ordered history as of `now`. */
@@ -37,10 +43,10 @@ export interface History {
   readonly repairedReadingIds: readonly string[]
 }
 
-type NumericKey = Exclude<keyof TimedReading, 'id' | 't'>
+type NumericKey = Exclude<keyof TimedReading, 'id' | 't' | 'entered'>
 
 const VALUE_KEYS: readonly NumericKey[] = [
-  'ammoniaN', 'nitriteN', 'nitrateN', 'pH', 'temperatureC', 'salinity', 'alkalinityDkh', 'calciumMgL', 'magnesiumMgL',
+  'ammoniaN', 'nitriteN', 'nitrateN', 'pH', 'temperatureC', 'salinity', 'alkalinityDkh', 'calciumMgL', 'magnesiumMgL', 'phosphateMgL',
 ]
 
 // Temperature may legitimately be below zero on a broken heater's log; every other value may not.
@@ -56,16 +62,39 @@ function valueKey(reading: TimedReading): string {
   return VALUE_KEYS.map(key => String(reading[key] ?? '')).join('|')
 }
 
-function compareReadings(a: TimedReading, b: TimedReading): number {
-  return a.t - b.t || compareStrings(a.id, b.id) || compareStrings(valueKey(a), valueKey(b))
+// Equal infinities subtract to NaN, which a sort would read as "unordered": compare explicitly.
+function compareNumbers(a: number, b: number): number {
+  return a < b ? -1 : a > b ? 1 : 0
+}
+
+/** History order of two readings. */
+export function compareReadings(a: TimedReading, b: TimedReading): number {
+  return a.t - b.t || compareNumbers(a.entered, b.entered) || compareStrings(a.id, b.id) || compareStrings(valueKey(a), valueKey(b))
 }
 
 function compareEvents(a: TimedEvent, b: TimedEvent): number {
   return a.t - b.t
+    || compareNumbers(a.entered, b.entered)
     || compareStrings(a.event.id, b.event.id)
     || compareStrings(a.event.kind, b.event.kind)
     || (a.event.amount ?? -1) - (b.event.amount ?? -1)
     || compareStrings(a.event.group ?? '', b.event.group ?? '')
+}
+
+/**
+ * Values are compared with limits at a micro-unit (1e-6) precision: the same kit reading
+ * typed in the form, imported from a CSV in another basis or entered as a correction
+ * reaches the engine through different unit conversions, and must not fall on different
+ * sides of a limit by a floating-point hair.
+ */
+export function atLimitPrecision(value: number): number {
+  return Math.round(value * 1e6) / 1e6
+}
+
+/** Entry time in epoch ms; a missing or unreadable one sorts first, as if entered before any other. */
+function enteredTime(iso: string | undefined): number {
+  const ms = iso === undefined ? Number.NaN : parseTime(iso)
+  return Number.isFinite(ms) ? ms : Number.NEGATIVE_INFINITY
 }
 
 function sanitize(raw: CycleReading, t: number): { reading: TimedReading, repaired: boolean } {
@@ -74,10 +103,10 @@ function sanitize(raw: CycleReading, t: number): { reading: TimedReading, repair
   for (const key of VALUE_KEYS) {
     const value = raw[key]
     if (value === undefined || value === null) continue
-    if (acceptable(key, value)) values[key] = value
+    if (acceptable(key, value)) values[key] = atLimitPrecision(value)
     else repaired = true
   }
-  return { reading: { id: raw.id, t, ...values }, repaired }
+  return { reading: { id: raw.id, t, entered: enteredTime(raw.enteredAt), ...values }, repaired }
 }
 
 /** Builds the ordered history from raw input, dropping what happened after `nowMs`. */
@@ -100,7 +129,7 @@ export function buildHistory(readings: readonly CycleReading[], events: readonly
   const timedEvents: TimedEvent[] = []
   for (const event of events) {
     const t = parseTime(event.at)
-    if (Number.isFinite(t) && t <= nowMs) timedEvents.push({ event, t })
+    if (Number.isFinite(t) && t <= nowMs) timedEvents.push({ event, t, entered: enteredTime(event.enteredAt) })
   }
   return {
     readings: kept.sort(compareReadings),

@@ -29,12 +29,20 @@ export function firstSourceTime(history: History, tank: CycleTank, startedMs: nu
   return Number.isFinite(first) ? first : null
 }
 
-/** True when the latest ammonia is at least `fallFraction` below its peak since the last dose or water change. */
-export function ammoniaFalling(history: History, latest: TimedReading, fallFraction: number): boolean {
+/**
+ * True when the latest ammonia is at least `fallFraction` below its peak since the last
+ * dose, water change or zero ammonia test.
+ */
+export function ammoniaFalling(history: History, latest: TimedReading, fallFraction: number, zeroN: number): boolean {
   let since = Number.NEGATIVE_INFINITY
   for (const { event, t } of history.events) {
     // A dose raises ammonia on purpose and a water change lowers it by dilution: neither is the bacteria's doing.
     if ((event.kind === 'ammonia-dose' || event.kind === 'water-change') && t <= latest.t) since = t
+  }
+  // Ammonia back after reading zero is a new rise (a relapse): its peak starts there.
+  for (const r of history.readings) {
+    if (r.t >= latest.t) break
+    if (r.t > since && r.ammoniaN !== undefined && r.ammoniaN <= zeroN) since = r.t
   }
   let peak = 0
   for (const r of history.readings) {
@@ -61,6 +69,8 @@ export interface PhaseInput {
 /** Decides the phase; `complete` only when the course holds a completion that no later test has ended. */
 export function decidePhase({ history, course, latest, thresholds, sourceT }: PhaseInput): CyclePhase {
   if (course.completion) return 'complete'
+  // A proven tank working off a dose or a spike is settling, not back in the ammonia or nitrite stage.
+  if (course.held) return 'settling'
   if (sourceT === null) return 'not-started'
   const lastTest = latestNitrogen(history.readings)
   // The source went in after the last test: ammonia is expected, not yet measured.
@@ -72,7 +82,7 @@ export function decidePhase({ history, course, latest, thresholds, sourceT }: Ph
   // Once ammonia has fallen, ammonia inside a dose's window is that dose being worked off: feeding
   // during the nitrite stage, or a clearance test under way. Anywhere else it is a relapse.
   const dosed = course.ammoniaFallen !== null && insideDoseWindow(history, ammonia.t, thresholds.clearanceWindowHours)
-  if (nitriteUp && (dosed || ammoniaFalling(history, ammonia, thresholds.fallFraction))) return 'nitrite'
+  if (nitriteUp && (dosed || ammoniaFalling(history, ammonia, thresholds.fallFraction, thresholds.ammoniaZeroN))) return 'nitrite'
   if (dosed) return 'settling'
   return 'ammonia'
 }

@@ -14,13 +14,14 @@ import { LIVESTOCK_RULES } from './rules/livestock'
 import { NITRITE_RULES } from './rules/nitrite'
 import { READINESS_RULES } from './rules/readiness'
 import { RESTART_RULES } from './rules/restarts'
+import { STOCKING_RULES } from './rules/stocking'
 import { TESTING_RULES } from './rules/testing'
 import { YOUNG_TANK_RULES } from './rules/young-tank'
 import type { CycleRule } from './rules/rule'
 import type { Severity } from './types'
 
 /** Version of the rules and defaults below; part of every verdict. */
-export const RULE_SET_VERSION = 'tidewright-cycle-1.0.0'
+export const RULE_SET_VERSION = 'tidewright-cycle-2.0.0'
 
 /** Rules that report findings and propose actions, in evaluation order. */
 export const FINDING_RULES: readonly CycleRule[] = [
@@ -33,6 +34,7 @@ export const FINDING_RULES: readonly CycleRule[] = [
   ...NITRITE_RULES,
   ...ENVIRONMENT_RULES,
   ...LIVESTOCK_RULES,
+  ...STOCKING_RULES,
   ...YOUNG_TANK_RULES,
   ...INPUT_RULES,
 ]

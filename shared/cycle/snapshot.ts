@@ -6,13 +6,13 @@
 import { HOUR_MS } from './time'
 import type { TimedReading } from './history'
 
-type Measured = Exclude<keyof TimedReading, 'id' | 't'>
+type Measured = Exclude<keyof TimedReading, 'id' | 't' | 'entered'>
 
 /** Latest reading carrying each value; readings are in time order. */
 export type Latest = Readonly<Partial<Record<Measured, TimedReading>>>
 
 const MEASURED: readonly Measured[] = [
-  'ammoniaN', 'nitriteN', 'nitrateN', 'pH', 'temperatureC', 'salinity', 'alkalinityDkh', 'calciumMgL', 'magnesiumMgL',
+  'ammoniaN', 'nitriteN', 'nitrateN', 'pH', 'temperatureC', 'salinity', 'alkalinityDkh', 'calciumMgL', 'magnesiumMgL', 'phosphateMgL',
 ]
 
 /** Latest reading for each measured value. */

@@ -5,6 +5,7 @@
  */
 
 import { nitrogenFraction } from '../chemistry/nitrogen'
+import { atLimitPrecision } from './history'
 import type { Thresholds } from './types'
 
 /** Kits and the trade quote ammonia "as NH3"; the engine works as N, so convert once here. */
@@ -22,6 +23,8 @@ export const EPA_SALTWATER_ACUTE_NH3 = 0.233
 /** Source string for trade practice with no primary publication. */
 export const COMMON_PRACTICE = 'common practice, no published source'
 const EPA_1989 = 'US EPA (1989), Ambient Water Quality Criteria for Ammonia (Saltwater) - 1989, EPA 440/5-88-004'
+/** Nitrification turns each mg/L of ammonia-N into 1 mg/L of nitrate-N. */
+export const NITRIFICATION_STOICHIOMETRY = 'nitrification stoichiometry, 1 mg/L ammonia-N to 1 mg/L nitrate-N (standard wastewater engineering texts such as Metcalf & Eddy, from memory)'
 const STOCKING_GATES = 'stocking gates before livestock (common practice, no published source)'
 
 /** What a threshold is measured in, as the settings form labels it. */
@@ -108,7 +111,7 @@ export const THRESHOLD_SPECS: Readonly<Record<keyof Thresholds, ThresholdSpec>> 
   salinityMin: spec('water', 'practical salinity', 30, 0, 42, COMMON_PRACTICE, 'Salinity below this is a caution.'),
   salinityMax: spec('water', 'practical salinity', 37, 0, 42, COMMON_PRACTICE, 'Salinity above this is a caution.'),
   salinityTargetMin: spec('water', 'practical salinity', 33, 20, 42, COMMON_PRACTICE, 'Stony corals want salinity at or above this ...'),
-  salinityTargetMax: spec('water', 'practical salinity', 35, 20, 42, 'natural seawater is about S 35 (UNESCO TP44); the band is common practice, no published source', '... and at or below this.'),
+  salinityTargetMax: spec('water', 'practical salinity', 36, 20, 42, 'natural seawater is about S 35 (UNESCO TP44); the band is common practice, no published source', '... and at or below this.'),
   salinityStableSpread: spec('water', 'practical salinity', 1, 0.1, 5, COMMON_PRACTICE, 'Stony corals want salinity varying by no more than this ...'),
   salinityStableDays: spec('water', 'days', 7, 1, 60, COMMON_PRACTICE, '... over this many days.'),
   temperatureMinC: spec('water', '°C', 22, 0, 40, COMMON_PRACTICE, 'Temperature below this is a caution.'),
@@ -120,9 +123,9 @@ export const THRESHOLD_SPECS: Readonly<Record<keyof Thresholds, ThresholdSpec>> 
   alkalinityMinDkh: spec('reef chemistry', 'dKH', 7, 0, 30, STOCKING_GATES, 'Stony corals wait for alkalinity at or above this.'),
   alkalinityMaxDkh: spec('reef chemistry', 'dKH', 11, 0, 30, STOCKING_GATES, 'Stony corals wait for alkalinity at or below this.'),
   calciumMinMgL: spec('reef chemistry', 'mg/L', 380, 0, 1000, STOCKING_GATES, 'Stony corals wait for calcium at or above this.'),
-  calciumMaxMgL: spec('reef chemistry', 'mg/L', 460, 0, 1000, STOCKING_GATES, 'Stony corals wait for calcium at or below this.'),
+  calciumMaxMgL: spec('reef chemistry', 'mg/L', 450, 0, 1000, STOCKING_GATES, 'Stony corals wait for calcium at or below this.'),
   magnesiumMinMgL: spec('reef chemistry', 'mg/L', 1250, 0, 2500, STOCKING_GATES, 'Stony corals wait for magnesium at or above this.'),
-  magnesiumMaxMgL: spec('reef chemistry', 'mg/L', 1450, 0, 2500, STOCKING_GATES, 'Stony corals wait for magnesium at or below this.'),
+  magnesiumMaxMgL: spec('reef chemistry', 'mg/L', 1400, 0, 2500, STOCKING_GATES, 'Stony corals wait for magnesium at or below this.'),
 
   // Stocking.
   nitrateMaxFishN: spec('stocking', 'mg/L as N', 40 * NO3_TO_N, 0.5, 50, STOCKING_GATES, 'Fish wait while nitrate is above this (40 ppm as NO3).'),
@@ -133,7 +136,7 @@ export const THRESHOLD_SPECS: Readonly<Record<keyof Thresholds, ThresholdSpec>> 
   phosphateMaxCoralMgL: spec('stocking', 'mg/L as PO4', 0.1, 0.01, 10, STOCKING_GATES, 'Corals wait while phosphate is above this.'),
   softCoralDelayDays: spec('stocking', 'days', 0, 0, 365, COMMON_PRACTICE, 'Days after completion before soft corals may go in.'),
   lpsCoralDelayDays: spec('stocking', 'days', 30, 0, 365, 'stony corals wait at least about a month (common practice, no published source)', 'Days after completion before LPS corals may go in.'),
-  spsCoralDelayDays: spec('stocking', 'days', 30, 0, 365, 'SPS only after several months of stable chemistry, later than LPS (common practice, no published source)', 'Days after completion before SPS corals may go in.'),
+  spsCoralDelayDays: spec('stocking', 'days', 90, 0, 365, 'SPS only after several months of stable chemistry, later than LPS (common practice, no published source)', 'Days after completion before SPS corals may go in.'),
   stockingBatchMax: spec('stocking', 'animals', 3, 1, 50, COMMON_PRACTICE, 'More animals than this in one addition is a large addition.'),
   stockingIntervalDays: spec('stocking', 'days', 7, 0, 60, COMMON_PRACTICE, 'Days between additions of fish after a small addition.'),
   stockingLargeIntervalDays: spec('stocking', 'days', 14, 0, 90, COMMON_PRACTICE, 'Days before more fish after a large addition.'),
@@ -148,7 +151,7 @@ export const THRESHOLD_SPECS: Readonly<Record<keyof Thresholds, ThresholdSpec>> 
 
 /** Tidewright's defaults, from THRESHOLD_SPECS; companies override single keys. */
 export const DEFAULT_THRESHOLDS: Readonly<Thresholds> = Object.freeze(
-  Object.fromEntries(Object.entries(THRESHOLD_SPECS).map(([key, s]) => [key, s.default])) as unknown as Thresholds,
+  Object.fromEntries(Object.entries(THRESHOLD_SPECS).map(([key, s]) => [key, atLimitPrecision(s.default)])) as unknown as Thresholds,
 )
 
 /**
@@ -165,7 +168,7 @@ export function resolveThresholds(overrides: Partial<Thresholds> = {}): Threshol
     if (typeof value !== 'number' || !Number.isFinite(value) || value < min || value > max) {
       throw new RangeError(`threshold ${key} must be a number from ${min} to ${max} (got ${value})`)
     }
-    merged[key] = value
+    merged[key] = atLimitPrecision(value)
   }
   return merged
 }

@@ -4,7 +4,8 @@
  */
 import type { ImportTarget, ReadingImportInput } from '../schemas/reading'
 import { IMPORT_TARGETS } from '../schemas/reading'
-import type { EntryIssue, ReadingEntry } from './entry'
+import type { EntryIssue, KitBasisChoice, ReadingEntry } from './entry'
+import { calendarDateExists, parseDecimal } from './fields'
 
 /** Header words each target is recognised by (lower case, punctuation removed). */
 const HEADER_HINTS: Record<ImportTarget, string[]> = {
@@ -23,6 +24,22 @@ const HEADER_HINTS: Record<ImportTarget, string[]> = {
 }
 
 const normalise = (header: string) => header.toLowerCase().replace(/[^a-z0-9]/g, '')
+
+/**
+ * Columns whose header repeats an earlier one (ignoring case and spaces), as 1-based column
+ * numbers: such a file is ambiguous and is refused whole.
+ */
+export function duplicateHeaderColumns(headers: readonly string[]): number[] {
+  const seen = new Set<string>()
+  const repeats: number[] = []
+  headers.forEach((header, index) => {
+    const key = header.trim().toLowerCase()
+    if (!key) return
+    if (seen.has(key)) repeats.push(index + 1)
+    seen.add(key)
+  })
+  return repeats
+}
 
 /** Which header holds each target, from the header names alone; explicit choices win. */
 export function guessMapping(headers: readonly string[], chosen: Partial<Record<ImportTarget, string>> = {}): Partial<Record<ImportTarget, string>> {
@@ -50,7 +67,7 @@ export function guessMapping(headers: readonly string[], chosen: Partial<Record<
 /** A date-time cell: ISO 8601, or "YYYY-MM-DD HH:MM[:SS]" read as UTC. */
 export function parseCsvTime(cell: string): string | null {
   const text = cell.trim()
-  if (!text) return null
+  if (!text || !calendarDateExists(text)) return null
   // Fast path: what Tidewright exports (and most tools write) is already ISO 8601 UTC.
   if (text.length === 24 && text[23] === 'Z' && text[10] === 'T') {
     const t = Date.parse(text)
@@ -62,7 +79,8 @@ export function parseCsvTime(cell: string): string | null {
   return Number.isFinite(t) ? new Date(t).toISOString() : null
 }
 
-type Options = Pick<ReadingImportInput, 'basis' | 'temperatureUnit' | 'salinityMode' | 'sgBasis'>
+/** How each row is read; the basis is settled before the rows are (see importBasis). */
+type Options = Pick<ReadingImportInput, 'temperatureUnit' | 'salinityMode' | 'sgBasis'> & { basis: KitBasisChoice }
 
 const NUMERIC: readonly ImportTarget[] = ['ammonia', 'nitrite', 'nitrate', 'pH', 'temperature', 'salinity', 'alkalinityDkh', 'calciumMgL', 'magnesiumMgL', 'phosphateMgL']
 
@@ -94,14 +112,15 @@ export function arrayRowToEntry(cells: readonly string[], indexes: Partial<Recor
 
 function cellsToEntry(raw: (target: ImportTarget) => string, options: Options): { entry: ReadingEntry } | { issues: EntryIssue[] } {
   const issues: EntryIssue[] = []
-  const takenAt = parseCsvTime(raw('takenAt'))
-  if (!takenAt) issues.push({ field: 'takenAt', message: 'Not a date and time.' })
+  const time = raw('takenAt')
+  const takenAt = parseCsvTime(time)
+  if (!takenAt) issues.push({ field: 'takenAt', message: calendarDateExists(time) ? 'Not a date and time.' : 'That date does not exist. Check the day and the month.' })
   const numbers: Partial<Record<ImportTarget, number | null>> = {}
   for (const target of NUMERIC) {
     const text = raw(target).trim()
     if (!text) { numbers[target] = null; continue }
-    const value = Number(text)
-    if (!Number.isFinite(value)) issues.push({ field: target, message: 'Not a number.' })
+    const value = parseDecimal(text)
+    if (value === null) issues.push({ field: target, message: 'Not a number.' })
     else numbers[target] = value
   }
   if (issues.length) return { issues }
@@ -158,4 +177,19 @@ export const EXPORT_MAPPING: Partial<Record<ImportTarget, string>> = {
   magnesiumMgL: 'magnesium_mg_l',
   phosphateMgL: 'phosphate_mg_l',
   notes: 'notes',
+}
+
+/**
+ * The basis an import reads nitrogen values in: the one chosen, if any; otherwise, per test,
+ * as N when its column is Tidewright's own export (the header says mg/L as N), else the
+ * tank's remembered kit basis, as the entry form would default it.
+ */
+export function importBasis(chosen: KitBasisChoice | undefined, mapping: Partial<Record<ImportTarget, string>>, kit: KitBasisChoice): KitBasisChoice {
+  if (chosen) return { ...chosen }
+  const fromFile = (target: 'ammonia' | 'nitrite' | 'nitrate') => mapping[target] !== undefined && mapping[target] === EXPORT_MAPPING[target]
+  return {
+    ammonia: fromFile('ammonia') ? 'N' : kit.ammonia,
+    nitrite: fromFile('nitrite') ? 'N' : kit.nitrite,
+    nitrate: fromFile('nitrate') ? 'N' : kit.nitrate,
+  }
 }

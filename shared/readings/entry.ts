@@ -13,6 +13,7 @@ import { toNitrogen, fromNitrogen, type NitrogenSpecies } from '../chemistry/nit
 import { SG_BASES, salinityFromConductivity, salinityFromSpecificGravity } from '../chemistry/seawater'
 import { DEFAULT_THRESHOLDS } from '../cycle/thresholds'
 import { celsiusToFahrenheit, fahrenheitToCelsius } from '../units'
+import { calendarDateExists, ENTRY_NOTES_MAX } from './fields'
 import {
   MEASURED_FIELDS, PHYSICAL_BOUNDS,
   type AmmoniaBasis, type FlagSeverity, type MeasuredField, type NitrateBasis, type NitriteBasis, type SalinityMode, type TemperatureUnit,
@@ -175,6 +176,7 @@ export function temperatureFromC(valueC: number, unit: TemperatureUnit): number 
 export function checkTakenAt(takenAt: string, now: Date): EntryIssue | null {
   const t = Date.parse(takenAt)
   if (!Number.isFinite(t)) return { field: 'takenAt', message: 'Give the date and time the test was taken.' }
+  if (!calendarDateExists(takenAt)) return { field: 'takenAt', message: 'That date does not exist. Check the day and the month.' }
   if (t > now.getTime() + FUTURE_SKEW_MS) return { field: 'takenAt', message: 'A test cannot be taken in the future. Check the date and time.' }
   if (t < now.getTime() - OLDEST_READING_YEARS * 365.25 * 86_400_000) return { field: 'takenAt', message: 'That date is too far in the past.' }
   return null
@@ -280,6 +282,7 @@ export function toCanonicalReading(entry: ReadingEntry, now: Date = new Date()):
     if (flag) flags.push(flag)
   }
   const notes = entry.notes?.trim() ? entry.notes.trim() : null
+  if (notes && notes.length > ENTRY_NOTES_MAX) issues.push({ field: 'notes', message: `Notes are at most ${ENTRY_NOTES_MAX} characters.` })
   if (MEASURED_FIELDS.every(f => values[f] === null) && !notes && issues.length === 0) {
     issues.push({ field: 'ammonia', message: 'Enter at least one test result.' })
   }

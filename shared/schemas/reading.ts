@@ -5,6 +5,7 @@
  */
 import * as v from 'valibot'
 import { SG_BASES } from '../chemistry/seawater'
+import { calendarDateExists, ENTRY_NOTES_MAX } from '../readings/fields'
 import {
   AMMONIA_BASES, EVENT_KINDS, LIVESTOCK_GROUPS, NITRATE_BASES, NITRITE_BASES, SALINITY_MODES, TEMPERATURE_UNITS, VOLUME_UNITS,
 } from '../vocabulary'
@@ -12,7 +13,7 @@ import {
 const SG_KEYS = Object.keys(SG_BASES) as [keyof typeof SG_BASES, ...(keyof typeof SG_BASES)[]]
 
 const measured = (label: string) => v.nullish(v.pipe(v.number(`${label} must be a number.`), v.finite(`${label} must be a number.`)))
-const isoTime = (message: string) => v.pipe(v.string(message), v.maxLength(40, message), v.check(s => Number.isFinite(Date.parse(s)), message))
+const isoTime = (message: string) => v.pipe(v.string(message), v.maxLength(40, message), v.check(s => Number.isFinite(Date.parse(s)), message), v.check(calendarDateExists, 'That date does not exist. Check the day and the month.'))
 
 export const KitBasisSchema = v.object({
   ammonia: v.picklist(AMMONIA_BASES, 'Ammonia basis is NH3, NH4 or N.'),
@@ -37,7 +38,7 @@ const readingEntries = {
   calciumMgL: measured('Calcium'),
   magnesiumMgL: measured('Magnesium'),
   phosphateMgL: measured('Phosphate'),
-  notes: v.nullish(v.pipe(v.string('Notes must be text.'), v.maxLength(2000, 'Notes are at most 2000 characters.'))),
+  notes: v.nullish(v.pipe(v.string('Notes must be text.'), v.maxLength(ENTRY_NOTES_MAX, `Notes are at most ${ENTRY_NOTES_MAX} characters.`))),
 }
 
 /** POST /api/tanks/:id/readings. `rememberBasis` stores the kit basis on the tank for next time. */
@@ -98,7 +99,7 @@ const eventEntries = {
   doseBasis: v.optional(v.picklist(AMMONIA_BASES, 'Dose basis is NH3, NH4 or N.'), 'N'),
   volumeUnit: v.optional(v.picklist(VOLUME_UNITS, 'Volume is in litres or US gallons.'), 'L'),
   group: v.nullish(v.picklist(LIVESTOCK_GROUPS, 'Unknown livestock group.')),
-  notes: v.nullish(v.pipe(v.string('Notes must be text.'), v.maxLength(2000, 'Notes are at most 2000 characters.'))),
+  notes: v.nullish(v.pipe(v.string('Notes must be text.'), v.maxLength(ENTRY_NOTES_MAX, `Notes are at most ${ENTRY_NOTES_MAX} characters.`))),
 }
 
 /** POST /api/tanks/:id/events. */
@@ -118,7 +119,8 @@ export const ReadingImportSchema = v.object({
   csv: v.pipe(v.string('Attach the CSV text.'), v.minLength(1, 'The file is empty.')),
   /** Target -> the CSV header that holds it. Unmapped targets are guessed from the header. */
   mapping: v.optional(v.record(v.picklist(IMPORT_TARGETS, 'Unknown column target.'), v.pipe(v.string(), v.maxLength(200))), {}),
-  basis: v.optional(KitBasisSchema, { ammonia: 'N', nitrite: 'N', nitrate: 'N' }),
+  /** How the kit reads; when left out, as the file's headers say (Tidewright's export: as N), else the tank's remembered kit. */
+  basis: v.optional(KitBasisSchema),
   temperatureUnit: v.optional(v.picklist(TEMPERATURE_UNITS, 'Temperature unit is C or F.'), 'C'),
   salinityMode: v.optional(v.picklist(SALINITY_MODES, 'Unknown salinity mode.'), 'practical'),
   sgBasis: v.optional(v.picklist(SG_KEYS, 'Unknown specific-gravity basis.')),

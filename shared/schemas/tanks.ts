@@ -57,6 +57,8 @@ export const TankPatchSchema = v.pipe(
     material: v.picklist(TANK_MATERIALS, 'Glass or acrylic.'),
     waterSource: v.picklist(WATER_SOURCES, 'Natural seawater or mixed salt.'),
     cycleMethod: v.picklist(CYCLE_METHODS, 'Fishless or fish-in.'),
+    /** Required to change what a signed-off tank's certificate prints; the amendment is shown on it. */
+    amendmentReason: v.pipe(v.string('Write why the signed record changes.'), v.trim(), v.minLength(3, 'Write why the signed record changes.'), v.maxLength(500, 'Keep the reason under 500 characters.')),
   })),
   v.forward(
     v.check(input => (input.shape === undefined) === (input.dimensions === undefined), 'Send the shape and its dimensions together.'),

@@ -61,11 +61,33 @@ export interface DatedAcclimationStep {
   plateauPercent: number
 }
 
-/** The lighting acclimation plan (shared/lighting), each week dated from `startIso`. */
-export function datedAcclimation(startIso: string, weeks: number = ACCLIMATION_DEFAULTS.weeks): DatedAcclimationStep[] {
+/** How the plateau is raised after the cycle: over how many weeks, from and to what percent. */
+export interface AcclimationSettings {
+  weeks: number
+  startPercent: number
+  endPercent: number
+}
+
+const settingOf = (data: Record<string, unknown>, key: string, fallback: number): number => {
+  const value = data[key]
+  return typeof value === 'number' && Number.isFinite(value) ? value : fallback
+}
+
+/** The tank's own acclimation settings, from its lighting-ramp stage; Tidewright's defaults where unset. */
+export function acclimationSettingsOf(stages: readonly { key: string, data: Record<string, unknown> }[]): AcclimationSettings {
+  const data = stages.find(s => s.key === 'lighting-ramp')?.data ?? {}
+  return {
+    weeks: settingOf(data, 'acclimationWeeks', ACCLIMATION_DEFAULTS.weeks),
+    startPercent: settingOf(data, 'acclimationStartPercent', ACCLIMATION_DEFAULTS.startPercent),
+    endPercent: settingOf(data, 'acclimationEndPercent', ACCLIMATION_DEFAULTS.endPercent),
+  }
+}
+
+/** The lighting acclimation plan (shared/lighting) for the given settings, each week dated from `startIso`. */
+export function datedAcclimation(startIso: string, settings: AcclimationSettings = ACCLIMATION_DEFAULTS): DatedAcclimationStep[] {
   const start = Date.parse(startIso)
   if (!Number.isFinite(start)) throw new RangeError(`startIso must be an ISO date (got ${startIso})`)
-  return acclimationPlan(weeks).map(step => ({
+  return acclimationPlan(settings.weeks, settings.startPercent, settings.endPercent).map(step => ({
     week: step.week,
     from: new Date(start + step.week * 7 * DAY_MS).toISOString(),
     plateauPercent: Math.round(step.plateauPercent * 10) / 10,

@@ -1,7 +1,7 @@
 /** API response shapes for readings, events, charts and verdicts. Values are canonical. */
 import type { CyclePhase, Verdict } from '../cycle/types'
 import type { RuleInfo } from '../cycle/registry'
-import type { CanonicalValues, EntryFlag } from '../readings/entry'
+import type { CanonicalValues, EntryFlag, KitBasisChoice } from '../readings/entry'
 import type { EventKind, LivestockGroup } from '../vocabulary'
 
 /** The correction that replaced a reading or event: the value every other view shows instead. */
@@ -115,6 +115,8 @@ export interface ImportRowError {
 export interface ImportPreview {
   headers: string[]
   mapping: Record<string, string>
+  /** The basis the nitrogen values were read in. */
+  basis: KitBasisChoice
   rows: number
   valid: number
   duplicates: number

@@ -1,21 +1,62 @@
 /** API response shapes for sign-off, evidence, certificate verification and the stocking plan. */
 import type { CycleInput, Verdict } from '../cycle/types'
 import type { CanonicalValues } from '../readings/entry'
-import type { DatedAcclimationStep, FinalValue, StockingStep } from '../sign-off/plan'
+import type { AcclimationSettings, DatedAcclimationStep, FinalValue, StockingStep } from '../sign-off/plan'
 import type { CyclePhase, TankStatus, TankView } from './tanks'
 
-import type { SignOffStatus } from '../vocabulary'
+import type { CycleMethod, SignOffStatus, StageStatus } from '../vocabulary'
 
 export type { SignOffStatus } from '../vocabulary'
 
+/** A build-plan stage as it stood at the decision. */
+export interface SignedStage {
+  key: string
+  title: string
+  status: StageStatus
+  completedAt: string | null
+}
+
+/** The tank as it stood at the decision: everything a certificate prints comes from here. */
+export interface SignedTankFacts {
+  company: string
+  tankName: string
+  clientName: string
+  siteLabel: string | null
+  shape: string
+  dimensions: Record<string, number | undefined>
+  volumeLitres: number
+  sumpLitres: number
+  cycleMethod: CycleMethod
+  cycleStartedAt: string | null
+  aquaristName: string | null
+  /** Who made the decision. */
+  supervisorName: string
+  stages: SignedStage[]
+}
+
+/** A change to a signed tank's facts made without reopening: audited, and printed on the certificate. */
+export interface SignOffAmendmentView {
+  at: string
+  byName: string | null
+  reason: string
+  changes: { field: string, before: unknown, after: unknown }[]
+}
+
 /** What the engine was given and what it answered when the supervisor decided. */
 export interface SignOffSnapshot {
+  /** Absent only on sign-offs decided before the facts were kept with the decision. */
+  facts?: SignedTankFacts
   input: CycleInput
   verdict: Verdict
   /** Why approving was against the verdict; empty when the engine agreed. */
   overrideGrounds: string[]
   /** Unresolved danger alerts at decision time. */
   unresolvedAlerts: number
+  /**
+   * The tank's lighting acclimation at decision time (its lighting-ramp stage). Absent on
+   * records signed before it was kept: those were printed with Tidewright's defaults.
+   */
+  acclimation?: AcclimationSettings
 }
 
 export interface SignOffRecord {

@@ -44,5 +44,7 @@ export interface TankView extends TankSummary {
   supervisorId: string | null
   supervisorName: string | null
   kitBasis: { ammonia: string, nitrite: string, nitrate: string }
+  /** Water the tank holds with sand, rock and sump (shared/plan/net-volume), litres: what doses are worked out for. */
+  netWaterLitres: number
   createdAt: string
 }

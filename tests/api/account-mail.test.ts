@@ -88,7 +88,7 @@ describe('POST /api/invitations', () => {
     expect(other.organisationId).not.toBe(demo.organisationId)
   })
 
-  it('refuses bad input with field messages and an existing e-mail with 409', async () => {
+  it('refuses bad input with field messages', async () => {
     const admin = await signedIn('admin@tidewright.test')
     const bad = await admin.post('/api/invitations', { email: 'not-an-address', name: '', role: 'wizard' })
     expect(bad.status).toBe(400)
@@ -96,7 +96,21 @@ describe('POST /api/invitations', () => {
     const clientWithout = await admin.post('/api/invitations', { email: 'c@tidewright.test', name: 'C', role: 'client' })
     expect(clientWithout.status).toBe(400)
     expect(clientWithout.body.data.issues[0].field).toBe('clientId')
-    expect((await admin.post('/api/invitations', { email: 'client@tidewright.test', name: 'Dup', role: 'client', clientId: demo.clients.lowe })).status).toBe(409)
+  })
+
+  it('answers an invitation to an address that already has an account (here or elsewhere) like any other, and tells its owner by mail', async () => {
+    const admin = await signedIn('admin@tidewright.test')
+    const fresh = await admin.post('/api/invitations', { email: 'brand.new.person@tidewright.test', name: 'Dup', role: 'client', clientId: demo.clients.lowe })
+    const here = await admin.post('/api/invitations', { email: 'client@tidewright.test', name: 'Dup', role: 'client', clientId: demo.clients.lowe })
+    const elsewhere = await admin.post('/api/invitations', { email: OTHER_AQUARIST_EMAIL, name: 'Dup', role: 'client', clientId: demo.clients.lowe })
+    for (const answer of [here, elsewhere]) {
+      expect(answer.status).toBe(fresh.status)
+      expect(Object.keys(answer.body.user).sort()).toEqual(Object.keys(fresh.body.user).sort())
+    }
+    expect(elsewhere.body.user).toEqual({ email: OTHER_AQUARIST_EMAIL, name: 'Dup', role: 'client' })
+    const told = await waitForMail('already-has-an-account mail', all => all.find(m => m.envelopeTo.includes(OTHER_AQUARIST_EMAIL) && /already have/i.test(m.subject)))
+    expect(told.text).toContain('no new account was made')
+    expect(told.text).not.toMatch(/accept-invite/)
   })
 })
 

@@ -124,7 +124,8 @@ describe('alerts from readings', () => {
     const client3 = await signedIn('client3@tidewright.test')
     const aquarist2 = await signedIn('aquarist2@tidewright.test')
     const readingId = await post(client3, BAD + 0.5)
-    const active = await studyAlerts(aquarist2, 'active')
+    // Rule set 2.0.0 may open the EPA 4-day free-ammonia alert beside it: another kind, its own alert.
+    const active = (await studyAlerts(aquarist2, 'active')).filter(a => a.kind === 'ammonia.action-threshold')
     expect(active.map(a => a.id)).toEqual([alertId])
     expect(active[0]!.lastReadingId).toBe(readingId)
     await tick(new Date())
@@ -139,7 +140,8 @@ describe('alerts from readings', () => {
     expect((await studyAlerts(supervisor)).find(a => a.id === alertId)!.escalatedAt).toBeNull()
 
     const due = await tick(new Date(openedAt + 61 * MINUTE))
-    expect(due.escalated).toBe(1)
+    // This alert, and any other the same readings opened, escalate once each (the mail below counts this one's).
+    expect(due.escalated).toBeGreaterThanOrEqual(1)
     expect((await studyAlerts(supervisor)).find(a => a.id === alertId)!.escalatedAt).not.toBeNull()
     await tick(new Date(openedAt + 120 * MINUTE))
     const mail = await waitForMail('escalation e-mail', all => escalatedMail(all, alertId).length > 0 && all)
@@ -155,10 +157,12 @@ describe('alerts from readings', () => {
   it('acknowledging stops the escalation', async () => {
     const client3 = await signedIn('client3@tidewright.test')
     const aquarist2 = await signedIn('aquarist2@tidewright.test')
+    // The action-level alert; the EPA 4-day average, if open, stands until the average falls.
+    const actionAlerts = async () => (await studyAlerts(aquarist2, 'active')).filter(a => a.kind === 'ammonia.action-threshold')
     await post(client3, CLEAR)
-    expect((await studyAlerts(aquarist2, 'active'))).toHaveLength(0)
+    expect(await actionAlerts()).toHaveLength(0)
     await post(client3, BAD)
-    const [fresh] = await studyAlerts(aquarist2, 'active')
+    const [fresh] = await actionAlerts()
     expect(fresh!.id).not.toBe(alertId)
 
     expect((await client3.post(`/api/alerts/${fresh!.id}/acknowledge`, {})).status).toBe(403)
@@ -168,8 +172,7 @@ describe('alerts from readings', () => {
     expect(acked.body).toMatchObject({ status: 'acknowledged', acknowledgedByName: 'Wren Castellanos', acknowledgeNote: 'Calling the client; water change tonight.' })
     expect((await aquarist2.post(`/api/alerts/${fresh!.id}/acknowledge`, {})).status).toBe(409)
 
-    const later = await tick(new Date(Date.parse(fresh!.openedAt) + 3 * 60 * MINUTE))
-    expect(later.escalated).toBe(0)
+    await tick(new Date(Date.parse(fresh!.openedAt) + 3 * 60 * MINUTE))
     expect((await studyAlerts(aquarist2)).find(a => a.id === fresh!.id)!.escalatedAt).toBeNull()
     expect(escalatedMail(await caughtMail(), fresh!.id)).toHaveLength(0)
 

@@ -2,6 +2,7 @@ import Database from 'better-sqlite3'
 import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest'
 import { ApiClient, signedIn } from '../support/http'
 import { OTHER_AQUARIST_EMAIL } from '../support/fixtures'
+import { nitrogenFraction } from '../../shared/chemistry/nitrogen'
 import type { ChartData, EventList, EventView, ImportPreview, ReadingList, ReadingSaved, VerdictView } from '../../shared/types/readings'
 import type { TankView } from '../../shared/types/tanks'
 
@@ -9,6 +10,8 @@ const { demo, other } = inject('fixtures')
 const lounge = demo.tanks.lounge
 let db: Database.Database
 beforeAll(() => { db = new Database(inject('dbPath')) })
+/** The demo nano's seeded tests (its simulated history: a morning test and, on proof days, one after the dose). */
+const nanoReadings = () => (db.prepare('SELECT count(*) AS n FROM readings WHERE tank_id = ?').get(demo.tanks.nano) as { n: number }).n
 afterAll(() => db?.close())
 
 const hoursAgo = (h: number) => new Date(Date.now() - h * 3_600_000).toISOString()
@@ -107,7 +110,8 @@ describe('GET /api/tanks/:id/readings', () => {
     const api = await signedIn('aquarist@tidewright.test')
     const all = await api.get<ReadingList>(`/api/tanks/${demo.tanks.nano}/readings?pageSize=500&sort=takenAt&dir=asc`)
     expect(all.status).toBe(200)
-    expect(all.body.total).toBe(34)
+    expect(all.body.total).toBe(nanoReadings())
+    expect(all.body.total).toBeGreaterThan(30)
     const times = all.body.items.map(r => r.takenAt)
     expect(times).toEqual([...times].sort())
     const page2 = await api.get<ReadingList>(`/api/tanks/${demo.tanks.nano}/readings?pageSize=10&page=2&sort=takenAt&dir=asc`)
@@ -235,8 +239,8 @@ describe('GET /api/tanks/:id/verdict and /chart', () => {
   it('sends the chart as parallel arrays with events and limits', async () => {
     const { status, body } = await (await signedIn('client2@tidewright.test')).get<ChartData>(`/api/tanks/${demo.tanks.nano}/chart`)
     expect(status).toBe(200)
-    expect(body.t).toHaveLength(34)
-    for (const key of ['ammoniaN', 'nitriteN', 'nitrateN', 'pH', 'temperatureC', 'salinity'] as const) expect(body[key]).toHaveLength(34)
+    expect(body.t).toHaveLength(nanoReadings())
+    for (const key of ['ammoniaN', 'nitriteN', 'nitrateN', 'pH', 'temperatureC', 'salinity'] as const) expect(body[key]).toHaveLength(nanoReadings())
     expect(body.events.map(e => e.kind)).toContain('ammonia-dose')
     expect(body.limits.ammoniaZeroN).toBeGreaterThan(0)
   })
@@ -279,6 +283,20 @@ describe('CSV import and export', () => {
     expect(count()).toBe(before + 50)
   })
 
+  it('reads a file in the tank\'s remembered kit basis unless told otherwise, and says which', async () => {
+    const api = await signedIn('aquarist@tidewright.test')
+    const kit = (await api.get<{ kitBasis: { ammonia: string, nitrite: string, nitrate: string } }>(`/api/tanks/${lobby}`)).body.kitBasis
+    const csv = `Date,Ammonia,Nitrite,Nitrate\n${hoursAgo(30)},1,1,10\n`
+    const dry = await api.post<ImportPreview>(`/api/tanks/${lobby}/readings/import`, { csv, dryRun: true })
+    expect(dry.status).toBe(200)
+    expect(dry.body.basis).toEqual(kit)
+    // The same kit reading typed in the form with the tank's basis is stored the same (IUPAC molar masses).
+    expect(dry.body.preview[0]!.ammoniaN).toBeCloseTo(kit.ammonia === 'N' ? 1 : nitrogenFraction(kit.ammonia as 'NH3' | 'NH4'), 6)
+    const chosen = await api.post<ImportPreview>(`/api/tanks/${lobby}/readings/import`, { csv, basis: { ammonia: 'N', nitrite: 'N', nitrate: 'N' }, dryRun: true })
+    expect(chosen.body.basis).toEqual({ ammonia: 'N', nitrite: 'N', nitrate: 'N' })
+    expect(chosen.body.preview[0]!.ammoniaN).toBeCloseTo(1, 9)
+  })
+
   it('exports CSV that imports back into another tank unchanged', async () => {
     const api = await signedIn('aquarist@tidewright.test')
     const exported = await api.get<string>(`/api/tanks/${demo.tanks.nano}/readings/export.csv`)
@@ -286,9 +304,9 @@ describe('CSV import and export', () => {
     expect(exported.headers.get('content-type')).toContain('text/csv')
     const lines = exported.body.trim().split('\n')
     expect(lines[0]).toBe('taken_at,ammonia_mg_l_n,nitrite_mg_l_n,nitrate_mg_l_n,ph,temperature_c,salinity_practical,alkalinity_dkh,calcium_mg_l,magnesium_mg_l,phosphate_mg_l,notes')
-    expect(lines).toHaveLength(35)
+    expect(lines).toHaveLength(nanoReadings() + 1)
     const dry = await api.post<ImportPreview>(`/api/tanks/${lobby}/readings/import`, { csv: exported.body, dryRun: true })
-    expect(dry.body).toMatchObject({ rows: 34, valid: 34, errorRows: 0 })
+    expect(dry.body).toMatchObject({ rows: nanoReadings(), valid: nanoReadings(), errorRows: 0 })
     const nano = (await api.get<ReadingList>(`/api/tanks/${demo.tanks.nano}/readings?sort=takenAt&dir=asc&pageSize=1`)).body.items[0]!
     expect(dry.body.preview[0]!.nitrateN).toBeCloseTo(nano.nitrateN!, 9)
     expect((await (await signedIn('client@tidewright.test')).get(`/api/tanks/${demo.tanks.nano}/readings/export.csv`)).status).toBe(404)

@@ -5,7 +5,7 @@ import { evaluateCycle } from '../../shared/cycle/engine'
 import { RULE_SET_VERSION } from '../../shared/cycle/registry'
 import type { Evidence, ReviewItem, SignOffRecordWithSnapshot, SignOffState, VerifyResult } from '../../shared/types/sign-off'
 import { openDatabase, type TidewrightDB } from '../../server/db/connection'
-import { alerts, auditLog, events, readings, signOffs, tanks } from '../../server/db/schema'
+import { alerts, auditLog, events, planStages, readings, signOffs, tanks } from '../../server/db/schema'
 import { OTHER_AQUARIST_EMAIL } from '../support/fixtures'
 import { ApiClient, signedIn } from '../support/http'
 import { SIGN_OFF_COMPANY, SIGN_OFF_USERS, seedSignOffCompany, type SignOffCompany } from '../support/sign-off-tanks'
@@ -26,10 +26,18 @@ async function download(api: ApiClient, path: string): Promise<{ status: number,
   return { status: response.status, type: response.headers.get('content-type'), bytes: Buffer.from(await response.arrayBuffer()) }
 }
 
+/** The tank's own lighting acclimation, set on its lighting-ramp stage before it is signed. */
+const OWN_ACCLIMATION = { acclimationWeeks: 2, acclimationStartPercent: 20, acclimationEndPercent: 40 }
+const lightingStage = (tankId: string) => db.$client.prepare('select id from plan_stages where tank_id = ? and key = \'lighting-ramp\'').get(tankId) as { id: string }
+
 beforeAll(async () => {
   db = openDatabase(inject('dbPath'))
   company = await seedSignOffCompany(db, demo.tanks)
   ;({ complete, toReturn, midCycle } = company.tanks)
+  // The sign-off copies carry no build plan: give the one to be signed its lighting stage.
+  db.insert(planStages).values({ tankId: complete, position: 8, key: 'lighting-ramp', title: 'Lighting ramp', data: {} }).run()
+  const set = await (await signedIn(U.aquarist.email)).patch(`/api/tanks/${complete}/stages/${lightingStage(complete).id}`, { data: OWN_ACCLIMATION })
+  if (set.status !== 200) throw new Error(`could not set the lighting stage: ${set.status}`)
 })
 afterAll(() => db?.$client.close())
 
@@ -105,7 +113,11 @@ describe('the evidence', () => {
     expect(status).toBe(200)
     expect(body.tank.name).toBe('Saltmarsh test lounge')
     expect(body.readings.length).toBe(db.select().from(readings).where(eq(readings.tankId, midCycle)).all().length)
-    expect(body.events.map(e => e.kind)).toEqual(['ammonia-dose', 'bacteria-dose'])
+    // The lounge copy's seeded events (bacteria and the doses of its simulated history), in time order.
+    const seeded = db.select({ kind: events.kind, at: events.at }).from(events).where(eq(events.tankId, midCycle)).all()
+      .sort((a, b) => a.at.localeCompare(b.at)).map(e => e.kind)
+    expect(body.events.map(e => e.kind)).toEqual(seeded)
+    expect(seeded).toEqual(expect.arrayContaining(['ammonia-dose', 'bacteria-dose']))
     expect(body.stages).toHaveLength(0)
     expect(body.alerts).toHaveLength(1)
     expect(body.signOffs[0]?.status).toBe('requested')
@@ -245,11 +257,23 @@ describe('the certificate', () => {
     expect(text).toContain('Total ammonia')
     expect(text).toContain('Soft corals')
     expect(text).not.toContain('Signed against')
+    // The tank's own acclimation (2 weeks, 20 % to 40 %), not the defaults (4 weeks, 30 % to 60 %).
+    expect(text.replace(/\s+/g, ' ')).toContain('(20 %, 30 %, 40 %)')
     code = /TW(?:-[0-9A-Z]{4}){6}/.exec(text)?.[0] ?? ''
     expect(code).toBe(db.select().from(signOffs).where(and(eq(signOffs.tankId, complete), eq(signOffs.status, 'approved'))).get()?.verificationCode)
     const info = execFileSync('pdfinfo', ['-'], { input: bytes }).toString()
     expect(info).toMatch(/Pages:\s+1\n/)
     expect(execFileSync('pdffonts', ['-'], { input: bytes }).toString()).toMatch(/SourceSans3/)
+  })
+
+  it('keeps the lighting plan as signed when the stage changes afterwards', async () => {
+    const aquarist = await signedIn(U.aquarist.email)
+    const changed = await aquarist.patch(`/api/tanks/${complete}/stages/${lightingStage(complete).id}`, { data: { acclimationWeeks: 6, acclimationStartPercent: 10, acclimationEndPercent: 70 } })
+    expect(changed.status).toBe(200)
+    const text = pdfText((await download(await signedIn(U.client.email), `/api/tanks/${complete}/certificate.pdf`)).bytes)
+    expect(text.replace(/\s+/g, ' ')).toContain('(20 %, 30 %, 40 %)')
+    const snapshot = db.select().from(signOffs).where(and(eq(signOffs.tankId, complete), eq(signOffs.status, 'approved'))).get()?.snapshot as { acclimation?: unknown } | undefined
+    expect(snapshot?.acclimation).toEqual({ weeks: 2, startPercent: 20, endPercent: 40 })
   })
 
   it('shows an override on the certificate', async () => {

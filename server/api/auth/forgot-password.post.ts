@@ -6,9 +6,11 @@ import type { TidewrightDB } from '../../db/connection'
 
 const ANSWER = 'If that address has a Tidewright account, we have sent it a link to choose a new password.'
 
-/** POST /api/auth/forgot-password — e-mails a single-use reset link. The answer is the same whether or not the address has an account. Returns { message }. */
+/** POST /api/auth/forgot-password — e-mails a single-use reset link. At most a few per address and network an hour. The answer is the same whether or not the address has an account, and whether or not a mail was sent. Returns { message }. */
 export default defineEventHandler(async (event) => {
   const { email } = await readValidatedBody(event, valid(ForgotPasswordSchema))
+  // Counted before the address is looked up: a refused request answers like any other.
+  if (!mayMailReset(event, email)) return { message: ANSWER }
   const now = requestNow(event)
   const db = useDB()
   const user = db.select().from(users).where(eq(users.email, email)).get()
@@ -16,7 +18,7 @@ export default defineEventHandler(async (event) => {
     db.transaction((tx) => {
       const t = tx as unknown as TidewrightDB
       const token = issueToken(t, user.id, 'reset', now)
-      const words = resetMail(user.name, `${publicBaseUrl().replace(/\/+$/, '')}/reset-password?token=${token}`)
+      const words = resetMail(user.name, publicLink(`/reset-password?token=${token}`))
       enqueueMail(t, { organisationId: user.organisationId, to: user.email, kind: 'reset', ...words }, now)
     })
     writeAudit({ id: user.id, organisationId: user.organisationId }, { action: 'user.reset-requested', entity: 'user', entityId: user.id })

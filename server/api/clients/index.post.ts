@@ -5,14 +5,17 @@ import { clients } from '../../db/schema'
 export default defineEventHandler(async (event) => {
   const actor = await requireActor(event, ['admin', 'aquarist'])
   const input = await readValidatedBody(event, valid(ClientCreateSchema))
-  const row = useDB().insert(clients).values({
-    organisationId: actor.organisationId,
-    name: input.name,
-    email: input.email || null,
-    phone: input.phone || null,
-    notes: input.notes || null,
-  }).returning().get()
-  writeAudit(actor, { action: 'client.create', entity: 'client', entityId: row.id, after: row })
+  const row = useDB().transaction(() => {
+    const created = useDB().insert(clients).values({
+      organisationId: actor.organisationId,
+      name: input.name,
+      email: input.email || null,
+      phone: input.phone || null,
+      notes: input.notes || null,
+    }).returning().get()
+    writeAudit(actor, { action: 'client.create', entity: 'client', entityId: created.id, after: created })
+    return created
+  })
   setResponseStatus(event, 201)
   return clientView(actor, row.id)
 })

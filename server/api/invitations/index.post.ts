@@ -8,7 +8,9 @@ import type { TidewrightDB } from '../../db/connection'
 /**
  * POST /api/invitations — invites someone by e-mail: aquarists and admins invite clients,
  * only the admin invites staff. Creates the account without a password and e-mails a
- * single-use link. Returns { user: { id, email, name, role } }; 409 if the e-mail has an account.
+ * single-use link. An address that already has an account gets the same answer and a mail
+ * saying so. At most a few mails per address a day and invitations per inviter an hour (429).
+ * Returns { user: { email, name, role } } with 201.
  */
 export default defineEventHandler(async (event) => {
   const actor = await requireActor(event, ['admin', 'aquarist'])
@@ -19,12 +21,27 @@ export default defineEventHandler(async (event) => {
     const client = db.select({ id: clients.id }).from(clients).where(and(eq(clients.id, input.clientId!), eq(clients.organisationId, actor.organisationId))).get()
     if (!client) throw createError({ statusCode: 404, statusMessage: 'Client not found' })
   }
-  if (db.select({ id: users.id }).from(users).where(eq(users.email, input.email)).get()) {
-    throw createError({ statusCode: 409, statusMessage: 'That e-mail address already has an account' })
-  }
+  requireInvitationAllowance(event, actor.id)
   const now = requestNow(event)
   const company = db.select({ name: organisations.name }).from(organisations).where(eq(organisations.id, actor.organisationId)).get()?.name ?? 'your company'
-  const user = db.transaction((tx) => {
+  const answer = { user: { email: input.email, name: input.name, role: input.role } }
+  setResponseStatus(event, 201)
+  // An address that has an account (here or at another company) gets the same answer; its
+  // owner is told by mail instead, so the answer reveals nothing about who uses Tidewright.
+  const existing = db.select({ id: users.id, name: users.name, organisationId: users.organisationId }).from(users).where(eq(users.email, input.email)).get()
+  if (existing) {
+    if (mayMailInvitee(event, input.email)) {
+      db.transaction((tx) => {
+        const words = alreadyHasAccountMail(existing.name, actor.name, company, publicLink('/login'), publicLink('/forgot-password'))
+        enqueueMail(tx as unknown as TidewrightDB, { organisationId: actor.organisationId, to: input.email, kind: 'invite', ...words }, now)
+        writeAudit(actor, { action: 'user.invite-existing', entity: 'user', entityId: null, after: { role: input.role } })
+      })
+      kickMailWorker()
+    }
+    return answer
+  }
+  if (!mayMailInvitee(event, input.email)) return answer
+  db.transaction((tx) => {
     const t = tx as unknown as TidewrightDB
     const created = t.insert(users).values({
       organisationId: actor.organisationId, email: input.email, name: input.name, role: input.role,
@@ -32,12 +49,10 @@ export default defineEventHandler(async (event) => {
       units: readOrganisationSettings(t, actor.organisationId).defaultUnits,
     }).returning().get()
     const token = issueToken(t, created.id, 'invite', now)
-    const words = inviteMail(created.name, actor.name, company, `${publicBaseUrl().replace(/\/+$/, '')}/accept-invite?token=${token}`)
+    const words = inviteMail(created.name, actor.name, company, publicLink(`/accept-invite?token=${token}`))
     enqueueMail(t, { organisationId: actor.organisationId, to: created.email, kind: 'invite', ...words }, now)
-    return created
+    writeAudit(actor, { action: 'user.invite', entity: 'user', entityId: created.id, after: { email: created.email, role: created.role, clientId: created.clientId } })
   })
-  writeAudit(actor, { action: 'user.invite', entity: 'user', entityId: user.id, after: { email: user.email, role: user.role, clientId: user.clientId } })
   kickMailWorker()
-  setResponseStatus(event, 201)
-  return { user: { id: user.id, email: user.email, name: user.name, role: user.role } }
+  return answer
 })

@@ -2,8 +2,13 @@ import { eq } from 'drizzle-orm'
 import { IdParams } from '#shared/schemas/common'
 import { TankPatchSchema } from '#shared/schemas/tanks'
 import { tanks } from '../../db/schema'
+import { recordAmendment, signedFieldChanges } from '../../domain/sign-off/signed-record'
 
-/** PATCH /api/tanks/:id — edits a tank's profile; new dimensions recompute its volume. Returns TankView. */
+/**
+ * PATCH /api/tanks/:id — edits a tank's profile; new dimensions recompute its volume. On a
+ * signed-off tank, fields the certificate prints need `amendmentReason` (409 without); the
+ * change, its amendment and audit rows commit together. Returns TankView.
+ */
 export default defineEventHandler(async (event) => {
   const actor = await requireActor(event, ['admin', 'aquarist'])
   const { id } = await getValidatedRouterParams(event, valid(IdParams))
@@ -23,8 +28,22 @@ export default defineEventHandler(async (event) => {
     changes.volumeLitres = computed.volumeLitres
   }
   if (!Object.keys(changes).length) return getTankView(actor, id)
-  const after = useDB().update(tanks).set(changes).where(eq(tanks.id, id)).returning().get()
-  writeAudit(actor, { action: 'tank.update', entity: 'tank', entityId: id, before, after })
+  // What a signed-off tank's certificate prints changes only by reopening or an amendment with a reason.
+  const signed = currentApprovedSignOff(id)
+  const signedChanges = signed ? signedFieldChanges(before, changes) : []
+  if (signed && signedChanges.length && !input.amendmentReason) {
+    const message = `This tank was signed off on ${signed.decidedAt?.slice(0, 10)}: its ${signedChanges.map(c => c.field).join(', ')} are part of the signed record. Write a reason to amend it (the certificate will show the amendment), or reopen the sign-off.`
+    throw createError({ statusCode: 409, statusMessage: message, message, data: { issues: [{ field: 'amendmentReason', message }], signedFields: signedChanges.map(c => c.field) } })
+  }
+  const now = requestNow(event)
+  useDB().transaction(() => {
+    const updated = useDB().update(tanks).set(changes).where(eq(tanks.id, id)).returning().get()
+    if (signed && signedChanges.length) {
+      recordAmendment(useDB(), { signOffId: signed.id, tankId: id, by: actor.id, at: now, reason: input.amendmentReason!, changes: signedChanges })
+      writeAudit(actor, { action: 'sign-off.amend', entity: 'sign_off', entityId: signed.id, before: Object.fromEntries(signedChanges.map(c => [c.field, c.before])), after: { ...Object.fromEntries(signedChanges.map(c => [c.field, c.after])), reason: input.amendmentReason } })
+    }
+    writeAudit(actor, { action: 'tank.update', entity: 'tank', entityId: id, before, after: updated })
+  })
   onTankDataChanged(id, { actor })
   return getTankView(actor, id)
 })

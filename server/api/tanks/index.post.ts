@@ -25,9 +25,9 @@ export default defineEventHandler(async (event) => {
       supervisorId: input.supervisorId ?? null,
     }).returning().get()
     tx.insert(planStages).values(planRowsForNewTank(actor.organisationId, row.id)).run()
+    writeAudit(actor, { action: 'tank.create', entity: 'tank', entityId: row.id, after: row })
     return row
   })
-  writeAudit(actor, { action: 'tank.create', entity: 'tank', entityId: tank.id, after: tank })
   onTankDataChanged(tank.id, { actor })
   setResponseStatus(event, 201)
   return getTankView(actor, tank.id)

@@ -1,6 +1,6 @@
 import { and, eq, inArray } from 'drizzle-orm'
 import { VerifyParams } from '#shared/schemas/sign-off'
-import type { VerifyResult } from '#shared/types/sign-off'
+import type { SignOffSnapshot, VerifyResult } from '#shared/types/sign-off'
 
 /**
  * GET /api/verify/:code — public: checks a certificate's verification code against the
@@ -11,7 +11,7 @@ export default defineEventHandler(async (event) => {
   const { code } = await getValidatedRouterParams(event, valid(VerifyParams))
   const { signOffs, tanks, organisations, users } = tables
   const row = useDB().select({
-    status: signOffs.status, decidedAt: signOffs.decidedAt, reopenedAt: signOffs.reopenedAt,
+    status: signOffs.status, decidedAt: signOffs.decidedAt, reopenedAt: signOffs.reopenedAt, snapshot: signOffs.snapshot,
     tankName: tanks.name, company: organisations.name, supervisorName: users.name,
   }).from(signOffs)
     .innerJoin(tanks, eq(tanks.id, signOffs.tankId))
@@ -22,10 +22,11 @@ export default defineEventHandler(async (event) => {
   const result: VerifyResult = {
     valid: row.status === 'approved',
     status: row.status === 'approved' ? 'approved' : 'reopened',
-    tankName: row.tankName,
-    company: row.company,
+    // As signed: a tank renamed since is still checked against the name on the certificate.
+    tankName: (row.snapshot as SignOffSnapshot | null)?.facts?.tankName ?? row.tankName,
+    company: (row.snapshot as SignOffSnapshot | null)?.facts?.company ?? row.company,
     signedAt: row.decidedAt,
-    supervisorName: row.supervisorName,
+    supervisorName: (row.snapshot as SignOffSnapshot | null)?.facts?.supervisorName ?? row.supervisorName,
     reopenedAt: row.reopenedAt,
   }
   return result

@@ -9,7 +9,8 @@ import { planStageRows } from '../plan-stages'
 import { syncAlertsInDb } from '../alerts'
 import { computeAndStoreVerdict } from '../verdicts'
 import { clients, events, organisations, planStages, readings, signOffs, sites, tanks, users } from '../schema'
-import { FISHLESS_CURVE, FISH_IN_CURVE, simulateHistory } from './histories'
+import type { SimulationPlan } from '../../../shared/cycle/simulate'
+import { demoHistory, loungePlan, nanoPlan, simulate, studyPlan, type DemoEvent } from './histories'
 import { hashPasswordOffline } from './password'
 import type { Role, UnitSystem } from '../../../shared/vocabulary'
 
@@ -113,26 +114,28 @@ export async function seedDemo(db: TidewrightDB, now = new Date()): Promise<Demo
       ...finishStages(planStageRows(study, DEFAULT_PLAN_TEMPLATE), 6, ids.aquarist2, daysAgo(now, 11)),
     ]).run()
 
-    const addHistory = (tankId: string, enteredBy: string, history: ReturnType<typeof simulateHistory>) => {
-      if (history.length) tx.insert(readings).values(history.map(r => ({ tankId, enteredBy, ...r }))).run()
-    }
     // Today's test counts only once it is at least an hour old: the demo never shows a test from the future.
     const notAfter = new Date(now.getTime() - 3_600_000)
-    addHistory(lounge, ids.client, simulateHistory({ start: loungeStart, days: 12, curve: FISHLESS_CURVE, seed: 7, skip: [4], notAfter }))
-    addHistory(nano, ids.client2, simulateHistory({ start: nanoStart, days: 34, curve: FISHLESS_CURVE, seed: 11, hour: 19, notAfter }))
-    addHistory(study, ids.client3, simulateHistory({ start: studyStart, days: 10, curve: FISH_IN_CURVE, seed: 23, hour: 8, spikes: { 8: 0.55, 9: 0.45 }, notAfter }))
-
-    const at = (start: Date, day: number, hour: number) => new Date(start.getTime() + day * DAY + (hour - start.getUTCHours()) * 3_600_000).toISOString()
-    tx.insert(events).values([
-      { tankId: lounge, at: at(loungeStart, 0, 10), kind: 'ammonia-dose', amount: 1.65, notes: 'Dosed to about 2 ppm NH3', enteredBy: ids.aquarist },
-      { tankId: lounge, at: at(loungeStart, 0, 10), kind: 'bacteria-dose', notes: 'Bottled nitrifying bacteria, full starter dose', enteredBy: ids.aquarist },
-      { tankId: nano, at: at(nanoStart, 0, 10), kind: 'ammonia-dose', amount: 1.65, notes: 'Dosed to about 2 ppm NH3', enteredBy: ids.aquarist },
-      { tankId: nano, at: at(nanoStart, 0, 10), kind: 'bacteria-dose', enteredBy: ids.aquarist },
-      { tankId: nano, at: at(nanoStart, 31, 20), kind: 'ammonia-dose', amount: 1.65, notes: 'Clearance test dose', enteredBy: ids.client2 },
-      { tankId: study, at: at(studyStart, 0, 11), kind: 'bacteria-dose', enteredBy: ids.aquarist2 },
-      { tankId: study, at: at(studyStart, 0, 12), kind: 'livestock-added', amount: 3, group: 'fish', notes: 'Three hardy damselfish', enteredBy: ids.aquarist2 },
-      { tankId: study, at: at(studyStart, 7, 19), kind: 'note', notes: 'Client fed heavily over the weekend', enteredBy: ids.client3 },
-    ]).run()
+    const notes: Partial<Record<DemoEvent['kind'], string>> = {
+      'ammonia-dose': 'Dosed to about 2 ppm NH3',
+      'bacteria-dose': 'Bottled nitrifying bacteria, full starter dose',
+      'livestock-added': 'Three hardy damselfish',
+    }
+    const addHistory = (tankId: string, enteredBy: string, staff: string, plan: SimulationPlan) => {
+      const history = demoHistory(simulate(plan), notAfter)
+      if (history.readings.length) tx.insert(readings).values(history.readings.map(r => ({ tankId, enteredBy, ...r }))).run()
+      // The aquarist started the cycle; the client logs the daily doses.
+      if (history.events.length) {
+        tx.insert(events).values(history.events.map((e, i) => ({ tankId, ...e, notes: notes[e.kind] ?? null, enteredBy: i < 2 ? staff : enteredBy }))).run()
+      }
+    }
+    addHistory(lounge, ids.client, ids.aquarist, loungePlan(now))
+    addHistory(nano, ids.client2, ids.aquarist, nanoPlan(now))
+    addHistory(study, ids.client3, ids.aquarist2, studyPlan(now))
+    const studyDay7 = new Date(Date.parse(studyPlan(now).start) + 7 * DAY + 19 * 3_600_000)
+    if (studyDay7 <= notAfter) {
+      tx.insert(events).values({ tankId: study, at: studyDay7.toISOString(), kind: 'note', notes: 'Client fed heavily over the weekend', enteredBy: ids.client3 }).run()
+    }
 
     // The stored verdicts open their alerts too (the study reef's ammonia spike), with the e-mail queued.
     const baseUrl = process.env.NUXT_PUBLIC_BASE_URL || 'http://localhost:3000'

@@ -6,7 +6,7 @@
 import { and, eq, ne, sql } from 'drizzle-orm'
 import type { StaffRole } from '#shared/vocabulary'
 import type { TidewrightDB } from '../../db/connection'
-import { users } from '../../db/schema'
+import { clients, users } from '../../db/schema'
 import { recordAudit, type AuditWho } from '../audit/record'
 import { endSessionsOfUser } from '../sessions/sessions'
 
@@ -26,6 +26,21 @@ export class PersonChangeRefused extends Error {
 }
 
 type Actor = AuditWho & { id: string }
+
+/**
+ * Whether an account may be used at all: it is active and, for a client account, its client
+ * record is not archived (restoring the record brings the account back). Sign-in and every
+ * request ask this same question.
+ */
+export function accountUsable(user: Pick<typeof users.$inferSelect, 'active' | 'role'>, clientArchivedAt: string | null | undefined): boolean {
+  return user.active && !(user.role === 'client' && clientArchivedAt)
+}
+
+/** The archive time of a client account's client record (null for staff and live records). */
+export function clientArchivedAt(db: TidewrightDB, user: Pick<typeof users.$inferSelect, 'clientId'>): string | null {
+  if (!user.clientId) return null
+  return db.select({ archivedAt: clients.archivedAt }).from(clients).where(eq(clients.id, user.clientId)).get()?.archivedAt ?? null
+}
 
 function toView(row: typeof users.$inferSelect): PersonView {
   return { id: row.id, name: row.name, email: row.email, role: row.role, active: row.active }

@@ -6,7 +6,7 @@
 import { freeAmmonia, PH_RANGE, SALINITY_RANGE, SEAWATER_TEMPERATURE_RANGE_C, FRESHWATER_TEMPERATURE_RANGE_C } from '../../chemistry/ammonia'
 import { animalsInAt, type RuleContext } from '../context'
 import { conditionsAt } from '../snapshot'
-import { formatWhen, HOUR_MS, toIso } from '../time'
+import { DAY_MS, formatWhen, HOUR_MS, toIso } from '../time'
 import { formatNumber, mgN, mgNWithIon } from '../words'
 import type { TimedReading } from '../history'
 import { COMMON_PRACTICE, NOTHING, report, type CycleRule, type RuleResult } from './rule'
@@ -95,6 +95,41 @@ function freeChronic(ctx: RuleContext): RuleResult {
   )
 }
 
+/** Free ammonia averaged over the EPA averaging period ending at the latest test, or null without enough tests. */
+function chronicAverage(ctx: RuleContext, latest: TimedReading): { meanN: number, tests: TimedReading[] } | null {
+  const th = ctx.thresholds
+  const from = latest.t - th.chronicAveragingDays * DAY_MS
+  const values: number[] = []
+  const tests: TimedReading[] = []
+  for (const r of ctx.history.readings) {
+    if (r.t < from || r.t > latest.t || r.ammoniaN === undefined || !animalsInAt(ctx, r.t)) continue
+    const free = r.ammoniaN <= th.ammoniaZeroN ? { valueN: 0 } : freeAmmoniaFor(ctx, r)
+    if (free === null) continue
+    values.push(free.valueN)
+    tests.push(r)
+  }
+  const first = tests[0]
+  // The period must be covered by tests, not inferred from one or two days.
+  if (first === undefined || tests.length < 3 || latest.t - first.t < (th.chronicAveragingDays - 1) * DAY_MS) return null
+  return { meanN: values.reduce((a, b) => a + b, 0) / values.length, tests }
+}
+
+function freeChronicAverage(ctx: RuleContext): RuleResult {
+  const test = ammoniaWithAnimals(ctx)
+  if (test === null) return NOTHING
+  const th = ctx.thresholds
+  const average = chronicAverage(ctx, test)
+  if (average === null || average.meanN <= th.freeAmmoniaChronicN) return NOTHING
+  const free = freeAmmoniaFor(ctx, test)
+  const totalLimit = free && free.fraction > 0 ? th.freeAmmoniaChronicN / free.fraction : th.ammoniaActionN
+  return report(
+    'danger',
+    `Free (toxic) ammonia has averaged ${mgN(average.meanN)} over the ${average.tests.length} tests of the last ${th.chronicAveragingDays} days, above the US EPA long-term saltwater limit of ${mgN(th.freeAmmoniaChronicN)} held over its ${th.chronicAveragingDays}-day averaging period. The animals have been exposed for days: change water now, feed very lightly, and test every day.`,
+    average.tests,
+    waterChangeActions(ctx, 'total ammonia', test.ammoniaN ?? 0, totalLimit),
+  )
+}
+
 function freeUnknown(ctx: RuleContext): RuleResult {
   const test = ammoniaWithAnimals(ctx)
   if (test === null || freeAmmoniaFor(ctx, test) !== null) return NOTHING
@@ -127,6 +162,13 @@ export const AMMONIA_RULES: readonly CycleRule[] = [
     source: EPA_1989,
     severities: ['caution'],
     evaluate: freeChronic,
+  },
+  {
+    id: 'ammonia.free-chronic-average',
+    description: 'With animals in, un-ionized ammonia averaged over the EPA averaging period (4 days) above the chronic criterion, 0.035 mg/L NH3.',
+    source: `${EPA_1989}; the CCC is a 4-day average`,
+    severities: ['danger'],
+    evaluate: freeChronicAverage,
   },
   {
     id: 'ammonia.free-unknown',

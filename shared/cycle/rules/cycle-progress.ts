@@ -8,6 +8,7 @@ import { formatDuration, formatWhen, HOUR_MS, toIso } from '../time'
 import { mgN, mgNWithIon } from '../words'
 import type { RuleContext } from '../context'
 import { COMMON_PRACTICE, NOTHING, report, type CycleRule, type RuleResult } from './rule'
+import { needsDoseProof } from './cycle-proof'
 
 function notStarted(ctx: RuleContext): RuleResult {
   if (ctx.phase !== 'not-started') return NOTHING
@@ -58,14 +59,31 @@ function nitriteStage(ctx: RuleContext): RuleResult {
 function settlingStage(ctx: RuleContext): RuleResult {
   const run = ctx.course.run
   const th = ctx.thresholds
+  const held = ctx.course.held
+  if (held !== null) {
+    return report(
+      'info',
+      `The cycle was proven complete on ${formatWhen(held.completion.reading.t)}; the test of ${formatWhen(held.by.t)} reads ammonia ${mgN(held.by.ammoniaN ?? 0)}, nitrite ${mgN(held.by.nitriteN ?? 0)}. If ammonia and nitrite read zero again by ${formatWhen(held.until)}, the completion stands; if not, the tank has to prove itself again.`,
+      [held.completion.reading, held.by],
+      [{ kind: 'retest', message: `Test ammonia and nitrite again before ${formatWhen(held.until)}.`, dueBy: toIso(Math.min(held.until, held.by.t + th.retestHours * HOUR_MS)) }],
+    )
+  }
   if (run === null) {
     return report('info', 'Ammonia and nitrite are low, but no test yet reads zero for both. Keep testing every day.', [ctx.latest.ammoniaN, ctx.latest.nitriteN])
   }
-  const span = run.last.t - run.first.t
+  // Only the zero tests after the first dose (or since the animals went in) count as evidence.
+  const animals = !needsDoseProof(ctx)
+  const counted = (animals ? run.withAnimals : run.afterDose) ?? { first: run.last, zeroTests: 0 }
+  const since = animals ? 'since the animals went in' : 'after the first ammonia dose'
+  const hours = animals ? Math.max(th.stableSpanHours, th.fishInStableDays * 24) : th.stableSpanHours
+  const span = run.last.t - counted.first.t
+  const sofar = counted.zeroTests === 0
+    ? `no zero test yet ${since}`
+    : `${counted.zeroTests} zero test(s) ${since}, over ${formatDuration(span)} from ${formatWhen(counted.first.t)}`
   return report(
     'info',
-    `Ammonia and nitrite read zero: ${run.zeroTests} zero test(s) over ${formatDuration(span)} since ${formatWhen(run.first.t)}; the cycle needs at least ${th.stableMinTests} over ${th.stableSpanHours} h, with nitrate present and proof that the tank processes ammonia.`,
-    [run.first, run.last],
+    `Ammonia and nitrite read zero: ${sofar}; the cycle needs at least ${th.stableMinTests} over ${formatDuration(hours * HOUR_MS)}, with nitrate present and proof that the tank processes ammonia.`,
+    [counted.first, run.last],
   )
 }
 
@@ -81,28 +99,38 @@ function complete(ctx: RuleContext): RuleResult {
   if (done === null) return NOTHING
   const span = formatDuration(done.reading.t - done.runStart.t)
   const nitrate = done.nitrate?.nitrateN
-  const dose = done.clearedDose
-  const cleared = dose?.clearedBy
-    ? `, and the ammonia dose of ${formatWhen(dose.t)} was cleared within ${formatDuration(dose.clearedBy.t - dose.t)}`
-    : ', after ammonia or nitrite had risen and fallen'
+  const low = done.nitrateLow
+  const risen = low ? ` (up from ${mgN(low.nitrateN ?? 0)} on ${formatWhen(low.t)})` : ''
+  const doses = done.provenDoses
+  const last = doses[doses.length - 1]
+  const how = done.withAnimals
+    ? done.runStart.t - (ctx.course.nitriteStage?.t ?? done.runStart.t) > 0
+      ? ', after a nitrite stage, with the animals in'
+      : ', with nitrate rising under the animals\' load'
+    : last?.clearedBy
+      ? `, and the ammonia doses of ${doses.length} consecutive days each arrived and cleared, the last within ${formatDuration(last.clearedBy.t - last.t)}`
+      : ''
   return report(
     'info',
-    `The cycle was proven complete on ${formatWhen(done.reading.t)}: ammonia and nitrite read zero on ${done.zeroTests} tests over ${span}, nitrate was ${mgN(nitrate ?? 0)}${cleared}.`,
-    [done.runStart, done.reading, done.nitrate, dose?.clearedBy],
+    `The cycle was proven complete on ${formatWhen(done.reading.t)}: ammonia and nitrite read zero on ${done.zeroTests} tests over ${span}, nitrate was ${mgN(nitrate ?? 0)}${risen}${how}.`,
+    [done.runStart, done.reading, low, done.nitrate, ...doses.flatMap(d => [d.arrivedBy, d.clearedBy])],
   )
 }
 
 function lost(ctx: RuleContext): RuleResult {
   const last = ctx.course.lost[ctx.course.lost.length - 1]
-  if (ctx.course.completion !== null || last === undefined || last.lostBy === null) return NOTHING
+  if (ctx.course.completion !== null || ctx.course.held !== null || last === undefined || last.lostBy === null) return NOTHING
   const by = last.lostBy
+  const th = ctx.thresholds
+  // With animals in the tank proves itself over the longer fish-in run.
+  const hours = needsDoseProof(ctx) ? th.stableSpanHours : Math.max(th.stableSpanHours, th.fishInStableDays * 24)
   const values = [
     by.ammoniaN !== undefined ? `ammonia ${mgN(by.ammoniaN)}` : null,
     by.nitriteN !== undefined ? `nitrite ${mgN(by.nitriteN)}` : null,
   ].filter(v => v !== null).join(', ')
   return report(
     'caution',
-    `The cycle was complete on ${formatWhen(last.reading.t)}, but the test of ${formatWhen(by.t)} shows ${values}. The tank has to prove itself again: zero ammonia and nitrite for ${ctx.thresholds.stableSpanHours} h.`,
+    `The cycle was complete on ${formatWhen(last.reading.t)}, but the test of ${formatWhen(by.t)} shows ${values}. The tank has to prove itself again: zero ammonia and nitrite for ${formatDuration(hours * HOUR_MS)}.`,
     [last.reading, by],
     [{ kind: 'retest', message: 'Test ammonia and nitrite again within a day.', dueBy: toIso(ctx.nowMs + ctx.thresholds.retestHours * HOUR_MS) }],
   )

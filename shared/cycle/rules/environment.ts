@@ -5,11 +5,11 @@
 
 import { DAY_MS, formatWhen } from '../time'
 import { formatNumber } from '../words'
-import type { RuleContext } from '../context'
+import { animalsInAt, type RuleContext } from '../context'
 import type { TimedReading } from '../history'
 import { COMMON_PRACTICE, NOTHING, report, type CycleRule, type RuleResult } from './rule'
 
-type RangeKey = 'salinity' | 'temperatureC' | 'alkalinityDkh' | 'calciumMgL' | 'magnesiumMgL'
+type RangeKey = 'salinity' | 'temperatureC' | 'pH' | 'alkalinityDkh' | 'calciumMgL' | 'magnesiumMgL'
 
 interface Range {
   readonly key: RangeKey
@@ -27,29 +27,76 @@ function outOfRange(ctx: RuleContext, range: Range): { test: TimedReading, words
   return { test, words }
 }
 
+/**
+ * A value outside its hard limits with animals in is a danger (it alerts); outside the
+ * usual range otherwise a caution.
+ */
+function guarded(ctx: RuleContext, usual: Range, hard: Range, advice: string): RuleResult {
+  const danger = outOfRange(ctx, hard)
+  if (danger !== null && animalsInAt(ctx, danger.test.t)) {
+    return report('danger', `${danger.words} That is beyond what reef animals survive for long. ${advice}`, [danger.test])
+  }
+  const bad = outOfRange(ctx, usual)
+  if (bad === null) return NOTHING
+  return report('caution', `${bad.words} ${advice}`, [bad.test])
+}
+
 function salinityRange(ctx: RuleContext): RuleResult {
   const th = ctx.thresholds
-  const bad = outOfRange(ctx, { key: 'salinity', name: 'Salinity', unit: '', min: th.salinityMin, max: th.salinityMax })
-  if (bad === null) return NOTHING
-  return report('caution', `${bad.words} Bring it back slowly, by no more than about 1 a day, with fresh water or salt mix.`, [bad.test])
+  return guarded(
+    ctx,
+    { key: 'salinity', name: 'Salinity', unit: '', min: th.salinityMin, max: th.salinityMax },
+    { key: 'salinity', name: 'Salinity', unit: '', min: th.salinityHardMin, max: th.salinityHardMax },
+    'Bring it back slowly, by no more than about 1 a day, with fresh water or salt mix.',
+  )
 }
 
 function temperatureRange(ctx: RuleContext): RuleResult {
   const th = ctx.thresholds
-  const bad = outOfRange(ctx, { key: 'temperatureC', name: 'Temperature', unit: ' C', min: th.temperatureMinC, max: th.temperatureMaxC })
-  if (bad === null) return NOTHING
-  return report('caution', `${bad.words} Check the heater and the room; warm water holds less oxygen.`, [bad.test])
+  return guarded(
+    ctx,
+    { key: 'temperatureC', name: 'Temperature', unit: ' C', min: th.temperatureMinC, max: th.temperatureMaxC },
+    { key: 'temperatureC', name: 'Temperature', unit: ' C', min: th.temperatureHardMinC, max: th.temperatureHardMaxC },
+    'Check the heater, the chiller and the room now; warm water holds less oxygen.',
+  )
 }
 
-/** Alkalinity, calcium and magnesium problems on their latest tests; untested values raise none. */
-export function reefChemistryProblems(ctx: RuleContext): Array<{ test: TimedReading, words: string }> {
+function pHRange(ctx: RuleContext): RuleResult {
   const th = ctx.thresholds
-  const ranges: Range[] = [
+  return guarded(
+    ctx,
+    { key: 'pH', name: 'pH', unit: '', min: th.pHMin, max: th.pHMax },
+    { key: 'pH', name: 'pH', unit: '', min: th.pHHardMin, max: th.pHHardMax },
+    'Re-test to confirm; low pH usually means low alkalinity or too little gas exchange (aerate, check alkalinity), high pH an overdose of buffer or kalkwasser.',
+  )
+}
+
+/** The usual-range pH problem on the latest test, for the readiness gate. */
+export function pHProblem(ctx: RuleContext): string | null {
+  const th = ctx.thresholds
+  const test = ctx.latest.pH
+  if (test === undefined) return 'pH has not been tested: test it before adding livestock.'
+  return outOfRange(ctx, { key: 'pH', name: 'pH', unit: '', min: th.pHMin, max: th.pHMax })?.words ?? null
+}
+
+function reefRanges(ctx: RuleContext): Range[] {
+  const th = ctx.thresholds
+  return [
     { key: 'alkalinityDkh', name: 'Alkalinity', unit: ' dKH', min: th.alkalinityMinDkh, max: th.alkalinityMaxDkh },
     { key: 'calciumMgL', name: 'Calcium', unit: ' mg/L', min: th.calciumMinMgL, max: th.calciumMaxMgL },
     { key: 'magnesiumMgL', name: 'Magnesium', unit: ' mg/L', min: th.magnesiumMinMgL, max: th.magnesiumMaxMgL },
   ]
-  return ranges.map(range => outOfRange(ctx, range)).filter(p => p !== null)
+}
+
+/** Alkalinity, calcium and magnesium problems on their latest tests; untested values raise none. */
+export function reefChemistryProblems(ctx: RuleContext): Array<{ test: TimedReading, words: string }> {
+  return reefRanges(ctx).map(range => outOfRange(ctx, range)).filter(p => p !== null)
+}
+
+/** Alkalinity, calcium and magnesium never tested: stony corals cannot be judged ready. */
+export function reefChemistryUntested(ctx: RuleContext): string[] {
+  return reefRanges(ctx).filter(range => ctx.latest[range.key] === undefined)
+    .map(range => `${range.name} has never been tested; stony corals need it at ${formatNumber(range.min)}-${formatNumber(range.max)}${range.unit}.`)
 }
 
 function reefChemistry(ctx: RuleContext): RuleResult {
@@ -80,17 +127,24 @@ export function salinityStability(ctx: RuleContext): { stable: boolean, words: s
 export const ENVIRONMENT_RULES: readonly CycleRule[] = [
   {
     id: 'salinity.range',
-    description: 'Latest salinity outside the company range (default 30-37, target 33-35 practical salinity).',
+    description: 'Latest salinity outside the company range (default 30-37): a caution, and a danger with animals in past the hard limits.',
     source: COMMON_PRACTICE,
-    severities: ['caution'],
+    severities: ['danger', 'caution'],
     evaluate: salinityRange,
   },
   {
     id: 'temperature.range',
-    description: 'Latest temperature outside the company range (default 22-29 C).',
+    description: 'Latest temperature outside the company range (default 22-29 C): a caution, and a danger with animals in past the hard limits.',
     source: COMMON_PRACTICE,
-    severities: ['caution'],
+    severities: ['danger', 'caution'],
     evaluate: temperatureRange,
+  },
+  {
+    id: 'ph.range',
+    description: 'Latest pH outside the usual reef range (default 7.8-8.5): a caution, and a danger with animals in past the hard limits (7.8-8.6).',
+    source: 'reference ranges of reef keeping (common practice, no published source)',
+    severities: ['danger', 'caution'],
+    evaluate: pHRange,
   },
   {
     id: 'reef-chemistry.range',

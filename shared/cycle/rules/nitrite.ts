@@ -1,6 +1,6 @@
 /**
  * Nitrite with animals in. Chloride in sea water protects marine fish from much
- * of nitrite's harm, so a high nitrite is a caution rather than a danger.
+ * of nitrite's harm, so a high nitrite is a caution; past the hard limit it is a danger.
  */
 
 import { animalsInAt, type RuleContext } from '../context'
@@ -14,8 +14,9 @@ function highWithAnimals(ctx: RuleContext): RuleResult {
   const limit = ctx.thresholds.nitriteHighWithAnimalsN
   const value = test?.nitriteN ?? 0
   if (test === undefined || value <= limit || !animalsInAt(ctx, test.t)) return NOTHING
+  const danger = value > ctx.thresholds.nitriteDangerWithAnimalsN
   return report(
-    'caution',
+    danger ? 'danger' : 'caution',
     `Nitrite is ${mgNWithIon(value, 'NO2')} on the test of ${formatWhen(test.t)}, with animals in: above ${mgN(limit)}. Marine fish cope with more nitrite than freshwater fish, but not without limit: change some water and watch the animals for fast breathing.`,
     [test],
     waterChangeActions(ctx, 'nitrite', value, limit),
@@ -26,9 +27,9 @@ function highWithAnimals(ctx: RuleContext): RuleResult {
 export const NITRITE_RULES: readonly CycleRule[] = [
   {
     id: 'nitrite.high-with-animals',
-    description: 'With animals in, nitrite above the set level. The level is trade practice; that marine fish tolerate far more nitrite than freshwater fish is from Tomasso & Grosell (2005), Environ. Sci. Technol. 39: 98-102.',
+    description: 'With animals in, nitrite above the set level is a caution, above the hard limit (5 ppm as NO2) a danger. The levels are trade practice; that marine fish tolerate far more nitrite than freshwater fish is from Tomasso & Grosell (2005), Environ. Sci. Technol. 39: 98-102.',
     source: COMMON_PRACTICE,
-    severities: ['caution'],
+    severities: ['danger', 'caution'],
     evaluate: highWithAnimals,
   },
 ]

@@ -5,11 +5,13 @@
  */
 
 import { DAY_MS, formatWhen } from '../time'
+import { formatNumber, mgNWithIon } from '../words'
 import type { ReadinessContext } from '../context'
 import { LIVESTOCK_GROUPS } from '../../vocabulary'
-import type { CyclePhase, LivestockGroup } from '../types'
-import { reefChemistryProblems, salinityStability } from './environment'
+import type { CyclePhase, LivestockGroup, Thresholds } from '../types'
+import { pHProblem, reefChemistryProblems, reefChemistryUntested, salinityStability } from './environment'
 import { COMMON_PRACTICE, type ReadinessRule } from './rule'
+import { nextFishAllowedAt } from './stocking'
 
 const ALL: readonly LivestockGroup[] = LIVESTOCK_GROUPS
 const STONY: readonly LivestockGroup[] = ['lps-coral', 'sps-coral']
@@ -76,7 +78,47 @@ function salinitySteady(ctx: ReadinessContext): readonly string[] {
 }
 
 function reefChemistry(ctx: ReadinessContext): readonly string[] {
-  return reefChemistryProblems(ctx).map(p => p.words)
+  return [...reefChemistryUntested(ctx), ...reefChemistryProblems(ctx).map(p => p.words)]
+}
+
+const NITRATE_LIMIT: Record<LivestockGroup, keyof Thresholds> = {
+  'fish': 'nitrateMaxFishN',
+  'invertebrates': 'nitrateMaxInvertebratesN',
+  'soft-coral': 'nitrateMaxSoftCoralN',
+  'lps-coral': 'nitrateMaxStonyCoralN',
+  'sps-coral': 'nitrateMaxStonyCoralN',
+}
+
+/** Nitrate limit for a group, mg/L as N. */
+export function nitrateLimit(ctx: ReadinessContext, group: LivestockGroup): number {
+  return ctx.thresholds[NITRATE_LIMIT[group]]
+}
+
+function nitrate(ctx: ReadinessContext, group: LivestockGroup): readonly string[] {
+  const test = ctx.latest.nitrateN
+  const limit = nitrateLimit(ctx, group)
+  const value = test?.nitrateN ?? 0
+  if (test === undefined || value <= limit) return []
+  return [`Nitrate is ${mgNWithIon(value, 'NO3')} (test of ${formatWhen(test.t)}), above ${mgNWithIon(limit, 'NO3')} for ${GROUP_WORDS[group].toLowerCase()}: change water first.`]
+}
+
+function phosphate(ctx: ReadinessContext, group: LivestockGroup): readonly string[] {
+  const test = ctx.latest.phosphateMgL
+  const limit = group === 'fish' || group === 'invertebrates' ? ctx.thresholds.phosphateMaxFishMgL : ctx.thresholds.phosphateMaxCoralMgL
+  const value = test?.phosphateMgL ?? 0
+  if (test === undefined || value <= limit) return []
+  return [`Phosphate is ${formatNumber(value)} mg/L as PO4 (test of ${formatWhen(test.t)}), above ${formatNumber(limit)} for ${GROUP_WORDS[group].toLowerCase()}: lower it (water changes, a phosphate remover) first.`]
+}
+
+function pH(ctx: ReadinessContext): readonly string[] {
+  const problem = pHProblem(ctx)
+  return problem === null ? [] : [problem]
+}
+
+function stockingRate(ctx: ReadinessContext): readonly string[] {
+  const next = nextFishAllowedAt(ctx)
+  if (next === null || ctx.nowMs >= next.t) return []
+  return [`${next.count} animals went in on ${formatWhen(next.after.t)}; more fish wait until ${formatWhen(next.t)} so the bacteria catch up with that load, with ammonia tested every day.`]
 }
 
 function fishFirst(ctx: ReadinessContext, _group: LivestockGroup, soFar: readonly string[]): readonly string[] {
@@ -117,7 +159,7 @@ export const READINESS_RULES: readonly ReadinessRule[] = [
   },
   {
     id: 'readiness.coral-wait',
-    description: 'Soft corals may go in at completion (a young tank suits them); LPS and SPS corals wait about 30 days after completion.',
+    description: 'Soft corals may go in at completion (a young tank suits them); LPS corals wait about 30 days after completion, SPS about 90.',
     source: COMMON_PRACTICE,
     groups: ['soft-coral', ...STONY],
     block: coralWait,
@@ -131,10 +173,38 @@ export const READINESS_RULES: readonly ReadinessRule[] = [
   },
   {
     id: 'readiness.reef-chemistry',
-    description: 'Stony corals need alkalinity, calcium and magnesium in range when those are tested.',
+    description: 'Stony corals need alkalinity, calcium and magnesium tested and in range.',
     source: COMMON_PRACTICE,
     groups: STONY,
     block: reefChemistry,
+  },
+  {
+    id: 'readiness.nitrate',
+    description: 'Nitrate under each group\'s limit before it goes in (default 40 ppm as NO3 for fish, 20 for invertebrates and soft corals, 10 for stony corals).',
+    source: 'stocking gates before livestock (common practice, no published source)',
+    groups: ALL,
+    block: nitrate,
+  },
+  {
+    id: 'readiness.phosphate',
+    description: 'Phosphate, when tested, under each group\'s limit (default 1 mg/L as PO4 for fish and invertebrates, 0.1 for corals).',
+    source: 'stocking gates before livestock (common practice, no published source)',
+    groups: ALL,
+    block: phosphate,
+  },
+  {
+    id: 'readiness.ph',
+    description: 'pH tested and inside the usual reef range before any livestock.',
+    source: 'stocking gates before livestock (common practice, no published source)',
+    groups: ALL,
+    block: pH,
+  },
+  {
+    id: 'readiness.stocking-rate',
+    description: 'Fish go in a few at a time: after an addition more fish wait about a week, after a large one about two.',
+    source: COMMON_PRACTICE,
+    groups: ['fish'],
+    block: stockingRate,
   },
   {
     id: 'readiness.fish-first',

@@ -34,6 +34,8 @@ export interface FishlessOptions {
   volumeLitres?: number
   /** First day of the daily proof doses (default 24); none when past `days`. */
   proofFromDay?: number
+  /** Last day of them (default the last day). */
+  proofToDay?: number
   testHour?: number
   skipDays?: number[]
 }
@@ -48,7 +50,7 @@ export function fishlessPlan(options: FishlessOptions): SimulationPlan {
   const proofFrom = options.proofFromDay ?? 24
   const hour = options.testHour ?? 18
   const feeding = spacedDoses(9, proofFrom - 1, 3, DOSE_1PPM_N)
-  const proof = dailyDoses(proofFrom, options.days - 1, DOSE_2PPM_N, hour + 1)
+  const proof = dailyDoses(proofFrom, options.proofToDay ?? options.days - 1, DOSE_2PPM_N, hour + 1)
   return {
     seed: options.seed,
     start: options.start,

@@ -1,10 +1,26 @@
 import { eq } from 'drizzle-orm'
 import { IdParams } from '#shared/schemas/common'
-import type { SignOffSnapshot } from '#shared/types/sign-off'
+import type { SignedTankFacts, SignOffSnapshot } from '#shared/types/sign-off'
+import type { TankView } from '#shared/types/tanks'
+import { amendmentsOf } from '../../../domain/sign-off/signed-record'
+import type { Actor } from '../../../utils/access'
+
+/** For a sign-off decided before its facts were kept with it: the tank as it is now (the only source there is). */
+function legacyFacts(actor: Actor, tank: TankView, decidedBy: string | null): SignedTankFacts {
+  const { organisations, users } = tables
+  const company = useDB().select({ name: organisations.name }).from(organisations).where(eq(organisations.id, actor.organisationId)).get()?.name ?? ''
+  const supervisorName = decidedBy ? useDB().select({ name: users.name }).from(users).where(eq(users.id, decidedBy)).get()?.name ?? '—' : '—'
+  return {
+    company, tankName: tank.name, clientName: tank.clientName, siteLabel: tank.siteLabel, shape: tank.shape, dimensions: tank.dimensions,
+    volumeLitres: tank.volumeLitres, sumpLitres: tank.sumpLitres, cycleMethod: tank.cycleMethod, cycleStartedAt: tank.cycleStartedAt,
+    aquaristName: tank.aquaristName, supervisorName, stages: [],
+  }
+}
 
 /**
  * GET /api/tanks/:id/certificate.pdf — the sign-off certificate (one-page PDF) for the
  * tank's current sign-off; the client and staff who may see the tank may download it.
+ * Everything it prints comes from the decision's snapshot, plus any amendments since.
  * 404 when the tank is not visible or has no current sign-off.
  */
 export default defineEventHandler(async (event) => {
@@ -14,30 +30,23 @@ export default defineEventHandler(async (event) => {
   if (!tank) throw createError({ statusCode: 404, statusMessage: 'Tank not found' })
   const signOff = currentApprovedSignOff(id)
   if (!signOff?.decidedAt || !signOff.snapshot || !signOff.verificationCode) throw createError({ statusCode: 404, statusMessage: 'This tank has no current sign-off' })
-  const { organisations, users } = tables
-  const company = useDB().select({ name: organisations.name }).from(organisations).where(eq(organisations.id, actor.organisationId)).get()?.name ?? ''
-  const supervisorName = signOff.decidedBy ? useDB().select({ name: users.name }).from(users).where(eq(users.id, signOff.decidedBy)).get()?.name ?? '—' : '—'
-  const origin = getRequestURL(event, { xForwardedHost: true, xForwardedProto: true }).origin
+  const snapshot = signOff.snapshot as unknown as SignOffSnapshot
+  // Printed from the snapshot taken at the decision, never from the tank as it is now.
+  const facts = snapshot.facts ?? legacyFacts(actor, tank, signOff.decidedBy)
   const pdf = await renderCertificate({
-    company,
-    tankName: tank.name,
-    clientName: tank.clientName,
-    siteLabel: tank.siteLabel,
-    volumeLitres: tank.volumeLitres + tank.sumpLitres,
-    cycleMethod: tank.cycleMethod,
-    cycleStartedAt: tank.cycleStartedAt,
+    ...facts,
+    volumeLitres: facts.volumeLitres + facts.sumpLitres,
     requestedAt: signOff.requestedAt,
     signedAt: signOff.decidedAt,
-    supervisorName,
-    aquaristName: tank.aquaristName,
     override: signOff.override,
     decisionNote: signOff.decisionNote,
-    snapshot: signOff.snapshot as unknown as SignOffSnapshot,
+    snapshot,
+    amendments: amendmentsOf(useDB(), signOff.id),
     verificationCode: signOff.verificationCode,
-    verifyUrl: `${origin}/verify/${signOff.verificationCode}`,
+    verifyUrl: publicLink(`/verify/${signOff.verificationCode}`),
     units: actor.units,
   })
-  const fileName = `tidewright-certificate-${tank.name.toLowerCase().replace(/[^a-z0-9]+/g, '-').replace(/^-|-$/g, '')}.pdf`
+  const fileName = `tidewright-certificate-${facts.tankName.toLowerCase().replace(/[^a-z0-9]+/g, '-').replace(/^-|-$/g, '')}.pdf`
   setResponseHeaders(event, {
     'content-type': 'application/pdf',
     'content-disposition': `attachment; filename="${fileName}"`,

@@ -1,10 +1,8 @@
-import { eq } from 'drizzle-orm'
 import * as v from 'valibot'
 import { resolveThresholds } from '#shared/cycle/thresholds'
 import type { CyclePhase } from '#shared/cycle/types'
 import type { ChartData } from '#shared/types/readings'
 import { IdParams } from '#shared/schemas/common'
-import { tankVerdicts } from '../../../db/schema'
 import { readOrganisationSettings } from '../../../db/settings'
 import { tankEvents, tankReadings } from '../../../domain/readings/current'
 
@@ -27,7 +25,7 @@ export default defineEventHandler(async (event): Promise<ChartData> => {
   // Current rows only: a corrected value is drawn once, as corrected.
   const rows = tankReadings(db, tank.id, { range: query })
   const eventRows = tankEvents(db, tank.id, { range: query })
-  const stored = db.select({ phase: tankVerdicts.phase, verdict: tankVerdicts.verdict }).from(tankVerdicts).where(eq(tankVerdicts.tankId, tank.id)).get()
+  const stored = currentVerdictRow(tank.id, requestNow(event))
   const limits = resolveThresholds(readOrganisationSettings(db, tank.organisationId).thresholds)
   // Three significant decimals are far finer than any kit reads and keep the payload small.
   const r3 = (x: number | null) => (x === null ? null : Math.round(x * 1000) / 1000)

@@ -1,25 +1,22 @@
-import { eq, inArray } from 'drizzle-orm'
+import { inArray } from 'drizzle-orm'
 import { IdParams } from '#shared/schemas/common'
 import { ruleInfo } from '#shared/cycle/registry'
 import type { Verdict } from '#shared/cycle/types'
 import type { VerdictView } from '#shared/types/readings'
-import { readings, tankVerdicts } from '../../../db/schema'
+import { readings } from '../../../db/schema'
 
 /**
- * GET /api/tanks/:id/verdict — the stored verdict of the rule engine (evaluated now if
- * none is stored), with each cited rule's description and source and the readings the
- * findings rest on. Returns VerdictView.
+ * GET /api/tanks/:id/verdict — the rule engine's verdict as of now (the stored one, made
+ * again first when missing or older than the verdict interval), with each cited rule's
+ * description and source and the readings the findings rest on. Returns VerdictView.
  */
 export default defineEventHandler(async (event): Promise<VerdictView> => {
   const actor = await requireActor(event)
   const { id } = await getValidatedRouterParams(event, valid(IdParams))
   const tank = requireVisibleTank(actor, id)
   const db = useDB()
-  let stored = db.select().from(tankVerdicts).where(eq(tankVerdicts.tankId, tank.id)).get()
-  if (!stored) {
-    refreshVerdict(tank.id)
-    stored = db.select().from(tankVerdicts).where(eq(tankVerdicts.tankId, tank.id)).get()
-  }
+  // The verdict is as of now: a stored one older than the verdict interval is made again first.
+  const stored = currentVerdictRow(tank.id, requestNow(event))
   if (!stored) throw createError({ statusCode: 404, statusMessage: 'Tank not found' })
   const verdict = stored.verdict as unknown as Verdict
   const ruleIds = new Set(verdict.findings.map(f => f.ruleId))

@@ -39,11 +39,17 @@ export const historyArb = fc.record({
   salinity: fc.constantFrom(34, 34, 35, 29),
   days: fc.array(dayArb, { minLength: DAYS, maxLength: DAYS }),
   clearanceAfter: fc.option(fc.integer({ min: 0, max: 6 }), { freq: 4 }),
-  /** Hours after the clearance dose of an extra test that still shows it (as careful clients do). */
-  clearanceCheck: fc.option(fc.record({ hours: fc.integer({ min: 1, max: 34 }), ammoniaN: fc.constantFrom(0.08, 0.5, 1.6), nitriteN: fc.constantFrom(0, 0.1) }), { freq: 2 }),
+  /** Days of proof doses from `clearanceAfter` (one a day), as rule set 2 asks. */
+  clearanceDays: fc.constantFrom(1, 3, 3, 4),
+  /** Hours after each proof dose of an extra test that shows it arrived (as careful clients do). */
+  clearanceCheck: fc.option(fc.record({ hours: fc.integer({ min: 1, max: 34 }), ammoniaN: fc.constantFrom(0.08, 0.5, 1.6), nitriteN: fc.constantFrom(0, 0.1) }), { freq: 4 }),
+  /** Reef chemistry tested, so stony corals can be judged. */
+  reefChemistry: fc.boolean(),
+  /** A second test taken the same minute as one day's test, entered later with other values. */
+  tie: fc.option(fc.record({ day: fc.integer({ min: 1, max: DAYS }), ammoniaN: fc.constantFrom(0, 0.5, 2), nitriteN: fc.constantFrom(0, 1) }), { freq: 2 }),
   doses: fc.array(fc.record({ when: eventArb, amount: fc.constantFrom(undefined, 0.4, 1.6) }), { maxLength: 3 }),
   waterChanges: fc.array(eventArb, { maxLength: 2 }),
-  livestock: fc.array(fc.record({ when: eventArb, group: fc.constantFrom(...LIVESTOCK_GROUPS) }), { maxLength: 2 }),
+  livestock: fc.array(fc.record({ when: eventArb, group: fc.constantFrom(...LIVESTOCK_GROUPS), count: fc.constantFrom(1, 2, 6) }), { maxLength: 2 }),
   bacteria: fc.boolean(),
   nowDay: fc.integer({ min: 3, max: DAYS + 10 }),
   nowHour: fc.integer({ min: 0, max: 23 }),
@@ -78,6 +84,9 @@ function reading(k: HistoryKnobs, day: number): CycleReading | null {
   if (d.pH !== undefined) r.pH = d.pH
   if (d.temperatureC !== undefined) r.temperatureC = d.temperatureC
   r.salinity = k.salinity + d.salinity
+  if (k.reefChemistry) Object.assign(r, { alkalinityDkh: 8.5, calciumMgL: 420, magnesiumMgL: 1320, phosphateMgL: 0.03 })
+  // Entered a few minutes after it was taken, as clients do.
+  r.enteredAt = at(day, d.hour + 0.1)
   return r
 }
 
@@ -85,11 +94,13 @@ function events(k: HistoryKnobs): CycleEvent[] {
   const list: CycleEvent[] = [{ id: 'e-start', at: at(0, 10), kind: 'ammonia-dose', amount: 1.6 }]
   if (k.bacteria) list.push({ id: 'e-bact', at: at(0, 11), kind: 'bacteria-dose' })
   if (k.clearanceAfter !== null) {
-    list.push({ id: 'e-clear', at: at(k.ammoniaEnd + k.nitriteLag + k.clearanceAfter, 10), kind: 'ammonia-dose', amount: 1.6 })
+    for (let i = 0; i < k.clearanceDays; i += 1) {
+      list.push({ id: `e-clear${i}`, at: at(k.ammoniaEnd + k.nitriteLag + k.clearanceAfter + i, 10), kind: 'ammonia-dose', amount: 1.6 })
+    }
   }
   k.doses.forEach((d, i) => list.push({ id: `e-dose${i}`, at: at(d.when.day, d.when.hour), kind: 'ammonia-dose', ...(d.amount === undefined ? {} : { amount: d.amount }) }))
   k.waterChanges.forEach((w, i) => list.push({ id: `e-wc${i}`, at: at(w.day, w.hour), kind: 'water-change', amount: 60 }))
-  k.livestock.forEach((l, i) => list.push({ id: `e-live${i}`, at: at(l.when.day, l.when.hour), kind: 'livestock-added', group: l.group }))
+  k.livestock.forEach((l, i) => list.push({ id: `e-live${i}`, at: at(l.when.day, l.when.hour), kind: 'livestock-added', group: l.group, amount: l.count }))
   return list
 }
 
@@ -101,9 +112,16 @@ export function toInput(k: HistoryKnobs, thresholds?: Partial<Thresholds>): Cycl
     if (r) readings.push(r)
   }
   if (k.clearanceAfter !== null && k.clearanceCheck !== null) {
-    const day = k.ammoniaEnd + k.nitriteLag + k.clearanceAfter
     const check = k.clearanceCheck
-    readings.push({ id: 'r-check', takenAt: at(day, 10 + check.hours), ammoniaN: check.ammoniaN, nitriteN: check.nitriteN, nitrateN: k.nitrateMax })
+    for (let i = 0; i < k.clearanceDays; i += 1) {
+      const day = k.ammoniaEnd + k.nitriteLag + k.clearanceAfter + i
+      readings.push({ id: `r-check${i}`, takenAt: at(day, 10 + check.hours), ammoniaN: check.ammoniaN, nitriteN: check.nitriteN, nitrateN: k.nitrateMax })
+    }
+  }
+  const tied = k.tie === null ? undefined : readings.find(r => r.id === `r${String(k.tie?.day).padStart(2, '0')}`)
+  if (k.tie !== null && tied !== undefined) {
+    // Same minute, entered later: the engine must read it as the latest of the two whatever the input order.
+    readings.push({ id: 'r-tie', takenAt: tied.takenAt, enteredAt: at(k.tie.day, 23), ammoniaN: k.tie.ammoniaN, nitriteN: k.tie.nitriteN })
   }
   return {
     tank: { volumeLitres: 300, cycleMethod: k.method, startedAt: at(0, 8) },
@@ -130,3 +148,24 @@ export function shuffled<T>(items: readonly T[], seed: number): T[] {
   }
   return out
 }
+
+/**
+ * A careful reef keeper's version of a history: proof doses on consecutive days, each tested
+ * a few hours later to show it arrived; salinity steady at 35, pH 8.1, reef chemistry and
+ * phosphate tested and in range, nitrate kept under the stony-coral limit. Without it few
+ * generated tanks complete and almost none reaches stony corals, so a property about them
+ * would hold only because nothing was allowed.
+ */
+export const reefReadyArb: fc.Arbitrary<HistoryKnobs> = historyArb.map(k => ({
+  ...k,
+  salinity: 35,
+  nitrateMax: 2,
+  reefChemistry: true,
+  clearanceAfter: k.clearanceAfter ?? 1,
+  clearanceDays: k.clearanceDays === 1 ? 3 : k.clearanceDays,
+  clearanceCheck: { hours: 4, ammoniaN: 1.6, nitriteN: 0 },
+  days: k.days.map(d => ({ ...d, pH: 8.1 as const, temperatureC: 25, salinity: 0 })),
+}))
+
+/** Any history, and as often a careful keeper's, so properties about complete tanks meet many. */
+export const tankArb: fc.Arbitrary<HistoryKnobs> = fc.oneof(historyArb, reefReadyArb)

@@ -4,19 +4,20 @@ import { evaluateCycle } from '../../../../shared/cycle/engine'
 import { RULES } from '../../../../shared/cycle/registry'
 import { DEFAULT_THRESHOLDS } from '../../../../shared/cycle/thresholds'
 import { LIVESTOCK_GROUPS, type CycleInput, type CycleReading, type Thresholds, type Verdict } from '../../../../shared/cycle/types'
-import { historyArb, shuffled, toInput } from './arbitraries'
+import { historyArb, shuffled, tankArb, toInput } from './arbitraries'
 import { at } from './tank-log'
 
 const RUNS = { seed: 20261201, numRuns: 300 }
 // Generous per-test limit: a busy machine must not turn a slow run into a failure (nothing here is timed).
 const LIMIT_MS = 60_000
 
-/** The latest reading carrying `key`, ordered as the contract says: by takenAt, then id. */
+/** The latest reading carrying `key`, ordered as the contract says: by takenAt, then entry time, then id. */
 function latestWith(input: CycleInput, key: 'ammoniaN' | 'nitriteN'): CycleReading | undefined {
   const now = Date.parse(input.now)
+  const entered = (r: CycleReading) => (r.enteredAt === undefined ? Number.NEGATIVE_INFINITY : Date.parse(r.enteredAt))
   return input.readings
     .filter(r => r[key] !== undefined && Date.parse(r.takenAt) <= now)
-    .sort((a, b) => Date.parse(a.takenAt) - Date.parse(b.takenAt) || (a.id < b.id ? -1 : a.id > b.id ? 1 : 0))
+    .sort((a, b) => Date.parse(a.takenAt) - Date.parse(b.takenAt) || (entered(a) < entered(b) ? -1 : entered(a) > entered(b) ? 1 : 0) || (a.id < b.id ? -1 : a.id > b.id ? 1 : 0))
     .at(-1)
 }
 
@@ -25,7 +26,7 @@ function time(iso: string | null): number {
 }
 
 describe('cycle engine properties', { timeout: LIMIT_MS }, () => {
-  it('does not depend on the order of readings and events', () => {
+  it('does not depend on the order of readings and events, same-minute ties included', () => {
     fc.assert(fc.property(historyArb, fc.integer(), (knobs, seed) => {
       const input = toInput(knobs)
       const reordered = { ...input, readings: shuffled(input.readings, seed), events: shuffled(input.events ?? [], seed + 1) }
@@ -45,7 +46,7 @@ describe('cycle engine properties', { timeout: LIMIT_MS }, () => {
 
   it('never claims completion while the latest ammonia or nitrite is above its limit', () => {
     let completions = 0
-    fc.assert(fc.property(historyArb, (knobs) => {
+    fc.assert(fc.property(tankArb, (knobs) => {
       const input = toInput(knobs)
       const v = evaluateCycle(input)
       if (v.phase !== 'complete') {
@@ -64,10 +65,10 @@ describe('cycle engine properties', { timeout: LIMIT_MS }, () => {
     expect(completions).toBeGreaterThan(20)
   })
 
-  it('never completes a tank whose tests never rose', () => {
+  it('never completes a tank whose tests never rose and whose nitrate never moved', () => {
     fc.assert(fc.property(historyArb, (knobs) => {
       const input = toInput(knobs)
-      const flat = { ...input, readings: input.readings.map(r => ({ ...r, ...(r.ammoniaN === undefined ? {} : { ammoniaN: Math.min(r.ammoniaN, 0.05) }), ...(r.nitriteN === undefined ? {} : { nitriteN: Math.min(r.nitriteN, 0.05) }) })) }
+      const flat = { ...input, readings: input.readings.map(r => ({ ...r, ...(r.ammoniaN === undefined ? {} : { ammoniaN: Math.min(r.ammoniaN, 0.05) }), ...(r.nitriteN === undefined ? {} : { nitriteN: Math.min(r.nitriteN, 0.05) }), ...(r.nitrateN === undefined ? {} : { nitrateN: 2 }) })) }
       expect(evaluateCycle(flat).phase).not.toBe('complete')
     }), RUNS)
   })
@@ -79,7 +80,7 @@ describe('cycle engine properties', { timeout: LIMIT_MS }, () => {
       lpsCoralDelayDays: fc.constantFrom(0, 3, 30),
       spsCoralDelayDays: fc.constantFrom(0, 10, 60),
     })
-    fc.assert(fc.property(historyArb, delays, (knobs, overrides) => {
+    fc.assert(fc.property(tankArb, delays, (knobs, overrides) => {
       const v: Verdict = evaluateCycle(toInput(knobs, overrides))
       const fish = v.readiness.fish
       for (const group of ['lps-coral', 'sps-coral'] as const) {
@@ -109,12 +110,18 @@ describe('cycle engine properties', { timeout: LIMIT_MS }, () => {
       zeroRunMaxGapHours: fc.constantFrom(72, 48, 30),
       clearanceWindowHours: fc.constantFrom(30, 24, 12),
       clearanceMinDoseN: fc.constantFrom(0.8, 1.2, 2),
+      clearanceDays: fc.constantFrom(3, 4),
+      doseArrivalFraction: fc.constantFrom(0.25, 0.5, 0.9),
+      nitrateRiseN: fc.constantFrom(1, 1.5, 3),
+      fishInStableDays: fc.constantFrom(7, 9),
+      seededNitrateRiseDays: fc.constantFrom(14, 20),
     })
     const loosen: Partial<Thresholds> = {
       ammoniaZeroN: 0.1, nitriteZeroN: 0.1, nitratePresentN: 0.2, riseN: 0.1, stableSpanHours: 24, stableMinTests: 2,
       zeroRunMaxGapHours: 96, clearanceWindowHours: 36, clearanceMinDoseN: 0.3,
+      clearanceDays: 1, doseArrivalFraction: 0.1, nitrateRiseN: 0.5, fishInStableDays: 3, seededNitrateRiseDays: 7,
     }
-    fc.assert(fc.property(historyArb, tighten, (knobs, strict) => {
+    fc.assert(fc.property(tankArb, tighten, (knobs, strict) => {
       const lenient = evaluateCycle(toInput(knobs, loosen))
       const base = evaluateCycle(toInput(knobs))
       const stricter = evaluateCycle(toInput(knobs, strict))

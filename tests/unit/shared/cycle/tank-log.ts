@@ -77,8 +77,8 @@ export class TankLog {
     return this.event('water-change', day, hour, { amount: litres })
   }
 
-  livestock(day: number, group: LivestockGroup, hour = 14): this {
-    return this.event('livestock-added', day, hour, { group })
+  livestock(day: number, group: LivestockGroup, count = 3, hour = 14): this {
+    return this.event('livestock-added', day, hour, { group, amount: count })
   }
 
   /** The engine input as of `day` at `hour`. */

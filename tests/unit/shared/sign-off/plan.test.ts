@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest'
 import { evaluateCycle } from '../../../../shared/cycle/engine'
 import type { CycleInput, Verdict } from '../../../../shared/cycle/types'
-import { datedAcclimation, finalReadings, overrideGrounds, stockingSteps } from '../../../../shared/sign-off/plan'
+import { acclimationSettingsOf, datedAcclimation, finalReadings, overrideGrounds, stockingSteps } from '../../../../shared/sign-off/plan'
 
 const readiness = (allowed: boolean): Verdict['readiness'] => ({
   'fish': { allowed, earliest: '2026-12-01T00:00:00.000Z', blockers: allowed ? [] : ['Wait for zero nitrite.'] },
@@ -44,6 +44,16 @@ describe('datedAcclimation', () => {
 
   it('refuses a start that is not a date', () => {
     expect(() => datedAcclimation('soon')).toThrow(RangeError)
+  })
+
+  it('follows the tank\'s own settings from its lighting-ramp stage, defaults where unset', () => {
+    const own = acclimationSettingsOf([{ key: 'substrate', data: {} }, { key: 'lighting-ramp', data: { acclimationWeeks: 2, acclimationStartPercent: 20, acclimationEndPercent: 40 } }])
+    expect(own).toEqual({ weeks: 2, startPercent: 20, endPercent: 40 })
+    const plan = datedAcclimation('2026-12-01T10:00:00.000Z', own)
+    expect(plan.map(s => s.plateauPercent)).toEqual([20, 30, 40])
+    expect(plan.map(s => s.from.slice(0, 10))).toEqual(['2026-12-01', '2026-12-08', '2026-12-15'])
+    expect(acclimationSettingsOf([{ key: 'lighting-ramp', data: { acclimationWeeks: 6, acclimationStartPercent: null } }])).toEqual({ weeks: 6, startPercent: 30, endPercent: 60 })
+    expect(acclimationSettingsOf([])).toEqual({ weeks: 4, startPercent: 30, endPercent: 60 })
   })
 })
 

@@ -8,7 +8,7 @@ export default defineEventHandler(async (event) => {
   const { id, eventId } = await getValidatedRouterParams(event, valid(EventParams))
   const tank = requireVisibleTank(actor, id)
   const existing = requireEvent(tank.id, eventId)
-  assertEditable(actor, tank, { enteredBy: existing.enteredBy, createdAt: existing.createdAt, at: existing.at })
+  assertEditable(actor, tank, { id: existing.id, enteredBy: existing.enteredBy, createdAt: existing.createdAt, at: existing.at })
   const db = useDB()
   db.transaction(() => {
     db.delete(events).where(eq(events.id, existing.id)).run()

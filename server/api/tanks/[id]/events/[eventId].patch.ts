@@ -13,7 +13,7 @@ export default defineEventHandler(async (event): Promise<EventView> => {
   const { id, eventId } = await getValidatedRouterParams(event, valid(EventParams))
   const tank = requireVisibleTank(actor, id)
   const existing = requireEvent(tank.id, eventId)
-  assertEditable(actor, tank, { enteredBy: existing.enteredBy, createdAt: existing.createdAt, at: existing.at })
+  assertEditable(actor, tank, { id: existing.id, enteredBy: existing.enteredBy, createdAt: existing.createdAt, at: existing.at })
   const patch = await readValidatedBody(event, valid(EventPatchSchema))
   const start: EventInput = { at: existing.at, kind: existing.kind, amount: existing.amount, doseBasis: 'N', volumeUnit: 'L', group: existing.group as EventInput['group'], notes: existing.notes }
   const merged = { ...start, ...Object.fromEntries(Object.entries(patch).filter(([, value]) => value !== undefined)) } as EventInput

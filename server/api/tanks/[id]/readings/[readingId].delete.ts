@@ -8,7 +8,7 @@ export default defineEventHandler(async (event) => {
   const { id, readingId } = await getValidatedRouterParams(event, valid(ReadingParams))
   const tank = requireVisibleTank(actor, id)
   const existing = requireReading(tank.id, readingId)
-  assertEditable(actor, tank, { enteredBy: existing.enteredBy, createdAt: existing.createdAt, at: existing.takenAt })
+  assertEditable(actor, tank, { id: existing.id, enteredBy: existing.enteredBy, createdAt: existing.createdAt, at: existing.takenAt })
   const db = useDB()
   db.transaction(() => {
     db.delete(readings).where(eq(readings.id, existing.id)).run()

@@ -14,7 +14,7 @@ export default defineEventHandler(async (event): Promise<ReadingSaved> => {
   const { id, readingId } = await getValidatedRouterParams(event, valid(ReadingParams))
   const tank = requireVisibleTank(actor, id)
   const existing = requireReading(tank.id, readingId)
-  assertEditable(actor, tank, { enteredBy: existing.enteredBy, createdAt: existing.createdAt, at: existing.takenAt })
+  assertEditable(actor, tank, { id: existing.id, enteredBy: existing.enteredBy, createdAt: existing.createdAt, at: existing.takenAt })
   const patch = await readValidatedBody(event, valid(ReadingPatchSchema))
   const start = entryFromStored(existing, tank.kitBasis, actor.units === 'us' ? 'F' : 'C')
   const merged = { ...start, ...Object.fromEntries(Object.entries(patch).filter(([, value]) => value !== undefined)) }

@@ -1,0 +1,26 @@
+/**
+ * Clocked upkeep of the database, framework-free: ended sessions and old throttle marks
+ * go, and the write-ahead log is checkpointed and emptied so a big import does not leave
+ * it large on disk. Run by the worker with the other clocked jobs (and by POST /api/dev/worker-tick in tests).
+ */
+import { checkpointWal, type TidewrightDB } from '../../db/connection'
+import { pruneSessions } from '../sessions/sessions'
+import { pruneAttempts } from '../throttle/throttle'
+
+/** The longest window any throttle counts over (invitation mail: a day). */
+const LONGEST_THROTTLE_WINDOW_MS = 24 * 3_600_000
+
+export interface HousekeepingResult {
+  sessionsPruned: number
+  throttleMarksPruned: number
+  /** Pages the WAL held before the checkpoint. */
+  walPages: number
+}
+
+export function runHousekeeping(db: TidewrightDB, now: Date): HousekeepingResult {
+  return {
+    sessionsPruned: pruneSessions(db, now),
+    throttleMarksPruned: pruneAttempts(db, new Date(now.getTime() - LONGEST_THROTTLE_WINDOW_MS)),
+    walPages: checkpointWal(db).walPages,
+  }
+}

@@ -1,0 +1,45 @@
+/**
+ * How many bytes of request body each route takes: one table for every method and
+ * framing. JSON routes are small; the file uploads and the CSV import have their own.
+ */
+
+const KB = 1024
+const MB = 1024 * KB
+
+/** Largest accepted uploaded file (the upload routes check the file itself against this). */
+export const MAX_UPLOAD_BYTES = 10 * MB
+/** Room for multipart boundaries and part headers around the file. */
+export const MULTIPART_OVERHEAD_BYTES = 64 * KB
+
+export const BODY_LIMITS = {
+  /** Every JSON route: the largest form (a stage with notes and checklist) is a few KB. */
+  json: 64 * KB,
+  /** The plan template: up to 30 stages of 30 checklist items. */
+  planTemplate: 1 * MB,
+  /** Multipart uploads: one file of at most 10 MB. */
+  upload: MAX_UPLOAD_BYTES + MULTIPART_OVERHEAD_BYTES,
+  /** CSV import as JSON text: 100,000 rows are about 8 MB. */
+  import: 24 * MB,
+} as const
+
+const ROUTES: ReadonlyArray<[RegExp, number]> = [
+  [/^\/api\/tanks\/[^/]+\/readings\/import$/, BODY_LIMITS.import],
+  [/^\/api\/tanks\/[^/]+\/stages\/[^/]+\/uploads$/, BODY_LIMITS.upload],
+  [/^\/api\/tanks\/[^/]+\/test-photos$/, BODY_LIMITS.upload],
+  [/^\/api\/plan-template$/, BODY_LIMITS.planTemplate],
+]
+
+/** The body limit, in bytes, for a request path (query string ignored). */
+export function bodyLimitFor(path: string): number {
+  const bare = path.split('?')[0]!
+  return ROUTES.find(([pattern]) => pattern.test(bare))?.[1] ?? BODY_LIMITS.json
+}
+
+/**
+ * After the limit is passed the rest is read and thrown away, so an honest client that
+ * sent a little too much still reads its 413; a sender that goes on past this many bytes
+ * more is cut off.
+ */
+export function drainAllowance(limit: number): number {
+  return Math.max(4 * limit, 4 * MB)
+}

@@ -1,0 +1,79 @@
+/**
+ * What was signed stays signed, framework-free: the tank's facts and stages captured at
+ * the decision, which of them a later edit would touch, which entries the snapshot holds,
+ * and amendments (a change to signed facts with a reason, printed on the certificate).
+ */
+import { asc, eq } from 'drizzle-orm'
+import type { SignedTankFacts, SignOffAmendmentView, SignOffSnapshot } from '#shared/types/sign-off'
+import type { TidewrightDB } from '../../db/connection'
+import { clients, organisations, planStages, signOffAmendments, sites, tanks, users } from '../../db/schema'
+
+type TankRow = typeof tanks.$inferSelect
+
+/** The tank's facts and build-plan stages as they stand now, for the snapshot of a decision. */
+export function captureSignedFacts(db: TidewrightDB, tankId: string, deciderId: string): SignedTankFacts {
+  const row = db.select({ tank: tanks, clientName: clients.name, siteLabel: sites.label, company: organisations.name })
+    .from(tanks)
+    .innerJoin(clients, eq(clients.id, tanks.clientId))
+    .innerJoin(organisations, eq(organisations.id, tanks.organisationId))
+    .leftJoin(sites, eq(sites.id, tanks.siteId))
+    .where(eq(tanks.id, tankId)).get()
+  if (!row) throw new Error(`tank ${tankId} not found`)
+  const nameOf = (id: string | null) => (id ? db.select({ name: users.name }).from(users).where(eq(users.id, id)).get()?.name ?? null : null)
+  const stages = db.select().from(planStages).where(eq(planStages.tankId, tankId)).orderBy(asc(planStages.position)).all()
+  const t = row.tank
+  return {
+    company: row.company,
+    tankName: t.name,
+    clientName: row.clientName,
+    siteLabel: row.siteLabel ?? null,
+    shape: t.shape,
+    dimensions: (t.dimensions ?? {}) as Record<string, number | undefined>,
+    volumeLitres: t.volumeLitres,
+    sumpLitres: t.sumpLitres,
+    cycleMethod: t.cycleMethod,
+    cycleStartedAt: t.cycleStartedAt,
+    aquaristName: nameOf(t.aquaristId),
+    supervisorName: nameOf(deciderId) ?? '—',
+    stages: stages.map(s => ({ key: s.key, title: s.title, status: s.status, completedAt: s.completedAt })),
+  }
+}
+
+/** Tank columns a certificate prints (directly or through the volume): they change only by amendment or reopening. */
+export const SIGNED_TANK_FIELDS = ['name', 'clientId', 'siteId', 'shape', 'dimensions', 'volumeLitres', 'sumpLitres', 'cycleMethod', 'cycleStartedAt'] as const
+export type SignedTankField = typeof SIGNED_TANK_FIELDS[number]
+
+/** The signed fields a change would alter, with their values before and after. */
+export function signedFieldChanges(before: TankRow, changes: Partial<TankRow>): { field: SignedTankField, before: unknown, after: unknown }[] {
+  return SIGNED_TANK_FIELDS
+    .filter(field => field in changes && JSON.stringify(changes[field]) !== JSON.stringify(before[field]))
+    .map(field => ({ field, before: before[field], after: changes[field] }))
+}
+
+/** Whether a stage was finished (done or skipped) in the signed snapshot: such a stage changes only after reopening. */
+export function isSignedStage(snapshot: SignOffSnapshot | null | undefined, stageKey: string): boolean {
+  const stage = snapshot?.facts?.stages.find(s => s.key === stageKey)
+  return stage?.status === 'done' || stage?.status === 'skipped'
+}
+
+/** Ids of every reading and event the snapshot holds, whatever their dates. */
+export function signedEntryIds(snapshot: SignOffSnapshot | null | undefined): Set<string> {
+  if (!snapshot) return new Set()
+  return new Set([...snapshot.input.readings.map(r => r.id), ...(snapshot.input.events ?? []).map(e => e.id)])
+}
+
+/** Records an amendment of a signed tank's facts (call inside the transaction that changes the tank). */
+export function recordAmendment(db: TidewrightDB, input: { signOffId: string, tankId: string, by: string, at: Date, reason: string, changes: { field: string, before: unknown, after: unknown }[] }): void {
+  db.insert(signOffAmendments).values({
+    signOffId: input.signOffId, tankId: input.tankId, amendedBy: input.by, amendedAt: input.at.toISOString(), reason: input.reason, changes: input.changes,
+  }).run()
+}
+
+/** A sign-off's amendments, oldest first, with who made them. */
+export function amendmentsOf(db: TidewrightDB, signOffId: string): SignOffAmendmentView[] {
+  return db.select({ a: signOffAmendments, byName: users.name }).from(signOffAmendments)
+    .leftJoin(users, eq(users.id, signOffAmendments.amendedBy))
+    .where(eq(signOffAmendments.signOffId, signOffId))
+    .orderBy(asc(signOffAmendments.amendedAt)).all()
+    .map(({ a, byName }) => ({ at: a.amendedAt, byName: byName ?? null, reason: a.reason, changes: a.changes }))
+}

@@ -1,0 +1,42 @@
+/**
+ * The water a tank actually holds once sand and rock are in, plus its sump: what salt,
+ * ammonia doses and water changes are worked out for. Read from the tank's shape and its
+ * build plan (the substrate stage's sand depth, the water-fill stage's rock weight).
+ */
+
+import { tankShapeFrom, tankVolume, type TankDimensionsMm, type TankShapeKind } from '../calc/volume'
+
+/** What the net volume needs to know about a tank. */
+export interface NetVolumeTank {
+  shape: string
+  dimensions: TankDimensionsMm
+  volumeLitres: number
+  sumpLitres: number
+}
+
+/** A plan stage's key and helper values. */
+export interface NetVolumeStage {
+  key: string
+  data: Record<string, unknown>
+}
+
+const numberIn = (stages: readonly NetVolumeStage[], key: string, field: string): number => {
+  const value = stages.find(s => s.key === key)?.data[field]
+  return typeof value === 'number' && Number.isFinite(value) && value > 0 ? value : 0
+}
+
+/**
+ * Net water volume, litres: the display tank net of sand (at its porosity) and rock, plus
+ * the sump. When the stored dimensions are incomplete, the tank's recorded volume stands in.
+ */
+export function netWaterLitres(tank: NetVolumeTank, stages: readonly NetVolumeStage[], extra: { sandDepthMm?: number, rockKg?: number } = {}): number {
+  const sandDepthMm = extra.sandDepthMm ?? numberIn(stages, 'substrate', 'depthMm')
+  const rockKg = extra.rockKg ?? numberIn(stages, 'water-fill', 'rockKg')
+  try {
+    const shape = tankShapeFrom(tank.shape as TankShapeKind, tank.dimensions)
+    return tankVolume({ shape, sandDepthMm, rockKg }).netL + tank.sumpLitres
+  }
+  catch {
+    return tank.volumeLitres + tank.sumpLitres
+  }
+}

@@ -1,0 +1,61 @@
+/**
+ * One rule, every path: the form and the CSV import refuse the same values. A note longer
+ * than the form allows, a day that does not exist (2026-02-30 is not rolled into March),
+ * a number written in hex, and a header row that names a column twice.
+ */
+import { describe, expect, inject, it } from 'vitest'
+import { queryFile } from '../support/db-checksum'
+import { ApiClient } from '../support/http'
+import { READING_BODY } from './access-matrix.data'
+
+const count = (sql: string, ...params: unknown[]) => queryFile<{ n: number }>(inject('dbPath'), sql, ...params)[0]!.n
+
+describe('readings through the form and through CSV', () => {
+  it('refuses a 50,000-character note on both paths', async () => {
+    const api = await new ApiClient().signIn('aquarist@tidewright.test')
+    const tank = inject('fixtures').demo.tanks.lobby
+    const note = `long note ${'x'.repeat(50_000)}`
+    const form = await api.post(`/api/tanks/${tank}/readings`, { ...READING_BODY(), takenAt: '2026-02-10T09:00:00Z', notes: note })
+    expect(form.status).toBe(400)
+    expect(form.body.data.issues[0].field).toBe('notes')
+    const csv = await api.post(`/api/tanks/${tank}/readings/import`, { csv: `takenAt,ammonia,notes\n2026-02-10T09:00:00Z,0.25,${note}\n2026-02-10T10:00:00Z,0.25,a short note`, dryRun: false })
+    expect(csv.status).toBe(200)
+    expect(csv.body.errorRows).toBe(1)
+    expect(csv.body.errors[0]).toMatchObject({ row: 2, field: 'notes' })
+    expect(csv.body.inserted).toBe(1)
+    const stored = count(`select count(*) as n from readings where tank_id = ? and length(notes) > 2000`, tank)
+    console.log(`[write paths] 50,000-character note through CSV: ${stored} stored`)
+    expect(stored).toBe(0)
+  })
+
+  it('refuses 2026-02-30 on both paths instead of storing 2 March', async () => {
+    const api = await new ApiClient().signIn('aquarist@tidewright.test')
+    const tank = inject('fixtures').demo.tanks.lobby
+    const form = await api.post(`/api/tanks/${tank}/readings`, { ...READING_BODY(), takenAt: '2026-02-30T09:00:00Z' })
+    expect(form.status).toBe(400)
+    expect(form.body.data.issues[0].field).toBe('takenAt')
+    const csv = await api.post(`/api/tanks/${tank}/readings/import`, { csv: 'takenAt,ammonia,notes\n2026-02-30 09:00,0.5,impossible day\n2026-02-31,0.5,impossible day', dryRun: false })
+    expect(csv.body.errorRows).toBe(2)
+    expect(csv.body.errors.every((e: { field: string }) => e.field === 'takenAt')).toBe(true)
+    expect(count(`select count(*) as n from readings where tank_id = ? and notes = 'impossible day'`, tank)).toBe(0)
+  })
+
+  it('reads only plain decimal numbers from CSV: 0x1 is not a number', async () => {
+    const api = await new ApiClient().signIn('aquarist@tidewright.test')
+    const tank = inject('fixtures').demo.tanks.lobby
+    const csv = await api.post(`/api/tanks/${tank}/readings/import`, { csv: 'takenAt,ammonia,nitrite,notes\n2026-02-11T09:00:00Z,0x1,0.1,hex ammonia\n2026-02-11T10:00:00Z,1e-1,.05,decimal forms', dryRun: true })
+    expect(csv.body.errorRows).toBe(1)
+    expect(csv.body.errors[0]).toMatchObject({ row: 2, field: 'ammonia' })
+    expect(csv.body.valid).toBe(1)
+  })
+
+  it('refuses a file whose header row names a column twice', async () => {
+    const api = await new ApiClient().signIn('aquarist@tidewright.test')
+    const tank = inject('fixtures').demo.tanks.lobby
+    const csv = await api.post(`/api/tanks/${tank}/readings/import`, { csv: 'takenAt,ammonia,Ammonia,notes\n2026-02-12T09:00:00Z,0.25,2.5,which ammonia', dryRun: false })
+    expect(csv.status).toBe(400)
+    expect(csv.body.data.issues[0].field).toBe('csv')
+    expect(csv.body.data.issues[0].message).toContain('column 3')
+    expect(count(`select count(*) as n from readings where tank_id = ? and notes = 'which ammonia'`, tank)).toBe(0)
+  })
+})
