@@ -6,11 +6,10 @@ import { formatMoment, forReader } from '#shared/readings/reader-words'
  * client each concentration in the kit's basis (`kit`). Staff keep canonical nitrogen.
  */
 export function useReaderWords(kit?: () => { basis: KitBasisChoice, exactN: readonly (number | null | undefined)[] } | undefined) {
-  const { user } = useUserSession()
-  const isClient = computed(() => user.value?.role === 'client')
+  const me = useMeStore()
   return (message: string): string => forReader(message, {
-    units: user.value?.units ?? 'metric',
+    units: me.units,
     when: ms => formatMoment(ms),
-    kit: isClient.value ? kit?.() : undefined,
+    kit: me.isClient ? kit?.() : undefined,
   })
 }

@@ -5,6 +5,5 @@ export function useTankList(query: MaybeRefOrGetter<Record<string, string | unde
   return useFetch<TankList>('/api/tanks', {
     key: 'tank-list',
     query,
-    headers: useRequestHeaders(['cookie']),
   })
 }

@@ -1,33 +1,22 @@
+import { storeToRefs } from 'pinia'
 import type { NotificationList } from '#shared/types/alerts'
-
-/**
- * The user's notification centre, with an unread count that the server pushes live over
- * server-sent events (GET /api/notifications/stream). One stream per tab, shared by
- * whoever uses the composable.
- */
-export function useUnreadNotices() {
-  const unread = useState<number>('notices-unread', () => 0)
-  return { unread }
-}
+import { useNoticesStore } from '~/stores/notices'
 
 let source: EventSource | null = null
 let users = 0
 
-/** Opens the live stream in the browser while at least one component needs it. */
+/**
+ * Opens the live notification stream (GET /api/notifications/stream) in the browser while at
+ * least one component needs it: one stream per tab, feeding the notices store. `onChange`
+ * runs whenever the server reports a change.
+ */
 export function useNoticeStream(onChange?: () => void) {
-  const { unread } = useUnreadNotices()
-  const listeners = useState<number>('notices-version', () => 0)
+  const notices = useNoticesStore()
   onMounted(() => {
     users++
     if (!source) {
       source = new EventSource('/api/notifications/stream')
-      source.addEventListener('unread', (message) => {
-        try {
-          unread.value = Number(JSON.parse((message as MessageEvent<string>).data).unread) || 0
-          listeners.value++
-        }
-        catch { /* a malformed event changes nothing */ }
-      })
+      source.addEventListener('unread', message => notices.receiveStreamEvent((message as MessageEvent<string>).data))
     }
   })
   onBeforeUnmount(() => {
@@ -37,16 +26,14 @@ export function useNoticeStream(onChange?: () => void) {
       source = null
     }
   })
-  if (onChange) watch(listeners, () => onChange())
-  return { unread }
+  if (onChange) watch(() => notices.changes, () => onChange())
+  return storeToRefs(notices)
 }
 
-/** Reads the notification list (SSR-friendly) and keeps the shared unread count in step. */
+/** Reads the notification list (SSR-friendly) and keeps the store's unread count in step. */
 export async function useNotificationList() {
-  const { unread } = useUnreadNotices()
-  const result = await useFetch<NotificationList>('/api/notifications', { key: 'notifications', headers: useRequestHeaders(['cookie']) })
-  watch(() => result.data.value?.unread, (value) => {
-    if (value !== undefined) unread.value = value
-  }, { immediate: true })
+  const notices = useNoticesStore()
+  const result = await useFetch<NotificationList>('/api/notifications', { key: 'notifications' })
+  watch(() => result.data.value?.unread, value => notices.setUnread(value), { immediate: true })
   return result
 }
