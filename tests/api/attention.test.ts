@@ -52,11 +52,16 @@ describe('GET /api/attention', () => {
 
   it('shows who acknowledged an alert, and an acknowledged alert still outranks a missed test', async () => {
     const aquarist2 = await signedIn(ATTENTION_USERS.aquarist2.email)
-    const alertId = (await aquarist2.get(`/api/alerts?tankId=${company.tanks.alerting}&status=active`)).body.items[0].id
-    expect((await aquarist2.post(`/api/alerts/${alertId}/acknowledge`, { note: 'Water change booked' })).status).toBe(200)
+    // The tank may carry more than one danger alert (ammonia over the action level and, once the
+    // verdict is re-judged over time, the EPA four-day free-ammonia criterion): acknowledge each.
+    const active = (await aquarist2.get(`/api/alerts?tankId=${company.tanks.alerting}&status=active`)).body.items as { id: string }[]
+    expect(active.length).toBeGreaterThan(0)
+    for (const { id } of active) expect((await aquarist2.post(`/api/alerts/${id}/acknowledge`, { note: 'Water change booked' })).status).toBe(200)
     const b = await board(aquarist2)
     expect(b.items[0]!.tankId).toBe(company.tanks.alerting)
-    expect(b.items[0]!.signals[0]).toMatchObject({ title: 'Danger alert, acknowledged', acknowledgedByName: ATTENTION_USERS.aquarist2.name })
+    const alertSignals = b.items[0]!.signals.filter(s => s.kind === 'alert')
+    expect(alertSignals).toHaveLength(active.length)
+    for (const signal of alertSignals) expect(signal).toMatchObject({ title: 'Danger alert, acknowledged', acknowledgedByName: ATTENTION_USERS.aquarist2.name })
   })
 
   it('filters by aquarist and sorts by name or by the longest silence, as the query says', async () => {
