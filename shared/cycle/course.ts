@@ -17,10 +17,13 @@
  *   went in span `fishInStableDays`; and either a nitrite stage was seen (nitrite
  *   above `riseN`) or nitrate rose by `nitrateRiseN` over `seededNitrateRiseDays` with
  *   the animals in (a seeded tank that never shows ammonia or nitrite).
- * A test above a zero limit ends the run (and a completion with it) unless it shows
- * an ammonia dose being worked off: inside the dose's window and followed, inside that
- * window, by a zero test with no water change between. Until then the verdict is not
- * complete. Before completion a water change or a long gap between tests restarts the
+ * A test above a zero limit ends the run (and a completion with it) unless it is held:
+ * it shows an ammonia dose being worked off (inside the dose's window); or, with animals
+ * in or once proven, it is one small ammonia spike (under `ammoniaActionN`, nitrite at
+ * zero); or, once proven, it is one trace of nitrite (at most `nitriteTraceN`, ammonia at
+ * zero, no other nitrite above zero in the `fishInStableDays` before it). A held test is
+ * excused by a zero test inside its window with no water change between. Until then the
+ * verdict is not complete. Before completion a water change or a long gap between tests restarts the
  * run: dilution and missing days are not evidence. Zero tests before the first dose (or
  * before the animals) neither count nor spoil: the part of the run after it is what is
  * judged, so a looser zero limit that starts the run earlier never withholds a completion
@@ -178,6 +181,8 @@ class CourseScan {
   latestNitrate: TimedReading | null = null
   lastNitrogen: TimedReading | null = null
   held: Held[] = []
+  /** The latest test with nitrite above zero, excused or not. */
+  lastNitriteUpT = Number.NEGATIVE_INFINITY
 
   constructor(private readonly s: ScanSettings) {}
 
@@ -221,6 +226,7 @@ class CourseScan {
       this.held = []
       this.extendRun(r)
     }
+    if (aboveN) this.lastNitriteUpT = r.t
     this.lastNitrogen = r
   }
 
@@ -251,8 +257,20 @@ class CourseScan {
     const th = this.s.thresholds
     const spike = (r.ammoniaN ?? 0) <= th.ammoniaActionN && (r.nitriteN ?? 0) <= th.nitriteZeroN
     if ((this.completed || this.animalsIn(r.t)) && spike && this.held.length === 0) deadline = Math.max(deadline, r.t + this.s.windowMs)
+    // Nitrite is the last thing a cycle clears, so before the proof any nitrite restarts the
+    // count. Once proven, one trace of it (ammonia at zero) that the next test shows gone is a
+    // misread or a passing pulse; a second within the proving days is not.
+    if (this.completed && this.nitriteTrace(r) && this.held.length === 0) deadline = Math.max(deadline, r.t + this.s.windowMs)
     if (Number.isFinite(deadline) && this.run !== null) this.held.push({ reading: r, deadline })
     else this.breakRun(r)
+  }
+
+  /** A trace of nitrite with ammonia at zero, the first nitrite above zero in the proving days. */
+  private nitriteTrace(r: TimedReading): boolean {
+    const th = this.s.thresholds
+    return (r.ammoniaN ?? 0) <= th.ammoniaZeroN
+      && (r.nitriteN ?? 0) <= th.nitriteTraceN
+      && r.t - this.lastNitriteUpT > th.fishInStableDays * 24 * HOUR_MS
   }
 
   private noteMilestones(r: TimedReading, aboveA: boolean): void {
