@@ -292,6 +292,23 @@ describe('a water change mid-cycle', () => {
   })
 })
 
+describe('routine water changes with animals in', () => {
+  // Weekly changes of 10-25 % are routine in a stocked tank (common practice, no published
+  // source). The animals' ammonia keeps coming after a change, so zero tests after it still show
+  // the bacteria keep up: the change is no reason to start the week of zero tests again, or a
+  // tank changed weekly could never finish.
+  it('does not restart the week of zero tests', () => {
+    const v = evaluateCycle(fishInWithSpike().waterChange(21, 60).input(25, 12))
+    expect(v.completedOn).toBe(at(25))
+    expect(ruleIds(v)).not.toContain('water-change.dilution')
+  })
+
+  it('still ends the week when a test after the change shows ammonia or nitrite', () => {
+    const v = evaluateCycle(fishInWithSpike().waterChange(21, 60).test(22, { ammoniaN: 0, nitriteN: 0.3, nitrateN: 1.3 }, 15).input(25, 12))
+    expect(v.completedOn).toBeNull()
+  })
+})
+
 describe('one small spike during a fish-in tank\'s week of zeros', () => {
   // Fish in, zero since day 18; one afternoon test on day 21 reads 0.25 ppm as NH3 after a
   // heavy feed and the next morning reads zero again. An aquarist keeps counting the week.
