@@ -4,7 +4,7 @@
  * build plan (the substrate stage's sand depth, the water-fill stage's rock weight).
  */
 
-import { tankShapeFrom, tankVolume, type TankDimensionsMm, type TankShapeKind } from '../calc/volume'
+import { tankShapeFrom, tankVolume, type TankDimensionsMm, type TankShape, type TankShapeKind } from '../calc/volume'
 
 /** What the net volume needs to know about a tank. */
 export interface NetVolumeTank {
@@ -25,18 +25,46 @@ const numberIn = (stages: readonly NetVolumeStage[], key: string, field: string)
   return typeof value === 'number' && Number.isFinite(value) && value > 0 ? value : 0
 }
 
-/**
- * Net water volume, litres: the display tank net of sand (at its porosity) and rock, plus
- * the sump. When the stored dimensions are incomplete, the tank's recorded volume stands in.
- */
-export function netWaterLitres(tank: NetVolumeTank, stages: readonly NetVolumeStage[], extra: { sandDepthMm?: number, rockKg?: number } = {}): number {
-  const sandDepthMm = extra.sandDepthMm ?? numberIn(stages, 'substrate', 'depthMm')
-  const rockKg = extra.rockKg ?? numberIn(stages, 'water-fill', 'rockKg')
+/** The tank's typed shape for the calculators, or null when its stored dimensions are incomplete. */
+export function tankShapeOf(tank: Pick<NetVolumeTank, 'shape' | 'dimensions'>): TankShape | null {
+  const dims = tank.dimensions
   try {
-    const shape = tankShapeFrom(tank.shape as TankShapeKind, tank.dimensions)
-    return tankVolume({ shape, sandDepthMm, rockKg }).netL + tank.sumpLitres
+    return tankShapeFrom(tank.shape as TankShapeKind, dims)
   }
   catch {
-    return tank.volumeLitres + tank.sumpLitres
+    // Older records describe a cube by its length.
+    if (tank.shape === 'cube' && dims.lengthMm) return { kind: 'cube', sideMm: dims.lengthMm }
+    return null
   }
+}
+
+/** Net water and whether it came from the dimensions (false: the recorded volume stood in). */
+export interface NetWater {
+  litres: number
+  fromDimensions: boolean
+}
+
+/**
+ * Net water volume, litres: the display tank net of sand (at its porosity) and rock, plus
+ * the sump. `extra` takes values being typed in place of the plan's saved ones. When the
+ * stored dimensions are incomplete, the tank's recorded volume stands in, and says so.
+ */
+export function netWater(tank: NetVolumeTank, stages: readonly NetVolumeStage[], extra: { sandDepthMm?: number, rockKg?: number } = {}): NetWater {
+  const sandDepthMm = extra.sandDepthMm ?? numberIn(stages, 'substrate', 'depthMm')
+  const rockKg = extra.rockKg ?? numberIn(stages, 'water-fill', 'rockKg')
+  const shape = tankShapeOf(tank)
+  if (shape !== null) {
+    try {
+      return { litres: tankVolume({ shape, sandDepthMm, rockKg }).netL + tank.sumpLitres, fromDimensions: true }
+    }
+    catch {
+      // Non-positive dimensions: as incomplete.
+    }
+  }
+  return { litres: tank.volumeLitres + tank.sumpLitres, fromDimensions: false }
+}
+
+/** Net water volume in litres (see `netWater`): what salt, ammonia doses and water changes are worked out for. */
+export function netWaterLitres(tank: NetVolumeTank, stages: readonly NetVolumeStage[], extra: { sandDepthMm?: number, rockKg?: number } = {}): number {
+  return netWater(tank, stages, extra).litres
 }
