@@ -4,7 +4,8 @@
  * build plan (the substrate stage's sand depth, the water-fill stage's rock weight).
  */
 
-import { tankShapeFrom, tankVolume, type TankDimensionsMm, type TankShape, type TankShapeKind } from '../calc/volume'
+import { tankShapeOf } from '../calc/tank-shape'
+import { tankVolume, type TankDimensionsMm } from '../calc/volume'
 
 /** What the net volume needs to know about a tank. */
 export interface NetVolumeTank {
@@ -23,19 +24,6 @@ export interface NetVolumeStage {
 const numberIn = (stages: readonly NetVolumeStage[], key: string, field: string): number => {
   const value = stages.find(s => s.key === key)?.data[field]
   return typeof value === 'number' && Number.isFinite(value) && value > 0 ? value : 0
-}
-
-/** The tank's typed shape for the calculators, or null when its stored dimensions are incomplete. */
-export function tankShapeOf(tank: Pick<NetVolumeTank, 'shape' | 'dimensions'>): TankShape | null {
-  const dims = tank.dimensions
-  try {
-    return tankShapeFrom(tank.shape as TankShapeKind, dims)
-  }
-  catch {
-    // Older records describe a cube by its length.
-    if (tank.shape === 'cube' && dims.lengthMm) return { kind: 'cube', sideMm: dims.lengthMm }
-    return null
-  }
 }
 
 /** Net water and whether it came from the dimensions (false: the recorded volume stood in). */
