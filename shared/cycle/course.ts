@@ -17,11 +17,16 @@
  *   went in span `fishInStableDays`; and either a nitrite stage was seen (nitrite
  *   above `riseN`) or nitrate rose by `nitrateRiseN` over `seededNitrateRiseDays` with
  *   the animals in (a seeded tank that never shows ammonia or nitrite).
- * A test above a zero limit ends the run (and a completion with it) unless it shows
- * an ammonia dose being worked off: inside the dose's window and followed, inside that
- * window, by a zero test with no water change between. Until then the verdict is not
- * complete. Before completion a water change or a long gap between tests restarts the
- * run: dilution and missing days are not evidence. Zero tests before the first dose (or
+ * A test above a zero limit ends the run (and a completion with it) unless it is held:
+ * it shows an ammonia dose being worked off (inside the dose's window); or, with animals
+ * in or once proven, it is one small ammonia spike (under `ammoniaActionN`, nitrite at
+ * zero); or, once proven, it is one trace of nitrite (at most `nitriteTraceN`, ammonia at
+ * zero, no other nitrite above zero outside a dose's window in the `fishInStableDays`
+ * before it). A held test is excused by a zero test inside its window with no water change
+ * between. Until then the verdict is not complete. Before completion a long gap between
+ * tests restarts the run, and so does a water change in a tank without animals: missing
+ * days and dilution are not evidence. With animals in, their load goes on after a change,
+ * so routine changes do not restart it (a diluted dose still proves nothing). Zero tests before the first dose (or
  * before the animals) neither count nor spoil: the part of the run after it is what is
  * judged, so a looser zero limit that starts the run earlier never withholds a completion
  * a stricter one grants. Every condition is "there exists" over tests and limits, so
@@ -178,6 +183,8 @@ class CourseScan {
   latestNitrate: TimedReading | null = null
   lastNitrogen: TimedReading | null = null
   held: Held[] = []
+  /** The latest test with nitrite above zero outside a dose's window, excused or not. */
+  lastNitriteUpT = Number.NEGATIVE_INFINITY
 
   constructor(private readonly s: ScanSettings) {}
 
@@ -197,7 +204,9 @@ class CourseScan {
       for (const dose of this.pending) dose.diluted = true
       // After a water change no zero test can excuse a held test: the dose may have been diluted away.
       this.resolveHeld(Number.POSITIVE_INFINITY)
-      if (this.completed) return
+      // With animals in, their ammonia keeps coming after the change, so later zero tests still
+      // show the bacteria keep up: routine changes do not restart the count.
+      if (this.completed || this.animalsIn(t)) return
       const endedRun = this.run !== null
       this.run = null
       if (endedRun || dilutedDose) this.restarts.push({ reason: 'water-change', event, t, endedRun, dilutedDose })
@@ -221,6 +230,8 @@ class CourseScan {
       this.held = []
       this.extendRun(r)
     }
+    // Nitrite inside a dose's window is that dose being worked off, not nitrite coming back.
+    if (aboveN && !Number.isFinite(this.doseDeadline(r))) this.lastNitriteUpT = r.t
     this.lastNitrogen = r
   }
 
@@ -239,11 +250,17 @@ class CourseScan {
     this.breakRun(expired.reading)
   }
 
-  private holdOrBreak(r: TimedReading): void {
+  /** When the windows of the undiluted doses `r` falls inside close; -Infinity when it falls in none. */
+  private doseDeadline(r: TimedReading): number {
     let deadline = Number.NEGATIVE_INFINITY
     for (const dose of this.pending) {
       if (!dose.diluted && dose.t < r.t && r.t <= dose.t + this.s.windowMs) deadline = Math.max(deadline, dose.t + this.s.windowMs)
     }
+    return deadline
+  }
+
+  private holdOrBreak(r: TimedReading): void {
+    let deadline = this.doseDeadline(r)
     // One test of a little ammonia (under the action level, nitrite at zero) that the next
     // test, inside the clearance window, shows gone is a feeding spike the bacteria dealt
     // with: it neither undoes a proven tank nor restarts the week of zero tests a tank with
@@ -251,8 +268,20 @@ class CourseScan {
     const th = this.s.thresholds
     const spike = (r.ammoniaN ?? 0) <= th.ammoniaActionN && (r.nitriteN ?? 0) <= th.nitriteZeroN
     if ((this.completed || this.animalsIn(r.t)) && spike && this.held.length === 0) deadline = Math.max(deadline, r.t + this.s.windowMs)
+    // Nitrite is the last thing a cycle clears, so before the proof any nitrite restarts the
+    // count. Once proven, one trace of it (ammonia at zero) that the next test shows gone is a
+    // misread or a passing pulse; a second within the proving days is not.
+    if (this.completed && this.nitriteTrace(r) && this.held.length === 0) deadline = Math.max(deadline, r.t + this.s.windowMs)
     if (Number.isFinite(deadline) && this.run !== null) this.held.push({ reading: r, deadline })
     else this.breakRun(r)
+  }
+
+  /** A trace of nitrite with ammonia at zero, the first nitrite above zero in the proving days. */
+  private nitriteTrace(r: TimedReading): boolean {
+    const th = this.s.thresholds
+    return (r.ammoniaN ?? 0) <= th.ammoniaZeroN
+      && (r.nitriteN ?? 0) <= th.nitriteTraceN
+      && r.t - this.lastNitriteUpT > th.fishInStableDays * 24 * HOUR_MS
   }
 
   private noteMilestones(r: TimedReading, aboveA: boolean): void {

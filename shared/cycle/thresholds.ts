@@ -68,6 +68,8 @@ export const THRESHOLD_SPECS: Readonly<Record<keyof Thresholds, ThresholdSpec>> 
   // Zero and rise: what hobby kits read as zero; about 0.25 ppm as NH3 is the first colour step above it.
   ammoniaZeroN: spec('zero and rise', 'mg/L as N', 0.05, 0, 0.5, COMMON_PRACTICE, 'Total ammonia at or below this reads as zero.'),
   nitriteZeroN: spec('zero and rise', 'mg/L as N', 0.05, 0, 0.5, COMMON_PRACTICE, 'Nitrite at or below this reads as zero.'),
+  nitriteTraceN: spec('zero and rise', 'mg/L as N', 0.25 * NO2_TO_N, 0, 0.5, COMMON_PRACTICE,
+    'Once the cycle is proven, one test with nitrite up to this (about 0.25 ppm as NO2, the first colour step of common kits), ammonia at zero, that the next test shows gone does not undo it; a second within the proving days does. Before the proof any nitrite restarts the count.'),
   nitratePresentN: spec('zero and rise', 'mg/L as N', 0.5, 0, 20, COMMON_PRACTICE, 'Nitrate above this counts as present (about 2 ppm as NO3).'),
   riseN: spec('zero and rise', 'mg/L as N', 0.2, 0.05, 5, COMMON_PRACTICE, 'Ammonia or nitrite above this counts as a rise: the bacteria had something to work on.'),
   nitrateRiseN: spec('zero and rise', 'mg/L as N', 1, 0.1, 20, 'each mg/L of ammonia-N nitrified becomes 1 mg/L nitrate-N (stoichiometry); the step size is common practice, no published source',

@@ -127,6 +127,8 @@ export interface Thresholds {
   ammoniaZeroN: number
   /** Nitrite at or below this reads as zero. */
   nitriteZeroN: number
+  /** Once proven, one test with nitrite up to this, ammonia at zero, that the next test shows gone does not undo the completion. */
+  nitriteTraceN: number
   /** Nitrate above this counts as present. */
   nitratePresentN: number
   /** Ammonia or nitrite above this counts as a rise: evidence that the tank was fed and processed it. */

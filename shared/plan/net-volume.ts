@@ -4,7 +4,8 @@
  * build plan (the substrate stage's sand depth, the water-fill stage's rock weight).
  */
 
-import { tankShapeFrom, tankVolume, type TankDimensionsMm, type TankShapeKind } from '../calc/volume'
+import { tankShapeOf } from '../calc/tank-shape'
+import { tankVolume, type TankDimensionsMm } from '../calc/volume'
 
 /** What the net volume needs to know about a tank. */
 export interface NetVolumeTank {
@@ -25,18 +26,33 @@ const numberIn = (stages: readonly NetVolumeStage[], key: string, field: string)
   return typeof value === 'number' && Number.isFinite(value) && value > 0 ? value : 0
 }
 
+/** Net water and whether it came from the dimensions (false: the recorded volume stood in). */
+export interface NetWater {
+  litres: number
+  fromDimensions: boolean
+}
+
 /**
  * Net water volume, litres: the display tank net of sand (at its porosity) and rock, plus
- * the sump. When the stored dimensions are incomplete, the tank's recorded volume stands in.
+ * the sump. `extra` takes values being typed in place of the plan's saved ones. When the
+ * stored dimensions are incomplete, the tank's recorded volume stands in, and says so.
  */
-export function netWaterLitres(tank: NetVolumeTank, stages: readonly NetVolumeStage[], extra: { sandDepthMm?: number, rockKg?: number } = {}): number {
+export function netWater(tank: NetVolumeTank, stages: readonly NetVolumeStage[], extra: { sandDepthMm?: number, rockKg?: number } = {}): NetWater {
   const sandDepthMm = extra.sandDepthMm ?? numberIn(stages, 'substrate', 'depthMm')
   const rockKg = extra.rockKg ?? numberIn(stages, 'water-fill', 'rockKg')
-  try {
-    const shape = tankShapeFrom(tank.shape as TankShapeKind, tank.dimensions)
-    return tankVolume({ shape, sandDepthMm, rockKg }).netL + tank.sumpLitres
+  const shape = tankShapeOf(tank)
+  if (shape !== null) {
+    try {
+      return { litres: tankVolume({ shape, sandDepthMm, rockKg }).netL + tank.sumpLitres, fromDimensions: true }
+    }
+    catch {
+      // Non-positive dimensions: as incomplete.
+    }
   }
-  catch {
-    return tank.volumeLitres + tank.sumpLitres
-  }
+  return { litres: tank.volumeLitres + tank.sumpLitres, fromDimensions: false }
+}
+
+/** Net water volume in litres (see `netWater`): what salt, ammonia doses and water changes are worked out for. */
+export function netWaterLitres(tank: NetVolumeTank, stages: readonly NetVolumeStage[], extra: { sandDepthMm?: number, rockKg?: number } = {}): number {
+  return netWater(tank, stages, extra).litres
 }

@@ -6,6 +6,7 @@
  * POST /api/dev/worker-tick) and writes dangers into the demo tanks.
  */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import { DEFAULT_THRESHOLDS } from '../../shared/cycle/thresholds'
 import type { Verdict } from '../../shared/cycle/types'
 import { queryFile } from '../support/db-checksum'
 import { ApiClient } from '../support/http'
@@ -88,26 +89,41 @@ describe('a temperature danger with animals in', () => {
 
 describe('time alone', () => {
   it('changes a stored verdict when it is read after the verdict interval', async () => {
-    // The lounge reef cycles fishless with a test every evening; three days without one is overdue.
+    // While a tank cycles a test is expected at least every testIntervalHours (36 h by default,
+    // common practice, no published source): "overdue" is strictly more than that since the latest
+    // ammonia or nitrite test. The lounge reef cycles fishless in its nitrite stage; the client tests
+    // now, so the boundary is measured from a test of known time whatever the hour the suite runs.
+    expect(DEFAULT_THRESHOLDS.testIntervalHours).toBe(36)
     const tank = own.fixtures.demo.tanks.lounge
     const client = await as('client@tidewright.test')
+    const takenAt = minuteAgo(0.2)
+    expect((await client.post(`/api/tanks/${tank}/readings`, test(takenAt, { ammonia: 0, nitrite: 2 }))).status).toBe(201)
     const now = await client.get<VerdictView>(`/api/tanks/${tank}/verdict`)
     expect(now.body.verdict.findings.map(f => f.ruleId)).not.toContain('testing.overdue')
-
-    // Three days and an hour after the lounge's latest test, whatever the time of day the suite
-    // runs; signed in at that moment, as a session is judged by the request's clock too.
     const latest = queryFile<{ t: string }>(own.dbPath, 'select max(taken_at) as t from readings where tank_id = ?', tank)[0]!.t
-    const later = new Date(Math.max(Date.parse(latest) + 73 * HOUR, Date.now() + HOUR)).toISOString()
+    expect(latest).toBe(takenAt)
+
+    // Signed in at the moved clock, as a session is judged by the request's clock too.
+    const atHours = (hours: number) => new Date(Date.parse(takenAt) + hours * HOUR).toISOString()
     const then = new ApiClient(own.server.baseURL)
-    expect((await then.request('POST', '/api/auth/login', { email: 'client@tidewright.test', password: 'tidewright-demo' }, { [NOW_HEADER]: later })).status).toBe(200)
-    const read = await then.request<VerdictView>('GET', `/api/tanks/${tank}/verdict`, undefined, { [NOW_HEADER]: later })
+    expect((await then.request('POST', '/api/auth/login', { email: 'client@tidewright.test', password: 'tidewright-demo' }, { [NOW_HEADER]: atHours(35) })).status).toBe(200)
+    const readAt = (iso: string) => then.request<VerdictView>('GET', `/api/tanks/${tank}/verdict`, undefined, { [NOW_HEADER]: iso })
+
+    // 35 h after the test: not yet overdue, but the verdict is made again (older than the interval).
+    const early = await readAt(atHours(35))
+    expect(early.status).toBe(200)
+    expect(early.body.evaluatedAt).toBe(atHours(35))
+    expect(early.body.verdict.findings.map(f => f.ruleId)).not.toContain('testing.overdue')
+
+    // 37 h after it, with no new test: overdue, from time alone.
+    const later = atHours(37)
+    const read = await readAt(later)
     expect(read.status).toBe(200)
     expect(read.body.evaluatedAt).toBe(later)
     expect(read.body.verdict.findings.map(f => f.ruleId)).toContain('testing.overdue')
 
     // Within the interval the stored verdict stands: read again five minutes on, it is the same one.
-    const soon = new Date(Date.parse(later) + 5 * 60_000).toISOString()
-    const again = await then.request<VerdictView>('GET', `/api/tanks/${tank}/verdict`, undefined, { [NOW_HEADER]: soon })
+    const again = await readAt(new Date(Date.parse(later) + 5 * 60_000).toISOString())
     expect(again.body.evaluatedAt).toBe(later)
   })
 

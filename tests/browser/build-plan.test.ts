@@ -1,4 +1,4 @@
-import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest'
 import type { Browser, Page } from 'playwright-core'
 import sharp from 'sharp'
 import { launchBrowser, openPage, screenshot, signInThroughForm } from '../support/browser'
@@ -203,6 +203,29 @@ describe('building a tank through its plan', () => {
     expect(problems).toEqual([])
     await context.close()
   })
+
+  for (const width of [375, 1280]) {
+    it(`the salt for the fill and the ammonia dose work from one net-water figure (${width} px)`, async () => {
+      // The Quay Street nano is a 450 mm cube recorded by its length, as older records are.
+      const { page, context, problems } = await openPage(browser, width)
+      await signInThroughForm(page, 'aquarist@tidewright.test')
+      await page.goto(`/tanks/${inject('fixtures').demo.tanks.nano}`)
+      // Once the tank is filled the finished build plan is folded away.
+      await page.locator('summary', { hasText: 'Build plan' }).click()
+      const fill = await openStage(page, 'Water and fill')
+      const cycling = await openStage(page, 'Cycling')
+      const saltText = () => fill.getByText(/Net water [\d.]+ gal/).textContent()
+      await expect.poll(saltText).toMatch(/Net water [\d.]+ gal \(sump included, less sand and rock\)/)
+      const saltNet = (await saltText())!.match(/Net water ([\d.]+) gal/)![1]
+      await expect.poll(() => cycling.textContent()).toContain(`For ${saltNet} gal of water (sump included, less sand and rock)`)
+      // Rock typed here, not yet saved, comes off the salt's figure at once.
+      await fill.getByLabel(/Rock in the tank/).fill('40')
+      await expect.poll(async () => (await saltText())!.match(/Net water ([\d.]+) gal/)![1]).not.toBe(saltNet)
+      await screenshot(page, `tank-water-fill-${width}`)
+      expect(problems).toEqual([])
+      await context.close()
+    })
+  }
 
   it('an admin edits the company\'s plan template (375 px)', async () => {
     const { page, context, problems } = await openPage(browser, 375)

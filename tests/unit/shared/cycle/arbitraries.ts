@@ -19,7 +19,7 @@ const dayArb = fc.record({
   skip: fc.integer({ min: 0, max: 9 }),
   hour: fc.integer({ min: 6, max: 21 }),
   jitterA: mostly(0, 0.03, 0.1, 0.6),
-  jitterN: mostly(0, 0.04, 0.2, 1.2),
+  jitterN: mostly(0, 0.04, 0.07, 0.2, 1.2),
   missing: mostly('none', 'ammonia', 'nitrite', 'nitrate'),
   pH: fc.constantFrom(undefined, 7.6, 8.1, 8.3),
   temperatureC: mostly(25, undefined, 21, 30),

@@ -1,5 +1,6 @@
 import { describe, expect, it } from 'vitest'
 import { freeAmmonia } from '../../../../shared/chemistry/ammonia'
+import { toNitrogen } from '../../../../shared/chemistry/nitrogen'
 import { waterChangePercentToReach } from '../../../../shared/calc/water-change'
 import { evaluateCycle } from '../../../../shared/cycle/engine'
 import { DEFAULT_THRESHOLDS } from '../../../../shared/cycle/thresholds'
@@ -291,6 +292,23 @@ describe('a water change mid-cycle', () => {
   })
 })
 
+describe('routine water changes with animals in', () => {
+  // Weekly changes of 10-25 % are routine in a stocked tank (common practice, no published
+  // source). The animals' ammonia keeps coming after a change, so zero tests after it still show
+  // the bacteria keep up: the change is no reason to start the week of zero tests again, or a
+  // tank changed weekly could never finish.
+  it('does not restart the week of zero tests', () => {
+    const v = evaluateCycle(fishInWithSpike().waterChange(21, 60).input(25, 12))
+    expect(v.completedOn).toBe(at(25))
+    expect(ruleIds(v)).not.toContain('water-change.dilution')
+  })
+
+  it('still ends the week when a test after the change shows ammonia or nitrite', () => {
+    const v = evaluateCycle(fishInWithSpike().waterChange(21, 60).test(22, { ammoniaN: 0, nitriteN: 0.3, nitrateN: 1.3 }, 15).input(25, 12))
+    expect(v.completedOn).toBeNull()
+  })
+})
+
 describe('one small spike during a fish-in tank\'s week of zeros', () => {
   // Fish in, zero since day 18; one afternoon test on day 21 reads 0.25 ppm as NH3 after a
   // heavy feed and the next morning reads zero again. An aquarist keeps counting the week.
@@ -333,6 +351,89 @@ describe('one small spike after completion', () => {
     const silent = evaluateCycle(spiked().input(29, 12))
     expect(silent.completedOn).toBeNull()
     expect(ruleIds(silent)).toContain('cycle.lost')
+  })
+})
+
+describe('one trace of nitrite', () => {
+  // Nitrite 0.25 ppm as NO2 is 0.076 mg/L as N (IUPAC 1996 atomic weights, reference.md section 3): the
+  // first colour step of common kits, the step a client most often picks for a zero card.
+  // Decision (common practice, no published source): nitrite is the last thing a cycle clears, so
+  // before the cycle is proven any nitrite above zero restarts the count of zero tests; once it is
+  // proven, one trace the next test shows gone is a misread or a passing pulse and does not undo it.
+  const TRACE_N = toNitrogen(0.25, 'NO2')
+
+  it('restarts the week of zero tests before the cycle is proven', () => {
+    // Zero since day 18; a trace on day 21, gone on day 22. Seven days from day 22 is day 29, not 25.
+    const log = fishInWithSpike().test(21, { ammoniaN: 0, nitriteN: TRACE_N, nitrateN: 1.3 }, 15)
+    for (const day of [27, 28, 29]) log.test(day, { ammoniaN: 0, nitriteN: 0, nitrateN: 1.7 })
+    expect(evaluateCycle(log.input(25, 12)).completedOn).toBeNull()
+    expect(evaluateCycle(log.input(28, 12)).completedOn).toBeNull()
+    expect(evaluateCycle(log.input(29, 12)).completedOn).toBe(at(29))
+  })
+
+  it('does not undo a proven tank when the next test shows it gone', () => {
+    const traced = fishInWithSpike().test(27, { ammoniaN: 0, nitriteN: TRACE_N, nitrateN: 1.6 })
+    const waiting = evaluateCycle(traced.input(27, 12))
+    expect(waiting.phase).toBe('settling')
+    expect(waiting.completedOn).toBeNull()
+    expect(waiting.findings.find(f => f.ruleId === 'cycle.phase')?.message).toMatch(/proven complete on .*the completion stands/)
+    expect(Date.parse(waiting.actions.find(a => a.kind === 'retest')?.dueBy ?? '')).toBeLessThanOrEqual(Date.parse(at(28, 15)))
+    const v = evaluateCycle(traced.test(28, { ammoniaN: 0, nitriteN: 0, nitrateN: 1.7 }).input(28, 12))
+    expect(v.phase).toBe('complete')
+    expect(v.completedOn).toBe(at(25))
+    expect(v.readiness.fish.allowed).toBe(true)
+  })
+
+  it('loses the completion when nitrite is still there on the next test, or no test comes in time', () => {
+    const traced = () => fishInWithSpike().test(27, { ammoniaN: 0, nitriteN: TRACE_N, nitrateN: 1.6 })
+    const again = evaluateCycle(traced().test(28, { ammoniaN: 0, nitriteN: TRACE_N, nitrateN: 1.7 }).input(28, 12))
+    expect(again.completedOn).toBeNull()
+    expect(ruleIds(again)).toContain('cycle.lost')
+    const silent = evaluateCycle(traced().input(29, 12))
+    expect(silent.completedOn).toBeNull()
+    expect(ruleIds(silent)).toContain('cycle.lost')
+  })
+
+  it('loses it at once for more than a trace: 0.5 ppm as NO2 is a second colour step', () => {
+    const v = evaluateCycle(fishInWithSpike().test(27, { ammoniaN: 0, nitriteN: toNitrogen(0.5, 'NO2'), nitrateN: 1.6 }).input(27, 12))
+    expect(v.completedOn).toBeNull()
+    expect(ruleIds(v)).toContain('cycle.lost')
+  })
+
+  it('loses it when nitrite comes and goes: a second trace within the week is not a misread', () => {
+    const log = fishInWithSpike()
+      .test(27, { ammoniaN: 0, nitriteN: TRACE_N, nitrateN: 1.6 })
+      .test(28, { ammoniaN: 0, nitriteN: 0, nitrateN: 1.7 })
+      .test(29, { ammoniaN: 0, nitriteN: 0, nitrateN: 1.7 })
+      .test(30, { ammoniaN: 0, nitriteN: TRACE_N, nitrateN: 1.8 })
+      .test(31, { ammoniaN: 0, nitriteN: 0, nitrateN: 1.8 })
+    expect(evaluateCycle(log.input(29, 12)).completedOn).toBe(at(25))
+    const v = evaluateCycle(log.input(31, 12))
+    expect(v.completedOn).toBeNull()
+    expect(ruleIds(v)).toContain('cycle.lost')
+  })
+
+  it('excuses traces more than a week apart', () => {
+    const log = fishInWithSpike()
+    for (let day = 27; day <= 38; day += 1) log.test(day, { ammoniaN: 0, nitriteN: day === 27 || day === 35 ? TRACE_N : 0, nitrateN: 1.7 })
+    expect(evaluateCycle(log.input(38, 12)).completedOn).toBe(at(25))
+  })
+
+  it('keeps a trace with ammonia beside it, or a company limit of zero, from being excused', () => {
+    const both = evaluateCycle(fishInWithSpike().test(27, { ammoniaN: 0.21, nitriteN: TRACE_N, nitrateN: 1.6 }).test(28, { ammoniaN: 0, nitriteN: 0, nitrateN: 1.7 }).input(28, 12))
+    expect(both.completedOn).toBeNull()
+    const strict = fishInWithSpike().test(27, { ammoniaN: 0, nitriteN: TRACE_N, nitrateN: 1.6 }).test(28, { ammoniaN: 0, nitriteN: 0, nitrateN: 1.7 })
+    expect(evaluateCycle(strict.input(28, 12, { nitriteTraceN: 0 })).completedOn).toBeNull()
+  })
+
+  it('is no excuse in a fishless proof: a dose is cleared only when nitrite reads zero too', () => {
+    // The trade's clearance test: a full dose gone to zero ammonia AND zero nitrite within about a day.
+    const log = textbookFishless()
+    const morning = log.readings.find(r => r.id === 'r022-09')!
+    morning.nitriteN = TRACE_N
+    const v = evaluateCycle(log.input(23, 12))
+    expect(v.completedOn).toBeNull()
+    expect(ruleIds(v)).toContain('cycle.clearance-test')
   })
 })
 
