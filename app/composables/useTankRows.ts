@@ -1,3 +1,4 @@
+import { computed, ref, toValue, type MaybeRefOrGetter } from 'vue'
 import { tankDataKeys } from '~/utils/data-keys'
 import { apiErrorMessage } from '~/utils/api-error'
 
