@@ -25,7 +25,9 @@ export async function useTankRows<List extends { total: number }>(
     key: () => tankDataKeys[resource](toValue(tankId)),
     query,
   })
-  const pages = computed(() => Math.max(1, Math.ceil((data.value?.total ?? 0) / TANK_ROWS_PAGE_SIZE)))
+  // useFetch's picked-data type does not narrow inside a generic function; the list shape is known.
+  const total = computed(() => (data.value as { total?: number } | null | undefined)?.total ?? 0)
+  const pages = computed(() => Math.max(1, Math.ceil(total.value / TANK_ROWS_PAGE_SIZE)))
   /** What the last change did, or why it failed. */
   const message = ref('')
 
