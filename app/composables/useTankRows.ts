@@ -28,7 +28,10 @@ export async function useTankRows<List extends { total: number }>(
   /** What the last change did, or why it failed. */
   const message = ref('')
   const { changeRow, deleteRow } = rowChanger({
-    send: (rowId, request) => $fetch(`/api/tanks/${toValue(tankId)}/${resource}/${rowId}`, request),
+    send: (rowId, request) => {
+      const url: string = `/api/tanks/${toValue(tankId)}/${resource}/${rowId}`
+      return request.method === 'DELETE' ? $fetch(url, { method: 'DELETE' }) : $fetch(url, { method: 'PATCH', body: request.body })
+    },
     reload: refresh,
     onChanged,
     message,
