@@ -28,9 +28,10 @@ export async function useTankRows<List extends { total: number }>(
   /** What the last change did, or why it failed. */
   const message = ref('')
   const { changeRow, deleteRow } = rowChanger({
-    send: (rowId, request) => {
-      const url: string = `/api/tanks/${toValue(tankId)}/${resource}/${rowId}`
-      return request.method === 'DELETE' ? $fetch(url, { method: 'DELETE' }) : $fetch(url, { method: 'PATCH', body: request.body })
+    send: async (rowId, request) => {
+      const url = `/api/tanks/${toValue(tankId)}/${resource}/${rowId}`
+      if (request.method === 'DELETE') await $fetch(url, { method: 'DELETE' })
+      else await $fetch(url, { method: 'PATCH', body: request.body })
     },
     reload: refresh,
     onChanged,
