@@ -29,7 +29,7 @@ export async function useTankRows<List extends { total: number }>(
   const message = ref('')
   const { changeRow, deleteRow } = rowChanger({
     send: async (rowId, request) => {
-      const url = `/api/tanks/${toValue(tankId)}/${resource}/${rowId}`
+      const url: string = `/api/tanks/${toValue(tankId)}/${resource}/${rowId}`
       if (request.method === 'DELETE') await $fetch(url, { method: 'DELETE' })
       else await $fetch(url, { method: 'PATCH', body: request.body })
     },
