@@ -12,20 +12,9 @@ import { createServer as createHttpServer, type Server as HttpServer } from 'nod
 import { dirname, resolve } from 'node:path'
 import { pathToFileURL } from 'node:url'
 import { SMTPServer } from 'smtp-server'
+import type { CaughtMail } from '../shared/types/mail'
 
-/** One caught message as stored in the JSON-lines file. */
-export interface CaughtMail {
-  receivedAt: string
-  envelopeFrom: string
-  envelopeTo: string[]
-  messageId: string
-  from: string
-  to: string
-  subject: string
-  text: string
-  html: string | null
-  headers: Record<string, string>
-}
+export type { CaughtMail }
 
 function decodeQuotedPrintable(body: string): string {
   const bytes = body.replace(/=\r?\n/g, '').replace(/=([0-9A-F]{2})/gi, (_, hex: string) => String.fromCharCode(Number.parseInt(hex, 16)))

@@ -1,6 +1,6 @@
 import { existsSync, readFileSync } from 'node:fs'
 import { resolve } from 'node:path'
-import type { CaughtMail } from '../../../scripts/mail-catcher'
+import type { CaughtMail } from '#shared/types/mail'
 
 /**
  * GET /api/dev/mail — what the local mail catcher caught, newest first (admin only).
