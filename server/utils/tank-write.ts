@@ -2,7 +2,7 @@
 import { and, eq, isNull } from 'drizzle-orm'
 import type { TankDimensionsMm } from '#shared/calc/volume'
 import { tankVolumeFromDimensions } from '#shared/tanks/dimensions'
-import { SHAPE_DIMENSIONS } from '#shared/schemas/tanks'
+import type { SHAPE_DIMENSIONS } from '#shared/schemas/tanks'
 import { clients, sites, users } from '../db/schema'
 import type { Actor } from './access'
 import type { FieldIssue } from './validation'
