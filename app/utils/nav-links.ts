@@ -11,7 +11,8 @@ const STAFF: readonly Role[] = STAFF_ROLES
 
 /** The main navigation, one line per destination; each feature adds its own line. */
 export const NAV_LINKS: readonly NavLink[] = [
-  { to: '/', label: 'Tanks', roles: EVERYONE },
+  { to: '/', label: 'Today', roles: EVERYONE },
+  { to: '/tanks', label: 'Tanks', roles: STAFF },
   { to: '/clients', label: 'Clients', roles: STAFF },
   { to: '/plan-template', label: 'Plan template', roles: ['admin'] },
   { to: '/reviews', label: 'Reviews', roles: ['admin', 'supervisor'] },

@@ -5,6 +5,8 @@
 import { fromNitrogen } from '../../shared/chemistry/nitrogen'
 import { formatNumber, formatPercent } from '../../shared/cycle/words'
 import type { CycleAction, Finding } from '../../shared/cycle/types'
+import { nitrogenToKit, type KitBasisChoice } from '../../shared/readings/entry'
+import { inKitUnits } from '../../shared/readings/kit-words'
 import { celsiusToFahrenheit } from '../../shared/units'
 import type { UnitSystem } from '../../shared/vocabulary'
 
@@ -52,6 +54,18 @@ export function measuredLines(reading: MeasuredReading | null, units: UnitSystem
   return lines
 }
 
+const kitLabel = (basis: string) => (basis === 'N' ? 'as N' : `as ${basis}`)
+
+/** The values of a reading as the client's own kits read them (ppm as NH3, NO2, NO3 or as N). */
+export function kitMeasuredLines(reading: MeasuredReading | null, kit: KitBasisChoice, units: UnitSystem): string[] {
+  if (!reading) return []
+  const lines: string[] = []
+  if (reading.ammoniaN !== null) lines.push(`Ammonia ${formatNumber(nitrogenToKit(reading.ammoniaN, kit.ammonia))} ppm ${kitLabel(kit.ammonia)}`)
+  if (reading.nitriteN !== null) lines.push(`Nitrite ${formatNumber(nitrogenToKit(reading.nitriteN, kit.nitrite))} ppm ${kitLabel(kit.nitrite)}`)
+  if (reading.nitrateN !== null) lines.push(`Nitrate ${formatNumber(nitrogenToKit(reading.nitrateN, kit.nitrate))} ppm ${kitLabel(kit.nitrate)}`)
+  return [...lines, ...measuredLines({ ...reading, ammoniaN: null, nitriteN: null, nitrateN: null }, units)]
+}
+
 /** The suggested actions, the water change first with its percentage. */
 export function actionLines(actions: readonly CycleAction[]): string[] {
   return actions.slice(0, 3).map((a) => {
@@ -61,12 +75,11 @@ export function actionLines(actions: readonly CycleAction[]): string[] {
   })
 }
 
-function compose(subject: string, intro: string, input: AlertMailInput, closing: string): MailWords {
-  const measured = measuredLines(input.reading, input.units)
-  const todo = actionLines(input.actions)
+function compose(subject: string, intro: string, input: AlertMailInput, closing: string, measured = measuredLines(input.reading, input.units), words: AlertMailInput = input): MailWords {
+  const todo = actionLines(words.actions)
   const sections: [string, string[]][] = [
     [input.reading ? `What was measured (test of ${input.reading.takenAt.slice(0, 16).replace('T', ' ')} UTC)` : 'What was measured', measured.length ? measured : ['See the tank page for the readings.']],
-    ['What it means', [input.finding.message]],
+    ['What it means', [words.finding.message]],
     ['What to do', todo.length ? todo : ['Look at the tank\'s verdict and decide what to do.']],
   ]
   const text = [intro, '', ...sections.flatMap(([title, lines]) => [`${title}:`, ...lines.map(l => `- ${l}`), '']),
@@ -89,6 +102,17 @@ export function alertEscalatedMail(input: AlertMailInput & { minutes: number, aq
   return compose(`Unanswered danger alert on ${input.tankName}`,
     `The danger alert on ${input.tankName} has not been acknowledged for ${input.minutes} minutes${input.aquaristName ? ` by ${input.aquaristName}` : ''}.`, input,
     'Please make sure someone acts on it.')
+}
+
+/** The e-mail to the tank's own client: the same facts in their kit's units and plain instructions. */
+export function clientDangerMail(input: AlertMailInput & { kitBasis: KitBasisChoice }): MailWords {
+  const kitWords = (message: string) => inKitUnits(message, input.kitBasis, [input.reading?.ammoniaN, input.reading?.nitriteN, input.reading?.nitrateN])
+  const finding = { ...input.finding, message: kitWords(input.finding.message) }
+  const actions = input.actions.map(a => ({ ...a, message: kitWords(a.message) }))
+  return compose(`Your tank ${input.tankName} needs you now`,
+    `Your latest test on ${input.tankName} shows a danger to the animals. Please do the first step below as soon as you can.`, input,
+    'Your aquarist has been told too. After a water change, match the new water\'s temperature and salinity to the tank, test again and enter the result in Tidewright. If anything looks wrong, call your aquarist.',
+    kitMeasuredLines(input.reading, input.kitBasis, input.units), { ...input, finding, actions })
 }
 
 /** Plain words for an HTML body. */

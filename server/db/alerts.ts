@@ -7,7 +7,8 @@
  */
 import { and, eq, inArray, isNull, lte, ne } from 'drizzle-orm'
 import type { Finding, Verdict } from '../../shared/cycle/types'
-import { alertEscalatedMail, alertOpenedMail, plainHtml, type MeasuredReading } from './alert-mail'
+import { actionLines, alertEscalatedMail, alertOpenedMail, clientDangerMail, plainHtml, type MeasuredReading } from './alert-mail'
+import { inKitUnits } from '../../shared/readings/kit-words'
 import type { TidewrightDB } from './connection'
 import { writeNotice } from './notices'
 import { alerts, organisations, readings, tanks, users } from './schema'
@@ -40,6 +41,11 @@ function measuredReading(db: TidewrightDB, readingId: string | undefined | null)
     takenAt: readings.takenAt, ammoniaN: readings.ammoniaN, nitriteN: readings.nitriteN, nitrateN: readings.nitrateN,
     pH: readings.pH, temperatureC: readings.temperatureC, salinity: readings.salinity,
   }).from(readings).where(eq(readings.id, readingId)).get() ?? null
+}
+
+/** The sign-in accounts of the tank's own client: the people at the tank who must act. */
+function clientUsers(db: TidewrightDB, clientId: string) {
+  return db.select().from(users).where(and(eq(users.clientId, clientId), eq(users.role, 'client'), eq(users.active, true))).all()
 }
 
 function userRow(db: TidewrightDB, id: string | null) {
@@ -95,6 +101,19 @@ export function syncAlertsInDb(db: TidewrightDB, tankId: string, verdict: Verdic
           email: { ...words, messageId: `<alert-${row.id}-opened@mail.tidewright.invalid>` },
         }, now)
         result.notifiedUserIds.push(aquarist.id)
+      }
+      const measured = measuredReading(t, lastReadingId)
+      for (const client of clientUsers(t, tank.clientId)) {
+        const words = clientDangerMail({
+          tankName: tank.name, tankUrl: tankUrl(options.baseUrl, tankId), finding, actions: verdict.actions,
+          reading: measured, units: client.units, kitBasis: tank.kitBasis,
+        })
+        writeNotice(t, {
+          userId: client.id, organisationId: tank.organisationId, kind: 'tank-danger',
+          title: `Act now: ${tank.name}`, body: inKitUnits([finding.message, ...actionLines(verdict.actions).slice(0, 1)].join(' '), tank.kitBasis, [measured?.ammoniaN, measured?.nitriteN, measured?.nitrateN]), link: tankLink(tankId), alertId: row.id,
+          email: { ...words, messageId: `<alert-${row.id}-client-${client.id}@mail.tidewright.invalid>` },
+        }, now)
+        result.notifiedUserIds.push(client.id)
       }
     }
 

@@ -2,6 +2,8 @@
 import { and, asc, eq, inArray } from 'drizzle-orm'
 import * as v from 'valibot'
 import { DEFAULT_PLAN_TEMPLATE, type PlanTemplateStage } from '#shared/plan/default-template'
+import { stageGateIssues } from '#shared/plan/gates'
+import { surveyLoad } from '#shared/plan/survey-load'
 import { CustomStageDataSchema, STAGE_DATA_SCHEMAS, type StagePatch } from '#shared/schemas/plan'
 import type { PlanView, StageView, UploadView } from '#shared/types/plan'
 import { appliesTo, type TankTrigger } from '#shared/tanks/lifecycle'
@@ -107,8 +109,23 @@ export function mergeStageData(key: string, stored: Record<string, unknown>, inc
   return merged
 }
 
-/** The new row values for a stage change: ticks carry who and when, finishing carries who and when. */
-export function applyStagePatch(actor: Actor, stage: typeof planStages.$inferSelect, patch: StagePatch, now: Date) {
+/** A survey's structural-check acknowledgement carries who recorded it and when; clearing it clears both. */
+function stampStructuralCheck(actor: Actor, stored: Record<string, unknown>, data: Record<string, unknown>, now: Date): Record<string, unknown> {
+  if (data.structuralCheckDone === stored.structuralCheckDone && data.structuralCheckBy === stored.structuralCheckBy) return data
+  const { structuralCheckRecordedBy: _by, structuralCheckRecordedAt: _at, ...rest } = data
+  return rest.structuralCheckDone === true ? { ...rest, structuralCheckRecordedBy: actor.name, structuralCheckRecordedAt: now.toISOString() } : rest
+}
+
+/** Refuses (400, per field) a stage change its commissioning gate does not allow: a short leak test, an unacknowledged heavy floor load. */
+function enforceGates(tank: typeof tanks.$inferSelect, stage: typeof planStages.$inferSelect, data: Record<string, unknown>, closing: boolean, now: Date) {
+  const others = useDB().select({ key: planStages.key, data: planStages.data }).from(planStages).where(eq(planStages.tankId, tank.id)).all()
+  const stages = others.map(s => (s.key === stage.key ? { key: s.key, data } : s))
+  const issues = stageGateIssues(stage.key, data, closing, { now, surveyLoadRatio: surveyLoad(tank, stages)?.ratioToDesignLiveLoad ?? null })
+  if (issues.length) fieldError(issues)
+}
+
+/** The new row values for a stage change: ticks carry who and when, finishing carries who and when; gates are checked on the result. */
+export function applyStagePatch(actor: Actor, tank: typeof tanks.$inferSelect, stage: typeof planStages.$inferSelect, patch: StagePatch, now: Date) {
   const at = now.toISOString()
   const next: Partial<typeof planStages.$inferInsert> = {}
   if (patch.checklist) {
@@ -125,7 +142,7 @@ export function applyStagePatch(actor: Actor, stage: typeof planStages.$inferSel
     })
   }
   if (patch.notes !== undefined) next.notes = patch.notes?.trim() ? patch.notes : null
-  if (patch.data) next.data = mergeStageData(stage.key, stage.data, patch.data)
+  if (patch.data) next.data = stampStructuralCheck(actor, stage.data, mergeStageData(stage.key, stage.data, patch.data), now)
   if (patch.status && patch.status !== stage.status) {
     next.status = patch.status
     if (patch.status === 'done' || patch.status === 'skipped') {
@@ -142,6 +159,7 @@ export function applyStagePatch(actor: Actor, stage: typeof planStages.$inferSel
     if (!patch.skipReason?.trim()) throw createError({ statusCode: 400, statusMessage: 'Validation Error', data: { issues: [{ field: 'skipReason', message: 'Say why the stage is skipped.' }] } })
     next.skipReason = patch.skipReason.trim()
   }
+  if (next.data || next.status) enforceGates(tank, stage, next.data ?? stage.data, (next.status ?? stage.status) === 'done', now)
   return next
 }
 

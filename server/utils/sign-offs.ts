@@ -63,6 +63,7 @@ export function toSignOffRecord(row: SignOffRow, names: Map<string, string>): Si
     reopenedAt: row.reopenedAt,
     reopenedByName: nameOf(names, row.reopenedBy),
     reopenReason: row.reopenReason,
+    verificationCode: row.verificationCode,
   }
 }
 

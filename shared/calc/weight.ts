@@ -1,6 +1,7 @@
 /**
- * Filled weight of a tank and its footprint load, compared with the design live
- * load of the International Residential Code (Table R301.5). The comparison is
+ * Filled weight of a tank and its footprint load, compared with the uniform design live
+ * load of the room's occupancy (International Residential Code Table R301.5 for homes,
+ * International Building Code Table 1607.1 for offices and shops). The comparison is
  * information for the site survey, never a structural verdict.
  */
 
@@ -9,9 +10,23 @@ import { STANDARD_GRAVITY, assertFinite, assertPositive, knPerM2ToPsf } from '..
 import { sandBulkDensity } from './substrate'
 import { shapeGeometry, tankVolume, type VolumeInput } from './volume'
 
-/** IRC Table R301.5 uniform live loads, psf. */
-export const IRC_LIVE_LOAD_PSF = { 'living-area': 40, 'sleeping-room': 30 } as const
-export type RoomUse = keyof typeof IRC_LIVE_LOAD_PSF
+const IBC = 'IBC Table 1607.1 (from memory: confirm against the edition in force)'
+
+/**
+ * Uniformly distributed design live loads by occupancy, psf. Residential: IRC Table R301.5
+ * (sleeping rooms 30, other rooms 40). Offices 50, retail 75 on upper floors and 100 on the
+ * first floor: IBC Table 1607.1, from memory.
+ */
+export const DESIGN_LIVE_LOADS = {
+  'sleeping-room': { psf: 30, label: 'Home, sleeping room', code: 'IRC Table R301.5' },
+  'living-area': { psf: 40, label: 'Home, other rooms', code: 'IRC Table R301.5' },
+  'office': { psf: 50, label: 'Office', code: IBC },
+  'retail-upper': { psf: 75, label: 'Shop, upper floor', code: IBC },
+  'retail-first': { psf: 100, label: 'Shop, first floor', code: IBC },
+} as const
+export type RoomUse = keyof typeof DESIGN_LIVE_LOADS
+/** The occupancies, lightest design load first. */
+export const ROOM_USES = Object.keys(DESIGN_LIVE_LOADS) as RoomUse[]
 
 /** Shell materials, density g/cm3: soda-lime glass and cast acrylic (from memory). */
 export const SHELL_DENSITY_G_CM3 = { glass: 2.5, acrylic: 1.19 } as const
@@ -19,7 +34,7 @@ export type ShellMaterial = keyof typeof SHELL_DENSITY_G_CM3
 
 /** Shown with every footprint-load comparison. */
 export const LOAD_CAUTION
-  = 'This compares the average load under the footprint with the code\'s uniform design live load for the room. '
+  = 'This compares the average load under the footprint with the code\'s uniform design live load for the room\'s use. '
     + 'It is not a structural assessment: joist span and direction, point loads under the stand, other furniture and '
     + 'the condition of the floor all matter. Have a licensed structural engineer check the floor against local codes.'
 
@@ -79,7 +94,7 @@ export function filledWeight(input: WeightInput): WeightResult {
 
   const loadKnPerM2 = (totalKg * STANDARD_GRAVITY) / bearingAreaM2 / 1000
   const loadPsf = knPerM2ToPsf(loadKnPerM2)
-  const designLiveLoadPsf = IRC_LIVE_LOAD_PSF[input.roomUse ?? 'living-area']
+  const designLiveLoadPsf = DESIGN_LIVE_LOADS[input.roomUse ?? 'living-area'].psf
   const ratio = loadPsf / designLiveLoadPsf
   return {
     waterKg, shellKg, sandKg, rockKg, otherKg, totalKg,

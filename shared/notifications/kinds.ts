@@ -4,7 +4,7 @@
  * digest, which is e-mail only (it repeats what the tank page shows).
  */
 
-export type NoticeKind = 'alert-opened' | 'alert-escalated' | 'alert-resolved' | 'test-reminder' | 'tests-missed' | 'weekly-digest'
+export type NoticeKind = 'alert-opened' | 'alert-escalated' | 'alert-resolved' | 'tank-danger' | 'test-reminder' | 'tests-missed' | 'weekly-digest'
 
 export interface NoticeKindInfo {
   kind: NoticeKind
@@ -16,6 +16,7 @@ export interface NoticeKindInfo {
 export const NOTICE_KINDS: readonly NoticeKindInfo[] = [
   { kind: 'alert-opened', label: 'Danger alerts', description: 'A reading on one of your tanks crossed a danger threshold.' },
   { kind: 'alert-escalated', label: 'Escalated alerts', description: 'An alert on a tank you supervise was not acknowledged in time.' },
+  { kind: 'tank-danger', label: 'Danger on my tank', description: 'A test on your own tank shows a danger to the animals, with what to do.' },
   { kind: 'alert-resolved', label: 'Alerts cleared', description: 'A later reading cleared an alert.' },
   { kind: 'test-reminder', label: 'Test reminders', description: 'Today\'s water test has not been entered by the usual time.' },
   { kind: 'tests-missed', label: 'Missed tests', description: 'A client has missed several days of tests.' },

@@ -1,4 +1,5 @@
 import * as v from 'valibot'
+import { ROOM_USES } from '../calc/weight'
 import { STAGE_STATUSES } from '../vocabulary'
 
 const finite = (label: string, min: number, max: number) => v.optional(v.nullable(v.pipe(
@@ -11,10 +12,13 @@ const clock = (label: string) => v.optional(v.nullable(v.pipe(v.string(), v.rege
 /** The helper values each default stage keeps in its `data`; canonical units only. */
 export const STAGE_DATA_SCHEMAS = {
   'site-survey': v.strictObject({
-    roomUse: v.optional(v.nullable(v.picklist(['living-area', 'sleeping-room'], 'Living area or sleeping room.'))),
+    roomUse: v.optional(v.nullable(v.picklist(ROOM_USES, 'Choose how the room is used.'))),
     shellThicknessMm: finite('Glass or acrylic thickness', 1, 50),
     otherKg: finite('Stand and equipment weight', 0, 5000),
+    /** Kept for surveys recorded before the checklist carried the electrical item alone. */
     outletsProtected: v.optional(v.nullable(v.boolean('Yes or no.'))),
+    structuralCheckDone: v.optional(v.nullable(v.boolean('Yes or no.'))),
+    structuralCheckBy: v.optional(v.nullable(v.pipe(v.string('Who checked the floor?'), v.trim(), v.maxLength(120, 'At most 120 characters.')))),
   }, 'Unknown site-survey value.'),
   'leak-test': v.strictObject({
     startedAt: isoTime('Start'),

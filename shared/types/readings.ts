@@ -1,5 +1,5 @@
 /** API response shapes for readings, events, charts and verdicts. Values are canonical. */
-import type { CyclePhase, Verdict } from '../cycle/types'
+import type { CycleAction, CyclePhase, Finding, Verdict } from '../cycle/types'
 import type { RuleInfo } from '../cycle/registry'
 import type { CanonicalValues, EntryFlag, KitBasisChoice } from '../readings/entry'
 import type { EventKind, LivestockGroup } from '../vocabulary'
@@ -52,6 +52,10 @@ export interface ReadingSaved {
   reading: ReadingView
   flags: EntryFlag[]
   phase: CyclePhase | null
+  /** The verdict's danger and caution findings, danger first: what the person at the tank must see at once. */
+  findings: Finding[]
+  /** What to do next, as the verdict says it. */
+  actions: CycleAction[]
 }
 
 export interface EventView extends CorrectionTrail {

@@ -74,6 +74,8 @@ export interface SignOffRecord {
   reopenedAt: string | null
   reopenedByName: string | null
   reopenReason: string | null
+  /** The code printed on the certificate; null until approved. */
+  verificationCode: string | null
 }
 
 export interface SignOffRecordWithSnapshot extends SignOffRecord {

@@ -458,6 +458,8 @@ export const ACCESS_MATRIX: Record<string, MatrixEntry> = {
 
   // Alerts and notices
   'GET /api/alerts': { url: () => '/api/alerts', expect: staffList() },
+  // Attention board: every signed-in person sees it for the tanks they may see.
+  'GET /api/attention': { url: () => '/api/attention', expect: anySignedIn() },
   'POST /api/alerts/[id]/acknowledge': {
     url: c => `/api/alerts/${freshAlert(c)}/acknowledge`,
     body: () => ({ note: 'Seen by the access matrix' }),

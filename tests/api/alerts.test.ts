@@ -44,6 +44,7 @@ async function studyAlerts(api: ApiClient, status = ''): Promise<AlertView[]> {
 }
 
 const openedMail = (mail: CaughtMail[], alertId: string) => mail.filter(m => m.messageId === `<alert-${alertId}-opened@mail.tidewright.invalid>`)
+const clientMail = (mail: CaughtMail[], alertId: string) => mail.filter(m => m.messageId.startsWith(`<alert-${alertId}-client-`))
 const escalatedMail = (mail: CaughtMail[], alertId: string) => mail.filter(m => m.messageId.startsWith(`<alert-${alertId}-escalated-`))
 
 describe('GET /api/alerts', () => {
@@ -112,12 +113,31 @@ describe('alerts from readings', () => {
     expect(mine[0]!.text).toContain('What it means:')
     expect(mine[0]!.text).toMatch(/What to do:\n- Change \d+ % of the water/)
     expect(mine[0]!.text).toContain(`/tanks/${study}`)
-    // Nobody else heard of it: not the other aquarist, not the other company.
-    const aboutIt = mail.filter(m => m.messageId.includes(alertId))
-    expect(aboutIt.flatMap(m => m.envelopeTo)).toEqual(['aquarist2@tidewright.test'])
+    // Only the assigned aquarist and the tank's own client heard of it: not the other aquarist, not the other company.
+    const aboutIt = await waitForMail('client danger e-mail', all => clientMail(all, alertId).length > 0 && all.filter(m => m.messageId.includes(alertId)))
+    expect(aboutIt.flatMap(m => m.envelopeTo).sort()).toEqual(['aquarist2@tidewright.test', 'client3@tidewright.test'])
     // The aquarist switched the "cleared" e-mail off: the notice is in the app, not in the mail.
     expect(notices.items.some(n => n.kind === 'alert-resolved' && n.alertId === seeded!.id)).toBe(true)
     expect(mail.some(m => m.envelopeTo.includes('aquarist2@tidewright.test') && m.subject === 'Cleared: Fernhill study reef')).toBe(false)
+  })
+
+  it('tells the tank\'s own client too: a notice and an e-mail in their kit\'s units with plain instructions', async () => {
+    const client3 = await signedIn('client3@tidewright.test')
+    const notices = (await client3.get<NotificationList>('/api/notifications')).body
+    const notice = notices.items.find(n => n.alertId === alertId)
+    expect(notice).toMatchObject({ kind: 'tank-danger', title: 'Act now: Fernhill study reef', link: `/tanks/${study}` })
+    expect(notice!.body).toMatch(/Change \d+ % of the water/)
+    const [mail] = await waitForMail('client danger e-mail', all => clientMail(all, alertId).length > 0 && clientMail(all, alertId))
+    expect(mail!.envelopeTo).toEqual(['client3@tidewright.test'])
+    expect(mail!.subject).toBe('Your tank Fernhill study reef needs you now')
+    // The client's kit reads ammonia as NH3: the value as typed, not mg/L as N.
+    expect(mail!.text).toContain('Ammonia 1.5 ppm as NH3')
+    expect(mail!.text).not.toContain('mg/L as N')
+    expect(notice!.body).not.toContain('mg/L as N')
+    expect(mail!.text).toMatch(/What to do:\n- Change \d+ % of the water/)
+    // Other clients of the company hear nothing of it.
+    const client = await signedIn('client@tidewright.test')
+    expect((await client.get<NotificationList>('/api/notifications')).body.items.some(n => n.alertId === alertId)).toBe(false)
   })
 
   it('a second bad reading updates the open alert instead of opening another', async () => {

@@ -62,10 +62,33 @@ describe('sign-off, from request to certificate', () => {
     await page.waitForURL(new RegExp(`/reviews/${nano}`))
     await expect.poll(() => page.getByText('Photo added; ready again.').first().isVisible()).toBe(true)
     await screenshot(page, 'evidence-375')
+    // Evidence first, decision last, and nothing chosen for the supervisor.
+    const decision = page.getByRole('heading', { name: 'Your decision' })
+    const evidenceTop = await page.getByRole('heading', { name: 'The engine\'s verdict' }).boundingBox()
+    expect((await decision.boundingBox())!.y).toBeGreaterThan(evidenceTop!.y)
+    expect(await page.getByLabel('Approve and sign off').isChecked()).toBe(false)
+    expect(await page.getByLabel('Return to the aquarist').isChecked()).toBe(false)
+    await page.getByRole('button', { name: 'Choose a decision' }).click()
+    await expect.poll(() => page.getByText('Choose to sign off or to return the tank.').isVisible()).toBe(true)
+    // Choosing approve does not sign: a confirmation restates what is signed first.
     await page.getByLabel('Approve and sign off').check()
-    await page.getByRole('button', { name: 'Sign off', exact: true }).click()
+    await page.getByLabel('Note (optional)').fill('Clearance test convincing.')
+    await page.getByRole('button', { name: 'Review what you sign' }).click()
+    const confirm = page.getByRole('region', { name: 'You are signing' })
+    await expect.poll(() => confirm.isVisible()).toBe(true)
+    for (const words of ['Quay Street nano (Idris Quayle)', 'Cycle complete, rule set', 'No: the engine agrees', 'Clearance test convincing.']) {
+      expect(await confirm.textContent(), words).toContain(words)
+    }
+    await screenshot(page, 'sign-off-confirm-375')
+    expect(await page.getByText('Signed off', { exact: true }).count()).toBe(0)
+    await confirm.getByRole('button', { name: 'Confirm and sign off' }).click()
     await expect.poll(() => page.getByRole('heading', { name: 'Reopen the sign-off' }).isVisible()).toBe(true)
     await expect.poll(() => page.getByText('Signed off', { exact: true }).first().isVisible()).toBe(true)
+    // After signing: the certificate and the code to check it with.
+    const signed = page.getByRole('region', { name: 'Signed off' })
+    await expect.poll(() => signed.getByTestId('verification-code').textContent()).toMatch(/^TW(?:-[0-9A-Z]{4}){6}$/)
+    expect(await signed.getByRole('link', { name: 'Download the certificate (PDF)' }).getAttribute('href')).toBe(`/api/tanks/${nano}/certificate.pdf`)
+    await screenshot(page, 'sign-off-signed-375')
     // The signed record can only be corrected, with a reason, as a new linked entry.
     await page.getByRole('button', { name: /^Correct the reading of/ }).first().click()
     const form = page.getByRole('form', { name: /Correct the reading of/ })

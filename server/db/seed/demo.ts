@@ -32,12 +32,26 @@ function daysAgo(now: Date, days: number, hour = 9): Date {
   return d
 }
 
+/** What a finished stage records so that it meets its commissioning gate: a day-long leak test, a floor checked by an engineer. */
+function finishedData(key: string, byName: string, at: Date, roomUse: string): Record<string, unknown> {
+  const hoursBefore = (h: number) => new Date(at.getTime() - h * 3_600_000).toISOString()
+  if (key === 'leak-test') return { startedAt: hoursBefore(30), endedAt: hoursBefore(3), result: 'pass' }
+  if (key === 'site-survey') {
+    return {
+      roomUse, shellThicknessMm: 10, structuralCheckDone: true, structuralCheckBy: 'Oriel Pennington, Pennington Structural',
+      structuralCheckRecordedBy: byName, structuralCheckRecordedAt: hoursBefore(48),
+    }
+  }
+  return {}
+}
+
 /** Marks the first `done` stages of a tank's plan as finished by `by`. */
-function finishStages(rows: (typeof planStages.$inferInsert)[], done: number, by: string, at: Date) {
+function finishStages(rows: (typeof planStages.$inferInsert)[], done: number, by: string, at: Date, who = { name: 'Teodor Nakamura-Reyes', roomUse: 'living-area' }) {
   return rows.map((row, i) => i >= done
     ? (i === done ? { ...row, status: 'in-progress' as const } : row)
     : {
         ...row,
+        data: finishedData(row.key, who.name, at, who.roomUse),
         status: 'done' as const,
         completedBy: by,
         completedAt: new Date(at.getTime() + i * 3_600_000).toISOString(),
@@ -113,10 +127,10 @@ export async function seedDemo(db: TidewrightDB, now = new Date()): Promise<Demo
     }, { organisationId: orgId, status: 'cycling', cycleStartedAt: studyStart.toISOString(), usualTestHour: 8 })
 
     tx.insert(planStages).values([
-      ...finishStages(planStageRows(lobby, DEFAULT_PLAN_TEMPLATE), 1, ids.aquarist, daysAgo(now, 2)),
+      ...finishStages(planStageRows(lobby, DEFAULT_PLAN_TEMPLATE), 1, ids.aquarist, daysAgo(now, 2), { name: 'Teodor Nakamura-Reyes', roomUse: 'office' }),
       ...finishStages(planStageRows(lounge, DEFAULT_PLAN_TEMPLATE), 6, ids.aquarist, daysAgo(now, 15)),
       ...finishStages(planStageRows(nano, DEFAULT_PLAN_TEMPLATE), 7, ids.aquarist, daysAgo(now, 38)),
-      ...finishStages(planStageRows(study, DEFAULT_PLAN_TEMPLATE), 6, ids.aquarist2, daysAgo(now, 11)),
+      ...finishStages(planStageRows(study, DEFAULT_PLAN_TEMPLATE), 6, ids.aquarist2, daysAgo(now, 11), { name: 'Wren Castellanos', roomUse: 'living-area' }),
     ]).run()
 
     // Today's test counts only once it is at least an hour old: the demo never shows a test from the future.

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest'
 import fc from 'fast-check'
-import { IRC_LIVE_LOAD_PSF, LOAD_CAUTION, filledWeight, type WeightInput } from '../../../../shared/calc/weight'
+import { DESIGN_LIVE_LOADS, LOAD_CAUTION, filledWeight, type WeightInput } from '../../../../shared/calc/weight'
 import { seawaterDensity } from '../../../../shared/chemistry/seawater'
 import { STANDARD_GRAVITY, convertLength, kgToPounds, knPerM2ToPsf } from '../../../../shared/units'
 
@@ -40,9 +40,19 @@ describe('filled weight', () => {
 
 describe('footprint load compared with IRC Table R301.5', () => {
   it('uses 40 psf for living areas and 30 psf for sleeping rooms (IRC Table R301.5)', () => {
-    expect(IRC_LIVE_LOAD_PSF['living-area']).toBe(40)
-    expect(IRC_LIVE_LOAD_PSF['sleeping-room']).toBe(30)
+    expect(DESIGN_LIVE_LOADS['living-area'].psf).toBe(40)
+    expect(DESIGN_LIVE_LOADS['sleeping-room'].psf).toBe(30)
     expect(filledWeight({ ...base, roomUse: 'sleeping-room' }).designLiveLoadPsf).toBe(30)
+  })
+
+  it('offers offices at 50 psf and shops at 75 (upper floors) and 100 (first floor), IBC Table 1607.1, from memory', () => {
+    expect(Object.fromEntries(Object.entries(DESIGN_LIVE_LOADS).map(([k, v]) => [k, v.psf]))).toEqual({
+      'sleeping-room': 30, 'living-area': 40, 'office': 50, 'retail-upper': 75, 'retail-first': 100,
+    })
+    expect(DESIGN_LIVE_LOADS.office.code).toMatch(/^IBC Table 1607\.1 \(from memory/)
+    const w = filledWeight({ ...base, roomUse: 'retail-first' })
+    expect(w.designLiveLoadPsf).toBe(100)
+    expect(w.ratioToDesignLiveLoad).toBeCloseTo(filledWeight(base).ratioToDesignLiveLoad * 40 / 100, 12)
   })
 
   it('load is weight over bearing area, in kN/m2 and psf', () => {

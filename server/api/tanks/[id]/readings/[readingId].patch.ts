@@ -29,5 +29,5 @@ export default defineEventHandler(async (event): Promise<ReadingSaved> => {
     return updated
   })
   const verdict = onTankDataChanged(tank.id, { readingId: row.id, actor })
-  return { reading: toReadingView(row, userName(row.enteredBy ?? ''), actor, tank), flags: result.reading.flags, phase: verdict?.phase ?? null }
+  return { reading: toReadingView(row, userName(row.enteredBy ?? ''), actor, tank), flags: result.reading.flags, ...verdictOnSave(verdict) }
 })

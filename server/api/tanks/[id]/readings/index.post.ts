@@ -36,5 +36,5 @@ export default defineEventHandler(async (event): Promise<ReadingSaved> => {
   })
   const verdict = onTankDataChanged(tank.id, { readingId: row.id, actor })
   setResponseStatus(event, 201)
-  return { reading: toReadingView(row, actor.name, actor, tank), flags: result.reading.flags, phase: verdict?.phase ?? null }
+  return { reading: toReadingView(row, actor.name, actor, tank), flags: result.reading.flags, ...verdictOnSave(verdict) }
 })

@@ -6,6 +6,8 @@ import { recordAudit } from '../../../../domain/audit/record'
 /**
  * PATCH /api/tanks/:id/stages/:stageId — changes a stage's status, ticks, notes or helper values.
  * Starting a stage moves a planned tank to building; finishing the water fill starts the cycle.
+ * Commissioning gates refuse (400, per field) a leak test passed in under 24 h and a survey over
+ * the design floor load closed without a recorded structural check.
  * A stage finished in a signed-off record changes only after reopening (409). Returns the tank's PlanView.
  */
 export default defineEventHandler(async (event) => {
@@ -17,7 +19,7 @@ export default defineEventHandler(async (event) => {
   if (!stage) throw createError({ statusCode: 404, statusMessage: 'Stage not found' })
   assertStageUnsigned(tank.id, stage.key)
   const now = new Date()
-  const changes = applyStagePatch(actor, stage, patch, now)
+  const changes = applyStagePatch(actor, tank, stage, patch, now)
   const trigger = tankTriggerAfterStage(tank, stage.key, changes.status)
   const db = useDB()
   // The stage, the tank status it causes and their audit rows commit together.
