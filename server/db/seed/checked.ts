@@ -11,6 +11,9 @@ import { TankCreateSchema, type TankInput } from '../../../shared/schemas/tanks'
 import { toCanonicalReading, type CanonicalReading, type ReadingEntry } from '../../../shared/readings/entry'
 import { toCanonicalEvent, type CanonicalEvent } from '../../../shared/readings/events'
 import { tankVolumeFromDimensions } from '../../../shared/tanks/dimensions'
+import { stageGateIssues } from '../../../shared/plan/gates'
+import { surveyLoad, type SurveyLoadStage, type SurveyLoadTank } from '../../../shared/plan/survey-load'
+import { stageDataSchema } from '../../../shared/schemas/plan'
 
 interface Issue { field: string, message: string }
 
@@ -18,7 +21,7 @@ function refuse(what: string, issues: readonly Issue[]): never {
   throw new Error(`The demo ${what} breaks a field rule: ${issues.map(i => `${i.field}: ${i.message}`).join('; ')}`)
 }
 
-function parsed<const S extends v.GenericSchema>(schema: S, value: v.InferInput<S>, what: string): v.InferOutput<S> {
+function parsed<const S extends v.GenericSchema>(schema: S, value: unknown, what: string): v.InferOutput<S> {
   const result = v.safeParse(schema, value)
   if (!result.success) refuse(what, result.issues.map(i => ({ field: v.getDotPath(i) ?? what, message: i.message })))
   return result.output
@@ -55,4 +58,27 @@ export function checkedClient(input: v.InferInput<typeof ClientCreateSchema>): C
 /** A site as the site form would store it. */
 export function checkedSite(input: v.InferInput<typeof SiteCreateSchema>): SiteInput {
   return parsed(SiteCreateSchema, input, `site "${input.label}"`)
+}
+
+/** Values the server stamps on a stage itself (who recorded a structural check, and when), never typed into the form. */
+const SERVER_STAMPED_STAGE_VALUES = new Set(['structuralCheckRecordedBy', 'structuralCheckRecordedAt'])
+
+/**
+ * A finished or open stage's helper values as the stage form and its commissioning gate would
+ * take them: the typed values against the stage's schema, then the gate (a leak test that
+ * stood 24 h, a heavy floor's structural check) with the tank's facts and the plan's stages.
+ */
+export function checkedStageData(
+  key: string,
+  data: Record<string, unknown>,
+  context: { closing: boolean, now: Date, tank: SurveyLoadTank, stages: readonly SurveyLoadStage[] },
+): Record<string, unknown> {
+  const what = `${key} stage`
+  const typed = Object.fromEntries(Object.entries(data).filter(([name]) => !SERVER_STAMPED_STAGE_VALUES.has(name)))
+  parsed(stageDataSchema(key), typed, what)
+  const stages = context.stages.map(stage => (stage.key === key ? { key, data } : stage))
+  const loadRatio = surveyLoad(context.tank, stages)?.ratioToDesignLiveLoad ?? null
+  const issues = stageGateIssues(key, data, context.closing, { now: context.now, surveyLoadRatio: loadRatio })
+  if (issues.length) refuse(what, issues)
+  return data
 }

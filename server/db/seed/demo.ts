@@ -11,7 +11,8 @@ import { computeAndStoreVerdict } from '../verdicts'
 import { clients, events, organisations, planStages, readings, signOffs, sites, tanks, users } from '../schema'
 import type { SimulationPlan } from '../../../shared/cycle/simulate'
 import { demoHistory, loungePlan, nanoPlan, simulate, studyPlan } from './histories'
-import { checkedClient, checkedEvent, checkedSite, checkedTank } from './checked'
+import { checkedClient, checkedEvent, checkedSite, checkedStageData, checkedTank } from './checked'
+import type { SurveyLoadTank } from '../../../shared/plan/survey-load'
 import { eventColumns } from '../../domain/readings/columns'
 import { hashPasswordOffline } from './password'
 import type { CycleEventKind, Role, UnitSystem } from '../../../shared/vocabulary'
@@ -97,7 +98,12 @@ export async function seedDemo(db: TidewrightDB, now = new Date()): Promise<Demo
     // The form's fields go through the tank form's rules, and the volume is the one the server computes from the dimensions.
     type TankForm = Parameters<typeof checkedTank>[0]
     type TankExtras = Omit<typeof tanks.$inferInsert, keyof TankForm | 'volumeLitres'>
-    const tank = (form: TankForm, extras: TankExtras) => tx.insert(tanks).values({ ...extras, ...checkedTank(form) }).returning().get().id
+    const facts = new Map<string, SurveyLoadTank>()
+    const tank = (form: TankForm, extras: TankExtras) => {
+      const row = tx.insert(tanks).values({ ...extras, ...checkedTank(form) }).returning().get()
+      facts.set(row.id, row)
+      return row.id
+    }
     const lobby = tank({
       clientId: lowe, siteId: lowePractice, name: 'Harbour Parade lobby reef',
       shape: 'rectangular', dimensions: { lengthMm: 1500, widthMm: 600, heightMm: 600 }, sumpLitres: 120,
@@ -126,11 +132,18 @@ export async function seedDemo(db: TidewrightDB, now = new Date()): Promise<Demo
       aquaristId: ids.aquarist2, supervisorId: ids.supervisor,
     }, { organisationId: orgId, status: 'cycling', cycleStartedAt: studyStart.toISOString(), usualTestHour: 8 })
 
+    // Each stage's values pass the stage form and its commissioning gate, as if entered through them.
+    const plan = (tankId: string, rows: (typeof planStages.$inferInsert)[]) => rows.map(row => ({
+      ...row,
+      data: checkedStageData(row.key, row.data ?? {}, {
+        closing: row.status === 'done', now, tank: facts.get(tankId)!, stages: rows.map(r => ({ key: r.key, data: r.data ?? {} })),
+      }),
+    }))
     tx.insert(planStages).values([
-      ...finishStages(planStageRows(lobby, DEFAULT_PLAN_TEMPLATE), 1, ids.aquarist, daysAgo(now, 2), { name: 'Teodor Nakamura-Reyes', roomUse: 'office' }),
-      ...finishStages(planStageRows(lounge, DEFAULT_PLAN_TEMPLATE), 6, ids.aquarist, daysAgo(now, 15)),
-      ...finishStages(planStageRows(nano, DEFAULT_PLAN_TEMPLATE), 7, ids.aquarist, daysAgo(now, 38)),
-      ...finishStages(planStageRows(study, DEFAULT_PLAN_TEMPLATE), 6, ids.aquarist2, daysAgo(now, 11), { name: 'Wren Castellanos', roomUse: 'living-area' }),
+      ...plan(lobby, finishStages(planStageRows(lobby, DEFAULT_PLAN_TEMPLATE), 1, ids.aquarist, daysAgo(now, 2), { name: 'Teodor Nakamura-Reyes', roomUse: 'office' })),
+      ...plan(lounge, finishStages(planStageRows(lounge, DEFAULT_PLAN_TEMPLATE), 6, ids.aquarist, daysAgo(now, 15))),
+      ...plan(nano, finishStages(planStageRows(nano, DEFAULT_PLAN_TEMPLATE), 7, ids.aquarist, daysAgo(now, 38))),
+      ...plan(study, finishStages(planStageRows(study, DEFAULT_PLAN_TEMPLATE), 6, ids.aquarist2, daysAgo(now, 11), { name: 'Wren Castellanos', roomUse: 'living-area' })),
     ]).run()
 
     // Today's test counts only once it is at least an hour old: the demo never shows a test from the future.

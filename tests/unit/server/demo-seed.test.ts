@@ -3,9 +3,9 @@ import { tmpdir } from 'node:os'
 import { join } from 'node:path'
 import { afterAll, describe, expect, it } from 'vitest'
 import { migrateDatabase, openDatabase } from '../../../server/db/connection'
-import { events, readings, tanks } from '../../../server/db/schema'
+import { events, planStages, readings, tanks } from '../../../server/db/schema'
 import { seedDemo } from '../../../server/db/seed/demo'
-import { checkedTank } from '../../../server/db/seed/checked'
+import { checkedStageData, checkedTank } from '../../../server/db/seed/checked'
 import { demoHistory, loungePlan, simulate, studyPlan } from '../../../server/db/seed/histories'
 import { toCanonicalEvent, MAX_DOSE_N } from '../../../shared/readings/events'
 import { entryFromStored, toCanonicalReading } from '../../../shared/readings/entry'
@@ -49,6 +49,18 @@ describe('the demo seed keeps the rules the forms keep', () => {
     expect(() => checkedTank({ name: 'Bow', clientId: crypto.randomUUID(), shape: 'bow-front', dimensions: { lengthMm: 1000, widthMm: 400, heightMm: 500 } })).toThrow(/bowDepthMm/)
   })
 
+  it('refuses demo stage values the stage form or its commissioning gate would refuse', () => {
+    const tank = { shape: 'cube', dimensions: { sideMm: 450 }, material: 'glass' as const, sumpLitres: 0 }
+    const at = new Date('2026-11-20T09:00:00.000Z')
+    const hoursBefore = (h: number) => new Date(at.getTime() - h * 3_600_000).toISOString()
+    expect(() => checkedStageData('leak-test', { startedAt: hoursBefore(5), endedAt: hoursBefore(3), result: 'pass' }, { closing: true, now, tank, stages: [] })).toThrow(/data.endedAt: A leak test stands at least 24 h/)
+    expect(() => checkedStageData('substrate', { depthMm: 900 }, { closing: true, now, tank, stages: [] })).toThrow(/depthMm: Sand depth is at most 300/)
+    expect(() => checkedStageData('site-survey', { roomUse: 'office', shellThicknessMm: 10, colour: 'blue' }, { closing: true, now, tank, stages: [] })).toThrow(/Unknown site-survey value/)
+    // Who recorded the structural check is stamped by the server, not typed: it passes.
+    expect(checkedStageData('site-survey', { roomUse: 'office', structuralCheckDone: true, structuralCheckBy: 'A. Engineer', structuralCheckRecordedBy: 'Teodor', structuralCheckRecordedAt: hoursBefore(48) }, { closing: true, now, tank, stages: [] }))
+      .toMatchObject({ structuralCheckRecordedBy: 'Teodor' })
+  })
+
   it('stores what the forms would store: every seeded test and event reads back through the same rules unchanged', async () => {
     const db = openDatabase(join(dir, 'demo-rules.sqlite'))
     migrateDatabase(db)
@@ -66,6 +78,11 @@ describe('the demo seed keeps the rules the forms keep', () => {
       const again = toCanonicalEvent({ at: row.at, kind: row.kind, amount: row.amount, doseBasis: 'N', volumeUnit: 'L', group: row.group, notes: row.notes }, now)
       expect(again.ok, `${row.kind} at ${row.at}`).toBe(true)
       expect((row.notes ?? '').length).toBeLessThanOrEqual(ENTRY_NOTES_MAX)
+    }
+    for (const stage of db.select().from(planStages).all()) {
+      const tank = db.select().from(tanks).all().find(t => t.id === stage.tankId)!
+      const stages = db.select().from(planStages).all().filter(s => s.tankId === stage.tankId)
+      expect(() => checkedStageData(stage.key, stage.data, { closing: stage.status === 'done', now, tank, stages }), `${tank.name}: ${stage.key}`).not.toThrow()
     }
     // The server computes a tank's volume from its dimensions; the demo's volumes are that same figure.
     for (const tank of db.select().from(tanks).all()) {
