@@ -35,11 +35,11 @@ describe('signed-in devices', () => {
     const list = page.getByRole('list', { name: 'Where you are signed in' })
     await expect.poll(() => list.getByRole('listitem').count()).toBe(2)
     await expect.poll(() => list.getByRole('listitem').filter({ hasText: 'This browser' }).count()).toBe(1)
-    const phoneRow = list.getByRole('listitem').filter({ hasText: 'Safari on iPhone' })
+    const phoneRow = list.getByRole('listitem').filter({ hasText: 'Safari on iOS' })
     await expect.poll(() => phoneRow.isVisible()).toBe(true)
     await screenshot(page, 'sessions-1280')
     await phoneRow.getByRole('button', { name: /Sign out/ }).click()
-    await expect.poll(() => page.getByRole('status').filter({ hasText: 'Safari on iPhone is signed out.' }).count()).toBe(1)
+    await expect.poll(() => page.getByRole('status').filter({ hasText: 'Safari on iOS is signed out.' }).count()).toBe(1)
     await expect.poll(() => list.getByRole('listitem').count()).toBe(1)
     expect((await other.get('/api/me')).status).toBe(401)
     // This browser is still signed in.
