@@ -42,8 +42,10 @@ describe('signed-in devices', () => {
     await expect.poll(() => page.getByRole('status').filter({ hasText: 'Safari on iOS is signed out.' }).count()).toBe(1)
     await expect.poll(() => list.getByRole('listitem').count()).toBe(1)
     expect((await other.get('/api/me')).status).toBe(401)
-    // This browser is still signed in.
-    expect((await page.request.get('/api/me')).status()).toBe(200)
+    // This browser is still signed in: the page reloads with its own session listed.
+    await page.reload()
+    await expect.poll(() => list.getByRole('listitem').filter({ hasText: 'This browser' }).count()).toBe(1)
+    expect(await page.evaluate(() => fetch('/api/me').then(r => r.status))).toBe(200)
     expect(problems).toEqual([])
     await context.close()
   })
