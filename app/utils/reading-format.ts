@@ -1,3 +1,4 @@
+import { formatMoment } from '#shared/readings/reader-words'
 import type { KitBasisChoice } from '#shared/readings/entry'
 import { nitrogenToKit, temperatureFromC } from '#shared/readings/entry'
 import type { UnitSystem } from '#shared/vocabulary'
@@ -19,10 +20,10 @@ export function showTemperature(valueC: number | null, units: UnitSystem): strin
   return valueC === null ? '—' : `${roundReading(temperatureFromC(valueC, units === 'us' ? 'F' : 'C'), 1)} °${units === 'us' ? 'F' : 'C'}`
 }
 
-/** Date and time in the reader's locale, short. */
+/** Date and time on the reader's clock, short: the same format as moments inside engine texts. */
 export function formatTestTime(iso: string | null | undefined): string {
   if (!iso) return '—'
-  return new Date(iso).toLocaleString(undefined, { day: 'numeric', month: 'short', hour: '2-digit', minute: '2-digit' })
+  return formatMoment(Date.parse(iso))
 }
 
 /** A Date as the value of an <input type="datetime-local"> in local time. */

@@ -6,7 +6,7 @@ import { fromNitrogen } from '../../shared/chemistry/nitrogen'
 import { formatNumber, formatPercent } from '../../shared/cycle/words'
 import type { CycleAction, Finding } from '../../shared/cycle/types'
 import { nitrogenToKit, type KitBasisChoice } from '../../shared/readings/entry'
-import { inKitUnits } from '../../shared/readings/kit-words'
+import { formatMoment, forReader, type Reader } from '../../shared/readings/reader-words'
 import { celsiusToFahrenheit } from '../../shared/units'
 import type { UnitSystem } from '../../shared/vocabulary'
 
@@ -27,6 +27,8 @@ export interface AlertMailInput {
   actions: readonly CycleAction[]
   reading: MeasuredReading | null
   units: UnitSystem
+  /** The company's time zone: every moment in the mail reads on its clock. */
+  timeZone: string
 }
 
 export interface MailWords {
@@ -75,11 +77,18 @@ export function actionLines(actions: readonly CycleAction[]): string[] {
   })
 }
 
-function compose(subject: string, intro: string, input: AlertMailInput, closing: string, measured = measuredLines(input.reading, input.units), words: AlertMailInput = input): MailWords {
-  const todo = actionLines(words.actions)
+/** The reader of a mail: their units, the company's clock and, for a client, their kits. */
+export function mailReader(input: Pick<AlertMailInput, 'units' | 'timeZone' | 'reading'>, kitBasis?: KitBasisChoice): Reader {
+  const exactN = [input.reading?.ammoniaN, input.reading?.nitriteN, input.reading?.nitrateN]
+  return { units: input.units, when: ms => formatMoment(ms, input.timeZone), kit: kitBasis ? { basis: kitBasis, exactN } : undefined }
+}
+
+function compose(subject: string, intro: string, input: AlertMailInput, closing: string, measured = measuredLines(input.reading, input.units), reader = mailReader(input)): MailWords {
+  const words = (message: string) => forReader(message, reader)
+  const todo = actionLines(input.actions).map(words)
   const sections: [string, string[]][] = [
-    [input.reading ? `What was measured (test of ${input.reading.takenAt.slice(0, 16).replace('T', ' ')} UTC)` : 'What was measured', measured.length ? measured : ['See the tank page for the readings.']],
-    ['What it means', [words.finding.message]],
+    [input.reading ? `What was measured (test of ${reader.when(Date.parse(input.reading.takenAt))})` : 'What was measured', measured.length ? measured : ['See the tank page for the readings.']],
+    ['What it means', [words(input.finding.message)]],
     ['What to do', todo.length ? todo : ['Look at the tank\'s verdict and decide what to do.']],
   ]
   const text = [intro, '', ...sections.flatMap(([title, lines]) => [`${title}:`, ...lines.map(l => `- ${l}`), '']),
@@ -106,13 +115,10 @@ export function alertEscalatedMail(input: AlertMailInput & { minutes: number, aq
 
 /** The e-mail to the tank's own client: the same facts in their kit's units and plain instructions. */
 export function clientDangerMail(input: AlertMailInput & { kitBasis: KitBasisChoice }): MailWords {
-  const kitWords = (message: string) => inKitUnits(message, input.kitBasis, [input.reading?.ammoniaN, input.reading?.nitriteN, input.reading?.nitrateN])
-  const finding = { ...input.finding, message: kitWords(input.finding.message) }
-  const actions = input.actions.map(a => ({ ...a, message: kitWords(a.message) }))
   return compose(`Your tank ${input.tankName} needs you now`,
     `Your latest test on ${input.tankName} shows a danger to the animals. Please do the first step below as soon as you can.`, input,
     'Your aquarist has been told too. After a water change, match the new water\'s temperature and salinity to the tank, test again and enter the result in Tidewright. If anything looks wrong, call your aquarist.',
-    kitMeasuredLines(input.reading, input.kitBasis, input.units), { ...input, finding, actions })
+    kitMeasuredLines(input.reading, input.kitBasis, input.units), mailReader(input, input.kitBasis))
 }
 
 /** Plain words for an HTML body. */

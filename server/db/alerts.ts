@@ -7,8 +7,8 @@
  */
 import { and, eq, inArray, isNull, lte, ne } from 'drizzle-orm'
 import type { Finding, Verdict } from '../../shared/cycle/types'
-import { actionLines, alertEscalatedMail, alertOpenedMail, clientDangerMail, plainHtml, type MeasuredReading } from './alert-mail'
-import { inKitUnits } from '../../shared/readings/kit-words'
+import { actionLines, alertEscalatedMail, alertOpenedMail, clientDangerMail, mailReader, plainHtml, type MeasuredReading } from './alert-mail'
+import { forReader } from '../../shared/readings/reader-words'
 import type { TidewrightDB } from './connection'
 import { writeNotice } from './notices'
 import { alerts, organisations, readings, tanks, users } from './schema'
@@ -71,6 +71,7 @@ export function syncAlertsInDb(db: TidewrightDB, tankId: string, verdict: Verdic
     const current = t.select().from(alerts).where(and(eq(alerts.tankId, tankId), ne(alerts.status, 'resolved'))).all()
     const byKind = new Map(current.map(a => [a.kind, a]))
     const aquarist = userRow(t, tank.aquaristId)
+    const { timeZone } = readOrganisationSettings(t, tank.organisationId)
 
     for (const [kind, finding] of dangers) {
       const lastReadingId = findingReading(finding, options.readingId) ?? null
@@ -93,11 +94,11 @@ export function syncAlertsInDb(db: TidewrightDB, tankId: string, verdict: Verdic
       if (aquarist?.active) {
         const words = alertOpenedMail({
           tankName: tank.name, tankUrl: tankUrl(options.baseUrl, tankId), finding, actions: verdict.actions,
-          reading: measuredReading(t, lastReadingId), units: aquarist.units,
+          reading: measuredReading(t, lastReadingId), units: aquarist.units, timeZone,
         })
         writeNotice(t, {
           userId: aquarist.id, organisationId: tank.organisationId, kind: 'alert-opened', assignedAquarist: true,
-          title: `Danger on ${tank.name}`, body: finding.message, link: tankLink(tankId), alertId: row.id,
+          title: `Danger on ${tank.name}`, body: forReader(finding.message, mailReader({ units: aquarist.units, timeZone, reading: null })), link: tankLink(tankId), alertId: row.id,
           email: { ...words, messageId: `<alert-${row.id}-opened@mail.tidewright.invalid>` },
         }, now)
         result.notifiedUserIds.push(aquarist.id)
@@ -106,11 +107,11 @@ export function syncAlertsInDb(db: TidewrightDB, tankId: string, verdict: Verdic
       for (const client of clientUsers(t, tank.clientId)) {
         const words = clientDangerMail({
           tankName: tank.name, tankUrl: tankUrl(options.baseUrl, tankId), finding, actions: verdict.actions,
-          reading: measured, units: client.units, kitBasis: tank.kitBasis,
+          reading: measured, units: client.units, kitBasis: tank.kitBasis, timeZone,
         })
         writeNotice(t, {
           userId: client.id, organisationId: tank.organisationId, kind: 'tank-danger',
-          title: `Act now: ${tank.name}`, body: inKitUnits([finding.message, ...actionLines(verdict.actions).slice(0, 1)].join(' '), tank.kitBasis, [measured?.ammoniaN, measured?.nitriteN, measured?.nitrateN]), link: tankLink(tankId), alertId: row.id,
+          title: `Act now: ${tank.name}`, body: forReader([finding.message, ...actionLines(verdict.actions).slice(0, 1)].join(' '), mailReader({ units: client.units, timeZone, reading: measured }, tank.kitBasis)), link: tankLink(tankId), alertId: row.id,
           email: { ...words, messageId: `<alert-${row.id}-client-${client.id}@mail.tidewright.invalid>` },
         }, now)
         result.notifiedUserIds.push(client.id)
@@ -164,7 +165,7 @@ export function escalateDueAlerts(db: TidewrightDB, now: Date, baseUrl: string):
   const out = { escalated: [] as AlertRow[], notifiedUserIds: [] as string[] }
   const orgs = db.select({ id: organisations.id }).from(organisations).all()
   for (const org of orgs) {
-    const minutes = readOrganisationSettings(db, org.id).escalationMinutes
+    const { escalationMinutes: minutes, timeZone } = readOrganisationSettings(db, org.id)
     const due = new Date(now.getTime() - minutes * 60_000).toISOString()
     const candidates = db.select().from(alerts).where(and(
       eq(alerts.organisationId, org.id), eq(alerts.status, 'open'), isNull(alerts.escalatedAt), lte(alerts.openedAt, due),
@@ -188,11 +189,11 @@ export function escalateDueAlerts(db: TidewrightDB, now: Date, baseUrl: string):
           if (!user) continue
           const words = alertEscalatedMail({
             tankName: tank.name, tankUrl: tankUrl(baseUrl, tank.id), finding: { message: alert.message, ruleId: alert.kind },
-            actions, reading: measuredReading(t, alert.lastReadingId), units: user.units, minutes, aquaristName,
+            actions, reading: measuredReading(t, alert.lastReadingId), units: user.units, timeZone, minutes, aquaristName,
           })
           writeNotice(t, {
             userId: user.id, organisationId: org.id, kind: 'alert-escalated', title: `Unanswered alert on ${tank.name}`,
-            body: alert.message, link: tankLink(tank.id), alertId: alert.id,
+            body: forReader(alert.message, mailReader({ units: user.units, timeZone, reading: null })), link: tankLink(tank.id), alertId: alert.id,
             email: { ...words, messageId: `<alert-${alert.id}-escalated-${user.id}@mail.tidewright.invalid>` },
           }, now)
           out.notifiedUserIds.push(user.id)

@@ -135,6 +135,12 @@ describe('alerts from readings', () => {
     expect(mail!.text).not.toContain('mg/L as N')
     expect(notice!.body).not.toContain('mg/L as N')
     expect(mail!.text).toMatch(/What to do:\n- Change \d+ % of the water/)
+    // Fenella reads US units: no litres or degrees Celsius, and moments on the company's clock, not the engine's UTC.
+    for (const words of [notice!.body, mail!.text]) {
+      expect(words).not.toMatch(/\d L\b|\d C\b|°C/)
+      expect(words).not.toMatch(/\d{2}:\d{2} UTC/)
+    }
+    expect(notice!.body).toMatch(/about [\d.]+ gal/)
     // Other clients of the company hear nothing of it.
     const client = await signedIn('client@tidewright.test')
     expect((await client.get<NotificationList>('/api/notifications')).body.items.some(n => n.alertId === alertId)).toBe(false)

@@ -1,0 +1,42 @@
+import { describe, expect, it } from 'vitest'
+import { formatMoment, forReader } from '../../../../shared/readings/reader-words'
+
+const KIT = { ammonia: 'NH3', nitrite: 'NO2', nitrate: 'NO3' } as const
+const utcClock = (ms: number) => formatMoment(ms, 'UTC')
+
+// Conversion factors: NIST SP 811 (1 US gallon = 3.785411784 L; °F = °C × 9/5 + 32).
+describe('forReader: an engine message in the reader\'s own units, clock and kit', () => {
+  const danger = 'Free (toxic) ammonia is 0.05 mg/L as N at pH 8.1, 25.2 C, salinity 34.8. Change 50 % of the water (about 101 L) now.'
+
+  it('a US reader gets Fahrenheit and US gallons, a metric reader degrees Celsius and litres', () => {
+    expect(forReader(danger, { units: 'us', when: utcClock })).toBe(
+      'Free (toxic) ammonia is 0.05 mg/L as N at pH 8.1, 77.4 °F, salinity 34.8. Change 50 % of the water (about 26.7 gal) now.')
+    expect(forReader(danger, { units: 'metric', when: utcClock })).toBe(
+      'Free (toxic) ammonia is 0.05 mg/L as N at pH 8.1, 25.2 °C, salinity 34.8. Change 50 % of the water (about 101 L) now.')
+  })
+
+  it('converts both ends of a temperature range', () => {
+    expect(forReader('Also check temperature 22-29 C and salinity 34-36.', { units: 'us', when: utcClock }))
+      .toBe('Also check temperature 71.6-84.2 °F and salinity 34-36.')
+  })
+
+  it('never touches concentrations per litre or words that merely end in L or C', () => {
+    const message = 'Nitrate is 2 mg/L as N; LPS corals wait; keep 12 L C-clamps away.'
+    expect(forReader(message, { units: 'us', when: utcClock })).toBe('Nitrate is 2 mg/L as N; LPS corals wait; keep 3.2 gal C-clamps away.')
+  })
+
+  it('restates a moment on the reader\'s clock, so the text agrees with the times beside it', () => {
+    const message = 'Total ammonia is 0.82 mg/L as N (test of 2026-12-02 08:01 UTC).'
+    expect(forReader(message, { units: 'metric', when: ms => formatMoment(ms, 'America/New_York') }))
+      .toBe(`Total ammonia is 0.82 mg/L as N (test of ${formatMoment(Date.UTC(2026, 11, 2, 8, 1), 'America/New_York')}).`)
+    // New York is five hours behind UTC in December (IANA tz database).
+    expect(formatMoment(Date.UTC(2026, 11, 2, 8, 1), 'America/New_York')).toMatch(/Dec 2.*3:01/)
+  })
+
+  it('restates concentrations in the kit\'s basis only when the reader reads a kit', () => {
+    const message = 'Total ammonia is 0.82 mg/L as N, above the 0.41 mg/L as N (about 0.5 ppm as NH3) limit.'
+    expect(forReader(message, { units: 'us', when: utcClock })).toBe(message)
+    expect(forReader(message, { units: 'us', when: utcClock, kit: { basis: KIT, exactN: [] } }))
+      .toBe('Total ammonia is 1 ppm as NH3, above the 0.5 ppm as NH3 limit.')
+  })
+})
