@@ -9,6 +9,7 @@ import { celsiusToFahrenheit, litresToUsGallons } from '#shared/units'
 import { datedAcclimation, finalReadings, stockingSteps, type FinalReadingKey } from '#shared/sign-off/plan'
 import type { SignedStage, SignOffAmendmentView, SignOffSnapshot } from '#shared/types/sign-off'
 import type { CycleMethod, UnitSystem } from '#shared/vocabulary'
+import { SIGNED_FIELD_LABELS } from '../domain/sign-off/signed-record'
 
 export interface CertificateFacts {
   company: string
@@ -67,11 +68,6 @@ export function formatFinalValue(key: FinalReadingKey, value: number, units: Uni
     case 'alkalinityDkh': return `${value.toFixed(1)} dKH`
     case 'calciumMgL': case 'magnesiumMgL': return `${Math.round(value)} mg/L`
   }
-}
-
-const AMENDED_FIELD_LABELS: Record<string, string> = {
-  name: 'name', clientId: 'client', siteId: 'site', shape: 'shape', dimensions: 'dimensions',
-  volumeLitres: 'volume (L)', sumpLitres: 'sump (L)', cycleMethod: 'cycle method', cycleStartedAt: 'cycle start',
 }
 
 /** A changed value in a few words (dimensions as "1200 × 500 × 550 mm"). */
@@ -184,7 +180,7 @@ export async function renderCertificate(facts: CertificateFacts): Promise<Uint8A
   if (facts.amendments.length) {
     w.heading('Amended after signing')
     for (const amendment of facts.amendments) {
-      const changes = amendment.changes.map(c => `${AMENDED_FIELD_LABELS[c.field] ?? c.field} ${describeValue(c.before)} changed to ${describeValue(c.after)}`).join('; ')
+      const changes = amendment.changes.map(c => `${(SIGNED_FIELD_LABELS as Record<string, string>)[c.field] ?? c.field} ${describeValue(c.before)} changed to ${describeValue(c.after)}`).join('; ')
       w.text(`${certificateDate(amendment.at)}, ${amendment.byName ?? 'a former user'}: ${changes}. Reason: ${amendment.reason}`, { size: 9.5 })
     }
   }

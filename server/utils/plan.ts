@@ -4,7 +4,7 @@ import * as v from 'valibot'
 import { DEFAULT_PLAN_TEMPLATE, type PlanTemplateStage } from '#shared/plan/default-template'
 import { stageGateIssues } from '#shared/plan/gates'
 import { surveyLoad } from '#shared/plan/survey-load'
-import { CustomStageDataSchema, STAGE_DATA_SCHEMAS, type StagePatch } from '#shared/schemas/plan'
+import { stageDataSchema, type StagePatch } from '#shared/schemas/plan'
 import type { PlanView, StageView, UploadView } from '#shared/types/plan'
 import { appliesTo, type TankTrigger } from '#shared/tanks/lifecycle'
 import type { StageStatus } from '#shared/vocabulary'
@@ -95,8 +95,7 @@ export function findStage(tankId: string, stageId: string) {
 
 /** Checks `data` against the stage's own schema (400 with field messages) and merges it over what is stored. */
 export function mergeStageData(key: string, stored: Record<string, unknown>, incoming: Record<string, unknown>): Record<string, unknown> {
-  const schema = (STAGE_DATA_SCHEMAS as Record<string, v.GenericSchema>)[key] ?? CustomStageDataSchema
-  const result = v.safeParse(schema, incoming)
+  const result = v.safeParse(stageDataSchema(key), incoming)
   if (!result.success) {
     const issues = toFieldIssues(result.issues).map(i => ({ ...i, field: i.field === '(body)' ? 'data' : `data.${i.field}` }))
     throw createError({ statusCode: 400, statusMessage: 'Validation Error', message: issues.map(i => `${i.field}: ${i.message}`).join('; '), data: { issues } })

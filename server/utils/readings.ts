@@ -1,9 +1,7 @@
 /** Reads and writes a tank's readings and events, shaped for the API. Scoping is done by the caller (requireVisibleTank). */
 import { and, eq, isNull } from 'drizzle-orm'
 import type { EventListQuery, ReadingListQuery } from '#shared/schemas/reading'
-import type { CanonicalReading } from '#shared/readings/entry'
 import { flagsForValues } from '#shared/readings/entry'
-import type { CanonicalEvent } from '#shared/readings/events'
 import type { CorrectionTrail, EventList, EventView, ReadingList, ReadingView, Replacement } from '#shared/types/readings'
 import { events, readings, uploads, users } from '../db/schema'
 import { eventHistoryPage, readingHistoryPage } from '../domain/readings/current'
@@ -102,16 +100,6 @@ export function requireEvent(tankId: string, eventId: string): EventRow {
   const row = useDB().select().from(events).where(and(eq(events.id, eventId), eq(events.tankId, tankId))).get()
   if (!row) throw createError({ statusCode: 404, statusMessage: 'Event not found' })
   return row
-}
-
-/** The columns a canonical reading sets. */
-export function readingColumns(reading: CanonicalReading) {
-  return { takenAt: reading.takenAt, ...reading.values, notes: reading.notes, entered: reading.entered }
-}
-
-/** The columns a canonical event sets. */
-export function eventColumns(event: CanonicalEvent) {
-  return { at: event.at, kind: event.kind, amount: event.amount, group: event.group, notes: event.notes }
 }
 
 /**

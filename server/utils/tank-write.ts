@@ -1,7 +1,8 @@
 /** Checks a tank's references and dimensions, and computes what the server stores from them. */
 import { and, eq, isNull } from 'drizzle-orm'
-import { tankShapeFrom, tankVolume, type TankDimensionsMm } from '#shared/calc/volume'
-import { SHAPE_DIMENSIONS } from '#shared/schemas/tanks'
+import type { TankDimensionsMm } from '#shared/calc/volume'
+import { tankVolumeFromDimensions } from '#shared/tanks/dimensions'
+import type { SHAPE_DIMENSIONS } from '#shared/schemas/tanks'
 import { clients, sites, users } from '../db/schema'
 import type { Actor } from './access'
 import type { FieldIssue } from './validation'
@@ -12,23 +13,9 @@ function fail(issues: FieldIssue[]): never {
 
 /** Keeps only the dimensions the shape uses and computes the gross volume in litres; 400 when one is missing or impossible. */
 export function volumeFromDimensions(shape: keyof typeof SHAPE_DIMENSIONS, dimensions: TankDimensionsMm): { dimensions: TankDimensionsMm, volumeLitres: number } {
-  const kept: TankDimensionsMm = {}
-  const issues: FieldIssue[] = []
-  for (const name of SHAPE_DIMENSIONS[shape]) {
-    const value = dimensions[name]
-    if (value === undefined || !(value > 0)) issues.push({ field: `dimensions.${name}`, message: 'Enter this inside dimension; it must be more than zero.' })
-    else kept[name] = value
-  }
-  if (issues.length) fail(issues)
-  try {
-    const volume = tankVolume({ shape: tankShapeFrom(shape, kept) })
-    return { dimensions: kept, volumeLitres: Math.round(volume.grossL * 10) / 10 }
-  }
-  catch (error) {
-    const message = error instanceof RangeError ? error.message : 'These dimensions do not describe a tank.'
-    const field = /^(\w+Mm)\b/.exec(message)?.[1]
-    return fail([{ field: field ? `dimensions.${field}` : 'dimensions', message: field === 'bowDepthMm' ? 'The bow can bulge at most half the length.' : 'These dimensions do not describe a tank of this shape.' }])
-  }
+  const result = tankVolumeFromDimensions(shape, dimensions)
+  if (!result.ok) fail(result.issues)
+  return { dimensions: result.dimensions, volumeLitres: result.volumeLitres }
 }
 
 /** 400 unless the client, site and staff all belong to the actor's organisation and fit their roles. */

@@ -6,6 +6,7 @@
 import type { H3Event } from 'h3'
 import sharp from 'sharp'
 import { uploads } from '../db/schema'
+import type { Db } from '../db/connection'
 import type { Actor } from './access'
 import { detectFileType, fileTypeProblem, type AcceptedMimeType } from './file-type'
 import { MAX_UPLOAD_BYTES } from '../domain/http/body-limits'
@@ -77,8 +78,13 @@ export interface UploadTarget {
   readingId?: string | null
 }
 
-/** Stores the bytes (and an image's thumbnail), records the row and audits it. Returns the row. */
-export async function storeUpload(actor: Actor, target: UploadTarget, file: ReceivedFile) {
+/**
+ * Stores the bytes (and an image's thumbnail), records the row and audits it. Returns the row.
+ * `admit` runs inside the write transaction (IMMEDIATE, so no other writer slips in between),
+ * just before the row is inserted: a quota checked there holds for uploads that arrive
+ * together. When it throws, the stored bytes are removed and nothing is recorded.
+ */
+export async function storeUpload(actor: Actor, target: UploadTarget, file: ReceivedFile, admit?: (db: Db) => void) {
   const id = crypto.randomUUID()
   const storageKey = `${actor.organisationId}:${target.tankId}:${id}`
   const thumbnail = file.mimeType.startsWith('image/') ? await thumbnailOf(file.bytes) : null
@@ -87,8 +93,21 @@ export async function storeUpload(actor: Actor, target: UploadTarget, file: Rece
   const thumbnailKey = thumbnail ? `${storageKey}.thumb` : null
   if (thumbnail && thumbnailKey) await storage.setItemRaw(thumbnailKey, thumbnail)
   // The row and its audit line commit together.
-  return useDB().transaction(() => {
-    const row = useDB().insert(uploads).values({
+  try {
+    return insertUploadRow(actor, target, file, { id, storageKey, thumbnailKey }, admit)
+  }
+  catch (error) {
+    await storage.removeItem(storageKey)
+    if (thumbnailKey) await storage.removeItem(thumbnailKey)
+    throw error
+  }
+}
+
+function insertUploadRow(actor: Actor, target: UploadTarget, file: ReceivedFile, keys: { id: string, storageKey: string, thumbnailKey: string | null }, admit?: (db: Db) => void) {
+  const { id, storageKey, thumbnailKey } = keys
+  return useDB().transaction((tx) => {
+    admit?.(tx)
+    const row = tx.insert(uploads).values({
       id,
       organisationId: actor.organisationId,
       tankId: target.tankId,
@@ -103,7 +122,7 @@ export async function storeUpload(actor: Actor, target: UploadTarget, file: Rece
     }).returning().get()
     writeAudit(actor, { action: 'upload.create', entity: 'upload', entityId: row.id, after: { tankId: row.tankId, stageId: row.stageId, readingId: row.readingId, mimeType: row.mimeType, sizeBytes: row.sizeBytes, originalName: row.originalName } })
     return row
-  })
+  }, { behavior: 'immediate' })
 }
 
 /** Sends stored bytes with headers that keep the browser from guessing or caching them publicly. */

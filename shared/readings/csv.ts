@@ -5,7 +5,7 @@
 import type { ImportTarget, ReadingImportInput } from '../schemas/reading'
 import { IMPORT_TARGETS } from '../schemas/reading'
 import type { EntryIssue, KitBasisChoice, ReadingEntry } from './entry'
-import { calendarDateExists, parseDecimal } from './fields'
+import { calendarDateExists, parseDecimal, parseIsoTime } from './fields'
 
 /** Header words each target is recognised by (lower case, punctuation removed). */
 const HEADER_HINTS: Record<ImportTarget, string[]> = {
@@ -64,19 +64,18 @@ export function guessMapping(headers: readonly string[], chosen: Partial<Record<
   return mapping
 }
 
-/** A date-time cell: ISO 8601, or "YYYY-MM-DD HH:MM[:SS]" read as UTC. */
+/** What a row whose date cell is in another form is told. */
+export const CSV_TIME_FORMATS_MESSAGE = 'Write the date as 2026-03-14 (read as noon UTC), 2026-03-14 08:30 (UTC) or ISO 8601 with an offset, such as 2026-03-14T08:30:00+01:00.'
+
+/**
+ * A date-time cell in one of the documented forms (see parseIsoTime): ISO 8601, or
+ * "YYYY-MM-DD HH:MM[:SS]" read as UTC; a date alone is noon UTC, so the day is the same
+ * for any time zone within 12 hours. Null for anything else.
+ */
 export function parseCsvTime(cell: string): string | null {
-  const text = cell.trim()
-  if (!text || !calendarDateExists(text)) return null
-  // Fast path: what Tidewright exports (and most tools write) is already ISO 8601 UTC.
-  if (text.length === 24 && text[23] === 'Z' && text[10] === 'T') {
-    const t = Date.parse(text)
-    return Number.isFinite(t) ? (new Date(t).toISOString() === text ? text : new Date(t).toISOString()) : null
-  }
-  const spaced = /^\d{4}-\d{2}-\d{2}[ T]\d{2}:\d{2}(:\d{2}(\.\d+)?)?$/.test(text) ? `${text.replace(' ', 'T')}Z` : text
-  const dateOnly = /^\d{4}-\d{2}-\d{2}$/.test(text) ? `${text}T12:00:00Z` : spaced
-  const t = Date.parse(dateOnly)
-  return Number.isFinite(t) ? new Date(t).toISOString() : null
+  const parsed = parseIsoTime(cell)
+  if (!parsed) return null
+  return new Date(parsed.dateOnly ? parsed.ms + 12 * 3_600_000 : parsed.ms).toISOString()
 }
 
 /** How each row is read; the basis is settled before the rows are (see importBasis). */
@@ -114,7 +113,7 @@ function cellsToEntry(raw: (target: ImportTarget) => string, options: Options): 
   const issues: EntryIssue[] = []
   const time = raw('takenAt')
   const takenAt = parseCsvTime(time)
-  if (!takenAt) issues.push({ field: 'takenAt', message: calendarDateExists(time) ? 'Not a date and time.' : 'That date does not exist. Check the day and the month.' })
+  if (!takenAt) issues.push({ field: 'takenAt', message: calendarDateExists(time) ? CSV_TIME_FORMATS_MESSAGE : 'That date does not exist. Check the day and the month.' })
   const numbers: Partial<Record<ImportTarget, number | null>> = {}
   for (const target of NUMERIC) {
     const text = raw(target).trim()

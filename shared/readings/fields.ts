@@ -26,3 +26,34 @@ export function parseDecimal(text: string): number | null {
   const value = Number(trimmed)
   return Number.isFinite(value) ? value : null
 }
+
+// A date, optionally with a time ('T' or one space between) and an offset; nothing else.
+const ISO_LIKE = /^(\d{4})-(\d{2})-(\d{2})(?:[T ](\d{2}):(\d{2})(?::(\d{2})(?:\.(\d{1,9}))?)?(Z|[+-]\d{2}:?\d{2})?)?$/
+
+/** An instant read from text, and whether the text held a date only. */
+export interface ParsedTime {
+  ms: number
+  dateOnly: boolean
+}
+
+/**
+ * Reads "2026-03-14", "2026-03-14 08:30", "2026-03-14T08:30:00" (both read as UTC) or ISO 8601
+ * with "Z" or an offset such as "+02:00". Anything else is null, including what Date.parse
+ * would guess at ("03/04/2026" is 4 March to some readers and 3 April to others), days that
+ * do not exist, 24:00 and offsets beyond 14 hours. The numbers are read here, not by
+ * Date.parse, so the browser and the server read a text the same way.
+ */
+export function parseIsoTime(text: string): ParsedTime | null {
+  const match = ISO_LIKE.exec(text.trim())
+  if (!match || !calendarDateExists(match[0])) return null
+  const [, year, month, day, hour = '0', minute = '0', second = '0', fraction = '0', offset] = match
+  if (Number(hour) > 23 || Number(minute) > 59 || Number(second) > 59) return null
+  let offsetMinutes = 0
+  if (offset && offset !== 'Z') {
+    const [hours, minutes] = [Number(offset.slice(1, 3)), Number(offset.slice(-2))]
+    if (hours > 14 || minutes > 59) return null
+    offsetMinutes = (offset.startsWith('-') ? -1 : 1) * (hours * 60 + minutes)
+  }
+  const utc = Date.UTC(Number(year), Number(month) - 1, Number(day), Number(hour), Number(minute), Number(second), Math.round(Number(`0.${fraction}`) * 1000))
+  return { ms: utc - offsetMinutes * 60_000, dateOnly: match[4] === undefined }
+}

@@ -53,6 +53,11 @@ export const CustomStageDataSchema = v.pipe(
   v.check(record => Object.keys(record).length <= 20, 'At most 20 values per stage.'),
 )
 
+/** The schema a stage's helper values are checked against: its own for a default stage, the free-form one otherwise. */
+export function stageDataSchema(key: string): v.GenericSchema {
+  return (STAGE_DATA_SCHEMAS as Record<string, v.GenericSchema>)[key] ?? CustomStageDataSchema
+}
+
 /** PATCH /api/tanks/:id/stages/:stageId body. `data` is checked against the stage's own schema by the server. */
 export const StagePatchSchema = v.pipe(
   v.object({

@@ -49,6 +49,13 @@ const TankFields = {
 export const TankCreateSchema = v.object(TankFields)
 export type TankInput = v.InferOutput<typeof TankCreateSchema>
 
+/** Why a signed-off tank's certificate facts change: required for such a change, shown on the certificate. */
+export const AmendmentReasonSchema = v.pipe(v.string('Write why the signed record changes.'), v.trim(), v.minLength(3, 'Write why the signed record changes.'), v.maxLength(500, 'Keep the reason under 500 characters.'))
+
+/** The edit form: every field, as it sends them all, and a reason when the tank is signed off. */
+export const TankEditSchema = v.object({ ...TankFields, amendmentReason: v.optional(AmendmentReasonSchema) })
+export type TankEditInput = v.InferOutput<typeof TankEditSchema>
+
 /** PATCH /api/tanks/:id body: any field; shape and dimensions travel together. */
 export const TankPatchSchema = v.pipe(
   v.partial(v.object({
@@ -58,7 +65,7 @@ export const TankPatchSchema = v.pipe(
     waterSource: v.picklist(WATER_SOURCES, 'Natural seawater or mixed salt.'),
     cycleMethod: v.picklist(CYCLE_METHODS, 'Fishless or fish-in.'),
     /** Required to change what a signed-off tank's certificate prints; the amendment is shown on it. */
-    amendmentReason: v.pipe(v.string('Write why the signed record changes.'), v.trim(), v.minLength(3, 'Write why the signed record changes.'), v.maxLength(500, 'Keep the reason under 500 characters.')),
+    amendmentReason: AmendmentReasonSchema,
   })),
   v.forward(
     v.check(input => (input.shape === undefined) === (input.dimensions === undefined), 'Send the shape and its dimensions together.'),

@@ -12,6 +12,7 @@ import type { TankView } from '../../shared/types/tanks'
 
 let co: ScratchCompany
 let tankId: string
+let raceTankId: string
 let png: Buffer
 
 beforeAll(async () => {
@@ -19,18 +20,19 @@ beforeAll(async () => {
   const aquarist = await signedIn(co.emails.aquarist)
   const { body } = await aquarist.post<TankView>('/api/tanks', { name: 'Pending photo reef', clientId: co.clientId, shape: 'cube', dimensions: { sideMm: 450 } })
   tankId = body.id
+  raceTankId = (await aquarist.post<TankView>('/api/tanks', { name: 'Photo race reef', clientId: co.clientId, shape: 'cube', dimensions: { sideMm: 450 } })).body.id
   png = await sharp({ create: { width: 64, height: 48, channels: 3, background: '#c6dce7' } }).png().toBuffer()
 })
 
-async function upload(api: ApiClient): Promise<number> {
+async function upload(api: ApiClient, tank = tankId): Promise<number> {
   const form = new FormData()
   form.append('file', new Blob([new Uint8Array(png)]), 'strip.png')
-  const response = await fetch(`${api.baseURL}/api/tanks/${tankId}/test-photos`, { method: 'POST', body: form, headers: { cookie: api.cookieHeader() } })
+  const response = await fetch(`${api.baseURL}/api/tanks/${tank}/test-photos`, { method: 'POST', body: form, headers: { cookie: api.cookieHeader() } })
   await response.arrayBuffer()
   return response.status
 }
 
-const pendingRows = () => queryFile<{ n: number }>(inject('dbPath'), 'select count(*) as n from uploads where tank_id = ? and stage_id is null and reading_id is null', tankId)[0]!.n
+const pendingRows = (tank = tankId) => queryFile<{ n: number }>(inject('dbPath'), 'select count(*) as n from uploads where tank_id = ? and stage_id is null and reading_id is null', tank)[0]!.n
 
 describe('unattached test photos', () => {
   it('stops at 20 waiting on one tank, and goes a day later with an audit row', async () => {
@@ -55,5 +57,15 @@ describe('unattached test photos', () => {
     expect(audited).toBe(20)
     // Room again for new photos.
     expect(await upload(client)).toBe(201)
+  })
+
+  it('holds at 20 when 30 uploads arrive at once', async () => {
+    const client = await signedIn(co.emails.client)
+    const statuses = await Promise.all(Array.from({ length: 30 }, () => upload(client, raceTankId)))
+    const stored = statuses.filter(s => s === 201).length
+    console.log(`[photos] 30 unattached uploads at once on one tank: ${stored} stored, ${statuses.filter(s => s === 429).length} refused, ${pendingRows(raceTankId)} rows`)
+    expect(statuses.every(s => s === 201 || s === 429)).toBe(true)
+    expect(stored).toBe(20)
+    expect(pendingRows(raceTankId)).toBe(20)
   })
 })

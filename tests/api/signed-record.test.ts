@@ -77,7 +77,7 @@ describe('the certificate after sign-off', () => {
     const resized = await aquarist.patch(`/api/tanks/${tankId}`, { shape: 'cube', dimensions: { sideMm: 600 } })
     expect(resized.status).toBe(409)
     expect((await aquarist.patch(`/api/tanks/${tankId}`, { cycleMethod: 'fish-in' })).status).toBe(409)
-    expect(db.select({ name: tanks.name, volume: tanks.volumeLitres }).from(tanks).where(eq(tanks.id, tankId)).get()).toEqual({ name: 'Heron Quay reef', volume: 91 })
+    expect(db.select({ name: tanks.name, volume: tanks.volumeLitres }).from(tanks).where(eq(tanks.id, tankId)).get()).toEqual({ name: 'Heron Quay reef', volume: 91.1 })
     expect(await certificateText(aquarist, tankId)).toBe(before)
     const verify = await new ApiClient().get(`/api/verify/${code}`)
     expect(verify.body).toMatchObject({ valid: true, tankName: 'Heron Quay reef' })

@@ -66,7 +66,7 @@ describe('GET /api/tanks/:id', () => {
     const api = await signedIn('client2@tidewright.test')
     const { status, body } = await api.get<TankView>(`/api/tanks/${demo.tanks.nano}`)
     expect(status).toBe(200)
-    expect(body).toMatchObject({ id: demo.tanks.nano, name: 'Quay Street nano', status: 'cycled', volumeLitres: 91, supervisorName: 'Hollis Achterberg' })
+    expect(body).toMatchObject({ id: demo.tanks.nano, name: 'Quay Street nano', status: 'cycled', volumeLitres: 91.1, supervisorName: 'Hollis Achterberg' })
   })
 
   it('is 404 for another client\'s tank and for another company\'s tank', async () => {

@@ -40,6 +40,19 @@ describe('readings through the form and through CSV', () => {
     expect(count(`select count(*) as n from readings where tank_id = ? and notes = 'impossible day'`, tank)).toBe(0)
   })
 
+  it('reads only the documented date forms from CSV, with a message per row that says them', async () => {
+    const api = await new ApiClient().signIn('aquarist@tidewright.test')
+    const tank = inject('fixtures').demo.tanks.lobby
+    // 03/04/2026 is 4 March to a US reader and 3 April to most others: it is refused, not guessed.
+    const csv = await api.post(`/api/tanks/${tank}/readings/import`, { csv: 'takenAt,ammonia,notes\n03/04/2026 09:00,0.5,ambiguous day\nMarch 5 2026,0.5,ambiguous day\n2026-03-06 09:00,0.5,plain day', dryRun: false })
+    expect(csv.status).toBe(200)
+    expect(csv.body.errorRows).toBe(2)
+    expect(csv.body.errors.map((e: { row: number, field: string }) => [e.row, e.field])).toEqual([[2, 'takenAt'], [3, 'takenAt']])
+    expect(csv.body.errors[0].message).toContain('2026-03-14 08:30')
+    expect(count(`select count(*) as n from readings where tank_id = ? and notes = 'ambiguous day'`, tank)).toBe(0)
+    expect(count(`select count(*) as n from readings where tank_id = ? and notes = 'plain day' and taken_at = '2026-03-06T09:00:00.000Z'`, tank)).toBe(1)
+  })
+
   it('reads only plain decimal numbers from CSV: 0x1 is not a number', async () => {
     const api = await new ApiClient().signIn('aquarist@tidewright.test')
     const tank = inject('fixtures').demo.tanks.lobby

@@ -2,7 +2,7 @@ import { eq } from 'drizzle-orm'
 import { IdParams } from '#shared/schemas/common'
 import { TankPatchSchema } from '#shared/schemas/tanks'
 import { tanks } from '../../db/schema'
-import { recordAmendment, signedFieldChanges } from '../../domain/sign-off/signed-record'
+import { recordAmendment, signedFieldChanges, signedFieldsInWords } from '../../domain/sign-off/signed-record'
 
 /**
  * PATCH /api/tanks/:id — edits a tank's profile; new dimensions recompute its volume. On a
@@ -32,7 +32,7 @@ export default defineEventHandler(async (event) => {
   const signed = currentApprovedSignOff(id)
   const signedChanges = signed ? signedFieldChanges(before, changes) : []
   if (signed && signedChanges.length && !input.amendmentReason) {
-    const message = `This tank was signed off on ${signed.decidedAt?.slice(0, 10)}: its ${signedChanges.map(c => c.field).join(', ')} are part of the signed record. Write a reason to amend it (the certificate will show the amendment), or reopen the sign-off.`
+    const message = `This tank was signed off on ${signed.decidedAt?.slice(0, 10)}: ${signedFieldsInWords(signedChanges.map(c => c.field))} part of the signed record. Write a reason to amend it (the certificate will show the amendment), or reopen the sign-off.`
     throw createError({ statusCode: 409, statusMessage: message, message, data: { issues: [{ field: 'amendmentReason', message }], signedFields: signedChanges.map(c => c.field) } })
   }
   const now = requestNow(event)

@@ -10,9 +10,12 @@ import { syncAlertsInDb } from '../alerts'
 import { computeAndStoreVerdict } from '../verdicts'
 import { clients, events, organisations, planStages, readings, signOffs, sites, tanks, users } from '../schema'
 import type { SimulationPlan } from '../../../shared/cycle/simulate'
-import { demoHistory, loungePlan, nanoPlan, simulate, studyPlan, type DemoEvent } from './histories'
+import { demoHistory, loungePlan, nanoPlan, simulate, studyPlan } from './histories'
+import { checkedClient, checkedEvent, checkedSite, checkedStageData, checkedTank } from './checked'
+import type { SurveyLoadTank } from '../../../shared/plan/survey-load'
+import { eventColumns } from '../../domain/readings/columns'
 import { hashPasswordOffline } from './password'
-import type { Role, UnitSystem } from '../../../shared/vocabulary'
+import type { CycleEventKind, Role, UnitSystem } from '../../../shared/vocabulary'
 
 export const DEMO_PASSWORD = 'tidewright-demo'
 const DAY = 86_400_000
@@ -68,7 +71,7 @@ export async function seedDemo(db: TidewrightDB, now = new Date()): Promise<Demo
     const orgId = org.id
 
     const client = (name: string, email: string, phone: string) =>
-      tx.insert(clients).values({ organisationId: orgId, name, email, phone }).returning().get().id
+      tx.insert(clients).values({ organisationId: orgId, ...checkedClient({ name, email, phone }) }).returning().get().id
     const lowe = client('Marguerite Lowe', 'client@tidewright.test', '+1 555 0142')
     const quayle = client('Idris Quayle', 'client2@tidewright.test', '+1 555 0187')
     const hart = client('Fenella Hart', 'client3@tidewright.test', '+1 555 0119')
@@ -86,61 +89,76 @@ export async function seedDemo(db: TidewrightDB, now = new Date()): Promise<Demo
     }
 
     const site = (clientId: string, label: string, address: string, roomNotes: string, accessNotes: string | null = null) =>
-      tx.insert(sites).values({ organisationId: orgId, clientId, label, address, roomNotes, accessNotes }).returning().get().id
+      tx.insert(sites).values({ organisationId: orgId, clientId, ...checkedSite({ label, address, roomNotes, accessNotes }) }).returning().get().id
     const loweHome = site(lowe, 'Marlowe House', '14 Marlowe Lane, Eastbridge', 'Lounge, north wall, suspended timber floor', 'Key with the neighbour at no. 12')
     const lowePractice = site(lowe, 'Lowe Family Dentistry', '3 Harbour Parade, Eastbridge', 'Reception lobby, concrete slab', 'Open 8-18 weekdays')
     const quayleFlat = site(quayle, 'Quayside flat', 'Flat 6, 22 Quay Street, Westhollow', 'Living room, second floor, concrete floor')
     const hartHouse = site(hart, 'Fernhill', '9 Fernhill Rise, Northmere', 'Study, ground floor, away from the window')
 
-    const tank = (values: typeof tanks.$inferInsert) => tx.insert(tanks).values(values).returning().get().id
+    // The form's fields go through the tank form's rules, and the volume is the one the server computes from the dimensions.
+    type TankForm = Parameters<typeof checkedTank>[0]
+    type TankExtras = Omit<typeof tanks.$inferInsert, keyof TankForm | 'volumeLitres'>
+    const facts = new Map<string, SurveyLoadTank>()
+    const tank = (form: TankForm, extras: TankExtras) => {
+      const row = tx.insert(tanks).values({ ...extras, ...checkedTank(form) }).returning().get()
+      facts.set(row.id, row)
+      return row.id
+    }
     const lobby = tank({
-      organisationId: orgId, clientId: lowe, siteId: lowePractice, name: 'Harbour Parade lobby reef',
-      shape: 'rectangular', dimensions: { lengthMm: 1500, widthMm: 600, heightMm: 600 }, volumeLitres: 540, sumpLitres: 120,
-      material: 'glass', waterSource: 'mixed', cycleMethod: 'fishless', status: 'planned',
+      clientId: lowe, siteId: lowePractice, name: 'Harbour Parade lobby reef',
+      shape: 'rectangular', dimensions: { lengthMm: 1500, widthMm: 600, heightMm: 600 }, sumpLitres: 120,
+      material: 'glass', waterSource: 'mixed', cycleMethod: 'fishless',
       aquaristId: ids.aquarist, supervisorId: ids.supervisor,
-    })
+    }, { organisationId: orgId, status: 'planned' })
     const loungeStart = daysAgo(now, 12)
     const lounge = tank({
-      organisationId: orgId, clientId: lowe, siteId: loweHome, name: 'Marlowe lounge reef',
-      shape: 'bow-front', dimensions: { lengthMm: 1200, widthMm: 500, heightMm: 550, bowDepthMm: 100 }, volumeLitres: 330, sumpLitres: 80,
-      material: 'glass', waterSource: 'mixed', cycleMethod: 'fishless', status: 'cycling', cycleStartedAt: loungeStart.toISOString(), usualTestHour: 18,
+      clientId: lowe, siteId: loweHome, name: 'Marlowe lounge reef',
+      shape: 'bow-front', dimensions: { lengthMm: 1100, widthMm: 480, heightMm: 550, bowDepthMm: 100 }, sumpLitres: 80,
+      material: 'glass', waterSource: 'mixed', cycleMethod: 'fishless',
       aquaristId: ids.aquarist, supervisorId: ids.supervisor,
-    })
+    }, { organisationId: orgId, status: 'cycling', cycleStartedAt: loungeStart.toISOString(), usualTestHour: 18 })
     const nanoStart = daysAgo(now, 34)
     const nano = tank({
-      organisationId: orgId, clientId: quayle, siteId: quayleFlat, name: 'Quay Street nano',
-      shape: 'cube', dimensions: { lengthMm: 450, widthMm: 450, heightMm: 450 }, volumeLitres: 91, sumpLitres: 0,
-      material: 'glass', waterSource: 'natural', cycleMethod: 'fishless', status: 'cycled', cycleStartedAt: nanoStart.toISOString(), usualTestHour: 19,
+      clientId: quayle, siteId: quayleFlat, name: 'Quay Street nano',
+      shape: 'cube', dimensions: { sideMm: 450 }, sumpLitres: 0,
+      material: 'glass', waterSource: 'natural', cycleMethod: 'fishless',
       aquaristId: ids.aquarist, supervisorId: ids.supervisor,
-    })
+    }, { organisationId: orgId, status: 'cycled', cycleStartedAt: nanoStart.toISOString(), usualTestHour: 19 })
     const studyStart = daysAgo(now, 9)
     const study = tank({
-      organisationId: orgId, clientId: hart, siteId: hartHouse, name: 'Fernhill study reef',
-      shape: 'rectangular', dimensions: { lengthMm: 900, widthMm: 450, heightMm: 500 }, volumeLitres: 202, sumpLitres: 0,
-      material: 'acrylic', waterSource: 'mixed', cycleMethod: 'fish-in', status: 'cycling', cycleStartedAt: studyStart.toISOString(), usualTestHour: 8,
+      clientId: hart, siteId: hartHouse, name: 'Fernhill study reef',
+      shape: 'rectangular', dimensions: { lengthMm: 900, widthMm: 450, heightMm: 500 }, sumpLitres: 0,
+      material: 'acrylic', waterSource: 'mixed', cycleMethod: 'fish-in',
       aquaristId: ids.aquarist2, supervisorId: ids.supervisor,
-    })
+    }, { organisationId: orgId, status: 'cycling', cycleStartedAt: studyStart.toISOString(), usualTestHour: 8 })
 
+    // Each stage's values pass the stage form and its commissioning gate, as if entered through them.
+    const plan = (tankId: string, rows: (typeof planStages.$inferInsert)[]) => rows.map(row => ({
+      ...row,
+      data: checkedStageData(row.key, row.data ?? {}, {
+        closing: row.status === 'done', now, tank: facts.get(tankId)!, stages: rows.map(r => ({ key: r.key, data: r.data ?? {} })),
+      }),
+    }))
     tx.insert(planStages).values([
-      ...finishStages(planStageRows(lobby, DEFAULT_PLAN_TEMPLATE), 1, ids.aquarist, daysAgo(now, 2), { name: 'Teodor Nakamura-Reyes', roomUse: 'office' }),
-      ...finishStages(planStageRows(lounge, DEFAULT_PLAN_TEMPLATE), 6, ids.aquarist, daysAgo(now, 15)),
-      ...finishStages(planStageRows(nano, DEFAULT_PLAN_TEMPLATE), 7, ids.aquarist, daysAgo(now, 38)),
-      ...finishStages(planStageRows(study, DEFAULT_PLAN_TEMPLATE), 6, ids.aquarist2, daysAgo(now, 11), { name: 'Wren Castellanos', roomUse: 'living-area' }),
+      ...plan(lobby, finishStages(planStageRows(lobby, DEFAULT_PLAN_TEMPLATE), 1, ids.aquarist, daysAgo(now, 2), { name: 'Teodor Nakamura-Reyes', roomUse: 'office' })),
+      ...plan(lounge, finishStages(planStageRows(lounge, DEFAULT_PLAN_TEMPLATE), 6, ids.aquarist, daysAgo(now, 15))),
+      ...plan(nano, finishStages(planStageRows(nano, DEFAULT_PLAN_TEMPLATE), 7, ids.aquarist, daysAgo(now, 38))),
+      ...plan(study, finishStages(planStageRows(study, DEFAULT_PLAN_TEMPLATE), 6, ids.aquarist2, daysAgo(now, 11), { name: 'Wren Castellanos', roomUse: 'living-area' })),
     ]).run()
 
     // Today's test counts only once it is at least an hour old: the demo never shows a test from the future.
     const notAfter = new Date(now.getTime() - 3_600_000)
-    const notes: Partial<Record<DemoEvent['kind'], string>> = {
+    const notes: Partial<Record<CycleEventKind, string>> = {
       'ammonia-dose': 'Dosed to about 2 ppm NH3',
       'bacteria-dose': 'Bottled nitrifying bacteria, full starter dose',
       'livestock-added': 'Three hardy damselfish',
     }
     const addHistory = (tankId: string, enteredBy: string, staff: string, plan: SimulationPlan) => {
-      const history = demoHistory(simulate(plan), notAfter)
+      const history = demoHistory(simulate(plan), notAfter, notes)
       if (history.readings.length) tx.insert(readings).values(history.readings.map(r => ({ tankId, enteredBy, ...r }))).run()
       // The aquarist started the cycle; the client logs the daily doses.
       if (history.events.length) {
-        tx.insert(events).values(history.events.map((e, i) => ({ tankId, ...e, notes: notes[e.kind] ?? null, enteredBy: i < 2 ? staff : enteredBy }))).run()
+        tx.insert(events).values(history.events.map((e, i) => ({ tankId, ...e, enteredBy: i < 2 ? staff : enteredBy }))).run()
       }
     }
     addHistory(lounge, ids.client, ids.aquarist, loungePlan(now))
@@ -148,7 +166,8 @@ export async function seedDemo(db: TidewrightDB, now = new Date()): Promise<Demo
     addHistory(study, ids.client3, ids.aquarist2, studyPlan(now))
     const studyDay7 = new Date(Date.parse(studyPlan(now).start) + 7 * DAY + 19 * 3_600_000)
     if (studyDay7 <= notAfter) {
-      tx.insert(events).values({ tankId: study, at: studyDay7.toISOString(), kind: 'note', notes: 'Client fed heavily over the weekend', enteredBy: ids.client3 }).run()
+      const note = checkedEvent({ at: studyDay7.toISOString(), kind: 'note', notes: 'Client fed heavily over the weekend' }, notAfter)
+      tx.insert(events).values({ tankId: study, ...eventColumns(note), enteredBy: ids.client3 }).run()
     }
 
     // The stored verdicts open their alerts too (the study reef's ammonia spike), with the e-mail queued.

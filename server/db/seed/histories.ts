@@ -3,29 +3,38 @@
  * what the aquarist did and what the client's kits read each day, with the kit's own
  * basis kept as typed. Deterministic, so the demo looks the same on every seed.
  */
-import { fishlessPlan, simulate, type Simulation, type SimulationPlan } from '../../../shared/cycle/simulate'
-import type { CycleEventKind } from '../../../shared/vocabulary'
+import { fishlessPlan, simulate, type Simulation, type SimulatedTest, type SimulationPlan } from '../../../shared/cycle/simulate'
+import type { ReadingEntry } from '../../../shared/readings/entry'
+import type { AmmoniaBasis, CycleEventKind, NitrateBasis, NitriteBasis } from '../../../shared/vocabulary'
+import { eventColumns, readingColumns } from '../../domain/readings/columns'
+import { checkedEvent, checkedReading } from './checked'
 
 const DAY = 86_400_000
 
-/** A reading row as the seed inserts it: canonical values plus what was typed. */
-export interface DemoReading {
-  takenAt: string
-  ammoniaN: number
-  nitriteN: number
-  nitrateN: number
-  pH: number
-  temperatureC: number
-  salinity: number
-  entered: Record<string, unknown>
-}
+/** A reading row as the seed inserts it: what the test form would store. */
+export type DemoReading = ReturnType<typeof readingColumns>
 
-/** An event row as the seed inserts it. */
-export interface DemoEvent {
-  at: string
-  kind: CycleEventKind
-  amount?: number
-  group?: 'fish'
+/** An event row as the seed inserts it: what the event form would store. */
+export type DemoEvent = ReturnType<typeof eventColumns>
+
+/** What the client typed for a simulated test: the kit's readings on their own bases. */
+function typedEntry(test: SimulatedTest): ReadingEntry {
+  return {
+    takenAt: test.takenAt,
+    ammonia: test.ammonia.value,
+    nitrite: test.nitrite.value,
+    nitrate: test.nitrate.value,
+    basis: { ammonia: test.ammonia.basis as AmmoniaBasis, nitrite: test.nitrite.basis as NitriteBasis, nitrate: test.nitrate.basis as NitrateBasis },
+    pH: test.pH,
+    temperature: test.temperatureC,
+    temperatureUnit: 'C',
+    salinity: test.salinity,
+    salinityMode: 'practical',
+    alkalinityDkh: test.alkalinityDkh ?? null,
+    calciumMgL: test.calciumMgL ?? null,
+    magnesiumMgL: test.magnesiumMgL ?? null,
+    phosphateMgL: test.phosphateMgL ?? null,
+  }
 }
 
 /** Midnight UTC of the day `days` before `now`: day 0 of a history. */
@@ -62,32 +71,23 @@ export function studyPlan(now: Date): SimulationPlan {
   }
 }
 
-/** The simulated history's tests and events no later than `notAfter`, as seed rows. */
-export function demoHistory(sim: Simulation, notAfter: Date): { readings: DemoReading[], events: DemoEvent[] } {
+/**
+ * The simulated history's tests and events no later than `notAfter`, as seed rows, each
+ * through the same rules as the test and event forms (a value they would refuse throws).
+ * Doses are logged in mg/L as N, water changes in litres; `notes` gives each kind its note.
+ */
+export function demoHistory(sim: Simulation, notAfter: Date, notes: Partial<Record<CycleEventKind, string>> = {}): { readings: DemoReading[], events: DemoEvent[] } {
   const limit = notAfter.toISOString()
-  const readings = sim.tests.filter(t => t.takenAt <= limit).map(t => ({
-    takenAt: t.takenAt,
-    ammoniaN: t.ammoniaN,
-    nitriteN: t.nitriteN,
-    nitrateN: t.nitrateN,
-    pH: t.pH,
-    temperatureC: t.temperatureC,
-    salinity: t.salinity,
-    entered: {
-      ammonia: { value: t.ammonia.value, basis: t.ammonia.basis },
-      nitrite: { value: t.nitrite.value, basis: t.nitrite.basis },
-      nitrate: { value: t.nitrate.value, basis: t.nitrate.basis },
-      pH: t.pH,
-      temperature: { value: t.temperatureC, unit: 'C' },
-      salinity: { value: t.salinity, as: 'practical' },
-    },
-  }))
-  const events = sim.events.filter(e => e.at <= limit).map(e => ({
+  const readings = sim.tests.filter(t => t.takenAt <= limit).map(t => readingColumns(checkedReading(typedEntry(t), notAfter)))
+  const events = sim.events.filter(e => e.at <= limit).map(e => eventColumns(checkedEvent({
     at: e.at,
     kind: e.kind,
-    ...(e.amount === undefined ? {} : { amount: e.amount }),
-    ...(e.group === 'fish' ? { group: 'fish' as const } : {}),
-  }))
+    amount: e.amount ?? null,
+    doseBasis: 'N',
+    volumeUnit: 'L',
+    group: e.group ?? null,
+    notes: notes[e.kind] ?? null,
+  }, notAfter)))
   return { readings, events }
 }
 

@@ -43,6 +43,19 @@ export function captureSignedFacts(db: TidewrightDB, tankId: string, deciderId: 
 export const SIGNED_TANK_FIELDS = ['name', 'clientId', 'siteId', 'shape', 'dimensions', 'volumeLitres', 'sumpLitres', 'cycleMethod', 'cycleStartedAt'] as const
 export type SignedTankField = typeof SIGNED_TANK_FIELDS[number]
 
+/** Each signed field in a person's words, as the certificate lists an amendment and a refusal names it. */
+export const SIGNED_FIELD_LABELS: Readonly<Record<SignedTankField, string>> = {
+  name: 'name', clientId: 'client', siteId: 'site', shape: 'shape', dimensions: 'dimensions',
+  volumeLitres: 'volume (L)', sumpLitres: 'sump (L)', cycleMethod: 'cycle method', cycleStartedAt: 'cycle start',
+}
+
+/** "its name is" / "its shape, dimensions and volume (L) are": the signed fields a change touches, in words. */
+export function signedFieldsInWords(fields: readonly SignedTankField[]): string {
+  const words = fields.map(field => SIGNED_FIELD_LABELS[field])
+  const list = words.length > 1 ? `${words.slice(0, -1).join(', ')} and ${words.at(-1)}` : words[0] ?? ''
+  return `its ${list} ${words.length > 1 ? 'are' : 'is'}`
+}
+
 /** The signed fields a change would alter, with their values before and after. */
 export function signedFieldChanges(before: TankRow, changes: Partial<TankRow>): { field: SignedTankField, before: unknown, after: unknown }[] {
   return SIGNED_TANK_FIELDS

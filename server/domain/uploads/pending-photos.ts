@@ -21,6 +21,11 @@ export function pendingPhotoCount(db: Db, tankId: string): number {
   return db.select({ n: sql<number>`count(*)` }).from(uploads).where(and(eq(uploads.tankId, tankId), unattached)).get()?.n ?? 0
 }
 
+/** Whether the tank has room for one more unattached photo. Run it in the transaction that inserts the photo, so two uploads at once cannot both take the last place. */
+export function hasPendingPhotoRoom(db: Db, tankId: string): boolean {
+  return pendingPhotoCount(db, tankId) < PENDING_PHOTOS_PER_TANK
+}
+
 export interface RemovedUpload {
   storageKey: string
   thumbnailKey: string | null

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest'
-import { arrayRowToEntry, columnIndexes, EXPORT_MAPPING, guessMapping, parseCsvTime, rowToEntry } from '../../../../shared/readings/csv'
+import { arrayRowToEntry, columnIndexes, CSV_TIME_FORMATS_MESSAGE, EXPORT_MAPPING, guessMapping, parseCsvTime, rowToEntry } from '../../../../shared/readings/csv'
 import { toCanonicalEvent } from '../../../../shared/readings/events'
 
 const options = { basis: { ammonia: 'NH3', nitrite: 'NO2', nitrate: 'NO3' } as const, temperatureUnit: 'F' as const, salinityMode: 'practical' as const }
@@ -28,7 +28,7 @@ describe('CSV mapping', () => {
 
   it('reports cells that are not numbers or times', () => {
     const result = rowToEntry({ Date: 'last week', NH3: 'lots' }, { takenAt: 'Date', ammonia: 'NH3' }, options)
-    expect(result).toEqual({ issues: [{ field: 'takenAt', message: 'Not a date and time.' }, { field: 'ammonia', message: 'Not a number.' }] })
+    expect(result).toEqual({ issues: [{ field: 'takenAt', message: CSV_TIME_FORMATS_MESSAGE }, { field: 'ammonia', message: 'Not a number.' }] })
   })
 
   it('parses ISO times with offsets and bare dates', () => {
@@ -36,6 +36,22 @@ describe('CSV mapping', () => {
     expect(parseCsvTime('2026-05-01')).toBe('2026-05-01T12:00:00.000Z')
     expect(parseCsvTime('2026-05-01T08:00:00.000Z')).toBe('2026-05-01T08:00:00.000Z')
     expect(parseCsvTime('')).toBeNull()
+  })
+
+  it('reads the documented forms only: a date, a date and time read as UTC, or ISO 8601 with an offset', () => {
+    expect(parseCsvTime('2026-05-01 10:00')).toBe('2026-05-01T10:00:00.000Z')
+    expect(parseCsvTime(' 2026-05-01T10:00:30 ')).toBe('2026-05-01T10:00:30.000Z')
+    expect(parseCsvTime('2026-05-01T10:00:00.5-0330')).toBe('2026-05-01T13:30:00.500Z')
+    // Date.parse reads all of these, each as some day: 05/01 is 1 May in the US and 5 January elsewhere.
+    for (const text of ['05/01/2026', '01.05.2026 10:00', 'May 1, 2026', '1 May 2026 10:00', 'Fri May 01 2026 10:00:00 GMT+0200', '2026-5-1', '20260501', '2026/05/01', '1777777777', '2026-05-01T10:00:00 GMT', '2026-05-01T24:00', '2026-05-01T10:60', '2026-05-01T10:00+15:00']) {
+      expect(parseCsvTime(text), text).toBeNull()
+    }
+  })
+
+  it('says which forms it reads when a row\'s date is in another', () => {
+    const result = rowToEntry({ Date: '05/01/2026', NH3: '0.25' }, { takenAt: 'Date', ammonia: 'NH3' }, options)
+    expect(result).toEqual({ issues: [{ field: 'takenAt', message: CSV_TIME_FORMATS_MESSAGE }] })
+    expect(CSV_TIME_FORMATS_MESSAGE).toContain('2026-03-14 08:30')
   })
 })
 

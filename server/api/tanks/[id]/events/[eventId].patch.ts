@@ -3,6 +3,7 @@ import { EventParams, EventPatchSchema, type EventInput } from '#shared/schemas/
 import { toCanonicalEvent } from '#shared/readings/events'
 import type { EventView } from '#shared/types/readings'
 import { events } from '../../../../db/schema'
+import { eventColumns } from '../../../../domain/readings/columns'
 
 /**
  * PATCH /api/tanks/:id/events/:eventId — corrects an event; given fields replace the stored

@@ -3,6 +3,7 @@ import { EventInputSchema } from '#shared/schemas/reading'
 import { toCanonicalEvent } from '#shared/readings/events'
 import type { EventView } from '#shared/types/readings'
 import { events } from '../../../../db/schema'
+import { eventColumns } from '../../../../domain/readings/columns'
 
 /**
  * POST /api/tanks/:id/events — logs an ammonia dose (stored mg/L as N), bacteria dose,

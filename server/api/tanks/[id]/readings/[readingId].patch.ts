@@ -3,6 +3,7 @@ import { ReadingParams, ReadingPatchSchema } from '#shared/schemas/reading'
 import { entryFromStored, toCanonicalReading } from '#shared/readings/entry'
 import type { ReadingSaved } from '#shared/types/readings'
 import { readings } from '../../../../db/schema'
+import { readingColumns } from '../../../../domain/readings/columns'
 
 /**
  * PATCH /api/tanks/:id/readings/:readingId — corrects a reading: the given fields replace

@@ -4,6 +4,7 @@ import { ReadingInputSchema } from '#shared/schemas/reading'
 import { toCanonicalReading } from '#shared/readings/entry'
 import type { ReadingSaved } from '#shared/types/readings'
 import { readings, tanks } from '../../../../db/schema'
+import { readingColumns } from '../../../../domain/readings/columns'
 
 /**
  * POST /api/tanks/:id/readings — records one test session in canonical units and
