@@ -17,10 +17,18 @@ export function copyTank(db: TidewrightDB, sourceId: string, name: string, overr
   if (!source) throw new Error(`No tank ${sourceId}`)
   const { id: _id, createdAt: _c, updatedAt: _u, ...profile } = source
   const tankId = db.insert(tanks).values({ ...profile, name, ...overrides }).returning().get().id
-  const readingRows = db.select().from(readings).where(eq(readings.tankId, sourceId)).all()
-  if (readingRows.length) db.insert(readings).values(readingRows.map(({ id: _i, createdAt: _a, updatedAt: _b, ...r }) => ({ ...r, tankId, enteredBy: null }))).run()
-  const eventRows = db.select().from(events).where(eq(events.tankId, sourceId)).all()
-  if (eventRows.length) db.insert(events).values(eventRows.map(({ id: _i, createdAt: _a, updatedAt: _b, ...e }) => ({ ...e, tankId, enteredBy: null }))).run()
+  // A correction points at the row it corrects: the copy points at the copied row, not the source's
+  // (a correction made on the source tank by an earlier test would otherwise collide).
+  const readingIds = new Map<string, string>()
+  for (const { id, createdAt: _a, updatedAt: _b, ...r } of db.select().from(readings).where(eq(readings.tankId, sourceId)).orderBy(readings.createdAt).all()) {
+    const correctsId = r.correctsId ? readingIds.get(r.correctsId) ?? null : null
+    readingIds.set(id, db.insert(readings).values({ ...r, correctsId, tankId, enteredBy: null }).returning().get().id)
+  }
+  const eventIds = new Map<string, string>()
+  for (const { id, createdAt: _a, updatedAt: _b, ...e } of db.select().from(events).where(eq(events.tankId, sourceId)).orderBy(events.createdAt).all()) {
+    const correctsId = e.correctsId ? eventIds.get(e.correctsId) ?? null : null
+    eventIds.set(id, db.insert(events).values({ ...e, correctsId, tankId, enteredBy: null }).returning().get().id)
+  }
   computeAndStoreVerdict(db, tankId, new Date())
   return tankId
 }
