@@ -27,6 +27,8 @@ beforeAll(async () => {
   tankId = copyTank(db, inject('fixtures').demo.tanks.nano, 'Kestrel Wharf reef', {
     organisationId: company.organisationId, clientId: company.clientId, siteId: company.siteId,
     aquaristId: company.ids.aquarist, supervisorId: company.ids.supervisor, sumpLitres: 80,
+    // The demo nano may already be signed off by another test; the copy starts cycled, awaiting its request.
+    status: 'cycled',
   })
   const stages = db.select().from(planStages).where(eq(planStages.tankId, inject('fixtures').demo.tanks.nano)).all()
   db.insert(planStages).values(stages.map(({ id: _id, createdAt: _c, updatedAt: _u, tankId: _t, completedBy: _b, ...s }) => ({ ...s, tankId }))).run()
