@@ -70,3 +70,80 @@ describe('audit rows in the write\'s transaction', () => {
     expect(count(`select count(*) as n from plan_stages where notes = 'Unaudited stage note'`)).toBe(0)
   })
 })
+
+describe('every other write and its audit row', () => {
+  it('a client or site edit, an archive and a new site whose audit row cannot be written are not saved', async () => {
+    const api = await new ApiClient(own.server.baseURL).signIn('aquarist@tidewright.test')
+    const { lowe } = own.fixtures.demo.clients
+
+    const edit = await withAuditRefused('client.update', () => api.patch(`/api/clients/${lowe}`, { notes: 'Unaudited client note' }))
+    expect(edit.status).toBeGreaterThanOrEqual(500)
+    expect(count(`select count(*) as n from clients where notes = 'Unaudited client note'`)).toBe(0)
+
+    const archive = await withAuditRefused('client.archive', () => api.post(`/api/clients/${lowe}/archive`, { archived: true }))
+    expect(archive.status).toBeGreaterThanOrEqual(500)
+    expect(count(`select count(*) as n from clients where id = ? and archived_at is not null`, lowe)).toBe(0)
+
+    const site = await withAuditRefused('site.create', () => api.post(`/api/clients/${lowe}/sites`, { label: 'Unaudited site' }))
+    expect(site.status).toBeGreaterThanOrEqual(500)
+    expect(count(`select count(*) as n from sites where label = 'Unaudited site'`)).toBe(0)
+
+    const siteId = queryFile<{ id: string }>(own.dbPath, 'select id from sites where client_id = ? limit 1', lowe)[0]!.id
+    const siteEdit = await withAuditRefused('site.update', () => api.patch(`/api/sites/${siteId}`, { accessNotes: 'Unaudited access note' }))
+    expect(siteEdit.status).toBeGreaterThanOrEqual(500)
+    expect(count(`select count(*) as n from sites where access_notes = 'Unaudited access note'`)).toBe(0)
+
+    const siteArchive = await withAuditRefused('site.archive', () => api.post(`/api/sites/${siteId}/archive`, { archived: true }))
+    expect(siteArchive.status).toBeGreaterThanOrEqual(500)
+    expect(count(`select count(*) as n from sites where id = ? and archived_at is not null`, siteId)).toBe(0)
+  })
+
+  it('an e-mail choice and a reset request whose audit row cannot be written change nothing', async () => {
+    const api = await new ApiClient(own.server.baseURL).signIn('client@tidewright.test')
+    const choice = await withAuditRefused('preferences.update', () => api.request('PUT', '/api/me/notification-preferences', { emailKinds: { 'test-reminder': false } }))
+    expect(choice.status).toBeGreaterThanOrEqual(500)
+    const prefs = queryFile<{ email_kinds: string }>(own.dbPath, `select email_kinds from notification_preferences p join users u on u.id = p.user_id where u.email = 'client@tidewright.test'`)
+    expect(prefs.every(p => JSON.parse(p.email_kinds)['test-reminder'] !== false)).toBe(true)
+
+    const mailsBefore = count(`select count(*) as n from mail_outbox where to_address = 'client2@tidewright.test' and kind = 'reset'`)
+    await withAuditRefused('user.reset-requested', () => new ApiClient(own.server.baseURL).post('/api/auth/forgot-password', { email: 'client2@tidewright.test' }))
+    expect(count(`select count(*) as n from mail_outbox where to_address = 'client2@tidewright.test' and kind = 'reset'`)).toBe(mailsBefore)
+  })
+
+  it('an alert is acknowledged, resolved or opened only together with its audit row', async () => {
+    const aquarist2 = await new ApiClient(own.server.baseURL).signIn('aquarist2@tidewright.test')
+    const study = own.fixtures.demo.tanks.study
+    const openAlert = () => queryFile<{ id: string }>(own.dbPath, `select id from alerts where tank_id = ? and status = 'open'`, study)[0]?.id
+    const seeded = openAlert()
+    expect(seeded).toBeTruthy()
+
+    const ack = await withAuditRefused('alert.acknowledge', () => aquarist2.post(`/api/alerts/${seeded}/acknowledge`, { note: 'Unaudited' }))
+    expect(ack.status).toBeGreaterThanOrEqual(500)
+    expect(openAlert()).toBe(seeded)
+
+    let minutes = 20
+    const session = (ammonia: number) => ({
+      takenAt: new Date(Date.now() - (minutes -= 1) * 60_000).toISOString(), ammonia, nitrite: 0.3, nitrate: 5,
+      basis: { ammonia: 'NH3', nitrite: 'NO2', nitrate: 'NO3' }, pH: 8.1, temperature: 25, temperatureUnit: 'C', salinity: 35, salinityMode: 'practical',
+    })
+    const unaudited = (action: string) => count(`select count(*) as n from alerts a where a.tank_id = ? and not exists (select 1 from audit_log l where l.entity_id = a.id and l.action = ?)`, study, action)
+    const unauditedResolved = () => count(`select count(*) as n from alerts a where a.tank_id = ? and a.status = 'resolved' and not exists (select 1 from audit_log l where l.entity_id = a.id and l.action = 'alert.resolve')`, study)
+
+    // A clear test resolves the alert; while its audit row cannot be written, it stays open.
+    await withAuditRefused('alert.resolve', () => aquarist2.post(`/api/tanks/${study}/readings`, session(0)))
+    expect(unauditedResolved()).toBe(0)
+    expect(openAlert()).toBe(seeded)
+    expect((await aquarist2.post(`/api/tanks/${study}/readings`, session(0))).status).toBe(201)
+    expect(openAlert()).toBeUndefined()
+    expect(unauditedResolved()).toBe(0)
+
+    // 1.5 ppm NH3 is over the action level: an alert opens only with its audit row.
+    const alertsBefore = unaudited('alert.open')
+    await withAuditRefused('alert.open', () => aquarist2.post(`/api/tanks/${study}/readings`, session(1.5)))
+    expect(unaudited('alert.open')).toBe(alertsBefore)
+    expect((await aquarist2.post(`/api/tanks/${study}/readings`, session(1.5))).status).toBe(201)
+    const reopened = openAlert()
+    expect(reopened).toBeTruthy()
+    expect(count(`select count(*) as n from audit_log where entity_id = ? and action = 'alert.open'`, reopened)).toBe(1)
+  })
+})
