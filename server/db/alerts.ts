@@ -3,13 +3,14 @@
  * kind (the rule id); later readings that still show it update it; a verdict without it
  * resolves it. Unacknowledged alerts escalate to the tank's supervisor after the company's
  * delay. Framework-free: the server, the seed and the worker share it; each function runs
- * in one transaction so an alert, its notices and their e-mails commit together.
+ * in one transaction so an alert, its notices, their e-mails and its audit row commit together.
  */
 import { and, eq, inArray, isNull, lte, ne } from 'drizzle-orm'
 import type { Finding, Verdict } from '../../shared/cycle/types'
 import { actionLines, alertEscalatedMail, alertOpenedMail, clientDangerMail, mailReader, plainHtml, type MeasuredReading } from './alert-mail'
 import { forReader } from '../../shared/readings/reader-words'
 import type { TidewrightDB } from './connection'
+import { recordAudit } from '../domain/audit/record'
 import { writeNotice } from './notices'
 import { alerts, organisations, readings, tanks, users } from './schema'
 import { readOrganisationSettings } from './settings'
@@ -19,6 +20,8 @@ export type AlertRow = typeof alerts.$inferSelect
 export interface AlertSyncOptions {
   readingId?: string
   now?: Date
+  /** Who entered the change that moved the verdict; the audit rows name them (none: Tidewright itself). */
+  actorId?: string | null
   /** Public base URL for links in e-mails, e.g. https://app.example.com */
   baseUrl: string
 }
@@ -91,6 +94,7 @@ export function syncAlertsInDb(db: TidewrightDB, tankId: string, verdict: Verdic
       }).onConflictDoNothing({ target: alerts.openKey }).returning().get()
       if (!row) continue
       result.opened.push(row)
+      recordAudit(t, { id: options.actorId ?? null, organisationId: tank.organisationId }, { action: 'alert.open', entity: 'alert', entityId: row.id, after: { kind: row.kind, tankId, readingId: row.openedByReadingId } })
       if (aquarist?.active) {
         const words = alertOpenedMail({
           tankName: tank.name, tankUrl: tankUrl(options.baseUrl, tankId), finding, actions: verdict.actions,
@@ -126,6 +130,7 @@ export function syncAlertsInDb(db: TidewrightDB, tankId: string, verdict: Verdic
         lastReadingId: options.readingId ?? alert.lastReadingId, updatedAt: nowIso,
       }).where(eq(alerts.id, alert.id)).returning().get()
       result.resolved.push(row)
+      recordAudit(t, { id: options.actorId ?? null, organisationId: tank.organisationId }, { action: 'alert.resolve', entity: 'alert', entityId: row.id, after: { status: 'resolved', by: 'reading', readingId: options.readingId ?? null } })
       if (aquarist?.active) {
         const body = `A later reading cleared the danger alert on ${tank.name}. Keep testing as the verdict asks.`
         writeNotice(t, {
@@ -142,22 +147,33 @@ export function syncAlertsInDb(db: TidewrightDB, tankId: string, verdict: Verdic
 
 export interface AlertActionResult { alert: AlertRow, before: AlertRow }
 
-/** Acknowledges an open alert; already acknowledged or resolved alerts are returned unchanged (null). */
-export function acknowledgeAlertInDb(db: TidewrightDB, alertId: string, userId: string, note: string | null, now = new Date()): AlertActionResult | null {
-  const before = db.select().from(alerts).where(eq(alerts.id, alertId)).get()
-  if (!before || before.status !== 'open') return null
-  const alert = db.update(alerts).set({ status: 'acknowledged', acknowledgedAt: now.toISOString(), acknowledgedBy: userId, acknowledgeNote: note, updatedAt: now.toISOString() })
-    .where(and(eq(alerts.id, alertId), eq(alerts.status, 'open'))).returning().get()
-  return alert ? { alert, before } : null
+/** A person acting on an alert, for its audit row. */
+export interface AlertActor { id: string, organisationId: string }
+
+/** Acknowledges an open alert, with its audit row; already acknowledged or resolved alerts are returned unchanged (null). */
+export function acknowledgeAlertInDb(db: TidewrightDB, alertId: string, actor: AlertActor, note: string | null, now = new Date()): AlertActionResult | null {
+  return db.transaction((t) => {
+    const before = t.select().from(alerts).where(eq(alerts.id, alertId)).get()
+    if (!before || before.status !== 'open') return null
+    const alert = t.update(alerts).set({ status: 'acknowledged', acknowledgedAt: now.toISOString(), acknowledgedBy: actor.id, acknowledgeNote: note, updatedAt: now.toISOString() })
+      .where(and(eq(alerts.id, alertId), eq(alerts.status, 'open'))).returning().get()
+    if (!alert) return null
+    recordAudit(t, actor, { action: 'alert.acknowledge', entity: 'alert', entityId: alertId, before: { status: before.status }, after: { status: alert.status, note } })
+    return { alert, before }
+  })
 }
 
-/** Resolves an alert by hand with a note. */
-export function resolveAlertInDb(db: TidewrightDB, alertId: string, userId: string, note: string, now = new Date()): AlertActionResult | null {
-  const before = db.select().from(alerts).where(eq(alerts.id, alertId)).get()
-  if (!before || before.status === 'resolved') return null
-  const alert = db.update(alerts).set({ status: 'resolved', resolvedAt: now.toISOString(), resolvedBy: userId, resolveNote: note, openKey: null, updatedAt: now.toISOString() })
-    .where(and(eq(alerts.id, alertId), ne(alerts.status, 'resolved'))).returning().get()
-  return alert ? { alert, before } : null
+/** Resolves an alert by hand with a note, with its audit row. */
+export function resolveAlertInDb(db: TidewrightDB, alertId: string, actor: AlertActor, note: string, now = new Date()): AlertActionResult | null {
+  return db.transaction((t) => {
+    const before = t.select().from(alerts).where(eq(alerts.id, alertId)).get()
+    if (!before || before.status === 'resolved') return null
+    const alert = t.update(alerts).set({ status: 'resolved', resolvedAt: now.toISOString(), resolvedBy: actor.id, resolveNote: note, openKey: null, updatedAt: now.toISOString() })
+      .where(and(eq(alerts.id, alertId), ne(alerts.status, 'resolved'))).returning().get()
+    if (!alert) return null
+    recordAudit(t, actor, { action: 'alert.resolve', entity: 'alert', entityId: alertId, before: { status: before.status }, after: { status: 'resolved', by: 'hand', note } })
+    return { alert, before }
+  })
 }
 
 /** Hands every alert that stayed unacknowledged past its company's delay to the tank's supervisor. Returns who was told. */

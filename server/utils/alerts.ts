@@ -11,11 +11,8 @@ import type { Actor } from './access'
 
 /** Opens, updates and resolves the tank's alerts to match its verdict; called from onTankDataChanged. */
 export function syncAlerts(tankId: string, verdict: Verdict, options: { readingId?: string, now?: Date, actor?: Actor } = {}): AlertSyncResult {
-  const result = syncAlertsInDb(useDB(), tankId, verdict, { readingId: options.readingId, now: options.now, baseUrl: publicBaseUrl() })
   // Opened and cleared by the engine on behalf of whoever entered the reading (or the system).
-  const by = (organisationId: string) => ({ id: options.actor?.id ?? (null as unknown as string), organisationId })
-  for (const alert of result.opened) writeAudit(by(alert.organisationId), { action: 'alert.open', entity: 'alert', entityId: alert.id, after: { kind: alert.kind, tankId: alert.tankId, readingId: alert.openedByReadingId } })
-  for (const alert of result.resolved) writeAudit(by(alert.organisationId), { action: 'alert.resolve', entity: 'alert', entityId: alert.id, after: { status: 'resolved', by: 'reading', readingId: options.readingId ?? null } })
+  const result = syncAlertsInDb(useDB(), tankId, verdict, { readingId: options.readingId, now: options.now, baseUrl: publicBaseUrl(), actorId: options.actor?.id ?? null })
   announceNotices(result.notifiedUserIds)
   if (result.notifiedUserIds.length) kickMailWorker()
   return result
@@ -23,15 +20,13 @@ export function syncAlerts(tankId: string, verdict: Verdict, options: { readingI
 
 /** Acknowledges an alert for the actor; null if it was not open. */
 export function acknowledgeAlert(actor: Actor, alertId: string, note: string | null, now = new Date()) {
-  const done = acknowledgeAlertInDb(useDB(), alertId, actor.id, note, now)
-  if (done) writeAudit(actor, { action: 'alert.acknowledge', entity: 'alert', entityId: alertId, before: { status: done.before.status }, after: { status: done.alert.status, note } })
+  const done = acknowledgeAlertInDb(useDB(), alertId, actor, note, now)
   return done?.alert ?? null
 }
 
 /** Resolves an alert by hand; null if it was already resolved. */
 export function resolveAlert(actor: Actor, alertId: string, note: string, now = new Date()) {
-  const done = resolveAlertInDb(useDB(), alertId, actor.id, note, now)
-  if (done) writeAudit(actor, { action: 'alert.resolve', entity: 'alert', entityId: alertId, before: { status: done.before.status }, after: { status: 'resolved', by: 'hand', note } })
+  const done = resolveAlertInDb(useDB(), alertId, actor, note, now)
   return done?.alert ?? null
 }
 

@@ -6,6 +6,7 @@ import { passwordWeakness } from '../domain/accounts/password-strength'
 import type { TidewrightDB } from '../db/connection'
 import type { TokenPurpose } from './auth-tokens'
 import { endSessionsOfUser } from '../domain/sessions/sessions'
+import { recordAudit } from '../domain/audit/record'
 
 const GONE = 'This link has expired or has already been used'
 
@@ -27,13 +28,14 @@ export async function setPasswordWithToken(event: H3Event, purpose: TokenPurpose
       t.update(users).set({ passwordHash }).where(eq(users.id, id)).run()
       // Whoever knew the old password (or holds a cookie from then) is out.
       endSessionsOfUser(t, id, { reason: 'password-reset', now })
+      const { organisationId } = t.select({ organisationId: users.organisationId }).from(users).where(eq(users.id, id)).get()!
+      recordAudit(t, { id, organisationId }, { action: purpose === 'invite' ? 'user.invite-accepted' : 'user.password-reset', entity: 'user', entityId: id })
     }
     return id
   })
   if (!userId) throw createError({ statusCode: 410, statusMessage: GONE })
   const user = db.select().from(users).where(eq(users.id, userId)).get()!
   clearSignInFailures(user.email)
-  writeAudit({ id: user.id, organisationId: user.organisationId }, { action: purpose === 'invite' ? 'user.invite-accepted' : 'user.password-reset', entity: 'user', entityId: user.id })
   await signInAs(event, user)
   return { user: { id: user.id, name: user.name, role: user.role } }
 }

@@ -4,3 +4,8 @@ import * as v from 'valibot'
 export const IdParams = v.object({
   id: v.pipe(v.string(), v.uuid('Not a valid id.')),
 })
+
+/** Body of an archive route: archive (the default) or restore with `{ archived: false }`. */
+export const ArchiveSchema = v.object({
+  archived: v.optional(v.boolean('archived is true or false.'), true),
+})

@@ -1,6 +1,7 @@
 import { eq } from 'drizzle-orm'
 import { ForgotPasswordSchema } from '#shared/schemas/account'
 import { enqueueMail } from '../../db/outbox'
+import { recordAudit } from '../../domain/audit/record'
 import { users } from '../../db/schema'
 import type { TidewrightDB } from '../../db/connection'
 
@@ -20,8 +21,8 @@ export default defineEventHandler(async (event) => {
       const token = issueToken(t, user.id, 'reset', now)
       const words = resetMail(user.name, publicLink(`/reset-password?token=${token}`))
       enqueueMail(t, { organisationId: user.organisationId, to: user.email, kind: 'reset', ...words }, now)
+      recordAudit(t, { id: user.id, organisationId: user.organisationId }, { action: 'user.reset-requested', entity: 'user', entityId: user.id })
     })
-    writeAudit({ id: user.id, organisationId: user.organisationId }, { action: 'user.reset-requested', entity: 'user', entityId: user.id })
     kickMailWorker()
   }
   return { message: ANSWER }

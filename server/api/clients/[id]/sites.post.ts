@@ -8,15 +8,14 @@ export default defineEventHandler(async (event) => {
   const { id } = await getValidatedRouterParams(event, valid(IdParams))
   const input = await readValidatedBody(event, valid(SiteCreateSchema))
   requireClient(actor, id)
-  const row = useDB().insert(sites).values({
+  const row = auditedChange(actor, db => db.insert(sites).values({
     organisationId: actor.organisationId,
     clientId: id,
     label: input.label,
     address: input.address || null,
     roomNotes: input.roomNotes || null,
     accessNotes: input.accessNotes || null,
-  }).returning().get()
-  writeAudit(actor, { action: 'site.create', entity: 'site', entityId: row.id, after: row })
+  }).returning().get(), row => ({ action: 'site.create', entity: 'site', entityId: row.id, after: row }))
   setResponseStatus(event, 201)
   return toSiteView(row)
 })

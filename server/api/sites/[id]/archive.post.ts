@@ -1,9 +1,6 @@
 import { eq } from 'drizzle-orm'
-import * as v from 'valibot'
-import { IdParams } from '#shared/schemas/common'
+import { ArchiveSchema, IdParams } from '#shared/schemas/common'
 import { sites } from '../../../db/schema'
-
-const ArchiveSchema = v.object({ archived: v.optional(v.boolean('archived is true or false.'), true) })
 
 /** POST /api/sites/:id/archive — archives a site (or restores it with `{ archived: false }`). Returns SiteView. */
 export default defineEventHandler(async (event) => {
@@ -12,7 +9,8 @@ export default defineEventHandler(async (event) => {
   const { archived } = await readValidatedBody(event, valid(ArchiveSchema))
   const before = requireSite(actor, id)
   if (!!before.archivedAt === archived) return toSiteView(before)
-  const after = useDB().update(sites).set({ archivedAt: archived ? new Date().toISOString() : null }).where(eq(sites.id, id)).returning().get()
-  writeAudit(actor, { action: archived ? 'site.archive' : 'site.restore', entity: 'site', entityId: id, before, after })
+  const after = auditedChange(actor,
+    db => db.update(sites).set({ archivedAt: archived ? new Date().toISOString() : null }).where(eq(sites.id, id)).returning().get(),
+    after => ({ action: archived ? 'site.archive' : 'site.restore', entity: 'site', entityId: id, before, after }))
   return toSiteView(after)
 })
