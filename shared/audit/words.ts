@@ -55,6 +55,7 @@ export const AUDIT_ACTION_LABELS: Readonly<Record<string, string>> = Object.free
   'user.reset-requested': 'Asked for a password reset',
   'user.password-reset': 'Chose a new password',
   'preferences.update': 'Changed notice preferences',
+  'preferences.units': 'Changed their units',
   'organisation.settings': 'Changed the company settings',
 })
 

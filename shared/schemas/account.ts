@@ -1,5 +1,6 @@
 import * as v from 'valibot'
 import { ROLES } from '../vocabulary'
+import { UnitSystemSchema } from './common'
 
 const Email = v.pipe(v.string('Enter an e-mail address.'), v.trim(), v.toLowerCase(), v.maxLength(254, 'That e-mail address is too long.'), v.email('Enter a valid e-mail address.'))
 
@@ -41,3 +42,6 @@ export const SetPasswordSchema = v.object({ token: TokenSchema, password: Passwo
 
 /** GET /api/auth/token query. */
 export const TokenQuery = v.object({ token: TokenSchema })
+
+/** PUT /api/me/units body: the unit system the person reads and types in, on every screen, e-mail and certificate. */
+export const UnitsPreferenceSchema = v.object({ units: UnitSystemSchema })

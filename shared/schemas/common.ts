@@ -1,4 +1,5 @@
 import * as v from 'valibot'
+import { UNIT_SYSTEMS } from '../vocabulary'
 
 /** Route parameter `:id` — our ids are UUIDs. */
 export const IdParams = v.object({
@@ -9,3 +10,6 @@ export const IdParams = v.object({
 export const ArchiveSchema = v.object({
   archived: v.optional(v.boolean('archived is true or false.'), true),
 })
+
+/** A unit system choice: US (gallons, °F, inches) or metric (litres, °C, millimetres). */
+export const UnitSystemSchema = v.picklist(UNIT_SYSTEMS, 'Choose US or metric units.')

@@ -7,7 +7,7 @@
 import * as v from 'valibot'
 import { THRESHOLD_SPECS } from '../cycle/thresholds'
 import type { Thresholds } from '../cycle/types'
-import { UNIT_SYSTEMS } from '../vocabulary'
+import { UnitSystemSchema } from './common'
 
 export type ThresholdKey = keyof Thresholds
 
@@ -96,7 +96,7 @@ const ThresholdOverridesSchema = v.pipe(
 const OrganisationSettingsEntries = {
   contact: v.object(ContactEntries, 'Give the contact details.'),
   timeZone: TimeZoneSchema,
-  defaultUnits: v.picklist(UNIT_SYSTEMS, 'Choose US or metric units.'),
+  defaultUnits: UnitSystemSchema,
   escalationMinutes: wholeNumber(5, 1440, 'the escalation delay'),
   reminders: v.object(RemindersEntries, 'Give the reminder settings.'),
   signOff: v.object(SignOffEntries, 'Give the sign-off policy.'),

@@ -17,7 +17,7 @@ import type { GenericSchema } from 'valibot'
 import { DEFAULT_PLAN_TEMPLATE } from '../../shared/plan/default-template'
 import { LoginSchema } from '../../shared/schemas/auth'
 import { AlertAcknowledgeSchema, AlertResolveSchema } from '../../shared/schemas/alerts'
-import { ForgotPasswordSchema, InvitationSchema, SetPasswordSchema } from '../../shared/schemas/account'
+import { ForgotPasswordSchema, InvitationSchema, SetPasswordSchema, UnitsPreferenceSchema } from '../../shared/schemas/account'
 import { CompanySettingsUpdateSchema, DEFAULT_ORGANISATION_SETTINGS } from '../../shared/schemas/settings'
 import { NotificationPreferencesSchema } from '../../shared/schemas/notifications'
 import { PersonRoleSchema } from '../../shared/schemas/people'
@@ -345,6 +345,12 @@ export const ACCESS_MATRIX: Record<string, MatrixEntry> = {
     fuzz: { as: 'admin', schema: PersonRoleSchema, validBody: () => ({ role: 'supervisor' }) },
   },
   'GET /api/me/sessions': { url: () => '/api/me/sessions', expect: anySignedIn() },
+  'PUT /api/me/units': {
+    url: () => '/api/me/units',
+    body: () => ({ units: 'us' }),
+    expect: anySignedIn(),
+    fuzz: { as: 'client', schema: UnitsPreferenceSchema, validBody: () => ({ units: 'us' }) },
+  },
   'POST /api/me/sessions/[id]/end': {
     url: c => `/api/me/sessions/${someoneElsesSession(c)}/end`,
     expect: anySignedIn(404),
