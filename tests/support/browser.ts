@@ -23,12 +23,13 @@ export interface WatchedPage {
   problems: string[]
 }
 
-/** A fresh context and page at the given width, with its problems collected. */
-export async function openPage(browser: Browser, width = 1280): Promise<WatchedPage> {
+/** A fresh context and page at the given width, with its problems collected; `timezoneId` sets the browser's own clock. */
+export async function openPage(browser: Browser, width = 1280, options: { timezoneId?: string } = {}): Promise<WatchedPage> {
   const context = await browser.newContext({
     baseURL: inject('baseURL'),
     viewport: { width, height: width < 500 ? 812 : 900 },
     deviceScaleFactor: 1,
+    timezoneId: options.timezoneId,
   })
   const page = await context.newPage()
   const problems: string[] = []
