@@ -8,6 +8,8 @@ export interface SignedInPerson {
   name: string
   role: Role
   units: UnitSystem
+  /** The company's clock (IANA time zone) for every date and time shown. */
+  timeZone: string
 }
 
 /** Who may do what in the interface; the server checks every request again. */
@@ -34,10 +36,15 @@ export const useMeStore = defineStore('me', () => {
   const entersTests = computed(() => role.value !== undefined && TEST_ENTRY.includes(role.value))
   /** The person's unit system; metric until someone is signed in. */
   const units = computed<UnitSystem>(() => person.value?.units ?? 'metric')
+  /**
+   * The clock every moment is shown on: the company's, so the server's page and the hydrated
+   * browser agree wherever the browser is. UTC until someone is signed in.
+   */
+  const timeZone = computed(() => person.value?.timeZone ?? 'UTC')
 
   /** Takes the session's person (null when signed out); only the fields the interface uses are kept. */
   function setPerson(value: SignedInPerson | null | undefined): void {
-    person.value = value ? { id: value.id, name: value.name, role: value.role, units: value.units } : null
+    person.value = value ? { id: value.id, name: value.name, role: value.role, units: value.units, timeZone: value.timeZone } : null
   }
 
   /** A preference saved on the server shows at once, before the session is read again. */
@@ -49,5 +56,5 @@ export const useMeStore = defineStore('me', () => {
     person.value = null
   }
 
-  return { person, signedIn, role, isClient, isStaff, isAdmin, managesTanks, entersTests, units, setPerson, setUnits, $reset }
+  return { person, signedIn, role, isClient, isStaff, isAdmin, managesTanks, entersTests, units, timeZone, setPerson, setUnits, $reset }
 })

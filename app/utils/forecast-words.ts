@@ -1,15 +1,15 @@
 import type { CycleForecast, ForecastRange } from '#shared/types/forecast'
 import type { CycleMethod } from '#shared/vocabulary'
-import { formatDate } from '~/utils/format'
+import { formatDate, formatShortDayMs } from '~/utils/reader-clock'
 
 /** "between Dec 18 and Dec 24, 2026" (the year once when both ends share it), or "on Dec 18, 2026". */
 export function rangeWords(range: ForecastRange): string {
   const from = formatDate(range.from)
   const to = formatDate(range.to)
   if (from === to) return `on ${from}`
-  const sameYear = new Date(range.from).getFullYear() === new Date(range.to).getFullYear()
-  const short = new Date(range.from).toLocaleDateString(undefined, { day: 'numeric', month: 'short' })
-  return `between ${sameYear ? short : from} and ${to}`
+  // Both ends are written on the same clock, so their last four characters are their years there.
+  const sameYear = from.slice(-4) === to.slice(-4)
+  return `between ${sameYear ? formatShortDayMs(Date.parse(range.from)) : from} and ${to}`
 }
 
 /**

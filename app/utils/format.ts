@@ -6,12 +6,6 @@ export function formatVolume(litres: number, units: UnitSystem): string {
   return units === 'us' ? `${Math.round(litresToUsGallons(litres))} gal` : `${Math.round(litres)} L`
 }
 
-/** A date in the reader's locale, short form. */
-export function formatDate(iso: string | null | undefined): string {
-  if (!iso) return '—'
-  return new Date(iso).toLocaleDateString(undefined, { day: 'numeric', month: 'short', year: 'numeric' })
-}
-
 /** Whole days between an ISO start and now. */
 export function daysSince(iso: string | null | undefined, now = Date.now()): number | null {
   if (!iso) return null

@@ -1,4 +1,3 @@
-import { formatMoment } from '#shared/readings/reader-words'
 import type { KitBasisChoice } from '#shared/readings/entry'
 import { nitrogenToKit, temperatureFromC } from '#shared/readings/entry'
 import type { UnitSystem } from '#shared/vocabulary'
@@ -18,12 +17,6 @@ export function showNitrogen(valueN: number | null, basis: KitBasisChoice[keyof 
 /** A temperature in the user's units. */
 export function showTemperature(valueC: number | null, units: UnitSystem): string {
   return valueC === null ? '—' : `${roundReading(temperatureFromC(valueC, units === 'us' ? 'F' : 'C'), 1)} °${units === 'us' ? 'F' : 'C'}`
-}
-
-/** Date and time on the reader's clock, short: the same format as moments inside engine texts. */
-export function formatTestTime(iso: string | null | undefined): string {
-  if (!iso) return '—'
-  return formatMoment(Date.parse(iso))
 }
 
 /** A Date as the value of an <input type="datetime-local"> in local time. */

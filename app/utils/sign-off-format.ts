@@ -10,12 +10,6 @@ export const SIGN_OFF_STATUS_LABELS: Record<SignOffStatus, string> = {
   reopened: 'Reopened',
 }
 
-/** Date and time in the reader's locale. */
-export function formatDateTime(iso: string | null | undefined): string {
-  if (!iso) return '—'
-  return new Date(iso).toLocaleString(undefined, { day: 'numeric', month: 'short', year: 'numeric', hour: '2-digit', minute: '2-digit' })
-}
-
 /** A nitrogen value, mg/L as N, or a dash. */
 export function formatN(value: number | null | undefined): string {
   return value === null || value === undefined ? '—' : value.toFixed(2)

@@ -31,15 +31,15 @@ export const thicknessFromMm = (mm: number, u: UnitSystem) => (u === 'us' ? Math
 
 /** A mass for reading: "12.3 kg" or "27.1 lb". */
 export function formatMass(kg: number, u: UnitSystem): string {
-  return `${fromKg(kg, u).toLocaleString(undefined, { maximumFractionDigits: 1 })} ${massUnit(u)}`
+  return `${fromKg(kg, u).toLocaleString('en-US', { maximumFractionDigits: 1 })} ${massUnit(u)}`
 }
 /** A length for reading, one decimal. */
 export function formatLength(mm: number, u: UnitSystem): string {
   const value = u === 'us' ? mm / MM_PER_INCH : mm / 10
-  return `${value.toLocaleString(undefined, { maximumFractionDigits: 1 })} ${lengthUnit(u)}`
+  return `${value.toLocaleString('en-US', { maximumFractionDigits: 1 })} ${lengthUnit(u)}`
 }
 /** Litres for reading with one decimal. */
 export function formatLitres(l: number, u: UnitSystem): string {
-  return `${fromLitres(l, u).toLocaleString(undefined, { maximumFractionDigits: 1 })} ${volumeUnit(u)}`
+  return `${fromLitres(l, u).toLocaleString('en-US', { maximumFractionDigits: 1 })} ${volumeUnit(u)}`
 }
 export { CM_PER_INCH }

@@ -4,6 +4,7 @@
  * session has ended. Clearing the session (sign-out, DELETE /api/_auth/session) ends its row.
  */
 import { endSessionByToken } from '../domain/sessions/sessions'
+import { readOrganisationSettings } from '../db/settings'
 
 export default defineNitroPlugin(() => {
   sessionHooks.hook('fetch', async (session, event) => {
@@ -15,7 +16,8 @@ export default defineNitroPlugin(() => {
       return
     }
     const { user } = signedIn
-    session.user = { id: user.id, name: user.name, role: user.role, organisationId: user.organisationId, units: user.units }
+    const { timeZone } = readOrganisationSettings(useDB(), user.organisationId)
+    session.user = { id: user.id, name: user.name, role: user.role, organisationId: user.organisationId, units: user.units, timeZone }
   })
   sessionHooks.hook('clear', (session, event) => {
     const token = session.secure?.sessionToken

@@ -5,6 +5,7 @@
  */
 import fontkit from '@pdf-lib/fontkit'
 import { PDFDocument, rgb, type PDFFont, type PDFPage } from 'pdf-lib'
+import { formatDay } from '#shared/readings/reader-words'
 import { celsiusToFahrenheit, litresToUsGallons } from '#shared/units'
 import { datedAcclimation, finalReadings, stockingSteps, type FinalReadingKey } from '#shared/sign-off/plan'
 import type { SignedStage, SignOffAmendmentView, SignOffSnapshot } from '#shared/types/sign-off'
@@ -40,10 +41,12 @@ const SOFT = rgb(0.21, 0.32, 0.36)
 const TIDE = rgb(0.06, 0.42, 0.45)
 const DANGER = rgb(0.75, 0.22, 0.17)
 
-/** A date as "1 Dec 2026", in UTC so the certificate reads the same everywhere. */
+/**
+ * A date as "Dec 1, 2026" (the one day format of every screen), in UTC: a signed certificate
+ * must read the same later, even if the company's time zone changes.
+ */
 export function certificateDate(iso: string | null | undefined): string {
-  if (!iso) return '—'
-  return new Date(iso).toLocaleDateString('en-GB', { day: 'numeric', month: 'short', year: 'numeric', timeZone: 'UTC' })
+  return iso ? formatDay(Date.parse(iso), 'UTC') : '—'
 }
 
 const READING_LABELS: Record<FinalReadingKey, string> = {

@@ -49,3 +49,18 @@ export function forReader(message: string, reader: Reader): string {
 export function formatMoment(ms: number, timeZone?: string): string {
   return new Date(ms).toLocaleString('en-US', { timeZone, day: 'numeric', month: 'short', hour: 'numeric', minute: '2-digit' })
 }
+
+/** A day without its year ("Dec 2"), where the year is plain from around it: chart axes, a range's first end. */
+export function formatShortDay(ms: number, timeZone?: string): string {
+  return new Date(ms).toLocaleDateString('en-US', { timeZone, day: 'numeric', month: 'short' })
+}
+
+/** A calendar day ("Dec 2, 2026") on a clock: earliest dates, sign-off days, forecasts. */
+export function formatDay(ms: number, timeZone?: string): string {
+  return new Date(ms).toLocaleDateString('en-US', { timeZone, day: 'numeric', month: 'short', year: 'numeric' })
+}
+
+/** A moment with its year ("Dec 2, 2026, 3:01 PM"), for records that outlive the season: sign-offs, audit rows, sign-ins. */
+export function formatStamp(ms: number, timeZone?: string): string {
+  return new Date(ms).toLocaleString('en-US', { timeZone, day: 'numeric', month: 'short', year: 'numeric', hour: 'numeric', minute: '2-digit' })
+}

@@ -10,6 +10,8 @@ declare module '#auth-utils' {
     role: Role
     organisationId: string
     units: UnitSystem
+    /** The company's time zone (IANA): every moment the person reads is on this clock, on the server's page and in the browser alike. */
+    timeZone: string
   }
   interface SecureSessionData {
     sessionToken?: string

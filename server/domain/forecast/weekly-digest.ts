@@ -9,6 +9,7 @@
 import { and, eq, inArray, isNull } from 'drizzle-orm'
 import { explainForecast, FORECAST_CAVEAT, forecastGapWords } from '../../../shared/cycle/forecast'
 import type { CycleForecast, ForecastRange } from '../../../shared/cycle/forecast'
+import { formatDay } from '../../../shared/readings/reader-words'
 import { wantsEmail } from '../../../shared/notifications/kinds'
 import type { CycleMethod } from '../../../shared/vocabulary'
 import { plainHtml } from '../../db/alert-mail'
@@ -24,17 +25,9 @@ import { FORECAST_STATUSES, forecastTank } from './tank-forecast'
 export const DIGEST_WEEKDAY = 1
 export const DIGEST_FROM_MINUTES = 8 * 60
 
-/** A date in the company's time zone, e.g. "Dec 18, 2026". */
+/** A date in the company's time zone, e.g. "Dec 18, 2026" (the settings schema only keeps zones Intl knows). */
 function dateIn(timeZone: string): (iso: string) => string {
-  const format = (zone: string) => new Intl.DateTimeFormat('en-US', { timeZone: zone, month: 'short', day: 'numeric', year: 'numeric' })
-  let formatter: Intl.DateTimeFormat
-  try {
-    formatter = format(timeZone)
-  }
-  catch {
-    formatter = format('UTC')
-  }
-  return iso => formatter.format(new Date(iso))
+  return iso => formatDay(Date.parse(iso), timeZone)
 }
 
 function rangeWords(range: ForecastRange, date: (iso: string) => string): string {

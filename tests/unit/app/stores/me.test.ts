@@ -3,7 +3,7 @@ import { beforeEach, describe, expect, it } from 'vitest'
 import { useMeStore, type SignedInPerson } from '../../../../app/stores/me'
 import type { Role } from '../../../../shared/vocabulary'
 
-const person = (role: Role, extra: Partial<SignedInPerson> = {}): SignedInPerson => ({ id: 'p1', name: 'Rin', role, units: 'us', ...extra })
+const person = (role: Role, extra: Partial<SignedInPerson> = {}): SignedInPerson => ({ id: 'p1', name: 'Rin', role, units: 'us', timeZone: 'America/Chicago', ...extra })
 
 describe('the signed-in person store', () => {
   beforeEach(() => setActivePinia(createPinia()))

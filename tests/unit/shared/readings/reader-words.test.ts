@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest'
-import { formatMoment, forReader } from '../../../../shared/readings/reader-words'
+import { formatDay, formatMoment, formatShortDay, formatStamp, forReader } from '../../../../shared/readings/reader-words'
 
 const KIT = { ammonia: 'NH3', nitrite: 'NO2', nitrate: 'NO3' } as const
 const utcClock = (ms: number) => formatMoment(ms, 'UTC')
@@ -38,5 +38,31 @@ describe('forReader: an engine message in the reader\'s own units, clock and kit
     expect(forReader(message, { units: 'us', when: utcClock })).toBe(message)
     expect(forReader(message, { units: 'us', when: utcClock, kit: { basis: KIT, exactN: [] } }))
       .toBe('Total ammonia is 1 ppm as NH3, above the 0.5 ppm as NH3 limit.')
+  })
+})
+
+describe('one clock for dates and times', () => {
+  // 23:30 UTC on Dec 2 is already Dec 3 in Auckland (NZDT, UTC+13 in December) and still Dec 2
+  // in Chicago (CST, UTC-6): IANA tz database.
+  const lateDec2 = Date.UTC(2026, 11, 2, 23, 30)
+
+  it('writes a day, a short day, a moment and a stamp in one format on a given clock', () => {
+    const space = (text: string) => text.replace(/\s/g, ' ')
+    expect(formatDay(lateDec2, 'UTC')).toBe('Dec 2, 2026')
+    expect(formatDay(lateDec2, 'Pacific/Auckland')).toBe('Dec 3, 2026')
+    expect(formatShortDay(lateDec2, 'America/Chicago')).toBe('Dec 2')
+    expect(space(formatMoment(lateDec2, 'America/Chicago'))).toBe('Dec 2, 5:30 PM')
+    expect(space(formatStamp(lateDec2, 'Pacific/Auckland'))).toBe('Dec 3, 2026, 12:30 PM')
+  })
+
+  it('does not depend on the machine\'s own time zone once a clock is given', () => {
+    const machine = process.env.TZ
+    try {
+      process.env.TZ = 'Pacific/Kiritimati'
+      expect(formatDay(lateDec2, 'UTC')).toBe('Dec 2, 2026')
+    }
+    finally {
+      process.env.TZ = machine
+    }
   })
 })
