@@ -1,9 +1,14 @@
 /**
  * Corrections: after sign-off a reading or event is never changed in place; a new row
  * points at the one it corrects, with a reason, and the engine uses the newest version
- * (server/db/verdicts.ts skips corrected rows). Also the start of stocking.
+ * (server/db/verdicts.ts skips corrected rows). A correction, and the livestock written at
+ * the start of stocking, pass the very field rules of the reading and event forms
+ * (shared/readings/entry.ts, events.ts). Also the start of stocking.
  */
 import { and, eq } from 'drizzle-orm'
+import { checkCanonicalReading, type CanonicalValues } from '#shared/readings/entry'
+import { toCanonicalEvent } from '#shared/readings/events'
+import type { EventInput } from '#shared/schemas/reading'
 import type { EventCorrectionInput, ReadingCorrectionInput, StartStockingInput } from '#shared/schemas/sign-off'
 import { MEASURED_FIELDS } from '#shared/vocabulary'
 import type { tanks } from '../db/schema'
@@ -22,7 +27,7 @@ function alreadyCorrected(kind: 'reading' | 'event', correctionId: string): neve
 }
 
 /** Adds a correction of a reading of the tank; 404 if the reading is not the tank's. */
-export function correctReading(actor: Actor, tankId: string, readingId: string, input: ReadingCorrectionInput) {
+export function correctReading(actor: Actor, tankId: string, readingId: string, input: ReadingCorrectionInput, now = new Date()) {
   const db = useDB()
   const original = db.select().from(readings).where(and(eq(readings.id, readingId), eq(readings.tankId, tankId))).get()
   if (!original) throw createError({ statusCode: 404, statusMessage: 'Reading not found' })
@@ -33,6 +38,8 @@ export function correctReading(actor: Actor, tankId: string, readingId: string, 
     const given = input[key]
     ;(values as Record<string, unknown>)[key] = given === undefined ? original[key] : given
   }
+  const issues = checkCanonicalReading(original.takenAt, values as CanonicalValues, values.notes ?? null, now)
+  if (issues.length) fieldError(issues)
   const row = db.transaction(() => {
     const inserted = db.insert(readings).values({
       tankId,
@@ -52,20 +59,31 @@ export function correctReading(actor: Actor, tankId: string, readingId: string, 
 }
 
 /** Adds a correction of an event of the tank; 404 if the event is not the tank's. */
-export function correctEvent(actor: Actor, tankId: string, eventId: string, input: EventCorrectionInput) {
+export function correctEvent(actor: Actor, tankId: string, eventId: string, input: EventCorrectionInput, now = new Date()) {
   const db = useDB()
   const original = db.select().from(events).where(and(eq(events.id, eventId), eq(events.tankId, tankId))).get()
   if (!original) throw createError({ statusCode: 404, statusMessage: 'Event not found' })
   const later = db.select({ id: events.id }).from(events).where(eq(events.correctsId, eventId)).get()
   if (later) alreadyCorrected('event', later.id)
+  // Amounts are canonical (mg/L as N, litres, a count), so the form's rules read them on that basis.
+  const checked = toCanonicalEvent({
+    at: original.at,
+    kind: original.kind,
+    amount: input.amount === undefined ? original.amount : input.amount,
+    doseBasis: 'N',
+    volumeUnit: 'L',
+    group: (input.group === undefined ? original.group : input.group) as EventInput['group'],
+    notes: input.notes === undefined ? original.notes : input.notes,
+  }, now)
+  if (!checked.ok) fieldError(checked.issues)
   const row = db.transaction(() => {
     const inserted = db.insert(events).values({
       tankId,
       at: original.at,
       kind: original.kind,
-      amount: input.amount === undefined ? original.amount : input.amount,
-      group: input.group === undefined ? original.group : input.group,
-      notes: input.notes === undefined ? original.notes : input.notes,
+      amount: checked.event.amount,
+      group: checked.event.group,
+      notes: checked.event.notes,
       enteredBy: actor.id,
       correctsId: original.id,
       correctionReason: input.reason,
