@@ -11,6 +11,7 @@ import { toCanonicalEvent } from '#shared/readings/events'
 import type { EventInput } from '#shared/schemas/reading'
 import type { EventCorrectionInput, ReadingCorrectionInput, StartStockingInput } from '#shared/schemas/sign-off'
 import { MEASURED_FIELDS } from '#shared/vocabulary'
+import { eventColumns } from '../domain/readings/columns'
 import type { tanks } from '../db/schema'
 import { events, readings } from '../db/schema'
 import { canManageTank, type Actor } from './access'
@@ -95,16 +96,23 @@ export function correctEvent(actor: Actor, tankId: string, eventId: string, inpu
   return row
 }
 
+/** The first livestock as the event form would store it (the same time bounds, count and note rules); 400 otherwise. */
+function firstLivestock(livestock: NonNullable<StartStockingInput['livestock']>, now: Date) {
+  const checked = toCanonicalEvent({ at: livestock.at ?? now.toISOString(), kind: 'livestock-added', amount: livestock.count, doseBasis: 'N', volumeUnit: 'L', group: livestock.group, notes: livestock.notes ?? null }, now)
+  if (!checked.ok) fieldError(checked.issues.map(issue => ({ ...issue, field: `livestock.${issue.field}` })))
+  return checked.event
+}
+
 /** Moves a signed-off tank to stocking, recording the first livestock when given. */
 export function startStocking(actor: Actor, tank: typeof tanks.$inferSelect, input: StartStockingInput, now = new Date()) {
   if (!canManageTank(actor, tank)) throw createError({ statusCode: 403, statusMessage: 'Only the company\'s aquarists and admins may start stocking' })
   if (tank.status !== 'signed-off') throw createError({ statusCode: 409, statusMessage: tank.status === 'stocking' ? 'Stocking has already started' : 'Stocking starts after the sign-off' })
   const db = useDB()
-  const at = input.livestock?.at ? new Date(input.livestock.at).toISOString() : now.toISOString()
-  if (input.livestock) assertEntryUnlocked(tank.id, at)
+  const first = input.livestock ? firstLivestock(input.livestock, now) : undefined
+  if (first) assertEntryUnlocked(tank.id, first.at)
   const eventId = db.transaction(() => {
-    const livestock = input.livestock
-      ? db.insert(events).values({ tankId: tank.id, at, kind: 'livestock-added', group: input.livestock.group, amount: input.livestock.count ?? null, notes: input.livestock.notes || null, enteredBy: actor.id }).returning().get()
+    const livestock = first
+      ? db.insert(events).values({ tankId: tank.id, ...eventColumns(first), enteredBy: actor.id }).returning().get()
       : undefined
     moveTank({ tankId: tank.id, trigger: 'stocking-started', actor })
     writeAudit(actor, { action: 'tank.start-stocking', entity: 'tank', entityId: tank.id, before: { status: tank.status }, after: { status: 'stocking', livestockEventId: livestock?.id ?? null, group: livestock?.group ?? null } })

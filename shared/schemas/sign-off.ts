@@ -1,6 +1,7 @@
 /** Inputs for sign-off: request, decision, reopening, corrections and the start of stocking. */
 import * as v from 'valibot'
 import { MAX_LIVESTOCK_COUNT } from '../readings/events'
+import { ENTRY_NOTES_MAX } from '../readings/fields'
 import { LIVESTOCK_GROUPS, MEASURED_FIELDS, PHYSICAL_BOUNDS, type MeasuredField } from '../vocabulary'
 import { isoTimestampText } from './common'
 
@@ -68,8 +69,9 @@ export type EventCorrectionInput = v.InferOutput<typeof EventCorrectionSchema>
 export const StartStockingSchema = v.object({
   livestock: v.optional(v.object({
     group: v.picklist(LIVESTOCK_GROUPS, 'Choose a livestock group.'),
-    count: v.optional(v.pipe(v.number('Give a number.'), v.integer('A whole number.'), v.minValue(1, 'At least 1.'), v.maxValue(MAX_LIVESTOCK_COUNT, `At most ${MAX_LIVESTOCK_COUNT}.`))),
-    notes: v.optional(note(1000)),
+    // Required, as in the event form: a livestock entry says how many went in.
+    count: v.pipe(v.number('Give how many.'), v.integer('A whole number.'), v.minValue(1, 'At least 1.'), v.maxValue(MAX_LIVESTOCK_COUNT, `At most ${MAX_LIVESTOCK_COUNT}.`)),
+    notes: v.optional(note(ENTRY_NOTES_MAX)),
     at: v.optional(isoTime),
   })),
 })

@@ -41,5 +41,7 @@ describe('times in input schemas', () => {
   it('takes as many animals at the start of stocking as the event form does', () => {
     expect(ok(StartStockingSchema, { livestock: { group: 'fish', count: MAX_LIVESTOCK_COUNT } })).toBe(true)
     expect(ok(StartStockingSchema, { livestock: { group: 'fish', count: MAX_LIVESTOCK_COUNT + 1 } })).toBe(false)
+    expect(ok(StartStockingSchema, { livestock: { group: 'fish' } })).toBe(false)
+    expect(ok(StartStockingSchema, {})).toBe(true)
   })
 })
