@@ -1,7 +1,8 @@
 /**
  * Throttles that hold when requests arrive together: sign-in attempts are reserved before
- * the password is checked, and password-reset mail is limited per address and per
- * network with the same answer either way. A server of its own, so the attempts counted
+ * the password is checked, password-reset and invitation mail (resends included) are
+ * limited per address with the same answer either way, invitations per inviting account,
+ * and an IPv6 network is counted by its /64 behind a trusted proxy. A server of its own, so the attempts counted
  * here (all from 127.0.0.1) never slow other test files.
  */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'

@@ -1,7 +1,8 @@
 /**
  * One rule, every path: the form and the CSV import refuse the same values. A note longer
  * than the form allows, a day that does not exist (2026-02-30 is not rolled into March),
- * a number written in hex, and a header row that names a column twice.
+ * a number written in hex, and a header row that names a column twice. JSON times (create,
+ * edit, list and chart ranges, audit days) are read by the same rule as CSV times.
  */
 import { describe, expect, inject, it } from 'vitest'
 import { queryFile } from '../support/db-checksum'
