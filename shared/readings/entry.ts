@@ -13,7 +13,7 @@ import { toNitrogen, fromNitrogen, type NitrogenSpecies } from '../chemistry/nit
 import { SG_BASES, salinityFromConductivity, salinityFromSpecificGravity } from '../chemistry/seawater'
 import { DEFAULT_THRESHOLDS } from '../cycle/thresholds'
 import { celsiusToFahrenheit, fahrenheitToCelsius } from '../units'
-import { calendarDateExists, ENTRY_NOTES_MAX } from './fields'
+import { calendarDateExists, ENTRY_NOTES_MAX, parseIsoTime, toIsoInstant } from './fields'
 import {
   MEASURED_FIELDS, PHYSICAL_BOUNDS,
   type AmmoniaBasis, type FlagSeverity, type MeasuredField, type NitrateBasis, type NitriteBasis, type SalinityMode, type TemperatureUnit,
@@ -174,9 +174,9 @@ export function temperatureFromC(valueC: number, unit: TemperatureUnit): number 
 
 /** Refuses a time that is not a time, is in the future beyond clock skew, or is implausibly old. */
 export function checkTakenAt(takenAt: string, now: Date): EntryIssue | null {
-  const t = Date.parse(takenAt)
-  if (!Number.isFinite(t)) return { field: 'takenAt', message: 'Give the date and time the test was taken.' }
   if (!calendarDateExists(takenAt)) return { field: 'takenAt', message: 'That date does not exist. Check the day and the month.' }
+  const t = parseIsoTime(takenAt)?.ms
+  if (t === undefined) return { field: 'takenAt', message: 'Give the date and time the test was taken.' }
   if (t > now.getTime() + FUTURE_SKEW_MS) return { field: 'takenAt', message: 'A test cannot be taken in the future. Check the date and time.' }
   if (t < now.getTime() - OLDEST_READING_YEARS * 365.25 * 86_400_000) return { field: 'takenAt', message: 'That date is too far in the past.' }
   return null
@@ -291,7 +291,7 @@ export function toCanonicalReading(entry: ReadingEntry, now: Date = new Date()):
   return {
     ok: true,
     reading: {
-      takenAt: ISO_UTC.test(entry.takenAt) ? entry.takenAt : new Date(entry.takenAt).toISOString(),
+      takenAt: ISO_UTC.test(entry.takenAt) ? entry.takenAt : toIsoInstant(entry.takenAt)!,
       values,
       notes,
       entered: enteredRecord(entry),
@@ -386,4 +386,33 @@ export function entryFromStored(row: StoredReading, kit: KitBasisChoice, tempera
     phosphateMgL: row.phosphateMgL,
     notes: row.notes,
   }
+}
+
+/**
+ * Checks canonical values (mg/L as N, degrees C, practical salinity), as a correction
+ * carries them, with the very rules of the form: the same bounds, the same note length,
+ * at least one result or a note. Issues name the canonical fields ("ammoniaN").
+ */
+export function checkCanonicalReading(takenAt: string, values: CanonicalValues, notes: string | null, now: Date = new Date()): EntryIssue[] {
+  const entry: ReadingEntry = {
+    takenAt,
+    ammonia: values.ammoniaN,
+    nitrite: values.nitriteN,
+    nitrate: values.nitrateN,
+    basis: { ammonia: 'N', nitrite: 'N', nitrate: 'N' },
+    pH: values.pH,
+    temperature: values.temperatureC,
+    temperatureUnit: 'C',
+    salinity: values.salinity,
+    salinityMode: 'practical',
+    alkalinityDkh: values.alkalinityDkh,
+    calciumMgL: values.calciumMgL,
+    magnesiumMgL: values.magnesiumMgL,
+    phosphateMgL: values.phosphateMgL,
+    notes,
+  }
+  const result = toCanonicalReading(entry, now)
+  if (result.ok) return []
+  const canonical = new Map<string, string>(MEASURED_FIELDS.map(field => [INPUT_FIELD[field], field]))
+  return result.issues.map(issue => ({ ...issue, field: canonical.get(issue.field) ?? issue.field }))
 }

@@ -7,6 +7,7 @@ import { usGallonsToLitres, litresToUsGallons } from '../units'
 import type { EventInput } from '../schemas/reading'
 import type { LivestockGroup, UnitSystem } from '../vocabulary'
 import { checkTakenAt, type EntryIssue } from './entry'
+import { toIsoInstant } from './fields'
 
 export interface CanonicalEvent {
   at: string
@@ -69,7 +70,8 @@ export function toCanonicalEvent(input: EventInput, now: Date = new Date()): Eve
   const notes = input.notes?.trim() ? input.notes.trim() : null
   if (input.kind === 'note' && !notes) issues.push({ field: 'notes', message: 'Write the note.' })
   if (issues.length) return { ok: false, issues }
-  return { ok: true, event: { at: new Date(input.at).toISOString(), kind: input.kind, amount, group, notes } }
+  // checkTakenAt has read the time, so it names an instant.
+  return { ok: true, event: { at: toIsoInstant(input.at)!, kind: input.kind, amount, group, notes } }
 }
 
 /** A stored event's amount in the user's units, for display. */

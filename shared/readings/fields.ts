@@ -57,3 +57,9 @@ export function parseIsoTime(text: string): ParsedTime | null {
   const utc = Date.UTC(Number(year), Number(month) - 1, Number(day), Number(hour), Number(minute), Number(second), Math.round(Number(`0.${fraction}`) * 1000))
   return { ms: utc - offsetMinutes * 60_000, dateOnly: match[4] === undefined }
 }
+
+/** The instant a text names, as stored ("2026-03-14T08:30:00.000Z"), read by parseIsoTime; null when it names none. */
+export function toIsoInstant(text: string): string | null {
+  const parsed = parseIsoTime(text)
+  return parsed ? new Date(parsed.ms).toISOString() : null
+}

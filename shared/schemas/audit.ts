@@ -1,7 +1,8 @@
 /** Query of the audit trail viewer and its CSV export. */
 import * as v from 'valibot'
+import { isoDayText } from './common'
 
-const day = (what: string) => v.optional(v.pipe(v.string(), v.regex(/^\d{4}-\d{2}-\d{2}$/, `${what} must be a date (YYYY-MM-DD).`), v.check(s => Number.isFinite(Date.parse(`${s}T00:00:00Z`)), `${what} must be a real date.`)))
+const day = (what: string) => v.optional(isoDayText(what))
 
 /** GET /api/audit query: filters by tank, person, action (a code like `reading.update` or its group `reading`) and days. */
 export const AuditQuerySchema = v.pipe(

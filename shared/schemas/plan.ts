@@ -1,12 +1,13 @@
 import * as v from 'valibot'
 import { ROOM_USES } from '../calc/weight'
 import { STAGE_STATUSES } from '../vocabulary'
+import { isoTimestampText } from './common'
 
 const finite = (label: string, min: number, max: number) => v.optional(v.nullable(v.pipe(
   v.number(`${label} must be a number.`), v.finite(`${label} must be a number.`),
   v.minValue(min, `${label} is at least ${min}.`), v.maxValue(max, `${label} is at most ${max}.`),
 )))
-const isoTime = (label: string) => v.optional(v.nullable(v.pipe(v.string(`${label} must be a date and time.`), v.isoTimestamp(`${label} must be a date and time.`))))
+const isoTime = (label: string) => v.optional(v.nullable(isoTimestampText(`${label} must be a date and time.`)))
 const clock = (label: string) => v.optional(v.nullable(v.pipe(v.string(), v.regex(/^([01]\d|2[0-3]):[0-5]\d$/, `${label} is a time HH:MM.`))))
 
 /** The helper values each default stage keeps in its `data`; canonical units only. */

@@ -5,7 +5,8 @@
  */
 import * as v from 'valibot'
 import { SG_BASES } from '../chemistry/seawater'
-import { calendarDateExists, ENTRY_NOTES_MAX } from '../readings/fields'
+import { ENTRY_NOTES_MAX } from '../readings/fields'
+import { isoTimeText as isoTime } from './common'
 import {
   AMMONIA_BASES, EVENT_KINDS, LIVESTOCK_GROUPS, NITRATE_BASES, NITRITE_BASES, SALINITY_MODES, TEMPERATURE_UNITS, VOLUME_UNITS,
 } from '../vocabulary'
@@ -13,7 +14,6 @@ import {
 const SG_KEYS = Object.keys(SG_BASES) as [keyof typeof SG_BASES, ...(keyof typeof SG_BASES)[]]
 
 const measured = (label: string) => v.nullish(v.pipe(v.number(`${label} must be a number.`), v.finite(`${label} must be a number.`)))
-const isoTime = (message: string) => v.pipe(v.string(message), v.maxLength(40, message), v.check(s => Number.isFinite(Date.parse(s)), message), v.check(calendarDateExists, 'That date does not exist. Check the day and the month.'))
 
 export const KitBasisSchema = v.object({
   ammonia: v.picklist(AMMONIA_BASES, 'Ammonia basis is NH3, NH4 or N.'),

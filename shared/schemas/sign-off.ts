@@ -1,10 +1,13 @@
 /** Inputs for sign-off: request, decision, reopening, corrections and the start of stocking. */
 import * as v from 'valibot'
+import { MAX_LIVESTOCK_COUNT } from '../readings/events'
+import { ENTRY_NOTES_MAX } from '../readings/fields'
 import { LIVESTOCK_GROUPS, MEASURED_FIELDS, PHYSICAL_BOUNDS, type MeasuredField } from '../vocabulary'
+import { isoTimestampText } from './common'
 
 const note = (max: number) => v.pipe(v.string('Write a note.'), v.trim(), v.maxLength(max, `Keep it under ${max} characters.`))
 const requiredNote = (what: string, max = 2000) => v.pipe(v.string(`Write ${what}.`), v.trim(), v.minLength(3, `Write ${what}.`), v.maxLength(max, `Keep it under ${max} characters.`))
-const isoTime = v.pipe(v.string('Give a date and time.'), v.isoTimestamp('Give a date and time.'))
+const isoTime = isoTimestampText('Give a date and time.')
 
 /** Asking the tank's supervisor to sign the cycle off. */
 export const SignOffRequestSchema = v.object({
@@ -66,8 +69,9 @@ export type EventCorrectionInput = v.InferOutput<typeof EventCorrectionSchema>
 export const StartStockingSchema = v.object({
   livestock: v.optional(v.object({
     group: v.picklist(LIVESTOCK_GROUPS, 'Choose a livestock group.'),
-    count: v.optional(v.pipe(v.number('Give a number.'), v.integer('A whole number.'), v.minValue(1, 'At least 1.'), v.maxValue(500, 'At most 500.'))),
-    notes: v.optional(note(1000)),
+    // Required, as in the event form: a livestock entry says how many went in.
+    count: v.pipe(v.number('Give how many.'), v.integer('A whole number.'), v.minValue(1, 'At least 1.'), v.maxValue(MAX_LIVESTOCK_COUNT, `At most ${MAX_LIVESTOCK_COUNT}.`)),
+    notes: v.optional(note(ENTRY_NOTES_MAX)),
     at: v.optional(isoTime),
   })),
 })

@@ -8,7 +8,7 @@ import { eq } from 'drizzle-orm'
 import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest'
 import { PHYSICAL_BOUNDS } from '../../shared/vocabulary'
 import { openDatabase, type TidewrightDB } from '../../server/db/connection'
-import { readings, users } from '../../server/db/schema'
+import { events, readings, users } from '../../server/db/schema'
 import type { ChartData, EventList, ReadingList } from '../../shared/types/readings'
 import { signedIn } from '../support/http'
 import { copyTank } from '../support/sign-off-tanks'
@@ -55,6 +55,67 @@ describe('a correction of a reading', () => {
     const { status, body } = await aquarist.post(`/api/tanks/${tankId}/readings/${readingId}/corrections`, { temperatureC: min, salinity: PHYSICAL_BOUNDS.salinity[1], reason: 'Read the wrong meter' })
     expect(status).toBe(201)
     expect(body).toMatchObject({ temperatureC: min, salinity: PHYSICAL_BOUNDS.salinity[1] })
+  })
+})
+
+describe('a correction of an event', () => {
+  // The event form's rules (shared/readings/events.ts) hold for a correction too: a dose
+  // above any cycling dose, a part of an animal, a note without words.
+  const addEvent = (values: Partial<typeof events.$inferInsert> & Pick<typeof events.$inferInsert, 'kind'>) =>
+    db.insert(events).values({ tankId, at: new Date(Date.now() - 86_400_000).toISOString(), ...values }).returning().get().id
+
+  it('refuses a dose the event form refuses (9999 and 25 mg/L as N), naming the field', async () => {
+    const aquarist = await signedIn(co.emails.aquarist)
+    const form = await aquarist.post(`/api/tanks/${tankId}/events`, { at: new Date().toISOString(), kind: 'ammonia-dose', amount: 9999, doseBasis: 'N' })
+    expect(form.status).toBe(400)
+    const dose = addEvent({ kind: 'ammonia-dose', amount: 2 })
+    for (const amount of [9999, 25, 0]) {
+      const correction = await aquarist.post(`/api/tanks/${tankId}/events/${dose}/corrections`, { amount, reason: 'Typed the dose wrong' })
+      console.log(`[corrections] ammonia-dose correction to ${amount} mg/L as N: ${correction.status}`)
+      expect(correction.status).toBe(400)
+      expect(correction.body.data.issues[0].field).toBe('amount')
+    }
+    const patched = await aquarist.patch(`/api/tanks/${tankId}/events/${dose}`, { amount: 9999 })
+    expect(patched.status).toBe(400)
+    expect(db.select().from(events).where(eq(events.correctsId, dose)).all()).toHaveLength(0)
+    expect(db.select().from(events).where(eq(events.id, dose)).get()?.amount).toBe(2)
+  })
+
+  it('refuses livestock counts the form refuses (2.5, 5000) and a note emptied of words', async () => {
+    const aquarist = await signedIn(co.emails.aquarist)
+    const fish = addEvent({ kind: 'livestock-added', group: 'fish', amount: 2 })
+    for (const amount of [2.5, 5000]) {
+      const correction = await aquarist.post(`/api/tanks/${tankId}/events/${fish}/corrections`, { amount, reason: 'Counted again' })
+      console.log(`[corrections] livestock correction to ${amount}: ${correction.status}`)
+      expect(correction.status).toBe(400)
+      expect(correction.body.data.issues[0].field).toBe('amount')
+    }
+    const note = addEvent({ kind: 'note', notes: 'Skimmer cup emptied' })
+    const emptied = await aquarist.post(`/api/tanks/${tankId}/events/${note}/corrections`, { notes: null, reason: 'Wrong tank' })
+    expect(emptied.status).toBe(400)
+    expect(emptied.body.data.issues[0].field).toBe('notes')
+    expect(db.select().from(events).where(eq(events.correctsId, fish)).all()).toHaveLength(0)
+    expect(db.select().from(events).where(eq(events.correctsId, note)).all()).toHaveLength(0)
+  })
+
+  it('accepts what the form accepts, in canonical units, and keeps a dose free of a livestock group', async () => {
+    const aquarist = await signedIn(co.emails.aquarist)
+    const dose = addEvent({ kind: 'ammonia-dose', amount: 2 })
+    const { status, body } = await aquarist.post(`/api/tanks/${tankId}/events/${dose}/corrections`, { amount: 20, group: 'fish', reason: 'Dosed the full amount' })
+    expect(status).toBe(201)
+    expect(body).toMatchObject({ kind: 'ammonia-dose', amount: 20, group: null, correctsId: dose })
+  })
+})
+
+describe('a correction of a reading that clears every value', () => {
+  it('is refused like an empty form: a reading holds at least one result or a note', async () => {
+    const aquarist = await signedIn(co.emails.aquarist)
+    const original = db.select().from(readings).where(eq(readings.tankId, tankId)).all().find(r => r.correctsId === null && r.id !== readingId)!
+    const cleared = Object.fromEntries(Object.keys(PHYSICAL_BOUNDS).map(field => [field, null]))
+    const correction = await aquarist.post(`/api/tanks/${tankId}/readings/${original.id}/corrections`, { ...cleared, notes: null, reason: 'Nothing was measured' })
+    console.log(`[corrections] reading correction clearing every value: ${correction.status}`)
+    expect(correction.status).toBe(400)
+    expect(db.select().from(readings).where(eq(readings.correctsId, original.id)).all()).toHaveLength(0)
   })
 })
 

@@ -200,6 +200,18 @@ describe('the locked record', () => {
     expect((await (await signedIn(U.client.email)).post(`/api/tanks/${complete}/start-stocking`, {})).status).toBe(403)
   })
 
+  it('writes the first livestock through the event form\'s rules: no animals dated in the future, none without a count', async () => {
+    const aquarist = await signedIn(U.aquarist.email)
+    const future = await aquarist.post(`/api/tanks/${complete}/start-stocking`, { livestock: { group: 'fish', count: 2, at: new Date(Date.now() + 2 * 86_400_000).toISOString() } })
+    console.log(`[sign-off] start of stocking with livestock dated two days ahead: ${future.status}`)
+    expect(future.status).toBe(400)
+    expect(future.body.data.issues[0].field).toBe('livestock.at')
+    const uncounted = await aquarist.post(`/api/tanks/${complete}/start-stocking`, { livestock: { group: 'fish' } })
+    expect(uncounted.status).toBe(400)
+    expect(db.select().from(tanks).where(eq(tanks.id, complete)).get()?.status).toBe('signed-off')
+    expect(db.select().from(events).where(and(eq(events.tankId, complete), eq(events.kind, 'livestock-added'))).all()).toHaveLength(0)
+  })
+
   it('corrects a locked reading with a new linked entry and a reason; the original stays', async () => {
     const supervisor = await signedIn(U.supervisor.email)
     const original = db.select().from(readings).where(eq(readings.tankId, complete)).all().find(r => r.ammoniaN !== null)!

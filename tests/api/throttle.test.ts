@@ -1,7 +1,8 @@
 /**
  * Throttles that hold when requests arrive together: sign-in attempts are reserved before
- * the password is checked, and password-reset mail is limited per address and per
- * network with the same answer either way. A server of its own, so the attempts counted
+ * the password is checked, password-reset and invitation mail (resends included) are
+ * limited per address with the same answer either way, invitations per inviting account,
+ * and an IPv6 network is counted by its /64 behind a trusted proxy. A server of its own, so the attempts counted
  * here (all from 127.0.0.1) never slow other test files.
  */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
@@ -67,6 +68,43 @@ describe('password-reset mail', () => {
   })
 })
 
+const inviteMailsTo = (email: string) => queryFile<{ n: number }>(own.dbPath, `select count(*) as n from mail_outbox where to_address = ? and kind = 'invite'`, email)[0]!.n
+
+async function invitee(admin: ApiClient, email: string): Promise<string> {
+  const invited = await admin.post('/api/invitations', { email, name: 'Throttle Invitee', role: 'client', clientId: own.fixtures.demo.clients.lowe })
+  expect(invited.status).toBe(201)
+  return queryFile<{ id: string }>(own.dbPath, 'select id from users where email = ?', email)[0]!.id
+}
+
+describe('invitation mail', () => {
+  it('sends at most 3 invitation mails a day to one address from an invitation and 20 resends at once, answering every resend the same', async () => {
+    const admin = await new ApiClient(own.server.baseURL).signIn('admin@tidewright.test')
+    const email = 'resend.flood@tidewright.test'
+    const id = await invitee(admin, email)
+    const answers = await Promise.all(Array.from({ length: 20 }, () => admin.post(`/api/invitations/${id}/resend`)))
+    const sent = inviteMailsTo(email)
+    console.log(`[throttle] an invitation and 20 parallel resends to one address: ${sent} mails queued`)
+    expect(sent).toBeGreaterThan(0)
+    expect(sent).toBeLessThanOrEqual(3)
+    for (const answer of answers) {
+      expect(answer.status).toBe(200)
+      expect(answer.body.sentTo).toBe(email)
+    }
+  })
+
+  it('limits one inviting account to 30 invitation mails an hour, resends included (429 past it)', async () => {
+    const admin = await new ApiClient(own.server.baseURL).signIn('admin@tidewright.test')
+    const id = await invitee(admin, 'resend.account@tidewright.test')
+    const answers = await Promise.all(Array.from({ length: 30 }, () => admin.post(`/api/invitations/${id}/resend`)))
+    const refused = answers.filter(a => a.status === 429)
+    console.log(`[throttle] 30 more parallel resends by one account (22 invitations and resends before): ${refused.length} refused (429)`)
+    expect(refused.length).toBeGreaterThanOrEqual(30 - 8)
+    expect(refused[0]!.headers.get('retry-after')).toBeTruthy()
+    const another = await admin.post('/api/invitations', { email: 'one.more@tidewright.test', name: 'One More', role: 'client', clientId: own.fixtures.demo.clients.lowe })
+    expect(another.status).toBe(429)
+  })
+})
+
 describe('addresses a client claims', () => {
   it('counts failures under the socket\'s address, whatever X-Forwarded-For says (no trusted proxy configured)', async () => {
     // 8 failures are on record for this network from the parallel guesses above; the limit is 30.
@@ -76,5 +114,30 @@ describe('addresses a client claims', () => {
     }
     const next = await new ApiClient(own.server.baseURL).request('POST', '/api/auth/login', { email: 'client3@tidewright.test', password: PASSWORD }, { 'x-forwarded-for': '203.0.113.200' })
     expect(next.status).toBe(429)
+  })
+})
+
+describe('IPv6 clients behind a trusted proxy', () => {
+  // RFC 6177 / RFC 7934: a host is normally given a whole /64, so the network limit (30
+  // failures in 15 minutes) counts the /64, not each of its 2^64 addresses.
+  let proxied: OwnServer
+  beforeAll(async () => {
+    proxied = await startOwnServer({ NUXT_TRUST_PROXY: '1' })
+  })
+  afterAll(async () => {
+    await proxied?.cleanup()
+  })
+
+  it('counts failures from every address of one /64 together, and a neighbouring /64 apart', async () => {
+    for (let i = 0; i < 30; i++) {
+      const from = `2001:db8:1:2:${(0xa000 + i).toString(16)}::${i + 1}`
+      const response = await new ApiClient(proxied.server.baseURL).request('POST', '/api/auth/login', { email: `rotating-${i}@example.test`, password: 'guess' }, { 'x-forwarded-for': from })
+      expect(response.status, from).toBe(401)
+    }
+    const sameNetwork = await new ApiClient(proxied.server.baseURL).request('POST', '/api/auth/login', { email: 'client3@tidewright.test', password: PASSWORD }, { 'x-forwarded-for': '2001:db8:1:2:ffff:ffff:ffff:fffe' })
+    console.log(`[throttle] 30 failures from 30 addresses of one /64, then a right password from a 31st: ${sameNetwork.status}`)
+    expect(sameNetwork.status).toBe(429)
+    const nextNetwork = await new ApiClient(proxied.server.baseURL).request('POST', '/api/auth/login', { email: 'client3@tidewright.test', password: PASSWORD }, { 'x-forwarded-for': '2001:db8:1:3::1' })
+    expect(nextNetwork.status).toBe(200)
   })
 })

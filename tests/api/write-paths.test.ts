@@ -1,7 +1,8 @@
 /**
  * One rule, every path: the form and the CSV import refuse the same values. A note longer
  * than the form allows, a day that does not exist (2026-02-30 is not rolled into March),
- * a number written in hex, and a header row that names a column twice.
+ * a number written in hex, and a header row that names a column twice. JSON times (create,
+ * edit, list and chart ranges, audit days) are read by the same rule as CSV times.
  */
 import { describe, expect, inject, it } from 'vitest'
 import { queryFile } from '../support/db-checksum'
@@ -70,5 +71,51 @@ describe('readings through the form and through CSV', () => {
     expect(csv.body.data.issues[0].field).toBe('csv')
     expect(csv.body.data.issues[0].message).toContain('column 3')
     expect(count(`select count(*) as n from readings where tank_id = ? and notes = 'which ammonia'`, tank)).toBe(0)
+  })
+})
+
+describe('times on the JSON path read like CSV times', () => {
+  // Date.parse rolls 24:00 into the next day and +002026-02-30 into March, and guesses at
+  // 03/04/2026; shared/readings/fields.ts parseIsoTime refuses all three on every path.
+  const LOOSE_TIMES = ['2026-03-04T24:00:00Z', '+002026-02-30T10:00:00Z', '03/04/2026 09:00']
+
+  it('refuses them when a reading or an event is created or changed, storing nothing', async () => {
+    const api = await new ApiClient().signIn('aquarist@tidewright.test')
+    const tank = inject('fixtures').demo.tanks.lobby
+    const reading = await api.post(`/api/tanks/${tank}/readings`, { ...READING_BODY(), notes: 'time target' })
+    expect(reading.status).toBe(201)
+    const event = await api.post(`/api/tanks/${tank}/events`, { at: '2026-03-04T09:00:00Z', kind: 'note', notes: 'time target event' })
+    expect(event.status).toBe(201)
+    for (const time of LOOSE_TIMES) {
+      const results = {
+        readingCreate: await api.post(`/api/tanks/${tank}/readings`, { ...READING_BODY(), takenAt: time, notes: 'loose time' }),
+        readingPatch: await api.patch(`/api/tanks/${tank}/readings/${reading.body.reading.id}`, { takenAt: time }),
+        eventCreate: await api.post(`/api/tanks/${tank}/events`, { at: time, kind: 'note', notes: 'loose time' }),
+        eventPatch: await api.patch(`/api/tanks/${tank}/events/${event.body.id}`, { at: time }),
+      }
+      console.log(`[write paths] ${time}: ${Object.entries(results).map(([path, r]) => `${path} ${r.status}`).join(', ')}`)
+      for (const [path, response] of Object.entries(results)) {
+        expect(response.status, `${path} with ${time}`).toBe(400)
+        expect(response.body.data.issues[0].field, `${path} with ${time}`).toMatch(/^(takenAt|at)$/)
+      }
+    }
+    expect(count(`select count(*) as n from readings where tank_id = ? and notes = 'loose time'`, tank)).toBe(0)
+    expect(count(`select count(*) as n from events where tank_id = ? and notes = 'loose time'`, tank)).toBe(0)
+    expect(count(`select count(*) as n from events where id = ? and at = '2026-03-04T09:00:00.000Z'`, event.body.id)).toBe(1)
+  })
+
+  it('refuses days that do not exist in the chart, history and audit filters', async () => {
+    const admin = await new ApiClient().signIn('admin@tidewright.test')
+    const tank = inject('fixtures').demo.tanks.lobby
+    const results = {
+      chart: await admin.get(`/api/tanks/${tank}/chart?from=2026-02-30`),
+      readings: await admin.get(`/api/tanks/${tank}/readings?from=2026-03-04T24:00:00Z`),
+      events: await admin.get(`/api/tanks/${tank}/events?to=%2B002026-02-30T10:00:00Z`),
+      audit: await admin.get(`/api/audit?from=2026-02-30`),
+    }
+    console.log(`[write paths] impossible days in filters: ${Object.entries(results).map(([path, r]) => `${path} ${r.status}`).join(', ')}`)
+    for (const [path, response] of Object.entries(results)) expect(response.status, path).toBe(400)
+    expect((await admin.get(`/api/tanks/${tank}/chart?from=2026-02-28&to=2026-03-01T12:00:00Z`)).status).toBe(200)
+    expect((await admin.get(`/api/audit?from=2026-02-28&to=2026-03-01`)).status).toBe(200)
   })
 })

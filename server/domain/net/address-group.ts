@@ -8,11 +8,15 @@ import { isIPv4, isIPv6 } from 'node:net'
 export function addressGroup(address: string | null | undefined): string {
   if (!address) return 'unknown'
   const bare = address.replace(/^\[|\]$/g, '').split('%')[0]!
-  const mapped = /^::ffff:(\d+\.\d+\.\d+\.\d+)$/i.exec(bare)
-  if (mapped) return mapped[1]!
   if (isIPv4(bare)) return bare
   if (!isIPv6(bare)) return 'unknown'
-  return `${expandIPv6(bare).slice(0, 4).join(':')}::/64`
+  const groups = expandIPv6(bare)
+  // An IPv4-mapped address (::ffff:a.b.c.d, RFC 4291 section 2.5.5.2), in either text form, is one IPv4 host.
+  if (groups.slice(0, 5).every(g => g === '0') && groups[5] === 'ffff') {
+    const [high, low] = [Number.parseInt(groups[6]!, 16), Number.parseInt(groups[7]!, 16)]
+    return [high >> 8, high & 255, low >> 8, low & 255].join('.')
+  }
+  return `${groups.slice(0, 4).join(':')}::/64`
 }
 
 /** The eight 16-bit groups of an IPv6 address, without leading zeros. */

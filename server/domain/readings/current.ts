@@ -10,6 +10,7 @@
  */
 import { and, asc, count, desc, eq, gte, isNull, lte, sql, type SQL } from 'drizzle-orm'
 import { alias, type AnySQLiteColumn } from 'drizzle-orm/sqlite-core'
+import { toIsoInstant } from '../../../shared/readings/fields'
 import type { Replacement } from '../../../shared/types/readings'
 import type { Db } from '../../db/connection'
 import { events, readings, users } from '../../db/schema'
@@ -36,7 +37,8 @@ const laterReading = alias(readings, 'later_reading')
 const laterEvent = alias(events, 'later_event')
 const corrector = alias(users, 'corrector')
 
-const iso = (time: string) => new Date(time).toISOString()
+// The routes' schemas have read the range with the same rule; a text it refuses bounds nothing.
+const iso = (time: string) => toIsoInstant(time) ?? time
 
 function countOf(db: Db, table: typeof readings | typeof events, where: SQL | undefined): number {
   return db.select({ n: count() }).from(table).where(where).get()?.n ?? 0

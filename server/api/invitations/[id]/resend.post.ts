@@ -4,7 +4,13 @@ import type { TidewrightDB } from '../../../db/connection'
 import { mayHandleAccountOf } from '../../../domain/people/invitations'
 import { findPerson } from '../../../domain/people/queries'
 
-/** POST /api/invitations/:id/resend — e-mails a fresh invitation link; the older link stops working. `:id` is the invited person. Returns { sentTo, expiresAt }. */
+/**
+ * POST /api/invitations/:id/resend — e-mails a fresh invitation link; the older link stops
+ * working. `:id` is the invited person. Counted with invitations: at most a few mails per
+ * address a day (past that the answer is the same and nothing is sent, so it never tells
+ * whether others wrote to the address) and per inviting account an hour (429).
+ * Returns { sentTo, expiresAt }.
+ */
 export default defineEventHandler(async (event) => {
   const actor = await requireActor(event, ['admin', 'aquarist'])
   const { id } = await getValidatedRouterParams(event, valid(IdParams))
@@ -14,11 +20,14 @@ export default defineEventHandler(async (event) => {
   if (!person || !mayHandleAccountOf(actor, person)) throw createError({ statusCode: 404, statusMessage: 'Invitation not found' })
   if (person.passwordHash !== null) throw createError({ statusCode: 409, statusMessage: `${person.name} has already accepted the invitation.` })
   if (!person.active) throw createError({ statusCode: 409, statusMessage: `${person.name}'s account is deactivated: reactivate it first.` })
+  requireInvitationAllowance(event, actor.id)
+  const answer = { sentTo: person.email, expiresAt: new Date(now.getTime() + TOKEN_TTL_MS.invite).toISOString() }
+  if (!mayMailInvitee(event, person.email)) return answer
   db.transaction((tx) => {
     const t = tx as unknown as TidewrightDB
     queueInvitation(t, person, actor.name, now)
     recordAudit(t, actor, { action: 'user.invite-resend', entity: 'user', entityId: person.id, after: { email: person.email } })
   })
   kickMailWorker()
-  return { sentTo: person.email, expiresAt: new Date(now.getTime() + TOKEN_TTL_MS.invite).toISOString() }
+  return answer
 })

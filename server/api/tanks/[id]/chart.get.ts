@@ -2,13 +2,13 @@ import * as v from 'valibot'
 import { resolveThresholds } from '#shared/cycle/thresholds'
 import type { CyclePhase } from '#shared/cycle/types'
 import type { ChartData } from '#shared/types/readings'
-import { IdParams } from '#shared/schemas/common'
+import { IdParams, isoTimeText } from '#shared/schemas/common'
 import { readOrganisationSettings } from '../../../db/settings'
 import { tankEvents, tankReadings } from '../../../domain/readings/current'
 
 const ChartQuery = v.object({
-  from: v.optional(v.pipe(v.string(), v.check(s => Number.isFinite(Date.parse(s)), 'From must be a date.'))),
-  to: v.optional(v.pipe(v.string(), v.check(s => Number.isFinite(Date.parse(s)), 'To must be a date.'))),
+  from: v.optional(isoTimeText('From must be a date.')),
+  to: v.optional(isoTimeText('To must be a date.')),
 })
 
 /**

@@ -3,8 +3,9 @@ import { StartStockingSchema } from '#shared/schemas/sign-off'
 
 /**
  * POST /api/tanks/:id/start-stocking — after sign-off, an aquarist or admin starts
- * stocking, optionally recording the first livestock (a 'livestock-added' event, which
- * may not be back-dated into the signed period: 409). The tank becomes 'stocking'.
+ * stocking, optionally recording the first livestock (a 'livestock-added' event under the
+ * event form's rules — a count, no future date: 400 — which may not be back-dated into the
+ * signed period: 409). The tank becomes 'stocking'.
  * Returns { status, eventId }.
  */
 export default defineEventHandler(async (event) => {
@@ -12,5 +13,5 @@ export default defineEventHandler(async (event) => {
   const { id } = await getValidatedRouterParams(event, valid(IdParams))
   const input = await readValidatedBody(event, valid(StartStockingSchema))
   const tank = requireVisibleTank(actor, id)
-  return startStocking(actor, tank, input)
+  return startStocking(actor, tank, input, requestNow(event))
 })

@@ -1,6 +1,7 @@
 import { describe, expect, it } from 'vitest'
 import { t90FromT68, conductivityFromSalinity, specificGravity, SG_BASES } from '../../../../shared/chemistry/seawater'
-import { entryFromStored, toCanonicalReading, type ReadingEntry } from '../../../../shared/readings/entry'
+import { checkCanonicalReading, entryFromStored, toCanonicalReading, type CanonicalValues, type ReadingEntry } from '../../../../shared/readings/entry'
+import { PHYSICAL_BOUNDS } from '../../../../shared/vocabulary'
 
 const NOW = new Date('2026-06-01T12:00:00Z')
 const base = (over: Partial<ReadingEntry> = {}): ReadingEntry => ({
@@ -105,5 +106,23 @@ describe('toCanonicalReading: bounds and flags', () => {
 
   it('refuses an empty test', () => {
     expect(issues(base())[0]!.message).toMatch(/at least one/)
+  })
+})
+
+describe('checkCanonicalReading: a correction meets the form\'s rules', () => {
+  const none: CanonicalValues = { ammoniaN: null, nitriteN: null, nitrateN: null, pH: null, temperatureC: null, salinity: null, alkalinityDkh: null, calciumMgL: null, magnesiumMgL: null, phosphateMgL: null }
+  const at = '2026-03-01T09:00:00.000Z'
+  const now = new Date('2026-03-02T00:00:00Z')
+
+  it('accepts canonical values at the physical bounds and names the canonical field past them', () => {
+    expect(checkCanonicalReading(at, { ...none, ammoniaN: PHYSICAL_BOUNDS.ammoniaN[1], temperatureC: PHYSICAL_BOUNDS.temperatureC[0] }, null, now)).toEqual([])
+    expect(checkCanonicalReading(at, { ...none, nitriteN: PHYSICAL_BOUNDS.nitriteN[1] + 1 }, null, now).map(i => i.field)).toEqual(['nitriteN'])
+    expect(checkCanonicalReading(at, { ...none, salinity: 43 }, null, now).map(i => i.field)).toEqual(['salinity'])
+  })
+
+  it('refuses a reading with no result and no note, and a note longer than the form takes', () => {
+    expect(checkCanonicalReading(at, none, null, now)).toHaveLength(1)
+    expect(checkCanonicalReading(at, none, 'Kit expired; test repeated tomorrow', now)).toEqual([])
+    expect(checkCanonicalReading(at, { ...none, pH: 8.1 }, 'x'.repeat(2001), now).map(i => i.field)).toEqual(['notes'])
   })
 })

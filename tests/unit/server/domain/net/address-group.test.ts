@@ -13,6 +13,16 @@ describe('addressGroup', () => {
     expect(addressGroup('fe80::1%eth0')).toBe('fe80:0:0:0::/64')
   })
 
+  it('gives two hosts of one /64 one key, however their interface ids differ', () => {
+    expect(addressGroup('2001:db8:1:2:aaaa::1')).toBe(addressGroup('2001:db8:1:2:bbbb::2'))
+  })
+
+  it('reads an IPv4-mapped address in either text form as its IPv4 address (RFC 4291 section 2.5.5.2)', () => {
+    expect(addressGroup('::ffff:cb00:7107')).toBe('203.0.113.7')
+    expect(addressGroup('0:0:0:0:0:FFFF:203.0.113.7')).toBe('203.0.113.7')
+    expect(addressGroup('::ffff:cb00:7108')).not.toBe(addressGroup('::ffff:cb00:7107'))
+  })
+
   it('keeps neighbouring /64s apart', () => {
     expect(addressGroup('2001:db8:1:3::1')).not.toBe(addressGroup('2001:db8:1:2::1'))
     expect(addressGroup('::1')).toBe('0:0:0:0::/64')

@@ -11,7 +11,7 @@ export default defineEventHandler(async (event) => {
   const { id, eventId } = await getValidatedRouterParams(event, valid(EventParams))
   const input = await readValidatedBody(event, valid(EventCorrectionSchema))
   const tank = requireVisibleTank(actor, id)
-  const row = correctEvent(actor, tank.id, eventId, input)
+  const row = correctEvent(actor, tank.id, eventId, input, requestNow(event))
   setResponseStatus(event, 201)
   return row
 })

@@ -12,7 +12,7 @@ export default defineEventHandler(async (event) => {
   const { id, readingId } = await getValidatedRouterParams(event, valid(ReadingParams))
   const input = await readValidatedBody(event, valid(ReadingCorrectionSchema))
   const tank = requireVisibleTank(actor, id)
-  const row = correctReading(actor, tank.id, readingId, input)
+  const row = correctReading(actor, tank.id, readingId, input, requestNow(event))
   setResponseStatus(event, 201)
   return row
 })
