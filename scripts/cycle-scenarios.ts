@@ -35,4 +35,5 @@ for (const scenario of SCENARIOS) {
   })
   console.log(`| ${scenario.id} | ${scenario.item} | ${cells.join(' | ')} |`)
 }
+for (const scenario of SCENARIOS.filter(s => s.open)) console.log(`\nOpen: ${scenario.id}: ${scenario.open}`)
 console.log(`\nAgreement with the aquarist (${SCENARIOS.length} scenarios): ${versions.map(v => `${short(v)} ${agreed[v]}/${SCENARIOS.length}`).join(', ')}`)

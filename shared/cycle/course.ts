@@ -33,6 +33,7 @@
  * stricter limits can only delay completion.
  */
 
+import type { RuleOptions } from './options'
 import { HOUR_MS } from './time'
 import type { History, TimedEvent, TimedReading } from './history'
 import type { CycleMethod, CycleEvent, Thresholds } from './types'
@@ -124,6 +125,8 @@ interface MutableDose {
   arrivedBy: TimedReading | null
   clearedBy: TimedReading | null
   diluted: boolean
+  /** Diluted once proven or with animals in (rule set 2.0.1): it proves nothing, but tests working it off are still held. */
+  holdsAfterChange: boolean
   lastInWindow: TimedReading | null
 }
 
@@ -161,6 +164,7 @@ interface ScanSettings {
   readonly windowMs: number
   readonly spanMs: number
   readonly gapMs: number
+  readonly options: RuleOptions
 }
 
 function count(counted: MutableCount | null, r: TimedReading): MutableCount {
@@ -195,15 +199,22 @@ class CourseScan {
   onEvent({ event, t }: TimedEvent): void {
     if (event.kind === 'ammonia-dose') {
       this.firstDoseT = Math.min(this.firstDoseT, t)
-      const dose: MutableDose = { event, t, arrivedBy: null, clearedBy: null, diluted: false, lastInWindow: null }
+      const dose: MutableDose = { event, t, arrivedBy: null, clearedBy: null, diluted: false, holdsAfterChange: false, lastInWindow: null }
       this.pending.push(dose)
       this.doses.push(dose)
     }
     else if (event.kind === 'water-change') {
       const dilutedDose = this.pending.some(dose => !dose.diluted && dose.t + this.s.windowMs >= t)
-      for (const dose of this.pending) dose.diluted = true
+      // Rule set 2.0.1: once proven, or with animals in, a change is maintenance, not the test of
+      // the bacteria: tests working off a dose or a small spike stay held for the next zero test,
+      // and a relapse still shows as a second test above zero. Before that, dilution is no evidence.
+      const maintenance = this.s.options.heldThroughWaterChange && (this.completed || this.animalsIn(t))
+      for (const dose of this.pending) {
+        if (maintenance && !dose.diluted) dose.holdsAfterChange = true
+        dose.diluted = true
+      }
       // After a water change no zero test can excuse a held test: the dose may have been diluted away.
-      this.resolveHeld(Number.POSITIVE_INFINITY)
+      if (!maintenance) this.resolveHeld(Number.POSITIVE_INFINITY)
       // With animals in, their ammonia keeps coming after the change, so later zero tests still
       // show the bacteria keep up: routine changes do not restart the count.
       if (this.completed || this.animalsIn(t)) return
@@ -254,7 +265,7 @@ class CourseScan {
   private doseDeadline(r: TimedReading): number {
     let deadline = Number.NEGATIVE_INFINITY
     for (const dose of this.pending) {
-      if (!dose.diluted && dose.t < r.t && r.t <= dose.t + this.s.windowMs) deadline = Math.max(deadline, dose.t + this.s.windowMs)
+      if ((!dose.diluted || dose.holdsAfterChange) && dose.t < r.t && r.t <= dose.t + this.s.windowMs) deadline = Math.max(deadline, dose.t + this.s.windowMs)
     }
     return deadline
   }
@@ -443,7 +454,7 @@ class CourseScan {
 }
 
 /** Follows the cycle through the ordered history. Events at the same instant as a test come first. */
-export function traceCourse(history: History, thresholds: Thresholds, method: CycleMethod, startedMs: number, nowMs: number): Course {
+export function traceCourse(history: History, thresholds: Thresholds, method: CycleMethod, startedMs: number, nowMs: number, options: RuleOptions): Course {
   const livestock = history.events.find(e => e.event.kind === 'livestock-added')
   const fishIn = method === 'fish-in' ? startedMs : Number.POSITIVE_INFINITY
   const scan = new CourseScan({
@@ -453,6 +464,7 @@ export function traceCourse(history: History, thresholds: Thresholds, method: Cy
     windowMs: thresholds.clearanceWindowHours * HOUR_MS,
     spanMs: thresholds.stableSpanHours * HOUR_MS,
     gapMs: thresholds.zeroRunMaxGapHours * HOUR_MS,
+    options,
   })
   const { readings, events } = history
   let next = 0
