@@ -23,7 +23,8 @@
  * zero); or, once proven, it is one trace of nitrite (at most `nitriteTraceN`, ammonia at
  * zero, no other nitrite above zero outside a dose's window in the `fishInStableDays`
  * before it). A held test is excused by a zero test inside its window with no water change
- * between. Until then the verdict is not complete. Before completion a long gap between
+ * between (from rule set 2.0.1, once proven or with animals in, a change between is
+ * maintenance and does not undo it). Until then the verdict is not complete. Before completion a long gap between
  * tests restarts the run, and so does a water change in a tank without animals: missing
  * days and dilution are not evidence. With animals in, their load goes on after a change,
  * so routine changes do not restart it (a diluted dose still proves nothing). Zero tests before the first dose (or
