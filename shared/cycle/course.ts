@@ -188,6 +188,8 @@ class CourseScan {
   latestNitrate: TimedReading | null = null
   lastNitrogen: TimedReading | null = null
   held: Held[] = []
+  /** When a trace was last carried across a dose (rule set 2.0.1). */
+  lastCarryT = Number.NEGATIVE_INFINITY
   /** The latest test with nitrite above zero outside a dose's window, excused or not. */
   lastNitriteUpT = Number.NEGATIVE_INFINITY
 
@@ -201,6 +203,7 @@ class CourseScan {
     if (event.kind === 'ammonia-dose') {
       this.firstDoseT = Math.min(this.firstDoseT, t)
       const dose: MutableDose = { event, t, arrivedBy: null, clearedBy: null, diluted: false, holdsAfterChange: false, lastInWindow: null }
+      if (this.s.options.traceHeldAcrossDose) this.carryTraceAcrossDose(t)
       this.pending.push(dose)
       this.doses.push(dose)
     }
@@ -252,6 +255,22 @@ class CourseScan {
     // The low point is what the completion measures the rise from, so it is the low point up to now.
     if (this.nitrateLow === null || value < (this.nitrateLow.nitrateN ?? 0)) this.nitrateLow = r
     if (this.firstNitrateWithAnimals === null && r.t >= this.s.animalsT) this.firstNitrateWithAnimals = r
+  }
+
+  /**
+   * Once proven, a dose given while the latest waiting test is a trace (ammonia at zero, nitrite
+   * at most `nitriteTraceN`) carries the waiting tests to this dose's window: the zero test that
+   * clears it shows the trace gone too. At most once in `fishInStableDays`, so nitrite that keeps
+   * coming back still loses the proof (common practice, no published source).
+   */
+  private carryTraceAcrossDose(t: number): void {
+    const last = this.held[this.held.length - 1]
+    const th = this.s.thresholds
+    if (!this.completed || last === undefined || this.held.some(h => h.deadline < t)) return
+    const trace = (last.reading.ammoniaN ?? 0) <= th.ammoniaZeroN && (last.reading.nitriteN ?? 0) <= th.nitriteTraceN
+    if (!trace || t - this.lastCarryT <= th.fishInStableDays * 24 * HOUR_MS) return
+    this.lastCarryT = t
+    this.held = this.held.map(h => ({ reading: h.reading, deadline: Math.max(h.deadline, t + this.s.windowMs) }))
   }
 
   /** Breaks the run at the first held test whose window closed before `t`. */

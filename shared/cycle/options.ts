@@ -27,6 +27,14 @@ export interface RuleOptions {
    * vanish while nobody tests (the overdue-test rule says that part).
    */
   readonly stallWindowAtLatestTest: boolean
+  /**
+   * 2.0.1: once proven, a dose given while the latest test waiting to be excused reads ammonia at
+   * zero and at most a trace of nitrite carries the waiting tests to the new dose's window: the
+   * zero test that clears it shows the trace gone too. Once in the proving days, so nitrite that
+   * keeps coming back still loses the proof. 2.0.0 lost a proven tank dosed every evening over
+   * one misread trace, because the next test was the new dose's arrival, not a zero.
+   */
+  readonly traceHeldAcrossDose: boolean
 }
 
 /** Rule set 2.0.0 as signed: every later switch off. */
@@ -35,6 +43,7 @@ export const RULE_OPTIONS_2_0_0: RuleOptions = Object.freeze({
   heldThroughWaterChange: false,
   nitriteDangerAtLimit: false,
   stallWindowAtLatestTest: false,
+  traceHeldAcrossDose: false,
 })
 
 /** Rule set 2.0.1: the fixes found by the scenario catalogue (shared/cycle/simulate/scenarios.ts). */
@@ -43,6 +52,7 @@ export const RULE_OPTIONS_2_0_1: RuleOptions = Object.freeze({
   heldThroughWaterChange: true,
   nitriteDangerAtLimit: true,
   stallWindowAtLatestTest: true,
+  traceHeldAcrossDose: true,
 })
 
 /** Every version of rule set 2, oldest first; the last is current. */

@@ -171,7 +171,6 @@ export const SCENARIOS: readonly Scenario[] = [
     aquarist: 'Cycled and the nitrate changed out, but phosphate reads 0.5 ppm from the rock: fish may go in, corals wait until phosphate is down.',
     expect: { complete: true, allowed: ['fish', 'invertebrates'], blocked: CORALS },
     plan: fishlessChanged(22, { phosphateMgL: () => 0.5 }),
-    open: 'Proven on day 32 while dosing every evening; one misread of 0.25 ppm nitrite on day 33 is followed by the next dose\'s arrival test, not a zero test, within the clearance window, so the proof is lost and must be made again. A trace held across the next dose needs its own rule (next version).',
     at: { day: 35, hour: 20 },
   },
   {

@@ -5,7 +5,7 @@ import { RULE_SET_VERSION } from '../../../../shared/cycle/registry'
 import type { CycleInput, Verdict } from '../../../../shared/cycle/types'
 import { evaluateCycleVersion, RULE_SETS } from '../../../../shared/cycle/versions'
 
-/** Verdicts made by rule set 2.0.0 before 2.0.1 existed (scenarios 2.0.1 judges differently), as snapshots store them. */
+/** Verdicts made by rule set 2.0.0 as it was on main before 2.0.1 (scenarios 2.0.1 judges differently), as snapshots store them. */
 const signed200 = JSON.parse(readFileSync(new URL('./fixtures/signed-2.0.0.json', import.meta.url), 'utf8')) as Array<{ scenario: string, input: CycleInput, verdict: Verdict }>
 
 /** A verdict signed under rule set 1.0.0 (a fishless tank proven by one cleared dose), as the sign-off snapshot stores it. */
@@ -31,7 +31,7 @@ describe('rule sets by version', () => {
   })
 
   it('reproduces verdicts made under 2.0.0 exactly from their snapshots, though 2.0.1 now judges them differently', () => {
-    expect(signed200.map(s => s.scenario)).toEqual(['fishless-textbook', 'natural-seawater-lps-before-sps', 'nitrite-top-of-kit-with-fish', 'stall-by-time-alone'])
+    expect(signed200.map(s => s.scenario)).toEqual(['fishless-textbook', 'phosphate-high', 'natural-seawater-lps-before-sps', 'nitrite-top-of-kit-with-fish', 'stall-by-time-alone'])
     for (const snapshot of signed200) {
       expect(snapshot.verdict.ruleSetVersion).toBe('tidewright-cycle-2.0.0')
       expect(evaluateCycleVersion(snapshot)).toEqual(snapshot.verdict)
