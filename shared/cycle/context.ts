@@ -5,6 +5,7 @@
 
 import type { Course } from './course'
 import type { History, TimedEvent } from './history'
+import type { RuleOptions } from './options'
 import type { Latest } from './snapshot'
 import type { CyclePhase, CycleTank, Finding, LivestockGroup, Thresholds } from './types'
 
@@ -14,6 +15,8 @@ export interface RuleContext {
   readonly startedMs: number
   readonly nowMs: number
   readonly thresholds: Thresholds
+  /** The behaviours of the rule set version being run. */
+  readonly options: RuleOptions
   readonly history: History
   readonly course: Course
   readonly phase: CyclePhase

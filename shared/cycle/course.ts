@@ -23,7 +23,8 @@
  * zero); or, once proven, it is one trace of nitrite (at most `nitriteTraceN`, ammonia at
  * zero, no other nitrite above zero outside a dose's window in the `fishInStableDays`
  * before it). A held test is excused by a zero test inside its window with no water change
- * between. Until then the verdict is not complete. Before completion a long gap between
+ * between (from rule set 2.0.1, once proven or with animals in, a change between is
+ * maintenance and does not undo it). Until then the verdict is not complete. Before completion a long gap between
  * tests restarts the run, and so does a water change in a tank without animals: missing
  * days and dilution are not evidence. With animals in, their load goes on after a change,
  * so routine changes do not restart it (a diluted dose still proves nothing). Zero tests before the first dose (or
@@ -33,6 +34,7 @@
  * stricter limits can only delay completion.
  */
 
+import type { RuleOptions } from './options'
 import { HOUR_MS } from './time'
 import type { History, TimedEvent, TimedReading } from './history'
 import type { CycleMethod, CycleEvent, Thresholds } from './types'
@@ -124,6 +126,8 @@ interface MutableDose {
   arrivedBy: TimedReading | null
   clearedBy: TimedReading | null
   diluted: boolean
+  /** Diluted once proven or with animals in (rule set 2.0.1): it proves nothing, but tests working it off are still held. */
+  holdsAfterChange: boolean
   lastInWindow: TimedReading | null
 }
 
@@ -161,6 +165,7 @@ interface ScanSettings {
   readonly windowMs: number
   readonly spanMs: number
   readonly gapMs: number
+  readonly options: RuleOptions
 }
 
 function count(counted: MutableCount | null, r: TimedReading): MutableCount {
@@ -183,6 +188,8 @@ class CourseScan {
   latestNitrate: TimedReading | null = null
   lastNitrogen: TimedReading | null = null
   held: Held[] = []
+  /** When a trace was last carried across a dose (rule set 2.0.1). */
+  lastCarryT = Number.NEGATIVE_INFINITY
   /** The latest test with nitrite above zero outside a dose's window, excused or not. */
   lastNitriteUpT = Number.NEGATIVE_INFINITY
 
@@ -195,15 +202,23 @@ class CourseScan {
   onEvent({ event, t }: TimedEvent): void {
     if (event.kind === 'ammonia-dose') {
       this.firstDoseT = Math.min(this.firstDoseT, t)
-      const dose: MutableDose = { event, t, arrivedBy: null, clearedBy: null, diluted: false, lastInWindow: null }
+      const dose: MutableDose = { event, t, arrivedBy: null, clearedBy: null, diluted: false, holdsAfterChange: false, lastInWindow: null }
+      if (this.s.options.traceHeldAcrossDose) this.carryTraceAcrossDose(t)
       this.pending.push(dose)
       this.doses.push(dose)
     }
     else if (event.kind === 'water-change') {
       const dilutedDose = this.pending.some(dose => !dose.diluted && dose.t + this.s.windowMs >= t)
-      for (const dose of this.pending) dose.diluted = true
+      // Rule set 2.0.1: once proven, or with animals in, a change is maintenance, not the test of
+      // the bacteria: tests working off a dose or a small spike stay held for the next zero test,
+      // and a relapse still shows as a second test above zero. Before that, dilution is no evidence.
+      const maintenance = this.s.options.heldThroughWaterChange && (this.completed || this.animalsIn(t))
+      for (const dose of this.pending) {
+        if (maintenance && !dose.diluted) dose.holdsAfterChange = true
+        dose.diluted = true
+      }
       // After a water change no zero test can excuse a held test: the dose may have been diluted away.
-      this.resolveHeld(Number.POSITIVE_INFINITY)
+      if (!maintenance) this.resolveHeld(Number.POSITIVE_INFINITY)
       // With animals in, their ammonia keeps coming after the change, so later zero tests still
       // show the bacteria keep up: routine changes do not restart the count.
       if (this.completed || this.animalsIn(t)) return
@@ -242,6 +257,22 @@ class CourseScan {
     if (this.firstNitrateWithAnimals === null && r.t >= this.s.animalsT) this.firstNitrateWithAnimals = r
   }
 
+  /**
+   * Once proven, a dose given while the latest waiting test is a trace (ammonia at zero, nitrite
+   * at most `nitriteTraceN`) carries the waiting tests to this dose's window: the zero test that
+   * clears it shows the trace gone too. At most once in `fishInStableDays`, so nitrite that keeps
+   * coming back still loses the proof (common practice, no published source).
+   */
+  private carryTraceAcrossDose(t: number): void {
+    const last = this.held[this.held.length - 1]
+    const th = this.s.thresholds
+    if (!this.completed || last === undefined || this.held.some(h => h.deadline < t)) return
+    const trace = (last.reading.ammoniaN ?? 0) <= th.ammoniaZeroN && (last.reading.nitriteN ?? 0) <= th.nitriteTraceN
+    if (!trace || t - this.lastCarryT <= th.fishInStableDays * 24 * HOUR_MS) return
+    this.lastCarryT = t
+    this.held = this.held.map(h => ({ reading: h.reading, deadline: Math.max(h.deadline, t + this.s.windowMs) }))
+  }
+
   /** Breaks the run at the first held test whose window closed before `t`. */
   private resolveHeld(t: number): void {
     const expired = this.held.find(h => h.deadline < t)
@@ -254,7 +285,7 @@ class CourseScan {
   private doseDeadline(r: TimedReading): number {
     let deadline = Number.NEGATIVE_INFINITY
     for (const dose of this.pending) {
-      if (!dose.diluted && dose.t < r.t && r.t <= dose.t + this.s.windowMs) deadline = Math.max(deadline, dose.t + this.s.windowMs)
+      if ((!dose.diluted || dose.holdsAfterChange) && dose.t < r.t && r.t <= dose.t + this.s.windowMs) deadline = Math.max(deadline, dose.t + this.s.windowMs)
     }
     return deadline
   }
@@ -443,7 +474,7 @@ class CourseScan {
 }
 
 /** Follows the cycle through the ordered history. Events at the same instant as a test come first. */
-export function traceCourse(history: History, thresholds: Thresholds, method: CycleMethod, startedMs: number, nowMs: number): Course {
+export function traceCourse(history: History, thresholds: Thresholds, method: CycleMethod, startedMs: number, nowMs: number, options: RuleOptions): Course {
   const livestock = history.events.find(e => e.event.kind === 'livestock-added')
   const fishIn = method === 'fish-in' ? startedMs : Number.POSITIVE_INFINITY
   const scan = new CourseScan({
@@ -453,6 +484,7 @@ export function traceCourse(history: History, thresholds: Thresholds, method: Cy
     windowMs: thresholds.clearanceWindowHours * HOUR_MS,
     spanMs: thresholds.stableSpanHours * HOUR_MS,
     gapMs: thresholds.zeroRunMaxGapHours * HOUR_MS,
+    options,
   })
   const { readings, events } = history
   let next = 0

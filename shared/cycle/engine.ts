@@ -9,7 +9,8 @@ import { traceCourse } from './course'
 import { buildHistory, compareReadings } from './history'
 import { decidePhase, firstSourceTime } from './phase'
 import { assessReadiness } from './readiness'
-import { FINDING_RULES, RULE_SET_VERSION } from './registry'
+import { CURRENT_RULE_OPTIONS, type RuleOptions } from './options'
+import { FINDING_RULES } from './registry'
 import { latestValues } from './snapshot'
 import { resolveThresholds } from './thresholds'
 import { requireTime, toIso } from './time'
@@ -29,17 +30,17 @@ function compareFindings(a: Finding, b: Finding): number {
     || compareStrings(a.readingIds.join('\u0000'), b.readingIds.join('\u0000'))
 }
 
-function buildContext(input: CycleInput): RuleContext {
+function buildContext(input: CycleInput, options: RuleOptions): RuleContext {
   const nowMs = requireTime('now', input.now)
   const startedMs = requireTime('tank.startedAt', input.tank.startedAt)
   const thresholds = resolveThresholds(input.thresholds)
   const history = buildHistory(input.readings, input.events ?? [], nowMs)
-  const course = traceCourse(history, thresholds, input.tank.cycleMethod, startedMs, nowMs)
+  const course = traceCourse(history, thresholds, input.tank.cycleMethod, startedMs, nowMs, options)
   const latest = latestValues(history.readings)
   const sourceT = firstSourceTime(history, input.tank, startedMs, thresholds, nowMs)
   const phase = decidePhase({ history, course, latest, thresholds, sourceT })
   const livestock = history.events.filter(e => e.event.kind === 'livestock-added')
-  return { tank: input.tank, startedMs, nowMs, thresholds, history, course, phase, latest, sourceT, livestock }
+  return { tank: input.tank, startedMs, nowMs, thresholds, options, history, course, phase, latest, sourceT, livestock }
 }
 
 function runRules(ctx: RuleContext): { findings: Finding[], actions: CycleAction[] } {
@@ -61,9 +62,10 @@ function runRules(ctx: RuleContext): { findings: Finding[], actions: CycleAction
  * Evaluates a tank's nitrogen cycle: phase, completion, findings with reasons,
  * readiness per livestock group and next actions. Throws a RangeError when `now`
  * or `tank.startedAt` is not an ISO time or a threshold is not a finite number >= 0.
+ * `options` selects an earlier 2.x version's behaviour (see `versions.ts`); the default is current.
  */
-export function evaluateCycle(input: CycleInput): Verdict {
-  const ctx = buildContext(input)
+export function evaluateCycle(input: CycleInput, options: RuleOptions = CURRENT_RULE_OPTIONS): Verdict {
+  const ctx = buildContext(input, options)
   const { findings, actions } = runRules(ctx)
   return {
     phase: ctx.phase,
@@ -71,6 +73,6 @@ export function evaluateCycle(input: CycleInput): Verdict {
     findings,
     readiness: assessReadiness(ctx, findings),
     actions,
-    ruleSetVersion: RULE_SET_VERSION,
+    ruleSetVersion: options.version,
   }
 }

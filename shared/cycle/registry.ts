@@ -17,11 +17,12 @@ import { RESTART_RULES } from './rules/restarts'
 import { STOCKING_RULES } from './rules/stocking'
 import { TESTING_RULES } from './rules/testing'
 import { YOUNG_TANK_RULES } from './rules/young-tank'
+import { CURRENT_RULE_OPTIONS } from './options'
 import type { CycleRule } from './rules/rule'
 import type { Severity } from './types'
 
-/** Version of the rules and defaults below; part of every verdict. */
-export const RULE_SET_VERSION = 'tidewright-cycle-2.0.0'
+/** Version of the rules and defaults below; part of every verdict. Older 2.x versions differ only by the switches in `options.ts`. */
+export const RULE_SET_VERSION = CURRENT_RULE_OPTIONS.version
 
 /** Rules that report findings and propose actions, in evaluation order. */
 export const FINDING_RULES: readonly CycleRule[] = [

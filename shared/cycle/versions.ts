@@ -1,11 +1,12 @@
 /**
  * Every rule set Tidewright has signed verdicts with, selectable by version, so a
  * verdict re-runs from its snapshot under the rules it was made with. Old rule sets
- * live frozen in their own folder (`v1/`); only the current one changes.
+ * live frozen in their own folder (`v1/`); the versions of rule set 2 share one engine and
+ * differ only by the switches in `options.ts`, so each re-runs exactly without a copy.
  */
 
 import { evaluateCycle } from './engine'
-import { RULE_SET_VERSION } from './registry'
+import { RULE_OPTIONS_2 } from './options'
 import type { CycleInput, Verdict } from './types'
 import { evaluateCycle as evaluateCycleV1 } from './v1/engine'
 import { RULE_SET_VERSION as RULE_SET_VERSION_V1 } from './v1/registry'
@@ -16,7 +17,7 @@ type Evaluator = (input: CycleInput) => Verdict
 /** Rule set version -> engine. */
 export const RULE_SETS: Readonly<Record<string, Evaluator>> = Object.freeze({
   [RULE_SET_VERSION_V1]: (input: CycleInput) => evaluateCycleV1(input as CycleInputV1) as unknown as Verdict,
-  [RULE_SET_VERSION]: evaluateCycle,
+  ...Object.fromEntries(RULE_OPTIONS_2.map(options => [options.version, (input: CycleInput) => evaluateCycle(input, options)])),
 })
 
 /** A signed snapshot: the engine input and the rule set version its verdict names. */

@@ -20,14 +20,24 @@ interface Trend {
   readonly peak: number
 }
 
+/**
+ * Start and end of the stall window. From rule set 2.0.1 it ends at the latest test, so a
+ * stall seen yesterday does not vanish while nobody tests; 2.0.0 ended it at now.
+ */
+function stallWindow(ctx: RuleContext): { from: number, to: number } {
+  const last = ctx.history.readings[ctx.history.readings.length - 1]
+  const to = ctx.options.stallWindowAtLatestTest && last !== undefined ? Math.min(ctx.nowMs, last.t) : ctx.nowMs
+  return { from: to - ctx.thresholds.stallDays * DAY_MS, to }
+}
+
 function mean(values: readonly number[]): number {
   return values.reduce((a, b) => a + b, 0) / Math.max(1, values.length)
 }
 
 /** The window's tests of `key` when every one is above `limit` and the last third is not below the first by the fall fraction. */
 function flatHigh(ctx: RuleContext, key: Value, limit: number): Trend | null {
-  const from = ctx.nowMs - ctx.thresholds.stallDays * DAY_MS
-  const tests = ctx.history.readings.filter(r => r.t >= from && r[key] !== undefined)
+  const { from, to } = stallWindow(ctx)
+  const tests = ctx.history.readings.filter(r => r.t >= from && r.t <= to && r[key] !== undefined)
   const first = tests[0]
   const last = tests[tests.length - 1]
   // The window must be covered by tests: a stall is a trend, and two tests are not one.
@@ -41,8 +51,8 @@ function flatHigh(ctx: RuleContext, key: Value, limit: number): Trend | null {
 
 /** Nitrate made over the window: the bacteria are working even if nitrite stays high. */
 function nitrateClimbing(ctx: RuleContext): boolean {
-  const from = ctx.nowMs - ctx.thresholds.stallDays * DAY_MS
-  const tests = ctx.history.readings.filter(r => r.t >= from && r.nitrateN !== undefined)
+  const { from, to } = stallWindow(ctx)
+  const tests = ctx.history.readings.filter(r => r.t >= from && r.t <= to && r.nitrateN !== undefined)
   const first = tests[0]
   const last = tests[tests.length - 1]
   return first !== undefined && last !== undefined && (last.nitrateN ?? 0) - (first.nitrateN ?? 0) >= ctx.thresholds.nitrateRiseN

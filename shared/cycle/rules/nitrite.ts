@@ -14,7 +14,9 @@ function highWithAnimals(ctx: RuleContext): RuleResult {
   const limit = ctx.thresholds.nitriteHighWithAnimalsN
   const value = test?.nitriteN ?? 0
   if (test === undefined || value <= limit || !animalsInAt(ctx, test.t)) return NOTHING
-  const danger = value > ctx.thresholds.nitriteDangerWithAnimalsN
+  // Kits top out at the hard limit (5 ppm as NO2): from rule set 2.0.1 a reading at it is a danger too.
+  const hard = ctx.thresholds.nitriteDangerWithAnimalsN
+  const danger = ctx.options.nitriteDangerAtLimit ? value >= hard : value > hard
   return report(
     danger ? 'danger' : 'caution',
     `Nitrite is ${mgNWithIon(value, 'NO2')} on the test of ${formatWhen(test.t)}, with animals in: above ${mgN(limit)}. Marine fish cope with more nitrite than freshwater fish, but not without limit: change some water and watch the animals for fast breathing.`,
@@ -27,7 +29,7 @@ function highWithAnimals(ctx: RuleContext): RuleResult {
 export const NITRITE_RULES: readonly CycleRule[] = [
   {
     id: 'nitrite.high-with-animals',
-    description: 'With animals in, nitrite above the set level is a caution, above the hard limit (5 ppm as NO2) a danger. The levels are trade practice; that marine fish tolerate far more nitrite than freshwater fish is from Tomasso & Grosell (2005), Environ. Sci. Technol. 39: 98-102.',
+    description: 'With animals in, nitrite above the set level is a caution, at or above the hard limit (5 ppm as NO2, the top step of common kits) a danger. The levels are trade practice; that marine fish tolerate far more nitrite than freshwater fish is from Tomasso & Grosell (2005), Environ. Sci. Technol. 39: 98-102.',
     source: COMMON_PRACTICE,
     severities: ['danger', 'caution'],
     evaluate: highWithAnimals,

@@ -73,6 +73,10 @@ export interface SimulationPlan {
   reefChemistry?: boolean
   /** Phosphate (mg/L as PO4) as read each day; omitted when not given. */
   phosphateMgL?: (day: number) => number
+  /** Starting AOB/NOB capacity, mg N/L per day, when it differs from the seeding's usual (a strong bottled product). */
+  seedCapacityN?: number
+  /** pH as read each day, when it does not follow alkalinity (a probe drifting, CO2 in a closed room). */
+  pH?: (day: number) => number
   /** Water temperature (C) and salinity per day; defaults are a steady reef tank with small noise. */
   temperatureC?: (day: number) => number
   salinity?: (day: number) => number
@@ -151,7 +155,7 @@ export function simulate(plan: SimulationPlan): Simulation {
   const rates = plan.rates ?? DEFAULT_RATES
   const startMs = Date.parse(plan.start)
   const alkalinity = plan.alkalinityDkh ?? 8
-  const capacity = plan.method === 'fish-in' && plan.seeding === 'none' ? SEEDING_CAPACITY_N.none : SEEDING_CAPACITY_N[plan.seeding]
+  const capacity = plan.seedCapacityN ?? SEEDING_CAPACITY_N[plan.seeding]
   let state: TankState = { ammoniaN: 0, nitriteN: 0, nitrateN: 0, aobCapacityN: capacity, nobCapacityN: capacity, alkalinityDkh: alkalinity }
   let load = 0
   let clock = startMs
@@ -211,7 +215,7 @@ function readTests(plan: SimulationPlan, day: number, t: number, state: TankStat
     ammoniaN: ammonia.valueN,
     nitriteN: nitrite.valueN,
     nitrateN: nitrate.valueN,
-    pH: pHFor(state.alkalinityDkh, noise(0.04)),
+    pH: plan.pH ? round(plan.pH(day) + noise(0.04), 2) : pHFor(state.alkalinityDkh, noise(0.04)),
     temperatureC: round((plan.temperatureC?.(day) ?? 25.5) + noise(0.3), 1),
     salinity: round((plan.salinity?.(day) ?? 34.8) + noise(0.3), 1),
   }
