@@ -1,3 +1,4 @@
+import type { AttentionForecast } from '#shared/types/attention'
 import type { CycleForecast, ForecastRange } from '#shared/types/forecast'
 import type { CycleMethod } from '#shared/vocabulary'
 import { formatDate } from '~/utils/format'
@@ -20,4 +21,11 @@ export function fishHeadline(forecast: CycleForecast, cycleMethod: CycleMethod):
   const fish = forecast.groups.fish
   if (forecast.status !== 'forecast' || !fish) return null
   return `Likely ready for ${cycleMethod === 'fish-in' ? 'more fish' : 'fish'} ${rangeWords(fish)}`
+}
+
+/** The staff board's line: when the verdict is likely to prove the cycle, said as a forecast, or why there is no date yet. */
+export function completionWords(forecast: AttentionForecast): string {
+  if (forecast.status === 'complete' && forecast.completion) return `Cycle proven complete ${rangeWords(forecast.completion)}`
+  if (forecast.status === 'forecast' && forecast.completion) return `Cycle likely complete ${rangeWords(forecast.completion)} (a forecast)`
+  return 'Completion forecast: not enough data yet'
 }
