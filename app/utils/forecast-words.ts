@@ -1,16 +1,15 @@
+import { forecastRangeWords, type DateWords } from '#shared/cycle/forecast/words'
+import { formatDay } from '#shared/readings/reader-words'
 import type { AttentionForecast } from '#shared/types/attention'
 import type { CycleForecast, ForecastRange } from '#shared/types/forecast'
 import type { CycleMethod } from '#shared/vocabulary'
-import { formatDate } from '~/utils/format'
 
-/** "between Dec 18 and Dec 24, 2026" (the year once when both ends share it), or "on Dec 18, 2026". */
+/** A forecast's day on the reader's own clock (the browser's time zone), "Dec 18, 2026". */
+export const readerDay: DateWords = iso => formatDay(Date.parse(iso))
+
+/** "between Dec 18 and Dec 24, 2026" (the year once when both ends share it), or "on Dec 18, 2026", on the reader's clock. */
 export function rangeWords(range: ForecastRange): string {
-  const from = formatDate(range.from)
-  const to = formatDate(range.to)
-  if (from === to) return `on ${from}`
-  const sameYear = new Date(range.from).getFullYear() === new Date(range.to).getFullYear()
-  const short = new Date(range.from).toLocaleDateString(undefined, { day: 'numeric', month: 'short' })
-  return `between ${sameYear ? short : from} and ${to}`
+  return forecastRangeWords(range, readerDay)
 }
 
 /**

@@ -49,3 +49,12 @@ export function forReader(message: string, reader: Reader): string {
 export function formatMoment(ms: number, timeZone?: string): string {
   return new Date(ms).toLocaleString('en-US', { timeZone, day: 'numeric', month: 'short', hour: 'numeric', minute: '2-digit' })
 }
+
+/**
+ * A day, short ("Dec 18, 2026"), on the same clock as `formatMoment`: the company's time zone
+ * for mail, the browser's own when none is given. For dates that are days, not moments (a
+ * forecast's range): a time of day there would claim a precision the forecast does not have.
+ */
+export function formatDay(ms: number, timeZone?: string): string {
+  return new Date(ms).toLocaleDateString('en-US', { timeZone, day: 'numeric', month: 'short', year: 'numeric' })
+}

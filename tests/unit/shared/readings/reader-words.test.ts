@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest'
-import { formatMoment, forReader } from '../../../../shared/readings/reader-words'
+import { formatDay, formatMoment, forReader } from '../../../../shared/readings/reader-words'
 
 const KIT = { ammonia: 'NH3', nitrite: 'NO2', nitrate: 'NO3' } as const
 const utcClock = (ms: number) => formatMoment(ms, 'UTC')
@@ -38,5 +38,23 @@ describe('forReader: an engine message in the reader\'s own units, clock and kit
     expect(forReader(message, { units: 'us', when: utcClock })).toBe(message)
     expect(forReader(message, { units: 'us', when: utcClock, kit: { basis: KIT, exactN: [] } }))
       .toBe('Total ammonia is 1 ppm as NH3, above the 0.5 ppm as NH3 limit.')
+  })
+})
+
+describe('formatDay: a day on the reader\'s clock', () => {
+  // Half past eleven at night in UTC is already the next morning in Sydney (eleven hours ahead in
+  // December, daylight saving) and still the evening before in New York (five behind): IANA tz database.
+  const lateEvening = Date.UTC(2026, 11, 18, 23, 30)
+
+  it('writes month, day and year in the time zone it is given', () => {
+    expect(formatDay(lateEvening, 'UTC')).toBe('Dec 18, 2026')
+    expect(formatDay(lateEvening, 'Australia/Sydney')).toBe('Dec 19, 2026')
+    expect(formatDay(Date.UTC(2026, 11, 19, 2, 0), 'America/New_York')).toBe('Dec 18, 2026')
+  })
+
+  it('names the same day formatMoment names, without the time', () => {
+    for (const zone of ['UTC', 'Australia/Sydney', 'America/New_York']) {
+      expect(formatMoment(lateEvening, zone).startsWith(formatDay(lateEvening, zone).replace(/, \d{4}$/, ''))).toBe(true)
+    }
   })
 })
