@@ -108,8 +108,8 @@ export interface BacktestFigures {
   scenarios: ScenarioFigures[]
 }
 
-/** When the engine first proved the cycle (run right after each test), and the date it gave. */
-function realCompletion(tank: BacktestTank): { completedOn: string, knownMs: number } | null {
+/** When the engine first proved the cycle (run right after each test), and the date it gave; null if it never did. */
+export function realCompletion(tank: BacktestTank): { completedOn: string, knownMs: number } | null {
   for (const at of tank.testTimes) {
     const knownMs = Date.parse(at) + MINUTE_MS
     const completedOn = evaluateCycle(tank.inputAt(iso(knownMs))).completedOn

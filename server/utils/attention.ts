@@ -1,11 +1,12 @@
 /** Gathers the facts of the attention board for the tanks an actor may see; the judging is shared/attention/board. */
 import { and, asc, eq, inArray, isNull, ne, sql } from 'drizzle-orm'
 import { alias } from 'drizzle-orm/sqlite-core'
-import { judgeTank, sortBoard, type BoardAlert, type BoardTank } from '#shared/attention/board'
+import { judgeTank, sortBoard, type BoardAlert, type BoardForecast, type BoardTank } from '#shared/attention/board'
 import { resolveThresholds } from '#shared/cycle/thresholds'
 import type { Verdict } from '#shared/cycle/types'
 import type { AttentionQuery } from '#shared/schemas/attention'
 import type { AttentionBoard } from '#shared/types/attention'
+import { listedForecast } from '../domain/forecast/tank-forecast'
 import { alerts, clients, readings, signOffs, sites, tankVerdicts, tanks, users } from '../db/schema'
 import { readOrganisationSettings } from '../db/settings'
 import { visibleTankCondition, type Actor } from './access'
@@ -15,6 +16,12 @@ const acknowledger = alias(users, 'acknowledger')
 
 function testIntervalHours(organisationId: string): number {
   return resolveThresholds(readOrganisationSettings(useDB(), organisationId).thresholds).testIntervalHours
+}
+
+/** The board's part of a tank's forecast, computed exactly as the tank list computes it. */
+function boardForecast(tank: { id: string, status: BoardTank['status'] }, now: Date): BoardForecast | null {
+  const forecast = listedForecast(useDB(), tank, now)
+  return forecast && { status: forecast.status, gap: forecast.gap, completion: forecast.completion, likely: forecast.likely }
 }
 
 function groupBy<T>(rows: T[], key: (row: T) => string): Map<string, T[]> {
@@ -59,6 +66,7 @@ export function attentionBoard(actor: Actor, query: AttentionQuery, now = new Da
       verdict: (r.verdict as unknown as Verdict | null) ?? null,
       alerts: (openAlerts.get(r.tank.id) ?? []).map(a => ({ ...a, status: a.status as BoardAlert['status'] })),
       signOffRequestedAt: requests.get(r.tank.id) ?? null,
+      forecast: boardForecast(r.tank, now),
     }
     return judgeTank(facts, now, interval)
   })

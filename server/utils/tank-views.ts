@@ -6,7 +6,7 @@ import type { CyclePhase, TankList, TankSummary, TankView } from '#shared/types/
 import { clients, planStages, sites, tankVerdicts, tanks, users } from '../db/schema'
 import { netWaterLitres } from '#shared/plan/net-volume'
 import { visibleTankCondition, type Actor } from './access'
-import { FORECAST_STATUSES, forecastTank } from '../domain/forecast/tank-forecast'
+import { listedForecast } from '../domain/forecast/tank-forecast'
 
 const aquarist = alias(users, 'aquarist')
 const supervisor = alias(users, 'supervisor')
@@ -72,8 +72,8 @@ const SORT_COLUMNS = {
 
 /** A list item with its forecast when the cycle is what the reader waits for. */
 function withForecast(summary: TankSummary, now: Date): TankSummary {
-  if (!FORECAST_STATUSES.has(summary.status)) return summary
-  return { ...summary, forecast: forecastTank(useDB(), summary.id, now) ?? null }
+  const forecast = listedForecast(useDB(), summary, now)
+  return forecast ? { ...summary, forecast } : summary
 }
 
 /** One page of the tanks the actor may see, filtered and sorted on the server, phases as of `now`. */

@@ -5,9 +5,9 @@
  * board changes as time passes without any new data.
  */
 import type { Verdict } from '../cycle/types'
-import type { AttentionItem, AttentionSignal } from '../types/attention'
+import type { AttentionForecast, AttentionItem, AttentionSignal } from '../types/attention'
 import type { CyclePhase, TankStatus } from '../types/tanks'
-import type { AttentionQuery } from '../schemas/attention'
+import type { AttentionSort } from '../schemas/attention'
 import type { ACTIVE_ALERT_STATUSES } from '../vocabulary'
 
 const HOUR_MS = 3_600_000
@@ -20,6 +20,9 @@ export interface BoardAlert {
   acknowledgedAt: string | null
   escalatedAt: string | null
 }
+
+/** A tank's completion forecast as the board takes it (the server computes it as the tank list does). */
+export type BoardForecast = AttentionForecast
 
 /** The facts about one tank the board judges. */
 export interface BoardTank {
@@ -36,6 +39,8 @@ export interface BoardTank {
   alerts: BoardAlert[]
   /** When an open sign-off request was made, or null. */
   signOffRequestedAt: string | null
+  /** The completion forecast while the tank is cycling or cycled, else null. */
+  forecast: BoardForecast | null
 }
 
 /** Statuses in which the client is expected to test daily. */
@@ -149,14 +154,46 @@ export function judgeTank(tank: BoardTank, now: Date, testIntervalHours: number)
     lastTestAt: tank.lastTestAt,
     urgency,
     signals,
+    forecast: tank.forecast,
   }
 }
 
-/** Orders the board: most urgent first (then by name), by name, or longest without a test first. */
-export function sortBoard(items: readonly AttentionItem[], sort: AttentionQuery['sort']): AttentionItem[] {
-  const byName = (a: AttentionItem, b: AttentionItem) => a.tankName.localeCompare(b.tankName) || a.tankId.localeCompare(b.tankId)
-  const copy = [...items]
-  if (sort === 'name') return copy.sort(byName)
-  if (sort === 'last-test') return copy.sort((a, b) => (a.lastTestAt ?? '').localeCompare(b.lastTestAt ?? '') || byName(a, b))
-  return copy.sort((a, b) => b.urgency - a.urgency || byName(a, b))
+type Compare = (a: AttentionItem, b: AttentionItem) => number
+
+const byName: Compare = (a, b) => a.tankName.localeCompare(b.tankName) || a.tankId.localeCompare(b.tankId)
+
+/**
+ * When the forecast expects the engine to prove the cycle (epoch ms): its likely day, or the
+ * day it was proven once it is (which is past, so a proven cycle sorts before any forecast).
+ * Null without a range: not cycling, or "not enough data yet".
+ */
+export function expectedCompletionMs(item: AttentionItem): number | null {
+  const f = item.forecast
+  if (!f || f.status === 'not-enough-data' || !f.likely) return null
+  return Date.parse(f.likely)
+}
+
+const ORDERS: Record<AttentionSort, Compare> = {
+  'urgency': (a, b) => b.urgency - a.urgency || byName(a, b),
+  'name': byName,
+  'last-test': (a, b) => (a.lastTestAt ?? '').localeCompare(b.lastTestAt ?? '') || byName(a, b),
+  'completion': (a, b) => {
+    const x = expectedCompletionMs(a)
+    const y = expectedCompletionMs(b)
+    if (x === null || y === null) return Number(x === null) - Number(y === null) || byName(a, b)
+    return x - y || byName(a, b)
+  },
+}
+
+const inDanger = (item: AttentionItem) => item.signals.some(s => s.severity === 'danger')
+
+/**
+ * Orders the board: most urgent first, by name, longest without a test first, or soonest
+ * expected completion first (tanks without a forecast last). Whatever the order, tanks with
+ * a danger alert come first, most urgent first: a chosen order must never bury an animal at risk.
+ */
+export function sortBoard(items: readonly AttentionItem[], sort: AttentionSort): AttentionItem[] {
+  const danger = items.filter(inDanger).sort(ORDERS.urgency)
+  const rest = items.filter(i => !inDanger(i)).sort(ORDERS[sort])
+  return [...danger, ...rest]
 }

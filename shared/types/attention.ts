@@ -1,5 +1,9 @@
 /** API response shapes of the attention board (GET /api/attention). */
+import type { CycleForecast } from '../cycle/forecast/types'
 import type { CyclePhase, TankStatus } from './tanks'
+
+/** The part of a tank's completion forecast the board sorts by and shows: a forecast, never a promise. */
+export type AttentionForecast = Pick<CycleForecast, 'status' | 'gap' | 'completion' | 'likely'>
 
 /** What a tank needs: an open alert, a missed test, a stalled cycle, a sign-off, stocking that may begin. */
 export type AttentionKind = 'alert' | 'overdue-test' | 'stalled' | 'sign-off-requested' | 'ready-for-sign-off' | 'stocking-due'
@@ -32,6 +36,8 @@ export interface AttentionItem {
   urgency: number
   /** Most urgent first. */
   signals: AttentionSignal[]
+  /** When the cycle is likely to be proven, while the tank is cycling or cycled; null otherwise. */
+  forecast: AttentionForecast | null
 }
 
 export interface AttentionBoard {

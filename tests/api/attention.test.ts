@@ -9,7 +9,10 @@ import type { AttentionBoard, AttentionItem } from '../../shared/types/attention
 import type { NotificationList } from '../../shared/types/alerts'
 import { ApiClient, signedIn } from '../support/http'
 import { caughtMail, tick, waitForMail } from '../support/mail'
+import type { TankList } from '../../shared/types/tanks'
 import { ATTENTION_USERS, seedAttentionCompany, type AttentionCompany } from '../support/attention-company'
+import { seedScratchCompany, type ScratchCompany } from '../support/company'
+import { NITRITE_FALLING, NITRITE_FALLING_SLOWLY, seedCyclingTank, seedDangerTank } from '../support/forecast-tanks'
 
 const { demo } = inject('fixtures')
 let db: TidewrightDB
@@ -73,8 +76,9 @@ describe('GET /api/attention', () => {
     expect((await board(api, '?aquarist=unassigned')).items).toEqual([])
     const byName = (await board(api, '?sort=name')).items.map(i => i.tankName)
     expect(byName).toEqual([...byName].sort((a, b) => a.localeCompare(b)))
+    // The alerting tank was tested today, yet stays first: danger is pinned whatever the order.
     const byTest = (await board(api, '?sort=last-test')).items.filter(i => i.lastTestAt)
-    expect(byTest[0]!.tankId).toBe(company.tanks.silent)
+    expect(byTest.map(i => i.tankId).slice(0, 2)).toEqual([company.tanks.alerting, company.tanks.silent])
   })
 
   it('is re-judged as time passes: two days on, the tank tested today is overdue too', async () => {
@@ -93,6 +97,12 @@ describe('GET /api/attention', () => {
     expect(demoClient.items.every(i => i.clientName === 'Marguerite Lowe')).toBe(true)
   })
 
+  it('keeps the tank with a danger alert first when sorted by name', async () => {
+    const api = await signedIn(ATTENTION_USERS.aquarist.email)
+    const ids = (await board(api, '?sort=name')).items.map(i => i.tankId)
+    expect(ids[0]).toBe(company.tanks.alerting)
+  })
+
   it('is 401 signed out and 400 for an unknown sort or aquarist', async () => {
     expect((await new ApiClient().get('/api/attention')).status).toBe(401)
     const api = await signedIn(ATTENTION_USERS.aquarist.email)
@@ -100,6 +110,54 @@ describe('GET /api/attention', () => {
     expect(badSort.status).toBe(400)
     expect(badSort.body.data.issues[0].field).toBe('sort')
     expect((await api.get('/api/attention?aquarist=not-an-id')).status).toBe(400)
+  })
+})
+
+describe('GET /api/attention?sort=completion', () => {
+  // Names chosen so that name order, urgency order and completion order all differ.
+  let scratch: ScratchCompany
+  let tanks: { soon: string, later: string, threeTests: string, danger: string }
+  beforeAll(async () => {
+    scratch = await seedScratchCompany('board-completion')
+    tanks = {
+      later: seedCyclingTank(scratch, 'Anchor reef', NITRITE_FALLING_SLOWLY),
+      threeTests: seedCyclingTank(scratch, 'Coral Bay reef', { ammonia: [1.6, 1.2, 0.6], nitrite: [0.3, 0.9, 1.2], nitrate: [0, 0, 0.1] }),
+      soon: seedCyclingTank(scratch, 'Marlin reef', NITRITE_FALLING),
+      danger: seedDangerTank(scratch, 'Zephyr reef'),
+    }
+  })
+
+  it('orders by the soonest likely completion, keeps the danger alert on top and puts "not enough data" last', async () => {
+    const api = await signedIn(scratch.emails.aquarist)
+    const b = await board(api, '?sort=completion')
+    expect(b.items.map(i => i.tankId)).toEqual([tanks.danger, tanks.soon, tanks.later, tanks.threeTests])
+    expect(item(b, tanks.danger).signals[0]).toMatchObject({ kind: 'alert', severity: 'danger' })
+    for (const id of [tanks.soon, tanks.later]) expect(item(b, id).forecast!.status, id).toBe('forecast')
+    expect(Date.parse(item(b, tanks.soon).forecast!.likely!)).toBeLessThan(Date.parse(item(b, tanks.later).forecast!.likely!))
+    expect(item(b, tanks.threeTests).forecast).toMatchObject({ status: 'not-enough-data', gap: 'sparse', likely: null })
+    // The default order is unchanged: danger, then by urgency and name.
+    expect((await board(api)).items.map(i => i.tankId)).toEqual([tanks.danger, tanks.later, tanks.threeTests, tanks.soon])
+  })
+
+  it('carries the same forecast the tank list gives for the same moment', async () => {
+    const api = await signedIn(scratch.emails.aquarist)
+    const at = { 'x-tidewright-test-now': new Date().toISOString() }
+    const b = (await api.request<AttentionBoard>('GET', '/api/attention?sort=completion', undefined, at)).body
+    const list = (await api.request<TankList>('GET', '/api/tanks?pageSize=50', undefined, at)).body
+    for (const id of [tanks.soon, tanks.later, tanks.threeTests, tanks.danger]) {
+      const listed = list.items.find(t => t.id === id)!.forecast!
+      expect(item(b, id).forecast, id).toEqual({ status: listed.status, gap: listed.gap, completion: listed.completion, likely: listed.likely })
+    }
+  })
+
+  it('gives no forecast for a tank that is not cycling', async () => {
+    const api = await signedIn(ATTENTION_USERS.aquarist.email)
+    const b = await board(api, '?sort=completion')
+    expect(item(b, company.tanks.quiet).forecast).toBeNull()
+    expect(item(b, company.tanks.building).forecast).toBeNull()
+    // Without a forecast, planned and building tanks come after the cycling ones.
+    const ids = b.items.map(i => i.tankId)
+    expect(ids.indexOf(company.tanks.quiet)).toBeGreaterThan(ids.indexOf(company.tanks.firstTest))
   })
 })
 

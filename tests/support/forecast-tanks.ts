@@ -4,6 +4,7 @@
  * known point of its cycle whatever day they run.
  */
 import { inject } from 'vitest'
+import { syncAlertsInDb } from '../../server/db/alerts'
 import { openDatabase } from '../../server/db/connection'
 import { events, readings, tanks } from '../../server/db/schema'
 import { computeAndStoreVerdict } from '../../server/db/verdicts'
@@ -48,6 +49,41 @@ export function seedCyclingTank(company: ScratchCompany, name: string, columns: 
       tankId, takenAt: dayAt(i), enteredBy: company.ids.client, ammoniaN, nitriteN: columns.nitrite[i], nitrateN: columns.nitrate[i], pH: 8.1, temperatureC: 25.5, salinity: 34,
     }))).run()
     computeAndStoreVerdict(db, tankId, now)
+    return tankId
+  }
+  finally {
+    db.$client.close()
+  }
+}
+
+/**
+ * The same course with nitrite past its peak falling more slowly (about a sixth a day
+ * instead of a third): its range lies about a week after NITRITE_FALLING's.
+ */
+export const NITRITE_FALLING_SLOWLY: DailyColumns = {
+  ...NITRITE_FALLING,
+  nitrite: [0, 0, 0.1, 0.3, 0.6, 0.9, 1.2, 1.4, 1.5, 1.5, 1.35, 1.2, 1.0, 0.8, 0.65, 0.5],
+}
+
+/**
+ * Adds a fish-in tank for the company's client whose fish went in two days ago and whose
+ * test an hour ago read 2 ppm total ammonia as NH3 (1.645 mg/L as N): over the 0.5 ppm
+ * action level with fish in (common practice, no published source), so it has an open
+ * danger alert, made as the server makes it. Returns its id.
+ */
+export function seedDangerTank(company: ScratchCompany, name: string, now = new Date(), dbPath: string = inject('dbPath')): string {
+  const db = openDatabase(dbPath)
+  try {
+    const tankId = db.insert(tanks).values({
+      organisationId: company.organisationId, clientId: company.clientId, siteId: company.siteId, name, volumeLitres: 300,
+      cycleMethod: 'fish-in', status: 'cycling', cycleStartedAt: new Date(now.getTime() - 2 * DAY).toISOString(), aquaristId: company.ids.aquarist,
+    }).returning().get().id
+    db.insert(events).values({ tankId, at: new Date(now.getTime() - 2 * DAY + 3_600_000).toISOString(), kind: 'livestock-added', amount: 2, group: 'fish', enteredBy: company.ids.aquarist }).run()
+    db.insert(readings).values({
+      tankId, takenAt: new Date(now.getTime() - 3_600_000).toISOString(), enteredBy: company.ids.client, ammoniaN: 1.645, nitriteN: 0, nitrateN: 0, pH: 8.1, temperatureC: 25.5, salinity: 34,
+    }).run()
+    const verdict = computeAndStoreVerdict(db, tankId, now)!
+    syncAlertsInDb(db, tankId, verdict, { now, baseUrl: 'http://localhost:3000' })
     return tankId
   }
   finally {

@@ -1,7 +1,7 @@
 /**
  * The completion forecast for one tank, computed from the same input the rule engine
  * gets (current tests and events, corrections applied, the company's thresholds).
- * Framework-free: routes, the tank list and the weekly digest share it.
+ * Framework-free: routes, the tank list, the attention board and the weekly digest share it.
  */
 import { forecastCycle } from '../../../shared/cycle/forecast'
 import type { CycleForecast } from '../../../shared/cycle/forecast'
@@ -16,4 +16,13 @@ export const FORECAST_STATUSES: ReadonlySet<TankStatus> = new Set<TankStatus>(['
 export function forecastTank(db: TidewrightDB, tankId: string, now: Date): CycleForecast | undefined {
   const input = cycleInputFor(db, tankId, now)
   return input ? forecastCycle(input) : undefined
+}
+
+/**
+ * The forecast a list shows beside a tank (the tank list, the attention board): computed while
+ * the cycle is what the reader waits for (`FORECAST_STATUSES`), null for any other status.
+ */
+export function listedForecast(db: TidewrightDB, tank: { id: string, status: TankStatus }, now: Date): CycleForecast | null {
+  if (!FORECAST_STATUSES.has(tank.status)) return null
+  return forecastTank(db, tank.id, now) ?? null
 }

@@ -7,8 +7,8 @@
  * notice to the app). Framework-free with an explicit `now`, like the test reminders.
  */
 import { and, eq, inArray, isNull } from 'drizzle-orm'
-import { explainForecast, FORECAST_CAVEAT, forecastGapWords } from '../../../shared/cycle/forecast'
-import type { CycleForecast, ForecastRange } from '../../../shared/cycle/forecast'
+import { explainForecast, FORECAST_CAVEAT, forecastGapWords, forecastRangeWords } from '../../../shared/cycle/forecast'
+import type { CycleForecast, DateWords } from '../../../shared/cycle/forecast'
 import { formatDay } from '../../../shared/readings/reader-words'
 import { wantsEmail } from '../../../shared/notifications/kinds'
 import type { CycleMethod } from '../../../shared/vocabulary'
@@ -25,23 +25,24 @@ import { FORECAST_STATUSES, forecastTank } from './tank-forecast'
 export const DIGEST_WEEKDAY = 1
 export const DIGEST_FROM_MINUTES = 8 * 60
 
-/** A date in the company's time zone, e.g. "Dec 18, 2026" (the settings schema only keeps zones Intl knows). */
-function dateIn(timeZone: string): (iso: string) => string {
-  return iso => formatDay(Date.parse(iso), timeZone)
-}
-
-function rangeWords(range: ForecastRange, date: (iso: string) => string): string {
-  const from = date(range.from)
-  const to = date(range.to)
-  return from === to ? `on ${from}` : `between ${from} and ${to}`
+/** A day on the company's clock, "Dec 18, 2026" (UTC when the stored zone is not one the runtime knows). */
+function dateIn(timeZone: string): DateWords {
+  let zone = timeZone
+  try {
+    formatDay(0, zone)
+  }
+  catch {
+    zone = 'UTC'
+  }
+  return iso => formatDay(Date.parse(iso), zone)
 }
 
 /** The paragraph about one tank. */
-export function tankDigestWords(name: string, cycleMethod: CycleMethod, forecast: CycleForecast, date: (iso: string) => string): string {
+export function tankDigestWords(name: string, cycleMethod: CycleMethod, forecast: CycleForecast, date: DateWords): string {
   if (forecast.status === 'complete') return `${name}: the verdict proved the cycle complete on ${date(forecast.completion!.from)}. Your aquarist will confirm what may go in and when.`
   if (forecast.status === 'not-enough-data' || !forecast.groups.fish) return `${name}: ${forecastGapWords(forecast.gap ?? 'sparse')}`
   const fish = cycleMethod === 'fish-in' ? 'more fish' : 'fish'
-  return `${name}: likely ready for ${fish} ${rangeWords(forecast.groups.fish, date)}. ${explainForecast(forecast, date)}`
+  return `${name}: likely ready for ${fish} ${forecastRangeWords(forecast.groups.fish, date)}. ${explainForecast(forecast, date)}`
 }
 
 export interface DigestRunResult {

@@ -4,10 +4,24 @@
  * promise: the rule engine's verdict decides.
  */
 
-import type { CycleForecast, DeclineFit, ForecastGap } from './types'
+import type { CycleForecast, DeclineFit, ForecastGap, ForecastRange } from './types'
 
-/** Formats an ISO time as a date in the reader's format. */
+/** Formats an ISO time as a day on the reader's clock, "Dec 18, 2026" (`formatDay` in shared/readings/reader-words). */
 export type DateWords = (iso: string) => string
+
+/**
+ * A range of likely days: "between Dec 18 and Dec 24, 2026" (the year once when both ends
+ * share it), or "on Dec 18, 2026" when both ends fall on one day of the reader's clock.
+ */
+export function forecastRangeWords(range: ForecastRange, date: DateWords): string {
+  const from = date(range.from)
+  const to = date(range.to)
+  if (from === to) return `on ${from}`
+  // `date` ends with ", <year>": drop it from the first end when both ends share it.
+  const cut = from.lastIndexOf(', ')
+  const sameYear = cut > 0 && from.slice(cut) === to.slice(to.lastIndexOf(', '))
+  return `between ${sameYear ? from.slice(0, cut) : from} and ${to}`
+}
 
 const SERIES_WORDS: Record<DeclineFit['series'], string> = { ammonia: 'Ammonia', nitrite: 'Nitrite' }
 

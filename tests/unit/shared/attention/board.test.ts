@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest'
-import { hoursWords, judgeTank, sortBoard, type BoardTank } from '../../../../shared/attention/board'
+import { expectedCompletionMs, hoursWords, judgeTank, sortBoard, type BoardForecast, type BoardTank } from '../../../../shared/attention/board'
 import { LIVESTOCK_GROUPS, type GroupReadiness, type LivestockGroup } from '../../../../shared/cycle/types'
 
 const NOW = new Date('2026-03-10T12:00:00Z')
@@ -12,9 +12,18 @@ function tank(over: Partial<BoardTank> = {}): BoardTank {
   return {
     tankId: over.tankName ?? 'a', tankName: 'Reef', clientName: 'Client', siteLabel: null, status: 'cycling',
     aquaristId: null, aquaristName: null, cycleStartedAt: hoursAgo(240), lastTestAt: hoursAgo(2),
-    verdict: { phase: 'nitrite', findings: [], readiness: readiness() }, alerts: [], signOffRequestedAt: null, ...over,
+    verdict: { phase: 'nitrite', findings: [], readiness: readiness() }, alerts: [], signOffRequestedAt: null, forecast: null, ...over,
   }
 }
+
+const DAY_MS = 86_400_000
+const daysAhead = (d: number) => new Date(NOW.getTime() + d * DAY_MS).toISOString()
+/** A forecast range around its likely day, as the board receives it. */
+const expecting = (likelyDays: number): BoardForecast => ({
+  status: 'forecast', gap: null, likely: daysAhead(likelyDays), completion: { from: daysAhead(likelyDays - 2), to: daysAhead(likelyDays + 3) },
+})
+const notEnough: BoardForecast = { status: 'not-enough-data', gap: 'sparse', likely: null, completion: null }
+const alertOn = (status: 'open' | 'acknowledged') => ({ message: 'Total ammonia is high', openedAt: hoursAgo(1), status, acknowledgedByName: null, acknowledgedAt: null, escalatedAt: null })
 
 describe('judgeTank', () => {
   it('a quiet cycling tank tested two hours ago needs nothing', () => {
@@ -72,4 +81,63 @@ describe('sortBoard', () => {
   it('says hours under two days and days after', () => {
     expect([hoursWords(5), hoursWords(47.4), hoursWords(50)]).toEqual(['5 h', '47 h', '2 days'])
   })
+})
+
+describe('sortBoard by expected completion', () => {
+  const item = (tankName: string, over: Partial<BoardTank> = {}) => judgeTank(tank({ tankName, ...over }), NOW, 36)
+  const names = (items: readonly { tankName: string }[]) => items.map(i => i.tankName)
+
+  it('puts the soonest likely completion first, a cycle already proven before any forecast, and tanks without a forecast last by name', () => {
+    const items = [
+      item('Late', { forecast: expecting(20) }),
+      item('Zulu unknown', { forecast: notEnough }),
+      item('Soon', { forecast: expecting(4) }),
+      item('Alpha planned', { status: 'planned', forecast: null }),
+      item('Proven', { status: 'cycled', forecast: { status: 'complete', gap: null, likely: hoursAgo(30), completion: { from: hoursAgo(30), to: hoursAgo(30) } } }),
+      item('Middle', { forecast: expecting(9) }),
+    ]
+    expect(names(sortBoard(items, 'completion'))).toEqual(['Proven', 'Soon', 'Middle', 'Late', 'Alpha planned', 'Zulu unknown'])
+    // The order does not depend on the order the server listed the tanks in.
+    expect(names(sortBoard([...items].reverse(), 'completion'))).toEqual(names(sortBoard(items, 'completion')))
+  })
+
+  it('breaks a tie on the same likely day by name', () => {
+    const items = [item('Bravo', { forecast: expecting(5) }), item('Alpha', { forecast: expecting(5) })]
+    expect(names(sortBoard(items, 'completion'))).toEqual(['Alpha', 'Bravo'])
+  })
+
+  it('reads the likely day as the sort key, and none without a range', () => {
+    expect(expectedCompletionMs(item('A', { forecast: expecting(3) }))).toBe(Date.parse(daysAhead(3)))
+    expect(expectedCompletionMs(item('B', { forecast: notEnough }))).toBeNull()
+    expect(expectedCompletionMs(item('C'))).toBeNull()
+  })
+
+  it('keeps the forecast on the item for the board to show', () => {
+    expect(item('A', { forecast: expecting(3) }).forecast).toEqual(expecting(3))
+    expect(item('B').forecast).toBeNull()
+  })
+})
+
+describe('danger stays at the top whatever the order', () => {
+  const item = (tankName: string, over: Partial<BoardTank> = {}) => judgeTank(tank({ tankName, ...over }), NOW, 36)
+  const items = [
+    item('Alpha soon', { forecast: expecting(2), lastTestAt: hoursAgo(20) }),
+    item('Yankee acknowledged', { forecast: expecting(30), alerts: [alertOn('acknowledged')], lastTestAt: hoursAgo(1) }),
+    item('Bravo untested', { forecast: notEnough, lastTestAt: hoursAgo(70) }),
+    item('Zulu open', { forecast: null, alerts: [alertOn('open')], lastTestAt: hoursAgo(1) }),
+  ]
+
+  it.each(['urgency', 'name', 'last-test', 'completion'] as const)('%s: tanks with a danger alert first, open before acknowledged', (sort) => {
+    expect(names(sortBoard(items, sort)).slice(0, 2)).toEqual(['Zulu open', 'Yankee acknowledged'])
+  })
+
+  it('orders the rest as asked', () => {
+    expect(names(sortBoard(items, 'completion')).slice(2)).toEqual(['Alpha soon', 'Bravo untested'])
+    expect(names(sortBoard(items, 'last-test')).slice(2)).toEqual(['Bravo untested', 'Alpha soon'])
+    expect(names(sortBoard(items, 'name')).slice(2)).toEqual(['Alpha soon', 'Bravo untested'])
+  })
+
+  function names(list: readonly { tankName: string }[]) {
+    return list.map(i => i.tankName)
+  }
 })

@@ -66,3 +66,21 @@ describe('one clock for dates and times', () => {
     }
   })
 })
+
+describe('formatDay: a day on the reader\'s clock', () => {
+  // Half past eleven at night in UTC is already the next morning in Sydney (eleven hours ahead in
+  // December, daylight saving) and still the evening before in New York (five behind): IANA tz database.
+  const lateEvening = Date.UTC(2026, 11, 18, 23, 30)
+
+  it('writes month, day and year in the time zone it is given', () => {
+    expect(formatDay(lateEvening, 'UTC')).toBe('Dec 18, 2026')
+    expect(formatDay(lateEvening, 'Australia/Sydney')).toBe('Dec 19, 2026')
+    expect(formatDay(Date.UTC(2026, 11, 19, 2, 0), 'America/New_York')).toBe('Dec 18, 2026')
+  })
+
+  it('names the same day formatMoment names, without the time', () => {
+    for (const zone of ['UTC', 'Australia/Sydney', 'America/New_York']) {
+      expect(formatMoment(lateEvening, zone).startsWith(formatDay(lateEvening, zone).replace(/, \d{4}$/, ''))).toBe(true)
+    }
+  })
+})

@@ -143,6 +143,20 @@ describe('not enough data', () => {
     expect(f.gap).toBe('erratic')
   })
 
+  it('for a curve that falls overall but scatters too widely around its line to read a pace from', () => {
+    // Nitrite past its peak losing about a quarter a day, every test a factor of 2.2 off the line,
+    // alternately high and low: the trend is clear, the pace is not (scatter over MAX_LOG_SCATTER).
+    const falling = Array.from({ length: 11 }, (_, k) => Math.round(Math.exp(Math.log(3) - 0.3 * k + (k % 2 ? -0.8 : 0.8)) * 100) / 100)
+    const log = new TankLog('fishless').dose(0, 1.6).days(1, {
+      ammonia: [1.6, 1.2, 0.6, 0.2, ...falling.map(() => 0)],
+      nitrite: [0.1, 0.8, 2.5, 4, ...falling],
+      nitrate: [0, 0, 0.1, 0.2, ...falling.map((_, k) => 0.3 + 0.2 * k)],
+    })
+    const f = forecastCycle(log.input(4 + falling.length))
+    expect(f).toMatchObject({ status: 'not-enough-data', gap: 'erratic', completion: null })
+    expect(explainForecast(f, iso => iso)).toContain('the tests jump around too much')
+  })
+
   it('when the tests stopped days ago', () => {
     const log = textbookFishless()
     const f = forecastCycle({ ...log.input(16), now: log.input(21).now, readings: log.input(16).readings.filter(r => r.takenAt <= log.input(16).now) })

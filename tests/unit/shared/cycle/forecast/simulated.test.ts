@@ -4,23 +4,21 @@
  * aquarist gives. The engine's own verdict on the whole history is the truth.
  */
 import { describe, expect, it } from 'vitest'
-import { evaluateCycle } from '../../../../../shared/cycle/engine'
 import { forecastCycle, type CycleForecast } from '../../../../../shared/cycle/forecast'
 import { DOSE_2PPM_N, simulate, simulationInput, type Simulation } from '../../../../../shared/cycle/simulate'
+import { BACKTEST_SCENARIOS, realCompletion as backtestCompletion, type BacktestTank } from '../../../../../bench/backtest'
 import { simulatedFishIn, simulatedFishless, simulatedStall } from './simulated-tanks'
 
 const MINUTE = 60_000
 const DAY = 86_400_000
 const at = (ms: number) => new Date(ms).toISOString()
 
-/** Right after each test: when the engine first proved the cycle, and the date it gave. */
-function realCompletion(sim: Simulation): { completedOn: string, knownMs: number } {
-  for (const test of sim.tests) {
-    const knownMs = Date.parse(test.takenAt) + MINUTE
-    const completedOn = evaluateCycle(simulationInput(sim, at(knownMs))).completedOn
-    if (completedOn !== null) return { completedOn, knownMs }
-  }
-  throw new Error('the simulated tank was never proven')
+/** Right after each test: when the engine first proved the cycle, and the date it gave (the back-test's own reckoning). */
+function realCompletion(sim: Simulation | BacktestTank): { completedOn: string, knownMs: number } {
+  const tank = 'plan' in sim ? { testTimes: sim.tests.map(t => t.takenAt), inputAt: (now: string) => simulationInput(sim, now), cuts: [] } : sim
+  const real = backtestCompletion(tank)
+  if (!real) throw new Error('the simulated tank was never proven')
+  return real
 }
 
 const holds = (f: CycleForecast, completedOn: string) =>
@@ -79,5 +77,43 @@ describe('on a simulated fish-in cycle', () => {
     const f = forecastCycle(simulationInput(sim, at(real.knownMs - DAY)))
     expect(f.status).toBe('forecast')
     expect(holds(f, real.completedOn)).toBe(true)
+  })
+})
+
+describe.each([
+  ['fishless, proof doses from the first zero', 'narrows'],
+  ['slow fishless', 'narrows'],
+  // A fish-in tank's range is a day wide from its first forecast (the verdict's zero run is all that is left): it cannot narrow, and must not widen.
+  ['fish-in', 'stays narrow'],
+] as const)('on simulated tanks, %s (five seeds, cut daily as the back-test cuts them)', (name, shape) => {
+  const scenario = BACKTEST_SCENARIOS.find(s => s.name === name)!
+  const tanks = [1, 2, 3, 4, 5].map((seed) => {
+    const tank = scenario.tank(seed)
+    const real = realCompletion(tank)
+    // Every daily cut before the proof was known, with its forecast.
+    const cuts = tank.cuts.filter(cut => Date.parse(cut) < real.knownMs && Date.parse(cut) < Date.parse(real.completedOn))
+      .map(cut => forecastCycle(tank.inputAt(cut)))
+    return { seed, real, cuts, ranges: cuts.filter(f => f.status === 'forecast') }
+  })
+  const widthDays = (f: CycleForecast) => (Date.parse(f.completion!.to) - Date.parse(f.completion!.from)) / DAY
+
+  it('says not enough data for the first ten days', () => {
+    for (const { seed, cuts } of tanks) {
+      for (const f of cuts.slice(0, 10)) expect(f.status, `seed ${seed}`).toBe('not-enough-data')
+    }
+  })
+
+  it(`gives ranges before the proof, and the range ${shape} as data arrives`, () => {
+    for (const { seed, ranges } of tanks) {
+      expect(ranges.length, `seed ${seed}`).toBeGreaterThanOrEqual(4)
+      const [first, last] = [widthDays(ranges[0]!), widthDays(ranges.at(-1)!)]
+      if (shape === 'narrows') expect(last, `seed ${seed}`).toBeLessThan(first)
+      else expect(last, `seed ${seed}`).toBeLessThanOrEqual(first)
+    }
+  })
+
+  it('holds the real completion day in most ranges', () => {
+    const ranges = tanks.flatMap(t => t.ranges.map(f => holds(f, t.real.completedOn)))
+    expect(ranges.filter(Boolean).length / ranges.length).toBeGreaterThan(0.5)
   })
 })
