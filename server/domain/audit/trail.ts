@@ -10,6 +10,7 @@ import type { AuditList, AuditRowView } from '../../../shared/types/audit'
 import type { Role } from '../../../shared/types/roles'
 import type { TidewrightDB } from '../../db/connection'
 import { auditLog, tanks, users } from '../../db/schema'
+import { readOrganisationSettings } from '../../db/settings'
 
 /**
  * The tank an audit row is about. Rows name it directly (a tank), carry it in their
@@ -77,6 +78,7 @@ export function readAuditTrail(db: TidewrightDB, reader: AuditReader, query: Omi
       changes: auditChanges(r.row.before, r.row.after),
     })),
     total: Number(total),
+    timeZone: readOrganisationSettings(db, reader.organisationId).timeZone,
     page: page?.page ?? 1,
     pageSize: page?.pageSize ?? rows.length,
   }
