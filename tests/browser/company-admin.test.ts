@@ -63,12 +63,18 @@ describe('company administration', () => {
     await page.getByRole('button', { name: 'Save settings' }).click()
     await expect.poll(() => page.getByText('Give a value from 0 to 0.5 mg/L as N.').isVisible()).toBe(true)
     await field.fill('0.1')
-    // The save answers before any tank is re-evaluated, so the progress line always shows first.
-    const sawProgress = page.waitForFunction(() => [...document.querySelectorAll('[role=status]')]
-      .some(line => /^Re-evaluating tanks: [0-2] of 2$/.test(line.textContent?.trim() ?? '')), null, { polling: 'mutation' })
+    // Every status line the page shows, however briefly: the save answers before any tank is
+    // re-evaluated, so the progress line always shows before the result.
+    await page.evaluate(() => {
+      const seen: string[] = []
+      ;(window as unknown as { statusLines: string[] }).statusLines = seen
+      new MutationObserver(() => document.querySelectorAll('[role=status]').forEach(line => seen.push(line.textContent?.trim() ?? '')))
+        .observe(document.body, { subtree: true, childList: true, characterData: true })
+    })
     await page.getByRole('button', { name: 'Save settings' }).click()
-    await sawProgress
     await expect.poll(() => page.getByRole('status').filter({ hasText: '2 tanks re-evaluated, 0 changed cycle phase.' }).isVisible()).toBe(true)
+    const lines = await page.evaluate(() => (window as unknown as { statusLines: string[] }).statusLines)
+    expect(lines.some(line => /^Re-evaluating tanks: [01] of 2$/.test(line))).toBe(true)
     await expect.poll(() => page.getByRole('button', { name: /^Reset to default \(0\.05\): Total ammonia/ }).isVisible()).toBe(true)
     await screenshot(page, 'settings-1280')
 
