@@ -151,6 +151,20 @@ describe('company administration', () => {
     expect(await rows.first().locator('time').textContent()).toBe(formatMoment(Date.parse(at!), zone))
     expect(formatMoment(Date.parse(at!), zone)).not.toBe(formatMoment(Date.parse(at!), 'UTC'))
     await expect.poll(() => page.getByText('Times are in the company\'s time zone, Pacific/Auckland.').isVisible()).toBe(true)
+    // The admin's top bar holds every link on one line at 1280 px, even beside a long name.
+    const header = page.locator('header')
+    const boxes = await header.getByRole('navigation', { name: 'Main' }).getByRole('link').evaluateAll(links => links.map((link) => {
+      const r = link.getBoundingClientRect()
+      return { top: r.top, height: r.height, right: r.right }
+    }))
+    expect(boxes).toHaveLength(9)
+    expect(new Set(boxes.map(b => b.top)).size).toBe(1)
+    expect(Math.max(...boxes.map(b => b.height))).toBeLessThanOrEqual(44)
+    const bell = await header.locator('a[href="/notifications"]').boundingBox()
+    const signOut = await header.getByRole('button', { name: 'Sign out' }).boundingBox()
+    expect(Math.max(...boxes.map(b => b.right))).toBeLessThanOrEqual(bell!.x)
+    expect(bell!.x + bell!.width).toBeLessThanOrEqual(signOut!.x)
+    expect((await header.boundingBox())!.height).toBe(64)
     await screenshot(page, 'audit-tank-picker-1280')
     expect(problems).toEqual([])
   })
