@@ -1,5 +1,6 @@
 import Papa from 'papaparse'
 import { describe, expect, it } from 'vitest'
+import { localClock } from '../../server/db/reminders'
 import { formatMoment } from '../../shared/readings/reader-words'
 import { seedScratchCompany } from '../support/company'
 import { signedIn } from '../support/http'
@@ -107,6 +108,23 @@ describe('the audit trail on the company\'s clock', () => {
       expect(row[0]).toBe(formatMoment(Date.parse(at), zone))
       expect(row[0]).not.toBe(formatMoment(Date.parse(at), 'UTC'))
     }
+  })
+})
+
+describe('the audit trail\'s days', () => {
+  it('are the company\'s days: a row falls on the date the company\'s clock showed', async () => {
+    const { admin, unsupervised } = await companyWithHistory('audit-days')
+    const [row] = (await admin.get(`/api/audit?tankId=${unsupervised}&pageSize=1`)).body.items
+    const at = new Date(row.at)
+    // A zone whose date differs from UTC's at that moment, whatever the hour the test runs.
+    const zone = at.getUTCHours() >= 10 ? 'Pacific/Kiritimati' : 'Pacific/Pago_Pago'
+    const localDay = localClock(at, zone).date
+    expect(localDay).not.toBe(row.at.slice(0, 10))
+    const { body } = await admin.get('/api/settings')
+    expect((await admin.request('PUT', '/api/settings', { name: body.name, settings: { ...body.settings, timeZone: zone }, version: body.version })).status).toBe(200)
+    const ids = async (day: string) => (await admin.get(`/api/audit?tankId=${unsupervised}&from=${day}&to=${day}`)).body.items.map((r: { id: number }) => r.id)
+    expect(await ids(localDay)).toContain(row.id)
+    expect(await ids(row.at.slice(0, 10))).not.toContain(row.id)
   })
 })
 
