@@ -16,20 +16,26 @@ afterAll(async () => {
   await browser?.close()
 })
 
+/** An aquarist signed in on a phone, and an admin at a desk who has found them on the People page. */
+async function adminFindsAquaristSignedInElsewhere(label: string) {
+  const co = await seedScratchCompany(label)
+  const aquarist = await openPage(browser, 375)
+  await signInThroughForm(aquarist.page, co.emails.aquarist)
+  await aquarist.page.goto('/clients')
+  await expect.poll(() => aquarist.page.getByRole('heading', { name: 'Clients' }).isVisible()).toBe(true)
+
+  const admin = await openPage(browser, 1280)
+  await signInThroughForm(admin.page, co.emails.admin)
+  await admin.page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'People' }).click()
+  await admin.page.waitForURL(/\/people/)
+  await admin.page.getByLabel('Search').fill(co.emails.aquarist)
+  await expect.poll(() => admin.page.getByRole('listitem').filter({ hasText: co.emails.aquarist }).count()).toBe(1)
+  return { co, aquarist, admin }
+}
+
 describe('company administration', () => {
   it('an admin deactivates an aquarist who is signed in elsewhere: that session stops at once', async () => {
-    const co = await seedScratchCompany('browser-deactivate')
-    const aquarist = await openPage(browser, 375)
-    await signInThroughForm(aquarist.page, co.emails.aquarist)
-    await aquarist.page.goto('/clients')
-    await expect.poll(() => aquarist.page.getByRole('heading', { name: 'Clients' }).isVisible()).toBe(true)
-
-    const admin = await openPage(browser, 1280)
-    await signInThroughForm(admin.page, co.emails.admin)
-    await admin.page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'People' }).click()
-    await admin.page.waitForURL(/\/people/)
-    await admin.page.getByLabel('Search').fill(co.emails.aquarist)
-    await expect.poll(() => admin.page.getByRole('listitem').filter({ hasText: co.emails.aquarist }).count()).toBe(1)
+    const { co, aquarist, admin } = await adminFindsAquaristSignedInElsewhere('browser-deactivate')
     await screenshot(admin.page, 'people-1280')
     await admin.page.getByRole('button', { name: /^Manage aquarist/ }).click()
     await admin.page.getByRole('button', { name: 'Deactivate', exact: true }).click()
@@ -90,17 +96,7 @@ describe('company administration', () => {
   })
 
   it('an admin changes the role of an aquarist who is signed in elsewhere: that session stops at once', async () => {
-    const co = await seedScratchCompany('browser-role')
-    const aquarist = await openPage(browser, 375)
-    await signInThroughForm(aquarist.page, co.emails.aquarist)
-    await aquarist.page.goto('/clients')
-    await expect.poll(() => aquarist.page.getByRole('heading', { name: 'Clients' }).isVisible()).toBe(true)
-
-    const admin = await openPage(browser, 1280)
-    await signInThroughForm(admin.page, co.emails.admin)
-    await admin.page.goto('/people')
-    await admin.page.getByLabel('Search').fill(co.emails.aquarist)
-    await expect.poll(() => admin.page.getByRole('listitem').filter({ hasText: co.emails.aquarist }).count()).toBe(1)
+    const { co, aquarist, admin } = await adminFindsAquaristSignedInElsewhere('browser-role')
     await admin.page.getByRole('button', { name: /^Manage aquarist/ }).click()
     await admin.page.locator(`#role-${co.ids.aquarist}`).selectOption('supervisor')
     await admin.page.getByRole('button', { name: 'Change role' }).click()
