@@ -200,6 +200,10 @@ export const tankVerdicts = sqliteTable('tank_verdicts', {
   verdict: text('verdict', { mode: 'json' }).$type<Record<string, unknown>>().notNull(),
   ruleSetVersion: text('rule_set_version').notNull(),
   evaluatedAt: text('evaluated_at').notNull(),
+  /** Set when the company's thresholds changed after this verdict was made: it is made again in batches, or when read. */
+  stale: integer('stale', { mode: 'boolean' }).notNull().default(false),
+  /** The phase when the last threshold change marked this verdict stale: the settings page counts the tanks whose phase changed. */
+  phaseBeforeReevaluation: text('phase_before_reevaluation', { enum: CYCLE_PHASES }),
 })
 
 /** Who changed what: append-only by design. */

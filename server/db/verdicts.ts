@@ -61,6 +61,7 @@ export function computeAndStoreVerdict(db: TidewrightDB, tankId: string, now = n
     verdict: verdict as unknown as Record<string, unknown>,
     ruleSetVersion: verdict.ruleSetVersion,
     evaluatedAt: input.now,
+    stale: false,
   }
   db.insert(tankVerdicts).values(row).onConflictDoUpdate({ target: tankVerdicts.tankId, set: row }).run()
   return verdict
@@ -77,13 +78,13 @@ export function verdictIsCurrent(evaluatedAt: string, now: Date, maxAgeMs: numbe
 }
 
 /**
- * Tanks whose stored verdict is missing or no longer current at `now`: among `tankIds` when
+ * Tanks whose stored verdict is missing, marked stale by a threshold change, or no longer current at `now`: among `tankIds` when
  * given (a page being read), otherwise every tank not archived (the worker's round).
  */
 export function tanksWithStaleVerdicts(db: TidewrightDB, now: Date, maxAgeMs: number, tankIds?: readonly string[]): string[] {
   if (tankIds !== undefined && tankIds.length === 0) return []
   const where: SQL | undefined = tankIds === undefined ? isNull(tanks.archivedAt) : inArray(tanks.id, [...tankIds])
-  const rows = db.select({ id: tanks.id, evaluatedAt: tankVerdicts.evaluatedAt }).from(tanks)
+  const rows = db.select({ id: tanks.id, evaluatedAt: tankVerdicts.evaluatedAt, stale: tankVerdicts.stale }).from(tanks)
     .leftJoin(tankVerdicts, eq(tankVerdicts.tankId, tanks.id)).where(and(where)).all()
-  return rows.filter(r => r.evaluatedAt === null || !verdictIsCurrent(r.evaluatedAt, now, maxAgeMs)).map(r => r.id)
+  return rows.filter(r => r.evaluatedAt === null || r.stale === true || !verdictIsCurrent(r.evaluatedAt, now, maxAgeMs)).map(r => r.id)
 }

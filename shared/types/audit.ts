@@ -19,6 +19,8 @@ export interface AuditRowView {
 
 export interface AuditList {
   items: AuditRowView[]
+  /** The company's time zone (its settings): every moment of the trail is shown on the company's clock. */
+  timeZone: string
   total: number
   page: number
   pageSize: number

@@ -8,7 +8,18 @@ export interface CompanySettingsView {
   version: number
 }
 
-/** PUT /api/settings: the saved settings and how many tanks the new thresholds re-evaluated. */
+/**
+ * GET /api/settings/reevaluation: how far re-evaluating the company's tanks after the last
+ * threshold change has come (`done` of `total`), and how many of the re-evaluated tanks are
+ * now in another cycle phase than before the change.
+ */
+export interface ReevaluationProgress {
+  total: number
+  done: number
+  phaseChanged: number
+}
+
+/** PUT /api/settings: the saved settings and, when a threshold changed, the re-evaluation it started (null otherwise). */
 export interface CompanySettingsSaved extends CompanySettingsView {
-  reevaluated: { tanks: number, phaseChanged: number }
+  reevaluation: ReevaluationProgress | null
 }

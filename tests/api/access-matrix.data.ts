@@ -592,6 +592,7 @@ export const ACCESS_MATRIX: Record<string, MatrixEntry> = {
   'DELETE /api/invitations/[id]': { url: c => `/api/invitations/${freshInvitation(c)}`, expect: recordManager() },
   'GET /api/admin/attention': { url: () => '/api/admin/attention', expect: adminOnly() },
   'GET /api/settings': { url: () => '/api/settings', expect: adminOnly() },
+  'GET /api/settings/reevaluation': { url: () => '/api/settings/reevaluation', expect: adminOnly() },
   'PUT /api/settings': {
     url: () => '/api/settings',
     body: settingsBody,

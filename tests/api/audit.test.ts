@@ -1,4 +1,7 @@
+import Papa from 'papaparse'
 import { describe, expect, it } from 'vitest'
+import { localClock } from '../../server/db/reminders'
+import { formatMoment } from '../../shared/readings/reader-words'
 import { seedScratchCompany } from '../support/company'
 import { signedIn } from '../support/http'
 
@@ -84,6 +87,47 @@ describe('GET /api/audit', () => {
   })
 })
 
+describe('the audit trail on the company\'s clock', () => {
+  it('gives the company\'s time zone with the rows, and the CSV writes each moment on that clock beside its exact time', async () => {
+    const { admin, supervised } = await companyWithHistory('audit-clock')
+    const zone = 'Pacific/Auckland'
+    const { body } = await admin.get('/api/settings')
+    expect((await admin.request('PUT', '/api/settings', { name: body.name, settings: { ...body.settings, timeZone: zone }, version: body.version })).status).toBe(200)
+    const trail = await admin.get(`/api/audit?tankId=${supervised}`)
+    expect(trail.status).toBe(200)
+    expect(trail.body.timeZone).toBe(zone)
+    const csv = await admin.get(`/api/audit/export.csv?tankId=${supervised}`)
+    const [header, ...rows] = Papa.parse<string[]>(String(csv.body).trim()).data
+    expect(header![0]).toBe(`When (${zone})`)
+    expect(header!.at(-1)).toBe('At (ISO 8601, UTC)')
+    expect(rows).toHaveLength(trail.body.items.length)
+    for (const [i, row] of rows.entries()) {
+      const at = trail.body.items[i].at as string
+      expect(row.at(-1)).toBe(at)
+      // Twelve or thirteen hours from UTC: the company's clock, not the server's.
+      expect(row[0]).toBe(formatMoment(Date.parse(at), zone))
+      expect(row[0]).not.toBe(formatMoment(Date.parse(at), 'UTC'))
+    }
+  })
+})
+
+describe('the audit trail\'s days', () => {
+  it('are the company\'s days: a row falls on the date the company\'s clock showed', async () => {
+    const { admin, unsupervised } = await companyWithHistory('audit-days')
+    const [row] = (await admin.get(`/api/audit?tankId=${unsupervised}&pageSize=1`)).body.items
+    const at = new Date(row.at)
+    // A zone whose date differs from UTC's at that moment, whatever the hour the test runs.
+    const zone = at.getUTCHours() >= 10 ? 'Pacific/Kiritimati' : 'Pacific/Pago_Pago'
+    const localDay = localClock(at, zone).date
+    expect(localDay).not.toBe(row.at.slice(0, 10))
+    const { body } = await admin.get('/api/settings')
+    expect((await admin.request('PUT', '/api/settings', { name: body.name, settings: { ...body.settings, timeZone: zone }, version: body.version })).status).toBe(200)
+    const ids = async (day: string) => (await admin.get(`/api/audit?tankId=${unsupervised}&from=${day}&to=${day}`)).body.items.map((r: { id: number }) => r.id)
+    expect(await ids(localDay)).toContain(row.id)
+    expect(await ids(row.at.slice(0, 10))).not.toContain(row.id)
+  })
+})
+
 describe('GET /api/audit/export.csv', () => {
   it('exports the filtered rows as CSV in words, with spreadsheet formulas defused', async () => {
     const { admin, supervised } = await companyWithHistory('audit-csv')
@@ -93,7 +137,7 @@ describe('GET /api/audit/export.csv', () => {
     expect(csv.headers.get('content-type')).toMatch(/text\/csv/)
     expect(csv.headers.get('content-disposition')).toMatch(/attachment; filename="audit-trail-/)
     const lines = String(csv.body).trim().split('\n')
-    expect(lines[0]).toBe('When (UTC),Who,What,Action code,Tank,Changes (before -> after)')
+    expect(lines[0]).toBe('When (UTC),Who,What,Action code,Tank,Changes (before -> after),"At (ISO 8601, UTC)"')
     expect(lines).toHaveLength(5)
     expect(String(csv.body)).toContain('Edited a test')
     // The renamed tank's name opens a cell, so it is defused; inside the changes cell it cannot run.

@@ -1,7 +1,32 @@
-import { describe, expect, it } from 'vitest'
+import { describe, expect, inject, it } from 'vitest'
 import { DEFAULT_THRESHOLDS } from '../../shared/cycle/thresholds'
+import { openDatabase } from '../../server/db/connection'
+import { REEVALUATION_BATCH } from '../../server/domain/settings/reevaluation'
 import { auditRows, seedScratchCompany } from '../support/company'
-import { signedIn } from '../support/http'
+import { signedIn, type ApiClient } from '../support/http'
+
+/** The stored verdicts of some tanks, straight from the database (reading them through the API would re-evaluate them). */
+function storedVerdicts(tankIds: readonly string[]): { tankId: string, phase: string, stale: number }[] {
+  const db = openDatabase(inject('dbPath'))
+  try {
+    return tankIds.map(id => db.$client.prepare('select tank_id as tankId, phase, stale from tank_verdicts where tank_id = ?').get(id) as { tankId: string, phase: string, stale: number })
+  }
+  finally {
+    db.$client.close()
+  }
+}
+
+/** A fishless tank with one test: total ammonia `ammoniaN` mg/L as N. */
+async function tankWithAmmonia(admin: ApiClient, clientId: string, name: string, ammoniaN: number): Promise<string> {
+  const tank = await admin.post('/api/tanks', { name, clientId, shape: 'rectangular', dimensions: { lengthMm: 600, widthMm: 400, heightMm: 400 } })
+  expect(tank.status).toBe(201)
+  const test = await admin.post(`/api/tanks/${tank.body.id}/readings`, {
+    takenAt: new Date(Date.now() - 3_600_000).toISOString(), ammonia: ammoniaN, nitrite: 0, nitrate: 0,
+    basis: { ammonia: 'N', nitrite: 'N', nitrate: 'N' }, temperatureUnit: 'C', salinityMode: 'practical',
+  })
+  expect(test.status, JSON.stringify(test.body)).toBe(201)
+  return tank.body.id as string
+}
 
 describe('GET and PUT /api/settings', () => {
   it('reads the defaults, saves every field, and bumps the version', async () => {
@@ -21,7 +46,7 @@ describe('GET and PUT /api/settings', () => {
     }
     const saved = await admin.request('PUT', '/api/settings', { name: 'Reefworks Ltd', settings, version: 0 })
     expect(saved.status).toBe(200)
-    expect(saved.body).toMatchObject({ name: 'Reefworks Ltd', version: 1, reevaluated: { tanks: 0, phaseChanged: 0 } })
+    expect(saved.body).toMatchObject({ name: 'Reefworks Ltd', version: 1, reevaluation: null })
     expect(saved.body.settings.contact.email).toBe('office@reefworks.test')
     const again = await admin.get('/api/settings')
     expect(again.body.settings).toMatchObject({ timeZone: 'America/Chicago', defaultUnits: 'us', escalationMinutes: 30, reminders: { enabled: false, graceMinutes: 90, missedDays: 3 } })
@@ -68,14 +93,53 @@ describe('GET and PUT /api/settings', () => {
     const { body } = await admin.get('/api/settings')
     const saved = await admin.request('PUT', '/api/settings', { name: body.name, settings: { ...body.settings, thresholds: { ammoniaZeroN: 0.1 } }, version: body.version })
     expect(saved.status).toBe(200)
-    expect(saved.body.reevaluated.tanks).toBe(2)
+    expect(saved.body.reevaluation).toMatchObject({ total: 2 })
     const [row] = auditRows(co.organisationId).filter(r => r.action === 'organisation.settings')
     expect(row).toMatchObject({ before: { thresholds: { ammoniaZeroN: DEFAULT_THRESHOLDS.ammoniaZeroN } }, after: { thresholds: { ammoniaZeroN: 0.1 } } })
     // Back to the default: stored as no override, audited as the default value.
     const reset = await admin.request('PUT', '/api/settings', { name: body.name, settings: { ...body.settings, thresholds: {} }, version: saved.body.version })
     expect(reset.status).toBe(200)
     expect(reset.body.settings.thresholds).toEqual({})
-    expect(reset.body.reevaluated.tanks).toBe(2)
+    expect(reset.body.reevaluation).toMatchObject({ total: 2 })
+  })
+
+  it('marks every verdict stale at the save and re-evaluates them in batches, with progress, until each follows the new limit', async () => {
+    const co = await seedScratchCompany('settings-batches')
+    const admin = await signedIn(co.emails.admin)
+    // More tanks than two batches. Ammonia 0.08 mg/L as N is above the default zero (0.05) and
+    // at or below the new one (0.1): with no dose logged, those tanks go from the ammonia
+    // stage back to not started. Tanks at 0.02 read as zero under both limits.
+    const risen: string[] = []
+    const quiet: string[] = []
+    for (let i = 0; i < REEVALUATION_BATCH * 2 + 3; i++) {
+      if (i % 3 === 0) quiet.push(await tankWithAmmonia(admin, co.clientId, `Batch reef ${i}`, 0.02))
+      else risen.push(await tankWithAmmonia(admin, co.clientId, `Batch reef ${i}`, 0.08))
+    }
+    const all = [...risen, ...quiet]
+    expect(new Set(storedVerdicts(risen).map(v => v.phase))).toEqual(new Set(['ammonia']))
+    expect(new Set(storedVerdicts(quiet).map(v => v.phase))).toEqual(new Set(['not-started']))
+
+    const { body } = await admin.get('/api/settings')
+    const saved = await admin.request('PUT', '/api/settings', { name: body.name, settings: { ...body.settings, thresholds: { ammoniaZeroN: 0.1 } }, version: body.version })
+    expect(saved.status).toBe(200)
+    expect(saved.body.reevaluation.total).toBe(all.length)
+    expect(saved.body.reevaluation.done).toBeLessThanOrEqual(all.length)
+
+    const seen: number[] = []
+    await expect.poll(async () => {
+      const progress = await admin.get('/api/settings/reevaluation')
+      expect(progress.status).toBe(200)
+      seen.push(progress.body.done)
+      return progress.body
+    }, { timeout: 20_000 }).toEqual({ total: all.length, done: all.length, phaseChanged: risen.length })
+    // Progress only goes forward.
+    expect(seen).toEqual([...seen].sort((a, b) => a - b))
+    // Every stored verdict was made again under the new limit by the batches, not by a read.
+    const after = storedVerdicts(all)
+    expect(after.filter(v => v.stale)).toEqual([])
+    expect(new Set(after.map(v => v.phase))).toEqual(new Set(['not-started']))
+    const audit = auditRows(co.organisationId).filter(r => r.action === 'organisation.settings')
+    expect(audit).toEqual([expect.objectContaining({ after: { thresholds: { ammoniaZeroN: 0.1 } } })])
   })
 
   it('is for admins: other roles 403, signed out 401, and one company\'s save never touches another', async () => {

@@ -1,5 +1,8 @@
-import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest'
 import type { Browser } from 'playwright-core'
+import { formatMoment } from '../../shared/readings/reader-words'
+import { openDatabase } from '../../server/db/connection'
+import { tanks } from '../../server/db/schema'
 import { auditRows, seedScratchCompany } from '../support/company'
 import { signedIn } from '../support/http'
 import { launchBrowser, openPage, screenshot, signInThroughForm } from '../support/browser'
@@ -13,20 +16,26 @@ afterAll(async () => {
   await browser?.close()
 })
 
+/** An aquarist signed in on a phone, and an admin at a desk who has found them on the People page. */
+async function adminFindsAquaristSignedInElsewhere(label: string) {
+  const co = await seedScratchCompany(label)
+  const aquarist = await openPage(browser, 375)
+  await signInThroughForm(aquarist.page, co.emails.aquarist)
+  await aquarist.page.goto('/clients')
+  await expect.poll(() => aquarist.page.getByRole('heading', { name: 'Clients' }).isVisible()).toBe(true)
+
+  const admin = await openPage(browser, 1280)
+  await signInThroughForm(admin.page, co.emails.admin)
+  await admin.page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'People' }).click()
+  await admin.page.waitForURL(/\/people/)
+  await admin.page.getByLabel('Search').fill(co.emails.aquarist)
+  await expect.poll(() => admin.page.getByRole('listitem').filter({ hasText: co.emails.aquarist }).count()).toBe(1)
+  return { co, aquarist, admin }
+}
+
 describe('company administration', () => {
   it('an admin deactivates an aquarist who is signed in elsewhere: that session stops at once', async () => {
-    const co = await seedScratchCompany('browser-deactivate')
-    const aquarist = await openPage(browser, 375)
-    await signInThroughForm(aquarist.page, co.emails.aquarist)
-    await aquarist.page.goto('/clients')
-    await expect.poll(() => aquarist.page.getByRole('heading', { name: 'Clients' }).isVisible()).toBe(true)
-
-    const admin = await openPage(browser, 1280)
-    await signInThroughForm(admin.page, co.emails.admin)
-    await admin.page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'People' }).click()
-    await admin.page.waitForURL(/\/people/)
-    await admin.page.getByLabel('Search').fill(co.emails.aquarist)
-    await expect.poll(() => admin.page.getByRole('listitem').filter({ hasText: co.emails.aquarist }).count()).toBe(1)
+    const { co, aquarist, admin } = await adminFindsAquaristSignedInElsewhere('browser-deactivate')
     await screenshot(admin.page, 'people-1280')
     await admin.page.getByRole('button', { name: /^Manage aquarist/ }).click()
     await admin.page.getByRole('button', { name: 'Deactivate', exact: true }).click()
@@ -60,8 +69,18 @@ describe('company administration', () => {
     await page.getByRole('button', { name: 'Save settings' }).click()
     await expect.poll(() => page.getByText('Give a value from 0 to 0.5 mg/L as N.').isVisible()).toBe(true)
     await field.fill('0.1')
+    // Every status line the page shows, however briefly: the save answers before any tank is
+    // re-evaluated, so the progress line always shows before the result.
+    await page.evaluate(() => {
+      const seen: string[] = []
+      ;(window as unknown as { statusLines: string[] }).statusLines = seen
+      new MutationObserver(() => document.querySelectorAll('[role=status]').forEach(line => seen.push(line.textContent?.trim() ?? '')))
+        .observe(document.body, { subtree: true, childList: true, characterData: true })
+    })
     await page.getByRole('button', { name: 'Save settings' }).click()
-    await expect.poll(() => page.getByRole('status').filter({ hasText: '2 tanks were re-evaluated' }).isVisible()).toBe(true)
+    await expect.poll(() => page.getByRole('status').filter({ hasText: '2 tanks re-evaluated, 0 changed cycle phase.' }).isVisible()).toBe(true)
+    const lines = await page.evaluate(() => (window as unknown as { statusLines: string[] }).statusLines)
+    expect(lines.some(line => /^Re-evaluating tanks: [01] of 2$/.test(line))).toBe(true)
     await expect.poll(() => page.getByRole('button', { name: /^Reset to default \(0\.05\): Total ammonia/ }).isVisible()).toBe(true)
     await screenshot(page, 'settings-1280')
 
@@ -73,6 +92,76 @@ describe('company administration', () => {
       expect.objectContaining({ before: { thresholds: { ammoniaZeroN: 0.05 } }, after: { thresholds: { ammoniaZeroN: 0.1 } } }),
     ])
     await screenshot(page, 'audit-1280')
+    expect(problems).toEqual([])
+  })
+
+  it('an admin changes the role of an aquarist who is signed in elsewhere: that session stops at once', async () => {
+    const { co, aquarist, admin } = await adminFindsAquaristSignedInElsewhere('browser-role')
+    await admin.page.getByRole('button', { name: /^Manage aquarist/ }).click()
+    await admin.page.locator(`#role-${co.ids.aquarist}`).selectOption('supervisor')
+    await admin.page.getByRole('button', { name: 'Change role' }).click()
+    await expect.poll(() => admin.page.getByRole('status').filter({ hasText: 'is now supervisor and was signed out everywhere' }).isVisible()).toBe(true)
+
+    // The old session is gone at once: its next request is refused and its next page is the sign-in page.
+    expect(await aquarist.page.evaluate(async () => (await fetch('/api/tanks')).status)).toBe(401)
+    await aquarist.page.goto('/clients')
+    await aquarist.page.waitForURL(/\/login/)
+    // Signing in again gives the new role.
+    await signInThroughForm(aquarist.page, co.emails.aquarist)
+    expect(await aquarist.page.evaluate(async () => (await (await fetch('/api/_auth/session')).json()).user?.role)).toBe('supervisor')
+    expect(admin.problems).toEqual([])
+    expect(auditRows(co.ids.aquarist).map(r => r.action)).toEqual(['user.role-change'])
+  })
+
+  it('the audit trail filters by a tank past the first hundred, and shows times on the company\'s clock', async () => {
+    const co = await seedScratchCompany('browser-audit-picker')
+    const api = await signedIn(co.emails.admin)
+    const db = openDatabase(inject('dbPath'))
+    try {
+      for (let i = 1; i <= 110; i++) db.insert(tanks).values({ organisationId: co.organisationId, clientId: co.clientId, name: `Bulk reef ${String(i).padStart(3, '0')}`, volumeLitres: 200 }).run()
+    }
+    finally {
+      db.$client.close()
+    }
+    // Last by name, so no first page of tanks holds it.
+    const tank = await api.post('/api/tanks', { name: 'Zostera reef', clientId: co.clientId, shape: 'rectangular', dimensions: { lengthMm: 900, widthMm: 450, heightMm: 500 } })
+    expect(tank.status).toBe(201)
+    const settings = (await api.get('/api/settings')).body
+    // Twelve or thirteen hours from UTC: the company's clock cannot be mistaken for the browser's.
+    const zone = 'Pacific/Auckland'
+    expect((await api.request('PUT', '/api/settings', { name: settings.name, settings: { ...settings.settings, timeZone: zone }, version: settings.version })).status).toBe(200)
+
+    const { page, problems } = await openPage(browser, 1280)
+    await signInThroughForm(page, co.emails.admin)
+    await page.goto('/audit')
+    await expect.poll(() => page.getByText('Showing 50 of 111 tanks').isVisible()).toBe(true)
+    const picker = page.getByLabel('Tank', { exact: true })
+    await page.getByLabel('Search tanks by name').fill('Zostera')
+    await expect.poll(() => picker.locator('option', { hasText: 'Zostera reef' }).count()).toBe(1)
+    await picker.selectOption({ label: 'Zostera reef' })
+    await page.waitForURL(url => url.searchParams.get('tankId') === tank.body.id)
+    const rows = page.getByRole('list', { name: 'Audit rows, newest first' }).locator(':scope > li')
+    await expect.poll(() => rows.count()).toBe(1)
+    await expect.poll(() => rows.first().textContent()).toContain('Zostera reef')
+    const at = await rows.first().locator('time').getAttribute('datetime')
+    expect(await rows.first().locator('time').textContent()).toBe(formatMoment(Date.parse(at!), zone))
+    expect(formatMoment(Date.parse(at!), zone)).not.toBe(formatMoment(Date.parse(at!), 'UTC'))
+    await expect.poll(() => page.getByText('Times are in the company\'s time zone, Pacific/Auckland.').isVisible()).toBe(true)
+    // The admin's top bar holds every link on one line at 1280 px, even beside a long name.
+    const header = page.locator('header')
+    const boxes = await header.getByRole('navigation', { name: 'Main' }).getByRole('link').evaluateAll(links => links.map((link) => {
+      const r = link.getBoundingClientRect()
+      return { top: r.top, height: r.height, right: r.right }
+    }))
+    expect(boxes).toHaveLength(9)
+    expect(new Set(boxes.map(b => b.top)).size).toBe(1)
+    expect(Math.max(...boxes.map(b => b.height))).toBeLessThanOrEqual(44)
+    const bell = await header.locator('a[href="/notifications"]').boundingBox()
+    const signOut = await header.getByRole('button', { name: 'Sign out' }).boundingBox()
+    expect(Math.max(...boxes.map(b => b.right))).toBeLessThanOrEqual(bell!.x)
+    expect(bell!.x + bell!.width).toBeLessThanOrEqual(signOut!.x)
+    expect((await header.boundingBox())!.height).toBe(64)
+    await screenshot(page, 'audit-tank-picker-1280')
     expect(problems).toEqual([])
   })
 

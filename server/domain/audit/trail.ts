@@ -10,6 +10,8 @@ import type { AuditList, AuditRowView } from '../../../shared/types/audit'
 import type { Role } from '../../../shared/types/roles'
 import type { TidewrightDB } from '../../db/connection'
 import { auditLog, tanks, users } from '../../db/schema'
+import { localClock } from '../../db/reminders'
+import { readOrganisationSettings } from '../../db/settings'
 
 /**
  * The tank an audit row is about. Rows name it directly (a tank), carry it in their
@@ -30,7 +32,21 @@ const rowTankId = sql<string | null>`coalesce(
 
 export interface AuditReader { id: string, organisationId: string, role: Role }
 
-function conditions(reader: AuditReader, query: AuditQuery): SQL[] {
+const DAY_MS = 86_400_000
+
+/** The instant (ISO, UTC) a calendar day begins on a time zone's clock, summer-time days included. */
+export function dayStartIn(day: string, timeZone: string): string {
+  const midnight = Date.parse(`${day}T00:00:00Z`)
+  // A zone's offset at an instant: its wall clock read as if it were UTC, less the instant.
+  const offset = (ms: number) => {
+    const local = localClock(new Date(ms), timeZone)
+    return Date.parse(`${local.date}T00:00:00Z`) + local.minutes * 60_000 - ms
+  }
+  // Twice: the offset at local midnight may differ from the one at UTC midnight.
+  return new Date(midnight - offset(midnight - offset(midnight))).toISOString()
+}
+
+function conditions(reader: AuditReader, query: AuditQuery, timeZone: string): SQL[] {
   const out: SQL[] = [eq(auditLog.organisationId, reader.organisationId)]
   if (reader.role === 'supervisor') {
     out.push(sql`${rowTankId} in (select k."id" from "tanks" k where k."supervisor_id" = ${reader.id} and k."organisation_id" = ${reader.organisationId})`)
@@ -40,8 +56,9 @@ function conditions(reader: AuditReader, query: AuditQuery): SQL[] {
   if (query.action) {
     out.push(query.action.includes('.') ? eq(auditLog.action, query.action) : or(eq(auditLog.action, query.action), sql`${auditLog.action} like ${`${query.action}.%`}`)!)
   }
-  if (query.from) out.push(gte(auditLog.at, `${query.from}T00:00:00.000Z`))
-  if (query.to) out.push(lt(auditLog.at, new Date(Date.parse(`${query.to}T00:00:00Z`) + 86_400_000).toISOString()))
+  // Days are the company's days, as the trail shows its times.
+  if (query.from) out.push(gte(auditLog.at, dayStartIn(query.from, timeZone)))
+  if (query.to) out.push(lt(auditLog.at, dayStartIn(new Date(Date.parse(`${query.to}T00:00:00Z`) + DAY_MS).toISOString().slice(0, 10), timeZone)))
   return out
 }
 
@@ -49,7 +66,8 @@ type Page = Pick<AuditQuery, 'page' | 'pageSize'>
 
 /** One page of the trail, newest first (or every matching row, for the export, when `page` is null). */
 export function readAuditTrail(db: TidewrightDB, reader: AuditReader, query: Omit<AuditQuery, 'page' | 'pageSize'> & Partial<Page>, page: Page | null): AuditList {
-  const where = and(...conditions(reader, { ...query, page: 1, pageSize: 1 }))
+  const { timeZone } = readOrganisationSettings(db, reader.organisationId)
+  const where = and(...conditions(reader, { ...query, page: 1, pageSize: 1 }, timeZone))
   let select = db.select({
     row: auditLog,
     tankId: rowTankId,
@@ -77,6 +95,7 @@ export function readAuditTrail(db: TidewrightDB, reader: AuditReader, query: Omi
       changes: auditChanges(r.row.before, r.row.after),
     })),
     total: Number(total),
+    timeZone,
     page: page?.page ?? 1,
     pageSize: page?.pageSize ?? rows.length,
   }

@@ -1,7 +1,8 @@
 /**
  * Saving the company settings with a version check: a form loaded before someone else's
  * save is refused (409) instead of silently overwriting it. The audit row (before/after
- * in effective values) is written in the same transaction. Framework-free.
+ * in effective values) and, when a threshold changed, the stale marks on the company's
+ * verdicts are written in the same transaction. Framework-free.
  */
 import { and, desc, eq } from 'drizzle-orm'
 import { resolveThresholds } from '../../../shared/cycle/thresholds'
@@ -9,6 +10,7 @@ import { parseStoredSettings, type CompanySettingsUpdate, type OrganisationSetti
 import type { CompanySettingsView } from '../../../shared/types/settings'
 import type { TidewrightDB } from '../../db/connection'
 import { recordAudit } from '../audit/record'
+import { markCompanyVerdictsStale } from './reevaluation'
 import { auditLog, organisations, users } from '../../db/schema'
 
 /** The company's name, settings (defaults filled in) and the version a form must send back. */
@@ -77,6 +79,8 @@ export function saveCompanySettings(db: TidewrightDB, actor: { id: string, organ
       .returning().get()
     if (!row) return { ok: false, status: 409, message: conflictMessage(t, actor.organisationId) }
     recordAudit(t, actor, { action: 'organisation.settings', entity: 'organisation', entityId: actor.organisationId, before: was, after })
+    // No verdict made under the old limits may be read as current once the new ones are saved.
+    if (thresholdKeys.length) markCompanyVerdictsStale(t, actor.organisationId)
     return { ok: true, view: { name: row.name, settings: parseStoredSettings(row.settings), version: row.settingsVersion }, thresholdsChanged: thresholdKeys }
   })
 }
