@@ -1,6 +1,6 @@
 import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest'
 import type { Browser } from 'playwright-core'
-import { formatMoment } from '../../shared/readings/reader-words'
+import { formatStamp } from '../../shared/readings/reader-words'
 import { openDatabase } from '../../server/db/connection'
 import { tanks } from '../../server/db/schema'
 import { auditRows, seedScratchCompany } from '../support/company'
@@ -144,8 +144,8 @@ describe('company administration', () => {
     await expect.poll(() => rows.count()).toBe(1)
     await expect.poll(() => rows.first().textContent()).toContain('Zostera reef')
     const at = await rows.first().locator('time').getAttribute('datetime')
-    expect(await rows.first().locator('time').textContent()).toBe(formatMoment(Date.parse(at!), zone))
-    expect(formatMoment(Date.parse(at!), zone)).not.toBe(formatMoment(Date.parse(at!), 'UTC'))
+    expect(await rows.first().locator('time').textContent()).toBe(formatStamp(Date.parse(at!), zone))
+    expect(formatStamp(Date.parse(at!), zone)).not.toBe(formatStamp(Date.parse(at!), 'UTC'))
     await expect.poll(() => page.getByText('Times are in the company\'s time zone, Pacific/Auckland.').isVisible()).toBe(true)
     // The admin's top bar holds every link on one line at 1280 px, even beside a long name.
     const header = page.locator('header')

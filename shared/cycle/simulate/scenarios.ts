@@ -8,6 +8,7 @@
  */
 
 import { fromNitrogen, toNitrogen } from '../../chemistry/nitrogen'
+import { LIVESTOCK_GROUPS } from '../../vocabulary'
 import type { CycleInput, CycleReading } from '../types'
 import type { AquaristCall } from './agreement'
 import { dailyDoses, DOSE_2PPM_N, fishlessPlan, spacedDoses } from './plans'
@@ -66,9 +67,11 @@ const HALF_PPM_CSV_N = toNitrogen(fromNitrogen(HALF_PPM_FORM_N, 'NH4'), 'NH4') *
 /** A reef tank with few fish, kept low in nitrate, whose cycle completes on day 27: LPS may go in from day 57 08:33. */
 const lpsWaitPlan = fishIn(29, 57, { ...reef, livestock: [{ day: 0, hour: 7, group: 'fish', count: 2, loadNPerDay: 0.1 }], waterChanges: weekly(6, 56, 30) })
 
-const CORALS = ['soft-coral', 'lps-coral', 'sps-coral'] as const
-const ALL = ['fish', 'invertebrates', ...CORALS] as const
-const STONY = ['lps-coral', 'sps-coral'] as const
+// The groups by name, from the one list (shared/vocabulary.ts), in its order.
+const [FISH, INVERTEBRATES, SOFT, LPS, SPS] = LIVESTOCK_GROUPS
+const CORALS = [SOFT, LPS, SPS] as const
+const ALL = LIVESTOCK_GROUPS
+const STONY = [LPS, SPS] as const
 
 /** Every scenario, in the order of the items. */
 export const SCENARIOS: readonly Scenario[] = [
@@ -109,7 +112,7 @@ export const SCENARIOS: readonly Scenario[] = [
     id: 'fishless-textbook',
     item: '2 fishless proof (must not block)',
     aquarist: 'Bottled bacteria, about 2 ppm daily once nitrite is gone, each dose gone by the next evening for days, then two half water changes for the nitrate: cycled. Fish, invertebrates and soft corals may go in; stony corals wait for time and tested chemistry.',
-    expect: { complete: true, phases: ['complete'], allowed: ['fish', 'invertebrates', 'soft-coral'], blocked: STONY },
+    expect: { complete: true, phases: ['complete'], allowed: [FISH, INVERTEBRATES, SOFT], blocked: STONY },
     plan: fishlessChanged(7),
     at: { day: 35, hour: 20 },
   },
@@ -125,7 +128,7 @@ export const SCENARIOS: readonly Scenario[] = [
     id: 'fish-in-nitrite-stage',
     item: '3 fish-in proof (must not block)',
     aquarist: 'Three fish, an ammonia and a nitrite stage, weekly water changes, then well over a week of zeros on daily tests: cycled for the load it carries. A few more fish and soft corals may follow; stony corals wait.',
-    expect: { complete: true, phases: ['complete'], allowed: ['fish', 'invertebrates', 'soft-coral'], blocked: STONY },
+    expect: { complete: true, phases: ['complete'], allowed: [FISH, INVERTEBRATES, SOFT], blocked: STONY },
     plan: fishIn(5, 40),
     at: { day: 39, hour: 12 },
   },
@@ -141,7 +144,7 @@ export const SCENARIOS: readonly Scenario[] = [
     id: 'fish-in-seeded',
     item: '3 fish-in proof (must not block)',
     aquarist: 'Live rock carried the fish from day one: no ammonia or nitrite ever showed, nitrate has risen for weeks under their load. It is cycled; blocking it forever would be wrong.',
-    expect: { complete: true, phases: ['complete'], allowed: ['fish', 'invertebrates', 'soft-coral'], blocked: STONY },
+    expect: { complete: true, phases: ['complete'], allowed: [FISH, INVERTEBRATES, SOFT], blocked: STONY },
     plan: fishIn(6, 30, { seeding: 'live-rock', waterChanges: weekly(13, 29) }),
     at: { day: 29, hour: 12 },
   },
@@ -173,7 +176,7 @@ export const SCENARIOS: readonly Scenario[] = [
     id: 'phosphate-high',
     item: '5 gates: phosphate',
     aquarist: 'Cycled and the nitrate changed out, but phosphate reads 0.5 ppm from the rock: fish may go in, corals wait until phosphate is down.',
-    expect: { complete: true, allowed: ['fish', 'invertebrates'], blocked: CORALS },
+    expect: { complete: true, allowed: [FISH, INVERTEBRATES], blocked: CORALS },
     plan: fishlessChanged(22, { phosphateMgL: () => 0.5 }),
     at: { day: 35, hour: 20 },
   },
@@ -189,7 +192,7 @@ export const SCENARIOS: readonly Scenario[] = [
     id: 'stony-untested-chemistry',
     item: '5 gates: stony corals, untested chemistry',
     aquarist: 'Cycled two months ago, but alkalinity, calcium and magnesium never tested: no stony corals on a guess; fish and soft corals are fine.',
-    expect: { complete: true, allowed: ['fish', 'soft-coral'], blocked: STONY },
+    expect: { complete: true, allowed: [FISH, SOFT], blocked: STONY },
     plan: fishIn(12, 70),
     at: { day: 69, hour: 12 },
   },
@@ -197,7 +200,7 @@ export const SCENARIOS: readonly Scenario[] = [
     id: 'natural-seawater-lps-before-sps',
     item: '5 gates: natural seawater, SPS later than LPS (must not block)',
     aquarist: 'Natural seawater steady at about 35.3, chemistry tested and in range, weekly changes, cycled well over a month ago: LPS may go in; SPS waits months longer.',
-    expect: { complete: true, allowed: ['fish', 'invertebrates', 'soft-coral', 'lps-coral'], blocked: ['sps-coral'] },
+    expect: { complete: true, allowed: [FISH, INVERTEBRATES, SOFT, LPS], blocked: ['sps-coral'] },
     plan: fishIn(13, 75, { ...reef, salinity: () => 35.3, livestock: [{ day: 0, hour: 7, group: 'fish', count: 2, loadNPerDay: 0.1 }], waterChanges: weekly(6, 74, 30) }),
     at: { day: 74, hour: 12 },
   },
@@ -296,7 +299,7 @@ export const SCENARIOS: readonly Scenario[] = [
     id: 'time-alone-lps-wait-runs',
     item: '9 time alone',
     aquarist: 'A reef tank cycled 29 days ago (day 27) with chemistry in range: the LPS wait has a few hours to run, so LPS still wait.',
-    expect: { complete: true, allowed: ['fish', 'soft-coral'], blocked: STONY },
+    expect: { complete: true, allowed: [FISH, SOFT], blocked: STONY },
     plan: lpsWaitPlan,
     at: { day: 56, hour: 12 },
   },
@@ -304,7 +307,7 @@ export const SCENARIOS: readonly Scenario[] = [
     id: 'time-alone-lps-wait-ends',
     item: '9 time alone (must not block)',
     aquarist: 'The same tank a day later, no new test: the LPS wait has run out, so LPS may go in now; SPS waits months longer.',
-    expect: { complete: true, allowed: ['fish', 'soft-coral', 'lps-coral'], blocked: ['sps-coral'] },
+    expect: { complete: true, allowed: [FISH, SOFT, LPS], blocked: ['sps-coral'] },
     plan: lpsWaitPlan,
     at: { day: 57, hour: 12 },
   },
