@@ -7,7 +7,7 @@
 import { hash, randomUUID } from 'node:crypto'
 import Papa from 'papaparse'
 import type { ReadingImportInput } from '#shared/schemas/reading'
-import { arrayRowToEntry, columnIndexes, duplicateHeaderColumns, guessMapping, importBasis } from '#shared/readings/csv'
+import { arrayRowToEntry, columnIndexes, csvNumber, duplicateHeaderColumns, guessMapping, importBasis } from '#shared/readings/csv'
 import { toCanonicalReading, type CanonicalReading, type KitBasisChoice } from '#shared/readings/entry'
 import { MEASURED_FIELDS } from '#shared/vocabulary'
 import type { ImportPreview, ImportRowError } from '#shared/types/readings'
@@ -31,11 +31,10 @@ export interface ImportPlan {
 
 /** The import key: a hash of the row's canonical content, so the same test imported twice is one reading. */
 export function importKeyOf(reading: CanonicalReading): string {
-  // Nine significant digits: beyond any instrument, yet stable across float noise in the conversions.
   let normalised = reading.takenAt
   for (const field of MEASURED_FIELDS) {
     const value = reading.values[field]
-    normalised += value === null ? '|' : `|${Number(value.toPrecision(9))}`
+    normalised += value === null ? '|' : `|${csvNumber(value)}`
   }
   normalised += `|${reading.notes ?? ''}`
   return hash('sha256', normalised, 'hex').slice(0, 32)

@@ -147,6 +147,18 @@ function cellsToEntry(raw: (target: ImportTarget) => string, options: Options): 
 }
 
 /** Export column order; the header names say the canonical unit. */
+/**
+ * Significant digits a measured value keeps in an export and in the import key: beyond any
+ * instrument, yet free of float noise from unit conversions, so an exported file reads as
+ * numbers and imports back as the same tests.
+ */
+export const CSV_SIGNIFICANT_DIGITS = 9
+
+/** A measured value as the export writes it and the import key compares it. */
+export function csvNumber(value: number): number {
+  return Number(value.toPrecision(CSV_SIGNIFICANT_DIGITS))
+}
+
 export const EXPORT_COLUMNS = [
   ['taken_at', 'takenAt'],
   ['ammonia_mg_l_n', 'ammoniaN'],

@@ -26,6 +26,8 @@ export const InvitationSchema = v.pipe(
     name: v.pipe(v.string('Enter a name.'), v.trim(), v.minLength(1, 'Enter a name.'), v.maxLength(120, 'Keep the name under 120 characters.')),
     role: v.picklist(ROLES, 'Choose a role.'),
     clientId: v.optional(v.pipe(v.string(), v.uuid('Not a valid client id.'))),
+    /** The units the new person reads in; the company's default when left out. */
+    units: v.optional(UnitSystemSchema),
   }),
   v.forward(v.check(input => input.role !== 'client' || !!input.clientId, 'Choose the client this account belongs to.'), ['clientId']),
 )

@@ -305,6 +305,9 @@ describe('CSV import and export', () => {
     const lines = exported.body.trim().split('\n')
     expect(lines[0]).toBe('taken_at,ammonia_mg_l_n,nitrite_mg_l_n,nitrate_mg_l_n,ph,temperature_c,salinity_practical,alkalinity_dkh,calcium_mg_l,magnesium_mg_l,phosphate_mg_l,notes')
     expect(lines).toHaveLength(nanoReadings() + 1)
+    // Values read as numbers, not float noise: at most nine significant digits (the precision the import key compares).
+    const numbers = lines.slice(1).flatMap(line => line.split(',').slice(1, 11)).filter(cell => cell !== '')
+    expect(numbers.filter(cell => cell.replace(/^-?[0.]*/, '').replace('.', '').length > 9)).toEqual([])
     const dry = await api.post<ImportPreview>(`/api/tanks/${lobby}/readings/import`, { csv: exported.body, dryRun: true })
     expect(dry.body).toMatchObject({ rows: nanoReadings(), valid: nanoReadings(), errorRows: 0 })
     const nano = (await api.get<ReadingList>(`/api/tanks/${demo.tanks.nano}/readings?sort=takenAt&dir=asc&pageSize=1`)).body.items[0]!

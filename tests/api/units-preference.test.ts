@@ -39,3 +39,22 @@ describe('PUT /api/me/units', () => {
     expect((await new ApiClient().request('PUT', '/api/me/units', { units: 'metric' })).status).toBe(401)
   })
 })
+
+describe('units on invitation', () => {
+  it('gives the invited person the units chosen, or the company\'s default when none is', async () => {
+    const company = await seedScratchCompany('units-invite', 'us')
+    const admin = await new ApiClient().signIn(company.emails.admin)
+    const settings = (await admin.get<{ name: string, settings: Record<string, unknown>, version: number }>('/api/settings')).body
+    expect((await admin.request('PUT', '/api/settings', { name: settings.name, settings: { ...settings.settings, defaultUnits: 'us' }, version: settings.version })).status).toBe(200)
+    const tag = company.emails.admin.split('@')[0]
+    const chosen = await admin.post('/api/invitations', { name: 'Metric aquarist', email: `metric-${tag}@example.test`, role: 'aquarist', units: 'metric' })
+    const defaulted = await admin.post('/api/invitations', { name: 'Default aquarist', email: `default-${tag}@example.test`, role: 'aquarist' })
+    expect([chosen.status, defaulted.status]).toEqual([201, 201])
+    const people = (await admin.get<{ items: { email: string, units: string }[] }>(`/api/people?q=${tag}`)).body.items
+    expect(people.find(p => p.email === `metric-${tag}@example.test`)?.units).toBe('metric')
+    expect(people.find(p => p.email === `default-${tag}@example.test`)?.units).toBe('us')
+    const bad = await admin.post('/api/invitations', { name: 'Odd units', email: `odd-${tag}@example.test`, role: 'aquarist', units: 'imperial' })
+    expect(bad.status).toBe(400)
+    expect(bad.body.data.issues).toEqual([{ field: 'units', message: 'Choose US or metric units.' }])
+  })
+})

@@ -46,7 +46,7 @@ export default defineEventHandler(async (event) => {
     const created = t.insert(users).values({
       organisationId: actor.organisationId, email: input.email, name: input.name, role: input.role,
       clientId: input.role === 'client' ? input.clientId! : null, passwordHash: null,
-      units: readOrganisationSettings(t, actor.organisationId).defaultUnits,
+      units: input.units ?? readOrganisationSettings(t, actor.organisationId).defaultUnits,
     }).returning().get()
     const token = issueToken(t, created.id, 'invite', now)
     const words = inviteMail(created.name, actor.name, company, publicLink(`/accept-invite?token=${token}`))

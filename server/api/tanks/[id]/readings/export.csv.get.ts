@@ -1,6 +1,6 @@
 import Papa from 'papaparse'
 import { IdParams } from '#shared/schemas/common'
-import { EXPORT_COLUMNS } from '#shared/readings/csv'
+import { csvNumber, EXPORT_COLUMNS } from '#shared/readings/csv'
 import { tankReadings } from '../../../../domain/readings/current'
 
 /**
@@ -13,7 +13,7 @@ export default defineEventHandler(async (event) => {
   const { id } = await getValidatedRouterParams(event, valid(IdParams))
   const tank = requireVisibleTank(actor, id)
   const rows = tankReadings(useDB(), tank.id)
-  const data = rows.map(r => EXPORT_COLUMNS.map(([, key]) => r[key] ?? ''))
+  const data = rows.map(r => EXPORT_COLUMNS.map(([, key]) => { const value = r[key]; return typeof value === 'number' ? csvNumber(value) : value ?? '' }))
   const csv = Papa.unparse({ fields: EXPORT_COLUMNS.map(([header]) => header), data }, { newline: '\n', escapeFormulae: true })
   const safeName = tank.name.replace(/[^A-Za-z0-9-]+/g, '-').replace(/^-|-$/g, '').toLowerCase() || 'tank'
   setResponseHeader(event, 'content-type', 'text/csv; charset=utf-8')
