@@ -52,3 +52,58 @@ describe('accessibility (WCAG 2.2 AA, axe-core)', () => {
     }
   }
 })
+
+describe('keyboard and phone use', () => {
+  it('"Skip to content" is the first stop for Tab and moves focus to the page\'s main content', async () => {
+    const { page, context, problems } = await openPage(browser, 1280)
+    await signInThroughForm(page, 'aquarist@tidewright.test')
+    await page.goto(lounge)
+    await page.keyboard.press('Tab')
+    const first = await page.evaluate(() => ({ text: document.activeElement?.textContent?.trim(), outline: getComputedStyle(document.activeElement!).outlineStyle }))
+    expect(first).toEqual({ text: 'Skip to content', outline: 'solid' })
+    await expect.poll(() => page.getByRole('link', { name: 'Skip to content' }).isVisible()).toBe(true)
+    await page.keyboard.press('Enter')
+    expect(await page.evaluate(() => document.activeElement?.id)).toBe('main-content')
+    await page.keyboard.press('Tab')
+    expect(await page.evaluate(() => !!document.activeElement?.closest('main'))).toBe(true)
+    expect(problems).toEqual([])
+    await context.close()
+  })
+
+  it('every element Tab reaches on the tank page shows a focus ring (outline or ring)', async () => {
+    const { page, context } = await openPage(browser, 1280)
+    await signInThroughForm(page, 'aquarist@tidewright.test')
+    await page.goto(`${lounge}/history`)
+    const unringed: string[] = []
+    for (let i = 0; i < 40; i++) {
+      await page.keyboard.press('Tab')
+      const seen = await page.evaluate(() => {
+        const el = document.activeElement as HTMLElement | null
+        if (!el || el === document.body) return null
+        const style = getComputedStyle(el)
+        const ringed = (style.outlineStyle !== 'none' && parseFloat(style.outlineWidth) >= 2) || /rgb\(\d+, \d+, \d+\) 0px 0px 0px [2-9]px/.test(style.boxShadow)
+        return { ringed, name: `${el.tagName.toLowerCase()} "${(el.getAttribute('aria-label') ?? el.textContent ?? '').trim().slice(0, 40)}"` }
+      })
+      if (seen && !seen.ringed) unringed.push(seen.name)
+    }
+    expect(unringed).toEqual([])
+    await context.close()
+  })
+
+  it('on a phone the readings table scrolls inside a named frame that says so, and the page does not scroll sideways', async () => {
+    const { page, context, problems } = await openPage(browser, 375)
+    await signInThroughForm(page, 'aquarist@tidewright.test')
+    await page.goto(`${lounge}/history`)
+    const frame = page.getByRole('region', { name: 'Readings, scrolls sideways' })
+    await expect.poll(() => frame.isVisible()).toBe(true)
+    expect(await frame.getAttribute('tabindex')).toBe('0')
+    await expect.poll(() => page.getByText('Scroll sideways to see every column.').first().isVisible()).toBe(true)
+    expect(await frame.evaluate(el => el.scrollWidth > el.clientWidth)).toBe(true)
+    expect(await page.evaluate(() => document.documentElement.scrollWidth <= window.innerWidth)).toBe(true)
+    await frame.focus()
+    await page.keyboard.press('ArrowRight')
+    await expect.poll(() => frame.evaluate(el => el.scrollLeft)).toBeGreaterThan(0)
+    expect(problems).toEqual([])
+    await context.close()
+  })
+})
