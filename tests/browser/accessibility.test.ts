@@ -23,7 +23,7 @@ const PAGES: Record<'admin' | 'aquarist' | 'supervisor' | 'client' | 'signed-out
   'supervisor': ['/', '/reviews', `/reviews/${demo.tanks.nano}`, '/audit', '/alerts', '/notifications', '/tanks',
     ...TANK_PAGES, '/clients', ...SETTINGS_FOR_EVERYONE],
   'client': ['/', ...TANK_PAGES, '/notifications', ...SETTINGS_FOR_EVERYONE],
-  'signed-out': ['/login', '/forgot-password'],
+  'signed-out': ['/login', '/forgot-password', '/reset-password', '/accept-invite', '/verify/TW-NOT-A-CODE'],
 }
 const WIDTHS = [1280, 375] as const
 
