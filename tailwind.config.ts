@@ -1,7 +1,9 @@
 import type { Config } from 'tailwindcss'
 
 // Tidewright's own look: deep-water ink, a tide teal for action, warm sand surfaces,
-// and signal colours kept for water-quality meaning only.
+// and signal colours kept for water-quality meaning only. Every colour used for text reaches
+// WCAG AA (4.5:1) on white and on every sand surface down to sand-200, and on the pale tints
+// the status pills use; tests/browser/accessibility.test.ts checks each page with axe-core.
 export default {
   content: ['./app/**/*.{vue,ts}', './shared/**/*.ts'],
   theme: {
@@ -10,10 +12,10 @@ export default {
         sans: ['"Source Sans 3"', 'system-ui', 'sans-serif'],
       },
       colors: {
-        ink: { DEFAULT: '#12303a', soft: '#35525c', faint: '#6b8189' },
+        ink: { DEFAULT: '#12303a', soft: '#35525c', faint: '#4f646c' },
         tide: { 50: '#e8f5f4', 100: '#c9e8e5', 300: '#6fbdb6', 500: '#16808a', 600: '#0f6a73', 700: '#0b545c' },
         sand: { 50: '#fbf8f2', 100: '#f4eee2', 200: '#e7dcc6', 300: '#d6c6a5' },
-        signal: { safe: '#3d7a45', caution: '#b7791f', danger: '#c0392b', info: '#2f6f9f' },
+        signal: { safe: '#2f6a37', caution: '#87570b', danger: '#ad3a2c', info: '#285f88' },
       },
       fontSize: {
         label: ['0.8125rem', { lineHeight: '1.1rem', letterSpacing: '0.02em' }],
