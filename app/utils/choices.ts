@@ -23,3 +23,11 @@ export function labelledChoices<V extends string>(values: readonly V[], labels: 
 export function kitBasisChoices(bases: readonly string[]): Choice[] {
   return bases.map(basis => [basis, basis === 'N' ? 'as N' : basis] as const)
 }
+
+/** A hydrometer's or refractometer's scale, as printed on it: the sample's temperature and the reference water's. */
+export const SG_BASIS_CHOICES: readonly Choice[] = [
+  ['25/25C', 'Sample 25 °C, reference 25 °C (25/25 °C)'],
+  ['20/20C', 'Sample 20 °C, reference 20 °C (20/20 °C)'],
+  ['60/60F', 'Sample 60 °F, reference 60 °F (60/60 °F)'],
+  ['77/60F', 'Sample 77 °F, reference 60 °F (77/60 °F)'],
+]

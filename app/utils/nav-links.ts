@@ -19,7 +19,7 @@ export const NAV_LINKS: readonly NavLink[] = [
   { to: '/alerts', label: 'Alerts', roles: STAFF },
   { to: '/people', label: 'People', roles: ['admin', 'aquarist'] },
   { to: '/audit', label: 'Audit trail', roles: ['supervisor'] },
-  { to: '/admin/mail', label: 'Caught mail', roles: ['admin'] },
+  { to: '/admin/mail', label: 'Outgoing mail', roles: ['admin'] },
   { to: '/admin', label: 'Company', roles: ['admin'] },
 ]
 

@@ -113,7 +113,7 @@ describe('live notifications', () => {
   it('the admin reads the caught mail, including the seeded alert\'s e-mail (1280 px)', async () => {
     const { page, context, problems } = await openPage(browser, 1280)
     await signInThroughForm(page, 'admin@tidewright.test')
-    await page.getByRole('link', { name: 'Caught mail' }).click()
+    await page.getByRole('link', { name: 'Outgoing mail' }).click()
     await page.waitForURL(/\/admin\/mail$/)
     const message = page.getByRole('button', { name: /Danger on Fernhill study reef/ }).first()
     await expect.poll(() => message.isVisible()).toBe(true)
