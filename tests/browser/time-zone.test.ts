@@ -21,13 +21,15 @@ describe('one clock for every reader', () => {
     it(`shows ${who} the same times before and after hydration in a browser 14 hours ahead`, async () => {
       const { page, context, problems } = await openPage(browser, 1280, { timezoneId: 'Pacific/Kiritimati' })
       await signInThroughForm(page, email)
+      // Other suites change what these pages list (a review decided, an alert cleared): at least one moment overall.
+      let seen = 0
       for (const path of paths) {
         await page.goto(path)
         // The page as the server rendered it for this person, fetched with their cookie.
         const served = await page.evaluate(url => fetch(url).then(r => r.text()), path)
         // Every "Dec 2, 3:01 PM"-style moment the server wrote is still on the hydrated page.
         const moments = [...served.matchAll(/[A-Z][a-z]{2} \d{1,2}, (?:\d{4}, )?\d{1,2}:\d{2}\s?[AP]M/g)].map(m => m[0].replace(/\s/g, ' '))
-        expect(moments.length, `${path} shows at least one moment`).toBeGreaterThan(0)
+        seen += moments.length
         // The hydrated DOM's text, folded parts (<details>) included, scripts and their data left out.
         const shown = (await page.evaluate(() => {
           const body = document.body.cloneNode(true) as HTMLElement
@@ -36,6 +38,7 @@ describe('one clock for every reader', () => {
         })).replace(/\s/g, ' ')
         expect(moments.filter(m => !shown.includes(m)), path).toEqual([])
       }
+      expect(seen).toBeGreaterThan(0)
       expect(problems.filter(p => /hydration/i.test(p))).toEqual([])
       await context.close()
     })
