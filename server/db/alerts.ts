@@ -9,7 +9,7 @@ import { and, eq, inArray, isNull, lte, ne } from 'drizzle-orm'
 import type { Finding, Verdict } from '../../shared/cycle/types'
 import { actionLines, alertEscalatedMail, alertOpenedMail, clientDangerMail, mailReader, plainHtml, type MeasuredReading } from './alert-mail'
 import { forReader } from '../../shared/readings/reader-words'
-import type { TidewrightDB } from './connection'
+import type { Db } from './connection'
 import { recordAudit } from '../domain/audit/record'
 import { writeNotice } from './notices'
 import { alerts, organisations, readings, tanks, users } from './schema'
@@ -38,7 +38,7 @@ export const openKeyFor = (tankId: string, kind: string) => `${tankId}:${kind}`
 const tankLink = (tankId: string) => `/tanks/${tankId}`
 const tankUrl = (baseUrl: string, tankId: string) => `${baseUrl.replace(/\/+$/, '')}${tankLink(tankId)}`
 
-function measuredReading(db: TidewrightDB, readingId: string | undefined | null): MeasuredReading | null {
+function measuredReading(db: Db, readingId: string | undefined | null): MeasuredReading | null {
   if (!readingId) return null
   return db.select({
     takenAt: readings.takenAt, ammoniaN: readings.ammoniaN, nitriteN: readings.nitriteN, nitrateN: readings.nitrateN,
@@ -47,11 +47,11 @@ function measuredReading(db: TidewrightDB, readingId: string | undefined | null)
 }
 
 /** The sign-in accounts of the tank's own client: the people at the tank who must act. */
-function clientUsers(db: TidewrightDB, clientId: string) {
+function clientUsers(db: Db, clientId: string) {
   return db.select().from(users).where(and(eq(users.clientId, clientId), eq(users.role, 'client'), eq(users.active, true))).all()
 }
 
-function userRow(db: TidewrightDB, id: string | null) {
+function userRow(db: Db, id: string | null) {
   return id ? db.select().from(users).where(eq(users.id, id)).get() : undefined
 }
 
@@ -61,12 +61,11 @@ function findingReading(finding: Finding, readingId: string | undefined): string
 }
 
 /** Opens, updates and resolves the tank's alerts to match its verdict. */
-export function syncAlertsInDb(db: TidewrightDB, tankId: string, verdict: Verdict, options: AlertSyncOptions): AlertSyncResult {
+export function syncAlertsInDb(db: Db, tankId: string, verdict: Verdict, options: AlertSyncOptions): AlertSyncResult {
   const now = options.now ?? new Date()
   const nowIso = now.toISOString()
   const result: AlertSyncResult = { opened: [], updated: [], resolved: [], notifiedUserIds: [] }
-  db.transaction((tx) => {
-    const t = tx as unknown as TidewrightDB
+  db.transaction((t) => {
     const tank = t.select().from(tanks).where(eq(tanks.id, tankId)).get()
     if (!tank) return
     const dangers = new Map<string, Finding>()
@@ -151,7 +150,7 @@ export interface AlertActionResult { alert: AlertRow, before: AlertRow }
 export interface AlertActor { id: string, organisationId: string }
 
 /** Acknowledges an open alert, with its audit row; already acknowledged or resolved alerts are returned unchanged (null). */
-export function acknowledgeAlertInDb(db: TidewrightDB, alertId: string, actor: AlertActor, note: string | null, now = new Date()): AlertActionResult | null {
+export function acknowledgeAlertInDb(db: Db, alertId: string, actor: AlertActor, note: string | null, now = new Date()): AlertActionResult | null {
   return db.transaction((t) => {
     const before = t.select().from(alerts).where(eq(alerts.id, alertId)).get()
     if (!before || before.status !== 'open') return null
@@ -164,7 +163,7 @@ export function acknowledgeAlertInDb(db: TidewrightDB, alertId: string, actor: A
 }
 
 /** Resolves an alert by hand with a note, with its audit row. */
-export function resolveAlertInDb(db: TidewrightDB, alertId: string, actor: AlertActor, note: string, now = new Date()): AlertActionResult | null {
+export function resolveAlertInDb(db: Db, alertId: string, actor: AlertActor, note: string, now = new Date()): AlertActionResult | null {
   return db.transaction((t) => {
     const before = t.select().from(alerts).where(eq(alerts.id, alertId)).get()
     if (!before || before.status === 'resolved') return null
@@ -177,7 +176,7 @@ export function resolveAlertInDb(db: TidewrightDB, alertId: string, actor: Alert
 }
 
 /** Hands every alert that stayed unacknowledged past its company's delay to the tank's supervisor. Returns who was told. */
-export function escalateDueAlerts(db: TidewrightDB, now: Date, baseUrl: string): { escalated: AlertRow[], notifiedUserIds: string[] } {
+export function escalateDueAlerts(db: Db, now: Date, baseUrl: string): { escalated: AlertRow[], notifiedUserIds: string[] } {
   const out = { escalated: [] as AlertRow[], notifiedUserIds: [] as string[] }
   const orgs = db.select({ id: organisations.id }).from(organisations).all()
   for (const org of orgs) {
@@ -187,8 +186,7 @@ export function escalateDueAlerts(db: TidewrightDB, now: Date, baseUrl: string):
       eq(alerts.organisationId, org.id), eq(alerts.status, 'open'), isNull(alerts.escalatedAt), lte(alerts.openedAt, due),
     )).all()
     for (const candidate of candidates) {
-      db.transaction((tx) => {
-        const t = tx as unknown as TidewrightDB
+      db.transaction((t) => {
         // Conditional update: an alert acknowledged meanwhile, or escalated by another tick, is left alone.
         const alert = t.update(alerts).set({ escalatedAt: now.toISOString(), updatedAt: now.toISOString() })
           .where(and(eq(alerts.id, candidate.id), eq(alerts.status, 'open'), isNull(alerts.escalatedAt))).returning().get()
