@@ -1,8 +1,8 @@
 import { eq } from 'drizzle-orm'
 import { ForgotPasswordSchema } from '#shared/schemas/account'
-import { enqueueMail } from '../../db/outbox'
-import { recordAudit } from '../../domain/audit/record'
-import { users } from '../../db/schema'
+import { enqueueMail } from '#server/db/outbox'
+import { recordAudit } from '#server/domain/audit/record'
+import { users } from '#server/db/schema'
 
 const ANSWER = 'If that address has a Tidewright account, we have sent it a link to choose a new password.'
 

@@ -1,7 +1,7 @@
 import { eq } from 'drizzle-orm'
 import { ClientPatchSchema } from '#shared/schemas/clients'
 import { IdParams } from '#shared/schemas/common'
-import { clients } from '../../db/schema'
+import { clients } from '#server/db/schema'
 
 /** PATCH /api/clients/:id — edits a client's name and contact details. Returns ClientView. */
 export default defineEventHandler(async (event) => {

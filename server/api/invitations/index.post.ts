@@ -1,8 +1,8 @@
 import { and, eq } from 'drizzle-orm'
 import { InvitationSchema } from '#shared/schemas/account'
-import { enqueueMail } from '../../db/outbox'
-import { readOrganisationSettings } from '../../db/settings'
-import { clients, organisations, users } from '../../db/schema'
+import { enqueueMail } from '#server/db/outbox'
+import { readOrganisationSettings } from '#server/db/settings'
+import { clients, organisations, users } from '#server/db/schema'
 
 /**
  * POST /api/invitations — invites someone by e-mail: aquarists and admins invite clients,

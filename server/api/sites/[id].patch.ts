@@ -1,7 +1,7 @@
 import { eq } from 'drizzle-orm'
 import { SitePatchSchema } from '#shared/schemas/clients'
 import { IdParams } from '#shared/schemas/common'
-import { sites } from '../../db/schema'
+import { sites } from '#server/db/schema'
 
 /** PATCH /api/sites/:id — edits a site's label, address and notes. Returns SiteView. */
 export default defineEventHandler(async (event) => {

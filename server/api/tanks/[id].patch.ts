@@ -1,8 +1,8 @@
 import { eq } from 'drizzle-orm'
 import { IdParams } from '#shared/schemas/common'
 import { TankPatchSchema } from '#shared/schemas/tanks'
-import { tanks } from '../../db/schema'
-import { recordAmendment, signedFieldChanges, signedFieldsInWords } from '../../domain/sign-off/signed-record'
+import { tanks } from '#server/db/schema'
+import { recordAmendment, signedFieldChanges, signedFieldsInWords } from '#server/domain/sign-off/signed-record'
 
 /**
  * PATCH /api/tanks/:id — edits a tank's profile; new dimensions recompute its volume. On a

@@ -1,6 +1,6 @@
 import { eq } from 'drizzle-orm'
 import { ArchiveSchema, IdParams } from '#shared/schemas/common'
-import { clients } from '../../../db/schema'
+import { clients } from '#server/db/schema'
 
 /** POST /api/clients/:id/archive — archives a client (or restores it with `{ archived: false }`). Returns ClientView. */
 export default defineEventHandler(async (event) => {

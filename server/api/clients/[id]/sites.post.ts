@@ -1,6 +1,6 @@
 import { SiteCreateSchema } from '#shared/schemas/clients'
 import { IdParams } from '#shared/schemas/common'
-import { sites } from '../../../db/schema'
+import { sites } from '#server/db/schema'
 
 /** POST /api/clients/:id/sites — adds a site (address, room and access notes) to a client. Returns SiteView with status 201. */
 export default defineEventHandler(async (event) => {

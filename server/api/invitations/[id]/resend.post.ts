@@ -1,7 +1,7 @@
 import { IdParams } from '#shared/schemas/common'
-import { recordAudit } from '../../../domain/audit/record'
-import { mayHandleAccountOf } from '../../../domain/people/invitations'
-import { findPerson } from '../../../domain/people/queries'
+import { recordAudit } from '#server/domain/audit/record'
+import { mayHandleAccountOf } from '#server/domain/people/invitations'
+import { findPerson } from '#server/domain/people/queries'
 
 /**
  * POST /api/invitations/:id/resend — e-mails a fresh invitation link; the older link stops

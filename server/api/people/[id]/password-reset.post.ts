@@ -1,6 +1,6 @@
 import { IdParams } from '#shared/schemas/common'
-import { recordAudit } from '../../../domain/audit/record'
-import { findPerson } from '../../../domain/people/queries'
+import { recordAudit } from '#server/domain/audit/record'
+import { findPerson } from '#server/domain/people/queries'
 
 /** POST /api/people/:id/password-reset — e-mails the person a link to choose a new password (their password stays until they use it). Returns { sentTo }. */
 export default defineEventHandler(async (event) => {

@@ -1,6 +1,6 @@
 import { IdParams } from '#shared/schemas/common'
 import { PersonRoleSchema } from '#shared/schemas/people'
-import { changePersonRole } from '../../../domain/people/people'
+import { changePersonRole } from '#server/domain/people/people'
 
 /** PATCH /api/people/:id/role — admin only: moves a staff member to another staff role and ends their sessions. Returns { person: PersonView }. */
 export default defineEventHandler(async (event) => {

@@ -1,6 +1,6 @@
 import { eq } from 'drizzle-orm'
 import { ArchiveSchema, IdParams } from '#shared/schemas/common'
-import { sites } from '../../../db/schema'
+import { sites } from '#server/db/schema'
 
 /** POST /api/sites/:id/archive — archives a site (or restores it with `{ archived: false }`). Returns SiteView. */
 export default defineEventHandler(async (event) => {

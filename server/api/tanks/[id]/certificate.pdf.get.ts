@@ -2,8 +2,8 @@ import { eq } from 'drizzle-orm'
 import { IdParams } from '#shared/schemas/common'
 import type { SignedTankFacts } from '#shared/types/sign-off'
 import type { TankView } from '#shared/types/tanks'
-import { amendmentsOf } from '../../../domain/sign-off/signed-record'
-import type { Actor } from '../../../utils/access'
+import { amendmentsOf } from '#server/domain/sign-off/signed-record'
+import type { Actor } from '#server/utils/access'
 
 /** For a sign-off decided before its facts were kept with it: the tank as it is now (the only source there is). */
 function legacyFacts(actor: Actor, tank: TankView, decidedBy: string | null): SignedTankFacts {

@@ -3,8 +3,8 @@ import { resolveThresholds } from '#shared/cycle/thresholds'
 import type { CyclePhase } from '#shared/cycle/types'
 import type { ChartData } from '#shared/types/readings'
 import { IdParams, isoTimeText } from '#shared/schemas/common'
-import { readOrganisationSettings } from '../../../db/settings'
-import { tankEvents, tankReadings } from '../../../domain/readings/current'
+import { readOrganisationSettings } from '#server/db/settings'
+import { tankEvents, tankReadings } from '#server/domain/readings/current'
 
 const ChartQuery = v.object({
   from: v.optional(isoTimeText('From must be a date.')),

@@ -2,7 +2,7 @@ import { inArray } from 'drizzle-orm'
 import { IdParams } from '#shared/schemas/common'
 import { ruleInfo } from '#shared/cycle/registry'
 import type { VerdictView } from '#shared/types/readings'
-import { readings } from '../../../db/schema'
+import { readings } from '#server/db/schema'
 
 /**
  * GET /api/tanks/:id/verdict — the rule engine's verdict as of now (the stored one, made

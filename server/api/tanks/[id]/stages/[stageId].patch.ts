@@ -1,7 +1,7 @@
 import { eq } from 'drizzle-orm'
 import { StageParams, StagePatchSchema } from '#shared/schemas/plan'
-import { planStages } from '../../../../db/schema'
-import { recordAudit } from '../../../../domain/audit/record'
+import { planStages } from '#server/db/schema'
+import { recordAudit } from '#server/domain/audit/record'
 
 /**
  * PATCH /api/tanks/:id/stages/:stageId — changes a stage's status, ticks, notes or helper values.
