@@ -12,6 +12,8 @@ import { recordAmendment, signedFieldChanges, signedFieldsInWords } from '#serve
 export default defineEventHandler(async (event) => {
   const actor = await requireActor(event, ['admin', 'aquarist'])
   const { id } = await getValidatedRouterParams(event, valid(IdParams))
+  // Params before body: 404 for a row the actor may not see, whatever the body. Read again after the await.
+  requireVisibleTank(actor, id)
   const input = await readValidatedBody(event, valid(TankPatchSchema))
   const before = requireVisibleTank(actor, id)
   checkTankReferences(actor, { ...input, siteId: input.siteId ?? (input.clientId && input.clientId !== before.clientId ? null : undefined) }, before.clientId)

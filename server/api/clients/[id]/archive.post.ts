@@ -6,6 +6,8 @@ import { clients } from '#server/db/schema'
 export default defineEventHandler(async (event) => {
   const actor = await requireActor(event, ['admin', 'aquarist'])
   const { id } = await getValidatedRouterParams(event, valid(IdParams))
+  // Params before body: 404 for a row the actor may not see, whatever the body. Read again after the await.
+  requireClient(actor, id)
   const { archived } = await readValidatedBody(event, valid(ArchiveSchema))
   const before = requireClient(actor, id)
   if (!!before.archivedAt !== archived) {

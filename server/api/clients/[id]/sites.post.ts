@@ -6,8 +6,8 @@ import { sites } from '#server/db/schema'
 export default defineEventHandler(async (event) => {
   const actor = await requireActor(event, ['admin', 'aquarist'])
   const { id } = await getValidatedRouterParams(event, valid(IdParams))
-  const input = await readValidatedBody(event, valid(SiteCreateSchema))
   requireClient(actor, id)
+  const input = await readValidatedBody(event, valid(SiteCreateSchema))
   const row = auditedChange(actor, db => db.insert(sites).values({
     organisationId: actor.organisationId,
     clientId: id,
