@@ -6,7 +6,7 @@
  */
 import { and, desc, eq, isNotNull, isNull } from 'drizzle-orm'
 import type { Db } from './connection'
-import { plainHtml } from './alert-mail'
+import { plainHtml } from '../domain/alerts/mail'
 import { writeNotice } from './notices'
 import { organisations, readings, tanks, users } from './schema'
 import { readOrganisationSettings } from './settings'

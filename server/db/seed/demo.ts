@@ -6,7 +6,7 @@
 import { DEFAULT_PLAN_TEMPLATE } from '../../../shared/plan/default-template'
 import type { Db } from '../connection'
 import { planStageRows } from '../plan-stages'
-import { syncAlertsInDb } from '../alerts'
+import { syncAlertsInDb } from '../../domain/alerts/sync'
 import { computeAndStoreVerdict } from '../verdicts'
 import { clients, events, organisations, planStages, readings, signOffs, sites, tanks, users } from '../schema'
 import type { SimulationPlan } from '../../../shared/cycle/simulate'
