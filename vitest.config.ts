@@ -8,8 +8,8 @@ export default defineConfig({
   test: {
     projects: [
       {
-        // app/ code under unit test names its neighbours by the Nuxt aliases.
-        resolve: { alias: { '~': here('./app'), '#shared': here('./shared') } },
+        // app/ and server/ code under unit test names its neighbours by the Nuxt aliases.
+        resolve: { alias: { '~': here('./app'), '#shared': here('./shared'), '#server': here('./server') } },
         test: {
           name: 'unit',
           environment: 'node',

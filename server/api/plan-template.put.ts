@@ -1,7 +1,7 @@
 import { eq } from 'drizzle-orm'
 import { PlanTemplateSchema } from '#shared/schemas/plan'
 import type { PlanTemplateView } from '#shared/types/plan'
-import { planTemplateStages } from '../db/schema'
+import { planTemplateStages } from '#server/db/schema'
 
 /** PUT /api/plan-template — replaces the company's template (admin only). Tanks already planned keep their own copy. Returns PlanTemplateView. */
 export default defineEventHandler(async (event): Promise<PlanTemplateView> => {

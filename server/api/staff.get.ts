@@ -1,7 +1,7 @@
 import { and, asc, eq, inArray } from 'drizzle-orm'
 import type { StaffMember } from '#shared/types/clients'
 import { STAFF_ROLES } from '#shared/vocabulary'
-import { users } from '../db/schema'
+import { users } from '#server/db/schema'
 
 /** GET /api/staff — the company's active admins, aquarists and supervisors, for assignment pickers. Returns StaffMember[]. */
 export default defineEventHandler(async (event) => {

@@ -6,11 +6,11 @@
  */
 import { eq } from 'drizzle-orm'
 import { emailIsMandatory, wantsEmail, type NoticeKind } from '../../shared/notifications/kinds'
-import type { TidewrightDB } from './connection'
+import type { Db } from './connection'
 import { enqueueMail } from './outbox'
 import { notificationPreferences, notifications, users } from './schema'
 
-type Tx = Pick<TidewrightDB, 'insert' | 'update' | 'select'>
+type Tx = Db
 
 export interface Notice {
   /** A stable id makes the notice idempotent: a second write with it adds nothing. */

@@ -5,7 +5,7 @@
  */
 import { randomUUID } from 'node:crypto'
 import { and, asc, eq, lte, or, sql } from 'drizzle-orm'
-import type { TidewrightDB } from './connection'
+import type { Db } from './connection'
 import { mailOutbox } from './schema'
 
 export interface OutgoingMail {
@@ -19,7 +19,7 @@ export interface OutgoingMail {
   messageId?: string
 }
 
-type Tx = Pick<TidewrightDB, 'insert' | 'update' | 'select'>
+type Tx = Db
 
 /** The domain the Message-IDs are minted under. */
 export const MESSAGE_ID_DOMAIN = 'mail.tidewright.invalid'
@@ -56,7 +56,7 @@ export type OutboxRow = typeof mailOutbox.$inferSelect
  * Claims one due message by moving it to `sending` in a single conditional UPDATE, so two
  * workers (or a worker and a test tick) can never both send it. Returns the row or undefined.
  */
-export function claimNextMail(db: TidewrightDB, now = new Date()): OutboxRow | undefined {
+export function claimNextMail(db: Db, now = new Date()): OutboxRow | undefined {
   const nowIso = now.toISOString()
   // Staleness is judged on the real clock: an injected test clock must not steal a row being sent.
   const realNow = new Date()
@@ -82,12 +82,12 @@ export function claimNextMail(db: TidewrightDB, now = new Date()): OutboxRow | u
 }
 
 /** Records a delivered message. */
-export function markMailSent(db: TidewrightDB, id: string, now = new Date()): void {
+export function markMailSent(db: Db, id: string, now = new Date()): void {
   db.update(mailOutbox).set({ status: 'sent', sentAt: now.toISOString(), lastError: null }).where(eq(mailOutbox.id, id)).run()
 }
 
 /** Records a failed attempt: back to `pending` with a later due time, or `failed` after MAX_ATTEMPTS. */
-export function markMailFailed(db: TidewrightDB, row: Pick<OutboxRow, 'id' | 'attempts'>, error: string, now = new Date()): void {
+export function markMailFailed(db: Db, row: Pick<OutboxRow, 'id' | 'attempts'>, error: string, now = new Date()): void {
   const giveUp = row.attempts >= MAX_ATTEMPTS
   db.update(mailOutbox).set({
     status: giveUp ? 'failed' : 'pending',

@@ -5,8 +5,8 @@
  * Framework-free and driven by an explicit `now`, so the worker and the tests share it.
  */
 import { and, desc, eq, isNotNull, isNull } from 'drizzle-orm'
-import type { TidewrightDB } from './connection'
-import { plainHtml } from './alert-mail'
+import type { Db } from './connection'
+import { plainHtml } from '../domain/alerts/mail'
 import { writeNotice } from './notices'
 import { organisations, readings, tanks, users } from './schema'
 import { readOrganisationSettings } from './settings'
@@ -35,7 +35,7 @@ export interface ReminderRunResult {
 }
 
 /** Sends the reminders and missed-test notices due at `now`. Idempotent: a second run the same day adds nothing. */
-export function runTestReminders(db: TidewrightDB, now: Date, baseUrl: string): ReminderRunResult {
+export function runTestReminders(db: Db, now: Date, baseUrl: string): ReminderRunResult {
   const out: ReminderRunResult = { reminded: [], aquaristsTold: [], notifiedUserIds: [] }
   const base = baseUrl.replace(/\/+$/, '')
   for (const org of db.select().from(organisations).all()) {
@@ -53,8 +53,7 @@ export function runTestReminders(db: TidewrightDB, now: Date, baseUrl: string): 
       const lastDate = localClock(new Date(latest?.takenAt ?? tank.cycleStartedAt ?? tank.createdAt), timeZone).date
       if (lastDate >= today.date) continue
       const url = `${base}/tanks/${tank.id}`
-      db.transaction((tx) => {
-        const t = tx as unknown as TidewrightDB
+      db.transaction((t) => {
         if (pastDue) {
           const clientsOfTank = t.select().from(users).where(and(eq(users.clientId, tank.clientId), eq(users.role, 'client'), eq(users.active, true))).all()
           for (const client of clientsOfTank) {

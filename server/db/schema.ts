@@ -5,7 +5,9 @@
  */
 import { sql } from 'drizzle-orm'
 import { index, integer, real, sqliteTable, text, uniqueIndex } from 'drizzle-orm/sqlite-core'
+import type { Verdict } from '../../shared/cycle/types'
 import type { StoredOrganisationSettings } from '../../shared/schemas/settings'
+import type { SignOffSnapshot } from '../../shared/types/sign-off'
 
 import {
   ALERT_STATUSES, AUTH_TOKEN_PURPOSES, CYCLE_METHODS, CYCLE_PHASES, EVENT_KINDS, LIVESTOCK_GROUPS, MAIL_STATUSES, ROLES, SIGN_OFF_STATUSES,
@@ -197,7 +199,7 @@ export const events = sqliteTable('events', {
 export const tankVerdicts = sqliteTable('tank_verdicts', {
   tankId: text('tank_id').primaryKey().references(() => tanks.id, { onDelete: 'cascade' }),
   phase: text('phase', { enum: CYCLE_PHASES }).notNull(),
-  verdict: text('verdict', { mode: 'json' }).$type<Record<string, unknown>>().notNull(),
+  verdict: text('verdict', { mode: 'json' }).$type<Verdict>().notNull(),
   ruleSetVersion: text('rule_set_version').notNull(),
   evaluatedAt: text('evaluated_at').notNull(),
   /** Set when the company's thresholds changed after this verdict was made: it is made again in batches, or when read. */
@@ -368,7 +370,7 @@ export const signOffs = sqliteTable('sign_offs', {
   /** True when approved against the engine's verdict; a written reason is then required. */
   override: integer('override', { mode: 'boolean' }).notNull().default(false),
   /** The engine input and output at decision time, so the verdict can be reproduced. */
-  snapshot: text('snapshot', { mode: 'json' }).$type<Record<string, unknown>>(),
+  snapshot: text('snapshot', { mode: 'json' }).$type<SignOffSnapshot>(),
   ruleSetVersion: text('rule_set_version'),
   verificationCode: text('verification_code'),
   reopenedBy: text('reopened_by').references(() => users.id, { onDelete: 'set null' }),

@@ -5,11 +5,11 @@
  */
 import { eq } from 'drizzle-orm'
 import { parseStoredSettings, type OrganisationSettings } from '../../shared/schemas/settings'
-import type { TidewrightDB } from './connection'
+import type { Db } from './connection'
 import { organisations } from './schema'
 
 /** The company's settings with defaults; Tidewright's defaults for an organisation that does not exist. */
-export function readOrganisationSettings(db: TidewrightDB, organisationId: string): OrganisationSettings {
+export function readOrganisationSettings(db: Db, organisationId: string): OrganisationSettings {
   const row = db.select({ settings: organisations.settings }).from(organisations).where(eq(organisations.id, organisationId)).get()
   return parseStoredSettings(row?.settings)
 }

@@ -7,7 +7,7 @@ import { and, eq, inArray, isNull, type SQL } from 'drizzle-orm'
 import { evaluateCycle } from '../../shared/cycle/engine'
 import type { CycleEvent, CycleInput, CycleReading, Verdict } from '../../shared/cycle/types'
 import { CYCLE_EVENT_KINDS, type CycleEventKind, type EventKind } from '../../shared/vocabulary'
-import type { TidewrightDB } from './connection'
+import type { Db } from './connection'
 import { tankEvents, tankReadings } from '../domain/readings/current'
 import { tankVerdicts, tanks } from './schema'
 import { readOrganisationSettings } from './settings'
@@ -17,7 +17,7 @@ const isCycleEventKind = (kind: EventKind): kind is CycleEventKind => (CYCLE_EVE
 const defined = <T>(value: T | null): T | undefined => value ?? undefined
 
 /** The engine input for a tank as the database holds it now, or undefined if there is no such tank. */
-export function cycleInputFor(db: TidewrightDB, tankId: string, now: Date): CycleInput | undefined {
+export function cycleInputFor(db: Db, tankId: string, now: Date): CycleInput | undefined {
   const tank = db.select().from(tanks).where(eq(tanks.id, tankId)).get()
   if (!tank) return undefined
   const { thresholds } = readOrganisationSettings(db, tank.organisationId)
@@ -51,14 +51,14 @@ export function cycleInputFor(db: TidewrightDB, tankId: string, now: Date): Cycl
 }
 
 /** Evaluates the tank's cycle now and stores the verdict; undefined if the tank does not exist. */
-export function computeAndStoreVerdict(db: TidewrightDB, tankId: string, now = new Date()): Verdict | undefined {
+export function computeAndStoreVerdict(db: Db, tankId: string, now = new Date()): Verdict | undefined {
   const input = cycleInputFor(db, tankId, now)
   if (!input) return undefined
   const verdict = evaluateCycle(input)
   const row = {
     tankId,
     phase: verdict.phase,
-    verdict: verdict as unknown as Record<string, unknown>,
+    verdict,
     ruleSetVersion: verdict.ruleSetVersion,
     evaluatedAt: input.now,
     stale: false,
@@ -81,7 +81,7 @@ export function verdictIsCurrent(evaluatedAt: string, now: Date, maxAgeMs: numbe
  * Tanks whose stored verdict is missing, marked stale by a threshold change, or no longer current at `now`: among `tankIds` when
  * given (a page being read), otherwise every tank not archived (the worker's round).
  */
-export function tanksWithStaleVerdicts(db: TidewrightDB, now: Date, maxAgeMs: number, tankIds?: readonly string[]): string[] {
+export function tanksWithStaleVerdicts(db: Db, now: Date, maxAgeMs: number, tankIds?: readonly string[]): string[] {
   if (tankIds !== undefined && tankIds.length === 0) return []
   const where: SQL | undefined = tankIds === undefined ? isNull(tanks.archivedAt) : inArray(tanks.id, [...tankIds])
   const rows = db.select({ id: tanks.id, evaluatedAt: tankVerdicts.evaluatedAt, stale: tankVerdicts.stale }).from(tanks)

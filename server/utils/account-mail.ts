@@ -1,5 +1,5 @@
 /** The words of invitation and password-reset e-mails. */
-import { plainHtml } from '../db/alert-mail'
+import { plainHtml } from '../domain/alerts/mail'
 
 export function inviteMail(name: string, inviter: string, company: string, link: string) {
   const lines = [`Hello ${name},`, `${inviter} has invited you to ${company} on Tidewright.`, 'Choose a password with the link below. The link works once and expires in 7 days.']

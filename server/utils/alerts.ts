@@ -1,9 +1,12 @@
 /**
- * Server side of the alert lifecycle: runs the framework-free core against the process's
- * database with the public base URL for links, then wakes the live badges.
+ * Nitro glue for the alert lifecycle: runs the framework-free commands in
+ * server/domain/alerts/ against the process's database with the public base URL for
+ * links, then wakes the live badges and the mail worker.
  */
 import type { Verdict } from '#shared/cycle/types'
-import { acknowledgeAlertInDb, escalateDueAlerts, resolveAlertInDb, syncAlertsInDb, type AlertSyncResult } from '../db/alerts'
+import { acknowledgeAlertInDb, resolveAlertInDb } from '../domain/alerts/actions'
+import { escalateDueAlerts } from '../domain/alerts/escalation'
+import { syncAlertsInDb, type AlertSyncResult } from '../domain/alerts/sync'
 import { runTestReminders } from '../db/reminders'
 import { runHousekeeping } from '../domain/housekeeping/housekeeping'
 import { runWeeklyDigest } from '../domain/forecast/weekly-digest'

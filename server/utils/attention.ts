@@ -3,7 +3,6 @@ import { and, asc, eq, inArray, isNull, ne, sql } from 'drizzle-orm'
 import { alias } from 'drizzle-orm/sqlite-core'
 import { judgeTank, sortBoard, type BoardAlert, type BoardForecast, type BoardTank } from '#shared/attention/board'
 import { resolveThresholds } from '#shared/cycle/thresholds'
-import type { Verdict } from '#shared/cycle/types'
 import type { AttentionQuery } from '#shared/schemas/attention'
 import type { AttentionBoard } from '#shared/types/attention'
 import { listedForecast } from '../domain/forecast/tank-forecast'
@@ -63,7 +62,7 @@ export function attentionBoard(actor: Actor, query: AttentionQuery, now = new Da
       tankId: r.tank.id, tankName: r.tank.name, clientName: r.clientName, siteLabel: r.siteLabel, status: r.tank.status,
       aquaristId: r.tank.aquaristId, aquaristName: r.aquaristName, cycleStartedAt: r.tank.cycleStartedAt,
       lastTestAt: lastTests.get(r.tank.id) ?? null,
-      verdict: (r.verdict as unknown as Verdict | null) ?? null,
+      verdict: r.verdict ?? null,
       alerts: (openAlerts.get(r.tank.id) ?? []).map(a => ({ ...a, status: a.status as BoardAlert['status'] })),
       signOffRequestedAt: requests.get(r.tank.id) ?? null,
       forecast: boardForecast(r.tank, now),

@@ -4,7 +4,7 @@
  */
 import { createHash, randomBytes } from 'node:crypto'
 import { and, eq, gt, isNull } from 'drizzle-orm'
-import type { TidewrightDB } from '../db/connection'
+import type { Db } from '../db/connection'
 import { authTokens, users } from '../db/schema'
 import type { AuthTokenPurpose } from '#shared/vocabulary'
 
@@ -15,7 +15,7 @@ export const TOKEN_TTL_MS: Record<TokenPurpose, number> = { invite: 7 * 86_400_0
 
 const hashToken = (token: string) => createHash('sha256').update(token).digest('hex')
 
-type Tx = Pick<TidewrightDB, 'insert' | 'update' | 'select'>
+type Tx = Db
 
 /** Makes a new link for the user and retires their older unused links of the same purpose. Returns the raw token. */
 export function issueToken(db: Tx, userId: string, purpose: TokenPurpose, now = new Date()): string {

@@ -3,7 +3,6 @@ import { eq } from 'drizzle-orm'
 import { passwordProblem, SetPasswordSchema } from '#shared/schemas/account'
 import { organisations, users } from '../db/schema'
 import { passwordWeakness } from '../domain/accounts/password-strength'
-import type { TidewrightDB } from '../db/connection'
 import type { TokenPurpose } from './auth-tokens'
 import { endSessionsOfUser } from '../domain/sessions/sessions'
 import { recordAudit } from '../domain/audit/record'
@@ -21,8 +20,7 @@ export async function setPasswordWithToken(event: H3Event, purpose: TokenPurpose
   if (problem) throw createError({ statusCode: 400, statusMessage: 'Validation Error', data: { issues: [{ field: 'password', message: problem }] } })
   const passwordHash = await hashPassword(password)
   const db = useDB()
-  const userId = db.transaction((tx) => {
-    const t = tx as unknown as TidewrightDB
+  const userId = db.transaction((t) => {
     const id = consumeToken(t, token, purpose, now)
     if (id) {
       t.update(users).set({ passwordHash }).where(eq(users.id, id)).run()

@@ -6,7 +6,6 @@
  * assertEntryUnlocked first.
  */
 import { and, desc, eq } from 'drizzle-orm'
-import type { SignOffSnapshot } from '#shared/types/sign-off'
 import { signOffs } from '../db/schema'
 import { isSignedStage, signedEntryIds } from '../domain/sign-off/signed-record'
 
@@ -33,7 +32,7 @@ export function assertEntryUnlocked(tankId: string, entryTime: string | Date, en
   const until = signed?.decidedAt
   if (!until) return
   const at = entryTime instanceof Date ? entryTime.getTime() : Date.parse(entryTime)
-  const inSnapshot = entryId !== undefined && signedEntryIds(signed.snapshot as SignOffSnapshot | null).has(entryId)
+  const inSnapshot = entryId !== undefined && signedEntryIds(signed.snapshot).has(entryId)
   if (Number.isNaN(at) || at <= Date.parse(until) || inSnapshot) {
     const message = `This entry falls in the period signed off on ${until.slice(0, 10)} and can no longer be changed. Add a correction with a reason instead; a supervisor can reopen the sign-off if needed.`
     throw createError({ statusCode: 409, statusMessage: message, message, data: { lockedUntil: until } })
@@ -43,7 +42,7 @@ export function assertEntryUnlocked(tankId: string, entryTime: string | Date, en
 /** Throws 409 when the stage was finished in the current sign-off's record: it changes only after reopening. */
 export function assertStageUnsigned(tankId: string, stageKey: string): void {
   const signed = currentApprovedSignOff(tankId)
-  if (!signed || !isSignedStage(signed.snapshot as SignOffSnapshot | null, stageKey)) return
+  if (!signed || !isSignedStage(signed.snapshot, stageKey)) return
   const message = `This stage is part of the record signed off on ${signed.decidedAt?.slice(0, 10)}. A supervisor can reopen the sign-off if it must change.`
   throw createError({ statusCode: 409, statusMessage: message, message })
 }

@@ -68,7 +68,7 @@ export function toSignOffRecord(row: SignOffRow, names: Map<string, string>): Si
 }
 
 export function toSignOffRecordWithSnapshot(row: SignOffRow, names: Map<string, string>): SignOffRecordWithSnapshot {
-  return { ...toSignOffRecord(row, names), snapshot: (row.snapshot as SignOffSnapshot | null) ?? null }
+  return { ...toSignOffRecord(row, names), snapshot: row.snapshot ?? null }
 }
 
 /** Every sign-off of a tank, newest first. */
@@ -159,7 +159,7 @@ export function reviewQueue(actor: Actor, now = new Date()): ReviewItem[] {
     daysCycling: tank.cycleStartedAt ? Math.max(0, Math.floor((now.getTime() - Date.parse(tank.cycleStartedAt)) / 86_400_000)) : null,
     openAlerts: alertCounts.get(tank.id) ?? 0,
     // The stored verdict, so the queue need not re-run the engine per tank; the decision re-evaluates.
-    overrideGrounds: overrideGrounds({ phase: (phase ?? 'not-started') as CyclePhase, findings: ((verdict as Verdict | null)?.findings ?? []) }, alertCounts.get(tank.id) ?? 0),
+    overrideGrounds: overrideGrounds({ phase: (phase ?? 'not-started') as CyclePhase, findings: (verdict?.findings ?? []) }, alertCounts.get(tank.id) ?? 0),
   }))
 }
 
@@ -206,7 +206,7 @@ export function decideSignOff(actor: Actor, tank: TankRow, decision: 'approve' |
       decidedAt: at,
       decisionNote: note || null,
       override,
-      snapshot: snapshot as unknown as Record<string, unknown>,
+      snapshot,
       ruleSetVersion: verdict.ruleSetVersion,
       verificationCode: code,
     }).where(and(eq(signOffs.id, request.id), eq(signOffs.status, 'requested'))).returning().get()
@@ -266,7 +266,7 @@ export function signOffState(actor: Actor, tank: TankRow, now = new Date()): Sig
     canReopen: maySignOff(actor, tank) && !!approved,
     canStartStocking: canManageTank(actor, tank) && tank.status === 'signed-off',
     hasCertificate: !!approved,
-    plan: approved && signedPhase && approved.decidedAt ? stockingPlan(approved.decidedAt, verdict, (approved.snapshot as SignOffSnapshot | null)?.acclimation) : null,
+    plan: approved && signedPhase && approved.decidedAt ? stockingPlan(approved.decidedAt, verdict, approved.snapshot?.acclimation) : null,
   }
 }
 

@@ -7,7 +7,7 @@
  */
 import { and, eq, sql } from 'drizzle-orm'
 import type { TidewrightDB } from '../../server/db/connection'
-import { syncAlertsInDb } from '../../server/db/alerts'
+import { syncAlertsInDb } from '../../server/domain/alerts/sync'
 import { planStageRows } from '../../server/db/plan-stages'
 import { clients, events, organisations, planStages, readings, tanks, users } from '../../server/db/schema'
 import { hashPasswordOffline } from '../../server/db/seed/password'

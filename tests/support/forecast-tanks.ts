@@ -4,7 +4,7 @@
  * known point of its cycle whatever day they run.
  */
 import { inject } from 'vitest'
-import { syncAlertsInDb } from '../../server/db/alerts'
+import { syncAlertsInDb } from '../../server/domain/alerts/sync'
 import { openDatabase } from '../../server/db/connection'
 import { events, readings, tanks } from '../../server/db/schema'
 import { computeAndStoreVerdict } from '../../server/db/verdicts'

@@ -1,7 +1,7 @@
 import Papa from 'papaparse'
 import { formatMoment } from '#shared/readings/reader-words'
 import { AuditQuerySchema } from '#shared/schemas/audit'
-import { readAuditTrail } from '../../domain/audit/trail'
+import { readAuditTrail } from '#server/domain/audit/trail'
 
 /**
  * GET /api/audit/export.csv — every audit row the filters match (same filters and scope as

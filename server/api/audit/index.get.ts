@@ -1,6 +1,6 @@
 import { AuditQuerySchema } from '#shared/schemas/audit'
 import type { AuditList } from '#shared/types/audit'
-import { readAuditTrail } from '../../domain/audit/trail'
+import { readAuditTrail } from '#server/domain/audit/trail'
 
 /** GET /api/audit — one page of the audit trail, newest first, filtered by tank, person, action and days; supervisors see their tanks' rows. Returns AuditList. */
 export default defineEventHandler(async (event): Promise<AuditList> => {

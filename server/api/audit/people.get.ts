@@ -1,4 +1,4 @@
-import { auditPeople } from '../../domain/audit/trail'
+import { auditPeople } from '#server/domain/audit/trail'
 
 /** GET /api/audit/people — the company's people (including deactivated ones), for the audit trail's person filter. Returns { id, name }[]. */
 export default defineEventHandler(async (event) => {

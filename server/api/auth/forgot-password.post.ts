@@ -1,9 +1,8 @@
 import { eq } from 'drizzle-orm'
 import { ForgotPasswordSchema } from '#shared/schemas/account'
-import { enqueueMail } from '../../db/outbox'
-import { recordAudit } from '../../domain/audit/record'
-import { users } from '../../db/schema'
-import type { TidewrightDB } from '../../db/connection'
+import { enqueueMail } from '#server/db/outbox'
+import { recordAudit } from '#server/domain/audit/record'
+import { users } from '#server/db/schema'
 
 const ANSWER = 'If that address has a Tidewright account, we have sent it a link to choose a new password.'
 
@@ -16,8 +15,7 @@ export default defineEventHandler(async (event) => {
   const db = useDB()
   const user = db.select().from(users).where(eq(users.email, email)).get()
   if (user?.active) {
-    db.transaction((tx) => {
-      const t = tx as unknown as TidewrightDB
+    db.transaction((t) => {
       const token = issueToken(t, user.id, 'reset', now)
       const words = resetMail(user.name, publicLink(`/reset-password?token=${token}`))
       enqueueMail(t, { organisationId: user.organisationId, to: user.email, kind: 'reset', ...words }, now)

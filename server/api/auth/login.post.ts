@@ -1,7 +1,7 @@
 import { eq } from 'drizzle-orm'
 import { LoginSchema } from '#shared/schemas/auth'
-import { users } from '../../db/schema'
-import { accountUsable, clientArchivedAt } from '../../domain/people/people'
+import { users } from '#server/db/schema'
+import { accountUsable, clientArchivedAt } from '#server/domain/people/people'
 
 const WRONG = 'Wrong e-mail or password'
 // Checked when the e-mail is unknown, so both failures take about as long.

@@ -1,12 +1,14 @@
 import { eq } from 'drizzle-orm'
 import { ClientPatchSchema } from '#shared/schemas/clients'
 import { IdParams } from '#shared/schemas/common'
-import { clients } from '../../db/schema'
+import { clients } from '#server/db/schema'
 
 /** PATCH /api/clients/:id — edits a client's name and contact details. Returns ClientView. */
 export default defineEventHandler(async (event) => {
   const actor = await requireActor(event, ['admin', 'aquarist'])
   const { id } = await getValidatedRouterParams(event, valid(IdParams))
+  // Params before body: 404 for a row the actor may not see, whatever the body. Read again after the await.
+  requireClient(actor, id)
   const input = await readValidatedBody(event, valid(ClientPatchSchema))
   const before = requireClient(actor, id)
   const changes: Partial<typeof clients.$inferInsert> = {}

@@ -1,5 +1,5 @@
 import { ClientCreateSchema } from '#shared/schemas/clients'
-import { clients } from '../../db/schema'
+import { clients } from '#server/db/schema'
 
 /** POST /api/clients — adds a client record (no sign-in account). Returns ClientView with status 201. */
 export default defineEventHandler(async (event) => {

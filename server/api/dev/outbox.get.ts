@@ -1,5 +1,5 @@
 import { desc } from 'drizzle-orm'
-import { mailOutbox } from '../../db/schema'
+import { mailOutbox } from '#server/db/schema'
 
 /** GET /api/dev/outbox — tests only (NUXT_TEST_HOOKS=1, otherwise 404): delivery state of the outbox, without bodies. Returns { items }. */
 export default defineEventHandler(() => {

@@ -1,5 +1,5 @@
 import { IdParams } from '#shared/schemas/common'
-import { withdrawInvitation } from '../../domain/people/invitations'
+import { withdrawInvitation } from '#server/domain/people/invitations'
 
 /** DELETE /api/invitations/:id — withdraws an invitation nobody accepted: the account and its e-mailed link stop existing. Returns { withdrawn }. */
 export default defineEventHandler(async (event) => {

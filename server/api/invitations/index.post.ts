@@ -1,9 +1,8 @@
 import { and, eq } from 'drizzle-orm'
 import { InvitationSchema } from '#shared/schemas/account'
-import { enqueueMail } from '../../db/outbox'
-import { readOrganisationSettings } from '../../db/settings'
-import { clients, organisations, users } from '../../db/schema'
-import type { TidewrightDB } from '../../db/connection'
+import { enqueueMail } from '#server/db/outbox'
+import { readOrganisationSettings } from '#server/db/settings'
+import { clients, organisations, users } from '#server/db/schema'
 
 /**
  * POST /api/invitations — invites someone by e-mail: aquarists and admins invite clients,
@@ -33,7 +32,7 @@ export default defineEventHandler(async (event) => {
     if (mayMailInvitee(event, input.email)) {
       db.transaction((tx) => {
         const words = alreadyHasAccountMail(existing.name, actor.name, company, publicLink('/login'), publicLink('/forgot-password'))
-        enqueueMail(tx as unknown as TidewrightDB, { organisationId: actor.organisationId, to: input.email, kind: 'invite', ...words }, now)
+        enqueueMail(tx, { organisationId: actor.organisationId, to: input.email, kind: 'invite', ...words }, now)
         writeAudit(actor, { action: 'user.invite-existing', entity: 'user', entityId: null, after: { role: input.role } })
       })
       kickMailWorker()
@@ -41,8 +40,7 @@ export default defineEventHandler(async (event) => {
     return answer
   }
   if (!mayMailInvitee(event, input.email)) return answer
-  db.transaction((tx) => {
-    const t = tx as unknown as TidewrightDB
+  db.transaction((t) => {
     const created = t.insert(users).values({
       organisationId: actor.organisationId, email: input.email, name: input.name, role: input.role,
       clientId: input.role === 'client' ? input.clientId! : null, passwordHash: null,

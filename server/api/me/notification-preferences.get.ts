@@ -1,5 +1,5 @@
 import { NOTICE_KINDS, wantsEmail } from '#shared/notifications/kinds'
-import { emailChoices } from '../../db/notices'
+import { emailChoices } from '#server/db/notices'
 
 /** GET /api/me/notification-preferences — which notices reach the user by e-mail. Returns { items: [{ kind, label, description, email, locked }] }. */
 export default defineEventHandler(async (event) => {

@@ -1,6 +1,6 @@
 import { NotificationPreferencesSchema } from '#shared/schemas/notifications'
-import { emailChoices } from '../../db/notices'
-import { notificationPreferences } from '../../db/schema'
+import { emailChoices } from '#server/db/notices'
+import { notificationPreferences } from '#server/db/schema'
 
 /** PUT /api/me/notification-preferences — sets e-mail on or off per notice kind (danger alerts to the assigned aquarist stay on regardless). Returns { emailKinds }. */
 export default defineEventHandler(async (event) => {

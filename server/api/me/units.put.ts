@@ -1,6 +1,6 @@
 import { eq } from 'drizzle-orm'
 import { UnitsPreferenceSchema } from '#shared/schemas/account'
-import { users } from '../../db/schema'
+import { users } from '#server/db/schema'
 
 /**
  * PUT /api/me/units — the signed-in person's unit system (US or metric), used on every

@@ -1,5 +1,5 @@
 import { and, eq, isNull } from 'drizzle-orm'
-import { notifications } from '../../db/schema'
+import { notifications } from '#server/db/schema'
 
 /** POST /api/notifications/read-all — marks all of the user's notices read. Returns { unread: 0 }. */
 export default defineEventHandler(async (event) => {

@@ -1,5 +1,5 @@
 import type { CompanySettingsView } from '#shared/types/settings'
-import { readCompanySettings } from '../../domain/settings/update'
+import { readCompanySettings } from '#server/domain/settings/update'
 
 /** GET /api/settings — the company's name and settings with defaults filled in, and the version to send back when saving. Returns CompanySettingsView. */
 export default defineEventHandler(async (event): Promise<CompanySettingsView> => {

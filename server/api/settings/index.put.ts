@@ -1,7 +1,7 @@
 import { CompanySettingsUpdateSchema } from '#shared/schemas/settings'
 import type { CompanySettingsSaved } from '#shared/types/settings'
-import { reevaluationProgress } from '../../domain/settings/reevaluation'
-import { saveCompanySettings } from '../../domain/settings/update'
+import { reevaluationProgress } from '#server/domain/settings/reevaluation'
+import { saveCompanySettings } from '#server/domain/settings/update'
 
 /**
  * PUT /api/settings — saves the company's name and settings if the sent version is still

@@ -1,5 +1,5 @@
 import type { ReevaluationProgress } from '#shared/types/settings'
-import { reevaluationProgress } from '../../domain/settings/reevaluation'
+import { reevaluationProgress } from '#server/domain/settings/reevaluation'
 
 /**
  * GET /api/settings/reevaluation — how far re-evaluating the company's tanks after the last

@@ -1,12 +1,14 @@
 import { eq } from 'drizzle-orm'
 import { SitePatchSchema } from '#shared/schemas/clients'
 import { IdParams } from '#shared/schemas/common'
-import { sites } from '../../db/schema'
+import { sites } from '#server/db/schema'
 
 /** PATCH /api/sites/:id — edits a site's label, address and notes. Returns SiteView. */
 export default defineEventHandler(async (event) => {
   const actor = await requireActor(event, ['admin', 'aquarist'])
   const { id } = await getValidatedRouterParams(event, valid(IdParams))
+  // Params before body: 404 for a row the actor may not see, whatever the body. Read again after the await.
+  requireSite(actor, id)
   const input = await readValidatedBody(event, valid(SitePatchSchema))
   const before = requireSite(actor, id)
   const changes: Partial<typeof sites.$inferInsert> = {}

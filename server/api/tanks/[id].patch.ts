@@ -1,8 +1,8 @@
 import { eq } from 'drizzle-orm'
 import { IdParams } from '#shared/schemas/common'
 import { TankPatchSchema } from '#shared/schemas/tanks'
-import { tanks } from '../../db/schema'
-import { recordAmendment, signedFieldChanges, signedFieldsInWords } from '../../domain/sign-off/signed-record'
+import { tanks } from '#server/db/schema'
+import { recordAmendment, signedFieldChanges, signedFieldsInWords } from '#server/domain/sign-off/signed-record'
 
 /**
  * PATCH /api/tanks/:id — edits a tank's profile; new dimensions recompute its volume. On a
@@ -12,6 +12,8 @@ import { recordAmendment, signedFieldChanges, signedFieldsInWords } from '../../
 export default defineEventHandler(async (event) => {
   const actor = await requireActor(event, ['admin', 'aquarist'])
   const { id } = await getValidatedRouterParams(event, valid(IdParams))
+  // Params before body: 404 for a row the actor may not see, whatever the body. Read again after the await.
+  requireVisibleTank(actor, id)
   const input = await readValidatedBody(event, valid(TankPatchSchema))
   const before = requireVisibleTank(actor, id)
   checkTankReferences(actor, { ...input, siteId: input.siteId ?? (input.clientId && input.clientId !== before.clientId ? null : undefined) }, before.clientId)

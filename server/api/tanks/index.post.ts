@@ -1,5 +1,5 @@
 import { TankCreateSchema } from '#shared/schemas/tanks'
-import { planStages, tanks } from '../../db/schema'
+import { planStages, tanks } from '#server/db/schema'
 
 /** POST /api/tanks — adds a tank with its own copy of the company's plan template; the server computes its volume. Returns TankView with status 201. */
 export default defineEventHandler(async (event) => {

@@ -1,6 +1,6 @@
 import { and, eq, inArray } from 'drizzle-orm'
 import { VerifyParams } from '#shared/schemas/sign-off'
-import type { SignOffSnapshot, VerifyResult } from '#shared/types/sign-off'
+import type { VerifyResult } from '#shared/types/sign-off'
 
 /**
  * GET /api/verify/:code — public: checks a certificate's verification code against the
@@ -23,10 +23,10 @@ export default defineEventHandler(async (event) => {
     valid: row.status === 'approved',
     status: row.status === 'approved' ? 'approved' : 'reopened',
     // As signed: a tank renamed since is still checked against the name on the certificate.
-    tankName: (row.snapshot as SignOffSnapshot | null)?.facts?.tankName ?? row.tankName,
-    company: (row.snapshot as SignOffSnapshot | null)?.facts?.company ?? row.company,
+    tankName: row.snapshot?.facts?.tankName ?? row.tankName,
+    company: row.snapshot?.facts?.company ?? row.company,
     signedAt: row.decidedAt,
-    supervisorName: (row.snapshot as SignOffSnapshot | null)?.facts?.supervisorName ?? row.supervisorName,
+    supervisorName: row.snapshot?.facts?.supervisorName ?? row.supervisorName,
     reopenedAt: row.reopenedAt,
   }
   return result

@@ -4,9 +4,9 @@
  * relative to `now`, so the demo always looks current.
  */
 import { DEFAULT_PLAN_TEMPLATE } from '../../../shared/plan/default-template'
-import type { TidewrightDB } from '../connection'
+import type { Db } from '../connection'
 import { planStageRows } from '../plan-stages'
-import { syncAlertsInDb } from '../alerts'
+import { syncAlertsInDb } from '../../domain/alerts/sync'
 import { computeAndStoreVerdict } from '../verdicts'
 import { clients, events, organisations, planStages, readings, signOffs, sites, tanks, users } from '../schema'
 import type { SimulationPlan } from '../../../shared/cycle/simulate'
@@ -61,7 +61,7 @@ function finishStages(rows: (typeof planStages.$inferInsert)[], done: number, by
 }
 
 /** Inserts the whole demo company into an empty, migrated database. */
-export async function seedDemo(db: TidewrightDB, now = new Date()): Promise<DemoIds> {
+export async function seedDemo(db: Db, now = new Date()): Promise<DemoIds> {
   const passwordHash = await hashPasswordOffline(DEMO_PASSWORD)
   return db.transaction((tx) => {
     const org = tx.insert(organisations).values({
@@ -173,8 +173,8 @@ export async function seedDemo(db: TidewrightDB, now = new Date()): Promise<Demo
     // The stored verdicts open their alerts too (the study reef's ammonia spike), with the e-mail queued.
     const baseUrl = process.env.NUXT_PUBLIC_BASE_URL || 'http://localhost:3000'
     for (const tankId of [lobby, lounge, nano, study]) {
-      const verdict = computeAndStoreVerdict(tx as unknown as TidewrightDB, tankId, now)
-      if (verdict) syncAlertsInDb(tx as unknown as TidewrightDB, tankId, verdict, { now, baseUrl })
+      const verdict = computeAndStoreVerdict(tx, tankId, now)
+      if (verdict) syncAlertsInDb(tx, tankId, verdict, { now, baseUrl })
     }
 
     // 'cycled' means awaiting sign-off: the nano's aquarist has asked the supervisor to sign it.

@@ -8,7 +8,7 @@ import { auditActionLabel, auditChanges } from '../../../shared/audit/words'
 import type { AuditQuery } from '../../../shared/schemas/audit'
 import type { AuditList, AuditRowView } from '../../../shared/types/audit'
 import type { Role } from '../../../shared/types/roles'
-import type { TidewrightDB } from '../../db/connection'
+import type { Db } from '../../db/connection'
 import { auditLog, tanks, users } from '../../db/schema'
 import { localClock } from '../../db/reminders'
 import { readOrganisationSettings } from '../../db/settings'
@@ -65,7 +65,7 @@ function conditions(reader: AuditReader, query: AuditQuery, timeZone: string): S
 type Page = Pick<AuditQuery, 'page' | 'pageSize'>
 
 /** One page of the trail, newest first (or every matching row, for the export, when `page` is null). */
-export function readAuditTrail(db: TidewrightDB, reader: AuditReader, query: Omit<AuditQuery, 'page' | 'pageSize'> & Partial<Page>, page: Page | null): AuditList {
+export function readAuditTrail(db: Db, reader: AuditReader, query: Omit<AuditQuery, 'page' | 'pageSize'> & Partial<Page>, page: Page | null): AuditList {
   const { timeZone } = readOrganisationSettings(db, reader.organisationId)
   const where = and(...conditions(reader, { ...query, page: 1, pageSize: 1 }, timeZone))
   let select = db.select({
@@ -102,6 +102,6 @@ export function readAuditTrail(db: TidewrightDB, reader: AuditReader, query: Omi
 }
 
 /** The people who appear in the company's trail, for the viewer's person filter. */
-export function auditPeople(db: TidewrightDB, organisationId: string) {
+export function auditPeople(db: Db, organisationId: string) {
   return db.select({ id: users.id, name: users.name }).from(users).where(eq(users.organisationId, organisationId)).orderBy(users.name).all()
 }

@@ -5,7 +5,7 @@
  */
 import { forecastCycle } from '../../../shared/cycle/forecast'
 import type { CycleForecast } from '../../../shared/cycle/forecast'
-import type { TidewrightDB } from '../../db/connection'
+import type { Db } from '../../db/connection'
 import { cycleInputFor } from '../../db/verdicts'
 import type { TankStatus } from '../../../shared/vocabulary'
 
@@ -13,7 +13,7 @@ import type { TankStatus } from '../../../shared/vocabulary'
 export const FORECAST_STATUSES: ReadonlySet<TankStatus> = new Set<TankStatus>(['cycling', 'cycled'])
 
 /** The forecast for `tankId` at `now`, or undefined when there is no such tank. */
-export function forecastTank(db: TidewrightDB, tankId: string, now: Date): CycleForecast | undefined {
+export function forecastTank(db: Db, tankId: string, now: Date): CycleForecast | undefined {
   const input = cycleInputFor(db, tankId, now)
   return input ? forecastCycle(input) : undefined
 }
@@ -22,7 +22,7 @@ export function forecastTank(db: TidewrightDB, tankId: string, now: Date): Cycle
  * The forecast a list shows beside a tank (the tank list, the attention board): computed while
  * the cycle is what the reader waits for (`FORECAST_STATUSES`), null for any other status.
  */
-export function listedForecast(db: TidewrightDB, tank: { id: string, status: TankStatus }, now: Date): CycleForecast | null {
+export function listedForecast(db: Db, tank: { id: string, status: TankStatus }, now: Date): CycleForecast | null {
   if (!FORECAST_STATUSES.has(tank.status)) return null
   return forecastTank(db, tank.id, now) ?? null
 }

@@ -12,8 +12,8 @@ import type { CycleForecast, DateWords } from '../../../shared/cycle/forecast'
 import { formatDay } from '../../../shared/readings/reader-words'
 import { wantsEmail } from '../../../shared/notifications/kinds'
 import type { CycleMethod } from '../../../shared/vocabulary'
-import { plainHtml } from '../../db/alert-mail'
-import type { TidewrightDB } from '../../db/connection'
+import { plainHtml } from '../alerts/mail'
+import type { Db } from '../../db/connection'
 import { emailChoices } from '../../db/notices'
 import { enqueueMail, MESSAGE_ID_DOMAIN } from '../../db/outbox'
 import { localClock } from '../../db/reminders'
@@ -52,7 +52,7 @@ export interface DigestRunResult {
 interface DigestTank { id: string, name: string, cycleMethod: CycleMethod, clientId: string }
 
 /** Queues the weekly digests due at `now`. Idempotent: one per client and local Monday. */
-export function runWeeklyDigest(db: TidewrightDB, now: Date, baseUrl: string): DigestRunResult {
+export function runWeeklyDigest(db: Db, now: Date, baseUrl: string): DigestRunResult {
   const out: DigestRunResult = { sent: [] }
   const base = baseUrl.replace(/\/+$/, '')
   for (const org of db.select().from(organisations).all()) {

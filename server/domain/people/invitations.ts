@@ -3,7 +3,7 @@
  * in the same transaction). Framework-free.
  */
 import { and, eq, isNull } from 'drizzle-orm'
-import type { TidewrightDB } from '../../db/connection'
+import type { Db } from '../../db/connection'
 import { recordAudit } from '../audit/record'
 import { users } from '../../db/schema'
 import type { Role } from '../../../shared/types/roles'
@@ -27,9 +27,8 @@ export function mayHandleAccountOf(actor: PeopleActor, person: Pick<Person, 'rol
  * Withdraws an invitation nobody has accepted yet: the account is removed with its links,
  * so the e-mailed link stops working and the address can be invited again.
  */
-export function withdrawInvitation(db: TidewrightDB, actor: PeopleActor, personId: string): WithdrawResult {
-  return db.transaction((tx) => {
-    const t = tx as unknown as TidewrightDB
+export function withdrawInvitation(db: Db, actor: PeopleActor, personId: string): WithdrawResult {
+  return db.transaction((t) => {
     const person = findPerson(t, actor.organisationId, personId)
     if (!person || !mayHandleAccountOf(actor, person)) return { ok: false, status: 404, message: 'Invitation not found' }
     if (person.passwordHash !== null) return { ok: false, status: 409, message: `${person.name} has already accepted the invitation; deactivate the account instead.` }

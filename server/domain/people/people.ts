@@ -5,7 +5,7 @@
  */
 import { and, eq, ne, sql } from 'drizzle-orm'
 import type { StaffRole } from '#shared/vocabulary'
-import type { TidewrightDB } from '../../db/connection'
+import type { Db } from '../../db/connection'
 import { clients, users } from '../../db/schema'
 import { recordAudit, type AuditWho } from '../audit/record'
 import { endSessionsOfUser } from '../sessions/sessions'
@@ -37,7 +37,7 @@ export function accountUsable(user: Pick<typeof users.$inferSelect, 'active' | '
 }
 
 /** The archive time of a client account's client record (null for staff and live records). */
-export function clientArchivedAt(db: TidewrightDB, user: Pick<typeof users.$inferSelect, 'clientId'>): string | null {
+export function clientArchivedAt(db: Db, user: Pick<typeof users.$inferSelect, 'clientId'>): string | null {
   if (!user.clientId) return null
   return db.select({ archivedAt: clients.archivedAt }).from(clients).where(eq(clients.id, user.clientId)).get()?.archivedAt ?? null
 }
@@ -46,13 +46,13 @@ function toView(row: typeof users.$inferSelect): PersonView {
   return { id: row.id, name: row.name, email: row.email, role: row.role, active: row.active }
 }
 
-function findPerson(db: TidewrightDB, actor: Actor, personId: string) {
+function findPerson(db: Db, actor: Actor, personId: string) {
   const row = db.select().from(users).where(and(eq(users.id, personId), eq(users.organisationId, actor.organisationId))).get()
   if (!row) throw new PersonChangeRefused(404, 'Person not found')
   return row
 }
 
-function otherActiveAdmins(db: TidewrightDB, organisationId: string, personId: string): number {
+function otherActiveAdmins(db: Db, organisationId: string, personId: string): number {
   return db.select({ n: sql<number>`count(*)` }).from(users).where(and(
     eq(users.organisationId, organisationId), eq(users.role, 'admin'), eq(users.active, true), ne(users.id, personId),
   )).get()?.n ?? 0
@@ -61,9 +61,8 @@ function otherActiveAdmins(db: TidewrightDB, organisationId: string, personId: s
 const LAST_ADMIN = 'The company needs at least one active admin. Make someone else an admin first.'
 
 /** Deactivates a person: they cannot sign in, and every session of theirs ends now. */
-export function deactivatePerson(db: TidewrightDB, actor: Actor, personId: string, now = new Date()): PersonView {
-  return db.transaction((tx) => {
-    const t = tx as unknown as TidewrightDB
+export function deactivatePerson(db: Db, actor: Actor, personId: string, now = new Date()): PersonView {
+  return db.transaction((t) => {
     const before = findPerson(t, actor, personId)
     if (before.id === actor.id) throw new PersonChangeRefused(409, 'You cannot deactivate your own account. Ask another admin.')
     if (before.role === 'admin' && otherActiveAdmins(t, actor.organisationId, personId) === 0) throw new PersonChangeRefused(409, LAST_ADMIN)
@@ -76,9 +75,8 @@ export function deactivatePerson(db: TidewrightDB, actor: Actor, personId: strin
 }
 
 /** Lets a deactivated person sign in again (their old sessions stay ended). */
-export function reactivatePerson(db: TidewrightDB, actor: Actor, personId: string): PersonView {
-  return db.transaction((tx) => {
-    const t = tx as unknown as TidewrightDB
+export function reactivatePerson(db: Db, actor: Actor, personId: string): PersonView {
+  return db.transaction((t) => {
     const before = findPerson(t, actor, personId)
     if (before.active) return toView(before)
     const after = t.update(users).set({ active: true }).where(eq(users.id, personId)).returning().get()
@@ -91,9 +89,8 @@ export function reactivatePerson(db: TidewrightDB, actor: Actor, personId: strin
  * Moves a staff member to another staff role and ends their sessions, so the new role
  * applies from their next sign-in everywhere. Client accounts keep their role.
  */
-export function changePersonRole(db: TidewrightDB, actor: Actor, personId: string, role: StaffRole, now = new Date()): PersonView {
-  return db.transaction((tx) => {
-    const t = tx as unknown as TidewrightDB
+export function changePersonRole(db: Db, actor: Actor, personId: string, role: StaffRole, now = new Date()): PersonView {
+  return db.transaction((t) => {
     const before = findPerson(t, actor, personId)
     if (before.role === role) return toView(before)
     if (before.role === 'client') throw new PersonChangeRefused(409, 'A client account keeps its role. Invite the person as staff with another address.')

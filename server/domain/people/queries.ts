@@ -6,7 +6,7 @@ import { and, asc, eq, sql, type SQL } from 'drizzle-orm'
 import type { PeopleQuery } from '../../../shared/schemas/people'
 import type { AdminAttention, PeopleList, PersonStatus, PersonView } from '../../../shared/types/people'
 import type { Role } from '../../../shared/types/roles'
-import type { TidewrightDB } from '../../db/connection'
+import type { Db } from '../../db/connection'
 import { clients, tanks, users } from '../../db/schema'
 
 // Columns written out in full: drizzle drops table names in single-table selects, which would break the correlation.
@@ -29,7 +29,7 @@ function visiblePeople(organisationId: string, actorRole: Role): SQL {
 }
 
 /** One page of the company's people, searched by name or e-mail, filtered by role and status, by name. */
-export function listPeople(db: TidewrightDB, actor: { organisationId: string, role: Role }, query: PeopleQuery, now = new Date()): PeopleList {
+export function listPeople(db: Db, actor: { organisationId: string, role: Role }, query: PeopleQuery, now = new Date()): PeopleList {
   const status = statusOf(now)
   const conditions: SQL[] = [visiblePeople(actor.organisationId, actor.role)]
   if (query.q) {
@@ -66,12 +66,12 @@ export function listPeople(db: TidewrightDB, actor: { organisationId: string, ro
 }
 
 /** A person of the company, or undefined (the route answers 404). */
-export function findPerson(db: TidewrightDB, organisationId: string, personId: string) {
+export function findPerson(db: Db, organisationId: string, personId: string) {
   return db.select().from(users).where(and(eq(users.id, personId), eq(users.organisationId, organisationId))).get()
 }
 
 /** Pending invitations, deactivated people still on open tanks, and tanks with no aquarist. */
-export function adminAttention(db: TidewrightDB, organisationId: string, now = new Date()): AdminAttention {
+export function adminAttention(db: Db, organisationId: string, now = new Date()): AdminAttention {
   const status = statusOf(now)
   const pending = db.select({ id: users.id, name: users.name, email: users.email, role: users.role, status, invitedAt })
     .from(users).where(and(eq(users.organisationId, organisationId), eq(users.active, true), sql`${users.passwordHash} is null`))

@@ -6,7 +6,7 @@
  */
 import { createHash, randomBytes } from 'node:crypto'
 import { and, desc, eq, gt, isNull, lt, ne, or } from 'drizzle-orm'
-import type { TidewrightDB } from '../../db/connection'
+import type { Db } from '../../db/connection'
 import { sessions } from '../../db/schema'
 import { addressGroup } from '../net/address-group'
 
@@ -35,7 +35,7 @@ export function hashSessionToken(token: string): string {
 }
 
 /** Opens a session; returns the token the sealed cookie carries (256 random bits) and the row id. */
-export function startSession(db: TidewrightDB, input: { userId: string, now: Date, lifetimes: SessionLifetimes, userAgent?: string | null, address?: string | null }): { token: string, id: string } {
+export function startSession(db: Db, input: { userId: string, now: Date, lifetimes: SessionLifetimes, userAgent?: string | null, address?: string | null }): { token: string, id: string } {
   const token = randomBytes(32).toString('base64url')
   const at = input.now.toISOString()
   const row = db.insert(sessions).values({
@@ -59,7 +59,7 @@ export type SessionCheck
  * The session behind a cookie token at `now`. A session past its idle or absolute lifetime
  * is ended here, so it stays ended even if the clock is later read differently.
  */
-export function checkSession(db: TidewrightDB, token: string, now: Date, lifetimes: SessionLifetimes): SessionCheck {
+export function checkSession(db: Db, token: string, now: Date, lifetimes: SessionLifetimes): SessionCheck {
   const row = db.select().from(sessions).where(eq(sessions.tokenHash, hashSessionToken(token))).get()
   if (!row) return { live: false, reason: 'unknown' }
   if (row.endedAt) return { live: false, reason: 'ended' }
@@ -78,14 +78,14 @@ export function checkSession(db: TidewrightDB, token: string, now: Date, lifetim
 }
 
 /** Ends one session; true if it was live. */
-export function endSession(db: TidewrightDB, sessionId: string, reason: SessionEndReason, now = new Date()): boolean {
+export function endSession(db: Db, sessionId: string, reason: SessionEndReason, now = new Date()): boolean {
   const done = db.update(sessions).set({ endedAt: now.toISOString(), endReason: reason })
     .where(and(eq(sessions.id, sessionId), isNull(sessions.endedAt))).run()
   return done.changes > 0
 }
 
 /** Ends the live session with this cookie token, if any (sign-out). */
-export function endSessionByToken(db: TidewrightDB, token: string, reason: SessionEndReason, now = new Date()): void {
+export function endSessionByToken(db: Db, token: string, reason: SessionEndReason, now = new Date()): void {
   db.update(sessions).set({ endedAt: now.toISOString(), endReason: reason })
     .where(and(eq(sessions.tokenHash, hashSessionToken(token)), isNull(sessions.endedAt))).run()
 }
@@ -94,7 +94,7 @@ export function endSessionByToken(db: TidewrightDB, token: string, reason: Sessi
  * Ends every live session of a person at once, except (optionally) one: used by password
  * reset, deactivation, role change and "end all my other sessions". Returns how many ended.
  */
-export function endSessionsOfUser(db: TidewrightDB, userId: string, options: { except?: string, reason?: SessionEndReason, now?: Date } = {}): number {
+export function endSessionsOfUser(db: Db, userId: string, options: { except?: string, reason?: SessionEndReason, now?: Date } = {}): number {
   const conditions = [eq(sessions.userId, userId), isNull(sessions.endedAt)]
   if (options.except) conditions.push(ne(sessions.id, options.except))
   const done = db.update(sessions)
@@ -104,7 +104,7 @@ export function endSessionsOfUser(db: TidewrightDB, userId: string, options: { e
 }
 
 /** A person's sessions that are still live at `now`, newest activity first. */
-export function liveSessionsOfUser(db: TidewrightDB, userId: string, now: Date, lifetimes: SessionLifetimes): SessionRow[] {
+export function liveSessionsOfUser(db: Db, userId: string, now: Date, lifetimes: SessionLifetimes): SessionRow[] {
   const idleSince = new Date(now.getTime() - lifetimes.idleMs).toISOString()
   return db.select().from(sessions).where(and(
     eq(sessions.userId, userId),
@@ -115,7 +115,7 @@ export function liveSessionsOfUser(db: TidewrightDB, userId: string, now: Date, 
 }
 
 /** Deletes sessions ended or expired more than 30 days ago; returns how many. */
-export function pruneSessions(db: TidewrightDB, now = new Date()): number {
+export function pruneSessions(db: Db, now = new Date()): number {
   const before = new Date(now.getTime() - KEEP_ENDED_MS).toISOString()
   return db.delete(sessions).where(or(lt(sessions.endedAt, before), lt(sessions.expiresAt, before))).run().changes
 }

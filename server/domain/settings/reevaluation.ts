@@ -7,20 +7,20 @@
  */
 import { and, eq, inArray, isNull, sql } from 'drizzle-orm'
 import type { ReevaluationProgress } from '../../../shared/types/settings'
-import type { TidewrightDB } from '../../db/connection'
+import type { Db } from '../../db/connection'
 import { tanks, tankVerdicts } from '../../db/schema'
 
 /** How many tanks one batch re-evaluates before the server serves other requests again. */
 export const REEVALUATION_BATCH = 10
 
-const companyTanks = (db: TidewrightDB, organisationId: string) =>
+const companyTanks = (db: Db, organisationId: string) =>
   db.select({ id: tanks.id }).from(tanks).where(eq(tanks.organisationId, organisationId))
 
 /**
  * Marks the stored verdict of every tank of the company that is not archived stale, keeping
  * its phase to compare with later. Call it inside the transaction that saves the thresholds.
  */
-export function markCompanyVerdictsStale(db: TidewrightDB, organisationId: string): void {
+export function markCompanyVerdictsStale(db: Db, organisationId: string): void {
   // Marks of an earlier change (and of tanks archived since) would count in this one's progress.
   db.update(tankVerdicts).set({ phaseBeforeReevaluation: null })
     .where(inArray(tankVerdicts.tankId, companyTanks(db, organisationId))).run()
@@ -30,14 +30,14 @@ export function markCompanyVerdictsStale(db: TidewrightDB, organisationId: strin
 }
 
 /** Up to `limit` tanks of the company whose verdict still waits for re-evaluation. */
-export function staleCompanyTanks(db: TidewrightDB, organisationId: string, limit = REEVALUATION_BATCH): string[] {
+export function staleCompanyTanks(db: Db, organisationId: string, limit = REEVALUATION_BATCH): string[] {
   return db.select({ id: tankVerdicts.tankId }).from(tankVerdicts)
     .where(and(eq(tankVerdicts.stale, true), inArray(tankVerdicts.tankId, companyTanks(db, organisationId))))
     .limit(limit).all().map(r => r.id)
 }
 
 /** How far the last threshold change's re-evaluation has come, and how many tanks changed phase. */
-export function reevaluationProgress(db: TidewrightDB, organisationId: string): ReevaluationProgress {
+export function reevaluationProgress(db: Db, organisationId: string): ReevaluationProgress {
   const row = db.select({
     total: sql<number>`count(*)`,
     done: sql<number>`coalesce(sum(case when ${tankVerdicts.stale} = 0 then 1 else 0 end), 0)`,

@@ -8,13 +8,13 @@ import { and, desc, eq } from 'drizzle-orm'
 import { resolveThresholds } from '../../../shared/cycle/thresholds'
 import { parseStoredSettings, type CompanySettingsUpdate, type OrganisationSettings } from '../../../shared/schemas/settings'
 import type { CompanySettingsView } from '../../../shared/types/settings'
-import type { TidewrightDB } from '../../db/connection'
+import type { Db } from '../../db/connection'
 import { recordAudit } from '../audit/record'
 import { markCompanyVerdictsStale } from './reevaluation'
 import { auditLog, organisations, users } from '../../db/schema'
 
 /** The company's name, settings (defaults filled in) and the version a form must send back. */
-export function readCompanySettings(db: TidewrightDB, organisationId: string): CompanySettingsView | undefined {
+export function readCompanySettings(db: Db, organisationId: string): CompanySettingsView | undefined {
   const row = db.select().from(organisations).where(eq(organisations.id, organisationId)).get()
   if (!row) return undefined
   return { name: row.name, settings: parseStoredSettings(row.settings), version: row.settingsVersion }
@@ -47,15 +47,15 @@ function auditDiff(before: CompanySettingsView, after: { name: string, settings:
     now[section] = after.settings[section]
   }
   if (thresholdKeys.length) {
-    const a = resolveThresholds(before.settings.thresholds) as unknown as Record<string, number>
-    const b = resolveThresholds(after.settings.thresholds) as unknown as Record<string, number>
-    was.thresholds = Object.fromEntries(thresholdKeys.map(k => [k, a[k]]))
-    now.thresholds = Object.fromEntries(thresholdKeys.map(k => [k, b[k]]))
+    const a = resolveThresholds(before.settings.thresholds)
+    const b = resolveThresholds(after.settings.thresholds)
+    was.thresholds = Object.fromEntries(thresholdKeys.map(k => [k, a[k as keyof typeof a]]))
+    now.thresholds = Object.fromEntries(thresholdKeys.map(k => [k, b[k as keyof typeof b]]))
   }
   return { was, now }
 }
 
-function conflictMessage(db: TidewrightDB, organisationId: string): string {
+function conflictMessage(db: Db, organisationId: string): string {
   const last = db.select({ at: auditLog.at, name: users.name }).from(auditLog).leftJoin(users, eq(users.id, auditLog.actorId))
     .where(and(eq(auditLog.organisationId, organisationId), eq(auditLog.action, 'organisation.settings')))
     .orderBy(desc(auditLog.id)).limit(1).get()
@@ -64,9 +64,8 @@ function conflictMessage(db: TidewrightDB, organisationId: string): string {
 }
 
 /** Saves the company name and settings if `version` is still current; returns the new view and which thresholds changed. */
-export function saveCompanySettings(db: TidewrightDB, actor: { id: string, organisationId: string }, input: CompanySettingsUpdate, now = new Date()): SettingsSaveResult {
-  return db.transaction((tx) => {
-    const t = tx as unknown as TidewrightDB
+export function saveCompanySettings(db: Db, actor: { id: string, organisationId: string }, input: CompanySettingsUpdate, now = new Date()): SettingsSaveResult {
+  return db.transaction((t) => {
     const current = readCompanySettings(t, actor.organisationId)
     if (!current) return { ok: false, status: 404, message: 'Company not found' }
     if (current.version !== input.version) return { ok: false, status: 409, message: conflictMessage(t, actor.organisationId) }

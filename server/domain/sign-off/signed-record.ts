@@ -5,13 +5,13 @@
  */
 import { asc, eq } from 'drizzle-orm'
 import type { SignedTankFacts, SignOffAmendmentView, SignOffSnapshot } from '#shared/types/sign-off'
-import type { TidewrightDB } from '../../db/connection'
+import type { Db } from '../../db/connection'
 import { clients, organisations, planStages, signOffAmendments, sites, tanks, users } from '../../db/schema'
 
 type TankRow = typeof tanks.$inferSelect
 
 /** The tank's facts and build-plan stages as they stand now, for the snapshot of a decision. */
-export function captureSignedFacts(db: TidewrightDB, tankId: string, deciderId: string): SignedTankFacts {
+export function captureSignedFacts(db: Db, tankId: string, deciderId: string): SignedTankFacts {
   const row = db.select({ tank: tanks, clientName: clients.name, siteLabel: sites.label, company: organisations.name })
     .from(tanks)
     .innerJoin(clients, eq(clients.id, tanks.clientId))
@@ -76,14 +76,14 @@ export function signedEntryIds(snapshot: SignOffSnapshot | null | undefined): Se
 }
 
 /** Records an amendment of a signed tank's facts (call inside the transaction that changes the tank). */
-export function recordAmendment(db: TidewrightDB, input: { signOffId: string, tankId: string, by: string, at: Date, reason: string, changes: { field: string, before: unknown, after: unknown }[] }): void {
+export function recordAmendment(db: Db, input: { signOffId: string, tankId: string, by: string, at: Date, reason: string, changes: { field: string, before: unknown, after: unknown }[] }): void {
   db.insert(signOffAmendments).values({
     signOffId: input.signOffId, tankId: input.tankId, amendedBy: input.by, amendedAt: input.at.toISOString(), reason: input.reason, changes: input.changes,
   }).run()
 }
 
 /** A sign-off's amendments, oldest first, with who made them. */
-export function amendmentsOf(db: TidewrightDB, signOffId: string): SignOffAmendmentView[] {
+export function amendmentsOf(db: Db, signOffId: string): SignOffAmendmentView[] {
   return db.select({ a: signOffAmendments, byName: users.name }).from(signOffAmendments)
     .leftJoin(users, eq(users.id, signOffAmendments.amendedBy))
     .where(eq(signOffAmendments.signOffId, signOffId))

@@ -5,7 +5,7 @@
  * Keys name what is counted: `sign-in:account:<e-mail>`, `reset-mail:network:<ip group>`, ...
  */
 import { and, eq, gte, inArray, lt, sql } from 'drizzle-orm'
-import type { TidewrightDB } from '../../db/connection'
+import type { Db } from '../../db/connection'
 import { throttleMarks } from '../../db/schema'
 
 export interface ThrottleLimit {
@@ -19,7 +19,7 @@ export type Reservation
   = | { granted: true, markIds: number[], counts: number[] }
     | { granted: false, refusedBy: ThrottleLimit, retryAfterSeconds: number, counts: number[] }
 
-function countSince(db: TidewrightDB, key: string, since: string): number {
+function countSince(db: Db, key: string, since: string): number {
   return db.select({ n: sql<number>`count(*)` }).from(throttleMarks)
     .where(and(eq(throttleMarks.key, key), gte(throttleMarks.at, since))).get()?.n ?? 0
 }
@@ -28,9 +28,8 @@ function countSince(db: TidewrightDB, key: string, since: string): number {
  * Reserves one attempt under every limit, or none: if any limit is full nothing is
  * written and the first full limit is named. `counts` are the attempts already made.
  */
-export function reserveAttempt(db: TidewrightDB, limits: readonly ThrottleLimit[], now: Date): Reservation {
-  return db.transaction((tx) => {
-    const t = tx as unknown as TidewrightDB
+export function reserveAttempt(db: Db, limits: readonly ThrottleLimit[], now: Date): Reservation {
+  return db.transaction((t) => {
     const counts = limits.map(limit => countSince(t, limit.key, new Date(now.getTime() - limit.windowMs).toISOString()))
     const full = limits.findIndex((limit, i) => counts[i]! >= limit.max)
     if (full >= 0) {
@@ -44,16 +43,16 @@ export function reserveAttempt(db: TidewrightDB, limits: readonly ThrottleLimit[
 }
 
 /** Gives reserved attempts back (the attempt turned out not to count, e.g. a correct password). */
-export function releaseAttempt(db: TidewrightDB, markIds: readonly number[]): void {
+export function releaseAttempt(db: Db, markIds: readonly number[]): void {
   if (markIds.length) db.delete(throttleMarks).where(inArray(throttleMarks.id, [...markIds])).run()
 }
 
 /** Forgets every attempt under a key (a successful sign-in clears its account's record). */
-export function clearAttempts(db: TidewrightDB, key: string): void {
+export function clearAttempts(db: Db, key: string): void {
   db.delete(throttleMarks).where(eq(throttleMarks.key, key)).run()
 }
 
 /** Deletes marks older than the longest window in use; returns how many. */
-export function pruneAttempts(db: TidewrightDB, olderThan: Date): number {
+export function pruneAttempts(db: Db, olderThan: Date): number {
   return db.delete(throttleMarks).where(lt(throttleMarks.at, olderThan.toISOString())).run().changes
 }

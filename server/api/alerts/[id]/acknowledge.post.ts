@@ -6,10 +6,10 @@ import { STAFF_ROLES } from '#shared/vocabulary'
 export default defineEventHandler(async (event) => {
   const actor = await requireActor(event, STAFF_ROLES)
   const { id } = await getValidatedRouterParams(event, valid(IdParams))
-  const { note } = await readValidatedBody(event, valid(AlertAcknowledgeSchema))
   const now = requestNow(event)
   const current = getAlert(actor, id, now)
   if (!current) throw createError({ statusCode: 404, statusMessage: 'Alert not found' })
+  const { note } = await readValidatedBody(event, valid(AlertAcknowledgeSchema))
   if (!acknowledgeAlert(actor, id, note || null, now)) throw createError({ statusCode: 409, statusMessage: `The alert is already ${current.status}` })
   return getAlert(actor, id, now)
 })

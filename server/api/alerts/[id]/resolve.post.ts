@@ -6,10 +6,10 @@ import { STAFF_ROLES } from '#shared/vocabulary'
 export default defineEventHandler(async (event) => {
   const actor = await requireActor(event, STAFF_ROLES)
   const { id } = await getValidatedRouterParams(event, valid(IdParams))
-  const { note } = await readValidatedBody(event, valid(AlertResolveSchema))
   const now = requestNow(event)
   const current = getAlert(actor, id, now)
   if (!current) throw createError({ statusCode: 404, statusMessage: 'Alert not found' })
+  const { note } = await readValidatedBody(event, valid(AlertResolveSchema))
   if (!resolveAlert(actor, id, note, now)) throw createError({ statusCode: 409, statusMessage: 'The alert is already resolved' })
   return getAlert(actor, id, now)
 })

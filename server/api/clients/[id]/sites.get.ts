@@ -1,7 +1,7 @@
 import { asc, eq } from 'drizzle-orm'
 import { STAFF_ROLES } from '#shared/vocabulary'
 import { IdParams } from '#shared/schemas/common'
-import { sites } from '../../../db/schema'
+import { sites } from '#server/db/schema'
 
 /** GET /api/clients/:id/sites — the client's sites, archived ones included. Returns SiteView[]. */
 export default defineEventHandler(async (event) => {

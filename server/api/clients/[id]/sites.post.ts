@@ -1,13 +1,13 @@
 import { SiteCreateSchema } from '#shared/schemas/clients'
 import { IdParams } from '#shared/schemas/common'
-import { sites } from '../../../db/schema'
+import { sites } from '#server/db/schema'
 
 /** POST /api/clients/:id/sites — adds a site (address, room and access notes) to a client. Returns SiteView with status 201. */
 export default defineEventHandler(async (event) => {
   const actor = await requireActor(event, ['admin', 'aquarist'])
   const { id } = await getValidatedRouterParams(event, valid(IdParams))
-  const input = await readValidatedBody(event, valid(SiteCreateSchema))
   requireClient(actor, id)
+  const input = await readValidatedBody(event, valid(SiteCreateSchema))
   const row = auditedChange(actor, db => db.insert(sites).values({
     organisationId: actor.organisationId,
     clientId: id,

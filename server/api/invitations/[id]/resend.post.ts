@@ -1,8 +1,7 @@
 import { IdParams } from '#shared/schemas/common'
-import { recordAudit } from '../../../domain/audit/record'
-import type { TidewrightDB } from '../../../db/connection'
-import { mayHandleAccountOf } from '../../../domain/people/invitations'
-import { findPerson } from '../../../domain/people/queries'
+import { recordAudit } from '#server/domain/audit/record'
+import { mayHandleAccountOf } from '#server/domain/people/invitations'
+import { findPerson } from '#server/domain/people/queries'
 
 /**
  * POST /api/invitations/:id/resend — e-mails a fresh invitation link; the older link stops
@@ -23,8 +22,7 @@ export default defineEventHandler(async (event) => {
   requireInvitationAllowance(event, actor.id)
   const answer = { sentTo: person.email, expiresAt: new Date(now.getTime() + TOKEN_TTL_MS.invite).toISOString() }
   if (!mayMailInvitee(event, person.email)) return answer
-  db.transaction((tx) => {
-    const t = tx as unknown as TidewrightDB
+  db.transaction((t) => {
     queueInvitation(t, person, actor.name, now)
     recordAudit(t, actor, { action: 'user.invite-resend', entity: 'user', entityId: person.id, after: { email: person.email } })
   })

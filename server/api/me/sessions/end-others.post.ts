@@ -1,4 +1,4 @@
-import { endSessionsOfUser } from '../../../domain/sessions/sessions'
+import { endSessionsOfUser } from '#server/domain/sessions/sessions'
 
 /** POST /api/me/sessions/end-others — ends every session of the signed-in person except this one. Returns { ended: number }. */
 export default defineEventHandler(async (event) => {

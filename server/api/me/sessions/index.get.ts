@@ -1,5 +1,5 @@
 import type { SessionView } from '#shared/types/sessions'
-import { liveSessionsOfUser } from '../../../domain/sessions/sessions'
+import { liveSessionsOfUser } from '#server/domain/sessions/sessions'
 
 /** GET /api/me/sessions — the signed-in person's live sessions, the current one marked. Returns { items: SessionView[] }. */
 export default defineEventHandler(async (event) => {

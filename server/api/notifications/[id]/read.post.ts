@@ -1,6 +1,6 @@
 import { and, eq, isNull } from 'drizzle-orm'
 import * as v from 'valibot'
-import { notifications } from '../../../db/schema'
+import { notifications } from '#server/db/schema'
 
 // Notice ids are UUIDs or stable keys such as `reminder:<tank>:<user>:<date>`.
 const NoticeParams = v.object({ id: v.pipe(v.string(), v.regex(/^[\w:-]{1,200}$/, 'Not a valid id.')) })

@@ -1,5 +1,5 @@
 import { IdParams } from '#shared/schemas/common'
-import { deactivatePerson } from '../../../domain/people/people'
+import { deactivatePerson } from '#server/domain/people/people'
 
 /** POST /api/people/:id/deactivate — admin only: the person can no longer sign in and their sessions end now. Returns { person: PersonView }. */
 export default defineEventHandler(async (event) => {

@@ -1,7 +1,6 @@
 import { IdParams } from '#shared/schemas/common'
-import { recordAudit } from '../../../domain/audit/record'
-import type { TidewrightDB } from '../../../db/connection'
-import { findPerson } from '../../../domain/people/queries'
+import { recordAudit } from '#server/domain/audit/record'
+import { findPerson } from '#server/domain/people/queries'
 
 /** POST /api/people/:id/password-reset — e-mails the person a link to choose a new password (their password stays until they use it). Returns { sentTo }. */
 export default defineEventHandler(async (event) => {
@@ -13,8 +12,7 @@ export default defineEventHandler(async (event) => {
   if (!person) throw createError({ statusCode: 404, statusMessage: 'Person not found' })
   if (!person.active) throw createError({ statusCode: 409, statusMessage: `${person.name}'s account is deactivated: reactivate it first.` })
   if (person.passwordHash === null) throw createError({ statusCode: 409, statusMessage: `${person.name} has not accepted the invitation yet: resend the invitation instead.` })
-  db.transaction((tx) => {
-    const t = tx as unknown as TidewrightDB
+  db.transaction((t) => {
     queuePasswordReset(t, person, now)
     recordAudit(t, actor, { action: 'user.reset-sent', entity: 'user', entityId: person.id, after: { email: person.email } })
   })

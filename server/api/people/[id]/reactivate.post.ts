@@ -1,5 +1,5 @@
 import { IdParams } from '#shared/schemas/common'
-import { reactivatePerson } from '../../../domain/people/people'
+import { reactivatePerson } from '#server/domain/people/people'
 
 /** POST /api/people/:id/reactivate — admin only: a deactivated person may sign in again. Returns { person: PersonView }. */
 export default defineEventHandler(async (event) => {

@@ -1,9 +1,9 @@
 import { eq } from 'drizzle-orm'
 import { IdParams } from '#shared/schemas/common'
-import type { SignedTankFacts, SignOffSnapshot } from '#shared/types/sign-off'
+import type { SignedTankFacts } from '#shared/types/sign-off'
 import type { TankView } from '#shared/types/tanks'
-import { amendmentsOf } from '../../../domain/sign-off/signed-record'
-import type { Actor } from '../../../utils/access'
+import { amendmentsOf } from '#server/domain/sign-off/signed-record'
+import type { Actor } from '#server/utils/access'
 
 /** For a sign-off decided before its facts were kept with it: the tank as it is now (the only source there is). */
 function legacyFacts(actor: Actor, tank: TankView, decidedBy: string | null): SignedTankFacts {
@@ -30,7 +30,7 @@ export default defineEventHandler(async (event) => {
   if (!tank) throw createError({ statusCode: 404, statusMessage: 'Tank not found' })
   const signOff = currentApprovedSignOff(id)
   if (!signOff?.decidedAt || !signOff.snapshot || !signOff.verificationCode) throw createError({ statusCode: 404, statusMessage: 'This tank has no current sign-off' })
-  const snapshot = signOff.snapshot as unknown as SignOffSnapshot
+  const snapshot = signOff.snapshot
   // Printed from the snapshot taken at the decision, never from the tank as it is now.
   const facts = snapshot.facts ?? legacyFacts(actor, tank, signOff.decidedBy)
   const pdf = await renderCertificate({

@@ -3,8 +3,8 @@ import { resolveThresholds } from '#shared/cycle/thresholds'
 import type { CyclePhase } from '#shared/cycle/types'
 import type { ChartData } from '#shared/types/readings'
 import { IdParams, isoTimeText } from '#shared/schemas/common'
-import { readOrganisationSettings } from '../../../db/settings'
-import { tankEvents, tankReadings } from '../../../domain/readings/current'
+import { readOrganisationSettings } from '#server/db/settings'
+import { tankEvents, tankReadings } from '#server/domain/readings/current'
 
 const ChartQuery = v.object({
   from: v.optional(isoTimeText('From must be a date.')),
@@ -39,7 +39,7 @@ export default defineEventHandler(async (event): Promise<ChartData> => {
     salinity: rows.map(r => r3(r.salinity)),
     events: eventRows.map(e => ({ t: Math.round(Date.parse(e.at) / 1000), kind: e.kind, amount: r3(e.amount), group: e.group })),
     phase: (stored?.phase as CyclePhase | undefined) ?? 'not-started',
-    completedOn: (stored?.verdict as { completedOn?: string | null } | undefined)?.completedOn ?? null,
+    completedOn: stored?.verdict.completedOn ?? null,
     limits: {
       ammoniaZeroN: limits.ammoniaZeroN, nitriteZeroN: limits.nitriteZeroN, riseN: limits.riseN, ammoniaActionN: limits.ammoniaActionN,
       salinityMin: limits.salinityMin, salinityMax: limits.salinityMax, temperatureMinC: limits.temperatureMinC, temperatureMaxC: limits.temperatureMaxC,

@@ -1,6 +1,6 @@
 import { IdParams } from '#shared/schemas/common'
 import type { TankForecastView } from '#shared/types/forecast'
-import { forecastTank } from '../../../domain/forecast/tank-forecast'
+import { forecastTank } from '#server/domain/forecast/tank-forecast'
 
 /**
  * GET /api/tanks/:id/forecast — when the cycle is likely to be proven complete and each

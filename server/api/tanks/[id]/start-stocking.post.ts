@@ -11,6 +11,8 @@ import { StartStockingSchema } from '#shared/schemas/sign-off'
 export default defineEventHandler(async (event) => {
   const actor = await requireActor(event, ['admin', 'aquarist'])
   const { id } = await getValidatedRouterParams(event, valid(IdParams))
+  // Params before body: 404 for a row the actor may not see, whatever the body. Read again after the await.
+  requireVisibleTank(actor, id)
   const input = await readValidatedBody(event, valid(StartStockingSchema))
   const tank = requireVisibleTank(actor, id)
   return startStocking(actor, tank, input, requestNow(event))

@@ -1,5 +1,5 @@
 import { IdParams } from '#shared/schemas/common'
-import { hasPendingPhotoRoom, PENDING_PHOTOS_PER_TANK } from '../../../domain/uploads/pending-photos'
+import { hasPendingPhotoRoom, PENDING_PHOTOS_PER_TANK } from '#server/domain/uploads/pending-photos'
 
 /**
  * POST /api/tanks/:id/test-photos — stores a photo of a water test (JPEG, PNG, WebP) or a PDF

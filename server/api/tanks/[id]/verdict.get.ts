@@ -1,9 +1,8 @@
 import { inArray } from 'drizzle-orm'
 import { IdParams } from '#shared/schemas/common'
 import { ruleInfo } from '#shared/cycle/registry'
-import type { Verdict } from '#shared/cycle/types'
 import type { VerdictView } from '#shared/types/readings'
-import { readings } from '../../../db/schema'
+import { readings } from '#server/db/schema'
 
 /**
  * GET /api/tanks/:id/verdict — the rule engine's verdict as of now (the stored one, made
@@ -18,7 +17,7 @@ export default defineEventHandler(async (event): Promise<VerdictView> => {
   // The verdict is as of now: a stored one older than the verdict interval is made again first.
   const stored = currentVerdictRow(tank.id, requestNow(event))
   if (!stored) throw createError({ statusCode: 404, statusMessage: 'Tank not found' })
-  const verdict = stored.verdict as unknown as Verdict
+  const verdict = stored.verdict
   const ruleIds = new Set(verdict.findings.map(f => f.ruleId))
   const rules: VerdictView['rules'] = {}
   for (const ruleId of ruleIds) {

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest'
-import { actionLines, measuredLines } from '../../../../server/db/alert-mail'
+import { actionLines, measuredLines } from '../../../../server/domain/alerts/mail'
 import { backoffMs, MAX_ATTEMPTS } from '../../../../server/db/outbox'
 import { localClock } from '../../../../server/db/reminders'
 import { passwordProblem } from '../../../../shared/schemas/account'

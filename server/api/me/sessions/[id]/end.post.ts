@@ -1,7 +1,7 @@
 import { and, eq } from 'drizzle-orm'
 import { SessionIdParams } from '#shared/schemas/sessions'
-import { sessions } from '../../../../db/schema'
-import { endSession } from '../../../../domain/sessions/sessions'
+import { sessions } from '#server/db/schema'
+import { endSession } from '#server/domain/sessions/sessions'
 
 /** POST /api/me/sessions/:id/end — ends one of the signed-in person's own sessions (another device, or this one). Returns { ok: true }; 404 if not theirs or already ended. */
 export default defineEventHandler(async (event) => {

@@ -1,6 +1,6 @@
 import { eq } from 'drizzle-orm'
 import { EventParams } from '#shared/schemas/reading'
-import { events } from '../../../../db/schema'
+import { events } from '#server/db/schema'
 
 /** DELETE /api/tanks/:id/events/:eventId — removes an event (kept in the audit log). Returns 204. */
 export default defineEventHandler(async (event) => {

@@ -2,8 +2,8 @@ import { eq } from 'drizzle-orm'
 import { EventParams, EventPatchSchema, type EventInput } from '#shared/schemas/reading'
 import { toCanonicalEvent } from '#shared/readings/events'
 import type { EventView } from '#shared/types/readings'
-import { events } from '../../../../db/schema'
-import { eventColumns } from '../../../../domain/readings/columns'
+import { events } from '#server/db/schema'
+import { eventColumns } from '#server/domain/readings/columns'
 
 /**
  * PATCH /api/tanks/:id/events/:eventId — corrects an event; given fields replace the stored

@@ -2,8 +2,8 @@ import { IdParams } from '#shared/schemas/common'
 import { EventInputSchema } from '#shared/schemas/reading'
 import { toCanonicalEvent } from '#shared/readings/events'
 import type { EventView } from '#shared/types/readings'
-import { events } from '../../../../db/schema'
-import { eventColumns } from '../../../../domain/readings/columns'
+import { events } from '#server/db/schema'
+import { eventColumns } from '#server/domain/readings/columns'
 
 /**
  * POST /api/tanks/:id/events — logs an ammonia dose (stored mg/L as N), bacteria dose,

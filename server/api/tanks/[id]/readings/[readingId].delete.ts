@@ -1,6 +1,6 @@
 import { eq } from 'drizzle-orm'
 import { ReadingParams } from '#shared/schemas/reading'
-import { readings } from '../../../../db/schema'
+import { readings } from '#server/db/schema'
 
 /** DELETE /api/tanks/:id/readings/:readingId — removes a reading (kept in the audit log). Returns 204. */
 export default defineEventHandler(async (event) => {

@@ -2,8 +2,8 @@ import { eq } from 'drizzle-orm'
 import { ReadingParams, ReadingPatchSchema } from '#shared/schemas/reading'
 import { entryFromStored, toCanonicalReading } from '#shared/readings/entry'
 import type { ReadingSaved } from '#shared/types/readings'
-import { readings } from '../../../../db/schema'
-import { readingColumns } from '../../../../domain/readings/columns'
+import { readings } from '#server/db/schema'
+import { readingColumns } from '#server/domain/readings/columns'
 
 /**
  * PATCH /api/tanks/:id/readings/:readingId — corrects a reading: the given fields replace

@@ -1,7 +1,7 @@
 import Papa from 'papaparse'
 import { IdParams } from '#shared/schemas/common'
 import { csvNumber, EXPORT_COLUMNS } from '#shared/readings/csv'
-import { tankReadings } from '../../../../domain/readings/current'
+import { tankReadings } from '#server/domain/readings/current'
 
 /**
  * GET /api/tanks/:id/readings/export.csv — the tank's current readings (as corrected) as CSV in canonical

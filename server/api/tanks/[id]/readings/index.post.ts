@@ -3,8 +3,8 @@ import { IdParams } from '#shared/schemas/common'
 import { ReadingInputSchema } from '#shared/schemas/reading'
 import { toCanonicalReading } from '#shared/readings/entry'
 import type { ReadingSaved } from '#shared/types/readings'
-import { readings, tanks } from '../../../../db/schema'
-import { readingColumns } from '../../../../domain/readings/columns'
+import { readings, tanks } from '#server/db/schema'
+import { readingColumns } from '#server/domain/readings/columns'
 
 /**
  * POST /api/tanks/:id/readings — records one test session in canonical units and

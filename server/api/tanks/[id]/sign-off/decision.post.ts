@@ -10,6 +10,8 @@ import { SignOffDecisionSchema } from '#shared/schemas/sign-off'
 export default defineEventHandler(async (event) => {
   const actor = await requireActor(event, ['admin', 'supervisor'])
   const { id } = await getValidatedRouterParams(event, valid(IdParams))
+  // Params before body: 404 for a row the actor may not see, whatever the body. Read again after the await.
+  requireVisibleTank(actor, id)
   const input = await readValidatedBody(event, valid(SignOffDecisionSchema))
   const tank = requireVisibleTank(actor, id)
   const { signOff } = decideSignOff(actor, tank, input.decision, input.note)

@@ -9,6 +9,8 @@ import { SignOffReopenSchema } from '#shared/schemas/sign-off'
 export default defineEventHandler(async (event) => {
   const actor = await requireActor(event, ['admin', 'supervisor'])
   const { id } = await getValidatedRouterParams(event, valid(IdParams))
+  // Params before body: 404 for a row the actor may not see, whatever the body. Read again after the await.
+  requireVisibleTank(actor, id)
   const input = await readValidatedBody(event, valid(SignOffReopenSchema))
   const tank = requireVisibleTank(actor, id)
   const row = reopenSignOff(actor, tank, input.reason)

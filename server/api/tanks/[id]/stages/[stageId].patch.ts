@@ -1,7 +1,7 @@
 import { eq } from 'drizzle-orm'
 import { StageParams, StagePatchSchema } from '#shared/schemas/plan'
-import { planStages } from '../../../../db/schema'
-import { recordAudit } from '../../../../domain/audit/record'
+import { planStages } from '#server/db/schema'
+import { recordAudit } from '#server/domain/audit/record'
 
 /**
  * PATCH /api/tanks/:id/stages/:stageId — changes a stage's status, ticks, notes or helper values.
@@ -13,6 +13,8 @@ import { recordAudit } from '../../../../domain/audit/record'
 export default defineEventHandler(async (event) => {
   const actor = await requireActor(event, ['admin', 'aquarist'])
   const { id, stageId } = await getValidatedRouterParams(event, valid(StageParams))
+  // Params before body: 404 for a row the actor may not see, whatever the body. Read again after the await.
+  if (!findStage(requireVisibleTank(actor, id).id, stageId)) throw createError({ statusCode: 404, statusMessage: 'Stage not found' })
   const patch = await readValidatedBody(event, valid(StagePatchSchema))
   const tank = requireVisibleTank(actor, id)
   const stage = findStage(tank.id, stageId)

@@ -9,8 +9,9 @@ import { STAFF_ROLES } from '#shared/vocabulary'
 export default defineEventHandler(async (event) => {
   const actor = await requireActor(event, STAFF_ROLES)
   const { id, eventId } = await getValidatedRouterParams(event, valid(EventParams))
-  const input = await readValidatedBody(event, valid(EventCorrectionSchema))
   const tank = requireVisibleTank(actor, id)
+  requireEvent(tank.id, eventId)
+  const input = await readValidatedBody(event, valid(EventCorrectionSchema))
   const row = correctEvent(actor, tank.id, eventId, input, requestNow(event))
   setResponseStatus(event, 201)
   return row

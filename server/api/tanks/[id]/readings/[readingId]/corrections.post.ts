@@ -10,8 +10,9 @@ import { STAFF_ROLES } from '#shared/vocabulary'
 export default defineEventHandler(async (event) => {
   const actor = await requireActor(event, STAFF_ROLES)
   const { id, readingId } = await getValidatedRouterParams(event, valid(ReadingParams))
-  const input = await readValidatedBody(event, valid(ReadingCorrectionSchema))
   const tank = requireVisibleTank(actor, id)
+  requireReading(tank.id, readingId)
+  const input = await readValidatedBody(event, valid(ReadingCorrectionSchema))
   const row = correctReading(actor, tank.id, readingId, input, requestNow(event))
   setResponseStatus(event, 201)
   return row

@@ -2,13 +2,13 @@
  * The words of alert notices and e-mails: what was measured, what it means, what to do,
  * and a link to the tank. Pure functions over plain rows.
  */
-import { fromNitrogen } from '../../shared/chemistry/nitrogen'
-import { formatNumber, formatPercent } from '../../shared/cycle/words'
-import type { CycleAction, Finding } from '../../shared/cycle/types'
-import { nitrogenToKit, type KitBasisChoice } from '../../shared/readings/entry'
-import { formatMoment, forReader, type Reader } from '../../shared/readings/reader-words'
-import { celsiusToFahrenheit } from '../../shared/units'
-import type { UnitSystem } from '../../shared/vocabulary'
+import { fromNitrogen } from '../../../shared/chemistry/nitrogen'
+import { formatNumber, formatPercent } from '../../../shared/cycle/words'
+import type { CycleAction, Finding } from '../../../shared/cycle/types'
+import { nitrogenToKit, type KitBasisChoice } from '../../../shared/readings/entry'
+import { formatMoment, forReader, type Reader } from '../../../shared/readings/reader-words'
+import { celsiusToFahrenheit } from '../../../shared/units'
+import type { UnitSystem } from '../../../shared/vocabulary'
 
 export interface MeasuredReading {
   takenAt: string
