@@ -50,6 +50,8 @@ export function spanAnnotations(spans: ChartSpan[]): AnnotationOptions[] {
       },
       content: span.label ?? '',
       position: { x: 'start', y: 'end' },
+      // A light backdrop keeps the name readable where a series runs along zero.
+      backgroundColor: 'rgba(255,255,255,0.75)',
       color: CHART_INK.text,
       font: FONT,
       padding: 3,
@@ -85,7 +87,12 @@ export function lineAnnotations(lines: ChartLine[]): AnnotationOptions[] {
       display: true,
       content: (ctx: PartialEventContext) => (plotWidth(ctx) < NARROW ? (line.short ?? line.label) : line.label),
       position: 'end',
-      yAdjust: -10,
+      // Above the line, or below it where the line runs too close to the top to leave room.
+      yAdjust: (ctx: PartialEventContext) => {
+        const y = ctx.chart.scales[line.axis ?? 'y']
+        const top = ctx.chart.chartArea?.top ?? 0
+        return y && y.getPixelForValue(line.y) - top < 18 ? 10 : -10
+      },
       backgroundColor: 'rgba(255,255,255,0.85)',
       color: line.color,
       font: { ...FONT, weight: 'bold' },
