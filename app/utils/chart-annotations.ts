@@ -3,7 +3,7 @@
  * threshold bands and lines, and event markers, each kind of event with its own shape so
  * no two read alike. Labels are placed so they stay readable on a 375 px phone: threshold
  * labels sit above their line at its right end, phase names show only where their span is
- * wide enough, and markers that fall close together stack instead of covering each other.
+ * wide enough, and markers that fall close together alternate between two rows instead of covering each other.
  */
 import type { PointStyle } from 'chart.js'
 import type { AnnotationOptions, PartialEventContext } from 'chartjs-plugin-annotation'
@@ -104,7 +104,7 @@ export function lineAnnotations(lines: ChartLine[]): AnnotationOptions[] {
 
 /**
  * Event markers: a thin vertical line and the event's shape along the top of the plot.
- * Markers closer than about two shapes' width stack downwards instead of overlapping.
+ * A marker closer than about two shapes' width to the one before drops to a second row.
  */
 export function markerAnnotations(markers: ChartMarker[], axis = 'y'): AnnotationOptions[] {
   const sorted = [...markers].sort((a, b) => a.x - b.x)
@@ -137,7 +137,8 @@ export function markerAnnotations(markers: ChartMarker[], axis = 'y'): Annotatio
         // Count how many earlier markers sit within two shapes of this one: that is its row.
         const px = x.getPixelForValue(marker.x)
         const prev = i > 0 ? x.getPixelForValue(sorted[i - 1]!.x) : -Infinity
-        row[i] = px - prev < MARKER_RADIUS * 2.4 ? (row[i - 1] ?? 0) + 1 : 0
+        // Two rows are enough: a run of daily doses on a phone alternates instead of climbing down the plot.
+        row[i] = px - prev < MARKER_RADIUS * 2.4 ? ((row[i - 1] ?? 0) + 1) % 2 : 0
         return MARKER_RADIUS + 2 + row[i]! * (MARKER_RADIUS * 2 + 3)
       },
     }
