@@ -16,6 +16,9 @@ export default {
         tide: { 50: '#e8f5f4', 100: '#c9e8e5', 300: '#6fbdb6', 500: '#16808a', 600: '#0f6a73', 700: '#0b545c' },
         sand: { 50: '#fbf8f2', 100: '#f4eee2', 200: '#e7dcc6', 300: '#d6c6a5' },
         signal: { safe: '#2f6a37', caution: '#87570b', danger: '#ad3a2c', info: '#285f88' },
+        // One colour per measured series, in every chart and its legend (app/utils/chart-palette.ts).
+        // Kept apart from the signal colours: red, amber and green mean danger, caution and safe only.
+        series: { ammonia: '#0f6a73', nitrite: '#6b46c1', nitrate: '#2b59c3', freeAmmonia: '#a0307a', salinity: '#0891b2', temperature: '#12303a' },
       },
       fontSize: {
         label: ['0.8125rem', { lineHeight: '1.1rem', letterSpacing: '0.02em' }],

@@ -46,18 +46,25 @@ function finishedData(key: string, byName: string, at: Date, roomUse: string): R
   return {}
 }
 
-/** Marks the first `done` stages of a tank's plan as finished by `by`. */
-function finishStages(rows: (typeof planStages.$inferInsert)[], done: number, by: string, at: Date, who = { name: 'Teodor Nakamura-Reyes', roomUse: 'living-area' }) {
-  return rows.map((row, i) => i >= done
-    ? (i === done ? { ...row, status: 'in-progress' as const } : row)
-    : {
-        ...row,
-        data: finishedData(row.key, who.name, at, who.roomUse),
-        status: 'done' as const,
-        completedBy: by,
-        completedAt: new Date(at.getTime() + i * 3_600_000).toISOString(),
-        checklist: (row.checklist ?? []).map(item => ({ ...item, done: true, doneBy: by, doneAt: at.toISOString() })),
-      })
+/**
+ * Marks the first `done` stages of a tank's plan as finished by `by`: the building stages an
+ * hour apart from `at` (before the cycle starts), and the cycling stage, if among them, at
+ * `cycleDoneAt`, which must come after the engine judged the cycle complete.
+ */
+function finishStages(rows: (typeof planStages.$inferInsert)[], done: number, by: string, at: Date, who = { name: 'Teodor Nakamura-Reyes', roomUse: 'living-area' }, cycleDoneAt?: Date) {
+  return rows.map((row, i) => {
+    if (i >= done) return i === done ? { ...row, status: 'in-progress' as const } : row
+    if (row.key === 'cycling' && !cycleDoneAt) throw new Error('A finished cycling stage needs the moment the cycle was judged complete.')
+    const completedAt = (row.key === 'cycling' ? cycleDoneAt! : new Date(at.getTime() + i * 3_600_000)).toISOString()
+    return {
+      ...row,
+      data: finishedData(row.key, who.name, at, who.roomUse),
+      status: 'done' as const,
+      completedBy: by,
+      completedAt,
+      checklist: (row.checklist ?? []).map(item => ({ ...item, done: true, doneBy: by, doneAt: completedAt })),
+    }
+  })
 }
 
 /** Inserts the whole demo company into an empty, migrated database. */
@@ -139,10 +146,13 @@ export async function seedDemo(db: Db, now = new Date()): Promise<DemoIds> {
         closing: row.status === 'done', now, tank: facts.get(tankId)!, stages: rows.map(r => ({ key: r.key, data: r.data ?? {} })),
       }),
     }))
+    const signOffRequested = new Date(now.getTime() - 2 * 3_600_000)
+    const nanoCycleClosed = new Date(signOffRequested.getTime() - 3_600_000)
     tx.insert(planStages).values([
       ...plan(lobby, finishStages(planStageRows(lobby, DEFAULT_PLAN_TEMPLATE), 1, ids.aquarist, daysAgo(now, 2), { name: 'Teodor Nakamura-Reyes', roomUse: 'office' })),
       ...plan(lounge, finishStages(planStageRows(lounge, DEFAULT_PLAN_TEMPLATE), 6, ids.aquarist, daysAgo(now, 15))),
-      ...plan(nano, finishStages(planStageRows(nano, DEFAULT_PLAN_TEMPLATE), 7, ids.aquarist, daysAgo(now, 38))),
+      // The nano's aquarist closed the cycling stage on the last clean tests, just before asking for sign-off.
+      ...plan(nano, finishStages(planStageRows(nano, DEFAULT_PLAN_TEMPLATE), 7, ids.aquarist, daysAgo(now, 38), undefined, nanoCycleClosed)),
       ...plan(study, finishStages(planStageRows(study, DEFAULT_PLAN_TEMPLATE), 6, ids.aquarist2, daysAgo(now, 11), { name: 'Wren Castellanos', roomUse: 'living-area' })),
     ]).run()
 
@@ -179,7 +189,7 @@ export async function seedDemo(db: Db, now = new Date()): Promise<DemoIds> {
 
     // 'cycled' means awaiting sign-off: the nano's aquarist has asked the supervisor to sign it.
     tx.insert(signOffs).values({
-      organisationId: orgId, tankId: nano, requestedBy: ids.aquarist, requestedAt: new Date(now.getTime() - 2 * 3_600_000).toISOString(),
+      organisationId: orgId, tankId: nano, requestedBy: ids.aquarist, requestedAt: signOffRequested.toISOString(),
       requestNote: 'Clearance dose processed; ammonia and nitrite have read zero since. Ready for review.', status: 'requested',
     }).run()
 

@@ -3,7 +3,9 @@ import { tmpdir } from 'node:os'
 import { join } from 'node:path'
 import { afterAll, describe, expect, it } from 'vitest'
 import { migrateDatabase, openDatabase } from '../../../server/db/connection'
-import { events, planStages, readings, tanks } from '../../../server/db/schema'
+import { evaluateCycle } from '../../../shared/cycle'
+import { events, planStages, readings, signOffs, tanks } from '../../../server/db/schema'
+import { cycleInputFor } from '../../../server/db/verdicts'
 import { seedDemo } from '../../../server/db/seed/demo'
 import { checkedStageData, checkedTank } from '../../../server/db/seed/checked'
 import { demoHistory, loungePlan, simulate, studyPlan } from '../../../server/db/seed/histories'
@@ -26,6 +28,72 @@ describe('the demo company', () => {
     expect(taken.length).toBeGreaterThan(40)
     expect(taken.filter(t => t > now.toISOString())).toEqual([])
     db.$client.close()
+  })
+
+  // Every moment the demo shows (tests, events, finished stages and their ticks, stage values,
+  // the sign-off request) lies in the past of the moment it was seeded.
+  it.each(['05:10', '08:05', '19:20'])('seeded at %s UTC dates nothing after now', async (clock) => {
+    const db = openDatabase(join(dir, `demo-dates-${clock.replace(':', '')}.sqlite`))
+    migrateDatabase(db)
+    const now = new Date(`2026-12-02T${clock}:00.000Z`).toISOString()
+    await seedDemo(db, new Date(now))
+    const moments: [string, string][] = [
+      ...db.select().from(events).all().map(e => [`${e.kind} event`, e.at] as [string, string]),
+      ...db.select().from(signOffs).all().map(s => ['sign-off request', s.requestedAt] as [string, string]),
+      ...db.select().from(tanks).all().flatMap(t => (t.cycleStartedAt ? [[`${t.name} cycle start`, t.cycleStartedAt] as [string, string]] : [])),
+      ...db.select().from(planStages).all().flatMap(s => [
+        ...(s.completedAt ? [[`${s.key} completed`, s.completedAt] as [string, string]] : []),
+        ...s.checklist.flatMap(item => (item.doneAt ? [[`${s.key} checklist`, item.doneAt] as [string, string]] : [])),
+        ...Object.entries(s.data).filter(([, v]) => typeof v === 'string' && /^\d{4}-\d\d-\d\dT/.test(v)).map(([k, v]) => [`${s.key} ${k}`, v as string] as [string, string]),
+      ]),
+    ]
+    expect(moments.length).toBeGreaterThan(40)
+    expect(moments.filter(([, at]) => at > now)).toEqual([])
+    db.$client.close()
+  })
+})
+
+describe('the demo tanks tell a true story', async () => {
+  const now = new Date('2026-12-02T08:05:00.000Z')
+  const db = openDatabase(join(dir, 'demo-story.sqlite'))
+  migrateDatabase(db)
+  await seedDemo(db, now)
+  const allTanks = db.select().from(tanks).all()
+  const stagesOf = (tankId: string) => db.select().from(planStages).all().filter(s => s.tankId === tankId).sort((a, b) => a.position - b.position)
+  afterAll(() => db.$client.close())
+
+  it.each(allTanks.map(t => [t.name, t] as const))('%s: finished stages are dated in plan order, ticks no later than their stage', (_name, tank) => {
+    const done = stagesOf(tank.id).filter(s => s.status === 'done')
+    const dates = done.map(s => s.completedAt!)
+    expect(dates).toEqual([...dates].sort())
+    for (const stage of done) {
+      for (const item of stage.checklist) expect(item.doneAt! <= stage.completedAt!, `${stage.key}: ${item.label}`).toBe(true)
+    }
+  })
+
+  it.each(allTanks.filter(t => t.cycleStartedAt).map(t => [t.name, t] as const))('%s: the stages before cycling finish before the cycle starts; the cycling stage only after it is judged complete', (_name, tank) => {
+    const stages = stagesOf(tank.id)
+    const cycling = stages.findIndex(s => s.key === 'cycling')
+    for (const stage of stages.slice(0, cycling)) {
+      expect(stage.status, stage.key).toBe('done')
+      expect(stage.completedAt! <= tank.cycleStartedAt!, `${stage.key} completed ${stage.completedAt}, cycle started ${tank.cycleStartedAt}`).toBe(true)
+    }
+    const verdict = evaluateCycle(cycleInputFor(db, tank.id, now)!)
+    const stage = stages[cycling]!
+    if (stage.status === 'done') {
+      expect(verdict.completedOn).not.toBeNull()
+      expect(stage.completedAt! >= verdict.completedOn!, `cycling completed ${stage.completedAt}, engine judged complete ${verdict.completedOn}`).toBe(true)
+      expect(stage.completedAt! > tank.cycleStartedAt!).toBe(true)
+    }
+    else expect(verdict.phase).not.toBe('complete')
+  })
+
+  it.each(allTanks.map(t => [t.name, t] as const))('%s: its status is the one the engine\'s verdict gives', (_name, tank) => {
+    const verdict = evaluateCycle(cycleInputFor(db, tank.id, now)!)
+    const tested = db.select().from(readings).all().some(r => r.tankId === tank.id)
+    if (tank.status === 'planned') expect({ tested, cycleStartedAt: tank.cycleStartedAt }).toEqual({ tested: false, cycleStartedAt: null })
+    else if (tank.status === 'cycled') expect(verdict.phase).toBe('complete')
+    else expect({ status: tank.status, phase: verdict.phase === 'complete' ? 'complete' : 'not yet' }).toEqual({ status: 'cycling', phase: 'not yet' })
   })
 })
 
