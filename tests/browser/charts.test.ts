@@ -47,7 +47,7 @@ describe('the charts: one palette, annotation bands and lines, shaped event mark
     expect(await pixelsOf(nitrogen, series.ammonia)).toBeGreaterThan(20)
     expect(await pixelsOf(nitrogen, signal.caution)).toBeLessThan(5)
     // Free ammonia: the EPA chronic line in caution amber, the acute line in danger red, over a plum series.
-    const free = page.getByRole('img', { name: 'Chart of free ammonia against the EPA criteria' }).locator('canvas')
+    const free = page.locator('canvas[aria-label="Chart of free ammonia against the EPA criteria"]')
     await expect.poll(() => pixelsOf(free, signal.caution), { timeout: 10_000 }).toBeGreaterThan(60)
     expect(await pixelsOf(free, signal.danger)).toBeGreaterThan(60)
     expect(await pixelsOf(free, series.freeAmmonia)).toBeGreaterThan(20)

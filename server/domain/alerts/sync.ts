@@ -37,6 +37,8 @@ export function syncAlertsInDb(db: Db, tankId: string, verdict: Verdict, options
   const now = options.now ?? new Date()
   const nowIso = now.toISOString()
   const result: AlertSyncResult = { opened: [], updated: [], resolved: [], notifiedUserIds: [] }
+  // Immediate: it reads, then writes; a deferred transaction would fail at once (SQLITE_BUSY) if
+  // another connection wrote in between, where an immediate one waits its turn.
   db.transaction((t) => {
     const tank = t.select().from(tanks).where(eq(tanks.id, tankId)).get()
     if (!tank) return
@@ -112,6 +114,6 @@ export function syncAlertsInDb(db: Db, tankId: string, verdict: Verdict, options
         result.notifiedUserIds.push(aquarist.id)
       }
     }
-  })
+  }, { behavior: 'immediate' })
   return result
 }
