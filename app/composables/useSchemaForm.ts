@@ -12,8 +12,8 @@ export interface SchemaFormOptions<TValues, TBody> {
   fieldOf?: Record<string, string>
   /** What to say when the server refuses without naming a field. */
   failure?: string
-  /** The toast once the request went through ("Client saved.", or words made then); none when not given. */
-  saved?: string | (() => string)
+  /** The toast once the request went through ("Client saved.", or words made from the body sent); none when not given. */
+  saved?: string | ((body: TBody) => string)
 }
 
 /** What to say beside the button (forms end with it) when some fields are marked. */
@@ -107,7 +107,7 @@ export function useSchemaForm<TSchema extends v.GenericSchema, TValues extends o
       submitting.value = true
       try {
         await send(checked.body)
-        if (options.saved) toasts?.say(typeof options.saved === 'function' ? options.saved() : options.saved)
+        if (options.saved) toasts?.say(typeof options.saved === 'function' ? options.saved(checked.body) : options.saved)
         return true
       }
       catch (error) {

@@ -41,7 +41,8 @@ export const useToastStore = defineStore('toasts', () => {
     const id = next++
     toasts.value = [...toasts.value, { ...toast, id }]
     if (close) onClose.set(id, close)
-    if (import.meta.client) timers.set(id, setTimeout(() => dismiss(id), ms))
+    // Toasts follow a person's action, so they only ever run in the browser; no timer on the server.
+    if (typeof window !== 'undefined') timers.set(id, setTimeout(() => dismiss(id), ms))
     return id
   }
 
