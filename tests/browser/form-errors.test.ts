@@ -64,4 +64,29 @@ describe('the daily test form', () => {
       await context.close()
     })
   }
+
+  it('the event form does the same: a date in the future and an amount that is not a number, at once (375 px)', async () => {
+    const { page, context, problems } = await openPage(browser, 375)
+    await signInThroughForm(page, company.emails.client)
+    await page.goto(`/tanks/${tankId}/tests`)
+    await page.getByText('Something else happened?').click()
+    await page.getByLabel('What happened').selectOption('water-change')
+    // Days ahead on any clock the browser keeps.
+    await page.getByLabel('When').fill(new Date(Date.now() + 3 * 86_400_000).toISOString().slice(0, 16))
+    await page.getByLabel(/Volume changed/).fill('lots')
+    await page.getByRole('button', { name: 'Save event' }).click()
+    const future = page.getByText('An event cannot be in the future. Check the date and time.')
+    const notNumber = page.getByText('Amount must be a number.')
+    await expect.poll(() => future.isVisible()).toBe(true)
+    expect(await notNumber.isVisible()).toBe(true)
+    await expect.poll(() => focusedId(page)).toBe('event-at')
+    await page.getByLabel(/Volume changed/).fill('20')
+    await expect.poll(() => notNumber.count()).toBe(0)
+    expect(await future.isVisible()).toBe(true)
+    // A count of animals asks for the number keypad, not the decimal one.
+    await page.getByLabel('What happened').selectOption('livestock-added')
+    expect(await page.getByLabel('How many').getAttribute('inputmode')).toBe('numeric')
+    expect(problems).toEqual([])
+    await context.close()
+  })
 })
