@@ -30,6 +30,8 @@ describe('the daily test form', () => {
       await signInThroughForm(page, company.emails.client)
       await page.goto(`/tanks/${tankId}/tests`)
       await expect.poll(() => page.getByLabel('Tested at').inputValue()).not.toBe('')
+      // The page-load bar is there on every page, in the theme's tide colour (#16808a).
+      expect(await page.locator('.nuxt-loading-indicator').evaluate(el => getComputedStyle(el).backgroundColor)).toBe('rgb(22, 128, 138)')
       // Readings take decimals: the phone shows its decimal keypad.
       expect(await page.getByLabel('Nitrate (mg/L)').getAttribute('inputmode')).toBe('decimal')
 
