@@ -1,6 +1,7 @@
 import * as v from 'valibot'
 import { getCurrentInstance, nextTick, provide, reactive, ref, toRaw, watch, type InjectionKey, type Ref, type UnwrapNestedRefs } from 'vue'
 import { apiErrorMessage, schemaFieldErrors, serverFieldErrors, type FieldErrors } from '~/utils/api-error'
+import { useToastStore } from '~/stores/toasts'
 
 export interface SchemaFormOptions<TValues, TBody> {
   /** The request body built from the values (units converted, blanks to null); the values themselves by default. */
@@ -11,10 +12,12 @@ export interface SchemaFormOptions<TValues, TBody> {
   fieldOf?: Record<string, string>
   /** What to say when the server refuses without naming a field. */
   failure?: string
+  /** The toast once the request went through ("Client saved.", or words made from the body sent); none when not given. */
+  saved?: string | ((body: TBody) => string)
 }
 
-/** What to say above the button when some fields are marked. */
-export const CHECK_FIELDS = 'Check the fields marked below.'
+/** What to say beside the button (forms end with it) when some fields are marked. */
+export const CHECK_FIELDS = 'Check the fields marked above.'
 
 /** What a form hands the `<FormField name="…">` inside it: its messages, and who shows which. */
 export interface SchemaFormContext {
@@ -45,6 +48,8 @@ export function useSchemaForm<TSchema extends v.GenericSchema, TValues extends o
   const submitting = ref(false)
   const toBody = options.toBody ?? ((current: TValues) => toRaw(current) as unknown as TBody)
   const fieldOf = (path: string) => options.fieldOf?.[path] ?? path
+  // Taken while the component is set up: after an await there is no active Pinia context to find.
+  const toasts = options.saved ? useToastStore() : null
   const onScreen = new Map<string, number>()
   const show = (field: string) => {
     onScreen.set(field, (onScreen.get(field) ?? 0) + 1)
@@ -102,6 +107,7 @@ export function useSchemaForm<TSchema extends v.GenericSchema, TValues extends o
       submitting.value = true
       try {
         await send(checked.body)
+        if (options.saved) toasts?.say(typeof options.saved === 'function' ? options.saved(checked.body) : options.saved)
         return true
       }
       catch (error) {

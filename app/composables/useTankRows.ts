@@ -1,5 +1,9 @@
 import { tankDataKeys } from '~/utils/data-keys'
 import { pageCount, rowChanger } from '~/utils/row-changes'
+import { useToastStore } from '~/stores/toasts'
+
+/** The row type of a history list. */
+type RowOf<List> = List extends { items: readonly (infer Row)[] } ? Row : never
 
 /** Rows a page of a tank's history shows at once. */
 export const TANK_ROWS_PAGE_SIZE = 20
@@ -8,6 +12,7 @@ export const TANK_ROWS_PAGE_SIZE = 20
  * One page of a tank's tests or events (GET /api/tanks/:id/readings|events) under its stable key,
  * newest first, with the one way a row is corrected or deleted (`utils/row-changes.ts`); a change
  * reloads the rows and tells the tank page (`onChanged`) so its verdict and chart follow.
+ * `items` leaves out rows deleted on screen whose undo window is still open.
  */
 export async function useTankRows<List extends { total: number }>(
   resource: 'readings' | 'events',
@@ -27,6 +32,12 @@ export async function useTankRows<List extends { total: number }>(
   const pages = computed(() => pageCount((data.value as { total?: number } | null | undefined)?.total ?? 0, TANK_ROWS_PAGE_SIZE))
   /** What the last change did, or why it failed. */
   const message = ref('')
+  const hidden = ref<ReadonlySet<string>>(new Set())
+  const toasts = useToastStore()
+  const items = computed(() => {
+    const rows = (data.value as { items?: (RowOf<List> & { id: string })[] } | null | undefined)?.items ?? []
+    return rows.filter(row => !hidden.value.has(row.id))
+  })
   const { changeRow, deleteRow } = rowChanger({
     send: async (rowId, request) => {
       const url: string = `/api/tanks/${toValue(tankId)}/${resource}/${rowId}`
@@ -36,8 +47,10 @@ export async function useTankRows<List extends { total: number }>(
     reload: refresh,
     onChanged,
     message,
-    confirm: question => window.confirm(question),
+    say: done => toasts.say(done),
+    offerUndo: (done, actions) => toasts.offerUndo(done, actions),
+    hidden,
   })
 
-  return { page, sort, dir, data, error, refresh, pages, message, changeRow, deleteRow }
+  return { page, sort, dir, data, items, error, refresh, pages, message, changeRow, deleteRow }
 }

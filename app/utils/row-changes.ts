@@ -9,8 +9,14 @@ export interface RowChangeDeps {
   send: (rowId: string, request: RowRequest) => Promise<unknown>
   reload: () => Promise<unknown>
   onChanged: () => void
+  /** Where a failure is said, beside the list. */
   message: Ref<string>
-  confirm: (question: string) => boolean
+  /** Says that a change went through (a toast). */
+  say: (done: string) => void
+  /** Opens the undo window of a deletion (a toast with Undo): `commit` when it closes, `undo` if pressed first. */
+  offerUndo: (done: string, actions: { commit: () => void, undo: () => void }) => void
+  /** Rows deleted on screen whose DELETE waits for the undo window to close. */
+  hidden: Ref<ReadonlySet<string>>
 }
 
 /** How many pages `total` rows fill; one page when there are none. */
@@ -19,9 +25,9 @@ export function pageCount(total: number, pageSize: number): number {
 }
 
 /**
- * The one way a history row is changed: send the change, say what happened, reload the rows
- * and tell the page (its verdict and chart follow). A failure goes to `onError` when given (a
- * form that shows field messages), else `message` says the server's words or `failure`.
+ * The one way a history row is changed: send the change, say what happened (a toast), reload
+ * the rows and tell the page (its verdict and chart follow). A failure goes to `onError` when
+ * given (a form that shows field messages), else `message` says the server's words or `failure`.
  */
 export function rowChanger(deps: RowChangeDeps) {
   async function changeRow(rowId: string, request: RowRequest, done: string, failure: string, onError?: (error: unknown) => void): Promise<boolean> {
@@ -33,16 +39,55 @@ export function rowChanger(deps: RowChangeDeps) {
       else deps.message.value = apiErrorMessage(e, failure)
       return false
     }
-    deps.message.value = done
+    deps.message.value = ''
+    deps.say(done)
     await deps.reload()
     deps.onChanged()
     return true
   }
 
-  /** Deletes one row once the person confirms `question`. */
-  async function deleteRow(rowId: string, question: string, done: string, failure: string): Promise<void> {
-    if (!deps.confirm(question)) return
-    await changeRow(rowId, { method: 'DELETE' }, done, failure)
+  const setHidden = (rowId: string, hide: boolean) => {
+    const next = new Set(deps.hidden.value)
+    if (hide) next.add(rowId)
+    else next.delete(rowId)
+    deps.hidden.value = next
+  }
+
+  /**
+   * Deletes one row the honest way round: it leaves the list at once with an Undo toast, and the
+   * DELETE is sent only when the undo window closes. Undo (or a tab closed in the meantime)
+   * sends nothing, so nothing has to be re-created and no row can be lost; a refused DELETE
+   * brings the row back with the server's words.
+   */
+  function deleteRow(rowId: string, done: string, failure: string): Promise<boolean> {
+    deps.message.value = ''
+    setHidden(rowId, true)
+    return new Promise((resolve) => {
+      deps.offerUndo(done, {
+        undo: () => {
+          setHidden(rowId, false)
+          resolve(false)
+        },
+        commit: () => {
+          void sendDelete(rowId, failure).then(resolve)
+        },
+      })
+    })
+  }
+
+  async function sendDelete(rowId: string, failure: string): Promise<boolean> {
+    try {
+      await deps.send(rowId, { method: 'DELETE' })
+    }
+    catch (e) {
+      setHidden(rowId, false)
+      deps.message.value = apiErrorMessage(e, failure)
+      return false
+    }
+    await deps.reload()
+    setHidden(rowId, false)
+    deps.onChanged()
+    return true
   }
 
   return { changeRow, deleteRow }

@@ -41,6 +41,7 @@ export function toUploadView(row: typeof uploads.$inferSelect, names: Map<string
     originalName: row.originalName,
     hasThumbnail: !!row.thumbnailKey,
     uploadedByName: row.uploadedBy ? names.get(row.uploadedBy) ?? null : null,
+    uploadedById: row.uploadedBy,
     createdAt: row.createdAt,
   }
 }

@@ -25,6 +25,7 @@ export const AUDIT_ACTION_LABELS: Readonly<Record<string, string>> = Object.free
   'plan-stage.update': 'Updated a build stage',
   'plan-template.replace': 'Changed the build-plan template',
   'upload.create': 'Added a photo or file',
+  'upload.delete': 'Removed a photo or file',
   'upload.expire': 'Removed a test photo never attached to a test',
   'alert.open': 'Alert opened',
   'alert.acknowledge': 'Acknowledged an alert',

@@ -19,6 +19,8 @@ export interface UploadView {
   originalName: string
   hasThumbnail: boolean
   uploadedByName: string | null
+  /** Who added it: only they may remove it. */
+  uploadedById: string | null
   createdAt: string
 }
 

@@ -182,6 +182,13 @@ async function loungeUpload(c: MatrixContext, kind: 'pdf' | 'png'): Promise<stri
   return response.body.id
 }
 
+/** A new upload on the lounge tank's first stage, added by the aquarist (for the removal route). */
+async function freshStageUpload(c: MatrixContext): Promise<string> {
+  const response = await (await c.as('aquarist')).request('POST', `/api/tanks/${c.f.demo.tanks.lounge}/stages/${firstStage(c)}/uploads`, fileForm(TINY_PNG, 'removable.png', 'image/png'))
+  if (response.status !== 201) throw new Error(`could not upload: ${response.status} ${JSON.stringify(response.body)}`)
+  return response.body.id
+}
+
 /** A fresh open alert on the study reef (client3's tank), so each persona acts on its own. */
 let alertCounter = 0
 function freshAlert(c: MatrixContext): string {
@@ -381,6 +388,11 @@ export const ACCESS_MATRIX: Record<string, MatrixEntry> = {
   },
   'GET /api/uploads/[id]': { url: async c => `/api/uploads/${await loungeUpload(c, 'pdf')}`, expect: tankReader() },
   'GET /api/uploads/[id]/thumbnail': { url: async c => `/api/uploads/${await loungeUpload(c, 'png')}/thumbnail`, expect: tankReader() },
+  // Only whoever added a file removes it: each persona gets a fresh one added by the aquarist.
+  'DELETE /api/uploads/[id]': {
+    url: async c => `/api/uploads/${await freshStageUpload(c)}`,
+    expect: { signedOut: 401, admin: 403, aquarist: 204, supervisor: 403, client: 403, otherClient: 404, otherCompany: 404 },
+  },
 
   // Tanks
   'GET /api/tanks': { url: () => '/api/tanks', expect: anySignedIn() },

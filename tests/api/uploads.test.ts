@@ -104,3 +104,33 @@ describe('stage uploads', () => {
     expect((await upload(await signedIn('aquarist@other-company.test'), png, 'a.png')).status).toBe(404)
   })
 })
+
+describe('removing an upload', () => {
+  it('only whoever added a file removes it: the row, the bytes and the listing go, with an audit line', async () => {
+    const aquarist = await signedIn(co.emails.aquarist)
+    const { status, body } = await upload(aquarist, png, 'wrong stage.png')
+    expect(status).toBe(201)
+    const view = body as UploadView
+    expect(view.uploadedById).toBe(co.ids.aquarist)
+    const stored = join(dirname(inject('dbPath')), 'uploads', co.organisationId, tankId, view.id)
+    expect(existsSync(stored)).toBe(true)
+
+    // The admin and the client see the tank but did not add the file.
+    for (const who of [co.emails.admin, co.emails.client]) {
+      const refused = await (await signedIn(who)).delete(`/api/uploads/${view.id}`)
+      expect(refused.status).toBe(403)
+    }
+    expect((await aquarist.get(`/api/uploads/${view.id}`)).status).toBe(200)
+
+    expect((await aquarist.delete(`/api/uploads/${view.id}`)).status).toBe(204)
+    expect((await aquarist.get(`/api/uploads/${view.id}`)).status).toBe(404)
+    expect(existsSync(stored)).toBe(false)
+    const plan = await aquarist.get<PlanView>(`/api/tanks/${tankId}/stages`)
+    expect(plan.body.stages[1]!.uploads.map(u => u.id)).not.toContain(view.id)
+    const audit = auditRows(view.id)
+    expect(audit.map(r => r.action)).toEqual(['upload.create', 'upload.delete'])
+    expect(audit[1]).toMatchObject({ actorId: co.ids.aquarist, before: { originalName: 'wrong stage.png' } })
+    // Gone is gone: a second removal finds nothing.
+    expect((await aquarist.delete(`/api/uploads/${view.id}`)).status).toBe(404)
+  })
+})

@@ -73,6 +73,18 @@ describe('building a tank through its plan', () => {
     await survey.getByLabel('Add a photo or PDF to Site survey').setInputFiles({ name: 'wall.jpg', mimeType: 'image/jpeg', buffer: photo })
     await expect.poll(() => survey.getByRole('img', { name: 'wall.jpg' }).count()).toBe(1)
     await expect.poll(() => survey.getByRole('img', { name: 'wall.jpg' }).evaluate(img => (img as HTMLImageElement).naturalWidth)).toBeGreaterThan(0)
+    // Each file says its name and who added it; whoever added one can remove it: it goes at once,
+    // and the DELETE is sent when the Undo toast closes.
+    await survey.getByLabel('Add a photo or PDF to Site survey').setInputFiles({ name: 'wrong-room.jpg', mimeType: 'image/jpeg', buffer: photo })
+    await expect.poll(() => survey.getByRole('img', { name: 'wrong-room.jpg' }).count()).toBe(1)
+    expect(await survey.getByText('wall.jpg', { exact: true }).isVisible()).toBe(true)
+    const removed = page.waitForResponse(r => r.request().method() === 'DELETE' && r.url().includes('/api/uploads/'), { timeout: 30_000 })
+    await survey.getByRole('button', { name: 'Remove wrong-room.jpg' }).click()
+    await expect.poll(() => survey.getByRole('img', { name: 'wrong-room.jpg' }).count()).toBe(0)
+    expect((await removed).status()).toBe(204)
+    await expect.poll(() => page.getByRole('status').filter({ hasText: 'removed.' }).count()).toBe(0)
+    expect(await survey.getByRole('img', { name: 'wrong-room.jpg' }).count()).toBe(0)
+    expect(await survey.getByRole('img', { name: 'wall.jpg' }).count()).toBe(1)
     await expect.poll(() => survey.textContent()).toContain('design live load')
     // Far over a home's 40 psf: the survey closes only with the structural check recorded.
     await survey.getByRole('button', { name: 'Mark stage done' }).click()
@@ -240,7 +252,7 @@ describe('building a tank through its plan', () => {
     await page.getByLabel('Stage 10 title').fill('Handover visit')
     await page.getByLabel('Checklist, one item a line').last().fill('Client shown the daily test\nSpare salt left on site')
     await page.getByRole('button', { name: 'Save template' }).click()
-    await expect.poll(() => page.getByRole('status').textContent()).toContain('New tanks get this plan')
+    await expect.poll(() => page.getByRole('status').filter({ hasText: 'New tanks get this plan' }).count()).toBe(1)
     expect(await page.getByLabel('Key (helpers attach to the default keys)').last().inputValue()).toBe('handover-visit')
     await screenshot(page, 'plan-template-375')
     expect(problems).toEqual([])

@@ -1,0 +1,94 @@
+/**
+ * A form names every problem in one round, takes the person to the first, and forgets a
+ * message as soon as its field changes: the daily test form, on a phone and on a desk.
+ */
+import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import type { Browser, Page } from 'playwright-core'
+import { launchBrowser, openPage, screenshot, signInThroughForm } from '../support/browser'
+import { seedScratchCompany, type ScratchCompany } from '../support/company'
+import { ApiClient } from '../support/http'
+
+let browser: Browser
+let company: ScratchCompany
+let tankId: string
+beforeAll(async () => {
+  browser = await launchBrowser()
+  company = await seedScratchCompany('form-errors', 'metric')
+  const aquarist = await new ApiClient().signIn(company.emails.aquarist)
+  const tank = await aquarist.post<{ id: string }>('/api/tanks', { name: 'Form reef', clientId: company.clientId, shape: 'rectangular', dimensions: { lengthMm: 900, widthMm: 450, heightMm: 450 } })
+  expect(tank.status).toBe(201)
+  tankId = tank.body.id
+})
+afterAll(async () => { await browser?.close() })
+
+const focusedId = (page: Page) => page.evaluate(() => document.activeElement?.id ?? '')
+
+describe('the daily test form', () => {
+  for (const width of [375, 1280]) {
+    it(`names a value out of range and one that is not a number at once, focuses the first, and clears a fixed one (${width} px)`, async () => {
+      const { page, context, problems } = await openPage(browser, width)
+      await signInThroughForm(page, company.emails.client)
+      await page.goto(`/tanks/${tankId}/tests`)
+      await expect.poll(() => page.getByLabel('Tested at').inputValue()).not.toBe('')
+      // The page-load bar is there on every page, in the theme's tide colour (#16808a).
+      expect(await page.locator('.nuxt-loading-indicator').evaluate(el => getComputedStyle(el).backgroundColor)).toBe('rgb(22, 128, 138)')
+      // Readings take decimals: the phone shows its decimal keypad.
+      expect(await page.getByLabel('Nitrate (mg/L)').getAttribute('inputmode')).toBe('decimal')
+
+      await page.getByLabel('Nitrate (mg/L)').fill('20')
+      await page.getByLabel('pH', { exact: true }).fill('19')
+      await page.getByLabel('Temperature', { exact: true }).fill('warm')
+      await page.getByRole('button', { name: 'Save tests' }).click()
+
+      // Both messages in the same round, not the type error first and the range on the next save.
+      const rangeMessage = page.getByText('pH must be between 0 and 14.')
+      const typeMessage = page.getByText('Temperature must be a number.')
+      await expect.poll(() => rangeMessage.isVisible()).toBe(true)
+      expect(await typeMessage.isVisible()).toBe(true)
+      // Focus moved from the button to the first field marked (pH comes before temperature).
+      await expect.poll(() => focusedId(page)).toBe('reading-pH')
+      expect(await page.getByLabel('pH', { exact: true }).getAttribute('aria-invalid')).toBe('true')
+      await screenshot(page, `form-errors-${width}`)
+
+      // Fixing one field takes its message away at once; the other stays until it is fixed.
+      await page.getByLabel('pH', { exact: true }).fill('8.1')
+      await expect.poll(() => rangeMessage.count()).toBe(0)
+      expect(await typeMessage.isVisible()).toBe(true)
+      await page.getByLabel('Temperature', { exact: true }).fill('25')
+      await expect.poll(() => typeMessage.count()).toBe(0)
+
+      await page.getByRole('button', { name: 'Save tests' }).click()
+      await expect.poll(() => page.getByRole('heading', { name: 'Tests saved' }).isVisible()).toBe(true)
+      // The save is confirmed by a toast too, read out politely.
+      await expect.poll(() => page.getByRole('status').filter({ hasText: 'Tests saved.' }).count()).toBe(1)
+      await screenshot(page, `toast-saved-${width}`)
+      expect(problems).toEqual([])
+      await context.close()
+    })
+  }
+
+  it('the event form does the same: a date in the future and an amount that is not a number, at once (375 px)', async () => {
+    const { page, context, problems } = await openPage(browser, 375)
+    await signInThroughForm(page, company.emails.client)
+    await page.goto(`/tanks/${tankId}/tests`)
+    await page.getByText('Something else happened?').click()
+    await page.getByLabel('What happened').selectOption('water-change')
+    // Days ahead on any clock the browser keeps.
+    await page.getByLabel('When').fill(new Date(Date.now() + 3 * 86_400_000).toISOString().slice(0, 16))
+    await page.getByLabel(/Volume changed/).fill('lots')
+    await page.getByRole('button', { name: 'Save event' }).click()
+    const future = page.getByText('An event cannot be in the future. Check the date and time.')
+    const notNumber = page.getByText('Amount must be a number.')
+    await expect.poll(() => future.isVisible()).toBe(true)
+    expect(await notNumber.isVisible()).toBe(true)
+    await expect.poll(() => focusedId(page)).toBe('event-at')
+    await page.getByLabel(/Volume changed/).fill('20')
+    await expect.poll(() => notNumber.count()).toBe(0)
+    expect(await future.isVisible()).toBe(true)
+    // A count of animals asks for the number keypad, not the decimal one.
+    await page.getByLabel('What happened').selectOption('livestock-added')
+    expect(await page.getByLabel('How many').getAttribute('inputmode')).toBe('numeric')
+    expect(problems).toEqual([])
+    await context.close()
+  })
+})
