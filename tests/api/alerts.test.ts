@@ -161,8 +161,8 @@ describe('alerts from readings', () => {
 
   it('escalates to the supervisor once the company\'s delay has passed, and only once', async () => {
     const supervisor = await signedIn('supervisor@tidewright.test')
-    const early = await tick(new Date(openedAt + 59 * MINUTE))
-    expect(early.escalated).toBe(0)
+    // The tick runs for every company on the shared server (other suites seed danger tanks of their own): judge this alert alone.
+    await tick(new Date(openedAt + 59 * MINUTE))
     expect((await studyAlerts(supervisor)).find(a => a.id === alertId)!.escalatedAt).toBeNull()
 
     const due = await tick(new Date(openedAt + 61 * MINUTE))
