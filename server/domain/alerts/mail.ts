@@ -5,20 +5,13 @@
 import { fromNitrogen } from '../../../shared/chemistry/nitrogen'
 import { formatNumber, formatPercent } from '../../../shared/cycle/words'
 import type { CycleAction, Finding } from '../../../shared/cycle/types'
-import { nitrogenToKit, type KitBasisChoice } from '../../../shared/readings/entry'
+import { nitrogenToKit, type CanonicalValues, type KitBasisChoice } from '../../../shared/readings/entry'
 import { formatMoment, forReader, type Reader } from '../../../shared/readings/reader-words'
 import { celsiusToFahrenheit } from '../../../shared/units'
 import type { UnitSystem } from '../../../shared/vocabulary'
 
-export interface MeasuredReading {
-  takenAt: string
-  ammoniaN: number | null
-  nitriteN: number | null
-  nitrateN: number | null
-  pH: number | null
-  temperatureC: number | null
-  salinity: number | null
-}
+/** The reading an alert mail quotes: when it was taken and the values a danger is judged on (canonical units). */
+export type MeasuredReading = { takenAt: string } & Pick<CanonicalValues, 'ammoniaN' | 'nitriteN' | 'nitrateN' | 'pH' | 'temperatureC' | 'salinity'>
 
 export interface AlertMailInput {
   tankName: string
