@@ -25,6 +25,8 @@ const TEMPERATURE = /(-?\d+(?:\.\d+)?)(?:-(\d+(?:\.\d+)?))? C\b/g
 const VOLUME = /(\d+(?:\.\d+)?) L\b/g
 // "2026-12-02 08:01 UTC", as shared/cycle/time.ts formatWhen writes it.
 const MOMENT = /(\d{4})-(\d{2})-(\d{2}) (\d{2}):(\d{2}) UTC/g
+// "2026-12-02" left after the moments: a calendar day the engine names (a re-test schedule, say).
+const DAY = /\b(\d{4})-(\d{2})-(\d{2})\b/g
 
 function temperature(celsius: string, units: UnitSystem): string {
   return units === 'us' ? formatNumber(celsiusToFahrenheit(Number(celsius))) : celsius
@@ -40,6 +42,8 @@ export function forReader(message: string, reader: Reader): string {
     .replace(VOLUME, (match, litres: string) => (reader.units === 'us' ? `${formatNumber(litresToUsGallons(Number(litres)))} gal` : match))
     .replace(MOMENT, (_, y: string, mo: string, d: string, h: string, mi: string) =>
       reader.when(Date.UTC(Number(y), Number(mo) - 1, Number(d), Number(h), Number(mi))))
+    // A day is a day: written as the calendar day it names ("Dec 2"), not moved to another clock.
+    .replace(DAY, (_, y: string, mo: string, d: string) => formatShortDay(Date.UTC(Number(y), Number(mo) - 1, Number(d)), 'UTC'))
 }
 
 /**

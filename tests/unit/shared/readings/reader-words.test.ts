@@ -41,6 +41,14 @@ describe('forReader: an engine message in the reader\'s own units, clock and kit
   })
 })
 
+describe('forReader: calendar days', () => {
+  it('writes the days of a re-test schedule as the reader reads a date, after the moments', () => {
+    const message = 'Test ammonia and nitrite every day: 2026-12-02, 2026-12-03, 2026-12-04 (added 2026-12-01 21:08 UTC).'
+    expect(forReader(message, { units: 'us', when: utcClock }).replace(/\s/g, ' '))
+      .toBe('Test ammonia and nitrite every day: Dec 2, Dec 3, Dec 4 (added Dec 1, 9:08 PM).')
+  })
+})
+
 describe('one clock for dates and times', () => {
   // 23:30 UTC on Dec 2 is already Dec 3 in Auckland (NZDT, UTC+13 in December) and still Dec 2
   // in Chicago (CST, UTC-6): IANA tz database.
