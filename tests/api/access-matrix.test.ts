@@ -3,14 +3,14 @@
  * access-matrix.data.ts designs, no other tenant's data in any answer, error answers
  * without internals, and the cross-site guard on every state-changing route.
  */
-import Database from 'better-sqlite3'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { ApiClient } from '../support/http'
-import { fingerprint, queryFile } from '../support/db-checksum'
+import { fingerprint } from '../support/db-checksum'
 import { startOwnServer, type OwnServer } from '../support/own-server'
 import { declaredRoutes } from '../support/route-tree'
 import { forbiddenFor, leaksIn } from '../support/tenancy'
 import { ACCESS_MATRIX, MODULE_ROUTES, PERSONAS, PERSONA_EMAIL, type MatrixContext, type MatrixEntry, type Persona } from './access-matrix.data'
+import { matrixContext } from './matrix-context'
 
 let own: OwnServer
 const sessions = new Map<Persona, ApiClient>()
@@ -35,23 +35,7 @@ async function clientFor(persona: Persona, fresh: boolean): Promise<ApiClient> {
   return api
 }
 
-function context(): MatrixContext {
-  return {
-    f: own.fixtures,
-    as: persona => clientFor(persona, false),
-    query: (sql, ...params) => queryFile(own.dbPath, sql, ...params),
-    run: (sql, ...params) => {
-      const db = new Database(own.dbPath)
-      try {
-        db.pragma('busy_timeout = 5000')
-        db.prepare(sql).run(...params)
-      }
-      finally {
-        db.close()
-      }
-    },
-  }
-}
+const context = (): MatrixContext => matrixContext(own, persona => clientFor(persona, false))
 
 function methodsOf(key: string, entry: MatrixEntry): string[] {
   const method = key.split(' ')[0]!

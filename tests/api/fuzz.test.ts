@@ -4,7 +4,6 @@
  * a 4xx with a message, must not echo the input, and must leave every table of the
  * database byte-for-byte as it was. No body, however hostile, may cause a 5xx.
  */
-import Database from 'better-sqlite3'
 import fc from 'fast-check'
 import * as v from 'valibot'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
@@ -15,6 +14,7 @@ import { ApiClient } from '../support/http'
 import { ECHO_MARKER, hostileBodies, hostileValueText } from '../support/hostile'
 import { startOwnServer, type OwnServer } from '../support/own-server'
 import { ACCESS_MATRIX, PERSONA_EMAIL, TINY_PDF, TINY_PNG, fileForm, type MatrixContext, type Persona } from './access-matrix.data'
+import { matrixContext, personaSessions } from './matrix-context'
 
 const SEED = 20261201
 const RUNS = 40
@@ -28,31 +28,14 @@ async function assertProperty<T>(property: fc.IAsyncProperty<T>): Promise<void> 
 let own: OwnServer
 beforeAll(async () => {
   own = await startOwnServer()
+  as = personaSessions(own)
 })
 afterAll(async () => {
   await own?.cleanup()
 })
 
-const sessions = new Map<Persona, ApiClient>()
-async function as(persona: Exclude<Persona, 'signedOut'>): Promise<ApiClient> {
-  if (!sessions.has(persona)) sessions.set(persona, await new ApiClient(own.server.baseURL).signIn(PERSONA_EMAIL[persona]))
-  return sessions.get(persona)!
-}
-const context = (): MatrixContext => ({
-  f: own.fixtures,
-  as,
-  query: (sql, ...params) => queryFile(own.dbPath, sql, ...params),
-  run: (sql, ...params) => {
-    const db = new Database(own.dbPath)
-    try {
-      db.pragma('busy_timeout = 5000')
-      db.prepare(sql).run(...params)
-    }
-    finally {
-      db.close()
-    }
-  },
-})
+let as: (persona: Persona) => Promise<ApiClient>
+const context = (): MatrixContext => matrixContext(own, as)
 
 /** Every file under the uploads directory (bytes must not be left behind by a refused upload). */
 function storedFiles(): string[] {

@@ -5,13 +5,12 @@
  * sent for ids nobody has (a random uuid) and for the real row by each persona the matrix
  * refuses; the answer must be the 404 (or 401/403) the matrix designs, never a 400.
  */
-import Database from 'better-sqlite3'
 import * as v from 'valibot'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
-import { queryFile } from '../support/db-checksum'
-import { ApiClient } from '../support/http'
+import type { ApiClient } from '../support/http'
 import { startOwnServer, type OwnServer } from '../support/own-server'
-import { ACCESS_MATRIX, PERSONAS, PERSONA_EMAIL, type MatrixContext, type MatrixEntry, type Persona } from './access-matrix.data'
+import { ACCESS_MATRIX, PERSONAS, type MatrixContext, type MatrixEntry, type Persona } from './access-matrix.data'
+import { matrixContext, personaSessions } from './matrix-context'
 
 /** Valid JSON (a bare string, sent as written) that no route's body schema accepts: every body is an object. */
 const INVALID_BODY = '"not an object"'
@@ -19,32 +18,14 @@ const INVALID_BODY = '"not an object"'
 let own: OwnServer
 beforeAll(async () => {
   own = await startOwnServer()
+  as = personaSessions(own)
 })
 afterAll(async () => {
   await own?.cleanup()
 })
 
-const sessions = new Map<Persona, ApiClient>()
-async function as(persona: Persona): Promise<ApiClient> {
-  if (persona === 'signedOut') return new ApiClient(own.server.baseURL)
-  if (!sessions.has(persona)) sessions.set(persona, await new ApiClient(own.server.baseURL).signIn(PERSONA_EMAIL[persona]))
-  return sessions.get(persona)!
-}
-const context = (): MatrixContext => ({
-  f: own.fixtures,
-  as: persona => as(persona),
-  query: (sql, ...params) => queryFile(own.dbPath, sql, ...params),
-  run: (sql, ...params) => {
-    const db = new Database(own.dbPath)
-    try {
-      db.pragma('busy_timeout = 5000')
-      db.prepare(sql).run(...params)
-    }
-    finally {
-      db.close()
-    }
-  },
-})
+let as: (persona: Persona) => Promise<ApiClient>
+const context = (): MatrixContext => matrixContext(own, as)
 
 /** Routes with an `[id]`-style segment whose handler reads a body (a valibot schema or an upload). */
 const withIdAndBody = Object.entries(ACCESS_MATRIX).filter(([key, entry]) =>
