@@ -28,7 +28,8 @@ export interface SchemaFormContext {
 export const SCHEMA_FORM: InjectionKey<SchemaFormContext> = Symbol('schema-form')
 
 /**
- * A form driven by the shared valibot schema its API route uses. It checks every field at once
+ * A form driven by the shared valibot schema its API route uses (or, where one form sends to
+ * two routes, a function of the values that picks the schema). It checks every field at once
  * before sending, shows the server's per-field messages next to the same fields, forgets a
  * field's message as soon as its value changes, and moves focus to the first field marked.
  *
@@ -37,7 +38,7 @@ export const SCHEMA_FORM: InjectionKey<SchemaFormContext> = Symbol('schema-form'
  *   <form novalidate @submit.prevent="save"> <FormField v-model="form.values.name" name="name" …>
  */
 export function useSchemaForm<TSchema extends v.GenericSchema, TValues extends object, TBody extends object = TValues>(
-  schema: TSchema,
+  schema: TSchema | ((values: TValues) => v.GenericSchema),
   initial: TValues,
   options: SchemaFormOptions<TValues, TBody> = {},
 ) {
@@ -72,7 +73,7 @@ export function useSchemaForm<TSchema extends v.GenericSchema, TValues extends o
   function validate(): { ok: true, body: TBody } | { ok: false } {
     formError.value = ''
     const body = toBody(plain())
-    const parsed = v.safeParse(schema, body)
+    const parsed = v.safeParse(typeof schema === 'function' ? schema(plain()) : schema, body)
     const found: FieldErrors = parsed.success ? {} : schemaFieldErrors(parsed.issues)
     for (const [field, message] of Object.entries(options.check?.(plain()) ?? {})) found[field] ??= message
     errors.value = found

@@ -52,5 +52,8 @@ export async function useTankRows<List extends { total: number }>(
     hidden,
   })
 
-  return { page, sort, dir, data, items, error, refresh, pages, message, changeRow, deleteRow }
+  /** What `TankRowsFrame` says around the rows: the last change's words, whether there are none, how many pages. */
+  const frame = computed(() => ({ message: message.value, empty: !!data.value && !items.value.length, pages: pages.value }))
+
+  return { page, sort, dir, data, items, error, refresh, pages, message, frame, changeRow, deleteRow }
 }

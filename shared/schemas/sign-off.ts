@@ -21,7 +21,7 @@ export type SignOffRequestInput = v.InferOutput<typeof SignOffRequestSchema>
  */
 export const SignOffDecisionSchema = v.pipe(
   v.object({
-    decision: v.picklist(['approve', 'return'], 'Choose approve or return.'),
+    decision: v.picklist(['approve', 'return'], 'Choose to sign off or to return the tank.'),
     note: v.optional(note(2000), ''),
   }),
   v.forward(

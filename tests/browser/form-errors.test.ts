@@ -1,6 +1,7 @@
 /**
  * A form names every problem in one round, takes the person to the first, and forgets a
- * message as soon as its field changes: the daily test form, on a phone and on a desk.
+ * message as soon as its field changes: the daily test form, on a phone and on a desk, the
+ * event form, and a correction made in the tank's history.
  */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import type { Browser, Page } from 'playwright-core'
@@ -18,6 +19,13 @@ beforeAll(async () => {
   const tank = await aquarist.post<{ id: string }>('/api/tanks', { name: 'Form reef', clientId: company.clientId, shape: 'rectangular', dimensions: { lengthMm: 900, widthMm: 450, heightMm: 450 } })
   expect(tank.status).toBe(201)
   tankId = tank.body.id
+  // One test in the history to correct.
+  const saved = await aquarist.post(`/api/tanks/${tankId}/readings`, {
+    takenAt: new Date(Date.now() - 30 * 3_600_000).toISOString(),
+    basis: { ammonia: 'NH3', nitrite: 'NO2', nitrate: 'NO3' },
+    temperatureUnit: 'C', salinityMode: 'practical', salinity: 34.2, pH: 8.1,
+  })
+  expect(saved.status).toBe(201)
 })
 afterAll(async () => { await browser?.close() })
 
@@ -88,6 +96,37 @@ describe('the daily test form', () => {
     // A count of animals asks for the number keypad, not the decimal one.
     await page.getByLabel('What happened').selectOption('livestock-added')
     expect(await page.getByLabel('How many').getAttribute('inputmode')).toBe('numeric')
+    expect(problems).toEqual([])
+    await context.close()
+  })
+
+  it('a correction in the history does the same: a pH out of range and a salinity that is not a number, at once (375 px)', async () => {
+    const { page, context, problems } = await openPage(browser, 375)
+    await signInThroughForm(page, company.emails.aquarist)
+    await page.goto(`/tanks/${tankId}/history`)
+    const row = page.getByRole('row').filter({ hasText: '34.2' })
+    await expect.poll(() => row.isVisible()).toBe(true)
+    await row.getByRole('button', { name: 'Edit' }).click()
+    const form = page.getByRole('form', { name: /Correct the test of/ })
+    // The correction's boxes ask for the decimal keypad too.
+    expect(await form.getByLabel('pH').getAttribute('inputmode')).toBe('decimal')
+    await form.getByLabel('pH').fill('19')
+    await form.getByLabel('salinity').fill('salty')
+    await form.getByRole('button', { name: 'Save correction' }).click()
+    const rangeMessage = form.getByText('pH must be between 0 and 14.')
+    const typeMessage = form.getByText('Salinity must be a number.')
+    await expect.poll(() => rangeMessage.isVisible()).toBe(true)
+    expect(await typeMessage.isVisible()).toBe(true)
+    await expect.poll(() => focusedId(page)).toBe('edit-pH')
+    await screenshot(page, 'history-correction-errors-375')
+    await form.getByLabel('salinity').fill('34.5')
+    await expect.poll(() => typeMessage.count()).toBe(0)
+    expect(await rangeMessage.isVisible()).toBe(true)
+    await form.getByLabel('pH').fill('8.2')
+    await expect.poll(() => rangeMessage.count()).toBe(0)
+    await form.getByRole('button', { name: 'Save correction' }).click()
+    await expect.poll(() => page.getByRole('status').filter({ hasText: 'Reading corrected.' }).count()).toBe(1)
+    await expect.poll(() => page.getByRole('row').filter({ hasText: '34.5' }).count()).toBeGreaterThan(0)
     expect(problems).toEqual([])
     await context.close()
   })

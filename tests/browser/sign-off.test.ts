@@ -31,6 +31,7 @@ describe('sign-off, from request to certificate', () => {
     await page.getByLabel('Return to the aquarist').check()
     await page.getByRole('button', { name: 'Return with note' }).click()
     await expect.poll(() => page.locator('#decision-note-error').textContent()).toContain('Say what needs doing')
+    await expect.poll(() => page.evaluate(() => document.activeElement?.id)).toBe('decision-note')
     await page.getByLabel('What needs doing (required)').fill('Please add the leak-test photo to stage 2.')
     await page.getByRole('button', { name: 'Return with note' }).click()
     await expect.poll(() => page.getByText('Returned to the aquarist').first().isVisible()).toBe(true)
@@ -70,6 +71,8 @@ describe('sign-off, from request to certificate', () => {
     expect(await page.getByLabel('Return to the aquarist').isChecked()).toBe(false)
     await page.getByRole('button', { name: 'Choose a decision' }).click()
     await expect.poll(() => page.getByText('Choose to sign off or to return the tank.').isVisible()).toBe(true)
+    // Focus goes to the unchosen decision, the first thing marked.
+    await expect.poll(() => page.evaluate(() => document.activeElement?.getAttribute('aria-describedby'))).toBe('decision-choice-error')
     // Choosing approve does not sign: a confirmation restates what is signed first.
     await page.getByLabel('Approve and sign off').check()
     await page.getByLabel('Note (optional)').fill('Clearance test convincing.')

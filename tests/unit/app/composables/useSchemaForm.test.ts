@@ -98,6 +98,21 @@ describe('useSchemaForm', () => {
     expect(server.focused).toEqual(['client-email'])
   })
 
+  it('checks against the schema the values pick when one form sends to two routes', async () => {
+    // Acknowledging takes an optional note; resolving needs one (the alert row's two actions).
+    const Optional = v.object({ note: v.optional(v.string()) })
+    const Required = v.object({ note: v.pipe(v.string(), v.minLength(3, 'Say why.')) })
+    let resolving = false
+    const form = useSchemaForm(() => (resolving ? Required : Optional), { note: '' })
+    const sent: unknown[] = []
+    const send = form.handleSubmit(async body => sent.push(body))
+    expect(await send()).toBe(true)
+    resolving = true
+    expect(await send()).toBe(false)
+    expect(form.errors).toEqual({ note: 'Say why.' })
+    expect(sent).toEqual([{ note: '' }])
+  })
+
   it('never edits the values it was given, and resets to them', () => {
     const start = { name: 'Ada', email: '', notes: '', tags: ['reef'] }
     const form = useSchemaForm(ClientSchema, start)
