@@ -17,7 +17,7 @@ export async function setPasswordWithToken(event: H3Event, purpose: TokenPurpose
   if (!found) throw createError({ statusCode: 410, statusMessage: GONE })
   const company = useDB().select({ name: organisations.name }).from(organisations).where(eq(organisations.id, found.user.organisationId)).get()?.name
   const problem = passwordProblem(password, found.user.email) ?? await passwordWeakness(password, { email: found.user.email, name: found.user.name, company })
-  if (problem) throw createError({ statusCode: 400, statusMessage: 'Validation Error', data: { issues: [{ field: 'password', message: problem }] } })
+  if (problem) fieldError([{ field: 'password', message: problem }])
   const passwordHash = await hashPassword(password)
   const db = useDB()
   const userId = db.transaction((t) => {
