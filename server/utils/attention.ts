@@ -1,7 +1,7 @@
 /** Nitro glue for the attention board (server/domain/attention/board.ts): the actor's tank scope from access.ts. */
 import type { AttentionQuery } from '#shared/schemas/attention'
 import type { AttentionBoard } from '#shared/types/attention'
-import { attentionBoard as boardInDb } from '../domain/attention/board'
+import { attentionBoard as boardInDb } from '#server/domain/attention/board'
 import { visibleTankCondition, type Actor } from './access'
 
 /** Every tank the actor may see with what it needs today, filtered and sorted as asked. */

@@ -1,10 +1,10 @@
 /** Nitro glue over server/domain/clients/queries.ts: the actor's organisation scopes every read, and a row not found is a 404. */
 import type { ClientListQuery } from '#shared/schemas/clients'
 import type { ClientList, ClientView } from '#shared/types/clients'
-import { clientView as viewInDb, findClient as findInDb, findSite, listClients as listInDb } from '../domain/clients/queries'
+import { clientView as viewInDb, findClient as findInDb, findSite, listClients as listInDb } from '#server/domain/clients/queries'
 import type { Actor } from './access'
 
-export { toSiteView } from '../domain/clients/queries'
+export { toSiteView } from '#server/domain/clients/queries'
 
 /** One page of the organisation's clients, searched by name, e-mail or phone. */
 export function listClients(actor: Actor, query: ClientListQuery): ClientList {

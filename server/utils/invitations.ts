@@ -1,6 +1,6 @@
 /** Nitro glue for account e-mails (server/domain/accounts/account-mail.ts): links use the configured public base URL. */
-import type { Db } from '../db/connection'
-import { queueInvitation as queueInviteInDb, queuePasswordReset as queueResetInDb } from '../domain/accounts/account-mail'
+import type { Db } from '#server/db/connection'
+import { queueInvitation as queueInviteInDb, queuePasswordReset as queueResetInDb } from '#server/domain/accounts/account-mail'
 
 interface Recipient { id: string, name: string, email: string, organisationId: string }
 

@@ -4,14 +4,14 @@
  */
 import type { StagePatch } from '#shared/schemas/plan'
 import type { PlanView } from '#shared/types/plan'
-import type { planStages, tanks } from '../db/schema'
-import { applyStagePatch as applyInDb, findStage as findInDb } from '../domain/plan/stage-change'
-import { companyTemplate as templateInDb, planRowsForNewTank as rowsInDb } from '../domain/plan/template'
-import { planView as viewInDb } from '../domain/plan/view'
+import type { planStages, tanks } from '#server/db/schema'
+import { applyStagePatch as applyInDb, findStage as findInDb } from '#server/domain/plan/stage-change'
+import { companyTemplate as templateInDb, planRowsForNewTank as rowsInDb } from '#server/domain/plan/template'
+import { planView as viewInDb } from '#server/domain/plan/view'
 import type { Actor } from './access'
 
-export { tankTriggerAfterStage } from '../domain/plan/stage-change'
-export { toUploadView } from '../domain/plan/view'
+export { tankTriggerAfterStage } from '#server/domain/plan/stage-change'
+export { toUploadView } from '#server/domain/plan/view'
 
 /** The company's template, or Tidewright's default when it has none of its own. */
 export function companyTemplate(organisationId: string) {

@@ -1,11 +1,11 @@
 import type { H3Event } from 'h3'
 import { eq } from 'drizzle-orm'
 import { passwordProblem, SetPasswordSchema } from '#shared/schemas/account'
-import { organisations, users } from '../db/schema'
-import { passwordWeakness } from '../domain/accounts/password-strength'
+import { organisations, users } from '#server/db/schema'
+import { passwordWeakness } from '#server/domain/accounts/password-strength'
 import type { TokenPurpose } from './auth-tokens'
-import { endSessionsOfUser } from '../domain/sessions/sessions'
-import { recordAudit } from '../domain/audit/record'
+import { endSessionsOfUser } from '#server/domain/sessions/sessions'
+import { recordAudit } from '#server/domain/audit/record'
 
 const GONE = 'This link has expired or has already been used'
 

@@ -3,8 +3,8 @@
  * changes or removes a reading or event (or writes one back-dated into the signed period),
  * or changes a signed stage, calls these first and gets a 409.
  */
-import { currentApprovedSignOff as approvedInDb } from '../domain/sign-off/records'
-import { entryLockRefusal, lockedUntil as lockedUntilInDb, stageLockRefusal } from '../domain/sign-off/lock'
+import { currentApprovedSignOff as approvedInDb } from '#server/domain/sign-off/records'
+import { entryLockRefusal, lockedUntil as lockedUntilInDb, stageLockRefusal } from '#server/domain/sign-off/lock'
 
 /** The tank's current approved sign-off (not reopened), if there is one. */
 export function currentApprovedSignOff(tankId: string) {

@@ -3,14 +3,14 @@
  * server/domain/sign-off/ on the process's database, with the actor's scope from
  * access.ts, and turns their refusals into HTTP answers. Routes stay thin and call these.
  */
-import { requestSignOff as requestInDb, decideSignOff as decideInDb, reopenSignOff as reopenInDb, advanceToStockingIfLivestock as advanceInDb, type DecisionResult } from '../domain/sign-off/commands'
-import { evaluateNow as evaluateInDb, organisationUserNames, pendingRequest as pendingInDb, signOffHistory as historyInDb, unresolvedAlertCount as alertCountInDb, type SignOffRow, type TankRow } from '../domain/sign-off/records'
-import { SignOffRefused } from '../domain/sign-off/refusal'
-import { reviewQueue as reviewQueueInDb, signOffState as stateInDb } from '../domain/sign-off/state'
-import { TankStatusRefused } from '../domain/tanks/status'
+import { requestSignOff as requestInDb, decideSignOff as decideInDb, reopenSignOff as reopenInDb, advanceToStockingIfLivestock as advanceInDb, type DecisionResult } from '#server/domain/sign-off/commands'
+import { evaluateNow as evaluateInDb, organisationUserNames, pendingRequest as pendingInDb, signOffHistory as historyInDb, unresolvedAlertCount as alertCountInDb, type SignOffRow, type TankRow } from '#server/domain/sign-off/records'
+import { SignOffRefused } from '#server/domain/sign-off/refusal'
+import { reviewQueue as reviewQueueInDb, signOffState as stateInDb } from '#server/domain/sign-off/state'
+import { TankStatusRefused } from '#server/domain/tanks/status'
 import { canManageTank, visibleTankCondition, type Actor } from './access'
 
-export { maySignOff, toSignOffRecord, toSignOffRecordWithSnapshot } from '../domain/sign-off/records'
+export { maySignOff, toSignOffRecord, toSignOffRecordWithSnapshot } from '#server/domain/sign-off/records'
 
 /** Runs a sign-off command or read, answering its refusal as HTTP: a refused field is a 400 with that field's message. */
 export function signOffAnswer<T>(run: () => T): T {

@@ -1,5 +1,5 @@
-import type { Db } from '../db/connection'
-import { changeTankStatus, TankStatusRefused, type StatusChange } from '../domain/tanks/status'
+import type { Db } from '#server/db/connection'
+import { changeTankStatus, TankStatusRefused, type StatusChange } from '#server/domain/tanks/status'
 
 /** A lifecycle refusal as the HTTP answer: the role may not (403), no such tank (404), not from this status (409). */
 export function tankStatusHttpError(error: TankStatusRefused) {

@@ -3,9 +3,9 @@ import { and, eq, isNull } from 'drizzle-orm'
 import type { TankDimensionsMm } from '#shared/calc/volume'
 import { tankVolumeFromDimensions } from '#shared/tanks/dimensions'
 import type { SHAPE_DIMENSIONS } from '#shared/schemas/tanks'
-import { clients, sites, users } from '../db/schema'
+import { clients, sites, users } from '#server/db/schema'
 import type { Actor } from './access'
-import type { FieldIssue } from '../domain/validation/field-issues'
+import type { FieldIssue } from '#server/domain/validation/field-issues'
 
 /** Keeps only the dimensions the shape uses and computes the gross volume in litres; 400 when one is missing or impossible. */
 export function volumeFromDimensions(shape: keyof typeof SHAPE_DIMENSIONS, dimensions: TankDimensionsMm): { dimensions: TankDimensionsMm, volumeLitres: number } {

@@ -1,7 +1,7 @@
 import * as v from 'valibot'
-import { FieldRefused, toFieldIssues, type FieldIssue } from '../domain/validation/field-issues'
+import { FieldRefused, toFieldIssues, type FieldIssue } from '#server/domain/validation/field-issues'
 
-export { toFieldIssues, type FieldIssue } from '../domain/validation/field-issues'
+export { toFieldIssues, type FieldIssue } from '#server/domain/validation/field-issues'
 
 /** The error h3's validators turn into a 400: its enumerable `issues` become the response's `data`. */
 class FieldValidationError extends Error {

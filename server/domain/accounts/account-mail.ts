@@ -4,10 +4,10 @@
  * retires the older ones). `baseUrl` is the public base URL for links.
  */
 import { eq } from 'drizzle-orm'
-import type { Db } from '../../db/connection'
-import { enqueueMail } from '../../db/outbox'
-import { organisations } from '../../db/schema'
-import { plainHtml } from '../alerts/mail'
+import type { Db } from '#server/db/connection'
+import { enqueueMail } from '#server/db/outbox'
+import { organisations } from '#server/db/schema'
+import { plainHtml } from '#server/domain/alerts/mail'
 import { issueToken } from './tokens'
 
 /** An invitation: who invited them to which company, and the link to choose a password. */

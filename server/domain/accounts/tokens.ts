@@ -5,8 +5,8 @@
 import { createHash, randomBytes } from 'node:crypto'
 import { and, eq, gt, isNull } from 'drizzle-orm'
 import type { AuthTokenPurpose } from '#shared/vocabulary'
-import type { Db } from '../../db/connection'
-import { authTokens, users } from '../../db/schema'
+import type { Db } from '#server/db/connection'
+import { authTokens, users } from '#server/db/schema'
 
 export type TokenPurpose = AuthTokenPurpose
 

@@ -9,10 +9,10 @@ import { judgeTank, sortBoard, type BoardAlert, type BoardForecast, type BoardTa
 import { resolveThresholds } from '#shared/cycle/thresholds'
 import type { AttentionQuery } from '#shared/schemas/attention'
 import type { AttentionBoard } from '#shared/types/attention'
-import type { Db } from '../../db/connection'
-import { alerts, clients, readings, signOffs, sites, tankVerdicts, tanks, users } from '../../db/schema'
-import { readOrganisationSettings } from '../../db/settings'
-import { listedForecast } from '../forecast/tank-forecast'
+import type { Db } from '#server/db/connection'
+import { alerts, clients, readings, signOffs, sites, tankVerdicts, tanks, users } from '#server/db/schema'
+import { readOrganisationSettings } from '#server/db/settings'
+import { listedForecast } from '#server/domain/forecast/tank-forecast'
 
 const aquarist = alias(users, 'aquarist')
 const acknowledger = alias(users, 'acknowledger')

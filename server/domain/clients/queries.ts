@@ -2,8 +2,8 @@
 import { and, asc, desc, eq, isNotNull, isNull, sql, type SQL } from 'drizzle-orm'
 import type { ClientListQuery } from '#shared/schemas/clients'
 import type { ClientList, ClientSummary, ClientView, SiteView } from '#shared/types/clients'
-import type { Db } from '../../db/connection'
-import { clients, sites } from '../../db/schema'
+import type { Db } from '#server/db/connection'
+import { clients, sites } from '#server/db/schema'
 
 // Written out in full: drizzle drops table names from columns in single-table selects, which would break the correlation.
 const tankCount = sql<number>`(select count(*) from "tanks" t where t."client_id" = "clients"."id" and t."archived_at" is null)`

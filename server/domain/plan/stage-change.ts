@@ -10,9 +10,9 @@ import { surveyLoad } from '#shared/plan/survey-load'
 import { stageDataSchema, type StagePatch } from '#shared/schemas/plan'
 import { appliesTo, type TankTrigger } from '#shared/tanks/lifecycle'
 import type { StageStatus } from '#shared/vocabulary'
-import type { Db } from '../../db/connection'
-import { planStages, type ChecklistItem, type tanks } from '../../db/schema'
-import { FieldRefused, toFieldIssues } from '../validation/field-issues'
+import type { Db } from '#server/db/connection'
+import { planStages, type ChecklistItem, type tanks } from '#server/db/schema'
+import { FieldRefused, toFieldIssues } from '#server/domain/validation/field-issues'
 
 type TankRow = typeof tanks.$inferSelect
 type StageRow = typeof planStages.$inferSelect

@@ -1,9 +1,9 @@
 /** The company's build-plan template and the copy a new tank gets of it, framework-free. */
 import { asc, eq } from 'drizzle-orm'
 import { DEFAULT_PLAN_TEMPLATE, type PlanTemplateStage } from '#shared/plan/default-template'
-import type { Db } from '../../db/connection'
-import { planStageRows } from '../../db/plan-stages'
-import { planTemplateStages } from '../../db/schema'
+import type { Db } from '#server/db/connection'
+import { planStageRows } from '#server/db/plan-stages'
+import { planTemplateStages } from '#server/db/schema'
 
 /** The company's template, or Tidewright's default when it has none of its own. */
 export function companyTemplate(db: Db, organisationId: string): { isDefault: boolean, stages: PlanTemplateStage[] } {

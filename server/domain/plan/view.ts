@@ -2,8 +2,8 @@
 import { asc, eq, inArray } from 'drizzle-orm'
 import type { PlanView, StageView, UploadView } from '#shared/types/plan'
 import type { Role } from '#shared/vocabulary'
-import type { Db } from '../../db/connection'
-import { planStages, uploads, users, type tanks } from '../../db/schema'
+import type { Db } from '#server/db/connection'
+import { planStages, uploads, users, type tanks } from '#server/db/schema'
 
 function namesOf(db: Db, ids: (string | null | undefined)[]): Map<string, string> {
   const wanted = [...new Set(ids.filter((id): id is string => !!id))]

@@ -3,7 +3,7 @@
  * the sign-off time, and the stages finished in it, are part of what the supervisor signed.
  * These say whether a change would touch it; server/utils/sign-off-lock.ts answers 409.
  */
-import type { Db } from '../../db/connection'
+import type { Db } from '#server/db/connection'
 import { currentApprovedSignOff } from './records'
 import { isSignedStage, signedEntryIds } from './signed-record'
 

@@ -7,8 +7,8 @@ import type { Verdict } from '#shared/cycle/types'
 import { datedAcclimation, overrideGrounds, stockingSteps, type AcclimationSettings } from '#shared/sign-off/plan'
 import type { ReviewItem, SignOffState, StockingPlanView } from '#shared/types/sign-off'
 import type { CyclePhase } from '#shared/types/tanks'
-import type { Db } from '../../db/connection'
-import { alerts, clients, signOffs, tankVerdicts, tanks } from '../../db/schema'
+import type { Db } from '#server/db/connection'
+import { alerts, clients, signOffs, tankVerdicts, tanks } from '#server/db/schema'
 import { evaluateNow, maySignOff, nameOf, organisationUserNames, signOffHistory, toSignOffRecord, unresolvedAlertCount, type SignOffActor, type TankRow } from './records'
 
 /**
