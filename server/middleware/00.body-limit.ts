@@ -5,7 +5,7 @@
  * sender that keeps going far past it is cut off. What was read is handed to h3's body readers.
  */
 import type { IncomingMessage } from 'node:http'
-import { bodyLimitFor, drainAllowance } from '../domain/http/body-limits'
+import { bodyLimitFor, drainAllowance } from '#server/domain/http/body-limits'
 
 function hasBody(req: IncomingMessage): boolean {
   return Number(req.headers['content-length'] ?? 0) > 0 || req.headers['transfer-encoding'] !== undefined

@@ -3,8 +3,8 @@
  * from the database, not from the cookie: the person as they are now, or nobody when the
  * session has ended. Clearing the session (sign-out, DELETE /api/_auth/session) ends its row.
  */
-import { endSessionByToken } from '../domain/sessions/sessions'
-import { readOrganisationSettings } from '../db/settings'
+import { endSessionByToken } from '#server/domain/sessions/sessions'
+import { readOrganisationSettings } from '#server/db/settings'
 
 export default defineNitroPlugin(() => {
   sessionHooks.hook('fetch', async (session, event) => {

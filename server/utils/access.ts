@@ -6,7 +6,7 @@
 import { and, eq, isNull, type SQL } from 'drizzle-orm'
 import type { H3Event } from 'h3'
 import type { Role, UnitSystem } from '#shared/vocabulary'
-import { tanks } from '../db/schema'
+import { tanks } from '#server/db/schema'
 
 export interface Actor {
   id: string

@@ -4,7 +4,7 @@ import { alias } from 'drizzle-orm/sqlite-core'
 import type { AlertListQueryInput } from '#shared/schemas/alerts'
 import type { AlertView } from '#shared/types/alerts'
 import { ACTIVE_ALERT_STATUSES } from '#shared/vocabulary'
-import { alerts, tanks, users } from '../db/schema'
+import { alerts, tanks, users } from '#server/db/schema'
 import type { Actor } from './access'
 
 const aquarist = alias(users, 'aquarist')

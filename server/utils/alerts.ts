@@ -4,12 +4,12 @@
  * links, then wakes the live badges and the mail worker.
  */
 import type { Verdict } from '#shared/cycle/types'
-import { acknowledgeAlertInDb, resolveAlertInDb } from '../domain/alerts/actions'
-import { escalateDueAlerts } from '../domain/alerts/escalation'
-import { syncAlertsInDb, type AlertSyncResult } from '../domain/alerts/sync'
-import { runTestReminders } from '../db/reminders'
-import { runHousekeeping } from '../domain/housekeeping/housekeeping'
-import { runWeeklyDigest } from '../domain/forecast/weekly-digest'
+import { acknowledgeAlertInDb, resolveAlertInDb } from '#server/domain/alerts/actions'
+import { escalateDueAlerts } from '#server/domain/alerts/escalation'
+import { syncAlertsInDb, type AlertSyncResult } from '#server/domain/alerts/sync'
+import { runTestReminders } from '#server/db/reminders'
+import { runHousekeeping } from '#server/domain/housekeeping/housekeeping'
+import { runWeeklyDigest } from '#server/domain/forecast/weekly-digest'
 import type { Actor } from './access'
 
 /** Opens, updates and resolves the tank's alerts to match its verdict; called from onTankDataChanged. */

@@ -1,8 +1,8 @@
 import type { Actor } from './access'
-import type { Db } from '../db/connection'
-import { recordAudit, type AuditEntry, type AuditWho } from '../domain/audit/record'
+import type { Db } from '#server/db/connection'
+import { recordAudit, type AuditEntry, type AuditWho } from '#server/domain/audit/record'
 
-export type { AuditEntry } from '../domain/audit/record'
+export type { AuditEntry } from '#server/domain/audit/record'
 
 /**
  * Appends one line to the organisation's audit log on the process's database. Call it inside

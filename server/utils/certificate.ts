@@ -10,7 +10,7 @@ import { celsiusToFahrenheit, litresToUsGallons } from '#shared/units'
 import { datedAcclimation, finalReadings, stockingSteps, type FinalReadingKey } from '#shared/sign-off/plan'
 import type { SignedStage, SignOffAmendmentView, SignOffSnapshot } from '#shared/types/sign-off'
 import type { CycleMethod, UnitSystem } from '#shared/vocabulary'
-import { SIGNED_FIELD_LABELS } from '../domain/sign-off/signed-record'
+import { SIGNED_FIELD_LABELS } from '#server/domain/sign-off/signed-record'
 
 export interface CertificateFacts {
   company: string

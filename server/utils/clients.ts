@@ -1,56 +1,19 @@
-/** Reads clients and sites scoped to the actor's organisation, shaped for the API. */
-import { and, asc, desc, eq, isNotNull, isNull, sql, type SQL } from 'drizzle-orm'
+/** Nitro glue over server/domain/clients/queries.ts: the actor's organisation scopes every read, and a row not found is a 404. */
 import type { ClientListQuery } from '#shared/schemas/clients'
-import type { ClientList, ClientSummary, ClientView, SiteView } from '#shared/types/clients'
-import { clients, sites } from '../db/schema'
+import type { ClientList, ClientView } from '#shared/types/clients'
+import { clientView as viewInDb, findClient as findInDb, findSite, listClients as listInDb } from '#server/domain/clients/queries'
 import type { Actor } from './access'
 
-// Written out in full: drizzle drops table names from columns in single-table selects, which would break the correlation.
-const tankCount = sql<number>`(select count(*) from "tanks" t where t."client_id" = "clients"."id" and t."archived_at" is null)`
-const siteCount = sql<number>`(select count(*) from "sites" s where s."client_id" = "clients"."id" and s."archived_at" is null)`
-
-const SORT = { name: clients.name, updated: clients.updatedAt, tanks: tankCount } as const
-
-type ClientRow = typeof clients.$inferSelect
-
-function toSummary(row: ClientRow, counts: { tankCount: number, siteCount: number }): ClientSummary {
-  return {
-    id: row.id,
-    name: row.name,
-    email: row.email,
-    phone: row.phone,
-    archivedAt: row.archivedAt,
-    tankCount: Number(counts.tankCount),
-    siteCount: Number(counts.siteCount),
-    updatedAt: row.updatedAt,
-  }
-}
-
-/** A site row shaped for the API. */
-export function toSiteView(row: typeof sites.$inferSelect): SiteView {
-  return { id: row.id, clientId: row.clientId, label: row.label, address: row.address, roomNotes: row.roomNotes, accessNotes: row.accessNotes, archivedAt: row.archivedAt }
-}
+export { toSiteView } from '#server/domain/clients/queries'
 
 /** One page of the organisation's clients, searched by name, e-mail or phone. */
 export function listClients(actor: Actor, query: ClientListQuery): ClientList {
-  const conditions: SQL[] = [eq(clients.organisationId, actor.organisationId)]
-  conditions.push(query.archived === 'true' ? isNotNull(clients.archivedAt) : isNull(clients.archivedAt))
-  if (query.q) {
-    const pattern = `%${query.q.replace(/[%_\\]/g, m => `\\${m}`)}%`
-    conditions.push(sql`(${clients.name} like ${pattern} escape '\\' or ${clients.email} like ${pattern} escape '\\' or ${clients.phone} like ${pattern} escape '\\')`)
-  }
-  const where = and(...conditions)
-  const column = SORT[query.sort]
-  const rows = useDB().select({ client: clients, tankCount, siteCount }).from(clients).where(where)
-    .orderBy(query.dir === 'asc' ? asc(column) : desc(column), asc(clients.id))
-    .limit(query.pageSize).offset((query.page - 1) * query.pageSize).all()
-  const total = useDB().select({ n: sql<number>`count(*)` }).from(clients).where(where).get()?.n ?? 0
-  return { items: rows.map(r => toSummary(r.client, r)), total, page: query.page, pageSize: query.pageSize }
+  return listInDb(useDB(), actor.organisationId, query)
 }
 
 /** The client row of the actor's organisation, or undefined. Archived clients are still found (to restore or read). */
 export function findClient(actor: Actor, clientId: string) {
-  return useDB().select().from(clients).where(and(eq(clients.id, clientId), eq(clients.organisationId, actor.organisationId))).get()
+  return findInDb(useDB(), actor.organisationId, clientId)
 }
 
 /** Like findClient but answers 404 itself. */
@@ -62,16 +25,12 @@ export function requireClient(actor: Actor, clientId: string) {
 
 /** The full view of a client with its sites. */
 export function clientView(actor: Actor, clientId: string): ClientView | undefined {
-  const row = useDB().select({ client: clients, tankCount, siteCount }).from(clients)
-    .where(and(eq(clients.id, clientId), eq(clients.organisationId, actor.organisationId))).get()
-  if (!row) return undefined
-  const siteRows = useDB().select().from(sites).where(eq(sites.clientId, clientId)).orderBy(asc(sites.label), asc(sites.id)).all()
-  return { ...toSummary(row.client, row), notes: row.client.notes, sites: siteRows.map(toSiteView) }
+  return viewInDb(useDB(), actor.organisationId, clientId)
 }
 
 /** The site row of the actor's organisation, or 404. */
 export function requireSite(actor: Actor, siteId: string) {
-  const site = useDB().select().from(sites).where(and(eq(sites.id, siteId), eq(sites.organisationId, actor.organisationId))).get()
+  const site = findSite(useDB(), actor.organisationId, siteId)
   if (!site) throw createError({ statusCode: 404, statusMessage: 'Site not found' })
   return site
 }

@@ -1,6 +1,6 @@
-import { migrateDatabase, openDatabase, type TidewrightDB } from '../db/connection'
+import { migrateDatabase, openDatabase, type TidewrightDB } from '#server/db/connection'
 
-export * as tables from '../db/schema'
+export * as tables from '#server/db/schema'
 
 let db: TidewrightDB | undefined
 

@@ -58,11 +58,6 @@ export function tankLockedUntil(tankId: string): string | null {
   return lockedUntil(tankId)
 }
 
-/** 400 with field messages from the shared entry conversion. */
-export function fieldError(issues: { field: string, message: string }[]): never {
-  throw createError({ statusCode: 400, statusMessage: 'Validation Error', message: issues.map(i => `${i.field}: ${i.message}`).join('; '), data: { issues } })
-}
-
 /** Runs `work` once the response has been sent (or at once if it already has); errors are logged, never thrown. */
 export function afterResponse(event: { node: { res: { writableFinished: boolean, once: (name: 'finish' | 'close', fn: () => void) => unknown } } }, work: () => void): void {
   let done = false

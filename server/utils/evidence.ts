@@ -1,8 +1,8 @@
 /** The evidence a supervisor reviews: read straight from the tables, shaped for the API. */
 import { asc, eq } from 'drizzle-orm'
 import type { Evidence } from '#shared/types/sign-off'
-import { alerts, planStages, uploads } from '../db/schema'
-import { tankEvents, tankReadings } from '../domain/readings/current'
+import { alerts, planStages, uploads } from '#server/db/schema'
+import { tankEvents, tankReadings } from '#server/domain/readings/current'
 import type { Actor } from './access'
 import { evaluateNow, maySignOff, pendingRequest, signOffHistory, toSignOffRecordWithSnapshot, unresolvedAlertCount, userNames } from './sign-offs'
 import { overrideGrounds } from '#shared/sign-off/plan'

@@ -1,24 +1,15 @@
-/** E-mailing account links (invitation, password reset) inside the caller's transaction: a new link retires the older ones. */
-import { eq } from 'drizzle-orm'
-import type { Db } from '../db/connection'
-import { enqueueMail } from '../db/outbox'
-import { organisations } from '../db/schema'
+/** Nitro glue for account e-mails (server/domain/accounts/account-mail.ts): links use the configured public base URL. */
+import type { Db } from '#server/db/connection'
+import { queueInvitation as queueInviteInDb, queuePasswordReset as queueResetInDb } from '#server/domain/accounts/account-mail'
 
 interface Recipient { id: string, name: string, email: string, organisationId: string }
 
-const link = (path: string, token: string) => `${publicBaseUrl().replace(/\/+$/, '')}${path}?token=${token}`
-
-/** Issues a fresh invitation link for the person and queues its e-mail, signed by the inviter. */
+/** Issues a fresh invitation link for the person and queues its e-mail, signed by the inviter (inside the caller's transaction). */
 export function queueInvitation(db: Db, person: Recipient, inviterName: string, now: Date): void {
-  const company = db.select({ name: organisations.name }).from(organisations).where(eq(organisations.id, person.organisationId)).get()?.name ?? 'your company'
-  const token = issueToken(db, person.id, 'invite', now)
-  const words = inviteMail(person.name, inviterName, company, link('/accept-invite', token))
-  enqueueMail(db, { organisationId: person.organisationId, to: person.email, kind: 'invite', ...words }, now)
+  queueInviteInDb(db, person, inviterName, publicBaseUrl(), now)
 }
 
-/** Issues a fresh password-reset link for the person and queues its e-mail. */
+/** Issues a fresh password-reset link for the person and queues its e-mail (inside the caller's transaction). */
 export function queuePasswordReset(db: Db, person: Recipient, now: Date): void {
-  const token = issueToken(db, person.id, 'reset', now)
-  const words = resetMail(person.name, link('/reset-password', token))
-  enqueueMail(db, { organisationId: person.organisationId, to: person.email, kind: 'reset', ...words }, now)
+  queueResetInDb(db, person, publicBaseUrl(), now)
 }

@@ -5,8 +5,8 @@
  * an account. Limits from runtimeConfig.mailThrottle (NUXT_MAIL_THROTTLE_*).
  */
 import type { H3Event } from 'h3'
-import { addressGroup } from '../domain/net/address-group'
-import { reserveAttempt } from '../domain/throttle/throttle'
+import { addressGroup } from '#server/domain/net/address-group'
+import { reserveAttempt } from '#server/domain/throttle/throttle'
 
 const HOUR = 3_600_000
 const DAY = 24 * HOUR

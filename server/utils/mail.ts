@@ -4,7 +4,7 @@
  * server that is down loses nothing and a retry is recognisable downstream.
  */
 import nodemailer, { type Transporter } from 'nodemailer'
-import { claimNextMail, markMailFailed, markMailSent } from '../db/outbox'
+import { claimNextMail, markMailFailed, markMailSent } from '#server/db/outbox'
 
 let transporter: Transporter | undefined
 let transporterKey = ''

@@ -1,7 +1,7 @@
 /** The signed-in user's notification centre. */
 import { and, desc, eq, isNull, sql } from 'drizzle-orm'
 import type { NotificationList } from '#shared/types/alerts'
-import { notifications } from '../db/schema'
+import { notifications } from '#server/db/schema'
 
 /** How many of the user's notices are unread. */
 export function unreadCount(userId: string): number {

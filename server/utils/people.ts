@@ -1,4 +1,4 @@
-import { PersonChangeRefused } from '../domain/people/people'
+import { PersonChangeRefused } from '#server/domain/people/people'
 
 /** Runs a people command, turning its refusal (not found, last admin, ...) into the HTTP answer. */
 export function personChange<T>(change: () => T): T {

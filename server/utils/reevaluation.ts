@@ -1,4 +1,4 @@
-import { staleCompanyTanks } from '../domain/settings/reevaluation'
+import { staleCompanyTanks } from '#server/domain/settings/reevaluation'
 
 /** Companies whose batches are under way in this process: one chain of batches each. */
 const running = new Set<string>()

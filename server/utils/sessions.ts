@@ -5,9 +5,9 @@
  */
 import type { H3Event } from 'h3'
 import { eq } from 'drizzle-orm'
-import { accountUsable } from '../domain/people/people'
-import { checkSession, startSession, type SessionLifetimes } from '../domain/sessions/sessions'
-import { clients, users } from '../db/schema'
+import { accountUsable } from '#server/domain/people/people'
+import { checkSession, startSession, type SessionLifetimes } from '#server/domain/sessions/sessions'
+import { clients, users } from '#server/db/schema'
 
 type UserRow = typeof users.$inferSelect
 

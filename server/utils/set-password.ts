@@ -1,11 +1,11 @@
 import type { H3Event } from 'h3'
 import { eq } from 'drizzle-orm'
 import { passwordProblem, SetPasswordSchema } from '#shared/schemas/account'
-import { organisations, users } from '../db/schema'
-import { passwordWeakness } from '../domain/accounts/password-strength'
+import { organisations, users } from '#server/db/schema'
+import { passwordWeakness } from '#server/domain/accounts/password-strength'
 import type { TokenPurpose } from './auth-tokens'
-import { endSessionsOfUser } from '../domain/sessions/sessions'
-import { recordAudit } from '../domain/audit/record'
+import { endSessionsOfUser } from '#server/domain/sessions/sessions'
+import { recordAudit } from '#server/domain/audit/record'
 
 const GONE = 'This link has expired or has already been used'
 
@@ -17,7 +17,7 @@ export async function setPasswordWithToken(event: H3Event, purpose: TokenPurpose
   if (!found) throw createError({ statusCode: 410, statusMessage: GONE })
   const company = useDB().select({ name: organisations.name }).from(organisations).where(eq(organisations.id, found.user.organisationId)).get()?.name
   const problem = passwordProblem(password, found.user.email) ?? await passwordWeakness(password, { email: found.user.email, name: found.user.name, company })
-  if (problem) throw createError({ statusCode: 400, statusMessage: 'Validation Error', data: { issues: [{ field: 'password', message: problem }] } })
+  if (problem) fieldError([{ field: 'password', message: problem }])
   const passwordHash = await hashPassword(password)
   const db = useDB()
   const userId = db.transaction((t) => {

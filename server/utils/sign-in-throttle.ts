@@ -5,8 +5,8 @@
  * gives its reservation back. Limits from runtimeConfig.signIn (NUXT_SIGN_IN_*).
  */
 import type { H3Event } from 'h3'
-import { addressGroup } from '../domain/net/address-group'
-import { clearAttempts, releaseAttempt, reserveAttempt, type ThrottleLimit } from '../domain/throttle/throttle'
+import { addressGroup } from '#server/domain/net/address-group'
+import { clearAttempts, releaseAttempt, reserveAttempt, type ThrottleLimit } from '#server/domain/throttle/throttle'
 
 /** Failures after which each further attempt is slowed down. */
 const SLOW_AFTER = 3

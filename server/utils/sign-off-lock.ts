@@ -1,24 +1,19 @@
 /**
- * The locked record: once a tank is signed off, readings and events up to the sign-off
- * time are part of what the supervisor signed and cannot be edited or deleted; a mistake
- * is corrected by a new, linked entry with a reason. Every route that changes or removes
- * a reading or event (or writes one back-dated into the signed period) calls
- * assertEntryUnlocked first.
+ * Nitro glue for the locked record (server/domain/sign-off/lock.ts): every route that
+ * changes or removes a reading or event (or writes one back-dated into the signed period),
+ * or changes a signed stage, calls these first and gets a 409.
  */
-import { and, desc, eq } from 'drizzle-orm'
-import { signOffs } from '../db/schema'
-import { isSignedStage, signedEntryIds } from '../domain/sign-off/signed-record'
+import { currentApprovedSignOff as approvedInDb } from '#server/domain/sign-off/records'
+import { entryLockRefusal, lockedUntil as lockedUntilInDb, stageLockRefusal } from '#server/domain/sign-off/lock'
 
 /** The tank's current approved sign-off (not reopened), if there is one. */
 export function currentApprovedSignOff(tankId: string) {
-  return useDB().select().from(signOffs)
-    .where(and(eq(signOffs.tankId, tankId), eq(signOffs.status, 'approved')))
-    .orderBy(desc(signOffs.decidedAt)).get()
+  return approvedInDb(useDB(), tankId)
 }
 
 /** The time up to which the tank's readings and events are locked, or null when nothing is signed. */
 export function lockedUntil(tankId: string): string | null {
-  return currentApprovedSignOff(tankId)?.decidedAt ?? null
+  return lockedUntilInDb(useDB(), tankId)
 }
 
 /**
@@ -28,21 +23,12 @@ export function lockedUntil(tankId: string): string | null {
  * edit or a new entry would move into that period.
  */
 export function assertEntryUnlocked(tankId: string, entryTime: string | Date, entryId?: string): void {
-  const signed = currentApprovedSignOff(tankId)
-  const until = signed?.decidedAt
-  if (!until) return
-  const at = entryTime instanceof Date ? entryTime.getTime() : Date.parse(entryTime)
-  const inSnapshot = entryId !== undefined && signedEntryIds(signed.snapshot).has(entryId)
-  if (Number.isNaN(at) || at <= Date.parse(until) || inSnapshot) {
-    const message = `This entry falls in the period signed off on ${until.slice(0, 10)} and can no longer be changed. Add a correction with a reason instead; a supervisor can reopen the sign-off if needed.`
-    throw createError({ statusCode: 409, statusMessage: message, message, data: { lockedUntil: until } })
-  }
+  const refusal = entryLockRefusal(useDB(), tankId, entryTime, entryId)
+  if (refusal) throw createError({ statusCode: 409, statusMessage: refusal.message, message: refusal.message, data: { lockedUntil: refusal.lockedUntil } })
 }
 
 /** Throws 409 when the stage was finished in the current sign-off's record: it changes only after reopening. */
 export function assertStageUnsigned(tankId: string, stageKey: string): void {
-  const signed = currentApprovedSignOff(tankId)
-  if (!signed || !isSignedStage(signed.snapshot, stageKey)) return
-  const message = `This stage is part of the record signed off on ${signed.decidedAt?.slice(0, 10)}. A supervisor can reopen the sign-off if it must change.`
-  throw createError({ statusCode: 409, statusMessage: message, message })
+  const message = stageLockRefusal(useDB(), tankId, stageKey)
+  if (message) throw createError({ statusCode: 409, statusMessage: message, message })
 }

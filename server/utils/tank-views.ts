@@ -3,10 +3,10 @@ import { and, asc, desc, eq, or, sql, type SQL } from 'drizzle-orm'
 import { alias } from 'drizzle-orm/sqlite-core'
 import type { TankListQuery } from '#shared/schemas/tank-list'
 import type { CyclePhase, TankList, TankSummary, TankView } from '#shared/types/tanks'
-import { clients, planStages, sites, tankVerdicts, tanks, users } from '../db/schema'
+import { clients, planStages, sites, tankVerdicts, tanks, users } from '#server/db/schema'
 import { netWaterLitres } from '#shared/plan/net-volume'
 import { visibleTankCondition, type Actor } from './access'
-import { listedForecast } from '../domain/forecast/tank-forecast'
+import { listedForecast } from '#server/domain/forecast/tank-forecast'
 
 const aquarist = alias(users, 'aquarist')
 const supervisor = alias(users, 'supervisor')

@@ -3,18 +3,14 @@ import { and, eq, isNull } from 'drizzle-orm'
 import type { TankDimensionsMm } from '#shared/calc/volume'
 import { tankVolumeFromDimensions } from '#shared/tanks/dimensions'
 import type { SHAPE_DIMENSIONS } from '#shared/schemas/tanks'
-import { clients, sites, users } from '../db/schema'
+import { clients, sites, users } from '#server/db/schema'
 import type { Actor } from './access'
-import type { FieldIssue } from './validation'
-
-function fail(issues: FieldIssue[]): never {
-  throw createError({ statusCode: 400, statusMessage: 'Validation Error', message: issues.map(i => `${i.field}: ${i.message}`).join('; '), data: { issues } })
-}
+import type { FieldIssue } from '#server/domain/validation/field-issues'
 
 /** Keeps only the dimensions the shape uses and computes the gross volume in litres; 400 when one is missing or impossible. */
 export function volumeFromDimensions(shape: keyof typeof SHAPE_DIMENSIONS, dimensions: TankDimensionsMm): { dimensions: TankDimensionsMm, volumeLitres: number } {
   const result = tankVolumeFromDimensions(shape, dimensions)
-  if (!result.ok) fail(result.issues)
+  if (!result.ok) fieldError(result.issues)
   return { dimensions: result.dimensions, volumeLitres: result.volumeLitres }
 }
 
@@ -40,5 +36,5 @@ export function checkTankReferences(actor: Actor, refs: { clientId?: string, sit
     const user = staff(refs.supervisorId)
     if (!user || (user.role !== 'supervisor' && user.role !== 'admin')) issues.push({ field: 'supervisorId', message: 'Choose one of your company\'s supervisors.' })
   }
-  if (issues.length) fail(issues)
+  if (issues.length) fieldError(issues)
 }

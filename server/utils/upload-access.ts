@@ -1,5 +1,5 @@
 import { eq } from 'drizzle-orm'
-import { uploads } from '../db/schema'
+import { uploads } from '#server/db/schema'
 import type { Actor } from './access'
 
 /** The upload row if the actor may see its tank; 404 otherwise (the same answer for "not yours" and "no such file"). */

@@ -5,12 +5,12 @@
  */
 import type { H3Event } from 'h3'
 import sharp from 'sharp'
-import { uploads } from '../db/schema'
-import type { Db } from '../db/connection'
+import { uploads } from '#server/db/schema'
+import type { Db } from '#server/db/connection'
 import type { Actor } from './access'
 import { detectFileType, fileTypeProblem, type AcceptedMimeType } from './file-type'
-import { MAX_UPLOAD_BYTES } from '../domain/http/body-limits'
-import { removeExpiredPendingPhotos as removeExpiredPendingPhotoRows } from '../domain/uploads/pending-photos'
+import { MAX_UPLOAD_BYTES } from '#server/domain/http/body-limits'
+import { removeExpiredPendingPhotos as removeExpiredPendingPhotoRows } from '#server/domain/uploads/pending-photos'
 
 /** Longest side of a thumbnail, px. */
 export const THUMBNAIL_SIZE_PX = 480

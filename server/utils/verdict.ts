@@ -1,7 +1,7 @@
 import { eq } from 'drizzle-orm'
 import type { Verdict } from '#shared/cycle/types'
-import { tankVerdicts } from '../db/schema'
-import { computeAndStoreVerdict, tanksWithStaleVerdicts } from '../db/verdicts'
+import { tankVerdicts } from '#server/db/schema'
+import { computeAndStoreVerdict, tanksWithStaleVerdicts } from '#server/db/verdicts'
 
 const MINUTE_MS = 60_000
 /** Time alone changes verdicts (a missed test, a coral date reached): none is kept longer than an hour. */

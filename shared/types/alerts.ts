@@ -1,3 +1,4 @@
+import type { ListOf } from './list'
 import type { AlertStatus } from '../vocabulary'
 
 /** An alert as the API returns it. */
@@ -35,7 +36,6 @@ export interface NotificationView {
   readAt: string | null
 }
 
-export interface NotificationList {
-  items: NotificationView[]
+export interface NotificationList extends ListOf<NotificationView> {
   unread: number
 }

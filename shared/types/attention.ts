@@ -1,4 +1,5 @@
 /** API response shapes of the attention board (GET /api/attention). */
+import type { ListOf } from './list'
 import type { CycleForecast } from '../cycle/forecast/types'
 import type { CyclePhase, TankStatus } from './tanks'
 
@@ -40,8 +41,7 @@ export interface AttentionItem {
   forecast: AttentionForecast | null
 }
 
-export interface AttentionBoard {
-  items: AttentionItem[]
+export interface AttentionBoard extends ListOf<AttentionItem> {
   /** The staff who own a visible tank, for the aquarist filter. */
   aquarists: { id: string, name: string }[]
   /** The time the board was worked out for, ISO. */

@@ -1,4 +1,5 @@
 /** API response shapes of the audit trail viewer. */
+import type { PageOf } from './list'
 import type { AuditChange } from '../audit/words'
 
 export interface AuditRowView {
@@ -17,11 +18,7 @@ export interface AuditRowView {
   changes: AuditChange[]
 }
 
-export interface AuditList {
-  items: AuditRowView[]
+export interface AuditList extends PageOf<AuditRowView> {
   /** The company's time zone (its settings): every moment of the trail is shown on the company's clock. */
   timeZone: string
-  total: number
-  page: number
-  pageSize: number
 }

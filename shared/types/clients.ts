@@ -1,4 +1,5 @@
 /** API response shapes for clients and their sites. */
+import type { PageOf } from './list'
 import type { StaffRole } from '../vocabulary'
 
 export interface SiteView {
@@ -22,12 +23,7 @@ export interface ClientSummary {
   updatedAt: string
 }
 
-export interface ClientList {
-  items: ClientSummary[]
-  total: number
-  page: number
-  pageSize: number
-}
+export type ClientList = PageOf<ClientSummary>
 
 export interface ClientView extends ClientSummary {
   notes: string | null

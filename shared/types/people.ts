@@ -1,4 +1,5 @@
 /** API response shapes for the company's people (staff and client accounts) and its admin home. */
+import type { PageOf } from './list'
 import type { Role, UnitSystem } from '../vocabulary'
 
 /** Where an account stands: signing in, invited and not yet accepted (or the link ran out), or switched off. */
@@ -23,12 +24,7 @@ export interface PersonView {
   openTanks: number
 }
 
-export interface PeopleList {
-  items: PersonView[]
-  total: number
-  page: number
-  pageSize: number
-}
+export type PeopleList = PageOf<PersonView>
 
 /** What needs an admin's attention, for the admin home. */
 export interface AdminAttention {

@@ -1,4 +1,5 @@
 /** API response shapes for readings, events, charts and verdicts. Values are canonical. */
+import type { PageOf } from './list'
 import type { CycleAction, CyclePhase, Finding, Verdict } from '../cycle/types'
 import type { RuleInfo } from '../cycle/registry'
 import type { CanonicalValues, EntryFlag, KitBasisChoice } from '../readings/entry'
@@ -40,12 +41,7 @@ export interface ReadingView extends CanonicalValues, CorrectionTrail {
   flags: EntryFlag[]
 }
 
-export interface ReadingList {
-  items: ReadingView[]
-  total: number
-  page: number
-  pageSize: number
-}
+export type ReadingList = PageOf<ReadingView>
 
 /** POST/PATCH answer: the reading, what it flagged, and the verdict it led to. */
 export interface ReadingSaved {
@@ -71,12 +67,7 @@ export interface EventView extends CorrectionTrail {
   canEdit: boolean
 }
 
-export interface EventList {
-  items: EventView[]
-  total: number
-  page: number
-  pageSize: number
-}
+export type EventList = PageOf<EventView>
 
 /** The compact chart payload: parallel arrays, epoch seconds. */
 export interface ChartData {

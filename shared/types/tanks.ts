@@ -1,4 +1,5 @@
 /** API response shapes for tanks. Values are canonical (litres, mm); the client converts for display. */
+import type { PageOf } from './list'
 import type { CycleForecast } from '../cycle/forecast/types'
 import type { CycleMethod, CyclePhase, TankMaterial, TankShape, TankStatus, WaterSource } from '../vocabulary'
 
@@ -26,12 +27,7 @@ export interface TankSummary {
   forecast?: CycleForecast | null
 }
 
-export interface TankList {
-  items: TankSummary[]
-  total: number
-  page: number
-  pageSize: number
-}
+export type TankList = PageOf<TankSummary>
 
 export interface TankView extends TankSummary {
   shape: TankShape

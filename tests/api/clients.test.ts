@@ -2,6 +2,7 @@ import { beforeAll, describe, expect, inject, it } from 'vitest'
 import { ApiClient, signedIn } from '../support/http'
 import { auditRows, seedScratchCompany, type ScratchCompany } from '../support/company'
 import type { ClientList, ClientView, SiteView, StaffMember } from '../../shared/types/clients'
+import type { ListOf } from '../../shared/types/list'
 
 const { demo, other } = inject('fixtures')
 let co: ScratchCompany
@@ -86,8 +87,8 @@ describe('sites', () => {
     expect(patched.body).toMatchObject({ accessNotes: null, roomNotes: 'Slab, second floor' })
     const archived = await api.post<SiteView>(`/api/sites/${created.body.id}/archive`, {})
     expect(archived.body.archivedAt).not.toBeNull()
-    const listed = await api.get<SiteView[]>(`/api/clients/${co.otherClientId}/sites`)
-    expect(listed.body.map(s => s.id)).toContain(created.body.id)
+    const listed = await api.get<ListOf<SiteView>>(`/api/clients/${co.otherClientId}/sites`)
+    expect(listed.body.items.map(s => s.id)).toContain(created.body.id)
     expect(auditRows(created.body.id).map(r => r.action)).toEqual(['site.create', 'site.update', 'site.archive'])
   })
 
@@ -112,9 +113,9 @@ describe('sites', () => {
 describe('GET /api/staff', () => {
   it('lists the company\'s staff for the pickers, not clients and not another company', async () => {
     const api = await signedIn(co.emails.aquarist)
-    const { status, body } = await api.get<StaffMember[]>('/api/staff')
+    const { status, body } = await api.get<ListOf<StaffMember>>('/api/staff')
     expect(status).toBe(200)
-    expect(body.map(s => s.id).sort()).toEqual([co.ids.admin, co.ids.aquarist, co.ids.supervisor].sort())
+    expect(body.items.map(s => s.id).sort()).toEqual([co.ids.admin, co.ids.aquarist, co.ids.supervisor].sort())
     expect((await (await signedIn(co.emails.client)).get('/api/staff')).status).toBe(403)
     expect((await new ApiClient().get('/api/staff')).status).toBe(401)
   })

@@ -4,11 +4,18 @@
  * route in the access matrix with an id in its path that reads a body, an invalid body is
  * sent for ids nobody has (a random uuid) and for the real row by each persona the matrix
  * refuses; the answer must be the 404 (or 401/403) the matrix designs, never a 400.
+ *
+ * One list envelope (shared/types/list.ts): every GET route is called as a persona it
+ * answers 200, and a JSON answer that is a bare array fails; `items` is always an array,
+ * and a paged list carries total, page and pageSize. Each route's doc comment may not
+ * promise a bare array either, which also covers the routes the matrix server keeps off.
  */
+import { readFileSync } from 'node:fs'
 import * as v from 'valibot'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import type { ApiClient } from '../support/http'
 import { startOwnServer, type OwnServer } from '../support/own-server'
+import { declaredRoutes } from '../support/route-tree'
 import { ACCESS_MATRIX, PERSONAS, type MatrixContext, type MatrixEntry, type Persona } from './access-matrix.data'
 import { matrixContext, personaSessions } from './matrix-context'
 
@@ -78,4 +85,58 @@ describe('params before body', () => {
       expect(wrong).toEqual([])
     })
   }
+})
+
+/** GET routes the matrix calls for a JSON answer: not event streams. */
+const jsonGets = Object.entries(ACCESS_MATRIX).filter(([key, entry]) => key.startsWith('GET ') && !entry.stream)
+
+/** What is wrong with a 200 answer's shape as a list, or null: a bare array, `items` not an array, half a page. */
+function envelopeProblem(body: unknown): string | null {
+  if (Array.isArray(body)) return 'a bare array; answer { items: [...] }'
+  if (!body || typeof body !== 'object' || !('items' in body)) return null
+  const list = body as Record<string, unknown>
+  if (!Array.isArray(list.items)) return '`items` is not an array'
+  const paging = ['total', 'page', 'pageSize'].filter(key => key in list)
+  if (paging.length && paging.length < 3) return `a page needs total, page and pageSize; it has only ${paging.join(', ')}`
+  if (paging.some(key => typeof list[key] !== 'number')) return 'total, page and pageSize must be numbers'
+  return null
+}
+
+describe('one list envelope', () => {
+  it('judges a bare array, a non-array items and half a page as wrong, and an envelope as right', () => {
+    expect(envelopeProblem([{ id: 'a' }])).not.toBeNull()
+    expect(envelopeProblem({ items: { id: 'a' } })).not.toBeNull()
+    expect(envelopeProblem({ items: [], total: 3 })).not.toBeNull()
+    expect(envelopeProblem({ items: [], total: '3', page: 1, pageSize: 25 })).not.toBeNull()
+    expect(envelopeProblem({ items: [], total: 3, page: 1, pageSize: 25 })).toBeNull()
+    expect(envelopeProblem({ items: [], unread: 0 })).toBeNull()
+    expect(envelopeProblem({ name: 'one tank' })).toBeNull()
+  })
+
+  it('every GET route answers a list as { items } and never as a bare array', async () => {
+    const wrong: string[] = []
+    let lists = 0
+    for (const [key, entry] of jsonGets) {
+      const persona = PERSONAS.find(p => entry.expect[p] === 200)
+      if (!persona) continue
+      const response = await (await as(persona)).get(await entry.url(context()))
+      if (response.status !== 200 || !response.headers.get('content-type')?.includes('json')) continue
+      const problem = envelopeProblem(response.body)
+      if (problem) wrong.push(`${key} as ${persona}: ${problem}`)
+      else if (response.body && typeof response.body === 'object' && 'items' in response.body) lists++
+    }
+    expect(wrong).toEqual([])
+    // The tank, reading, event, client, people, audit, alert, notification, session, review, site and staff lists.
+    expect(lists).toBeGreaterThanOrEqual(12)
+  })
+
+  it('no GET route doc comment promises a bare array', () => {
+    const promises = declaredRoutes()
+      .filter(route => route.method === 'GET')
+      .flatMap((route) => {
+        const returns = /Returns ([^.\n]*)/.exec(readFileSync(route.file, 'utf8'))?.[1] ?? ''
+        return /\[\]\s*$/.test(returns.trim()) ? [`${route.key}: Returns ${returns.trim()}`] : []
+      })
+    expect(promises).toEqual([])
+  })
 })

@@ -4,6 +4,7 @@ import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest'
 import { evaluateCycle } from '../../shared/cycle/engine'
 import { RULE_SET_VERSION } from '../../shared/cycle/registry'
 import type { Evidence, ReviewItem, SignOffRecordWithSnapshot, SignOffState, VerifyResult } from '../../shared/types/sign-off'
+import type { ListOf } from '../../shared/types/list'
 import { openDatabase, type TidewrightDB } from '../../server/db/connection'
 import { alerts, auditLog, events, planStages, readings, signOffs, tanks } from '../../server/db/schema'
 import { OTHER_AQUARIST_EMAIL } from '../support/fixtures'
@@ -74,14 +75,14 @@ describe('the review queue', () => {
   })
 
   it('shows the supervisor their waiting tanks oldest first, with phase, days cycling and open alerts', async () => {
-    const { status, body } = await (await signedIn(U.supervisor.email)).get<ReviewItem[]>('/api/reviews')
+    const { status, body: { items } } = await (await signedIn(U.supervisor.email)).get<ListOf<ReviewItem>>('/api/reviews')
     expect(status).toBe(200)
-    const ids = body.map(i => i.tankId)
+    const ids = items.map(i => i.tankId)
     expect(ids).toEqual(expect.arrayContaining([complete, toReturn, midCycle]))
     expect(ids).not.toContain(demo.tanks.nano)
     expect(ids.indexOf(complete)).toBeLessThan(ids.indexOf(toReturn))
     expect(ids.indexOf(complete)).toBeLessThan(ids.indexOf(midCycle))
-    const times = body.map(i => i.requestedAt)
+    const times = items.map(i => i.requestedAt)
     expect(times).toEqual([...times].sort())
     // Whole days since each copy's cycle start; the seed starts cycles at a fixed hour, so
     // the count depends on the time of day the suite runs.
@@ -91,16 +92,16 @@ describe('the review queue', () => {
     }
     expect([11, 12]).toContain(wholeDaysCycling(midCycle))
     expect([33, 34]).toContain(wholeDaysCycling(complete))
-    const lounge = body.find(i => i.tankId === midCycle)!
+    const lounge = items.find(i => i.tankId === midCycle)!
     expect(lounge).toMatchObject({ phase: expect.not.stringMatching(/^complete$/), openAlerts: 1, daysCycling: wholeDaysCycling(midCycle) })
     expect(lounge.overrideGrounds.join(' ')).toMatch(/not complete.*1 danger alert is not resolved/)
-    expect(body.find(i => i.tankId === complete)).toMatchObject({ phase: 'complete', openAlerts: 0, daysCycling: wholeDaysCycling(complete), clientName: U.client.name, overrideGrounds: [] })
+    expect(items.find(i => i.tankId === complete)).toMatchObject({ phase: 'complete', openAlerts: 0, daysCycling: wholeDaysCycling(complete), clientName: U.client.name, overrideGrounds: [] })
   })
 
   it('is empty for a supervisor with no tanks, and refused to aquarists and clients', async () => {
-    expect((await (await signedIn(U.supervisor2.email)).get('/api/reviews')).body).toEqual([])
-    const otherCompany = await (await signedIn('supervisor@tidewright.test')).get<ReviewItem[]>('/api/reviews')
-    expect(otherCompany.body.map(i => i.tankId)).toEqual([demo.tanks.nano])
+    expect((await (await signedIn(U.supervisor2.email)).get('/api/reviews')).body).toEqual({ items: [] })
+    const otherCompany = await (await signedIn('supervisor@tidewright.test')).get<ListOf<ReviewItem>>('/api/reviews')
+    expect(otherCompany.body.items.map(i => i.tankId)).toEqual([demo.tanks.nano])
     expect((await (await signedIn(U.aquarist.email)).get('/api/reviews')).status).toBe(403)
     expect((await (await signedIn(U.client.email)).get('/api/reviews')).status).toBe(403)
     expect((await new ApiClient().get('/api/reviews')).status).toBe(401)

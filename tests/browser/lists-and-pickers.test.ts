@@ -71,6 +71,9 @@ describe('lists and pickers', () => {
     await page.getByLabel('Search clients by name').fill('client 060')
     await expect.poll(() => picker.locator('option', { hasText: 'Picker client 060' }).count()).toBe(1)
     await picker.selectOption({ label: 'Picker client 060' })
+    // The staff pickers are filled from the company's staff list ({ items } from GET /api/staff).
+    await expect.poll(() => page.getByLabel('Aquarist', { exact: true }).locator(`option[value="${co.ids.aquarist}"]`).count()).toBe(1)
+    await expect.poll(() => page.getByLabel('Supervisor', { exact: true }).locator(`option[value="${co.ids.supervisor}"]`).count()).toBe(1)
     await screenshot(page, 'client-picker-375')
     // The chosen client stays chosen when the search moves on.
     await page.getByLabel('Search clients by name').fill('client 001')

@@ -11,24 +11,28 @@ import { hashPasswordOffline } from '../../server/db/seed/password'
 import { computeAndStoreVerdict } from '../../server/db/verdicts'
 import { PASSWORD } from './fixtures'
 
+/**
+ * Copies a tank's readings or events to `tankId`, oldest first. A correction points at the
+ * row it corrects: the copy points at the copied row, not the source's (a correction made
+ * on the source tank by an earlier test would otherwise collide).
+ */
+function copyEntries(db: TidewrightDB, table: typeof readings | typeof events, sourceId: string, tankId: string): void {
+  const copied = new Map<string, string>()
+  const rows: (typeof table.$inferSelect)[] = db.select().from(table).where(eq(table.tankId, sourceId)).orderBy(table.createdAt).all()
+  for (const { id, createdAt: _a, updatedAt: _b, ...row } of rows) {
+    const correctsId = row.correctsId ? copied.get(row.correctsId) ?? null : null
+    copied.set(id, db.insert(table).values({ ...row, correctsId, tankId, enteredBy: null } as typeof table.$inferInsert).returning({ id: table.id }).get().id)
+  }
+}
+
 /** Copies tank `sourceId` under a new name; returns the new tank's id. */
 export function copyTank(db: TidewrightDB, sourceId: string, name: string, overrides: Partial<typeof tanks.$inferInsert> = {}): string {
   const source = db.select().from(tanks).where(eq(tanks.id, sourceId)).get()
   if (!source) throw new Error(`No tank ${sourceId}`)
   const { id: _id, createdAt: _c, updatedAt: _u, ...profile } = source
   const tankId = db.insert(tanks).values({ ...profile, name, ...overrides }).returning().get().id
-  // A correction points at the row it corrects: the copy points at the copied row, not the source's
-  // (a correction made on the source tank by an earlier test would otherwise collide).
-  const readingIds = new Map<string, string>()
-  for (const { id, createdAt: _a, updatedAt: _b, ...r } of db.select().from(readings).where(eq(readings.tankId, sourceId)).orderBy(readings.createdAt).all()) {
-    const correctsId = r.correctsId ? readingIds.get(r.correctsId) ?? null : null
-    readingIds.set(id, db.insert(readings).values({ ...r, correctsId, tankId, enteredBy: null }).returning().get().id)
-  }
-  const eventIds = new Map<string, string>()
-  for (const { id, createdAt: _a, updatedAt: _b, ...e } of db.select().from(events).where(eq(events.tankId, sourceId)).orderBy(events.createdAt).all()) {
-    const correctsId = e.correctsId ? eventIds.get(e.correctsId) ?? null : null
-    eventIds.set(id, db.insert(events).values({ ...e, correctsId, tankId, enteredBy: null }).returning().get().id)
-  }
+  copyEntries(db, readings, sourceId, tankId)
+  copyEntries(db, events, sourceId, tankId)
   computeAndStoreVerdict(db, tankId, new Date())
   return tankId
 }

@@ -1,6 +1,5 @@
 import { eq } from 'drizzle-orm'
 import { ForgotPasswordSchema } from '#shared/schemas/account'
-import { enqueueMail } from '#server/db/outbox'
 import { recordAudit } from '#server/domain/audit/record'
 import { users } from '#server/db/schema'
 
@@ -16,9 +15,7 @@ export default defineEventHandler(async (event) => {
   const user = db.select().from(users).where(eq(users.email, email)).get()
   if (user?.active) {
     db.transaction((t) => {
-      const token = issueToken(t, user.id, 'reset', now)
-      const words = resetMail(user.name, publicLink(`/reset-password?token=${token}`))
-      enqueueMail(t, { organisationId: user.organisationId, to: user.email, kind: 'reset', ...words }, now)
+      queuePasswordReset(t, user, now)
       recordAudit(t, { id: user.id, organisationId: user.organisationId }, { action: 'user.reset-requested', entity: 'user', entityId: user.id })
     })
     kickMailWorker()

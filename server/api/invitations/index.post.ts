@@ -3,6 +3,7 @@ import { InvitationSchema } from '#shared/schemas/account'
 import { enqueueMail } from '#server/db/outbox'
 import { readOrganisationSettings } from '#server/db/settings'
 import { clients, organisations, users } from '#server/db/schema'
+import { alreadyHasAccountMail } from '#server/domain/accounts/account-mail'
 
 /**
  * POST /api/invitations — invites someone by e-mail: aquarists and admins invite clients,
@@ -46,9 +47,7 @@ export default defineEventHandler(async (event) => {
       clientId: input.role === 'client' ? input.clientId! : null, passwordHash: null,
       units: input.units ?? readOrganisationSettings(t, actor.organisationId).defaultUnits,
     }).returning().get()
-    const token = issueToken(t, created.id, 'invite', now)
-    const words = inviteMail(created.name, actor.name, company, publicLink(`/accept-invite?token=${token}`))
-    enqueueMail(t, { organisationId: actor.organisationId, to: created.email, kind: 'invite', ...words }, now)
+    queueInvitation(t, created, actor.name, now)
     writeAudit(actor, { action: 'user.invite', entity: 'user', entityId: created.id, after: { email: created.email, role: created.role, clientId: created.clientId } })
   })
   kickMailWorker()

@@ -1,7 +1,7 @@
 import { eq } from 'drizzle-orm'
 import { IdParams } from '#shared/schemas/common'
-import { readings } from '../../db/schema'
-import { mayRemoveUpload, removeUploadRow } from '../../domain/uploads/remove'
+import { readings } from '#server/db/schema'
+import { mayRemoveUpload, removeUploadRow } from '#server/domain/uploads/remove'
 
 /**
  * DELETE /api/uploads/:id — removes a photo or file; only whoever added it may (403 for others who

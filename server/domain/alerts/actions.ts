@@ -3,9 +3,9 @@
  * is a conditional update with its audit row in one transaction. Framework-free.
  */
 import { and, eq, ne } from 'drizzle-orm'
-import type { Db } from '../../db/connection'
-import { alerts } from '../../db/schema'
-import { recordAudit } from '../audit/record'
+import type { Db } from '#server/db/connection'
+import { alerts } from '#server/db/schema'
+import { recordAudit } from '#server/domain/audit/record'
 import type { AlertRow } from './records'
 
 export interface AlertActionResult { alert: AlertRow, before: AlertRow }

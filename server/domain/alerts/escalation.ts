@@ -4,12 +4,12 @@
  * the worker calls it on each clocked tick.
  */
 import { and, eq, inArray, isNull, lte } from 'drizzle-orm'
-import type { Verdict } from '../../../shared/cycle/types'
-import { forReader } from '../../../shared/readings/reader-words'
-import type { Db } from '../../db/connection'
-import { writeNotice } from '../../db/notices'
-import { alerts, organisations, tanks, users } from '../../db/schema'
-import { readOrganisationSettings } from '../../db/settings'
+import type { Verdict } from '#shared/cycle/types'
+import { forReader } from '#shared/readings/reader-words'
+import type { Db } from '#server/db/connection'
+import { writeNotice } from '#server/db/notices'
+import { alerts, organisations, tanks, users } from '#server/db/schema'
+import { readOrganisationSettings } from '#server/db/settings'
 import { alertEscalatedMail, mailReader } from './mail'
 import { measuredReading, tankLink, tankUrl, userRow, type AlertRow } from './records'
 

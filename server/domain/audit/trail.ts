@@ -4,14 +4,14 @@
  * the tanks they supervise. Framework-free.
  */
 import { and, desc, eq, gte, inArray, lt, or, sql, type SQL } from 'drizzle-orm'
-import { auditActionLabel, auditChanges } from '../../../shared/audit/words'
-import type { AuditQuery } from '../../../shared/schemas/audit'
-import type { AuditList, AuditRowView } from '../../../shared/types/audit'
-import type { Role } from '../../../shared/types/roles'
-import type { Db } from '../../db/connection'
-import { auditLog, tanks, users } from '../../db/schema'
-import { localClock } from '../../db/reminders'
-import { readOrganisationSettings } from '../../db/settings'
+import { auditActionLabel, auditChanges } from '#shared/audit/words'
+import type { AuditQuery } from '#shared/schemas/audit'
+import type { AuditList, AuditRowView } from '#shared/types/audit'
+import type { Role } from '#shared/types/roles'
+import type { Db } from '#server/db/connection'
+import { auditLog, tanks, users } from '#server/db/schema'
+import { localClock } from '#server/db/reminders'
+import { readOrganisationSettings } from '#server/db/settings'
 
 /**
  * The tank an audit row is about. Rows name it directly (a tank), carry it in their

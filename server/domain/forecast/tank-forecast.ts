@@ -3,11 +3,11 @@
  * gets (current tests and events, corrections applied, the company's thresholds).
  * Framework-free: routes, the tank list, the attention board and the weekly digest share it.
  */
-import { forecastCycle } from '../../../shared/cycle/forecast'
-import type { CycleForecast } from '../../../shared/cycle/forecast'
-import type { Db } from '../../db/connection'
-import { cycleInputFor } from '../../db/verdicts'
-import type { TankStatus } from '../../../shared/vocabulary'
+import { forecastCycle } from '#shared/cycle/forecast'
+import type { CycleForecast } from '#shared/cycle/forecast'
+import type { Db } from '#server/db/connection'
+import { cycleInputFor } from '#server/db/verdicts'
+import type { TankStatus } from '#shared/vocabulary'
 
 /** Tank statuses in which a cycle forecast means something to the reader. */
 export const FORECAST_STATUSES: ReadonlySet<TankStatus> = new Set<TankStatus>(['cycling', 'cycled'])

@@ -3,9 +3,9 @@
  * go, and the write-ahead log is checkpointed and emptied so a big import does not leave
  * it large on disk. Run by the worker with the other clocked jobs (and by POST /api/dev/worker-tick in tests).
  */
-import { checkpointWal, type TidewrightDB } from '../../db/connection'
-import { pruneSessions } from '../sessions/sessions'
-import { pruneAttempts } from '../throttle/throttle'
+import { checkpointWal, type TidewrightDB } from '#server/db/connection'
+import { pruneSessions } from '#server/domain/sessions/sessions'
+import { pruneAttempts } from '#server/domain/throttle/throttle'
 
 /** The longest window any throttle counts over (invitation mail: a day). */
 const LONGEST_THROTTLE_WINDOW_MS = 24 * 3_600_000

@@ -3,10 +3,10 @@
  * in the same transaction). Framework-free.
  */
 import { and, eq, isNull } from 'drizzle-orm'
-import type { Db } from '../../db/connection'
-import { recordAudit } from '../audit/record'
-import { users } from '../../db/schema'
-import type { Role } from '../../../shared/types/roles'
+import type { Db } from '#server/db/connection'
+import { recordAudit } from '#server/domain/audit/record'
+import { users } from '#server/db/schema'
+import type { Role } from '#shared/types/roles'
 import { findPerson } from './queries'
 
 export interface PeopleActor { id: string, organisationId: string, role: Role }

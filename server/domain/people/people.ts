@@ -5,10 +5,10 @@
  */
 import { and, eq, ne, sql } from 'drizzle-orm'
 import type { StaffRole } from '#shared/vocabulary'
-import type { Db } from '../../db/connection'
-import { clients, users } from '../../db/schema'
-import { recordAudit, type AuditWho } from '../audit/record'
-import { endSessionsOfUser } from '../sessions/sessions'
+import type { Db } from '#server/db/connection'
+import { clients, users } from '#server/db/schema'
+import { recordAudit, type AuditWho } from '#server/domain/audit/record'
+import { endSessionsOfUser } from '#server/domain/sessions/sessions'
 
 export interface PersonView {
   id: string

@@ -3,11 +3,11 @@
  * accounts with where each stands, and what the admin home flags. Framework-free.
  */
 import { and, asc, eq, sql, type SQL } from 'drizzle-orm'
-import type { PeopleQuery } from '../../../shared/schemas/people'
-import type { AdminAttention, PeopleList, PersonStatus, PersonView } from '../../../shared/types/people'
-import type { Role } from '../../../shared/types/roles'
-import type { Db } from '../../db/connection'
-import { clients, tanks, users } from '../../db/schema'
+import type { PeopleQuery } from '#shared/schemas/people'
+import type { AdminAttention, PeopleList, PersonStatus, PersonView } from '#shared/types/people'
+import type { Role } from '#shared/types/roles'
+import type { Db } from '#server/db/connection'
+import { clients, tanks, users } from '#server/db/schema'
 
 // Columns written out in full: drizzle drops table names in single-table selects, which would break the correlation.
 const newestInvite = sql`(select max(t."expires_at") from "auth_tokens" t where t."user_id" = "users"."id" and t."purpose" = 'invite' and t."used_at" is null)`

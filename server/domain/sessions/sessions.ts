@@ -6,9 +6,9 @@
  */
 import { createHash, randomBytes } from 'node:crypto'
 import { and, desc, eq, gt, isNull, lt, ne, or } from 'drizzle-orm'
-import type { Db } from '../../db/connection'
-import { sessions } from '../../db/schema'
-import { addressGroup } from '../net/address-group'
+import type { Db } from '#server/db/connection'
+import { sessions } from '#server/db/schema'
+import { addressGroup } from '#server/domain/net/address-group'
 
 export const SESSION_END_REASONS = [
   'signed-out', 'ended-by-person', 'password-reset', 'deactivated', 'role-changed', 'idle', 'expired',

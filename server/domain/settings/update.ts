@@ -5,13 +5,13 @@
  * verdicts are written in the same transaction. Framework-free.
  */
 import { and, desc, eq } from 'drizzle-orm'
-import { resolveThresholds } from '../../../shared/cycle/thresholds'
-import { parseStoredSettings, type CompanySettingsUpdate, type OrganisationSettings } from '../../../shared/schemas/settings'
-import type { CompanySettingsView } from '../../../shared/types/settings'
-import type { Db } from '../../db/connection'
-import { recordAudit } from '../audit/record'
+import { resolveThresholds } from '#shared/cycle/thresholds'
+import { parseStoredSettings, type CompanySettingsUpdate, type OrganisationSettings } from '#shared/schemas/settings'
+import type { CompanySettingsView } from '#shared/types/settings'
+import type { Db } from '#server/db/connection'
+import { recordAudit } from '#server/domain/audit/record'
 import { markCompanyVerdictsStale } from './reevaluation'
-import { auditLog, organisations, users } from '../../db/schema'
+import { auditLog, organisations, users } from '#server/db/schema'
 
 /** The company's name, settings (defaults filled in) and the version a form must send back. */
 export function readCompanySettings(db: Db, organisationId: string): CompanySettingsView | undefined {

@@ -5,8 +5,8 @@
  */
 import { asc, eq } from 'drizzle-orm'
 import type { SignedTankFacts, SignOffAmendmentView, SignOffSnapshot } from '#shared/types/sign-off'
-import type { Db } from '../../db/connection'
-import { clients, organisations, planStages, signOffAmendments, sites, tanks, users } from '../../db/schema'
+import type { Db } from '#server/db/connection'
+import { clients, organisations, planStages, signOffAmendments, sites, tanks, users } from '#server/db/schema'
 
 type TankRow = typeof tanks.$inferSelect
 

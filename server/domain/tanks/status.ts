@@ -4,11 +4,11 @@
  * inside a caller's transaction it becomes part of it.
  */
 import { eq } from 'drizzle-orm'
-import { checkTransition, TANK_LIFECYCLE, type TankTrigger } from '../../../shared/tanks/lifecycle'
-import type { Role } from '../../../shared/vocabulary'
-import type { Db } from '../../db/connection'
-import { tanks } from '../../db/schema'
-import { recordAudit } from '../audit/record'
+import { checkTransition, TANK_LIFECYCLE, type TankTrigger } from '#shared/tanks/lifecycle'
+import type { Role } from '#shared/vocabulary'
+import type { Db } from '#server/db/connection'
+import { tanks } from '#server/db/schema'
+import { recordAudit } from '#server/domain/audit/record'
 
 type TankRow = typeof tanks.$inferSelect
 

@@ -5,8 +5,8 @@
  * Keys name what is counted: `sign-in:account:<e-mail>`, `reset-mail:network:<ip group>`, ...
  */
 import { and, eq, gte, inArray, lt, sql } from 'drizzle-orm'
-import type { Db } from '../../db/connection'
-import { throttleMarks } from '../../db/schema'
+import type { Db } from '#server/db/connection'
+import { throttleMarks } from '#server/db/schema'
 
 export interface ThrottleLimit {
   key: string

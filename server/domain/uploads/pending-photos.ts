@@ -4,9 +4,9 @@
  * unattached on a tank, and which have waited too long and go.
  */
 import { and, eq, isNull, lt, sql } from 'drizzle-orm'
-import type { Db } from '../../db/connection'
-import { uploads } from '../../db/schema'
-import { recordAudit } from '../audit/record'
+import type { Db } from '#server/db/connection'
+import { uploads } from '#server/db/schema'
+import { recordAudit } from '#server/domain/audit/record'
 
 /** An unattached photo is removed once it is this old. */
 export const PENDING_PHOTO_MAX_AGE_MS = 24 * 3_600_000

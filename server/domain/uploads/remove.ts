@@ -1,7 +1,7 @@
 import { eq } from 'drizzle-orm'
-import type { Db } from '../../db/connection'
-import { uploads } from '../../db/schema'
-import { recordAudit } from '../audit/record'
+import type { Db } from '#server/db/connection'
+import { uploads } from '#server/db/schema'
+import { recordAudit } from '#server/domain/audit/record'
 
 type UploadRow = typeof uploads.$inferSelect
 

@@ -1,0 +1,131 @@
+/**
+ * The sign-off commands, framework-free: ask for sign-off, approve or return, reopen, and
+ * the move to stocking that livestock after a sign-off causes. Each takes a `Db`, writes its
+ * rows, the tank's status (through changeTankStatus) and its audit row in one transaction,
+ * and refuses with SignOffRefused (or TankStatusRefused from the lifecycle).
+ */
+import { and, eq, ne, sql } from 'drizzle-orm'
+import { acclimationSettingsOf, overrideGrounds } from '#shared/sign-off/plan'
+import { OVERRIDE_REASON_MESSAGE } from '#shared/schemas/sign-off'
+import type { SignOffSnapshot } from '#shared/types/sign-off'
+import type { Db } from '#server/db/connection'
+import { events, planStages, signOffs, tanks, users } from '#server/db/schema'
+import { recordAudit } from '#server/domain/audit/record'
+import { changeTankStatus } from '#server/domain/tanks/status'
+import { currentApprovedSignOff, evaluateNow, maySignOff, newVerificationCode, pendingRequest, selfApprovalAllowed, unresolvedAlertCount, type SignOffActor, type SignOffRow, type TankRow } from './records'
+import { conflict, SignOffRefused } from './refusal'
+import { captureSignedFacts } from './signed-record'
+
+/** The shortest note that counts as a written reason. */
+const REASON_MIN_LENGTH = 3
+
+/**
+ * Asks for sign-off of a cycle the engine judges complete; the tank becomes 'cycled'.
+ * `mayManage`: whether the actor may change this tank (server/utils/access.ts decides).
+ */
+export function requestSignOff(db: Db, actor: SignOffActor, tank: TankRow, note: string, mayManage: boolean, now = new Date()): SignOffRow {
+  if (!mayManage) throw new SignOffRefused(403, 'Only the company\'s aquarists and admins may ask for sign-off')
+  if (tank.status !== 'cycling' && tank.status !== 'cycled') conflict(`A tank that is ${tank.status} cannot be put up for sign-off`)
+  if (pendingRequest(db, tank.id)) conflict('A sign-off request is already waiting for the supervisor')
+  const { verdict } = evaluateNow(db, tank.id, now)
+  if (verdict.phase !== 'complete') conflict('The engine does not judge this cycle complete yet; keep testing until it does')
+  const at = now.toISOString()
+  return db.transaction((tx) => {
+    const row = tx.insert(signOffs).values({
+      organisationId: tank.organisationId, tankId: tank.id, requestedBy: actor.id, requestedAt: at, requestNote: note || null, status: 'requested',
+    }).returning().get()
+    changeTankStatus(tx, { tankId: tank.id, trigger: 'sign-off-requested', actor })
+    recordAudit(tx, actor, { action: 'sign-off.request', entity: 'sign_off', entityId: row.id, before: { tankStatus: tank.status }, after: { tankId: tank.id, note: row.requestNote, tankStatus: 'cycled' } })
+    return row
+  })
+}
+
+export interface DecisionResult {
+  signOff: SignOffRow
+  verificationCode: string | null
+}
+
+/** Four eyes: whoever asked does not approve, unless the company allows it and a reason is written. */
+function checkSelfApproval(db: Db, actor: SignOffActor, tank: TankRow, request: SignOffRow, note: string): void {
+  if (request.requestedBy !== actor.id) return
+  if (!selfApprovalAllowed(db, tank.organisationId)) throw new SignOffRefused(403, 'You asked for this sign-off; another supervisor or an admin must approve it')
+  if (note.length < REASON_MIN_LENGTH) throw new SignOffRefused(400, 'You asked for this sign-off yourself: write why you approve it without a second person.', { field: 'note' })
+}
+
+/**
+ * Approves or returns the waiting request. The engine input and verdict at this moment are
+ * stored with the decision; approving against the verdict needs a written reason (400).
+ */
+export function decideSignOff(db: Db, actor: SignOffActor, tank: TankRow, decision: 'approve' | 'return', note: string, now = new Date()): DecisionResult {
+  if (!maySignOff(actor, tank)) throw new SignOffRefused(403, 'Only this tank\'s supervisor or an admin may decide')
+  const request = pendingRequest(db, tank.id)
+  if (!request) conflict('No sign-off request is waiting for this tank')
+  if (decision === 'approve') checkSelfApproval(db, actor, tank, request, note)
+  const { input, verdict } = evaluateNow(db, tank.id, now)
+  const unresolvedAlerts = unresolvedAlertCount(db, tank.id)
+  const grounds = overrideGrounds(verdict, unresolvedAlerts)
+  const override = decision === 'approve' && grounds.length > 0
+  if (override && note.length < REASON_MIN_LENGTH) throw new SignOffRefused(400, OVERRIDE_REASON_MESSAGE, { field: 'note', data: { overrideGrounds: grounds } })
+  // The tank's facts and stages are kept with the decision: the certificate prints them, never the live tank.
+  const facts = captureSignedFacts(db, tank.id, actor.id)
+  // The tank's own lighting acclimation, kept with the decision so the plan stays as signed.
+  const acclimation = acclimationSettingsOf(db.select({ key: planStages.key, data: planStages.data }).from(planStages).where(eq(planStages.tankId, tank.id)).all())
+  const snapshot: SignOffSnapshot = { facts, input, verdict, overrideGrounds: decision === 'approve' ? grounds : [], unresolvedAlerts, acclimation }
+  const at = now.toISOString()
+  const code = decision === 'approve' ? newVerificationCode() : null
+  const row = db.transaction((tx) => {
+    const updated = tx.update(signOffs).set({
+      status: decision === 'approve' ? 'approved' : 'returned',
+      decidedBy: actor.id,
+      decidedAt: at,
+      decisionNote: note || null,
+      override,
+      snapshot,
+      ruleSetVersion: verdict.ruleSetVersion,
+      verificationCode: code,
+    }).where(and(eq(signOffs.id, request.id), eq(signOffs.status, 'requested'))).returning().get()
+    if (!updated) conflict('This request was decided a moment ago')
+    const moved = changeTankStatus(tx, { tankId: tank.id, trigger: decision === 'approve' ? 'sign-off-approved' : 'sign-off-returned', actor })
+    recordAudit(tx, actor, {
+      action: decision === 'approve' ? (override ? 'sign-off.approve-override' : 'sign-off.approve') : 'sign-off.return',
+      entity: 'sign_off',
+      entityId: request.id,
+      before: { status: 'requested', tankStatus: tank.status },
+      after: { status: updated.status, tankStatus: moved.status, note: updated.decisionNote, override, overrideGrounds: snapshot.overrideGrounds, phase: verdict.phase, ruleSetVersion: verdict.ruleSetVersion },
+    })
+    return updated
+  })
+  return { signOff: row, verificationCode: code }
+}
+
+/** Reopens the current approved sign-off with a reason; the record unlocks and the tank goes back to cycling. */
+export function reopenSignOff(db: Db, actor: SignOffActor, tank: TankRow, reason: string, now = new Date()): SignOffRow {
+  if (!maySignOff(actor, tank)) throw new SignOffRefused(403, 'Only this tank\'s supervisor or an admin may reopen a sign-off')
+  const current = currentApprovedSignOff(db, tank.id)
+  if (!current) conflict('This tank has no sign-off to reopen')
+  const at = now.toISOString()
+  return db.transaction((tx) => {
+    const row = tx.update(signOffs).set({ status: 'reopened', reopenedBy: actor.id, reopenedAt: at, reopenReason: reason })
+      .where(and(eq(signOffs.id, current.id), eq(signOffs.status, 'approved'))).returning().get()
+    if (!row) conflict('This sign-off was reopened a moment ago')
+    changeTankStatus(tx, { tankId: tank.id, trigger: 'sign-off-reopened', actor })
+    recordAudit(tx, actor, { action: 'sign-off.reopen', entity: 'sign_off', entityId: row.id, before: { status: 'approved', tankStatus: tank.status }, after: { status: 'reopened', reason, tankStatus: 'cycling' } })
+    return row
+  })
+}
+
+/**
+ * After a change to a signed-off tank: livestock logged by staff after the sign-off means
+ * stocking has begun. A client's livestock event is recorded (the engine sees it) but
+ * does not move the tank's status: only staff start stocking.
+ */
+export function advanceToStockingIfLivestock(db: Db, tankId: string): void {
+  const tank = db.select({ status: tanks.status }).from(tanks).where(eq(tanks.id, tankId)).get()
+  if (tank?.status !== 'signed-off') return
+  const approved = currentApprovedSignOff(db, tankId)
+  if (!approved?.decidedAt) return
+  const livestock = db.select({ id: events.id }).from(events)
+    .innerJoin(users, eq(users.id, events.enteredBy))
+    .where(and(eq(events.tankId, tankId), eq(events.kind, 'livestock-added'), ne(users.role, 'client'), sql`${events.at} > ${approved.decidedAt}`)).get()
+  if (livestock) changeTankStatus(db, { tankId, trigger: 'livestock-logged', actor: null })
+}

@@ -1,0 +1,39 @@
+/**
+ * The locked record, framework-free: once a tank is signed off, readings and events up to
+ * the sign-off time, and the stages finished in it, are part of what the supervisor signed.
+ * These say whether a change would touch it; server/utils/sign-off-lock.ts answers 409.
+ */
+import type { Db } from '#server/db/connection'
+import { currentApprovedSignOff } from './records'
+import { isSignedStage, signedEntryIds } from './signed-record'
+
+/** The time up to which the tank's readings and events are locked, or null when nothing is signed. */
+export function lockedUntil(db: Db, tankId: string): string | null {
+  return currentApprovedSignOff(db, tankId)?.decidedAt ?? null
+}
+
+/**
+ * Why an entry may not change: it was taken at or before the decision, or the decision's
+ * snapshot holds it whatever its date. Null when it lies outside the signed record. Ask with
+ * the entry's stored time and id before an edit or delete, and with the new time when an
+ * edit or a new entry would move into that period.
+ */
+export function entryLockRefusal(db: Db, tankId: string, entryTime: string | Date, entryId?: string): { message: string, lockedUntil: string } | null {
+  const signed = currentApprovedSignOff(db, tankId)
+  const until = signed?.decidedAt
+  if (!until) return null
+  const at = entryTime instanceof Date ? entryTime.getTime() : Date.parse(entryTime)
+  const inSnapshot = entryId !== undefined && signedEntryIds(signed.snapshot).has(entryId)
+  if (!Number.isNaN(at) && at > Date.parse(until) && !inSnapshot) return null
+  return {
+    message: `This entry falls in the period signed off on ${until.slice(0, 10)} and can no longer be changed. Add a correction with a reason instead; a supervisor can reopen the sign-off if needed.`,
+    lockedUntil: until,
+  }
+}
+
+/** Why a stage may not change: it was finished in the current sign-off's record and changes only after reopening. Null otherwise. */
+export function stageLockRefusal(db: Db, tankId: string, stageKey: string): string | null {
+  const signed = currentApprovedSignOff(db, tankId)
+  if (!signed || !isSignedStage(signed.snapshot, stageKey)) return null
+  return `This stage is part of the record signed off on ${signed.decidedAt?.slice(0, 10)}. A supervisor can reopen the sign-off if it must change.`
+}
