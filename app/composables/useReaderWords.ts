@@ -1,15 +1,32 @@
+import type { Finding } from '#shared/cycle/types'
 import type { KitBasisChoice } from '#shared/readings/entry'
-import { formatMoment, forReader } from '#shared/readings/reader-words'
+import { findingForClient, type ClientFinding, type MeasuredValues } from '#shared/readings/finding-words'
+import { formatMoment, forReader, type Reader } from '#shared/readings/reader-words'
+
+type Kit = { basis: KitBasisChoice, exactN: readonly (number | null | undefined)[] }
 
 /**
- * Engine texts as the signed-in person reads them: their units, the company's clock, and for a
- * client each concentration in the kit's basis (`kit`). Staff keep canonical nitrogen.
+ * Engine texts as the signed-in person reads them: their units and the company's clock, every
+ * concentration as the tank's kit reads it. Staff who switched to canonical units
+ * (`useMeStore().showCanonicalUnits`) read the engine's own: mg/L as N, °C and litres.
  */
-export function useReaderWords(kit?: () => { basis: KitBasisChoice, exactN: readonly (number | null | undefined)[] } | undefined) {
+export function useReaderWords(kit?: () => Kit | undefined) {
   const me = useMeStore()
-  return (message: string): string => forReader(message, {
-    units: me.units,
-    when: ms => formatMoment(ms, me.timeZone),
-    kit: me.isClient ? kit?.() : undefined,
-  })
+  const reader = (): Reader => (me.canonicalUnits
+    ? { units: 'metric', when: ms => formatMoment(ms, me.timeZone) }
+    : { units: me.units, when: ms => formatMoment(ms, me.timeZone), kit: kit?.() })
+  return (message: string): string => forReader(message, reader())
+}
+
+/**
+ * A finding in the reader's voice: a client gets the plain sentence for its rule with the
+ * engine's reason as the "why" (`shared/readings/finding-words.ts`); staff get the engine's text
+ * (the rule id and source are shown beside it). `measured`: the values the finding's tests read.
+ */
+export function useFindingWords(kit: () => Kit | undefined, measured: (finding: Finding) => MeasuredValues) {
+  const me = useMeStore()
+  const words = useReaderWords(kit)
+  return (finding: Finding): ClientFinding => (me.isClient
+    ? findingForClient(finding, measured(finding), { units: me.units, when: ms => formatMoment(ms, me.timeZone), kit: kit() })
+    : { text: words(finding.message), why: null })
 }

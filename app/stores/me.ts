@@ -41,6 +41,18 @@ export const useMeStore = defineStore('me', () => {
    * browser agree wherever the browser is. UTC until someone is signed in.
    */
   const timeZone = computed(() => person.value?.timeZone ?? 'UTC')
+  /**
+   * Staff may read verdicts in the engine's own units (mg/L as N, °C, litres) instead of the
+   * tank's kit units, to check a figure against a rule; off on every sign-in. Never for clients.
+   */
+  const canonicalOn = ref(false)
+  const canonicalUnits = computed(() => isStaff.value && canonicalOn.value)
+  /** Which voice the verdict speaks in: a client's plain words, staff in kit units, or staff in canonical units. */
+  const voice = computed<'client' | 'staff' | 'canonical'>(() => (isStaff.value ? (canonicalUnits.value ? 'canonical' : 'staff') : 'client'))
+
+  function showCanonicalUnits(on: boolean): void {
+    canonicalOn.value = on
+  }
 
   /** Takes the session's person (null when signed out); only the fields the interface uses are kept. */
   function setPerson(value: SignedInPerson | null | undefined): void {
@@ -54,7 +66,8 @@ export const useMeStore = defineStore('me', () => {
 
   function $reset(): void {
     person.value = null
+    canonicalOn.value = false
   }
 
-  return { person, signedIn, role, isClient, isStaff, isAdmin, managesTanks, entersTests, units, timeZone, setPerson, setUnits, $reset }
+  return { person, signedIn, role, isClient, isStaff, isAdmin, managesTanks, entersTests, units, timeZone, canonicalUnits, voice, setPerson, setUnits, showCanonicalUnits, $reset }
 })

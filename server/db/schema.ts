@@ -4,14 +4,14 @@
  * Times are ISO-8601 UTC strings so they sort as text and feed the rule engine unchanged.
  */
 import { sql } from 'drizzle-orm'
-import { index, integer, real, sqliteTable, text, uniqueIndex } from 'drizzle-orm/sqlite-core'
+import { index, integer, primaryKey, real, sqliteTable, text, uniqueIndex } from 'drizzle-orm/sqlite-core'
 import type { Verdict } from '../../shared/cycle/types'
 import type { StoredOrganisationSettings } from '../../shared/schemas/settings'
 import type { SignOffSnapshot } from '../../shared/types/sign-off'
 
 import {
   ALERT_STATUSES, AUTH_TOKEN_PURPOSES, CYCLE_METHODS, CYCLE_PHASES, EVENT_KINDS, LIVESTOCK_GROUPS, MAIL_STATUSES, ROLES, SIGN_OFF_STATUSES,
-  STAGE_STATUSES, TANK_MATERIALS, TANK_SHAPES, TANK_STATUSES, UNIT_SYSTEMS, WATER_SOURCES,
+  SALINITY_MODES, STAGE_STATUSES, TANK_MATERIALS, TANK_SHAPES, TANK_STATUSES, UNIT_SYSTEMS, WATER_SOURCES,
   type AmmoniaBasis, type NitrateBasis, type NitriteBasis,
 } from '../../shared/vocabulary'
 
@@ -347,6 +347,24 @@ export const authTokens = sqliteTable('auth_tokens', {
   usedAt: text('used_at'),
   ...timestamps,
 }, t => [uniqueIndex('auth_tokens_hash').on(t.tokenHash)])
+
+/**
+ * How one person measures one tank's salinity (the instrument's mode and, for a hydrometer or
+ * refractometer, its scale), so the daily form opens that way on every device they test from:
+ * a client may test on a phone and a laptop, and one tank may take a refractometer, another a
+ * hydrometer. Kept per person because the instrument is in the hands of whoever tests.
+ */
+export const salinityInstruments = sqliteTable('salinity_instruments', {
+  userId: text('user_id').notNull().references(() => users.id, { onDelete: 'cascade' }),
+  tankId: text('tank_id').notNull().references(() => tanks.id, { onDelete: 'cascade' }),
+  mode: text('mode', { enum: SALINITY_MODES }).notNull(),
+  /** The scale printed on a hydrometer or refractometer (a key of SG_BASES); kept for the other modes too, so switching back finds it. */
+  sgBasis: text('sg_basis').notNull(),
+  ...timestamps,
+}, t => [
+  primaryKey({ columns: [t.userId, t.tankId] }),
+  index('salinity_instruments_tank_idx').on(t.tankId),
+])
 
 /** Which notices reach a user by e-mail; danger alerts to the assigned aquarist always do. */
 export const notificationPreferences = sqliteTable('notification_preferences', {

@@ -194,9 +194,9 @@ export async function renderCertificate(facts: CertificateFacts): Promise<Uint8A
     w.text(`Reason given: ${facts.decisionNote ?? ''}`, { size: 9.5, bold: true, color: DANGER })
   }
 
-  w.heading('Final readings')
+  w.heading('Final tests')
   const finals = finalReadings(facts.snapshot.input)
-  if (!finals.length) w.text('No readings recorded.', { size: 10 })
+  if (!finals.length) w.text('No tests recorded.', { size: 10 })
   const rowTop = w.y
   finals.forEach((f, i) => {
     const col = i % 2

@@ -31,7 +31,7 @@ function alreadyCorrected(kind: 'reading' | 'event', correctionId: string): neve
 export function correctReading(actor: Actor, tankId: string, readingId: string, input: ReadingCorrectionInput, now = new Date()) {
   const db = useDB()
   const original = db.select().from(readings).where(and(eq(readings.id, readingId), eq(readings.tankId, tankId))).get()
-  if (!original) throw createError({ statusCode: 404, statusMessage: 'Reading not found' })
+  if (!original) throw createError({ statusCode: 404, statusMessage: 'Test not found' })
   const later = db.select({ id: readings.id }).from(readings).where(eq(readings.correctsId, readingId)).get()
   if (later) alreadyCorrected('reading', later.id)
   const values: Partial<typeof readings.$inferInsert> = {}

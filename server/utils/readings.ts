@@ -91,7 +91,7 @@ export function listEvents(actor: Actor, tank: Tank, query: EventListQuery): Eve
 /** The reading row of this tank, or a 404. */
 export function requireReading(tankId: string, readingId: string): ReadingRow {
   const row = useDB().select().from(readings).where(and(eq(readings.id, readingId), eq(readings.tankId, tankId))).get()
-  if (!row) throw createError({ statusCode: 404, statusMessage: 'Reading not found' })
+  if (!row) throw createError({ statusCode: 404, statusMessage: 'Test not found' })
   return row
 }
 

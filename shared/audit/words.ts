@@ -57,6 +57,7 @@ export const AUDIT_ACTION_LABELS: Readonly<Record<string, string>> = Object.free
   'user.password-reset': 'Chose a new password',
   'preferences.update': 'Changed notice preferences',
   'preferences.units': 'Changed their units',
+  'preferences.salinity-instrument': 'Changed how they measure a tank\'s salinity',
   'organisation.settings': 'Changed the company settings',
 })
 

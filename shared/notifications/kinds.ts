@@ -14,10 +14,10 @@ export interface NoticeKindInfo {
 
 /** In the order the preferences page lists them. */
 export const NOTICE_KINDS: readonly NoticeKindInfo[] = [
-  { kind: 'alert-opened', label: 'Danger alerts', description: 'A reading on one of your tanks crossed a danger threshold.' },
+  { kind: 'alert-opened', label: 'Danger alerts', description: 'A test on one of your tanks crossed a danger threshold.' },
   { kind: 'alert-escalated', label: 'Escalated alerts', description: 'An alert on a tank you supervise was not acknowledged in time.' },
   { kind: 'tank-danger', label: 'Danger on my tank', description: 'A test on your own tank shows a danger to the animals, with what to do.' },
-  { kind: 'alert-resolved', label: 'Alerts cleared', description: 'A later reading cleared an alert.' },
+  { kind: 'alert-resolved', label: 'Alerts cleared', description: 'A later test cleared an alert.' },
   { kind: 'test-reminder', label: 'Test reminders', description: 'Today\'s water test has not been entered by the usual time.' },
   { kind: 'tests-missed', label: 'Missed tests', description: 'A client has missed several days of tests.' },
   { kind: 'weekly-digest', label: 'Weekly summary', description: 'Monday mornings while a tank is cycling: where it stands and when it is likely to be ready (a forecast, never a promise).' },

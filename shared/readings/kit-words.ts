@@ -15,6 +15,11 @@ function kitUnit(basis: string): string {
   return `ppm as ${basis}`
 }
 
+/** A concentration (mg/L as N) as a kit on `basis` reads it: "2 ppm as NH3". */
+export function kitReads(valueN: number, basis: KitBasisChoice[keyof KitBasisChoice]): string {
+  return `${formatNumber(nitrogenToKit(valueN, basis))} ${kitUnit(basis)}`
+}
+
 /**
  * The exact value a rounded number in a message stands for: the messages round (1.64 reads
  * "1.6"), and converting the rounded figure would show a client who typed 2 ppm "1.9 ppm".
@@ -37,10 +42,8 @@ export function inKitUnits(message: string, kit: KitBasisChoice, exactN: readonl
     if (!named) return match
     const n = unrounded(value, exact)
     if (named.startsWith('free')) {
-      const basis = kit.ammonia === 'N' ? 'N' : 'NH3'
-      return `${formatNumber(nitrogenToKit(n, basis))} ${kitUnit(basis)}`
+      return kitReads(n, kit.ammonia === 'N' ? 'N' : 'NH3')
     }
-    const basis = named === 'ammonia' ? kit.ammonia : named === 'nitrite' ? kit.nitrite : kit.nitrate
-    return `${formatNumber(nitrogenToKit(n, basis))} ${kitUnit(basis)}`
+    return kitReads(n, named === 'ammonia' ? kit.ammonia : named === 'nitrite' ? kit.nitrite : kit.nitrate)
   })
 }

@@ -90,6 +90,10 @@ export interface VerdictReading {
   ammoniaN: number | null
   nitriteN: number | null
   nitrateN: number | null
+  /** The conditions too, so a client's sentence can say the value a finding rests on. */
+  pH: number | null
+  temperatureC: number | null
+  salinity: number | null
 }
 
 export interface VerdictView {

@@ -25,6 +25,7 @@ import { EventCorrectionSchema, ReadingCorrectionSchema, SignOffDecisionSchema, 
 import { ClientCreateSchema, ClientPatchSchema, SiteCreateSchema, SitePatchSchema } from '../../shared/schemas/clients'
 import { PlanTemplateSchema, StagePatchSchema } from '../../shared/schemas/plan'
 import { EventInputSchema, EventPatchSchema, ReadingImportSchema, ReadingInputSchema, ReadingPatchSchema } from '../../shared/schemas/reading'
+import { SalinityInstrumentSchema } from '../../shared/schemas/salinity-instrument'
 import { TankCreateSchema, TankPatchSchema } from '../../shared/schemas/tanks'
 import type { Fixtures } from '../support/fixtures'
 import type { ApiClient } from '../support/http'
@@ -458,6 +459,13 @@ export const ACCESS_MATRIX: Record<string, MatrixEntry> = {
   'DELETE /api/tanks/[id]/events/[eventId]': {
     url: async c => `/api/tanks/${c.f.demo.tanks.lounge}/events/${await freshEvent(c)}`,
     expect: tankEntry(204),
+  },
+  'GET /api/tanks/[id]/salinity-instrument': { url: c => `/api/tanks/${c.f.demo.tanks.lounge}/salinity-instrument`, expect: tankEntry(200) },
+  'PUT /api/tanks/[id]/salinity-instrument': {
+    url: c => `/api/tanks/${c.f.demo.tanks.lounge}/salinity-instrument`,
+    body: () => ({ mode: 'sg', sgBasis: '25/25C' }),
+    expect: tankEntry(200),
+    fuzz: { as: 'client', schema: SalinityInstrumentSchema, validBody: () => ({ mode: 'sg', sgBasis: '77/60F' }) },
   },
   'GET /api/tanks/[id]/verdict': { url: c => `/api/tanks/${c.f.demo.tanks.lounge}/verdict`, expect: tankReader() },
   'GET /api/tanks/[id]/forecast': { url: c => `/api/tanks/${c.f.demo.tanks.lounge}/forecast`, expect: tankReader() },

@@ -88,7 +88,7 @@ describe('alerts from readings', () => {
     await post(client3, CLEAR)
     const cleared = (await studyAlerts(aquarist2)).find(a => a.id === seeded!.id)!
     expect(cleared.status).toBe('resolved')
-    expect(cleared.resolveNote).toMatch(/later reading/)
+    expect(cleared.resolveNote).toMatch(/later test/)
 
     const unreadBefore = (await aquarist2.get<NotificationList>('/api/notifications')).body.unread
     const readingId = await post(client3, BAD)
@@ -135,6 +135,10 @@ describe('alerts from readings', () => {
     expect(mail!.text).not.toContain('mg/L as N')
     expect(notice!.body).not.toContain('mg/L as N')
     expect(mail!.text).toMatch(/What to do:\n- Change \d+ % of the water/)
+    // In plain words first, the aquarist's reason (the limit and where it comes from) last, under "Why".
+    expect(notice!.body).toMatch(/^Total ammonia is 1\.5 ppm as NH3, as your kit reads it: too high for the animals in the tank\./)
+    expect(mail!.text).toContain('What it means:\n- Total ammonia is 1.5 ppm as NH3, as your kit reads it')
+    expect(mail!.text).toMatch(/Why:\n- Total ammonia is 1\.5 ppm as NH3 \(test of [^)]+\), above the 0\.5 ppm as NH3 limit/)
     // Fenella reads US units: no litres or degrees Celsius, and moments on the company's clock, not the engine's UTC.
     for (const words of [notice!.body, mail!.text]) {
       expect(words).not.toMatch(/\d L\b|\d C\b|°C/)

@@ -94,7 +94,7 @@ describe('keyboard and phone use', () => {
     const { page, context, problems } = await openPage(browser, 375)
     await signInThroughForm(page, 'aquarist@tidewright.test')
     await page.goto(`${lounge}/history`)
-    const frame = page.getByRole('region', { name: 'Readings, scrolls sideways' })
+    const frame = page.getByRole('region', { name: 'Tests, scrolls sideways' })
     await expect.poll(() => frame.isVisible()).toBe(true)
     expect(await frame.getAttribute('tabindex')).toBe('0')
     await expect.poll(() => page.getByText('Scroll sideways to see every column.').first().isVisible()).toBe(true)

@@ -40,7 +40,7 @@ describe('print view', () => {
     await expect.poll(() => page.getByRole('heading', { name: 'The engine\'s verdict' }).isVisible()).toBe(true)
     expect(await page.getByRole('navigation', { name: 'Main' }).isVisible()).toBe(false)
     expect(await page.getByRole('link', { name: 'Skip to content' }).isVisible()).toBe(false)
-    const readings = page.getByRole('region', { name: /^Readings in the evidence/ })
+    const readings = page.getByRole('region', { name: /^Tests in the evidence/ })
     expect(await readings.evaluate(el => getComputedStyle(el).overflowX)).toBe('visible')
     expect(await page.getByRole('button').evaluateAll(buttons => buttons.filter(b => (b as HTMLElement).offsetParent !== null).length)).toBe(0)
     expect(problems).toEqual([])

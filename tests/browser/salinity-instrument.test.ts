@@ -1,7 +1,8 @@
 /**
  * A client who measures salinity with a hydrometer (specific gravity, 77/60 °F scale) finds the
- * daily form the way they left it, not back at practical salinity on every visit; another
- * device, where nothing was entered yet, still starts at practical salinity.
+ * daily form the way they left it, not back at practical salinity on every visit; their other
+ * tank, tested another way or not yet, keeps its own (the instrument is remembered per tank).
+ * Another device is in tests/browser/us-client.test.ts.
  */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import type { Browser } from 'playwright-core'
@@ -12,6 +13,7 @@ import { ApiClient } from '../support/http'
 let browser: Browser
 let company: ScratchCompany
 let tankId: string
+let otherTankId: string
 beforeAll(async () => {
   browser = await launchBrowser()
   company = await seedScratchCompany('salinity-instrument', 'us')
@@ -19,6 +21,9 @@ beforeAll(async () => {
   const tank = await aquarist.post<{ id: string }>('/api/tanks', { name: 'Hydrometer reef', clientId: company.clientId, shape: 'rectangular', dimensions: { lengthMm: 900, widthMm: 450, heightMm: 450 } })
   expect(tank.status).toBe(201)
   tankId = tank.body.id
+  const other = await aquarist.post<{ id: string }>('/api/tanks', { name: 'Refractometer reef', clientId: company.clientId, shape: 'rectangular', dimensions: { lengthMm: 600, widthMm: 400, heightMm: 400 } })
+  expect(other.status).toBe(201)
+  otherTankId = other.body.id
 })
 afterAll(async () => { await browser?.close() })
 
@@ -40,14 +45,13 @@ describe('the salinity instrument is remembered per tank', () => {
     await expect.poll(() => mode.inputValue()).toBe('sg')
     expect(await page.getByLabel('Scale printed on the instrument').inputValue()).toBe('77/60F')
     await screenshot(page, 'salinity-remembered-375')
+
+    // The client's other tank has nothing remembered: practical salinity, as before.
+    const remembered = page.waitForResponse(r => r.url().endsWith(`/api/tanks/${otherTankId}/salinity-instrument`))
+    await page.goto(`/tanks/${otherTankId}/tests`)
+    expect(await (await remembered).json()).toEqual({ instrument: null })
+    expect(await mode.inputValue()).toBe('practical')
     expect(problems).toEqual([])
     await context.close()
-
-    // A new device has nothing remembered: practical salinity, as before.
-    const other = await openPage(browser, 375)
-    await signInThroughForm(other.page, company.emails.client)
-    await other.page.goto(`/tanks/${tankId}/tests`)
-    expect(await other.page.getByLabel('Salinity measured as').inputValue()).toBe('practical')
-    await other.context.close()
   })
 })

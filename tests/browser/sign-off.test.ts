@@ -93,8 +93,8 @@ describe('sign-off, from request to certificate', () => {
     expect(await signed.getByRole('link', { name: 'Download the certificate (PDF)' }).getAttribute('href')).toBe(`/api/tanks/${nano}/certificate.pdf`)
     await screenshot(page, 'sign-off-signed-375')
     // The signed record can only be corrected, with a reason, as a new linked entry.
-    await page.getByRole('button', { name: /^Correct the reading of/ }).first().click()
-    const form = page.getByRole('form', { name: /Correct the reading of/ })
+    await page.getByRole('button', { name: /^Correct the test of/ }).first().click()
+    const form = page.getByRole('form', { name: /Correct the test of/ })
     await form.getByLabel('Nitrate (mg/L as N)').fill('4.4')
     await form.getByRole('button', { name: 'Save correction' }).click()
     await expect.poll(() => form.getByText('Write what was wrong.').isVisible()).toBe(true)
@@ -125,7 +125,7 @@ describe('sign-off, from request to certificate', () => {
       const bytes = readFileSync(path)
       expect(bytes.subarray(0, 5).toString()).toBe('%PDF-')
       const text = execFileSync('pdftotext', ['-layout', '-', '-'], { input: bytes }).toString('utf8')
-      for (const expected of ['Cycle sign-off certificate', 'Quay Street nano', 'Idris Quayle', 'Hollis Achterberg', 'Fishless cycle', 'Final readings', 'Livestock plan', 'Brinefield Aquarium Studio']) {
+      for (const expected of ['Cycle sign-off certificate', 'Quay Street nano', 'Idris Quayle', 'Hollis Achterberg', 'Fishless cycle', 'Final tests', 'Livestock plan', 'Brinefield Aquarium Studio']) {
         expect(text, expected).toContain(expected)
       }
       code = /TW(?:-[0-9A-Z]{4}){6}/.exec(text)?.[0] ?? ''

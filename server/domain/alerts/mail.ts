@@ -6,6 +6,7 @@ import { fromNitrogen } from '../../../shared/chemistry/nitrogen'
 import { formatNumber, formatPercent } from '../../../shared/cycle/words'
 import type { CycleAction, Finding } from '../../../shared/cycle/types'
 import { nitrogenToKit, type CanonicalValues, type KitBasisChoice } from '../../../shared/readings/entry'
+import { findingForClient, type ClientFinding } from '../../../shared/readings/finding-words'
 import { formatMoment, forReader, type Reader } from '../../../shared/readings/reader-words'
 import { celsiusToFahrenheit } from '../../../shared/units'
 import type { UnitSystem } from '../../../shared/vocabulary'
@@ -76,13 +77,27 @@ export function mailReader(input: Pick<AlertMailInput, 'units' | 'timeZone' | 'r
   return { units: input.units, when: ms => formatMoment(ms, input.timeZone), kit: kitBasis ? { basis: kitBasis, exactN } : undefined }
 }
 
-function compose(subject: string, intro: string, input: AlertMailInput, closing: string, measured = measuredLines(input.reading, input.units), reader = mailReader(input)): MailWords {
+/**
+ * A danger finding as the tank's client reads it: the plain sentence for its rule, and the
+ * engine's reason as the "why" (`shared/readings/finding-words.ts`). Alerts are dangers.
+ */
+export function clientMeaning(finding: Pick<Finding, 'message' | 'ruleId'>, reading: MeasuredReading | null, reader: Reader): ClientFinding {
+  return findingForClient({ ...finding, severity: 'danger' }, reading ?? {}, reader)
+}
+
+/** The in-app notice to the tank's client: the plain sentence and the first thing to do, in their units. */
+export function clientNoticeBody(finding: Pick<Finding, 'message' | 'ruleId'>, actions: readonly CycleAction[], reading: MeasuredReading | null, reader: Reader): string {
+  return [clientMeaning(finding, reading, reader).text, ...actionLines(actions).slice(0, 1).map(a => forReader(a, reader))].join(' ')
+}
+
+function compose(subject: string, intro: string, input: AlertMailInput, closing: string, measured = measuredLines(input.reading, input.units), reader = mailReader(input), meaning?: ClientFinding): MailWords {
   const words = (message: string) => forReader(message, reader)
   const todo = actionLines(input.actions).map(words)
   const sections: [string, string[]][] = [
-    [input.reading ? `What was measured (test of ${reader.when(Date.parse(input.reading.takenAt))})` : 'What was measured', measured.length ? measured : ['See the tank page for the readings.']],
-    ['What it means', [words(input.finding.message)]],
+    [input.reading ? `What was measured (test of ${reader.when(Date.parse(input.reading.takenAt))})` : 'What was measured', measured.length ? measured : ['See the tank page for the test results.']],
+    ['What it means', [meaning?.text ?? words(input.finding.message)]],
     ['What to do', todo.length ? todo : ['Look at the tank\'s verdict and decide what to do.']],
+    ...(meaning?.why ? [['Why', [meaning.why]] as [string, string[]]] : []),
   ]
   const text = [intro, '', ...sections.flatMap(([title, lines]) => [`${title}:`, ...lines.map(l => `- ${l}`), '']),
     `Open the tank: ${input.tankUrl}`, '', closing, '', 'Tidewright. Where animals are at risk, an experienced aquarist has the final word.'].join('\n')
@@ -95,7 +110,7 @@ function compose(subject: string, intro: string, input: AlertMailInput, closing:
 
 /** The e-mail to the assigned aquarist when an alert opens. */
 export function alertOpenedMail(input: AlertMailInput): MailWords {
-  return compose(`Danger on ${input.tankName}: act now`, `A new reading on ${input.tankName} crossed a danger threshold.`, input,
+  return compose(`Danger on ${input.tankName}: act now`, `A new test on ${input.tankName} crossed a danger threshold.`, input,
     'Acknowledge the alert in Tidewright once you are on it; unacknowledged alerts go to the tank\'s supervisor.')
 }
 
@@ -106,12 +121,13 @@ export function alertEscalatedMail(input: AlertMailInput & { minutes: number, aq
     'Please make sure someone acts on it.')
 }
 
-/** The e-mail to the tank's own client: the same facts in their kit's units and plain instructions. */
+/** The e-mail to the tank's own client: the same facts in their kit's units, plain words and instructions, and the reason last. */
 export function clientDangerMail(input: AlertMailInput & { kitBasis: KitBasisChoice }): MailWords {
+  const reader = mailReader(input, input.kitBasis)
   return compose(`Your tank ${input.tankName} needs you now`,
     `Your latest test on ${input.tankName} shows a danger to the animals. Please do the first step below as soon as you can.`, input,
     'Your aquarist has been told too. After a water change, match the new water\'s temperature and salinity to the tank, test again and enter the result in Tidewright. If anything looks wrong, call your aquarist.',
-    kitMeasuredLines(input.reading, input.kitBasis, input.units), mailReader(input, input.kitBasis))
+    kitMeasuredLines(input.reading, input.kitBasis, input.units), reader, clientMeaning(input.finding, input.reading, reader))
 }
 
 /** Plain words for an HTML body. */

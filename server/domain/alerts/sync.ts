@@ -12,7 +12,7 @@ import { writeNotice } from '../../db/notices'
 import { alerts, tanks } from '../../db/schema'
 import { readOrganisationSettings } from '../../db/settings'
 import { recordAudit } from '../audit/record'
-import { actionLines, alertOpenedMail, clientDangerMail, mailReader, plainHtml } from './mail'
+import { alertOpenedMail, clientDangerMail, clientNoticeBody, mailReader, plainHtml } from './mail'
 import { clientUsers, findingReading, measuredReading, openKeyFor, tankLink, tankUrl, userRow, type AlertRow } from './records'
 
 export interface AlertSyncOptions {
@@ -88,7 +88,7 @@ export function syncAlertsInDb(db: Db, tankId: string, verdict: Verdict, options
         })
         writeNotice(t, {
           userId: client.id, organisationId: tank.organisationId, kind: 'tank-danger',
-          title: `Act now: ${tank.name}`, body: forReader([finding.message, ...actionLines(verdict.actions).slice(0, 1)].join(' '), mailReader({ units: client.units, timeZone, reading: measured }, tank.kitBasis)), link: tankLink(tankId), alertId: row.id,
+          title: `Act now: ${tank.name}`, body: clientNoticeBody(finding, verdict.actions, measured, mailReader({ units: client.units, timeZone, reading: measured }, tank.kitBasis)), link: tankLink(tankId), alertId: row.id,
           email: { ...words, messageId: `<alert-${row.id}-client-${client.id}@mail.tidewright.invalid>` },
         }, now)
         result.notifiedUserIds.push(client.id)
@@ -99,13 +99,13 @@ export function syncAlertsInDb(db: Db, tankId: string, verdict: Verdict, options
       if (dangers.has(alert.kind)) continue
       const row = t.update(alerts).set({
         status: 'resolved', resolvedAt: nowIso, resolvedBy: null, openKey: null,
-        resolveNote: options.readingId ? 'Cleared by a later reading.' : 'Cleared when the tank was re-evaluated.',
+        resolveNote: options.readingId ? 'Cleared by a later test.' : 'Cleared when the tank was re-evaluated.',
         lastReadingId: options.readingId ?? alert.lastReadingId, updatedAt: nowIso,
       }).where(eq(alerts.id, alert.id)).returning().get()
       result.resolved.push(row)
       recordAudit(t, { id: options.actorId ?? null, organisationId: tank.organisationId }, { action: 'alert.resolve', entity: 'alert', entityId: row.id, after: { status: 'resolved', by: 'reading', readingId: options.readingId ?? null } })
       if (aquarist?.active) {
-        const body = `A later reading cleared the danger alert on ${tank.name}. Keep testing as the verdict asks.`
+        const body = `A later test cleared the danger alert on ${tank.name}. Keep testing as the verdict asks.`
         writeNotice(t, {
           userId: aquarist.id, organisationId: tank.organisationId, kind: 'alert-resolved', title: `Cleared on ${tank.name}`,
           body, link: tankLink(tankId), alertId: alert.id,

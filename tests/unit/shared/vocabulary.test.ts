@@ -28,6 +28,7 @@ describe('the database schema', () => {
     ['mailOutbox.status', schema.mailOutbox.status, vocabulary.MAIL_STATUSES],
     ['authTokens.purpose', schema.authTokens.purpose, vocabulary.AUTH_TOKEN_PURPOSES],
     ['signOffs.status', schema.signOffs.status, vocabulary.SIGN_OFF_STATUSES],
+    ['salinityInstruments.mode', schema.salinityInstruments.mode, vocabulary.SALINITY_MODES],
   ])('%s takes its values from the vocabulary', (_name, column, list) => {
     expect(column.enumValues).toEqual([...list])
   })

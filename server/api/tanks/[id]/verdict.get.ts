@@ -26,7 +26,8 @@ export default defineEventHandler(async (event): Promise<VerdictView> => {
   }
   const readingIds = [...new Set(verdict.findings.flatMap(f => f.readingIds))]
   const rows = readingIds.length
-    ? db.select({ id: readings.id, takenAt: readings.takenAt, ammoniaN: readings.ammoniaN, nitriteN: readings.nitriteN, nitrateN: readings.nitrateN })
+    ? db.select({ id: readings.id, takenAt: readings.takenAt, ammoniaN: readings.ammoniaN, nitriteN: readings.nitriteN, nitrateN: readings.nitrateN,
+        pH: readings.pH, temperatureC: readings.temperatureC, salinity: readings.salinity })
         .from(readings).where(inArray(readings.id, readingIds.slice(0, 500))).all()
     : []
   return { verdict, evaluatedAt: stored.evaluatedAt, rules, readings: Object.fromEntries(rows.map(r => [r.id, r])) }

@@ -46,3 +46,22 @@ describe('the signed-in person store', () => {
     expect(me.person).toBeNull()
   })
 })
+
+describe('the voice a verdict speaks in', () => {
+  beforeEach(() => setActivePinia(createPinia()))
+
+  it('a client reads plain words and cannot switch to canonical units; staff read kit units and may switch', () => {
+    const me = useMeStore()
+    me.setPerson(person('client'))
+    me.showCanonicalUnits(true)
+    expect([me.voice, me.canonicalUnits]).toEqual(['client', false])
+    me.setPerson(person('supervisor'))
+    expect(me.voice).toBe('canonical')
+    me.showCanonicalUnits(false)
+    expect([me.voice, me.canonicalUnits]).toEqual(['staff', false])
+    me.showCanonicalUnits(true)
+    me.$reset()
+    me.setPerson(person('aquarist'))
+    expect(me.voice).toBe('staff')
+  })
+})
