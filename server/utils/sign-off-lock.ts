@@ -5,8 +5,9 @@
  * a reading or event (or writes one back-dated into the signed period) calls
  * assertEntryUnlocked first.
  */
-import { and, desc, eq } from 'drizzle-orm'
+import { and, desc, eq, sql } from 'drizzle-orm'
 import { signOffs } from '../db/schema'
+import { preparedPerDb } from '../db/prepared'
 import { isSignedStage, signedEntryIds } from '../domain/sign-off/signed-record'
 
 /** The tank's current approved sign-off (not reopened), if there is one. */
@@ -16,9 +17,14 @@ export function currentApprovedSignOff(tankId: string) {
     .orderBy(desc(signOffs.decidedAt)).get()
 }
 
+// Only the decision time, prepared once: every history page asks it, and the snapshot is large.
+const approvedDecisionTime = preparedPerDb(db => db.select({ decidedAt: signOffs.decidedAt }).from(signOffs)
+  .where(and(eq(signOffs.tankId, sql.placeholder('tankId')), eq(signOffs.status, 'approved')))
+  .orderBy(desc(signOffs.decidedAt)).limit(1).prepare())
+
 /** The time up to which the tank's readings and events are locked, or null when nothing is signed. */
 export function lockedUntil(tankId: string): string | null {
-  return currentApprovedSignOff(tankId)?.decidedAt ?? null
+  return approvedDecisionTime(useDB()).get({ tankId })?.decidedAt ?? null
 }
 
 /**
