@@ -21,6 +21,7 @@ export default defineNitroPlugin(() => {
   })
   sessionHooks.hook('clear', (session, event) => {
     const token = session.secure?.sessionToken
+    forgetSessionCookie(event, token)
     if (token) endSessionByToken(useDB(), token, 'signed-out', requestNow(event))
   })
 })

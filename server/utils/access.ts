@@ -3,10 +3,11 @@
  * tank-owned data goes through visibleTankCondition or findVisibleTank, so a row outside
  * the actor's organisation (or, for a client, outside their own tanks) is simply not found.
  */
-import { and, eq, isNull, type SQL } from 'drizzle-orm'
+import { and, eq, isNull, sql, type SQL } from 'drizzle-orm'
 import type { H3Event } from 'h3'
 import type { Role, UnitSystem } from '#shared/vocabulary'
 import { tanks } from '#server/db/schema'
+import { preparedPerDb } from '#server/db/prepared'
 
 export interface Actor {
   id: string
@@ -53,9 +54,34 @@ export function visibleTankCondition(actor: Actor): SQL {
   return and(inOrganisation, eq(tanks.clientId, actor.clientId ?? '\u0000'))!
 }
 
+/**
+ * visibleTankCondition with its values as placeholders (`organisationId`, and `clientId` for
+ * a client), so the hottest scoped queries can be prepared once: staff and client each get
+ * their own statement, and which one runs is chosen by `preparedFor`.
+ */
+export const visibleTankPlaceholders = {
+  staff: and(eq(tanks.organisationId, sql.placeholder('organisationId')), isNull(tanks.archivedAt))!,
+  client: and(eq(tanks.organisationId, sql.placeholder('organisationId')), isNull(tanks.archivedAt), eq(tanks.clientId, sql.placeholder('clientId')))!,
+}
+
+/** The values visibleTankPlaceholders binds for this actor (a client without a client record matches no tank). */
+export function visibleTankValues(actor: Actor): { organisationId: string, clientId: string } {
+  return { organisationId: actor.organisationId, clientId: actor.clientId ?? '\u0000' }
+}
+
+/** Which of two prepared variants (built with visibleTankPlaceholders.staff / .client) serves this actor. */
+export function preparedFor<T>(actor: Actor, variants: { staff: T, client: T }): T {
+  return actor.role === 'client' ? variants.client : variants.staff
+}
+
+const visibleTankById = preparedPerDb(db => ({
+  staff: db.select().from(tanks).where(and(eq(tanks.id, sql.placeholder('tankId')), visibleTankPlaceholders.staff)).prepare(),
+  client: db.select().from(tanks).where(and(eq(tanks.id, sql.placeholder('tankId')), visibleTankPlaceholders.client)).prepare(),
+}))
+
 /** The tank row if the actor may see it, else undefined (the route answers 404). */
 export function findVisibleTank(actor: Actor, tankId: string) {
-  return useDB().select().from(tanks).where(and(eq(tanks.id, tankId), visibleTankCondition(actor))).get()
+  return preparedFor(actor, visibleTankById(useDB())).get({ tankId, ...visibleTankValues(actor) })
 }
 
 /** Like findVisibleTank but throws the 404 itself. */

@@ -4,10 +4,10 @@
  * every request. Lifetimes from runtimeConfig.sessionLifetime (NUXT_SESSION_LIFETIME_*).
  */
 import type { H3Event } from 'h3'
-import { eq } from 'drizzle-orm'
-import { accountUsable } from '#server/domain/people/people'
+import { accountUsable, personWithClientArchive } from '#server/domain/people/people'
 import { checkSession, startSession, type SessionLifetimes } from '#server/domain/sessions/sessions'
-import { clients, users } from '#server/db/schema'
+import { UnsealedCookies } from '#server/domain/sessions/unsealed-cookies'
+import type { users } from '#server/db/schema'
 
 type UserRow = typeof users.$inferSelect
 
@@ -34,16 +34,57 @@ export async function signInAs(event: H3Event, user: Pick<UserRow, 'id'>): Promi
   await replaceUserSession(event, { secure: { sessionToken: token } })
 }
 
-/** Whether the request brought a session cookie at all (asking for the session without one would create one). */
-export function hasSessionCookie(event: H3Event): boolean {
-  return Boolean(getCookie(event, useRuntimeConfig().session.name ?? 'nuxt-session'))
+/** The session cookie's name (runtimeConfig.session.name). */
+function sessionCookieName(): string {
+  return useRuntimeConfig().session.name ?? 'nuxt-session'
 }
 
-/** The token in the request's sealed cookie, without creating a session when there is no cookie. */
+/** Whether the request brought a session cookie at all (asking for the session without one would create one). */
+export function hasSessionCookie(event: H3Event): boolean {
+  return Boolean(getCookie(event, sessionCookieName()))
+}
+
+/**
+ * What each sealed cookie opened to, for a minute: unsealing is PBKDF2 + AES, the largest
+ * cost of a read. Safe because the session row and the person are still read on every
+ * request (see server/domain/sessions/unsealed-cookies.ts); the cap bounds the memory.
+ */
+const unsealedCookies = new UnsealedCookies({ ttlMs: 60_000, maxEntries: 10_000 })
+
+/** Forgets the cookie this request brought (its session has ended or is being cleared). */
+export function forgetSessionCookie(event: H3Event, token?: string | null): void {
+  const sealed = getCookie(event, sessionCookieName())
+  if (sealed) unsealedCookies.forgetCookie(sealed)
+  if (token) unsealedCookies.forgetToken(token)
+}
+
+/**
+ * The token in the request's sealed cookie, without creating a session when there is no
+ * cookie. A cookie opened within the last minute is not opened again. A request that sends
+ * the session as a header instead (h3 prefers it to the cookie) is always unsealed.
+ */
 export async function sessionTokenOf(event: H3Event): Promise<string | null> {
-  if (!hasSessionCookie(event)) return null
+  const name = sessionCookieName()
+  const sealed = getCookie(event, name)
+  if (!sealed) return null
+  const viaHeader = getHeader(event, `x-${name.toLowerCase()}-session`) !== undefined
+  const now = Date.now()
+  if (!viaHeader) {
+    const known = unsealedCookies.tokenOf(sealed, now)
+    if (known) return known
+  }
   const session = await getUserSession(event)
-  return session.secure?.sessionToken ?? null
+  const token = session.secure?.sessionToken ?? null
+  if (token && !viaHeader) unsealedCookies.remember(sealed, token, now, sealExpiresAt(event, name))
+  return token
+}
+
+/** When the seal just opened stops being accepted by h3 (its createdAt + session maxAge), epoch ms; null when unlimited. */
+function sealExpiresAt(event: H3Event, name: string): number | null {
+  const maxAgeSeconds = Number(useRuntimeConfig().session.maxAge)
+  const createdAt = (event.context.sessions as Record<string, { createdAt?: number }> | undefined)?.[name]?.createdAt
+  if (!maxAgeSeconds) return null
+  return typeof createdAt === 'number' ? createdAt + maxAgeSeconds * 1000 : Date.now()
 }
 
 export interface SignedIn {
@@ -60,10 +101,14 @@ export async function resolveSignedIn(event: H3Event): Promise<SignedIn | null> 
   if (!token) return null
   const db = useDB()
   const check = checkSession(db, token, requestNow(event), sessionLifetimes())
-  if (!check.live) return null
-  const row = db.select({ user: users, clientArchivedAt: clients.archivedAt }).from(users)
-    .leftJoin(clients, eq(clients.id, users.clientId))
-    .where(eq(users.id, check.session.userId)).get()
-  if (!row || !accountUsable(row.user, row.clientArchivedAt)) return null
+  if (!check.live) {
+    forgetSessionCookie(event, token)
+    return null
+  }
+  const row = personWithClientArchive(db, check.session.userId)
+  if (!row || !accountUsable(row.user, row.clientArchivedAt)) {
+    forgetSessionCookie(event, token)
+    return null
+  }
   return { sessionId: check.session.id, user: row.user }
 }

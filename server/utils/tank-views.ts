@@ -5,7 +5,8 @@ import type { TankListQuery } from '#shared/schemas/tank-list'
 import type { CyclePhase, TankList, TankSummary, TankView } from '#shared/types/tanks'
 import { clients, planStages, sites, tankVerdicts, tanks, users } from '#server/db/schema'
 import { netWaterLitres } from '#shared/plan/net-volume'
-import { visibleTankCondition, type Actor } from './access'
+import { preparedFor, visibleTankCondition, visibleTankPlaceholders, visibleTankValues, type Actor } from './access'
+import { preparedPerDb } from '#server/db/prepared'
 import { listedForecast } from '#server/domain/forecast/tank-forecast'
 
 const aquarist = alias(users, 'aquarist')
@@ -100,9 +101,17 @@ export function listTanks(actor: Actor, query: TankListQuery, now = new Date()):
   return { items: rows.map(row => withForecast(toSummary(row), now)), total, page: query.page, pageSize: query.pageSize }
 }
 
+/** The statements behind getTankView, prepared once: the scoped tank row, and its stages' data for the net volume. */
+const tankViewStatements = preparedPerDb(() => ({
+  staff: baseQuery().where(and(eq(tanks.id, sql.placeholder('tankId')), visibleTankPlaceholders.staff)).prepare(),
+  client: baseQuery().where(and(eq(tanks.id, sql.placeholder('tankId')), visibleTankPlaceholders.client)).prepare(),
+  stageData: useDB().select({ key: planStages.key, data: planStages.data }).from(planStages).where(eq(planStages.tankId, sql.placeholder('tankId'))).prepare(),
+}))
+
 /** The full view of one tank (its phase as of `now`), or undefined when the actor may not see it. */
 export function getTankView(actor: Actor, tankId: string, now = new Date()): TankView | undefined {
-  const one = () => baseQuery().where(and(eq(tanks.id, tankId), visibleTankCondition(actor))).get()
+  const statements = tankViewStatements(useDB())
+  const one = () => preparedFor(actor, statements).get({ tankId, ...visibleTankValues(actor) })
   let row = one()
   if (!row) return undefined
   if (refreshStaleVerdicts(now, [tankId]) > 0) row = one() ?? row
@@ -119,7 +128,7 @@ export function getTankView(actor: Actor, tankId: string, now = new Date()): Tan
     supervisorId: t.supervisorId,
     supervisorName: row.supervisorName,
     kitBasis: t.kitBasis,
-    netWaterLitres: netWaterLitres(t, useDB().select({ key: planStages.key, data: planStages.data }).from(planStages).where(eq(planStages.tankId, t.id)).all()),
+    netWaterLitres: netWaterLitres(t, statements.stageData.all({ tankId: t.id })),
     createdAt: t.createdAt,
   }
 }

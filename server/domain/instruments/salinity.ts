@@ -4,9 +4,9 @@
  */
 import { and, eq } from 'drizzle-orm'
 import * as v from 'valibot'
-import type { Db } from '../../db/connection'
-import { salinityInstruments } from '../../db/schema'
-import { SalinityInstrumentSchema, type SalinityInstrument } from '../../../shared/schemas/salinity-instrument'
+import type { Db } from '#server/db/connection'
+import { salinityInstruments } from '#server/db/schema'
+import { SalinityInstrumentSchema, type SalinityInstrument } from '#shared/schemas/salinity-instrument'
 
 /** The person's remembered instrument for the tank, or null (none yet, or a stored scale this version no longer knows). */
 export function salinityInstrumentOf(db: Db, userId: string, tankId: string): SalinityInstrument | null {

@@ -6,6 +6,7 @@
 import { and, eq, ne, sql } from 'drizzle-orm'
 import type { StaffRole } from '#shared/vocabulary'
 import type { Db } from '#server/db/connection'
+import { preparedPerDb } from '#server/db/prepared'
 import { clients, users } from '#server/db/schema'
 import { recordAudit, type AuditWho } from '#server/domain/audit/record'
 import { endSessionsOfUser } from '#server/domain/sessions/sessions'
@@ -34,6 +35,16 @@ type Actor = AuditWho & { id: string }
  */
 export function accountUsable(user: Pick<typeof users.$inferSelect, 'active' | 'role'>, clientArchivedAt: string | null | undefined): boolean {
   return user.active && !(user.role === 'client' && clientArchivedAt)
+}
+
+const personWithClientRecord = preparedPerDb(db =>
+  db.select({ user: users, clientArchivedAt: clients.archivedAt }).from(users)
+    .leftJoin(clients, eq(clients.id, users.clientId))
+    .where(eq(users.id, sql.placeholder('userId'))).prepare())
+
+/** A person as they are now, with their client record's archive time: what every request's `accountUsable` check reads. */
+export function personWithClientArchive(db: Db, userId: string): { user: typeof users.$inferSelect, clientArchivedAt: string | null } | undefined {
+  return personWithClientRecord(db).get({ userId })
 }
 
 /** The archive time of a client account's client record (null for staff and live records). */

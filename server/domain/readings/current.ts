@@ -13,6 +13,7 @@ import { alias, type AnySQLiteColumn } from 'drizzle-orm/sqlite-core'
 import { toIsoInstant } from '../../../shared/readings/fields'
 import type { Replacement } from '../../../shared/types/readings'
 import type { Db } from '../../db/connection'
+import { preparedPerDb } from '../../db/prepared'
 import { events, readings, users } from '../../db/schema'
 
 /** An inclusive time window, ISO-8601; either end may be open. */
@@ -112,13 +113,40 @@ export interface HistoryPage {
   pageSize: number
 }
 
+/**
+ * The statements behind readingHistoryPage, one per shape of request (sort column, direction,
+ * which ends of the range are given), each prepared the first time it is asked for: the
+ * history list is read far more often than it changes shape.
+ */
+const readingPageStatements = preparedPerDb(() => new Map<AnySQLiteColumn, Map<string, ReturnType<typeof prepareReadingPage>>>())
+
+function prepareReadingPage(db: Db, sort: AnySQLiteColumn, dir: 'asc' | 'desc', hasFrom: boolean, hasTo: boolean) {
+  const conditions: SQL[] = [eq(readings.tankId, sql.placeholder('tankId'))]
+  if (hasFrom) conditions.push(gte(readings.takenAt, sql.placeholder('from')))
+  if (hasTo) conditions.push(lte(readings.takenAt, sql.placeholder('to')))
+  const where = and(...conditions)
+  const by = dir === 'asc' ? asc : desc
+  return {
+    page: readingQuery(db).where(where).orderBy(by(sort), by(readings.id))
+      .limit(sql.placeholder('limit')).offset(sql.placeholder('offset')).prepare(),
+    count: db.select({ n: count() }).from(readings).where(where).prepare(),
+  }
+}
+
 /** One page of a tank's readings, every row with its trail, so the history shows what was replaced. */
 export function readingHistoryPage(db: Db, tankId: string, range: TimeRange, page: HistoryPage): { rows: ReadingWithTrail[], total: number } {
-  const where = readingFilter(tankId, range, 'all')
-  const by = page.dir === 'asc' ? asc : desc
-  const rows = readingQuery(db).where(where).orderBy(by(page.sort), by(readings.id))
-    .limit(page.pageSize).offset((page.page - 1) * page.pageSize).all()
-  return { rows: rows.map(r => withTrail(r.row, r.enteredByName, r.later, r.byName)), total: countOf(db, readings, where) }
+  const bySort = readingPageStatements(db)
+  let shapes = bySort.get(page.sort)
+  if (!shapes) bySort.set(page.sort, shapes = new Map())
+  const shape = `${page.dir}|${Boolean(range.from)}|${Boolean(range.to)}`
+  let statements = shapes.get(shape)
+  if (!statements) {
+    statements = prepareReadingPage(db, page.sort, page.dir, Boolean(range.from), Boolean(range.to))
+    shapes.set(shape, statements)
+  }
+  const values = { tankId, from: range.from ? iso(range.from) : undefined, to: range.to ? iso(range.to) : undefined }
+  const rows = statements.page.all({ ...values, limit: page.pageSize, offset: (page.page - 1) * page.pageSize })
+  return { rows: rows.map(r => withTrail(r.row, r.enteredByName, r.later, r.byName)), total: statements.count.get(values)?.n ?? 0 }
 }
 
 /** One page of a tank's events, every row with its trail. */

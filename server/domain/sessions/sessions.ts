@@ -5,8 +5,9 @@
  * so a replayed cookie finds an ended row and is refused.
  */
 import { createHash, randomBytes } from 'node:crypto'
-import { and, desc, eq, gt, isNull, lt, ne, or } from 'drizzle-orm'
+import { and, desc, eq, gt, isNull, lt, ne, or, sql } from 'drizzle-orm'
 import type { Db } from '#server/db/connection'
+import { preparedPerDb } from '#server/db/prepared'
 import { sessions } from '#server/db/schema'
 import { addressGroup } from '#server/domain/net/address-group'
 
@@ -51,6 +52,10 @@ export function startSession(db: Db, input: { userId: string, now: Date, lifetim
   return { token, id: row.id }
 }
 
+/** The session row with this token hash: asked on every signed-in request. */
+const sessionByTokenHash = preparedPerDb(db =>
+  db.select().from(sessions).where(eq(sessions.tokenHash, sql.placeholder('tokenHash'))).prepare())
+
 export type SessionCheck
   = | { live: true, session: SessionRow }
     | { live: false, reason: 'unknown' | 'ended' | SessionEndReason }
@@ -60,7 +65,7 @@ export type SessionCheck
  * is ended here, so it stays ended even if the clock is later read differently.
  */
 export function checkSession(db: Db, token: string, now: Date, lifetimes: SessionLifetimes): SessionCheck {
-  const row = db.select().from(sessions).where(eq(sessions.tokenHash, hashSessionToken(token))).get()
+  const row = sessionByTokenHash(db).get({ tokenHash: hashSessionToken(token) })
   if (!row) return { live: false, reason: 'unknown' }
   if (row.endedAt) return { live: false, reason: 'ended' }
   const at = now.getTime()

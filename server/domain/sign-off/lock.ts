@@ -3,13 +3,21 @@
  * the sign-off time, and the stages finished in it, are part of what the supervisor signed.
  * These say whether a change would touch it; server/utils/sign-off-lock.ts answers 409.
  */
+import { and, desc, eq, sql } from 'drizzle-orm'
 import type { Db } from '#server/db/connection'
+import { preparedPerDb } from '#server/db/prepared'
+import { signOffs } from '#server/db/schema'
 import { currentApprovedSignOff } from './records'
 import { isSignedStage, signedEntryIds } from './signed-record'
 
 /** The time up to which the tank's readings and events are locked, or null when nothing is signed. */
+// Only the decision time, prepared once: every history page asks it, and the snapshot is large.
+const approvedDecisionTime = preparedPerDb(db => db.select({ decidedAt: signOffs.decidedAt }).from(signOffs)
+  .where(and(eq(signOffs.tankId, sql.placeholder('tankId')), eq(signOffs.status, 'approved')))
+  .orderBy(desc(signOffs.decidedAt)).limit(1).prepare())
+
 export function lockedUntil(db: Db, tankId: string): string | null {
-  return currentApprovedSignOff(db, tankId)?.decidedAt ?? null
+  return approvedDecisionTime(db).get({ tankId })?.decidedAt ?? null
 }
 
 /**

@@ -1,8 +1,14 @@
-import { inArray } from 'drizzle-orm'
+import { inArray, sql } from 'drizzle-orm'
 import { IdParams } from '#shared/schemas/common'
 import { ruleInfo } from '#shared/cycle/registry'
 import type { VerdictView } from '#shared/types/readings'
 import { readings } from '#server/db/schema'
+import { preparedPerDb } from '#server/db/prepared'
+
+/** The readings a verdict cites, prepared once: the ids go in as one JSON array, however many there are. */
+const citedReadings = preparedPerDb(db => db.select({ id: readings.id, takenAt: readings.takenAt, ammoniaN: readings.ammoniaN, nitriteN: readings.nitriteN, nitrateN: readings.nitrateN,
+  pH: readings.pH, temperatureC: readings.temperatureC, salinity: readings.salinity })
+  .from(readings).where(inArray(readings.id, sql`(select value from json_each(${sql.placeholder('ids')}))`)).prepare())
 
 /**
  * GET /api/tanks/:id/verdict — the rule engine's verdict as of now (the stored one, made
@@ -25,10 +31,6 @@ export default defineEventHandler(async (event): Promise<VerdictView> => {
     if (info) rules[ruleId] = { id: info.id, description: info.description, source: info.source }
   }
   const readingIds = [...new Set(verdict.findings.flatMap(f => f.readingIds))]
-  const rows = readingIds.length
-    ? db.select({ id: readings.id, takenAt: readings.takenAt, ammoniaN: readings.ammoniaN, nitriteN: readings.nitriteN, nitrateN: readings.nitrateN,
-        pH: readings.pH, temperatureC: readings.temperatureC, salinity: readings.salinity })
-        .from(readings).where(inArray(readings.id, readingIds.slice(0, 500))).all()
-    : []
+  const rows = readingIds.length ? citedReadings(db).all({ ids: JSON.stringify(readingIds.slice(0, 500)) }) : []
   return { verdict, evaluatedAt: stored.evaluatedAt, rules, readings: Object.fromEntries(rows.map(r => [r.id, r])) }
 })
