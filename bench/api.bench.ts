@@ -8,7 +8,9 @@
 import autocannon from 'autocannon'
 import { signInCookie, type BenchServer, type Row } from './support'
 
-const CONNECTIONS = [1, 16, 64]
+// BENCH_API_CONNECTIONS=1,16 and BENCH_API_CASES=POST (words of the case names) narrow a run to the rows being worked on.
+const CONNECTIONS = (process.env.BENCH_API_CONNECTIONS ?? '1,16,64').split(',').map(Number)
+const CASE_WORDS = (process.env.BENCH_API_CASES ?? '').split(',').filter(word => word !== '')
 
 interface Case {
   name: string
@@ -53,7 +55,7 @@ export async function runApiBench(bench: BenchServer, seconds: number): Promise<
     { name: 'POST /api/tanks/:id/readings', route: { method: 'POST', path: `/api/tanks/${lounge}/readings`, body: readingBody }, floor: { method: 'POST', path: `/api/bench/tanks/${demo.tanks.lobby}/readings`, body: floorReadingBody } },
   ]
   const rows: Row[] = []
-  for (const c of cases) {
+  for (const c of cases.filter(c => CASE_WORDS.length === 0 || CASE_WORDS.some(word => c.name.includes(word)))) {
     const headers = { cookie, 'content-type': 'application/json' }
     await check(baseURL + c.route.path, c.route.method, headers, c.route.body?.())
     await check(baseURL + c.floor.path, c.floor.method, { 'content-type': 'application/json' }, c.floor.body?.())

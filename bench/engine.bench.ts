@@ -2,7 +2,9 @@
  * Cycle engine benchmark. Prints ratios measured in one run: the engine's cost
  * for a 90-day twice-daily history and for a fleet of 10,000 tanks of 60 days,
  * against the cost of merely reading the same rows from a temporary SQLite file
- * with better-sqlite3. Run: npx tsx bench/engine.bench.ts
+ * with better-sqlite3; and its cost per test over 90 days, a year and ten years of
+ * a tank kept fed with a daily dose, which stays flat when the cost is linear in the
+ * history. Run: npx tsx bench/engine.bench.ts
  */
 
 import { rmSync } from 'node:fs'
@@ -65,6 +67,39 @@ function inputFor(tank: number, days: number): CycleInput {
       { id: `t${tank}-dose0`, at: new Date(START_MS + 9 * 3_600_000).toISOString(), kind: 'ammonia-dose', amount: 1.6 },
       { id: `t${tank}-dose1`, at: new Date(START_MS + clearanceDay * DAY_MS + 9 * 3_600_000).toISOString(), kind: 'ammonia-dose', amount: 1.6 },
     ],
+    now: new Date(START_MS + days * DAY_MS).toISOString(),
+  }
+}
+
+/**
+ * A tank cycled over its first weeks, then kept fed: a dose every morning, a test that evening
+ * showing it arrived and one next morning showing it cleared, a water change every week.
+ */
+export function fedInputFor(days: number): CycleInput {
+  const readings: CycleReading[] = []
+  const events: CycleInput['events'] = [{ id: 'dose-start', at: new Date(START_MS + 9 * 3_600_000).toISOString(), kind: 'ammonia-dose', amount: 1.6 }]
+  for (let day = 0; day < days; day += 1) {
+    const fed = day >= 40
+    for (const hour of [8, 20]) {
+      const curve = course(day + hour / 24, 0)
+      const arrived = fed && hour === 20 ? { ammoniaN: 0.9, nitriteN: 0 } : {}
+      readings.push({
+        id: `d${day}-${hour}`,
+        takenAt: new Date(START_MS + day * DAY_MS + hour * 3_600_000).toISOString(),
+        ...curve,
+        ...arrived,
+        pH: 8.1,
+        temperatureC: 25.5,
+        salinity: 34 + (day % 3) * 0.3,
+      })
+    }
+    if (fed) events.push({ id: `dose-${day}`, at: new Date(START_MS + day * DAY_MS + 9 * 3_600_000).toISOString(), kind: 'ammonia-dose', amount: 1.6 })
+    if (fed && day % 7 === 3) events.push({ id: `change-${day}`, at: new Date(START_MS + day * DAY_MS + 21 * 3_600_000).toISOString(), kind: 'water-change', amount: 20 })
+  }
+  return {
+    tank: { volumeLitres: 300, cycleMethod: 'fishless', startedAt: new Date(START_MS).toISOString() },
+    readings,
+    events,
     now: new Date(START_MS + days * DAY_MS).toISOString(),
   }
 }
@@ -141,6 +176,30 @@ function benchLongHistory(): BenchRow[] {
   ]
 }
 
+/** Cost per test over ever longer histories: flat when the engine is linear in the history. */
+function benchHistoryLengths(): BenchRow[] {
+  const lengths = [{ name: '90 days', days: 90 }, { name: '1 year', days: 365 }, { name: '10 years', days: 3650 }]
+  const rows: BenchRow[] = []
+  const perTest: number[] = []
+  for (const { name, days } of lengths) {
+    const input = fedInputFor(days)
+    const tests = input.readings.length
+    // About the same number of tests evaluated for each length, so each figure is as steady.
+    const repeats = Math.max(3, Math.round(300_000 / tests))
+    for (let i = 0; i < Math.min(repeats, 50); i += 1) evaluateCycle(input)
+    const ms = medianMs(5, () => {
+      for (let i = 0; i < repeats; i += 1) evaluateCycle(input)
+    }) / repeats
+    perTest.push((ms * 1000) / tests)
+    rows.push(
+      { name: `kept-fed tank, ${name} (${tests} tests, ${input.events?.length ?? 0} events): engine`, value: ms * 1000, unit: 'µs' },
+      { name: `kept-fed tank, ${name}: engine per test`, value: (ms * 1000) / tests, unit: 'µs' },
+    )
+  }
+  rows.push({ name: 'kept-fed tank: per test, 10 years / 90 days', value: perTest[2]! / perTest[0]!, unit: 'ratio' })
+  return rows
+}
+
 function benchFleet(): BenchRow[] {
   let engineMs = 0
   let verdicts = 0
@@ -180,7 +239,7 @@ function benchFleet(): BenchRow[] {
 
 /** Runs the engine benchmark and returns its figures, for a bench runner or the table below. */
 export async function runEngineBench(): Promise<BenchRow[]> {
-  return [...benchLongHistory(), ...benchFleet()]
+  return [...benchLongHistory(), ...benchHistoryLengths(), ...benchFleet()]
 }
 
 function printTable(rows: readonly BenchRow[]): void {

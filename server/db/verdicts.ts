@@ -8,7 +8,7 @@ import { evaluateCycle } from '../../shared/cycle/engine'
 import type { CycleEvent, CycleInput, CycleReading, Verdict } from '../../shared/cycle/types'
 import { CYCLE_EVENT_KINDS, type CycleEventKind, type EventKind } from '../../shared/vocabulary'
 import type { Db } from './connection'
-import { tankEvents, tankReadings } from '../domain/readings/current'
+import { tankEngineReadings, tankEvents } from '../domain/readings/current'
 import { tankVerdicts, tanks } from './schema'
 import { readOrganisationSettings } from './settings'
 
@@ -22,7 +22,7 @@ export function cycleInputFor(db: Db, tankId: string, now: Date): CycleInput | u
   if (!tank) return undefined
   const { thresholds } = readOrganisationSettings(db, tank.organisationId)
   // A correction replaces the entry it corrects; the engine sees only the current value.
-  const readingRows = tankReadings(db, tankId)
+  const readingRows = tankEngineReadings(db, tankId)
   const eventRows = tankEvents(db, tankId)
   return {
     tank: { volumeLitres: tank.volumeLitres + tank.sumpLitres, cycleMethod: tank.cycleMethod, startedAt: tank.cycleStartedAt ?? tank.createdAt },

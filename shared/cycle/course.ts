@@ -1,7 +1,8 @@
 /**
  * One forward pass over the history that follows the cycle's course: runs of zero
  * tests, rises, ammonia doses and what became of each, and the moment the cycle was
- * proven. Linear in the number of readings and events (times the doses in a run).
+ * proven. Linear in the number of readings and events: each dose is folded into the
+ * proven chain once it is settled, and only the doses of the last window again at each test.
  *
  * Completion at a zero test R is decided from what was known at R only. Always: R and
  * the consecutive tests before it read zero ammonia and nitrite, at least
@@ -142,8 +143,38 @@ interface MutableRun {
   zeroTests: number
   afterDose: MutableCount | null
   withAnimals: MutableCount | null
-  provenChain: DoseOutcome[]
+  /** The proven chain as of the run's last test (see `provenChain`). */
+  provenChain: ChainView
+  /** The chain over the run's settled doses, folded once (see `provenChain`). */
+  settledChain: SettledChain
   completion: Completion | null
+}
+
+/**
+ * The proven chain folded over the doses that can no longer change: the scan's doses before
+ * `next`, all of them out of `pending`. `chain` only ever grows by push or is replaced by a new
+ * array, so a prefix of it taken earlier (array and length) stays what it was.
+ */
+interface SettledChain {
+  next: number
+  chain: MutableDose[]
+}
+
+/** A chain without copying it at every test: a prefix of the settled chain, then doses of its own. */
+interface ChainView {
+  readonly prefix: readonly MutableDose[]
+  readonly prefixLength: number
+  readonly tail: readonly MutableDose[]
+}
+
+const EMPTY_CHAIN: ChainView = { prefix: [], prefixLength: 0, tail: [] }
+
+function chainLength(view: ChainView): number {
+  return view.prefixLength + view.tail.length
+}
+
+function chainDoses(view: ChainView): MutableDose[] {
+  return [...view.prefix.slice(0, view.prefixLength), ...view.tail]
 }
 
 /** Proven doses on consecutive days: each at least this long after the previous counted one ... */
@@ -336,6 +367,8 @@ class CourseScan {
    * test that showed it arrived; it stays open for its whole window.
    */
   private settleDoses(r: TimedReading, zero: boolean): void {
+    // Every window is the same length and doses arrive in time order, so the doses dropped
+    // here are always the oldest of `pending`: `pending` stays a suffix of `doses`.
     const stillOpen: MutableDose[] = []
     const arrivalShare = this.s.thresholds.doseArrivalFraction
     for (const dose of this.pending) {
@@ -360,7 +393,8 @@ class CourseScan {
   }
 
   private extendRun(r: TimedReading): void {
-    const run: MutableRun = this.run ?? { first: r, last: r, zeroTests: 0, afterDose: null, withAnimals: null, provenChain: [], completion: null }
+    // Every dose so far is at or before this test: none of them can join a run it starts.
+    const run: MutableRun = this.run ?? { first: r, last: r, zeroTests: 0, afterDose: null, withAnimals: null, provenChain: EMPTY_CHAIN, settledChain: { next: this.doses.length, chain: [] }, completion: null }
     this.run = run
     run.last = r
     run.zeroTests += 1
@@ -377,7 +411,7 @@ class CourseScan {
         zeroTests: counted.zeroTests,
         nitrate: this.latestNitrate,
         nitrateLow: withAnimals ? this.firstNitrateWithAnimals : this.nitrateLow,
-        provenDoses: withAnimals ? [] : run.provenChain,
+        provenDoses: withAnimals ? [] : chainDoses(run.provenChain),
         withAnimals,
         lostBy: null,
       }
@@ -395,23 +429,59 @@ class CourseScan {
    * The chain of proven doses on consecutive days ending with the latest decided dose in
    * the run, as of `t`. A dose that failed (no amount, never arrived, not cleared in time,
    * diluted) breaks the chain; a dose still inside its window is not yet decided.
+   *
+   * One left-to-right fold over the doses, done without re-reading years of them at every
+   * zero test: a dose out of `pending` is settled (its window closed before an earlier test,
+   * nothing changes it again, and every step of the fold gives it the same answer at any later
+   * `t`), and the settled doses are a prefix of `doses`. So the fold over that prefix is kept on
+   * the run and extended, and only the doses still pending (those of the last window) are folded
+   * afresh each time. The result is the full fold's, step for step.
    */
-  private provenChain(run: MutableRun, t: number): MutableDose[] {
-    let chain: MutableDose[] = []
-    for (const dose of this.doses) {
-      if (dose.t <= run.first.t || dose.t >= t) continue
-      const open = !dose.diluted && dose.clearedBy === null && t <= dose.t + this.s.windowMs
-      if (open) continue
-      if (!this.proven(dose, t)) {
-        chain = []
-        continue
-      }
-      const previous = chain[chain.length - 1]
-      if (previous === undefined) chain = [dose]
-      else if (dose.t - previous.t > CHAIN_MAX_GAP_MS) chain = [dose]
-      else if (dose.t - previous.t >= CHAIN_MIN_GAP_MS) chain.push(dose)
+  private provenChain(run: MutableRun, t: number): ChainView {
+    const settled = run.settledChain
+    const settledCount = this.doses.length - this.pending.length
+    for (; settled.next < settledCount; settled.next += 1) {
+      const dose = this.doses[settled.next]!
+      const step = this.chainStep(settled.chain[settled.chain.length - 1], dose, run, t)
+      if (step === 'reset') settled.chain = []
+      else if (step === 'restart') settled.chain = [dose]
+      else if (step === 'extend') settled.chain.push(dose)
     }
-    return chain
+    // The doses still pending, folded on top of the settled chain without touching it.
+    let prefixLength = settled.chain.length
+    let tail: MutableDose[] = []
+    for (let i = Math.max(settledCount, settled.next); i < this.doses.length; i += 1) {
+      const dose = this.doses[i]!
+      const previous = tail.length > 0 ? tail[tail.length - 1] : prefixLength > 0 ? settled.chain[prefixLength - 1] : undefined
+      const step = this.chainStep(previous, dose, run, t)
+      if (step === 'reset') {
+        prefixLength = 0
+        tail = []
+      }
+      else if (step === 'restart') {
+        prefixLength = 0
+        tail = [dose]
+      }
+      else if (step === 'extend') tail.push(dose)
+    }
+    return { prefix: settled.chain, prefixLength, tail }
+  }
+
+  /**
+   * One step of the chain's fold: what `dose`, as of `t`, does to a chain whose last dose is
+   * `previous`. Skipped: before the run, after `t`, or still open. Reset: it failed. Restart:
+   * the first proven dose, or too long after the last. Extend: the next day's proven dose.
+   * Keep: a second proven dose the same day.
+   */
+  private chainStep(previous: MutableDose | undefined, dose: MutableDose, run: MutableRun, t: number): 'skip' | 'reset' | 'restart' | 'extend' | 'keep' {
+    if (dose.t <= run.first.t || dose.t >= t) return 'skip'
+    const open = !dose.diluted && dose.clearedBy === null && t <= dose.t + this.s.windowMs
+    if (open) return 'skip'
+    if (!this.proven(dose, t)) return 'reset'
+    if (previous === undefined) return 'restart'
+    if (dose.t - previous.t > CHAIN_MAX_GAP_MS) return 'restart'
+    if (dose.t - previous.t >= CHAIN_MIN_GAP_MS) return 'extend'
+    return 'keep'
   }
 
   private animalsIn(t: number): boolean {
@@ -431,7 +501,7 @@ class CourseScan {
       && r.t - counted.first.t >= this.s.spanMs
       && this.firstRise !== null
       && nitrate - (this.nitrateLow?.nitrateN ?? 0) >= th.nitrateRiseN
-      && run.provenChain.length >= th.clearanceDays
+      && chainLength(run.provenChain) >= th.clearanceDays
   }
 
   private provesWithAnimals(counted: MutableCount | null, r: TimedReading, nitrate: number): boolean {
@@ -459,7 +529,7 @@ class CourseScan {
       completion: onHold ? null : run?.completion ?? null,
       held: onHold && run?.completion && waiting ? { completion: run.completion, by: waiting.reading, until: Math.min(...this.held.map(h => h.deadline)) } : null,
       lost: this.lost,
-      run: run ? { first: run.first, last: run.last, zeroTests: run.zeroTests, afterDose: run.afterDose, withAnimals: run.withAnimals, provenChain: run.provenChain } : null,
+      run: run ? { first: run.first, last: run.last, zeroTests: run.zeroTests, afterDose: run.afterDose, withAnimals: run.withAnimals, provenChain: chainDoses(run.provenChain) } : null,
       firstRise: this.firstRise,
       nitriteStage: this.nitriteStage,
       ammoniaFallen: this.ammoniaFallen,

@@ -33,6 +33,23 @@ export function latestNitrogen(readings: readonly TimedReading[]): TimedReading 
   return null
 }
 
+/**
+ * Where `at` stands in `readings` (in time order), or -1: a binary search to its time, then
+ * a step over the tests of the same time. A rule may ask this for every test of a window, so
+ * a scan from the start would make the verdict's cost grow with the square of the history.
+ */
+export function positionOf(readings: readonly TimedReading[], at: TimedReading): number {
+  let low = 0
+  let high = readings.length
+  while (low < high) {
+    const middle = (low + high) >>> 1
+    if (readings[middle]!.t < at.t) low = middle + 1
+    else high = middle
+  }
+  for (let i = low; i < readings.length && readings[i]!.t === at.t; i += 1) if (readings[i] === at) return i
+  return -1
+}
+
 /** Water conditions for a test, each taken from it or from the latest earlier test within `maxAgeHours`. */
 export interface Conditions {
   pH?: { value: number, from: TimedReading }
@@ -44,7 +61,7 @@ export interface Conditions {
 export function conditionsAt(readings: readonly TimedReading[], at: TimedReading, maxAgeHours: number): Conditions {
   const oldest = at.t - maxAgeHours * HOUR_MS
   const found: Conditions = {}
-  const index = readings.indexOf(at)
+  const index = positionOf(readings, at)
   // Walk back from the test itself: the nearest earlier value describes the water best.
   for (let i = index; i >= 0; i -= 1) {
     const r = readings[i]

@@ -98,6 +98,38 @@ export function tankReadings(db: Db, tankId: string, options: { range?: TimeRang
     .map(r => withTrail(r.row, r.enteredByName, r.later, r.byName))
 }
 
+/** What the rule engine reads of a reading: its times and values, nothing of who or why. */
+export const ENGINE_READING_COLUMNS = {
+  id: readings.id,
+  takenAt: readings.takenAt,
+  createdAt: readings.createdAt,
+  ammoniaN: readings.ammoniaN,
+  nitriteN: readings.nitriteN,
+  nitrateN: readings.nitrateN,
+  pH: readings.pH,
+  temperatureC: readings.temperatureC,
+  salinity: readings.salinity,
+  alkalinityDkh: readings.alkalinityDkh,
+  calciumMgL: readings.calciumMgL,
+  magnesiumMgL: readings.magnesiumMgL,
+  phosphateMgL: readings.phosphateMgL,
+}
+
+/** A current reading as the rule engine reads it. */
+export type EngineReadingRow = { [K in keyof typeof ENGINE_READING_COLUMNS]: ReadingRow[K] }
+
+/**
+ * A tank's current readings with only what the engine reads, in the order of `tankReadings` (so
+ * a signed snapshot's input is written as before). Every verdict refresh reads the whole history: leaving out the author, the
+ * correction trail and the notes makes that read several times cheaper.
+ */
+export function tankEngineReadings(db: Db, tankId: string): EngineReadingRow[] {
+  return db.select(ENGINE_READING_COLUMNS).from(readings)
+    .leftJoin(laterReading, eq(laterReading.correctsId, readings.id))
+    .where(readingFilter(tankId, {}, 'current'))
+    .orderBy(asc(readings.takenAt), asc(readings.createdAt), asc(sql`${readings}.rowid`)).all()
+}
+
 /** A tank's events, oldest first: the current ones, or every row with its trail. */
 export function tankEvents(db: Db, tankId: string, options: { range?: TimeRange, which?: Which } = {}): EventWithTrail[] {
   return eventQuery(db).where(eventFilter(tankId, options.range ?? {}, options.which ?? 'current'))

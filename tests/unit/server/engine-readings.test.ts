@@ -1,0 +1,37 @@
+/**
+ * The verdict refresh reads a tank's current readings through a lean query (`tankEngineReadings`)
+ * instead of the full rows with their trail. It must be the same rows, in the same order, with
+ * the same values as the current rows of `tankReadings`: corrected rows left out, same-minute
+ * tests in entry order.
+ */
+import { mkdtempSync, rmSync } from 'node:fs'
+import { tmpdir } from 'node:os'
+import { join } from 'node:path'
+import { afterAll, describe, expect, it } from 'vitest'
+import { migrateDatabase, openDatabase } from '../../../server/db/connection'
+import { readings } from '../../../server/db/schema'
+import { seedDemo } from '../../../server/db/seed/demo'
+import { ENGINE_READING_COLUMNS, tankEngineReadings, tankReadings } from '../../../server/domain/readings/current'
+
+const dir = mkdtempSync(join(tmpdir(), 'tidewright-engine-readings-'))
+afterAll(() => rmSync(dir, { recursive: true, force: true }))
+
+describe('the readings a verdict is made from', () => {
+  it('are the current readings of the tank, in history order, with every value the engine reads', async () => {
+    const db = openDatabase(join(dir, 'demo.sqlite'))
+    migrateDatabase(db)
+    const now = new Date()
+    const ids = await seedDemo(db, now)
+    const tankId = ids.tanks.nano
+    const [first, second] = tankReadings(db, tankId)
+    // A correction of the first reading, and two tests in the same minute entered apart.
+    db.insert(readings).values({ tankId, takenAt: first!.takenAt, ammoniaN: 0.25, nitriteN: 0, entered: {}, correctsId: first!.id, correctionReason: 'misread', createdAt: now.toISOString(), updatedAt: now.toISOString() }).run()
+    db.insert(readings).values({ tankId, takenAt: second!.takenAt, ammoniaN: 1, entered: {}, createdAt: new Date(now.getTime() + 1000).toISOString(), updatedAt: now.toISOString() }).run()
+    const full = tankReadings(db, tankId)
+    const lean = tankEngineReadings(db, tankId)
+    expect(lean.map(r => r.id)).not.toContain(first!.id)
+    const keys = Object.keys(ENGINE_READING_COLUMNS) as (keyof typeof ENGINE_READING_COLUMNS)[]
+    expect(lean).toEqual(full.map(row => Object.fromEntries(keys.map(key => [key, row[key]]))))
+    db.$client.close()
+  })
+})
