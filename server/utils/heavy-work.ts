@@ -1,7 +1,8 @@
 /**
  * The heavy-work pool: worker threads (piscina) for the work that would otherwise hold the
  * one request loop every company is served from (a 100,000-row CSV import takes seconds).
- * One thread fewer than the machine has cores, at least one, so requests keep a core.
+ * One thread fewer than the machine has cores, at least one, so requests keep a core. Its
+ * tasks: the CSV import, the evidence page's engine run and the certificate's PDF.
  *
  * Each worker entry is built beside the server (scripts/build-workers.mjs): found by
  * looking up from this chunk's own file, so a moved .output keeps working. There is no
@@ -13,6 +14,8 @@ import { dirname, join, resolve } from 'node:path'
 import { fileURLToPath } from 'node:url'
 import { Piscina } from 'piscina'
 import type { Verdict } from '#shared/cycle/types'
+import type { CertificateFacts } from './certificate'
+import type { CertificateTask } from '../workers/certificate'
 import type { ReadingImportResult, ReadingImportTask } from '../workers/reading-import'
 import type { TankVerdictTask } from '../workers/tank-verdict'
 
@@ -49,4 +52,10 @@ export function runReadingImport(task: Omit<ReadingImportTask, 'dbPath'>): Promi
 /** The engine's verdict for the tank as its data stands now, computed in the pool; null when there is no such tank. */
 export function verdictOffLoop(tankId: string, now: Date): Promise<Verdict | null> {
   return heavyPool().run({ tankId, nowMs: now.getTime(), dbPath: dbPath() } satisfies TankVerdictTask, { name: 'tankVerdict' })
+}
+
+/** The sign-off certificate's PDF bytes, rendered in the pool. */
+export async function renderCertificateOffLoop(facts: CertificateFacts): Promise<Uint8Array> {
+  const task: CertificateTask = { facts, fonts: await certificateFonts() }
+  return heavyPool().run(task, { name: 'certificatePdf' })
 }

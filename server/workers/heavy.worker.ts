@@ -4,3 +4,4 @@
  */
 export { readingImport } from './reading-import'
 export { tankVerdict } from './tank-verdict'
+export { certificatePdf } from './certificate'
