@@ -21,10 +21,10 @@ import type { TankVerdictTask } from '../workers/tank-verdict'
 
 let pool: Piscina | undefined
 
-/** The built worker file `name`.mjs, searched for in workers/ beside this file and up to four levels above it. */
+/** The built worker file `name`.mjs, searched for in workers/ beside this chunk and in the folders above it (Nitro nests chunks by route). */
 function workerFile(name: string): string {
   let dir = dirname(fileURLToPath(import.meta.url))
-  for (let i = 0; i < 5; i++) {
+  for (let i = 0; i < 10 && dirname(dir) !== dir; i++) {
     const candidate = join(dir, 'workers', `${name}.mjs`)
     if (existsSync(candidate)) return candidate
     dir = dirname(dir)
