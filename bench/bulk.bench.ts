@@ -5,6 +5,7 @@
  * database. Aim: within 2x of the floor's rows/s.
  */
 import { randomUUID } from 'node:crypto'
+import { readFileSync } from 'node:fs'
 import { join } from 'node:path'
 import { performance } from 'node:perf_hooks'
 import Database from 'better-sqlite3'
@@ -12,6 +13,13 @@ import { TESTS_PER_TANK_PER_DAY } from '../shared/readings/limits'
 import { signInCookie, type BenchServer, type Row } from './support'
 
 export const BULK_ROWS = 100_000
+
+/** Resident and peak resident memory of a process, from /proc (Linux), in MiB. */
+function memoryMiB(pid: number): { rss: number, peak: number } {
+  const status = readFileSync(`/proc/${pid}/status`, 'utf8')
+  const field = (name: string) => Number(new RegExp(`${name}:\\s+(\\d+)`).exec(status)?.[1] ?? Number.NaN) / 1024
+  return { rss: field('VmRSS'), peak: field('VmHWM') }
+}
 
 /** Spacing of the rows: 30 minutes, the most a day may hold (TESTS_PER_TANK_PER_DAY = 48), so 100,000 rows are 5.7 years. */
 const SPACING_MS = 86_400_000 / TESTS_PER_TANK_PER_DAY
@@ -64,6 +72,8 @@ export async function runBulkBench(bench: BenchServer): Promise<Row[]> {
   const floorSeconds = (performance.now() - floorStart) / 1000
   db.close()
 
+  const pid = bench.server.process.pid!
+  const before = memoryMiB(pid)
   const start = performance.now()
   const response = await fetch(`${baseURL}/api/tanks/${tankId}/readings/import`, {
     method: 'POST', headers: { cookie, 'content-type': 'application/json' },
@@ -76,6 +86,7 @@ export async function runBulkBench(bench: BenchServer): Promise<Row[]> {
   // once it is done, so the time includes it.
   await (await fetch(`${baseURL}/api/tanks/${tankId}/verdict`, { headers: { cookie } })).arrayBuffer()
   const seconds = (performance.now() - start) / 1000
+  const after = memoryMiB(pid)
   const stored = new Database(bench.dbPath, { readonly: true })
   const n = stored.prepare('select count(*) from readings where tank_id = ?').pluck().get(tankId) as number
   stored.close()
@@ -83,7 +94,7 @@ export async function runBulkBench(bench: BenchServer): Promise<Row[]> {
   const rps = BULK_ROWS / seconds
   const floorRps = BULK_ROWS / floorSeconds
   return [{
-    area: 'Bulk', name: `CSV import of ${BULK_ROWS.toLocaleString('en')} readings (${(csv.length / 1e6).toFixed(1)} MB): answered in ${answeredSeconds.toFixed(1)} s, verdict refreshed at ${seconds.toFixed(1)} s`, value: rps, unit: 'rows/s',
+    area: 'Bulk', name: `CSV import of ${BULK_ROWS.toLocaleString('en')} readings (${(csv.length / 1e6).toFixed(1)} MB): answered in ${answeredSeconds.toFixed(1)} s, verdict refreshed at ${seconds.toFixed(1)} s; server RSS ${before.rss.toFixed(0)} MiB before, ${after.rss.toFixed(0)} after, peak ${after.peak.toFixed(0)} (${before.peak.toFixed(0)} before)`, value: rps, unit: 'rows/s',
     reference: { name: `raw insert loop, one transaction ${floorRps.toFixed(0)} rows/s`, value: floorRps },
     ratio: floorRps / rps, aim: '<= 2.0 (slowdown)',
   }]
