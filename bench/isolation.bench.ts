@@ -40,7 +40,7 @@ async function readLoop(url: string, cookie: string, until: () => boolean): Prom
   return result
 }
 
-const describe = (l: Latencies) => `p50 ${percentile(l.ms, 0.5).toFixed(1)} ms, p99 ${percentile(l.ms, 0.99).toFixed(1)} ms, ${l.ms.length} requests, ${l.failed} failed`
+const describe = (l: Latencies) => `p50 ${percentile(l.ms, 0.5).toFixed(1)} ms, p99 ${percentile(l.ms, 0.99).toFixed(1)} ms, max ${(l.ms.at(-1) ?? Number.NaN).toFixed(0)} ms, ${l.ms.length} requests, ${l.failed} failed`
 
 export async function runIsolationBench(bench: BenchServer, seconds: number): Promise<Row[]> {
   const { baseURL } = bench.server

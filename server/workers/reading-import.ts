@@ -13,6 +13,7 @@ import { capPerDay, planDays, planImport, toPreview, type ImportPlan } from '../
 import type { KitBasisChoice } from '../../shared/readings/entry'
 import type { ReadingImportInput } from '../../shared/schemas/reading'
 import type { ImportPreview } from '../../shared/types/readings'
+import type { MeasuredField } from '../../shared/vocabulary'
 import type { TidewrightDB } from '../db/connection'
 import { recordAudit } from '../domain/audit/record'
 import { testsPerDay } from '../domain/readings/day-cap'
@@ -66,10 +67,11 @@ export function readingImport(task: ReadingImportTask): ReadingImportResult {
     // nobody writes until this commits.
     const plan = capped(db, task.tankId, outcome.plan)
     let inserted = 0
-    for (const { reading, key } of plan.rows) {
-      const v = reading.values
-      inserted += insert.run(randomUUID(), task.tankId, reading.takenAt, task.actor.id, v.ammoniaN, v.nitriteN, v.nitrateN, v.pH, v.temperatureC, v.salinity,
-        v.alkalinityDkh, v.calciumMgL, v.magnesiumMgL, v.phosphateMgL, reading.notes, JSON.stringify({ ...reading.entered, source: 'csv' }), key, stamp, stamp).changes
+    const rows = plan.rows
+    for (let i = 0; i < rows.length; i++) {
+      const v = (field: MeasuredField) => rows.value(i, field)
+      inserted += insert.run(randomUUID(), task.tankId, rows.takenAt[i], task.actor.id, v('ammoniaN'), v('nitriteN'), v('nitrateN'), v('pH'), v('temperatureC'), v('salinity'),
+        v('alkalinityDkh'), v('calciumMgL'), v('magnesiumMgL'), v('phosphateMgL'), rows.notes[i], rows.entered[i], rows.key[i], stamp, stamp).changes
     }
     // Same transaction: the rows and their audit line commit together or not at all.
     recordAudit(db, task.actor, { action: 'reading.import', entity: 'tank', entityId: task.tankId, after: { rows: plan.rowCount, inserted, skipped: plan.rowCount - inserted, errors: plan.errors.length } })

@@ -29,7 +29,7 @@ describe('tests per day', () => {
     const plan = planOf(hourly(24, Date.parse('2026-03-10T00:00:00Z')))
     expect(planDays(plan)).toEqual({ first: '2026-03-10', last: '2026-03-10' })
     const capped = capPerDay(plan, new Map([['2026-03-10', TESTS_PER_TANK_PER_DAY - 3]]))
-    expect(capped.rows.map(r => r.row)).toEqual([2, 3, 4])
+    expect(capped.rows.line).toEqual([2, 3, 4])
     expect(capped.errorCount).toBe(21)
     expect(capped.errors[0]).toMatchObject({ row: 5, field: 'takenAt' })
     expect(capped.errors[0]!.message).toContain('2026-03-10')
@@ -38,7 +38,10 @@ describe('tests per day', () => {
   it('counts each day on its own', () => {
     const plan = planOf(hourly(48, Date.parse('2026-03-10T00:00:00Z')))
     const capped = capPerDay(plan, new Map([['2026-03-10', TESTS_PER_TANK_PER_DAY]]))
-    expect(capped.rows.every(r => r.reading.takenAt.startsWith('2026-03-11'))).toBe(true)
-    expect(capped.rows).toHaveLength(24)
+    expect(capped.rows.takenAt.every(t => t.startsWith('2026-03-11'))).toBe(true)
+    expect(capped.rows.length).toBe(24)
+    // The columns keep each row's values with it.
+    expect(capped.rows.valuesOf(0).ammoniaN).toBe(plan.rows.valuesOf(24).ammoniaN)
+    expect(capped.rows.value(0, 'nitriteN')).toBeNull()
   })
 })
