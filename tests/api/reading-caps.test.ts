@@ -6,7 +6,8 @@
  * today), a file that is too long 413.
  */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
-import { MAX_IMPORT_ROWS, TESTS_PER_TANK_PER_DAY } from '../../shared/readings/limits'
+import { EVIDENCE_PAGE_SIZE, MAX_IMPORT_ROWS, TESTS_PER_TANK_PER_DAY } from '../../shared/readings/limits'
+import type { Evidence } from '../../shared/types/sign-off'
 import { queryFile } from '../support/db-checksum'
 import { ApiClient } from '../support/http'
 import { startOwnServer, type OwnServer } from '../support/own-server'
@@ -144,5 +145,26 @@ describe('rows per import', () => {
       expect(refused.body.message).toContain('Split it into smaller files')
     }
     expect(queryFile<{ n: number }>(own.dbPath, 'select count(*) as n from readings where tank_id = ?', tank)[0]!.n).toBe(0)
+  })
+})
+
+describe('the evidence answer', () => {
+  it('carries a page of readings, newest first by page and oldest first within it, with the total', async () => {
+    const tank = await newTank('Long history evidence reef')
+    const total = EVIDENCE_PAGE_SIZE + 150
+    const start = Date.parse('2025-01-01T00:00:00Z')
+    const rows = Array.from({ length: total }, (_, i) => `${new Date(start + i * 3_600_000).toISOString()},0.25,0.1,${i % 40}`)
+    const imported = await api.post(`/api/tanks/${tank}/readings/import`, { csv: `takenAt,ammonia,nitrite,nitrate\n${rows.join('\n')}`, dryRun: false })
+    expect(imported.body.inserted).toBe(total)
+    const first = await api.get<Evidence>(`/api/tanks/${tank}/evidence`)
+    expect(first.status).toBe(200)
+    expect(first.body.readingsTotal).toBe(total)
+    expect(first.body.readings).toHaveLength(EVIDENCE_PAGE_SIZE)
+    expect(first.body.readings.at(-1)!.takenAt).toBe(new Date(start + (total - 1) * 3_600_000).toISOString())
+    expect(Date.parse(first.body.readings[0]!.takenAt)).toBeLessThan(Date.parse(first.body.readings[1]!.takenAt))
+    const second = await api.get<Evidence>(`/api/tanks/${tank}/evidence?page=2`)
+    expect(second.body.readings).toHaveLength(150)
+    expect(second.body.readings[0]!.takenAt).toBe(new Date(start).toISOString())
+    expect((await api.get(`/api/tanks/${tank}/evidence?page=0`)).status).toBe(400)
   })
 })
