@@ -116,7 +116,8 @@ export interface HistoryPage {
 export function readingHistoryPage(db: Db, tankId: string, range: TimeRange, page: HistoryPage): { rows: ReadingWithTrail[], total: number } {
   const where = readingFilter(tankId, range, 'all')
   const by = page.dir === 'asc' ? asc : desc
-  const rows = readingQuery(db).where(where).orderBy(by(page.sort), by(readings.id))
+  // Ties in the sort column fall in entry order, as in tankReadings (so a page reversed reads as the full list does).
+  const rows = readingQuery(db).where(where).orderBy(by(page.sort), by(readings.createdAt), by(sql`${readings}.rowid`))
     .limit(page.pageSize).offset((page.page - 1) * page.pageSize).all()
   return { rows: rows.map(r => withTrail(r.row, r.enteredByName, r.later, r.byName)), total: countOf(db, readings, where) }
 }
@@ -125,7 +126,8 @@ export function readingHistoryPage(db: Db, tankId: string, range: TimeRange, pag
 export function eventHistoryPage(db: Db, tankId: string, range: TimeRange, page: HistoryPage): { rows: EventWithTrail[], total: number } {
   const where = eventFilter(tankId, range, 'all')
   const by = page.dir === 'asc' ? asc : desc
-  const rows = eventQuery(db).where(where).orderBy(by(page.sort), by(events.id))
+  // Ties in the sort column fall in entry order, as in tankEvents.
+  const rows = eventQuery(db).where(where).orderBy(by(page.sort), by(events.createdAt), by(sql`${events}.rowid`))
     .limit(page.pageSize).offset((page.page - 1) * page.pageSize).all()
   return { rows: rows.map(r => withTrail(r.row, r.enteredByName, r.later, r.byName)), total: countOf(db, events, where) }
 }
