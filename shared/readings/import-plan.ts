@@ -63,7 +63,9 @@ export class ImportRows {
 
   /** The canonical values of row i. */
   valuesOf(i: number): CanonicalValues {
-    return Object.fromEntries(MEASURED_FIELDS.map(field => [field, this.value(i, field)])) as CanonicalValues
+    const values = {} as Record<MeasuredField, number | null>
+    for (const field of MEASURED_FIELDS) values[field] = this.value(i, field)
+    return values
   }
 
   /** The rows `keep` says yes to, in order. */
