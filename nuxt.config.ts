@@ -1,6 +1,8 @@
 // Tidewright's Nuxt configuration. Runtime values are overridden by NUXT_* environment
 // variables (NUXT_DB_PATH, NUXT_SESSION_PASSWORD, ...); see README.md.
+import { join } from 'node:path'
 import { fileURLToPath } from 'node:url'
+import { buildWorkers } from './scripts/build-workers.mjs'
 
 export default defineNuxtConfig({
   modules: ['@nuxtjs/tailwindcss', '@pinia/nuxt', '@vueuse/nuxt', 'nuxt-auth-utils', 'nuxt-security'],
@@ -75,6 +77,13 @@ export default defineNuxtConfig({
     }],
   },
   typescript: { strict: true, typeCheck: false },
+  hooks: {
+    // Worker-thread entries (server/workers/) are bundled beside the server once Nitro has
+    // built it: see scripts/build-workers.mjs and server/utils/heavy-work.ts.
+    'nitro:build:before': (nitro) => {
+      nitro.hooks.hook('compiled', () => buildWorkers(nitro.options.rootDir, nitro.options.dev ? join(nitro.options.buildDir, 'dev') : nitro.options.output.serverDir))
+    },
+  },
   security: {
     nonce: true,
     headers: {

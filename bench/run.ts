@@ -3,7 +3,7 @@
  * the reference it is compared with, measured in the same run on this machine, and the
  * ratio. Nothing here asserts a time; the table is for people (and README's figures).
  * Loopback only. BENCH_SECONDS (default 4) sets the length of each API case;
- * BENCH_ONLY=api,bulk,engine,frontend,backtest runs a subset (backtest: the completion
+ * BENCH_ONLY=api,bulk,isolation,engine,frontend,backtest runs a subset (backtest: the completion
  * forecast's hit rate and median error, the same figures as npm run backtest).
  */
 import { existsSync } from 'node:fs'
@@ -14,11 +14,12 @@ import { runBacktest, summarise } from './backtest'
 import { runBulkBench } from './bulk.bench'
 import { runEngineBench } from './engine.bench'
 import { runFrontendBench } from './frontend.bench'
+import { runIsolationBench } from './isolation.bench'
 import { startBenchServer, type Row } from './support'
 import { buildIsStale } from '../scripts/build-state.mjs'
 
 const SECONDS = Number(process.env.BENCH_SECONDS ?? 4)
-const ONLY = new Set((process.env.BENCH_ONLY ?? 'api,bulk,engine,frontend,backtest').split(','))
+const ONLY = new Set((process.env.BENCH_ONLY ?? 'api,bulk,isolation,engine,frontend,backtest').split(','))
 
 function fmt(n: number): string {
   if (!Number.isFinite(n)) return 'n/a'
@@ -66,6 +67,15 @@ async function main() {
     const bench = await startBenchServer()
     try {
       rows.push(...await runBulkBench(bench))
+    }
+    finally {
+      await bench.stop()
+    }
+  }
+  if (ONLY.has('isolation')) {
+    const bench = await startBenchServer()
+    try {
+      rows.push(...await runIsolationBench(bench, SECONDS))
     }
     finally {
       await bench.stop()

@@ -62,10 +62,11 @@ async function timed(url: string, cookie: string, runs: number): Promise<{ ms: n
   return { ms: median(times), bytes: Buffer.byteLength(body), body }
 }
 
+// 40 minutes apart (36 a day): room under TESTS_PER_TANK_PER_DAY beside the tank's own tests.
 function importCsv(rows: number, now: number): string {
   const lines = ['taken_at,ammonia_mg_l_n,nitrite_mg_l_n,nitrate_mg_l_n,ph,temperature_c,salinity_practical,notes']
   for (let i = 0; i < rows; i++) {
-    lines.push(`${new Date(now - (rows - i) * 600_000).toISOString()},${(i % 9) / 10},${(i % 7) / 10},${i % 30},8.${i % 4},25.${i % 9},35.${i % 3},bench ${i}`)
+    lines.push(`${new Date(now - (rows - i) * 2_400_000).toISOString()},${(i % 9) / 10},${(i % 7) / 10},${i % 30},8.${i % 4},25.${i % 9},35.${i % 3},bench ${i}`)
   }
   return `${lines.join('\n')}\n`
 }

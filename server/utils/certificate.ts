@@ -126,19 +126,21 @@ class Writer {
   }
 }
 
-/** Loads one face of Source Sans 3 from the bundled server assets. */
-async function fontBytes(weight: 400 | 700): Promise<Uint8Array> {
-  const raw = await useStorage('assets:fonts').getItemRaw(`source-sans-3-latin-${weight}-normal.woff`)
-  if (!raw) throw createError({ statusCode: 500, statusMessage: 'Certificate font missing from the build' })
-  return raw instanceof Uint8Array ? raw : new Uint8Array(raw as ArrayBuffer)
+/** The two faces of Source Sans 3 the certificate is set in (server/utils/certificate-fonts.ts loads them). */
+export interface CertificateFonts {
+  regular: Uint8Array
+  bold: Uint8Array
 }
 
-/** Renders the certificate; returns the PDF bytes. */
-export async function renderCertificate(facts: CertificateFacts): Promise<Uint8Array> {
+/**
+ * Renders the certificate; returns the PDF bytes. Framework-free, so the heavy-work pool
+ * runs it off the request loop (server/workers/certificate.ts).
+ */
+export async function renderCertificate(facts: CertificateFacts, fonts: CertificateFonts): Promise<Uint8Array> {
   const doc = await PDFDocument.create()
   doc.registerFontkit(fontkit)
-  const regular = await doc.embedFont(await fontBytes(400), { subset: true })
-  const bold = await doc.embedFont(await fontBytes(700), { subset: true })
+  const regular = await doc.embedFont(fonts.regular, { subset: true })
+  const bold = await doc.embedFont(fonts.bold, { subset: true })
   doc.setTitle(`Cycle sign-off certificate — ${facts.tankName}`)
   doc.setAuthor(facts.company)
   doc.setCreator('Tidewright')

@@ -88,3 +88,8 @@ export const VERIFICATION_CODE_PATTERN = /^TW(?:-[0-9A-HJKMNP-TV-Z]{4}){6}$/
 export const VerifyParams = v.object({
   code: v.pipe(v.string(), v.trim(), v.toUpperCase(), v.regex(VERIFICATION_CODE_PATTERN, 'Not a Tidewright verification code.')),
 })
+
+/** GET /api/tanks/:id/evidence query: which page of readings and events (1, the default: the newest). */
+export const EvidenceQuerySchema = v.object({
+  page: v.optional(v.pipe(v.string(), v.toNumber('Page must be a number.'), v.integer('Page must be a whole number.'), v.minValue(1, 'Page starts at 1.'), v.maxValue(1_000_000, 'Page is too large.')), '1'),
+})

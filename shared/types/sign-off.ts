@@ -191,6 +191,11 @@ export interface Evidence {
   verdict: Verdict
   evaluatedAt: string
   overrideGrounds: string[]
+  /** Readings and events come a page at a time: page 1 holds the newest `pageSize` of each, oldest first. */
+  page: number
+  pageSize: number
+  readingsTotal: number
+  eventsTotal: number
   readings: EvidenceReading[]
   events: EvidenceEvent[]
   stages: EvidenceStage[]

@@ -40,11 +40,14 @@ function runScript(script: string, args: string[], env: Record<string, string>):
 function startWriters(count: number) {
   let running = true
   let acknowledged = 0
+  // Half an hour apart across all writers, back from an hour ago: no day holds more tests
+  // than TESTS_PER_TANK_PER_DAY, however long the load runs.
+  let slot = 0
   const loops = Array.from({ length: count }, async (_, w) => {
     const api = await new ApiClient(own.server.baseURL).signIn(w % 2 ? 'client@tidewright.test' : 'aquarist@tidewright.test')
     const tank = w % 2 ? own.fixtures.demo.tanks.lounge : own.fixtures.demo.tanks.study
     for (let i = 0; running; i++) {
-      const response = await api.post(`/api/tanks/${tank}/readings`, { ...READING_BODY(), notes: `backup-load w${w} n${i}` })
+      const response = await api.post(`/api/tanks/${tank}/readings`, { ...READING_BODY(), takenAt: new Date(Date.now() - 3_600_000 - slot++ * 1_800_000).toISOString(), notes: `backup-load w${w} n${i}` })
       if (response.status === 201) acknowledged++
       else throw new Error(`write load got ${response.status}`)
     }

@@ -23,8 +23,9 @@ describe('the write-ahead log after a big import', () => {
   it('is checkpointed and cut back by the clocked jobs', async () => {
     const api = await new ApiClient(own.server.baseURL).signIn('aquarist@tidewright.test')
     const tank = own.fixtures.demo.tanks.lobby
-    const start = Date.parse('2025-01-01T00:00:00Z')
-    const rows = Array.from({ length: 60_000 }, (_, i) => `${new Date(start + i * 600_000).toISOString()},0.25,0.1,${i % 50},wal housekeeping row ${i}`).join('\n')
+    // Half an hour apart: 48 a day, the most one day may hold (TESTS_PER_TANK_PER_DAY).
+    const start = Date.parse('2022-01-01T00:00:00Z')
+    const rows = Array.from({ length: 60_000 }, (_, i) => `${new Date(start + i * 1_800_000).toISOString()},0.25,0.1,${i % 50},wal housekeeping row ${i}`).join('\n')
     const imported = await api.post(`/api/tanks/${tank}/readings/import`, { csv: `takenAt,ammonia,nitrite,nitrate,notes\n${rows}`, dryRun: false })
     expect(imported.status).toBe(200)
     const afterImport = walBytes()

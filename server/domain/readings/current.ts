@@ -159,7 +159,8 @@ function prepareReadingPage(db: Db, sort: AnySQLiteColumn, dir: 'asc' | 'desc', 
   const where = and(...conditions)
   const by = dir === 'asc' ? asc : desc
   return {
-    page: readingQuery(db).where(where).orderBy(by(sort), by(readings.id))
+    // Ties in the sort column fall in entry order, as in tankReadings (so a page reversed reads as the full list does).
+    page: readingQuery(db).where(where).orderBy(by(sort), by(readings.createdAt), by(sql`${readings}.rowid`))
       .limit(sql.placeholder('limit')).offset(sql.placeholder('offset')).prepare(),
     count: db.select({ n: count() }).from(readings).where(where).prepare(),
   }
@@ -185,7 +186,8 @@ export function readingHistoryPage(db: Db, tankId: string, range: TimeRange, pag
 export function eventHistoryPage(db: Db, tankId: string, range: TimeRange, page: HistoryPage): { rows: EventWithTrail[], total: number } {
   const where = eventFilter(tankId, range, 'all')
   const by = page.dir === 'asc' ? asc : desc
-  const rows = eventQuery(db).where(where).orderBy(by(page.sort), by(events.id))
+  // Ties in the sort column fall in entry order, as in tankEvents.
+  const rows = eventQuery(db).where(where).orderBy(by(page.sort), by(events.createdAt), by(sql`${events}.rowid`))
     .limit(page.pageSize).offset((page.page - 1) * page.pageSize).all()
   return { rows: rows.map(r => withTrail(r.row, r.enteredByName, r.later, r.byName)), total: countOf(db, events, where) }
 }

@@ -33,7 +33,7 @@ export default defineEventHandler(async (event) => {
   const snapshot = signOff.snapshot
   // Printed from the snapshot taken at the decision, never from the tank as it is now.
   const facts = snapshot.facts ?? legacyFacts(actor, tank, signOff.decidedBy)
-  const pdf = await renderCertificate({
+  const pdf = await renderCertificateOffLoop({
     ...facts,
     volumeLitres: facts.volumeLitres + facts.sumpLitres,
     requestedAt: signOff.requestedAt,

@@ -8,7 +8,8 @@ import { readingColumns } from '#server/domain/readings/columns'
 /**
  * PATCH /api/tanks/:id/readings/:readingId — corrects a reading: the given fields replace
  * what was typed (null clears one), the rest is kept. Clients may fix their own entries
- * for 24 h; older changes are staff's. Returns ReadingSaved.
+ * for 24 h; older changes are staff's. 429 when the edit moves the test into a day that
+ * already holds TESTS_PER_TANK_PER_DAY tests. Returns ReadingSaved.
  */
 export default defineEventHandler(async (event): Promise<ReadingSaved> => {
   const actor = await requireActor(event, ENTRY_ROLES)
@@ -25,6 +26,8 @@ export default defineEventHandler(async (event): Promise<ReadingSaved> => {
   const db = useDB()
   const row = db.transaction(() => {
     const updated = db.update(readings).set(readingColumns(result.reading)).where(eq(readings.id, existing.id)).returning().get()
+    // Moved to another day: that day must have room. Staying on its day never raises the count.
+    if (updated.takenAt.slice(0, 10) !== existing.takenAt.slice(0, 10)) assertDayNotOverfull(event, db, tank.id, updated.takenAt)
     writeAudit(actor, { action: 'reading.update', entity: 'reading', entityId: existing.id, before: existing, after: updated })
     return updated
   })

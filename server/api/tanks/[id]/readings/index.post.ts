@@ -9,7 +9,8 @@ import { readingColumns } from '#server/domain/readings/columns'
 /**
  * POST /api/tanks/:id/readings — records one test session in canonical units and
  * re-evaluates the tank. Values outside physical bounds are 400 per field; alarming ones
- * are stored and returned in `flags`. Returns ReadingSaved (201).
+ * are stored and returned in `flags`. 429 when the test's day already holds
+ * TESTS_PER_TANK_PER_DAY tests. Returns ReadingSaved (201).
  */
 export default defineEventHandler(async (event): Promise<ReadingSaved> => {
   const actor = await requireActor(event, ENTRY_ROLES)
@@ -22,6 +23,7 @@ export default defineEventHandler(async (event): Promise<ReadingSaved> => {
   const db = useDB()
   const row = db.transaction(() => {
     const inserted = db.insert(readings).values({ tankId: tank.id, enteredBy: actor.id, ...readingColumns(result.reading) }).returning().get()
+    assertDayNotOverfull(event, db, tank.id, inserted.takenAt)
     if (input.photoUploadId && !attachTestPhoto(tank, inserted.id, input.photoUploadId)) {
       fieldError([{ field: 'photoUploadId', message: 'That photo was not found for this tank.' }])
     }

@@ -1,0 +1,30 @@
+/**
+ * How many current tests a tank holds per calendar day (UTC), for the cap in
+ * shared/readings/limits.ts. A current test is a reading no correction has replaced, so a
+ * correction never changes a day's count. Framework-free: takes a `Db` (the connection or
+ * a transaction, so a write and its check see the same rows) and runs in the import worker
+ * as well as in the server.
+ */
+import { sql } from 'drizzle-orm'
+import type { Db } from '#server/db/connection'
+
+/** The day after a YYYY-MM-DD day, as YYYY-MM-DD. */
+function nextDay(day: string): string {
+  return new Date(Date.parse(`${day}T00:00:00Z`) + 86_400_000).toISOString().slice(0, 10)
+}
+
+/** Current tests per day on the tank, for the days from `first` to `last` (inclusive). */
+export function testsPerDay(db: Db, tankId: string, first: string, last: string): Map<string, number> {
+  const rows = db.all<{ day: string, n: number }>(sql`
+    select substr(r.taken_at, 1, 10) as day, count(*) as n from readings r
+    where r.tank_id = ${tankId} and r.taken_at >= ${first} and r.taken_at < ${nextDay(last)}
+      and not exists (select 1 from readings l where l.corrects_id = r.id)
+    group by day`)
+  return new Map(rows.map(r => [r.day, r.n]))
+}
+
+/** Current tests the tank holds on the day of `takenAt`. */
+export function testsOnDayOf(db: Db, tankId: string, takenAt: string): number {
+  const day = takenAt.slice(0, 10)
+  return testsPerDay(db, tankId, day, day).get(day) ?? 0
+}

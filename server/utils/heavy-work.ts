@@ -1,0 +1,61 @@
+/**
+ * The heavy-work pool: worker threads (piscina) for the work that would otherwise hold the
+ * one request loop every company is served from (a 100,000-row CSV import takes seconds).
+ * One thread fewer than the machine has cores, at least one, so requests keep a core. Its
+ * tasks: the CSV import, the evidence page's engine run and the certificate's PDF.
+ *
+ * Each worker entry is built beside the server (scripts/build-workers.mjs): found by
+ * looking up from this chunk's own file, so a moved .output keeps working. There is no
+ * in-process fallback: a build without its workers fails loudly on the first import.
+ */
+import { existsSync } from 'node:fs'
+import { availableParallelism } from 'node:os'
+import { dirname, join, resolve } from 'node:path'
+import { fileURLToPath } from 'node:url'
+import { Piscina } from 'piscina'
+import type { Verdict } from '#shared/cycle/types'
+import type { CertificateFacts } from './certificate'
+import type { CertificateTask } from '#server/workers/certificate'
+import type { ReadingImportResult, ReadingImportTask } from '#server/workers/reading-import'
+import type { TankVerdictTask } from '#server/workers/tank-verdict'
+
+let pool: Piscina | undefined
+
+/** The built worker file `name`.mjs, searched for in workers/ beside this chunk and in the folders above it (Nitro nests chunks by route). */
+function workerFile(name: string): string {
+  let dir = dirname(fileURLToPath(import.meta.url))
+  for (let i = 0; i < 10 && dirname(dir) !== dir; i++) {
+    const candidate = join(dir, 'workers', `${name}.mjs`)
+    if (existsSync(candidate)) return candidate
+    dir = dirname(dir)
+  }
+  throw new Error(`The worker ${name}.mjs was not built beside the server (run nuxt build).`)
+}
+
+function heavyPool(): Piscina {
+  pool ??= new Piscina({
+    filename: workerFile('heavy.worker'),
+    maxThreads: Math.max(1, availableParallelism() - 1),
+    minThreads: 1,
+    idleTimeout: 60_000,
+  })
+  return pool
+}
+
+const dbPath = () => resolve(useRuntimeConfig().dbPath)
+
+/** Runs a CSV import (plan, day caps, write and audit line) in the pool; see server/workers/reading-import.ts. */
+export function runReadingImport(task: Omit<ReadingImportTask, 'dbPath'>): Promise<ReadingImportResult> {
+  return heavyPool().run({ ...task, dbPath: dbPath() } satisfies ReadingImportTask, { name: 'readingImport' })
+}
+
+/** The engine's verdict for the tank as its data stands now, computed in the pool; null when there is no such tank. */
+export function verdictOffLoop(tankId: string, now: Date): Promise<Verdict | null> {
+  return heavyPool().run({ tankId, nowMs: now.getTime(), dbPath: dbPath() } satisfies TankVerdictTask, { name: 'tankVerdict' })
+}
+
+/** The sign-off certificate's PDF bytes, rendered in the pool. */
+export async function renderCertificateOffLoop(facts: CertificateFacts): Promise<Uint8Array> {
+  const task: CertificateTask = { facts, fonts: await certificateFonts() }
+  return heavyPool().run(task, { name: 'certificatePdf' })
+}

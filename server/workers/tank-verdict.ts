@@ -1,0 +1,22 @@
+/**
+ * The engine's verdict for a tank as its data stands, computed in a worker thread: over
+ * years of imported tests the engine takes long enough that running it on the request
+ * loop (as the evidence page does on every load) would hold up every other company.
+ * Calls the same framework-free pieces the server does: cycleInputFor and evaluateCycle.
+ */
+import { evaluateCycle } from '#shared/cycle/engine'
+import type { Verdict } from '#shared/cycle/types'
+import { cycleInputFor } from '#server/db/verdicts'
+import { workerConnection } from './connection'
+
+export interface TankVerdictTask {
+  dbPath: string
+  tankId: string
+  nowMs: number
+}
+
+/** The verdict, or null when there is no such tank. */
+export function tankVerdict(task: TankVerdictTask): Verdict | null {
+  const input = cycleInputFor(workerConnection(task.dbPath), task.tankId, new Date(task.nowMs))
+  return input ? evaluateCycle(input) : null
+}
