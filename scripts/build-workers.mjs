@@ -22,8 +22,8 @@ export async function buildWorkers(rootDir, outDir) {
     format: 'esm',
     target: 'node20',
     external: ['better-sqlite3'],
-    // The shared code's own alias, as Nuxt resolves it.
-    alias: { '#shared': join(rootDir, 'shared') },
+    // The project's own aliases, as Nuxt resolves them.
+    alias: { '#shared': join(rootDir, 'shared'), '#server': join(rootDir, 'server') },
     // Some bundled CommonJS (papaparse) calls require(); give ESM output one.
     banner: { js: 'import { createRequire as __twCreateRequire } from \'node:module\'; const require = __twCreateRequire(import.meta.url);' },
     logLevel: 'warning',

@@ -17,6 +17,7 @@ import type { MeasuredField } from '#shared/vocabulary'
 import type { TidewrightDB } from '#server/db/connection'
 import { recordAudit } from '#server/domain/audit/record'
 import { testsPerDay } from '#server/domain/readings/day-cap'
+import { lockedUntil } from '#server/domain/sign-off/lock'
 import { workerConnection } from './connection'
 
 export interface ReadingImportTask {
@@ -34,6 +35,8 @@ export type ReadingImportResult
   = | { kind: 'done', preview: ImportPreview }
     | { kind: 'field-issues', issues: { field: string, message: string }[] }
     | { kind: 'too-many-rows' }
+    /** A sign-off was approved (or reopened) after the request read the boundary: nothing written. */
+    | { kind: 'lock-moved' }
 
 const INSERT_SQL = `INSERT INTO readings (id, tank_id, taken_at, entered_by, ammonia_n, nitrite_n, nitrate_n, ph, temperature_c, salinity,
   alkalinity_dkh, calcium_mg_l, magnesium_mg_l, phosphate_mg_l, notes, entered, import_key, created_at, updated_at)
@@ -65,6 +68,10 @@ export function readingImport(task: ReadingImportTask): ReadingImportResult {
   const write = sqlite.transaction(() => {
     // Counted inside the write lock: what other writers committed before is seen, and
     // nobody writes until this commits.
+    // The boundary was read on the request loop before the file came here; a sign-off decided
+    // since would let the plan write into what the supervisor has just signed.
+    const lockedNow = lockedUntil(db, task.tankId)
+    if ((lockedNow === null ? null : Date.parse(lockedNow)) !== task.lockedMs) return null
     const plan = capped(db, task.tankId, outcome.plan)
     let inserted = 0
     const rows = plan.rows
@@ -77,6 +84,8 @@ export function readingImport(task: ReadingImportTask): ReadingImportResult {
     recordAudit(db, task.actor, { action: 'reading.import', entity: 'tank', entityId: task.tankId, after: { rows: plan.rowCount, inserted, skipped: plan.rowCount - inserted, errors: plan.errors.length } })
     return { plan, inserted }
   })
-  const { plan, inserted } = write.immediate()
+  const written = write.immediate()
+  if (!written) return { kind: 'lock-moved' }
+  const { plan, inserted } = written
   return { kind: 'done', preview: toPreview(plan, false, inserted) }
 }

@@ -31,6 +31,10 @@ export default defineEventHandler(async (event): Promise<ImportPreview> => {
     const message = importTooLargeMessage()
     throw createError({ statusCode: 413, statusMessage: message, message })
   }
+  if (result.kind === 'lock-moved') {
+    const message = 'The tank was signed off while the file was being read, so nothing was imported. Import it again: tests inside the signed period will be refused row by row.'
+    throw createError({ statusCode: 409, statusMessage: message, message })
+  }
   if (result.kind === 'field-issues') fieldError(result.issues)
   const { preview } = result
   // One verdict refresh for the whole file, run as soon as the answer has been handed to the socket.
