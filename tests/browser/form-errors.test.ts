@@ -125,7 +125,7 @@ describe('the daily test form', () => {
     await form.getByLabel('pH').fill('8.2')
     await expect.poll(() => rangeMessage.count()).toBe(0)
     await form.getByRole('button', { name: 'Save correction' }).click()
-    await expect.poll(() => page.getByRole('status').filter({ hasText: 'Reading corrected.' }).count()).toBe(1)
+    await expect.poll(() => page.getByRole('status').filter({ hasText: 'Test corrected.' }).count()).toBe(1)
     await expect.poll(() => page.getByRole('row').filter({ hasText: '34.5' }).count()).toBeGreaterThan(0)
     expect(problems).toEqual([])
     await context.close()
