@@ -60,8 +60,18 @@ export default defineNuxtConfig({
       baseUrl: 'http://localhost:3000',
     },
   },
+  experimental: {
+    // A link's page is fetched when the pointer or focus reaches it, not when it scrolls into
+    // view: the attention board lists every tank, and prefetching each tank page ran the whole
+    // tank page's script (charts and forms) on a board that shows none of it.
+    defaults: { nuxtLink: { prefetchOn: { visibility: false, interaction: true } } },
+  },
   compatibilityDate: '2025-07-15',
   nitro: {
+    // Scripts, styles and fonts are stored beside a Brotli and a gzip copy at build time and
+    // served by Accept-Encoding; pages and JSON are compressed per answer
+    // (server/plugins/20.response-compression.ts).
+    compressPublicAssets: { gzip: true, brotli: true },
     // Uploaded files: never under public/, served only through /api/uploads/:id after an access check.
     // The directory comes from NUXT_UPLOADS_DIR at start; S3-compatible storage: DEVELOPERS.md, "Uploads".
     storage: {
@@ -75,6 +85,14 @@ export default defineNuxtConfig({
     }],
   },
   typescript: { strict: true, typeCheck: false },
+  hooks: {
+    // No <link rel="prefetch"> for every lazy chunk of the app (about forty on each page): on a
+    // phone's connection they competed with the page's own files. A lazy chunk is fetched when
+    // its component is shown, a page's chunks when a link to it is touched (experimental.defaults).
+    'build:manifest': (manifest) => {
+      for (const chunk of Object.values(manifest)) chunk.prefetch = false
+    },
+  },
   security: {
     nonce: true,
     headers: {
