@@ -18,7 +18,8 @@ export default defineNuxtConfig({
       link: [{ rel: 'icon', type: 'image/svg+xml', href: '/favicon.svg' }],
     },
   },
-  css: ['@fontsource/source-sans-3/400.css', '@fontsource/source-sans-3/600.css', '@fontsource/source-sans-3/700.css', '~/assets/css/main.css', '~/assets/css/print.css'],
+  // fonts.css: the three faces in Latin subsets only, with a metric-matched fallback (no reflow on swap).
+  css: ['~/assets/css/fonts.css', '~/assets/css/main.css', '~/assets/css/print.css'],
   runtimeConfig: {
     dbPath: 'data/tidewright.sqlite',
     /** Where uploaded photos and PDFs are kept by the fs driver (NUXT_UPLOADS_DIR). */

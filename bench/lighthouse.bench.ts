@@ -17,7 +17,7 @@ const RUNS = Math.max(1, Number(process.env.LIGHTHOUSE_RUNS ?? 3))
 interface PageCase { name: string, path: string, as?: string }
 type LighthouseResult = NonNullable<Awaited<ReturnType<typeof lighthouse>>>['lhr']
 
-/** One Lighthouse run; a run whose trace came back broken (it happens under load) is tried once more. */
+/** One Lighthouse run; a run whose trace came back broken (it happens under load) is tried up to twice more. */
 async function measure(port: number, url: string, cookie: string | undefined, attempt = 1): Promise<LighthouseResult> {
   const result = await lighthouse(url, {
     port,
@@ -28,7 +28,7 @@ async function measure(port: number, url: string, cookie: string | undefined, at
   })
   if (!result) throw new Error(`Lighthouse gave no result for ${url}`)
   if (result.lhr.runtimeError) {
-    if (attempt < 2) return measure(port, url, cookie, attempt + 1)
+    if (attempt < 3) return measure(port, url, cookie, attempt + 1)
     throw new Error(`Lighthouse on ${url}: ${result.lhr.runtimeError.message}`)
   }
   return result.lhr
