@@ -13,11 +13,16 @@ const gzipAsync = promisify(gzip)
  * here as h3 would). Streams (server-sent events), Web Responses and byte bodies of other
  * types (photos, PDFs) pass untouched. Static files under /_nuxt are compressed at build
  * time instead (nitro.compressPublicAssets in nuxt.config.ts).
- * Levels are chosen for speed on every request: Brotli 4 and gzip 6.
+ * Levels are chosen for speed on every request: Brotli 4 and gzip 6. Error pages go out
+ * uncompressed (see the /__nuxt_error check).
  */
 export default defineNitroPlugin((nitroApp) => {
   nitroApp.hooks.hook('beforeResponse', async (event, response) => {
     if (event.handled || event.method === 'HEAD') return
+    // Nuxt renders an error page by fetching /__nuxt_error inside the server with the
+    // browser's headers, reads that answer as text and sends it on: compressed here, it
+    // would reach the browser as garbled bytes (Chromium shows its own error page).
+    if (getRequestHeader(event, 'x-nuxt-error') || event.path.startsWith('/__nuxt_error')) return
     const status = getResponseStatus(event)
     if (status === 204 || status === 304) return
     if (getResponseHeader(event, 'content-encoding')) return

@@ -109,6 +109,19 @@ describe('compressed pages and JSON', () => {
   })
 })
 
+describe('error pages', () => {
+  it('arrive whole and readable whatever the browser accepts: a page that does not exist, and a page for another role', async () => {
+    const client = await new ApiClient(base).signIn('client@tidewright.test')
+    for (const path of ['/no-such-page', '/admin']) {
+      for (const accept of [CHROMIUM_OFFERS, 'gzip', '']) {
+        const answer = await rawGet(base, path, { 'cookie': client.cookieHeader(), 'accept-encoding': accept })
+        expect(answer.status, `${path} ${accept}`).toBeGreaterThanOrEqual(400)
+        expect(decoded(answer), `${path} ${accept}`).toContain('</html>')
+      }
+    }
+  })
+})
+
 describe('answers that stay as they are', () => {
   it('does not compress the notification stream', async () => {
     const api = await new ApiClient(base).signIn('client@tidewright.test')
