@@ -20,7 +20,8 @@ export default defineNuxtConfig({
       link: [{ rel: 'icon', type: 'image/svg+xml', href: '/favicon.svg' }],
     },
   },
-  css: ['@fontsource/source-sans-3/400.css', '@fontsource/source-sans-3/600.css', '@fontsource/source-sans-3/700.css', '~/assets/css/main.css', '~/assets/css/print.css'],
+  // fonts.css: the three faces in Latin subsets only, with a metric-matched fallback (no reflow on swap).
+  css: ['~/assets/css/fonts.css', '~/assets/css/main.css', '~/assets/css/print.css'],
   runtimeConfig: {
     dbPath: 'data/tidewright.sqlite',
     /** Where uploaded photos and PDFs are kept by the fs driver (NUXT_UPLOADS_DIR). */
@@ -62,8 +63,18 @@ export default defineNuxtConfig({
       baseUrl: 'http://localhost:3000',
     },
   },
+  experimental: {
+    // A link's page is fetched when the pointer or focus reaches it, not when it scrolls into
+    // view: the attention board lists every tank, and prefetching each tank page ran the whole
+    // tank page's script (charts and forms) on a board that shows none of it.
+    defaults: { nuxtLink: { prefetchOn: { visibility: false, interaction: true } } },
+  },
   compatibilityDate: '2025-07-15',
   nitro: {
+    // Scripts, styles and fonts are stored beside a Brotli and a gzip copy at build time and
+    // served by Accept-Encoding; pages and JSON are compressed per answer
+    // (server/plugins/20.response-compression.ts).
+    compressPublicAssets: { gzip: true, brotli: true },
     // Uploaded files: never under public/, served only through /api/uploads/:id after an access check.
     // The directory comes from NUXT_UPLOADS_DIR at start; S3-compatible storage: DEVELOPERS.md, "Uploads".
     storage: {

@@ -9,7 +9,8 @@ export default {
   theme: {
     extend: {
       fontFamily: {
-        sans: ['"Source Sans 3"', 'system-ui', 'sans-serif'],
+        // The fallback face is a local Arial scaled to Source Sans 3 (app/assets/css/fonts.css).
+        sans: ['"Source Sans 3"', '"Source Sans 3 Fallback"', 'system-ui', 'sans-serif'],
       },
       colors: {
         ink: { DEFAULT: '#12303a', soft: '#35525c', faint: '#4f646c' },

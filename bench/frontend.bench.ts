@@ -1,14 +1,18 @@
 /**
  * Front end: the JavaScript and CSS the sign-in page and a tank page actually load in
  * headless Chromium (gzip-compressed size, compressed here at level 9 from the bytes
- * received), and the time from navigation to the first drawn chart on a tank with a
- * year of readings (when the tank page has charts).
+ * received): the tank page as it first loads and once its charts are scrolled to; and the
+ * time from navigation to the first drawn chart on a tank with a year of readings, the
+ * reader going straight to the charts.
  */
 import { gzipSync } from 'node:zlib'
-import { chromium, type Page } from 'playwright-core'
-import type { BenchServer, Row } from './support'
+import { chromium, type Browser, type Page } from 'playwright-core'
+import { signInCookie, type BenchServer, type Row } from './support'
 
 const CHROMIUM = process.env.CHROMIUM_PATH || '/usr/bin/chromium'
+const DESKTOP = { width: 1280, height: 900 }
+/** Lighthouse's mobile screen (Moto G Power): the charts start below it. */
+const PHONE = { width: 412, height: 823 }
 
 /** Collects every script and stylesheet the page loads while `action` runs. */
 async function shipped(page: Page, action: () => Promise<void>): Promise<{ js: number, css: number, files: number }> {
@@ -29,6 +33,16 @@ async function shipped(page: Page, action: () => Promise<void>): Promise<{ js: n
   return { js: size('script'), css: size('stylesheet'), files: all.length }
 }
 
+/** A page in a new browser context (empty cache) carrying the given session cookie. */
+async function freshPage(browser: Browser, bench: BenchServer, session: string, viewport = DESKTOP): Promise<Page> {
+  const context = await browser.newContext({ baseURL: bench.server.baseURL, viewport })
+  await context.addCookies(session.split('; ').map((pair) => {
+    const [name, ...value] = pair.split('=')
+    return { name: name!, value: value.join('='), url: bench.server.baseURL }
+  }))
+  return context.newPage()
+}
+
 export async function runFrontendBench(bench: BenchServer): Promise<Row[]> {
   const browser = await chromium.launch({ executablePath: CHROMIUM, args: ['--headless', '--no-sandbox', '--disable-gpu', '--disable-background-networking', '--no-first-run'] })
   const rows: Row[] = []
@@ -40,34 +54,39 @@ export async function runFrontendBench(bench: BenchServer): Promise<Row[]> {
     })
     rows.push({ area: 'Front end', name: `sign-in page: JS shipped (${login.files} files)`, value: login.js / 1024, unit: 'kB gzip' })
     rows.push({ area: 'Front end', name: 'sign-in page: CSS shipped', value: login.css / 1024, unit: 'kB gzip' })
-    await page.getByLabel('E-mail').fill('client@tidewright.test')
-    await page.getByLabel('Password').fill('tidewright-demo')
-    await page.getByRole('button', { name: 'Sign in' }).click()
-    await page.waitForURL(url => !url.pathname.startsWith('/login'))
-    await page.waitForLoadState('load')
+    await context.close()
 
-    // A fresh page (cold cache) straight onto the tank with a year of data.
-    const tankPage = await context.newPage()
-    await context.clearCookies()
-    const cookies = await fetch(`${bench.server.baseURL}/api/auth/login`, { method: 'POST', headers: { 'content-type': 'application/json' }, body: JSON.stringify({ email: 'client@tidewright.test', password: 'tidewright-demo' }) })
-    const session = cookies.headers.getSetCookie()[0]!.split(';')[0]!.split('=')
-    await context.addCookies([{ name: session[0]!, value: session.slice(1).join('='), url: bench.server.baseURL }])
+    // A fresh context (cold cache) straight onto the tank with a year of data, twice: as the
+    // page first loads on a phone (charts further down, not yet fetched), and on a desktop
+    // scrolled to the charts as soon as the page is there (the time from navigation to the
+    // first drawn chart).
+    const session = await signInCookie(bench.server.baseURL, 'client@tidewright.test')
+    const tankPath = `/tanks/${bench.fixtures.demo.tanks.lounge}`
+    const firstLoad = await freshPage(browser, bench, session, PHONE)
+    const tank = await shipped(firstLoad, async () => {
+      await firstLoad.goto(tankPath)
+    })
+    rows.push({ area: 'Front end', name: `tank page on a phone: JS shipped on first load (${tank.files} files)`, value: tank.js / 1024, unit: 'kB gzip' })
+    rows.push({ area: 'Front end', name: 'tank page: CSS shipped', value: tank.css / 1024, unit: 'kB gzip' })
+    await firstLoad.context().close()
+
+    const tankPage = await freshPage(browser, bench, session)
     let chartMs: number | null = null
-    const tank = await shipped(tankPage, async () => {
-      await tankPage.goto(`/tanks/${bench.fixtures.demo.tanks.lounge}`)
+    const withCharts = await shipped(tankPage, async () => {
+      await tankPage.goto(tankPath, { waitUntil: 'domcontentloaded' })
+      await tankPage.locator('#charts-heading').scrollIntoViewIfNeeded()
       chartMs = await tankPage.waitForFunction(() => {
         const canvas = document.querySelector('canvas')
         return canvas && canvas.width > 0 && canvas.height > 0 ? performance.now() : false
       }, undefined, { timeout: 15_000, polling: 'raf' }).then(h => h.jsonValue() as Promise<number>).catch(() => null)
     })
-    rows.push({ area: 'Front end', name: `tank page: JS shipped (${tank.files} files)`, value: tank.js / 1024, unit: 'kB gzip' })
-    rows.push({ area: 'Front end', name: 'tank page: CSS shipped', value: tank.css / 1024, unit: 'kB gzip' })
+    rows.push({ area: 'Front end', name: `tank page: JS shipped with the charts shown (${withCharts.files} files)`, value: withCharts.js / 1024, unit: 'kB gzip' })
     const loadMs = await tankPage.evaluate(() => {
       const nav = performance.getEntriesByType('navigation')[0] as PerformanceNavigationTiming | undefined
       return nav ? nav.loadEventEnd : 0
     })
     if (chartMs !== null) {
-      rows.push({ area: 'Front end', name: 'tank page: first chart drawn (year of data)', value: chartMs, unit: 'ms', reference: { name: `load event ${loadMs.toFixed(0)} ms`, value: loadMs }, ratio: chartMs / loadMs })
+      rows.push({ area: 'Front end', name: 'tank page: first chart drawn (year of data)', value: chartMs, unit: 'ms', reference: { name: `load event ${loadMs.toFixed(0)} ms`, value: loadMs }, ratio: chartMs / loadMs, aim: '< 1000 ms' })
     }
     else {
       rows.push({ area: 'Front end', name: 'tank page: first chart drawn — no chart on the tank page in this build', value: Number.NaN, unit: 'ms', reference: { name: `load event ${loadMs.toFixed(0)} ms`, value: loadMs } })

@@ -3,7 +3,8 @@
  * the reference it is compared with, measured in the same run on this machine, and the
  * ratio. Nothing here asserts a time; the table is for people (and README's figures).
  * Loopback only. BENCH_SECONDS (default 4) sets the length of each API case;
- * BENCH_ONLY=api,bulk,isolation,engine,frontend,backtest runs a subset (backtest: the completion
+ * BENCH_ONLY=api,bulk,isolation,engine,frontend,backtest runs a subset (frontend includes Lighthouse's
+ * mobile performance figures for three pages; backtest: the completion
  * forecast's hit rate and median error, the same figures as npm run backtest).
  */
 import { existsSync } from 'node:fs'
@@ -15,6 +16,7 @@ import { runBulkBench } from './bulk.bench'
 import { runEngineBench } from './engine.bench'
 import { runFrontendBench } from './frontend.bench'
 import { runIsolationBench } from './isolation.bench'
+import { runLighthouseBench } from './lighthouse.bench'
 import { startBenchServer, type Row } from './support'
 import { buildIsStale } from '../scripts/build-state.mjs'
 
@@ -56,7 +58,7 @@ async function main() {
   if (ONLY.has('api') || ONLY.has('frontend')) {
     const bench = await startBenchServer({ yearOnLounge: true })
     try {
-      if (ONLY.has('frontend')) rows.push(...await runFrontendBench(bench))
+      if (ONLY.has('frontend')) rows.push(...await runFrontendBench(bench), ...await runLighthouseBench(bench))
       if (ONLY.has('api')) rows.push(...await runApiBench(bench, SECONDS))
     }
     finally {

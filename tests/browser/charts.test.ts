@@ -2,7 +2,7 @@ import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest'
 import type { Browser, Locator } from 'playwright-core'
 import sharp from 'sharp'
 import theme from '../../tailwind.config'
-import { launchBrowser, openPage, screenshot, signInThroughForm } from '../support/browser'
+import { launchBrowser, openPage, screenshot, scrollToCharts, signInThroughForm } from '../support/browser'
 
 const { demo } = inject('fixtures')
 const { series, signal } = theme.theme.extend.colors
@@ -32,6 +32,7 @@ describe('the charts: one palette, annotation bands and lines, shaped event mark
     const { page, context, problems } = await openPage(browser, width)
     await signInThroughForm(page, 'client@tidewright.test')
     await page.goto(`/tanks/${demo.tanks.lounge}`)
+    await scrollToCharts(page)
     const chart = page.getByTestId('nitrogen-chart')
     await expect.poll(() => chart.getAttribute('data-points'), { timeout: 15_000 }).toMatch(/^\d+$/)
     if (width < 640) await page.getByText('More charts: free ammonia, salinity and temperature').click()
@@ -61,6 +62,7 @@ describe('the charts: one palette, annotation bands and lines, shaped event mark
     const { page, context, problems } = await openPage(browser, 1280)
     await signInThroughForm(page, 'aquarist2@tidewright.test')
     await page.goto(`/tanks/${demo.tanks.study}`)
+    await scrollToCharts(page)
     const chart = page.getByTestId('nitrogen-chart')
     await expect.poll(() => chart.getAttribute('data-points'), { timeout: 15_000 }).toMatch(/^\d+$/)
     const shapes = await legendShapes(chart.getByTestId('marker-legend'))

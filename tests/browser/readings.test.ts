@@ -1,6 +1,6 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import type { Browser } from 'playwright-core'
-import { launchBrowser, openPage, screenshot, signInThroughForm } from '../support/browser'
+import { launchBrowser, openPage, screenshot, scrollToCharts, signInThroughForm } from '../support/browser'
 import { TINY_PNG } from '../api/access-matrix.data'
 
 let browser: Browser
@@ -15,6 +15,7 @@ describe('daily tests', () => {
     await page.waitForURL(/\/tanks\/[^/]+$/)
     const phase = page.getByTestId('verdict-phase')
     await expect.poll(() => phase.textContent()).toContain('Nitrite stage')
+    await scrollToCharts(page)
     const chart = page.getByTestId('nitrogen-chart')
     await expect.poll(() => chart.getAttribute('data-points'), { timeout: 15_000 }).toMatch(/^\d+$/)
     const before = Number(await chart.getAttribute('data-points'))
@@ -57,6 +58,7 @@ describe('daily tests', () => {
     await page.getByRole('link', { name: 'See the charts and what to do next' }).click()
     await page.waitForURL(/\/tanks\/[^/]+$/)
     await expect.poll(() => phase.textContent()).toContain('Settling')
+    await scrollToCharts(page)
     await expect.poll(() => chart.getAttribute('data-points'), { timeout: 15_000 }).toBe(String(before + 1))
     // What to do next about ammonia: dose it for the proof, or (the demo lounge has a proof dose
     // under way) test it to show that dose arrived.
@@ -76,6 +78,7 @@ describe('daily tests', () => {
     await page.getByRole('link', { name: /Marlowe lounge reef/ }).click()
     await page.waitForURL(/\/tanks\/[^/]+$/)
     await expect.poll(() => page.getByText('Rule cycle.phase').isVisible()).toBe(true)
+    await scrollToCharts(page)
     await expect.poll(() => page.locator('canvas').count(), { timeout: 15_000 }).toBe(3)
     await screenshot(page, 'tank-staff-1280')
     await page.getByRole('link', { name: 'All tests and events' }).click()

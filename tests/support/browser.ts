@@ -64,6 +64,11 @@ export async function waitForHydration(page: Page): Promise<void> {
   }, undefined, { timeout: 30_000 })
 }
 
+/** Scrolls the tank page's charts into view: Chart.js is fetched and the charts drawn only once they near the screen. */
+export async function scrollToCharts(page: Page): Promise<void> {
+  await page.locator('section[aria-labelledby="charts-heading"]').scrollIntoViewIfNeeded()
+}
+
 /** Saves a full-page screenshot under tests/browser/screenshots for people to look at. */
 export async function screenshot(page: Page, name: string): Promise<string> {
   mkdirSync(SCREENSHOT_DIR, { recursive: true })

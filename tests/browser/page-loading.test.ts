@@ -1,0 +1,51 @@
+/**
+ * Each page loads what it shows: the tank page's first load fetches no Chart.js (recognised by
+ * the `_chartjs` property it sets on every chart's data) until the reader comes near the charts,
+ * and then draws them.
+ */
+import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest'
+import type { Browser, Page } from 'playwright-core'
+import { launchBrowser, openPage, scrollToCharts, signInThroughForm } from '../support/browser'
+
+const { demo } = inject('fixtures')
+let browser: Browser
+beforeAll(async () => { browser = await launchBrowser() })
+afterAll(async () => { await browser?.close() })
+
+/** Lets the page run a few frames: long enough for any IntersectionObserver to report and any import it starts to be requested. */
+async function settle(page: Page): Promise<void> {
+  await page.waitForLoadState('load')
+  await page.evaluate(() => new Promise<void>((resolve) => {
+    let frames = 0
+    const tick = () => (++frames >= 5 ? resolve() : requestAnimationFrame(tick))
+    requestAnimationFrame(tick)
+  }))
+}
+
+describe('what the tank page loads', () => {
+  it('fetches Chart.js only once the charts near the screen, then draws them (375 px)', async () => {
+    const { page, context, problems } = await openPage(browser, 375)
+    await signInThroughForm(page, 'client@tidewright.test')
+    const scripts: string[] = []
+    page.on('request', (request) => {
+      if (request.resourceType() === 'script') scripts.push(request.url())
+    })
+    await page.goto(`/tanks/${demo.tanks.lounge}`)
+    await expect.poll(() => page.getByTestId('verdict-phase').isVisible()).toBe(true)
+    await settle(page)
+    expect(await page.locator('canvas').count()).toBe(0)
+    const beforeScroll = [...scripts]
+
+    await scrollToCharts(page)
+    await expect.poll(() => page.getByTestId('nitrogen-chart').locator('canvas').count()).toBeGreaterThan(0)
+    const afterScroll = scripts.slice(beforeScroll.length)
+
+    const definesChartJs = async (url: string) => (await (await context.request.get(url)).text()).includes('_chartjs')
+    const early = await Promise.all(beforeScroll.map(definesChartJs))
+    const late = await Promise.all(afterScroll.map(definesChartJs))
+    expect(beforeScroll.filter((_, i) => early[i])).toEqual([])
+    expect(late.some(Boolean)).toBe(true)
+    expect(problems).toEqual([])
+    await context.close()
+  })
+})
