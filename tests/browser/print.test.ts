@@ -32,6 +32,18 @@ describe('print view', () => {
     await context.close()
   })
 
+  it('the tank page prints its charts on a phone even when nobody scrolled down to them', async () => {
+    const { page, context, problems } = await openPage(browser, 375)
+    await signInThroughForm(page, 'aquarist@tidewright.test')
+    await page.goto(`/tanks/${demo.tanks.lounge}`)
+    await expect.poll(() => page.getByTestId('verdict-phase').isVisible()).toBe(true)
+    await page.emulateMedia({ media: 'print' })
+    await expect.poll(() => page.locator('canvas').count(), { timeout: 15_000 }).toBeGreaterThan(0)
+    expect(await page.getByText('Loading charts…').count()).toBe(0)
+    expect(problems).toEqual([])
+    await context.close()
+  })
+
   it('the sign-off evidence prints its verdict and every reading, the table not cut at the scroll edge', async () => {
     const { page, context, problems } = await openPage(browser, 375)
     await signInThroughForm(page, 'supervisor@tidewright.test')
