@@ -7,6 +7,7 @@ import { eq, inArray, isNull, sql } from 'drizzle-orm'
 import { evaluateCycle } from '../../shared/cycle/engine'
 import { FORECAST_VERSION, forecastCycle } from '../../shared/cycle/forecast'
 import type { CycleEvent, CycleInput, CycleReading, Verdict } from '../../shared/cycle/types'
+import type { CycleForecast } from '../../shared/cycle/forecast'
 import { CYCLE_EVENT_KINDS, type CycleEventKind, type EventKind } from '../../shared/vocabulary'
 import type { Db } from './connection'
 import { preparedPerDb } from './prepared'
@@ -72,6 +73,16 @@ export function computeAndStoreVerdict(db: Db, tankId: string, now = new Date())
   }
   db.insert(tankVerdicts).values(row).onConflictDoUpdate({ target: tankVerdicts.tankId, set: row }).run()
   return verdict
+}
+
+/** The forecasts kept with the verdicts of a page of tanks, prepared once (the ids as one JSON array). */
+const forecastsAmong = preparedPerDb(db => db.select({ tankId: tankVerdicts.tankId, forecast: tankVerdicts.forecast }).from(tankVerdicts)
+  .where(inArray(tankVerdicts.tankId, sql`(select value from json_each(${sql.placeholder('ids')}))`)).prepare())
+
+/** The forecast stored with each of these tanks' verdicts, by tank id (absent: no verdict stored yet). */
+export function storedForecasts(db: Db, tankIds: readonly string[]): Map<string, CycleForecast | null> {
+  if (tankIds.length === 0) return new Map()
+  return new Map(forecastsAmong(db).all({ ids: JSON.stringify(tankIds) }).map(r => [r.tankId, r.forecast]))
 }
 
 /**

@@ -9,6 +9,7 @@ import { netWaterLitres } from '#shared/plan/net-volume'
 import { preparedFor, visibleTankCondition, visibleTankPlaceholders, visibleTankValues, type Actor } from './access'
 import { preparedPerDb } from '#server/db/prepared'
 import { listedForecast } from '#server/domain/forecast/tank-forecast'
+import { storedForecasts } from '#server/db/verdicts'
 
 const aquarist = alias(users, 'aquarist')
 const supervisor = alias(users, 'supervisor')
@@ -21,31 +22,25 @@ const currentStagePosition = sql<number>`coalesce((select ${planStages.position}
 const stagesDone = sql<number>`(select count(*) from ${planStages} where ${planStages.tankId} = ${tanks.id} and ${planStages.status} in ('done', 'skipped'))`
 const stagesTotal = sql<number>`(select count(*) from ${planStages} where ${planStages.tankId} = ${tanks.id})`
 
-const summaryFields = {
-  tank: tanks,
-  clientName: clients.name,
-  siteLabel: sites.label,
-  aquaristName: aquarist.name,
-  supervisorName: supervisor.name,
-  phase: tankVerdicts.phase,
-  currentStageKey,
-  currentStageTitle,
-  stagesDone,
-  stagesTotal,
-}
-
-/** The tank rows with their client, site, staff, stored phase and stages, selecting `fields`. */
-function tankRows<F extends typeof summaryFields>(fields: F) {
-  return useDB().select(fields).from(tanks)
+function baseQuery() {
+  return useDB().select({
+    tank: tanks,
+    clientName: clients.name,
+    siteLabel: sites.label,
+    aquaristName: aquarist.name,
+    supervisorName: supervisor.name,
+    phase: tankVerdicts.phase,
+    currentStageKey,
+    currentStageTitle,
+    stagesDone,
+    stagesTotal,
+  }).from(tanks)
     .innerJoin(clients, eq(clients.id, tanks.clientId))
     .leftJoin(sites, eq(sites.id, tanks.siteId))
     .leftJoin(aquarist, eq(aquarist.id, tanks.aquaristId))
     .leftJoin(supervisor, eq(supervisor.id, tanks.supervisorId))
     .leftJoin(tankVerdicts, eq(tankVerdicts.tankId, tanks.id))
 }
-const baseQuery = () => tankRows(summaryFields)
-/** A list's rows also carry the forecast stored with each verdict. */
-const listQuery = () => tankRows({ ...summaryFields, forecast: tankVerdicts.forecast })
 type Row = NonNullable<Awaited<ReturnType<ReturnType<typeof baseQuery>['get']>>>
 
 function toSummary(row: Row): TankSummary {
@@ -79,7 +74,7 @@ const SORT_COLUMNS = {
 } as const
 
 /** A list item with its stored forecast when the cycle is what the reader waits for. */
-function withForecast(summary: TankSummary, stored: CycleForecast | null): TankSummary {
+function withForecast(summary: TankSummary, stored: CycleForecast | null | undefined): TankSummary {
   const forecast = listedForecast(summary, stored)
   return forecast ? { ...summary, forecast } : summary
 }
@@ -98,14 +93,16 @@ export function listTanks(actor: Actor, query: TankListQuery, now = new Date()):
   const where = and(...conditions)
   const column = SORT_COLUMNS[query.sort]
   const order = query.dir === 'asc' ? asc(column) : desc(column)
-  const page = () => listQuery().where(where).orderBy(order, asc(tanks.id))
+  const page = () => baseQuery().where(where).orderBy(order, asc(tanks.id))
     .limit(query.pageSize).offset((query.page - 1) * query.pageSize).all()
   let rows = page()
   // A phase time alone has changed is made again before the page is shown.
   if (refreshStaleVerdicts(now, rows.map(r => r.tank.id)) > 0) rows = page()
+  // One row per tank, the forecast kept with its verdict: never the tanks' histories.
+  const forecasts = storedForecasts(useDB(), rows.map(r => r.tank.id))
   const total = useDB().select({ n: sql<number>`count(*)` }).from(tanks)
     .innerJoin(clients, eq(clients.id, tanks.clientId)).where(where).get()?.n ?? 0
-  return { items: rows.map(row => withForecast(toSummary(row), row.forecast)), total, page: query.page, pageSize: query.pageSize }
+  return { items: rows.map(row => withForecast(toSummary(row), forecasts.get(row.tank.id))), total, page: query.page, pageSize: query.pageSize }
 }
 
 /** The statements behind getTankView, prepared once: the scoped tank row, and its stages' data for the net volume. */
