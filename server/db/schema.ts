@@ -6,6 +6,7 @@
 import { sql } from 'drizzle-orm'
 import { index, integer, primaryKey, real, sqliteTable, text, uniqueIndex } from 'drizzle-orm/sqlite-core'
 import type { Verdict } from '../../shared/cycle/types'
+import type { CycleForecast } from '../../shared/cycle/forecast/types'
 import type { StoredOrganisationSettings } from '../../shared/schemas/settings'
 import type { SignOffSnapshot } from '../../shared/types/sign-off'
 
@@ -206,6 +207,8 @@ export const tankVerdicts = sqliteTable('tank_verdicts', {
   stale: integer('stale', { mode: 'boolean' }).notNull().default(false),
   /** The phase when the last threshold change marked this verdict stale: the settings page counts the tanks whose phase changed. */
   phaseBeforeReevaluation: text('phase_before_reevaluation', { enum: CYCLE_PHASES }),
+  /** The completion forecast made with this verdict, from the same input at the same time: lists read it instead of the tank's history. */
+  forecast: text('forecast', { mode: 'json' }).$type<CycleForecast>(),
 })
 
 /** Who changed what: append-only by design. */

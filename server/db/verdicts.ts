@@ -3,11 +3,14 @@
  * read the phase without recomputing. Framework-free: the server, the seed and the
  * tests share it.
  */
-import { and, eq, inArray, isNull, type SQL } from 'drizzle-orm'
+import { eq, inArray, isNull, sql } from 'drizzle-orm'
 import { evaluateCycle } from '../../shared/cycle/engine'
+import { FORECAST_VERSION, forecastCycle } from '../../shared/cycle/forecast'
 import type { CycleEvent, CycleInput, CycleReading, Verdict } from '../../shared/cycle/types'
+import type { CycleForecast } from '../../shared/cycle/forecast'
 import { CYCLE_EVENT_KINDS, type CycleEventKind, type EventKind } from '../../shared/vocabulary'
 import type { Db } from './connection'
+import { preparedPerDb } from './prepared'
 import { tankEngineReadings, tankEvents } from '../domain/readings/current'
 import { tankVerdicts, tanks } from './schema'
 import { readOrganisationSettings } from './settings'
@@ -50,7 +53,11 @@ export function cycleInputFor(db: Db, tankId: string, now: Date): CycleInput | u
   }
 }
 
-/** Evaluates the tank's cycle now and stores the verdict; undefined if the tank does not exist. */
+/**
+ * Evaluates the tank's cycle now and stores the verdict with the completion forecast made from
+ * the same input at the same time (lists read it instead of the tank's history); undefined if
+ * the tank does not exist.
+ */
 export function computeAndStoreVerdict(db: Db, tankId: string, now = new Date()): Verdict | undefined {
   const input = cycleInputFor(db, tankId, now)
   if (!input) return undefined
@@ -59,12 +66,23 @@ export function computeAndStoreVerdict(db: Db, tankId: string, now = new Date())
     tankId,
     phase: verdict.phase,
     verdict,
+    forecast: forecastCycle(input, verdict),
     ruleSetVersion: verdict.ruleSetVersion,
     evaluatedAt: input.now,
     stale: false,
   }
   db.insert(tankVerdicts).values(row).onConflictDoUpdate({ target: tankVerdicts.tankId, set: row }).run()
   return verdict
+}
+
+/** The forecasts kept with the verdicts of a page of tanks, prepared once (the ids as one JSON array). */
+const forecastsAmong = preparedPerDb(db => db.select({ tankId: tankVerdicts.tankId, forecast: tankVerdicts.forecast }).from(tankVerdicts)
+  .where(inArray(tankVerdicts.tankId, sql`(select value from json_each(${sql.placeholder('ids')}))`)).prepare())
+
+/** The forecast stored with each of these tanks' verdicts, by tank id (absent: no verdict stored yet). */
+export function storedForecasts(db: Db, tankIds: readonly string[]): Map<string, CycleForecast | null> {
+  if (tankIds.length === 0) return new Map()
+  return new Map(forecastsAmong(db).all({ ids: JSON.stringify(tankIds) }).map(r => [r.tankId, r.forecast]))
 }
 
 /**
@@ -78,13 +96,31 @@ export function verdictIsCurrent(evaluatedAt: string, now: Date, maxAgeMs: numbe
 }
 
 /**
- * Tanks whose stored verdict is missing, marked stale by a threshold change, or no longer current at `now`: among `tankIds` when
- * given (a page being read), otherwise every tank not archived (the worker's round).
+ * The stored verdicts' freshness, prepared once: among the tanks of a page (ids as one JSON
+ * array, however many) or over every tank not archived (the worker's round).
+ */
+const verdictAges = preparedPerDb((db) => {
+  const fields = {
+    id: tanks.id,
+    evaluatedAt: tankVerdicts.evaluatedAt,
+    stale: tankVerdicts.stale,
+    forecastVersion: sql<string | null>`json_extract(${tankVerdicts.forecast}, '$.forecastVersion')`,
+  }
+  const ages = () => db.select(fields).from(tanks).leftJoin(tankVerdicts, eq(tankVerdicts.tankId, tanks.id))
+  return {
+    among: ages().where(inArray(tanks.id, sql`(select value from json_each(${sql.placeholder('ids')}))`)).prepare(),
+    unarchived: ages().where(isNull(tanks.archivedAt)).prepare(),
+  }
+})
+
+/**
+ * Tanks whose stored verdict is missing, marked stale by a threshold change, no longer current at `now`,
+ * or stored without a forecast of the current forecast version (made before forecasts were kept, or by
+ * older maths): among `tankIds` when given (a page being read), otherwise every tank not archived (the worker's round).
  */
 export function tanksWithStaleVerdicts(db: Db, now: Date, maxAgeMs: number, tankIds?: readonly string[]): string[] {
   if (tankIds !== undefined && tankIds.length === 0) return []
-  const where: SQL | undefined = tankIds === undefined ? isNull(tanks.archivedAt) : inArray(tanks.id, [...tankIds])
-  const rows = db.select({ id: tanks.id, evaluatedAt: tankVerdicts.evaluatedAt, stale: tankVerdicts.stale }).from(tanks)
-    .leftJoin(tankVerdicts, eq(tankVerdicts.tankId, tanks.id)).where(and(where)).all()
-  return rows.filter(r => r.evaluatedAt === null || r.stale === true || !verdictIsCurrent(r.evaluatedAt, now, maxAgeMs)).map(r => r.id)
+  const statements = verdictAges(db)
+  const rows = tankIds === undefined ? statements.unarchived.all() : statements.among.all({ ids: JSON.stringify(tankIds) })
+  return rows.filter(r => r.evaluatedAt === null || r.stale === true || r.forecastVersion !== FORECAST_VERSION || !verdictIsCurrent(r.evaluatedAt, now, maxAgeMs)).map(r => r.id)
 }

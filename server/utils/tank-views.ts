@@ -1,6 +1,7 @@
 /** Reads tanks with their client, site, staff and stored phase, shaped for the API. */
 import { and, asc, desc, eq, or, sql, type SQL } from 'drizzle-orm'
 import { alias } from 'drizzle-orm/sqlite-core'
+import type { CycleForecast } from '#shared/cycle/forecast'
 import type { TankListQuery } from '#shared/schemas/tank-list'
 import type { CyclePhase, TankList, TankSummary, TankView } from '#shared/types/tanks'
 import { clients, planStages, sites, tankVerdicts, tanks, users } from '#server/db/schema'
@@ -8,6 +9,7 @@ import { netWaterLitres } from '#shared/plan/net-volume'
 import { preparedFor, visibleTankCondition, visibleTankPlaceholders, visibleTankValues, type Actor } from './access'
 import { preparedPerDb } from '#server/db/prepared'
 import { listedForecast } from '#server/domain/forecast/tank-forecast'
+import { storedForecasts } from '#server/db/verdicts'
 
 const aquarist = alias(users, 'aquarist')
 const supervisor = alias(users, 'supervisor')
@@ -71,9 +73,9 @@ const SORT_COLUMNS = {
   stage: currentStagePosition,
 } as const
 
-/** A list item with its forecast when the cycle is what the reader waits for. */
-function withForecast(summary: TankSummary, now: Date): TankSummary {
-  const forecast = listedForecast(useDB(), summary, now)
+/** A list item with its stored forecast when the cycle is what the reader waits for. */
+function withForecast(summary: TankSummary, stored: CycleForecast | null | undefined): TankSummary {
+  const forecast = listedForecast(summary, stored)
   return forecast ? { ...summary, forecast } : summary
 }
 
@@ -96,9 +98,11 @@ export function listTanks(actor: Actor, query: TankListQuery, now = new Date()):
   let rows = page()
   // A phase time alone has changed is made again before the page is shown.
   if (refreshStaleVerdicts(now, rows.map(r => r.tank.id)) > 0) rows = page()
+  // One row per tank, the forecast kept with its verdict: never the tanks' histories.
+  const forecasts = storedForecasts(useDB(), rows.map(r => r.tank.id))
   const total = useDB().select({ n: sql<number>`count(*)` }).from(tanks)
     .innerJoin(clients, eq(clients.id, tanks.clientId)).where(where).get()?.n ?? 0
-  return { items: rows.map(row => withForecast(toSummary(row), now)), total, page: query.page, pageSize: query.pageSize }
+  return { items: rows.map(row => withForecast(toSummary(row), forecasts.get(row.tank.id))), total, page: query.page, pageSize: query.pageSize }
 }
 
 /** The statements behind getTankView, prepared once: the scoped tank row, and its stages' data for the net volume. */

@@ -1,6 +1,7 @@
-import { eq } from 'drizzle-orm'
+import { eq, sql } from 'drizzle-orm'
 import type { Verdict } from '#shared/cycle/types'
 import { tankVerdicts } from '#server/db/schema'
+import { preparedPerDb } from '#server/db/prepared'
 import { computeAndStoreVerdict, tanksWithStaleVerdicts } from '#server/db/verdicts'
 
 const MINUTE_MS = 60_000
@@ -32,8 +33,13 @@ export function refreshStaleVerdicts(now: Date, tankIds?: readonly string[]): nu
   return stale.length
 }
 
+/** One tank's stored verdict, prepared once; the forecast beside it is left to the routes that show it. */
+const storedVerdict = preparedPerDb(db => db.select({ tankId: tankVerdicts.tankId, phase: tankVerdicts.phase, verdict: tankVerdicts.verdict,
+  ruleSetVersion: tankVerdicts.ruleSetVersion, evaluatedAt: tankVerdicts.evaluatedAt, stale: tankVerdicts.stale })
+  .from(tankVerdicts).where(eq(tankVerdicts.tankId, sql.placeholder('tankId'))).prepare())
+
 /** The tank's stored verdict row as of `now`: made again first when it is missing or stale. */
 export function currentVerdictRow(tankId: string, now = new Date()) {
   refreshStaleVerdicts(now, [tankId])
-  return useDB().select().from(tankVerdicts).where(eq(tankVerdicts.tankId, tankId)).get()
+  return storedVerdict(useDB()).get({ tankId })
 }

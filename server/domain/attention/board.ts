@@ -6,6 +6,7 @@
 import { and, asc, eq, inArray, isNull, ne, sql, type SQL } from 'drizzle-orm'
 import { alias } from 'drizzle-orm/sqlite-core'
 import { judgeTank, sortBoard, type BoardAlert, type BoardForecast, type BoardTank } from '#shared/attention/board'
+import type { CycleForecast } from '#shared/cycle/forecast'
 import { resolveThresholds } from '#shared/cycle/thresholds'
 import type { AttentionQuery } from '#shared/schemas/attention'
 import type { AttentionBoard } from '#shared/types/attention'
@@ -21,9 +22,9 @@ function testIntervalHours(db: Db, organisationId: string): number {
   return resolveThresholds(readOrganisationSettings(db, organisationId).thresholds).testIntervalHours
 }
 
-/** The board's part of a tank's forecast, computed exactly as the tank list computes it. */
-function boardForecast(db: Db, tank: { id: string, status: BoardTank['status'] }, now: Date): BoardForecast | null {
-  const forecast = listedForecast(db, tank, now)
+/** The board's part of a tank's forecast: the stored one, as the tank list shows it. */
+function boardForecast(tank: { status: BoardTank['status'] }, stored: CycleForecast | null): BoardForecast | null {
+  const forecast = listedForecast(tank, stored)
   return forecast && { status: forecast.status, gap: forecast.gap, completion: forecast.completion, likely: forecast.likely }
 }
 
@@ -36,7 +37,7 @@ function groupBy<T>(rows: T[], key: (row: T) => string): Map<string, T[]> {
 /** Every tank in `visible` (the viewer's scope) with what it needs today, filtered and sorted as asked. */
 export function attentionBoard(db: Db, organisationId: string, visible: SQL, query: AttentionQuery, now = new Date()): AttentionBoard {
   const rows = db.select({
-    tank: tanks, clientName: clients.name, siteLabel: sites.label, aquaristName: aquarist.name, verdict: tankVerdicts.verdict,
+    tank: tanks, clientName: clients.name, siteLabel: sites.label, aquaristName: aquarist.name, verdict: tankVerdicts.verdict, forecast: tankVerdicts.forecast,
   }).from(tanks)
     .innerJoin(clients, eq(clients.id, tanks.clientId))
     .leftJoin(sites, eq(sites.id, tanks.siteId))
@@ -68,7 +69,7 @@ export function attentionBoard(db: Db, organisationId: string, visible: SQL, que
       verdict: r.verdict ?? null,
       alerts: (openAlerts.get(r.tank.id) ?? []).map(a => ({ ...a, status: a.status as BoardAlert['status'] })),
       signOffRequestedAt: requests.get(r.tank.id) ?? null,
-      forecast: boardForecast(db, r.tank, now),
+      forecast: boardForecast(r.tank, r.forecast),
     }
     return judgeTank(facts, now, interval)
   })

@@ -19,10 +19,12 @@ export function forecastTank(db: Db, tankId: string, now: Date): CycleForecast |
 }
 
 /**
- * The forecast a list shows beside a tank (the tank list, the attention board): computed while
- * the cycle is what the reader waits for (`FORECAST_STATUSES`), null for any other status.
+ * The forecast a list shows beside a tank (the tank list, the attention board): the one stored
+ * with the tank's verdict (made from the same input at the same time, `computeAndStoreVerdict`),
+ * so a list reads one row per tank and never the history; while the cycle is what the reader
+ * waits for (`FORECAST_STATUSES`), null for any other status.
  */
-export function listedForecast(db: Db, tank: { id: string, status: TankStatus }, now: Date): CycleForecast | null {
+export function listedForecast(tank: { status: TankStatus }, stored: CycleForecast | null | undefined): CycleForecast | null {
   if (!FORECAST_STATUSES.has(tank.status)) return null
-  return forecastTank(db, tank.id, now) ?? null
+  return stored ?? null
 }

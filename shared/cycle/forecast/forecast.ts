@@ -177,12 +177,14 @@ function relapseAllowanceMs(base: ProjectionBase, tests: readonly TimedTest[], d
 
 /**
  * Forecasts when the cycle will be proven complete. Throws a RangeError for the same
- * bad input the engine refuses (`now`, `tank.startedAt`, thresholds).
+ * bad input the engine refuses (`now`, `tank.startedAt`, thresholds). `verdict`, when
+ * given, must be the engine's verdict on this same input (the server stores both from
+ * one evaluation, so the engine does not run twice).
  */
-export function forecastCycle(input: CycleInput): CycleForecast {
+export function forecastCycle(input: CycleInput, verdict?: Verdict): CycleForecast {
   const nowMs = requireTime('now', input.now)
   const thresholds = resolveThresholds(input.thresholds)
-  const verdict = evaluateCycle(input)
+  verdict ??= evaluateCycle(input)
   const doses = dosesUpTo(input, nowMs)
   const allTests = testsUpTo(input, nowMs)
   const tests = curveTests(allTests, doses, thresholds)

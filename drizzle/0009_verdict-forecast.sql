@@ -1,0 +1,1 @@
+ALTER TABLE `tank_verdicts` ADD `forecast` text;
