@@ -58,14 +58,15 @@ export function tankLockedUntil(tankId: string): string | null {
   return lockedUntil(tankId)
 }
 
-/** Runs `work` once the response has been sent (or at once if it already has); errors are logged, never thrown. */
-export function afterResponse(event: { node: { res: { writableFinished: boolean, once: (name: 'finish' | 'close', fn: () => void) => unknown } } }, work: () => void): void {
+/** Runs `work` once the response has been sent (or at once if it already has); errors (and rejections) are logged, never thrown. */
+export function afterResponse(event: { node: { res: { writableFinished: boolean, once: (name: 'finish' | 'close', fn: () => void) => unknown } } }, work: () => unknown): void {
   let done = false
+  const failed = (error: unknown) => console.error('work after the response failed', error)
   const run = () => {
     if (done) return
     done = true
-    try { work() }
-    catch (error) { console.error('work after the response failed', error) }
+    try { Promise.resolve(work()).catch(failed) }
+    catch (error) { failed(error) }
   }
   if (event.node.res.writableFinished) return run()
   event.node.res.once('finish', run)
