@@ -62,17 +62,22 @@ export function computeAndStoreVerdict(db: Db, tankId: string, now = new Date())
   const input = cycleInputFor(db, tankId, now)
   if (!input) return undefined
   const verdict = evaluateCycle(input)
+  storeVerdict(db, tankId, verdict, input.now)
+  return verdict
+}
+
+/** Stores a verdict the engine made as of `evaluatedAt` (here, or in a worker thread) as the tank's current one. */
+export function storeVerdict(db: Db, tankId: string, verdict: Verdict, evaluatedAt: string): void {
   const row = {
     tankId,
     phase: verdict.phase,
     verdict,
     forecast: forecastCycle(input, verdict),
     ruleSetVersion: verdict.ruleSetVersion,
-    evaluatedAt: input.now,
+    evaluatedAt,
     stale: false,
   }
   db.insert(tankVerdicts).values(row).onConflictDoUpdate({ target: tankVerdicts.tankId, set: row }).run()
-  return verdict
 }
 
 /** The forecasts kept with the verdicts of a page of tanks, prepared once (the ids as one JSON array). */

@@ -57,17 +57,3 @@ export function assertWritableAt(tankId: string, at: string): void {
 export function tankLockedUntil(tankId: string): string | null {
   return lockedUntil(tankId)
 }
-
-/** Runs `work` once the response has been sent (or at once if it already has); errors are logged, never thrown. */
-export function afterResponse(event: { node: { res: { writableFinished: boolean, once: (name: 'finish' | 'close', fn: () => void) => unknown } } }, work: () => void): void {
-  let done = false
-  const run = () => {
-    if (done) return
-    done = true
-    try { work() }
-    catch (error) { console.error('work after the response failed', error) }
-  }
-  if (event.node.res.writableFinished) return run()
-  event.node.res.once('finish', run)
-  event.node.res.once('close', run)
-}

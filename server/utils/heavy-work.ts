@@ -2,7 +2,8 @@
  * The heavy-work pool: worker threads (piscina) for the work that would otherwise hold the
  * one request loop every company is served from (a 100,000-row CSV import takes seconds).
  * One thread fewer than the machine has cores, at least one, so requests keep a core. Its
- * tasks: the CSV import, the evidence page's engine run and the certificate's PDF.
+ * tasks: the CSV import, the engine run for the evidence page and for the verdict
+ * refresh after an import, and the certificate's PDF.
  *
  * Each worker entry is built beside the server (scripts/build-workers.mjs): found by
  * looking up from this chunk's own file, so a moved .output keeps working. There is no

@@ -10,8 +10,9 @@ import type { ImportPreview } from '#shared/types/readings'
  * the column mapping used, a preview and every row's errors. With `dryRun: false` the
  * valid rows are written in one transaction; rows already imported (same normalised
  * content) are skipped, rows past a day's TESTS_PER_TANK_PER_DAY are refused per row, and
- * the verdict is refreshed once at the end. 413 for a file of more than MAX_IMPORT_ROWS
- * rows. The work runs in the heavy-work pool, off the request loop. Returns ImportPreview.
+ * the verdict is refreshed once at the end, before the answer. 413 for a file of more than
+ * MAX_IMPORT_ROWS rows. The work (the verdict's engine run too) runs in the heavy-work pool,
+ * off the request loop. Returns ImportPreview.
  */
 export default defineEventHandler(async (event): Promise<ImportPreview> => {
   const actor = await requireActor(event, ENTRY_ROLES)
@@ -37,7 +38,8 @@ export default defineEventHandler(async (event): Promise<ImportPreview> => {
   }
   if (result.kind === 'field-issues') fieldError(result.issues)
   const { preview } = result
-  // One verdict refresh for the whole file, run as soon as the answer has been handed to the socket.
-  if (preview.inserted > 0) afterResponse(event, () => onTankDataChanged(tank.id, { actor }))
+  // One verdict refresh for the whole file, awaited so the answer comes once the verdict and its
+  // alerts match the file; the engine runs in the pool, so a long history holds up no other request.
+  if (preview.inserted > 0) await onTankDataChangedOffLoop(tank.id, { actor })
   return preview
 })

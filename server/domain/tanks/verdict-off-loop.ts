@@ -1,0 +1,53 @@
+/**
+ * A tank's verdict evaluated off the request loop (in the heavy-work pool) and stored on the
+ * main connection. Over a long history the engine takes seconds, so the refresh after a CSV
+ * import runs it in a worker; meanwhile the request loop goes on and other writes may land
+ * on the same tank (a test saved by hand refreshes the verdict at once). A verdict made from
+ * data that has since moved is not stored over the newer one: the evaluation runs again.
+ *
+ * The tank's data revision counts the changes this process has reacted to. Every write to
+ * a tank's readings, events or profile goes through onTankDataChanged, which notes it here
+ * before it refreshes, so comparing the revision before the evaluation and before the store
+ * tells whether a newer write (and its own refresh) came in between. Framework-free: takes a
+ * `Db` and the evaluation to run, so the server and the tests share it.
+ */
+import type { Verdict } from '../../../shared/cycle/types'
+import type { Db } from '../../db/connection'
+import { storeVerdict } from '../../db/verdicts'
+
+/** How many times an evaluation overtaken by newer writes is run again before this refresh gives way to theirs. */
+const MAX_ATTEMPTS = 3
+
+const revisions = new Map<string, number>()
+
+/** Notes that the tank's data changed (called before its verdict is refreshed). */
+export function noteTankDataChanged(tankId: string): void {
+  revisions.set(tankId, (revisions.get(tankId) ?? 0) + 1)
+}
+
+/** The tank's data revision in this process: moves on every noted change. */
+export function tankDataRevision(tankId: string): number {
+  return revisions.get(tankId) ?? 0
+}
+
+/** The engine's verdict as of `now`, computed elsewhere (the heavy-work pool); null when there is no such tank. */
+export type EvaluateElsewhere = (tankId: string, now: Date) => Promise<Verdict | null>
+
+/**
+ * Evaluates the tank with `evaluate` and stores the verdict if no change was noted while it
+ * ran; otherwise runs it again. Returns the stored verdict, or undefined when there is no such
+ * tank or every attempt was overtaken (the writes that overtook it refresh the verdict themselves).
+ */
+export async function refreshVerdictOffLoop(db: Db, tankId: string, evaluate: EvaluateElsewhere, clock: () => Date = () => new Date()): Promise<Verdict | undefined> {
+  for (let attempt = 0; attempt < MAX_ATTEMPTS; attempt++) {
+    const revision = tankDataRevision(tankId)
+    const now = clock()
+    const verdict = await evaluate(tankId, now)
+    if (!verdict) return undefined
+    // Compared and stored in one synchronous step: no other write on this loop can come between.
+    if (tankDataRevision(tankId) !== revision) continue
+    storeVerdict(db, tankId, verdict, now.toISOString())
+    return verdict
+  }
+  return undefined
+}
