@@ -61,18 +61,30 @@ export function cycleInputFor(db: Db, tankId: string, now: Date): CycleInput | u
 export function computeAndStoreVerdict(db: Db, tankId: string, now = new Date()): Verdict | undefined {
   const input = cycleInputFor(db, tankId, now)
   if (!input) return undefined
-  const verdict = evaluateCycle(input)
-  storeVerdict(db, tankId, verdict, input.now)
-  return verdict
+  const evaluation = evaluateTank(input)
+  storeVerdict(db, tankId, evaluation, input.now)
+  return evaluation.verdict
 }
 
-/** Stores a verdict the engine made as of `evaluatedAt` (here, or in a worker thread) as the tank's current one. */
-export function storeVerdict(db: Db, tankId: string, verdict: Verdict, evaluatedAt: string): void {
+/** What is stored for a tank: the engine's verdict and the completion forecast made from the same input. */
+export interface TankEvaluation {
+  verdict: Verdict
+  forecast: CycleForecast
+}
+
+/** The verdict and forecast for one engine input (here, or in a worker thread). */
+export function evaluateTank(input: CycleInput): TankEvaluation {
+  const verdict = evaluateCycle(input)
+  return { verdict, forecast: forecastCycle(input, verdict) }
+}
+
+/** Stores an evaluation made as of `evaluatedAt` (here, or in a worker thread) as the tank's current one. */
+export function storeVerdict(db: Db, tankId: string, { verdict, forecast }: TankEvaluation, evaluatedAt: string): void {
   const row = {
     tankId,
     phase: verdict.phase,
     verdict,
-    forecast: forecastCycle(input, verdict),
+    forecast,
     ruleSetVersion: verdict.ruleSetVersion,
     evaluatedAt,
     stale: false,

@@ -23,7 +23,7 @@ export async function tankEvidence(actor: Actor, tankId: string, now = new Date(
   const names = userNames(actor.organisationId)
   const name = (id: string | null) => (id ? names.get(id) ?? null : null)
   // Over years of imported tests the engine takes a while: it runs in the heavy-work pool.
-  const verdict = await verdictOffLoop(tankId, now)
+  const verdict = (await evaluateOffLoop(tankId, now))?.verdict
   if (!verdict) return undefined
   // Every row with its trail: the supervisor sees what was corrected, by whom and why.
   const readingPage = readingHistoryPage(db, tankId, {}, { sort: readings.takenAt, dir: 'desc', page, pageSize: EVIDENCE_PAGE_SIZE })

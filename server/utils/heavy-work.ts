@@ -14,7 +14,7 @@ import { availableParallelism } from 'node:os'
 import { dirname, join, resolve } from 'node:path'
 import { fileURLToPath } from 'node:url'
 import { Piscina } from 'piscina'
-import type { Verdict } from '#shared/cycle/types'
+import type { TankEvaluation } from '#server/db/verdicts'
 import type { CertificateFacts } from './certificate'
 import type { CertificateTask } from '#server/workers/certificate'
 import type { ReadingImportResult, ReadingImportTask } from '#server/workers/reading-import'
@@ -50,8 +50,8 @@ export function runReadingImport(task: Omit<ReadingImportTask, 'dbPath'>): Promi
   return heavyPool().run({ ...task, dbPath: dbPath() } satisfies ReadingImportTask, { name: 'readingImport' })
 }
 
-/** The engine's verdict for the tank as its data stands now, computed in the pool; null when there is no such tank. */
-export function verdictOffLoop(tankId: string, now: Date): Promise<Verdict | null> {
+/** The engine's verdict and forecast for the tank as its data stands now, computed in the pool; null when there is no such tank. */
+export function evaluateOffLoop(tankId: string, now: Date): Promise<TankEvaluation | null> {
   return heavyPool().run({ tankId, nowMs: now.getTime(), dbPath: dbPath() } satisfies TankVerdictTask, { name: 'tankVerdict' })
 }
 

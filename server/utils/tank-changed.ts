@@ -29,7 +29,7 @@ export function onTankDataChanged(tankId: string, change: TankChange = {}): Verd
  */
 export async function onTankDataChangedOffLoop(tankId: string, change: Omit<TankChange, 'now'> = {}): Promise<Verdict | undefined> {
   noteTankDataChanged(tankId)
-  const verdict = await refreshVerdictOffLoop(useDB(), tankId, verdictOffLoop)
+  const verdict = await refreshVerdictOffLoop(useDB(), tankId, evaluateOffLoop)
   followVerdict(tankId, verdict, change)
   return verdict
 }

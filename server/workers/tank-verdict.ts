@@ -4,9 +4,7 @@
  * loop (as the evidence page does on every load) would hold up every other company.
  * Calls the same framework-free pieces the server does: cycleInputFor and evaluateCycle.
  */
-import { evaluateCycle } from '#shared/cycle/engine'
-import type { Verdict } from '#shared/cycle/types'
-import { cycleInputFor } from '#server/db/verdicts'
+import { cycleInputFor, evaluateTank, type TankEvaluation } from '#server/db/verdicts'
 import { workerConnection } from './connection'
 
 export interface TankVerdictTask {
@@ -15,8 +13,8 @@ export interface TankVerdictTask {
   nowMs: number
 }
 
-/** The verdict, or null when there is no such tank. */
-export function tankVerdict(task: TankVerdictTask): Verdict | null {
+/** The verdict and its forecast, or null when there is no such tank. */
+export function tankVerdict(task: TankVerdictTask): TankEvaluation | null {
   const input = cycleInputFor(workerConnection(task.dbPath), task.tankId, new Date(task.nowMs))
-  return input ? evaluateCycle(input) : null
+  return input ? evaluateTank(input) : null
 }

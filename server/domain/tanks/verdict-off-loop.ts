@@ -13,7 +13,7 @@
  */
 import type { Verdict } from '../../../shared/cycle/types'
 import type { Db } from '../../db/connection'
-import { storeVerdict } from '../../db/verdicts'
+import { storeVerdict, type TankEvaluation } from '../../db/verdicts'
 
 /** How many times an evaluation overtaken by newer writes is run again before this refresh gives way to theirs. */
 const MAX_ATTEMPTS = 3
@@ -30,8 +30,8 @@ export function tankDataRevision(tankId: string): number {
   return revisions.get(tankId) ?? 0
 }
 
-/** The engine's verdict as of `now`, computed elsewhere (the heavy-work pool); null when there is no such tank. */
-export type EvaluateElsewhere = (tankId: string, now: Date) => Promise<Verdict | null>
+/** The engine's verdict and forecast as of `now`, computed elsewhere (the heavy-work pool); null when there is no such tank. */
+export type EvaluateElsewhere = (tankId: string, now: Date) => Promise<TankEvaluation | null>
 
 /**
  * Evaluates the tank with `evaluate` and stores the verdict if no change was noted while it
@@ -42,12 +42,12 @@ export async function refreshVerdictOffLoop(db: Db, tankId: string, evaluate: Ev
   for (let attempt = 0; attempt < MAX_ATTEMPTS; attempt++) {
     const revision = tankDataRevision(tankId)
     const now = clock()
-    const verdict = await evaluate(tankId, now)
-    if (!verdict) return undefined
+    const evaluation = await evaluate(tankId, now)
+    if (!evaluation) return undefined
     // Compared and stored in one synchronous step: no other write on this loop can come between.
     if (tankDataRevision(tankId) !== revision) continue
-    storeVerdict(db, tankId, verdict, now.toISOString())
-    return verdict
+    storeVerdict(db, tankId, evaluation, now.toISOString())
+    return evaluation.verdict
   }
   return undefined
 }

@@ -12,6 +12,7 @@ import { randomUUID } from 'node:crypto'
 import { eq } from 'drizzle-orm'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { evaluateCycle } from '../../../../../shared/cycle/engine'
+import { forecastCycle } from '../../../../../shared/cycle/forecast'
 import type { Verdict } from '../../../../../shared/cycle/types'
 import { migrateDatabase, openDatabase, type TidewrightDB } from '../../../../../server/db/connection'
 import { readings, tankVerdicts } from '../../../../../server/db/schema'
@@ -37,6 +38,7 @@ afterAll(() => {
 })
 
 const storedVerdict = (tankId: string) => db.select().from(tankVerdicts).where(eq(tankVerdicts.tankId, tankId)).get()?.verdict
+const storedForecast = (tankId: string) => db.select().from(tankVerdicts).where(eq(tankVerdicts.tankId, tankId)).get()?.forecast
 const engineNow = (tankId: string) => evaluateCycle(cycleInputFor(db, tankId, now)!)
 
 /** What a route does for a test saved by hand: the write, then the verdict refreshed at once. */
@@ -55,6 +57,9 @@ describe('the verdict refreshed off the request loop', () => {
     const verdict = await refreshVerdictOffLoop(db, tankId, async (id, at) => tankVerdict({ dbPath, tankId: id, nowMs: at.getTime() }), () => now)
     expect(verdict).toEqual(engineNow(tankId))
     expect(storedVerdict(tankId)).toEqual(engineNow(tankId))
+    // The forecast lists show is stored with it, made from the same input.
+    const input = cycleInputFor(db, tankId, now)!
+    expect(storedForecast(tankId)).toEqual(forecastCycle(input, evaluateCycle(input)))
   })
 
   it('does not store a verdict older than a test saved while the worker evaluated', async () => {
@@ -62,13 +67,13 @@ describe('the verdict refreshed off the request loop', () => {
     let before: Verdict | null = null
     let raced = false
     await refreshVerdictOffLoop(db, tankId, async (id, at) => {
-      const verdict = tankVerdict({ dbPath, tankId: id, nowMs: at.getTime() })
+      const evaluation = tankVerdict({ dbPath, tankId: id, nowMs: at.getTime() })
       if (!raced) {
         raced = true
-        before = verdict
+        before = evaluation?.verdict ?? null
         saveTestAndRefresh(tankId)
       }
-      return verdict
+      return evaluation
     }, () => now)
     // The saved test changes what the engine says, so an older verdict stored over it would show.
     expect(before).not.toEqual(engineNow(tankId))
