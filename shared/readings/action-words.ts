@@ -13,7 +13,7 @@ type ActionSentence = (action: Pick<CycleAction, 'kind' | 'waterChangePercent'>)
 
 /** The client's sentence for each action kind whose engine text speaks the aquarist's language. */
 export const CLIENT_ACTION_WORDS: Readonly<Record<string, ActionSentence>> = Object.freeze({
-  'water-change': a => `Change ${a.waterChangePercent ? `about ${formatPercent(a.waterChangePercent)} of` : 'some of'} the water, with new salt water mixed to the tank's temperature and salinity.`,
+  'water-change': a => `Change ${a.waterChangePercent ? formatPercent(a.waterChangePercent) : 'some'} of the water now, with new salt water at the tank's temperature and salinity.`,
   'start-cycle': () => 'Start the cycle: add the ammonia dose and the bottled bacteria your aquarist set, note both here, then test ammonia and nitrite every day.',
   'clearance-test': () => 'Add today\'s test dose of ammonia (the amount is under "Why?") and note it here; test ammonia a few hours later, and ammonia and nitrite again before the next dose.',
   'lower-dose': () => 'Use smaller ammonia doses until nitrite comes down (the amounts are under "Why?").',

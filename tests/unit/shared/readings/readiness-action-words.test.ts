@@ -93,7 +93,7 @@ describe('actions in a client\'s words', () => {
   it('says a water change with its percentage, the engine\'s text in the client\'s units as the why', () => {
     const action = { kind: 'water-change', waterChangePercent: 42.3, message: 'Change 43 % of the water (about 127 L) now to bring total ammonia from 2.2 mg/L as N (about 2.7 ppm as NH3) to about 1 mg/L as N (about 1.2 ppm as NH3). Match the new water\'s temperature and salinity to the tank.' }
     const words = actionForClient(action, usClient)
-    expect(words.text).toBe('Change about 43 % of the water, with new salt water mixed to the tank\'s temperature and salinity.')
+    expect(words.text).toBe('Change 43 % of the water now, with new salt water at the tank\'s temperature and salinity.')
     expect(words.why).toContain('gal')
     expect(words.why).not.toContain('mg/L as N')
   })
