@@ -7,7 +7,7 @@
 import { formatNumber } from '../cycle/words'
 import { nitrogenToKit, type KitBasisChoice } from './entry'
 
-const CONCENTRATION = /(\d+(?:\.\d+)?) mg\/L as N(?: \(about [\d.]+ ppm as (NH3|NH4|NO2|NO3)\))?/g
+const CONCENTRATION = /(\d+(?:\.\d+)?) mg\/L as N(?: \(about ([\d.]+) ppm as (NH3|NH4|NO2|NO3)\))?/g
 // The ion the engine wrote beside a figure names its species for sure (a dose of ammonia in a sentence about nitrite).
 const ION_SPECIES: Record<string, string> = { NH3: 'ammonia', NH4: 'ammonia', NO2: 'nitrite', NO3: 'nitrate' }
 const SPECIES = /\b(free \(toxic\) ammonia|free ammonia|ammonia|nitrite|nitrate)\b/gi
@@ -38,7 +38,7 @@ function unrounded(value: string, exactN: readonly number[]): number {
  */
 export function inKitUnits(message: string, kit: KitBasisChoice, exactN: readonly (number | null | undefined)[] = []): string {
   const exact = exactN.filter((e): e is number => typeof e === 'number')
-  return message.replace(CONCENTRATION, (match, value: string, ion: string | undefined, offset: number) => {
+  return message.replace(CONCENTRATION, (match, value: string, ionValue: string | undefined, ion: string | undefined, offset: number) => {
     const before = message.slice(0, offset)
     const nearest = [...before.matchAll(SPECIES)].at(-1)?.[1]?.toLowerCase()
     const n = unrounded(value, exact)
@@ -47,6 +47,9 @@ export function inKitUnits(message: string, kit: KitBasisChoice, exactN: readonl
     }
     const named = (ion && ION_SPECIES[ion]) ?? nearest
     if (!named) return match
-    return kitReads(n, named === 'ammonia' ? kit.ammonia : named === 'nitrite' ? kit.nitrite : kit.nitrate)
+    const basis = named === 'ammonia' ? kit.ammonia : named === 'nitrite' ? kit.nitrite : kit.nitrate
+    // Not a reading's figure: the engine's own in the kit's basis was worked from the unrounded value (1.645 as N is "2 ppm as NH3", not 1.6 restated).
+    if (ion === basis && ionValue !== undefined && n === Number(value)) return `${ionValue} ${kitUnit(basis)}`
+    return kitReads(n, basis)
   })
 }
