@@ -1,7 +1,9 @@
-import type { Finding } from '#shared/cycle/types'
+import type { CycleAction, Finding } from '#shared/cycle/types'
+import { actionForClient, type ClientAction } from '#shared/readings/action-words'
 import type { KitBasisChoice } from '#shared/readings/entry'
 import { findingForClient, type ClientFinding, type MeasuredValues } from '#shared/readings/finding-words'
 import { formatMoment, forReader, type Reader } from '#shared/readings/reader-words'
+import { blockerForClient, blockerRule, type ClientBlocker } from '#shared/readings/readiness-words'
 
 type Kit = { basis: KitBasisChoice, exactN: readonly (number | null | undefined)[] }
 
@@ -29,4 +31,29 @@ export function useFindingWords(kit: () => Kit | undefined, measured: (finding: 
   return (finding: Finding): ClientFinding => (me.isClient
     ? findingForClient(finding, measured(finding), { units: me.units, when: ms => formatMoment(ms, me.timeZone), kit: kit() })
     : { text: words(finding.message), why: null })
+}
+
+/**
+ * Why a livestock group waits, in the reader's voice: a client gets the plain sentence for the
+ * readiness rule that wrote it with the engine's text as the "why"
+ * (`shared/readings/readiness-words.ts`); staff get the engine's text with the rule beside it.
+ */
+export function useBlockerWords(kit: () => Kit | undefined) {
+  const me = useMeStore()
+  const words = useReaderWords(kit)
+  return (blocker: string): ClientBlocker => (me.isClient
+    ? blockerForClient(blocker, { units: me.units, when: ms => formatMoment(ms, me.timeZone), kit: kit() })
+    : { ruleId: blockerRule(blocker), text: words(blocker), why: null })
+}
+
+/**
+ * What to do next, in the reader's voice: a client gets the plain sentence for the action's kind
+ * with the engine's text as the "why" (`shared/readings/action-words.ts`); staff get the engine's text.
+ */
+export function useActionWords(kit: () => Kit | undefined) {
+  const me = useMeStore()
+  const words = useReaderWords(kit)
+  return (action: Pick<CycleAction, 'kind' | 'message' | 'waterChangePercent'>): ClientAction => (me.isClient
+    ? actionForClient(action, { units: me.units, when: ms => formatMoment(ms, me.timeZone), kit: kit() })
+    : { text: words(action.message), why: null })
 }

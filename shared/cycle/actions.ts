@@ -6,8 +6,9 @@
 
 import type { CycleAction } from './types'
 
-// Most urgent first; unknown kinds go last, alphabetically.
-const ORDER = ['water-change', 'test-now', 'retest', 'check-stall', 'lower-dose', 'dose-ammonia', 'clearance-test', 'test-nitrate', 'start-cycle']
+/** Every kind of action the rules propose, most urgent first (unknown kinds go last, alphabetically). */
+export const ACTION_KINDS: readonly string[] = ['water-change', 'test-now', 'retest', 'check-stall', 'lower-dose', 'dose-ammonia', 'clearance-test', 'test-nitrate', 'start-cycle']
+const ORDER = ACTION_KINDS
 
 function rank(kind: string): number {
   const index = ORDER.indexOf(kind)

@@ -11,6 +11,12 @@ describe('inKitUnits (factors: IUPAC atomic weights, NH3-N 0.8224, NO2-N 0.3045,
   it('uses the nearest species named before each number', () => {
     expect(inKitUnits('Nitrite is 0.3 mg/L as N while nitrate is 2 mg/L as N.', KIT)).toBe('Nitrite is 0.99 ppm as NO2 while nitrate is 8.9 ppm as NO3.')
   })
+  it('takes the species from the ion the engine wrote beside a dose when no species is named before it', () => {
+    // The lower-dose action: "Dose about 0.82 mg/L as N (about 1 ppm as NH3) instead of ...".
+    expect(inKitUnits('Dose about 0.82 mg/L as N (about 1 ppm as NH3) until nitrite falls.', { ...KIT, ammonia: 'NH4' })).toBe('Dose about 1.1 ppm as NH4 until nitrite falls.')
+    // On the ion's own basis the engine's figure, worked from the unrounded 1.645 as N, is kept: 2, not 1.6 / 0.8224 = 1.9.
+    expect(inKitUnits('Dose about 0.82 mg/L as N (about 1 ppm as NH3) instead of 1.6 mg/L as N (about 2 ppm as NH3) until nitrite falls.', KIT)).toBe('Dose about 1 ppm as NH3 instead of 2 ppm as NH3 until nitrite falls.')
+  })
   it('keeps nitrogen for a kit that reads as N, and free ammonia as NH3 otherwise', () => {
     expect(inKitUnits('Ammonia is 0.5 mg/L as N.', { ...KIT, ammonia: 'N' })).toBe('Ammonia is 0.5 ppm as N.')
     expect(inKitUnits('Free (toxic) ammonia is 0.05 mg/L as N at pH 8.2.', { ...KIT, ammonia: 'NH4' })).toBe('Free (toxic) ammonia is 0.061 ppm as NH3 at pH 8.2.')
