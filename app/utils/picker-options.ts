@@ -14,3 +14,10 @@ export function pickerOptions(matches: readonly PickerOption[], chosen: PickerOp
 export function pickerCutNote(shown: number, total: number, noun: string): string | null {
   return total > shown ? `Showing ${shown} of ${total} ${noun}. Type in the search box to find the others.` : null
 }
+
+/** The server lists a picker can choose from: the list route and the plural noun its notes use. */
+export const PICKER_LISTS = {
+  tanks: { endpoint: '/api/tanks', noun: 'tanks' },
+  clients: { endpoint: '/api/clients', noun: 'clients' },
+} as const
+export type PickerList = keyof typeof PICKER_LISTS
