@@ -1,6 +1,6 @@
 import { promisify } from 'node:util'
 import { brotliCompress, constants, gzip } from 'node:zlib'
-import { chooseCoding, isCompressibleType, MIN_COMPRESSED_BYTES } from '../utils/response-encoding'
+import { chooseCoding, isCompressibleType, MIN_COMPRESSED_BYTES } from '#server/utils/response-encoding'
 
 const brotli = promisify(brotliCompress)
 const gzipAsync = promisify(gzip)

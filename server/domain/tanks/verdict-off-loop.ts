@@ -11,9 +11,9 @@
  * tells whether a newer write (and its own refresh) came in between. Framework-free: takes a
  * `Db` and the evaluation to run, so the server and the tests share it.
  */
-import type { Verdict } from '../../../shared/cycle/types'
-import type { Db } from '../../db/connection'
-import { storeVerdict, type TankEvaluation } from '../../db/verdicts'
+import type { Verdict } from '#shared/cycle/types'
+import type { Db } from '#server/db/connection'
+import { storeVerdict, type TankEvaluation } from '#server/db/verdicts'
 
 /** How many times an evaluation overtaken by newer writes is run again before this refresh gives way to theirs. */
 const MAX_ATTEMPTS = 3
