@@ -1,13 +1,16 @@
 /**
  * A form names every problem in one round, takes the person to the first, and forgets a
  * message as soon as its field changes: the daily test form, on a phone and on a desk, the
- * event form, and a correction made in the tank's history.
+ * event form, a correction made in the tank's history, and the file fields: a plan upload,
+ * the photo of a test and the CSV import, checked before anything is sent and answered beside
+ * the field when the server refuses.
  */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import type { Browser, Page } from 'playwright-core'
 import { launchBrowser, openPage, screenshot, signInThroughForm } from '../support/browser'
 import { seedScratchCompany, type ScratchCompany } from '../support/company'
 import { ApiClient } from '../support/http'
+import { TINY_PNG } from '../api/access-matrix.data'
 
 let browser: Browser
 let company: ScratchCompany
@@ -130,4 +133,103 @@ describe('the daily test form', () => {
     expect(problems).toEqual([])
     await context.close()
   })
+})
+
+/** A PNG one byte over the upload limit (10 MB). */
+const OVERSIZE_PNG = Buffer.concat([TINY_PNG, Buffer.alloc(10 * 1024 * 1024 + 1 - TINY_PNG.length)])
+/** The requests a page sends whose address contains `part`. */
+function requestsTo(page: Page, part: string): string[] {
+  const sent: string[] = []
+  page.on('request', (request) => { if (request.url().includes(part)) sent.push(`${request.method()} ${request.url()}`) })
+  return sent
+}
+
+describe('file fields', () => {
+  it('a plan file over 10 MB is refused beside its field before anything is sent, and the field is focused (1280 px)', async () => {
+    const { page, context, problems } = await openPage(browser, 1280)
+    await signInThroughForm(page, company.emails.aquarist)
+    await page.goto(`/tanks/${tankId}`)
+    const survey = page.getByRole('article', { name: 'Site survey' })
+    const toggle = survey.getByRole('button', { name: /Site survey/ }).first()
+    if (await toggle.getAttribute('aria-expanded') !== 'true') await toggle.click()
+    const sent = requestsTo(page, '/uploads')
+    const field = survey.getByLabel('Add a photo or PDF to Site survey')
+    await field.setInputFiles({ name: 'whole-wall.png', mimeType: 'image/png', buffer: OVERSIZE_PNG })
+    await expect.poll(() => field.getAttribute('aria-invalid')).toBe('true')
+    const described = await field.getAttribute('aria-describedby')
+    expect(described).toBeTruthy()
+    expect(await page.locator(`[id="${described!.split(' ').pop()}"]`).textContent()).toContain('Files are at most 10 MB.')
+    await expect.poll(() => field.evaluate(el => el === document.activeElement)).toBe(true)
+    expect(sent).toEqual([])
+    // A file that fits takes the message away and is added, with a toast.
+    await field.setInputFiles({ name: 'wall.png', mimeType: 'image/png', buffer: TINY_PNG })
+    await expect.poll(() => survey.getByRole('img', { name: 'wall.png' }).count()).toBe(1)
+    expect(await field.getAttribute('aria-invalid')).toBeNull()
+    await expect.poll(() => page.getByRole('status').filter({ hasText: 'wall.png added.' }).count()).toBe(1)
+    expect(problems).toEqual([])
+    await context.close()
+  })
+
+  it('a test photo over 10 MB is refused beside its field before anything is sent; one the server refuses says why there, focused (375 px)', async () => {
+    const { page, context, problems } = await openPage(browser, 375)
+    await signInThroughForm(page, company.emails.client)
+    await page.goto(`/tanks/${tankId}/tests`)
+    await expect.poll(() => page.getByLabel('Tested at').inputValue()).not.toBe('')
+    await page.getByText('More tests and notes').click()
+    const sent = requestsTo(page, '/test-photos')
+    const field = page.getByLabel('Photo of the test (optional)')
+    await field.setInputFiles({ name: 'strip.png', mimeType: 'image/png', buffer: OVERSIZE_PNG })
+    await expect.poll(() => field.getAttribute('aria-invalid')).toBe('true')
+    await expect.poll(() => page.getByText('Files are at most 10 MB.').isVisible()).toBe(true)
+    await expect.poll(() => focusedId(page)).toBe('reading-photo')
+    expect(sent).toEqual([])
+    // Named like a PNG but not one: only the server can tell, and its words go beside the field.
+    await field.setInputFiles({ name: 'strip.png', mimeType: 'image/png', buffer: Buffer.from('not a picture at all') })
+    await expect.poll(() => page.getByText(/this file's content is none of those/).isVisible()).toBe(true)
+    expect(await page.getByText('Files are at most 10 MB.').count()).toBe(0)
+    expect(await field.getAttribute('aria-invalid')).toBe('true')
+    await expect.poll(() => focusedId(page)).toBe('reading-photo')
+    expect(sent).toHaveLength(1)
+    expect(problems.filter(p => !/^415 .*\/test-photos$/.test(p))).toEqual([])
+    await context.close()
+  })
+
+  for (const width of [375, 1280]) {
+    it(`the CSV import refuses a picture before sending, shows the server's refusal beside the file, focused, and forgets it for the next file (${width} px)`, async () => {
+      const { page, context, problems } = await openPage(browser, width)
+      await signInThroughForm(page, company.emails.aquarist)
+      await page.goto(`/tanks/${tankId}/history`)
+      await page.getByText('Import tests from a CSV file').click()
+      const sent = requestsTo(page, '/readings/import')
+      const field = page.getByLabel('CSV file')
+      await field.setInputFiles({ name: 'strip.png', mimeType: 'image/png', buffer: TINY_PNG })
+      await expect.poll(() => field.getAttribute('aria-invalid')).toBe('true')
+      await expect.poll(() => page.getByText(/not a CSV file/).isVisible()).toBe(true)
+      await expect.poll(() => focusedId(page)).toBe('import-file')
+      expect(sent).toEqual([])
+
+      // A header row that names a column twice: the server refuses the file, beside the field.
+      const day = (n: number) => new Date(Date.now() - n * 86_400_000).toISOString()
+      await field.setInputFiles({ name: 'twice.csv', mimeType: 'text/csv', buffer: Buffer.from(`Date,NH3,NH3\n${day(3)},0.5,0.5\n`) })
+      const repeated = page.getByText(/The header row repeats a column name/)
+      await expect.poll(() => repeated.isVisible()).toBe(true)
+      expect(await page.getByText(/not a CSV file/).count()).toBe(0)
+      expect(await field.getAttribute('aria-invalid')).toBe('true')
+      expect(await field.getAttribute('aria-describedby')).toContain('import-file-error')
+      await expect.poll(() => focusedId(page)).toBe('import-file')
+      expect(sent).toHaveLength(1)
+      await screenshot(page, `import-field-error-${width}`)
+      expect(await page.evaluate(() => document.documentElement.scrollWidth)).toBeLessThanOrEqual(width)
+
+      // The next file takes the message away; its import is confirmed by a toast.
+      await field.setInputFiles({ name: 'tests.csv', mimeType: 'text/csv', buffer: Buffer.from(`Date,NH3\n${day(4 + width / 1000)},0.5\n`) })
+      await expect.poll(() => page.getByText('1 ready to import').isVisible()).toBe(true)
+      expect(await repeated.count()).toBe(0)
+      expect(await field.getAttribute('aria-invalid')).toBeNull()
+      await page.getByRole('button', { name: 'Import 1 tests' }).click()
+      await expect.poll(() => page.getByRole('status').filter({ hasText: '1 tests imported' }).count()).toBeGreaterThan(0)
+      expect(problems.filter(p => !/^400 .*\/readings\/import$/.test(p))).toEqual([])
+      await context.close()
+    })
+  }
 })
