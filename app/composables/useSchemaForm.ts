@@ -14,6 +14,11 @@ export interface SchemaFormOptions<TValues, TBody> {
   failure?: string
   /** The toast once the request went through ("Client saved.", or words made from the body sent); none when not given. */
   saved?: string | ((body: TBody) => string)
+  /**
+   * The field that shows what no other field on screen shows (a refusal naming no field, a
+   * message for a column not on screen yet): a form that is one file input says it all there.
+   */
+  catchAllField?: string
 }
 
 /** What to say beside the button (forms end with it) when some fields are marked. */
@@ -58,16 +63,32 @@ export function useSchemaForm<TSchema extends v.GenericSchema, TValues extends o
   }
   // The last form set up in a component is the one its FormFields report to.
   if (getCurrentInstance()) provide(SCHEMA_FORM, { errors, show })
-  /** Messages no field on screen shows; they go above the button instead. */
+  /** Fields of `found` no field on screen shows; they go above the button instead (or beside the catch-all field). */
   const aside = (found: FieldErrors) => {
     const known = [...Object.keys(leaves(values)), ...[...onScreen].filter(([, n]) => n > 0).map(([field]) => field)]
-    return unshown(found, known, fieldOf)
+    return unshownFields(found, known, fieldOf)
+  }
+  /** Puts messages on screen: each beside its field, the rest beside the catch-all field or above the button. */
+  function mark(found: FieldErrors) {
+    const stray = aside(found)
+    const catchAll = options.catchAllField
+    if (catchAll && stray.length) {
+      const placed = Object.fromEntries(Object.entries(found).filter(([path]) => !stray.includes(path)))
+      placed[catchAll] = [placed[catchAll], ...stray.map(path => found[path])].filter(Boolean).join(' ')
+      errors.value = placed
+      formError.value = CHECK_FIELDS
+      return
+    }
+    errors.value = found
+    formError.value = stray.map(path => found[path]).join(' ') || CHECK_FIELDS
   }
 
+  // Synchronous, so a value set and checked in one go (a file chosen and sent at once) keeps the
+  // messages that check found: a later flush would take them away as "changed".
   watch(() => leaves(values), (now, before) => {
     const changed = Object.keys(now).filter(key => now[key] !== before[key])
     if (changed.length) errors.value = withoutFields(errors.value, changed, fieldOf)
-  })
+  }, { flush: 'sync' })
 
   /** Every message the schema and the extra checks find; the body to send when there is none. */
   function validate(): { ok: true, body: TBody } | { ok: false } {
@@ -78,7 +99,7 @@ export function useSchemaForm<TSchema extends v.GenericSchema, TValues extends o
     for (const [field, message] of Object.entries(options.check?.(plain()) ?? {})) found[field] ??= message
     errors.value = found
     if (Object.keys(found).length) {
-      formError.value = aside(found).join(' ') || CHECK_FIELDS
+      mark(found)
       return { ok: false }
     }
     return { ok: true, body }
@@ -87,10 +108,40 @@ export function useSchemaForm<TSchema extends v.GenericSchema, TValues extends o
   /** Shows a failed request: field messages beside their fields, anything else above the button. */
   function showServerError(error: unknown) {
     const fields = serverFieldErrors(error)
-    errors.value = fields ?? {}
-    formError.value = fields
-      ? aside(fields).join(' ') || CHECK_FIELDS
-      : apiErrorMessage(error, options.failure ?? 'That did not work. Try again.')
+    const failure = () => apiErrorMessage(error, options.failure ?? 'That did not work. Try again.')
+    if (fields) mark(fields)
+    else if (options.catchAllField) mark({ [options.catchAllField]: failure() })
+    else {
+      errors.value = {}
+      formError.value = failure()
+    }
+  }
+
+  /**
+   * Sends what one field holds the moment it is chosen (a photo stored before the form is
+   * saved): `value` is checked with `schema` first, then `send` runs. A message from either
+   * goes beside that field, whatever field the server named; the other fields' messages stay,
+   * and focus moves to `control`. Resolves what `send` answered, or null when refused.
+   */
+  async function sendField<TValue, TResult>(field: string, schema: v.GenericSchema, value: TValue, send: (value: TValue) => Promise<TResult>, control?: HTMLElement | null): Promise<TResult | null> {
+    const others = withoutFields(errors.value, [field])
+    errors.value = others
+    const refuse = async (message: string) => {
+      errors.value = { ...others, [field]: message }
+      await nextTick()
+      control?.focus({ preventScroll: true })
+      control?.scrollIntoView?.({ block: 'center' })
+      return null
+    }
+    const parsed = v.safeParse(schema, value)
+    if (!parsed.success) return refuse(parsed.issues[0].message)
+    try {
+      return await send(value)
+    }
+    catch (error) {
+      const named = Object.values(serverFieldErrors(error) ?? {})
+      return refuse(named.join(' ') || apiErrorMessage(error, options.failure ?? 'That did not work. Try again.'))
+    }
   }
 
   /**
@@ -112,6 +163,8 @@ export function useSchemaForm<TSchema extends v.GenericSchema, TValues extends o
         return true
       }
       catch (error) {
+        // Controls a form disables while sending take focus again only once it is over.
+        submitting.value = false
         showServerError(error)
         await focusFirstInvalid(root)
         return false
@@ -130,7 +183,7 @@ export function useSchemaForm<TSchema extends v.GenericSchema, TValues extends o
   }
 
   // One reactive object, so templates read `form.errors.name` and `form.submitting` directly.
-  return reactive({ values, errors, formError, submitting, validate, showServerError, handleSubmit, reset, show })
+  return reactive({ values, errors, formError, submitting, validate, showServerError, handleSubmit, sendField, reset, show })
 }
 
 /** The form a submit event came from (its listener sits on the form). */
@@ -149,9 +202,16 @@ export async function focusFirstInvalid(root: ParentNode | null): Promise<void> 
   field.scrollIntoView?.({ block: 'center' })
 }
 
+/** Plain objects and arrays hold fields; anything else (a Date, a chosen File) is one value. */
+function isPlain(value: unknown): value is object {
+  if (!value || typeof value !== 'object') return false
+  const proto = Object.getPrototypeOf(value)
+  return Array.isArray(value) || proto === Object.prototype || proto === null
+}
+
 /** The values as leaf paths (`dims.lengthMm` -> 48) so a change can be traced to its field. */
 export function leaves(value: unknown, prefix = '', out: Record<string, unknown> = {}): Record<string, unknown> {
-  if (value && typeof value === 'object' && !(value instanceof Date)) {
+  if (isPlain(value)) {
     for (const [key, inner] of Object.entries(value)) leaves(inner, prefix ? `${prefix}.${key}` : key, out)
   }
   else if (prefix) out[prefix] = value
@@ -167,15 +227,20 @@ export function withoutFields(errors: FieldErrors, changed: readonly string[], f
 
 /** Messages for fields no input shows (the whole body, a field only the server checks). */
 export function unshown(errors: FieldErrors, known: readonly string[], fieldOf: (path: string) => string = p => p): string[] {
+  return unshownFields(errors, known, fieldOf).map(path => errors[path]!)
+}
+
+/** The fields of those messages. */
+export function unshownFields(errors: FieldErrors, known: readonly string[], fieldOf: (path: string) => string = p => p): string[] {
   const covers = (k: string, path: string) => k === path || path.startsWith(`${k}.`)
   const shown = (path: string) => known.some(k => covers(k, path) || covers(k, fieldOf(path)))
-  return Object.entries(errors).filter(([path]) => !shown(path)).map(([, message]) => message)
+  return Object.keys(errors).filter(path => !shown(path))
 }
 
 /** A deep copy of plain values (arrays and objects), so the form never edits what it was given. */
 function copy<T>(value: T): T {
   if (Array.isArray(value)) return value.map(copy) as T
-  if (value && typeof value === 'object' && !(value instanceof Date)) {
+  if (isPlain(value)) {
     return Object.fromEntries(Object.entries(value).map(([k, inner]) => [k, copy(inner)])) as T
   }
   return value

@@ -1,12 +1,9 @@
 /** What a file is, judged from its first bytes (magic numbers), never from its name. Framework-free. */
 
-export const ACCEPTED_FILE_TYPES = {
-  'image/jpeg': { label: 'JPEG image', extensions: ['jpg', 'jpeg'] },
-  'image/png': { label: 'PNG image', extensions: ['png'] },
-  'image/webp': { label: 'WebP image', extensions: ['webp'] },
-  'application/pdf': { label: 'PDF document', extensions: ['pdf'] },
-} as const
-export type AcceptedMimeType = keyof typeof ACCEPTED_FILE_TYPES
+import { ACCEPTED_FILE_TYPES, acceptedTypesWords, extensionOf, type AcceptedMimeType } from '#shared/uploads/files'
+
+// The accepted types and their names live with the upload limit, where the forms read them too.
+export { ACCEPTED_FILE_TYPES, extensionOf, type AcceptedMimeType }
 
 const startsWith = (bytes: Uint8Array, signature: readonly number[], offset = 0) =>
   bytes.length >= offset + signature.length && signature.every((b, i) => bytes[offset + i] === b)
@@ -21,19 +18,12 @@ export function detectFileType(bytes: Uint8Array): AcceptedMimeType | null {
   return null
 }
 
-/** The lower-case extension of a file name, or '' when it has none. */
-export function extensionOf(name: string): string {
-  const base = name.split(/[\\/]/).pop() ?? ''
-  const dot = base.lastIndexOf('.')
-  return dot > 0 ? base.slice(dot + 1).toLowerCase() : ''
-}
-
 /**
  * Why a file is refused, or null when it is accepted: the content must be an accepted
  * type, and a name that carries an extension must agree with the content.
  */
 export function fileTypeProblem(name: string, detected: AcceptedMimeType | null): string | null {
-  if (!detected) return 'Only JPEG, PNG or WebP photos and PDF documents can be uploaded; this file\'s content is none of those.'
+  if (!detected) return `Only ${acceptedTypesWords()} can be uploaded; this file's content is none of those.`
   const ext = extensionOf(name)
   const expected: readonly string[] = ACCEPTED_FILE_TYPES[detected].extensions
   if (ext && !expected.includes(ext)) {

@@ -9,7 +9,7 @@ import { uploads } from '#server/db/schema'
 import type { Db } from '#server/db/connection'
 import type { Actor } from './access'
 import { detectFileType, fileTypeProblem, type AcceptedMimeType } from './file-type'
-import { MAX_UPLOAD_BYTES } from '#server/domain/http/body-limits'
+import { MAX_UPLOAD_BYTES, UPLOAD_EMPTY_MESSAGE, UPLOAD_MISSING_MESSAGE, uploadTooLargeMessage } from '#shared/uploads/files'
 import { removeExpiredPendingPhotos as removeExpiredPendingPhotoRows } from '#server/domain/uploads/pending-photos'
 
 /** Longest side of a thumbnail, px. */
@@ -24,7 +24,7 @@ export interface ReceivedFile {
 }
 
 function tooLarge(): never {
-  throw createError({ statusCode: 413, statusMessage: 'File too large', data: { issues: [{ field: 'file', message: `Files are at most ${MAX_UPLOAD_BYTES / 1024 / 1024} MB.` }] } })
+  throw createError({ statusCode: 413, statusMessage: 'File too large', data: { issues: [{ field: 'file', message: uploadTooLargeMessage() }] } })
 }
 
 function refused(statusCode: 400 | 415, message: string): never {
@@ -41,8 +41,8 @@ export async function receiveUpload(event: H3Event): Promise<ReceivedFile> {
   // The body was read and held to the upload limit by server/middleware/00.body-limit.ts.
   const parts = await readMultipartFormData(event)
   const filePart = parts?.find(p => p.name === 'file' && p.filename !== undefined)
-  if (!filePart) refused(400, 'Choose a file to upload.')
-  if (filePart.data.length === 0) refused(400, 'The file is empty.')
+  if (!filePart) refused(400, UPLOAD_MISSING_MESSAGE)
+  if (filePart.data.length === 0) refused(400, UPLOAD_EMPTY_MESSAGE)
   if (filePart.data.length > MAX_UPLOAD_BYTES) tooLarge()
   const detected = detectFileType(filePart.data)
   const problem = fileTypeProblem(filePart.filename ?? '', detected)

@@ -2,12 +2,10 @@
  * How many bytes of request body each route takes: one table for every method and
  * framing. JSON routes are small; the file uploads and the CSV import have their own.
  */
+import { MAX_UPLOAD_BYTES } from '#shared/uploads/files'
 
 const KB = 1024
 const MB = 1024 * KB
-
-/** Largest accepted uploaded file (the upload routes check the file itself against this). */
-export const MAX_UPLOAD_BYTES = 10 * MB
 /** Room for multipart boundaries and part headers around the file. */
 export const MULTIPART_OVERHEAD_BYTES = 64 * KB
 
@@ -16,7 +14,7 @@ export const BODY_LIMITS = {
   json: 64 * KB,
   /** The plan template: up to 30 stages of 30 checklist items. */
   planTemplate: 1 * MB,
-  /** Multipart uploads: one file of at most 10 MB. */
+  /** Multipart uploads: one file of at most MAX_UPLOAD_BYTES (shared/uploads/files.ts, which the forms check too). */
   upload: MAX_UPLOAD_BYTES + MULTIPART_OVERHEAD_BYTES,
   /** CSV import as JSON text: 100,000 rows are about 8 MB. */
   import: 24 * MB,
