@@ -3,6 +3,7 @@ import { nextTick } from 'vue'
 import { describe, expect, it } from 'vitest'
 import { CHECK_FIELDS, leaves, unshown, useSchemaForm, withoutFields } from '../../../../app/composables/useSchemaForm'
 import type { FieldErrors } from '../../../../app/utils/api-error'
+import { MAX_UPLOAD_BYTES, uploadFileSchema, uploadTooLargeMessage } from '../../../../shared/uploads/files'
 
 const ClientSchema = v.object({
   name: v.pipe(v.string(), v.trim(), v.minLength(1, 'Give the client a name.')),
@@ -126,9 +127,77 @@ describe('useSchemaForm', () => {
   })
 })
 
+describe('a file field', () => {
+  const png = (bytes: number, name = 'strip.png') => new File([new Uint8Array(bytes)], name, { type: 'image/png' })
+
+  it('holds a chosen File as one value, checks it, and forgets its message the moment another is chosen', async () => {
+    const form = useSchemaForm(uploadFileSchema(), { file: null as File | null })
+    const sent: unknown[] = []
+    const send = form.handleSubmit(async body => sent.push(body))
+    const big = png(MAX_UPLOAD_BYTES + 1)
+    form.values.file = big
+    // Set and checked in one go: the check's message stays (the change came before it).
+    expect(await send()).toBe(false)
+    expect(form.errors).toEqual({ file: uploadTooLargeMessage() })
+    expect(form.values.file).toBe(big)
+    form.values.file = png(10)
+    expect(form.errors).toEqual({})
+    expect(await send()).toBe(true)
+    expect((sent[0] as { file: File }).file.name).toBe('strip.png')
+  })
+
+  it('names an empty file, a missing one and a wrong kind', async () => {
+    const form = useSchemaForm(uploadFileSchema(), { file: null as File | null })
+    expect(form.validate().ok).toBe(false)
+    expect(form.errors).toEqual({ file: 'Choose a file to upload.' })
+    form.values.file = png(0)
+    form.validate()
+    expect(form.errors).toEqual({ file: 'The file is empty.' })
+    form.values.file = new File(['a,b'], 'tests.csv', { type: 'text/csv' })
+    form.validate()
+    expect(form.errors.file).toBe('Only JPEG, PNG or WebP photos and PDF documents can be added here.')
+  })
+
+  it('with a catch-all field, says beside it what no other field on screen shows', async () => {
+    const form = useSchemaForm(ClientSchema, { name: 'Ada', email: 'ada@example.test', notes: '' }, { catchAllField: 'name' })
+    await form.handleSubmit(async () => { throw failed({ statusMessage: 'The tank was signed off while the file was being read.' }) })()
+    expect(form.errors).toEqual({ name: 'The tank was signed off while the file was being read.' })
+    expect(form.formError).toBe(CHECK_FIELDS)
+    await form.handleSubmit(async () => {
+      throw failed({ data: { issues: [{ field: 'email', message: 'Taken.' }, { field: 'mapping.takenAt', message: 'Choose the date column.' }] } })
+    })()
+    expect(form.errors).toEqual({ email: 'Taken.', name: 'Choose the date column.' })
+  })
+
+  it('sendField: checks one value, sends it, and puts a refusal of either kind beside that field, keeping the others', async () => {
+    const form = useSchemaForm(ClientSchema, blank())
+    form.validate()
+    const focused: string[] = []
+    const control = { focus: () => focused.push('photo'), scrollIntoView: () => undefined } as unknown as HTMLElement
+    const sent: unknown[] = []
+    const send = async (value: { file: File }) => { sent.push(value.file.name); return { id: 'u1' } }
+    expect(await form.sendField('photoUploadId', uploadFileSchema(), { file: png(MAX_UPLOAD_BYTES + 1) }, send, control)).toBeNull()
+    expect(sent).toEqual([])
+    expect(form.errors.photoUploadId).toBe(uploadTooLargeMessage())
+    expect(form.errors.name).toBe('Give the client a name.')
+    expect(focused).toEqual(['photo'])
+    const refused = await form.sendField('photoUploadId', uploadFileSchema(), { file: png(10) }, async () => {
+      throw failed({ statusMessage: 'Unsupported file', data: { issues: [{ field: 'file', message: 'Not a picture.' }] } })
+    }, control)
+    expect(refused).toBeNull()
+    expect(form.errors.photoUploadId).toBe('Not a picture.')
+    expect(await form.sendField('photoUploadId', uploadFileSchema(), { file: png(10) }, send, control)).toEqual({ id: 'u1' })
+    expect(form.errors.photoUploadId).toBeUndefined()
+    expect(form.errors.email).toBe('Enter an e-mail address.')
+  })
+})
+
 describe('the pieces', () => {
   it('leaves: nested values by path', () => {
     expect(leaves({ a: 1, b: { c: '', d: { e: null } }, f: [] })).toEqual({ 'a': 1, 'b.c': '', 'b.d.e': null })
+    // A chosen file is one value, not an object of fields.
+    const file = new File(['x'], 'x.png')
+    expect(leaves({ upload: { file } })).toEqual({ 'upload.file': file })
   })
   it('withoutFields: a changed field takes its children\'s messages and its parent\'s', () => {
     const errors = { 'dims': 'Enter the dimensions.', 'dims.lengthMm': 'Too long.', 'name': 'Name it.' }
