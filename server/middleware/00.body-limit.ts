@@ -5,7 +5,7 @@
  * sender that keeps going far past it is cut off. What was read is handed to h3's body readers.
  */
 import type { IncomingMessage } from 'node:http'
-import { bodyLimitFor, drainAllowance } from '#server/domain/http/body-limits'
+import { bodyLimitFor, bodyTooLarge, drainAllowance } from '#server/domain/http/body-limits'
 
 function hasBody(req: IncomingMessage): boolean {
   return Number(req.headers['content-length'] ?? 0) > 0 || req.headers['transfer-encoding'] !== undefined
@@ -42,7 +42,10 @@ export default defineEventHandler(async (event) => {
   if (!hasBody(req)) return
   const limit = bodyLimitFor(event.path)
   const body = await readWithin(req, limit)
-  if (!body) throw createError({ statusCode: 413, statusMessage: 'Request too large', message: `This request may carry at most ${Math.round(limit / 1024)} KB.` })
+  if (!body) {
+    const { message, issues } = bodyTooLarge(limit)
+    throw createError({ statusCode: 413, statusMessage: 'Request too large', message, data: issues ? { issues } : undefined })
+  }
   // h3's readBody/readRawBody/readMultipartFormData take an already-read body from here.
   ;(req as IncomingMessage & { body?: Buffer }).body = body
 })

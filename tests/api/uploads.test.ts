@@ -95,6 +95,15 @@ describe('stage uploads', () => {
     expect(response.body.data.issues[0].message).toContain('10 MB')
   })
 
+  it('names the file and its 10 MB limit when the whole body is past the upload route\'s limit', async () => {
+    const api = await signedIn(co.emails.aquarist)
+    // 11 MB: refused while the body is read, before the upload route sees it; the form still puts the answer beside the file.
+    const huge = Buffer.concat([png, Buffer.alloc(11 * 1024 * 1024 - png.length)])
+    const response = await upload(api, huge, 'huge.png')
+    expect(response.status, JSON.stringify(response.body)).toBe(413)
+    expect(response.body.data.issues).toEqual([{ field: 'file', message: 'Files are at most 10 MB.' }])
+  })
+
   it('is 400 without a file, 403 for a client or supervisor, 404 for another company\'s tank', async () => {
     const api = await signedIn(co.emails.aquarist)
     const empty = await fetch(`${api.baseURL}/api/tanks/${tankId}/stages/${stageId}/uploads`, { method: 'POST', body: new FormData(), headers: { cookie: api.cookieHeader() } })

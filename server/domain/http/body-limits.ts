@@ -2,7 +2,7 @@
  * How many bytes of request body each route takes: one table for every method and
  * framing. JSON routes are small; the file uploads and the CSV import have their own.
  */
-import { MAX_UPLOAD_BYTES } from '#shared/uploads/files'
+import { MAX_UPLOAD_BYTES, uploadTooLargeMessage } from '#shared/uploads/files'
 
 const KB = 1024
 const MB = 1024 * KB
@@ -31,6 +31,24 @@ const ROUTES: ReadonlyArray<[RegExp, number]> = [
 export function bodyLimitFor(path: string): number {
   const bare = path.split('?')[0]!
   return ROUTES.find(([pattern]) => pattern.test(bare))?.[1] ?? BODY_LIMITS.json
+}
+
+/** A refusal for a body past its limit, with the field a form shows it beside when there is one. */
+export interface BodyTooLarge {
+  message: string
+  issues?: Array<{ field: string, message: string }>
+}
+
+/**
+ * What a 413 for this limit says: for an upload, the file's own limit beside the file field
+ * (the same words the upload route and the forms use); otherwise the body's size in KB.
+ */
+export function bodyTooLarge(limit: number): BodyTooLarge {
+  if (limit === BODY_LIMITS.upload) {
+    const message = uploadTooLargeMessage()
+    return { message, issues: [{ field: 'file', message }] }
+  }
+  return { message: `This request may carry at most ${Math.round(limit / 1024)} KB.` }
 }
 
 /**
