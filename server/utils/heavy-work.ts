@@ -43,6 +43,15 @@ function heavyPool(): Piscina {
   return pool
 }
 
+/**
+ * Starts the pool's first thread now (server start) rather than on the first task: starting a
+ * thread and loading the worker's code take a few hundred ms that a CSV import would otherwise
+ * wait for. A build without its workers still fails on the first import, as before.
+ */
+export function warmHeavyPool(): void {
+  heavyPool()
+}
+
 const dbPath = () => resolve(useRuntimeConfig().dbPath)
 
 /** Runs a CSV import (plan, day caps, write and audit line) in the pool; see server/workers/reading-import.ts. */

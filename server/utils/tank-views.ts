@@ -6,7 +6,7 @@ import type { TankListQuery } from '#shared/schemas/tank-list'
 import type { CyclePhase, TankList, TankSummary, TankView } from '#shared/types/tanks'
 import { clients, planStages, sites, tankVerdicts, tanks, users } from '#server/db/schema'
 import { netWaterLitres } from '#shared/plan/net-volume'
-import { preparedFor, visibleTankCondition, visibleTankPlaceholders, visibleTankValues, type Actor } from './access'
+import { preparedFor, visibleTankPlaceholders, visibleTankValues, type Actor } from './access'
 import { preparedPerDb } from '#server/db/prepared'
 import { listedForecast } from '#server/domain/forecast/tank-forecast'
 import { storedForecasts } from '#server/db/verdicts'
@@ -79,29 +79,77 @@ function withForecast(summary: TankSummary, stored: CycleForecast | null | undef
   return forecast ? { ...summary, forecast } : summary
 }
 
+/** What decides a list statement's SQL: which filters are given, the sort and whose view it is (their values are bound). */
+interface ListShape {
+  client: boolean
+  status: boolean
+  clientId: boolean
+  stage: 'none' | 'complete' | 'key'
+  q: boolean
+  sort: TankListQuery['sort']
+  dir: TankListQuery['dir']
+}
+
+/**
+ * The page and count statements of one list shape, values as placeholders. Building a query
+ * of this size with Drizzle on every request cost more than running it (a third of the
+ * route's time in the profile), so each shape is built and prepared the first time it is
+ * asked for, then only bound and run. There are at most a few hundred shapes.
+ */
+function prepareList(shape: ListShape) {
+  const conditions: SQL[] = [shape.client ? visibleTankPlaceholders.client : visibleTankPlaceholders.staff]
+  if (shape.status) conditions.push(eq(tanks.status, sql.placeholder('status')))
+  if (shape.clientId) conditions.push(eq(tanks.clientId, sql.placeholder('listClientId')))
+  if (shape.stage === 'complete') conditions.push(sql`${currentStageKey} is null`)
+  else if (shape.stage === 'key') conditions.push(sql`${currentStageKey} = ${sql.placeholder('stage')}`)
+  if (shape.q) conditions.push(or(sql`${tanks.name} like ${sql.placeholder('pattern')} escape '\\'`, sql`${clients.name} like ${sql.placeholder('pattern')} escape '\\'`)!)
+  const where = and(...conditions)
+  const column = SORT_COLUMNS[shape.sort]
+  const order = shape.dir === 'asc' ? asc(column) : desc(column)
+  return {
+    page: baseQuery().where(where).orderBy(order, asc(tanks.id)).limit(sql.placeholder('limit')).offset(sql.placeholder('offset')).prepare(),
+    count: useDB().select({ n: sql<number>`count(*)` }).from(tanks).innerJoin(clients, eq(clients.id, tanks.clientId)).where(where).prepare(),
+  }
+}
+
+const listStatements = preparedPerDb(() => new Map<string, ReturnType<typeof prepareList>>())
+
+function listStatementsFor(shape: ListShape): ReturnType<typeof prepareList> {
+  const byShape = listStatements(useDB())
+  const key = `${shape.client}|${shape.status}|${shape.clientId}|${shape.stage}|${shape.q}|${shape.sort}|${shape.dir}`
+  let statements = byShape.get(key)
+  if (!statements) {
+    statements = prepareList(shape)
+    byShape.set(key, statements)
+  }
+  return statements
+}
+
 /** One page of the tanks the actor may see, filtered and sorted on the server, phases as of `now`. */
 export function listTanks(actor: Actor, query: TankListQuery, now = new Date()): TankList {
-  const conditions: SQL[] = [visibleTankCondition(actor)]
-  if (query.status) conditions.push(eq(tanks.status, query.status))
-  if (query.clientId) conditions.push(eq(tanks.clientId, query.clientId))
-  if (query.stage === 'complete') conditions.push(sql`${currentStageKey} is null`)
-  else if (query.stage) conditions.push(sql`${currentStageKey} = ${query.stage}`)
-  if (query.q) {
-    const pattern = `%${query.q.replace(/[%_\\]/g, m => `\\${m}`)}%`
-    conditions.push(or(sql`${tanks.name} like ${pattern} escape '\\'`, sql`${clients.name} like ${pattern} escape '\\'`)!)
+  const statements = listStatementsFor({
+    client: actor.role === 'client',
+    status: Boolean(query.status),
+    clientId: Boolean(query.clientId),
+    stage: query.stage === 'complete' ? 'complete' : query.stage ? 'key' : 'none',
+    q: Boolean(query.q),
+    sort: query.sort,
+    dir: query.dir,
+  })
+  const values = {
+    ...visibleTankValues(actor),
+    status: query.status,
+    listClientId: query.clientId,
+    stage: query.stage,
+    pattern: query.q ? `%${query.q.replace(/[%_\\]/g, m => `\\${m}`)}%` : undefined,
   }
-  const where = and(...conditions)
-  const column = SORT_COLUMNS[query.sort]
-  const order = query.dir === 'asc' ? asc(column) : desc(column)
-  const page = () => baseQuery().where(where).orderBy(order, asc(tanks.id))
-    .limit(query.pageSize).offset((query.page - 1) * query.pageSize).all()
+  const page = () => statements.page.all({ ...values, limit: query.pageSize, offset: (query.page - 1) * query.pageSize })
   let rows = page()
   // A phase time alone has changed is made again before the page is shown.
   if (refreshStaleVerdicts(now, rows.map(r => r.tank.id)) > 0) rows = page()
   // One row per tank, the forecast kept with its verdict: never the tanks' histories.
   const forecasts = storedForecasts(useDB(), rows.map(r => r.tank.id))
-  const total = useDB().select({ n: sql<number>`count(*)` }).from(tanks)
-    .innerJoin(clients, eq(clients.id, tanks.clientId)).where(where).get()?.n ?? 0
+  const total = statements.count.get(values)?.n ?? 0
   return { items: rows.map(row => withForecast(toSummary(row), forecasts.get(row.tank.id))), total, page: query.page, pageSize: query.pageSize }
 }
 

@@ -9,7 +9,7 @@ import Papa from 'papaparse'
 import type { ReadingImportInput } from '../schemas/reading'
 import type { ImportPreview, ImportRowError } from '../types/readings'
 import { MEASURED_FIELDS, type MeasuredField } from '../vocabulary'
-import { arrayRowToEntry, columnIndexes, csvNumber, duplicateHeaderColumns, guessMapping, importBasis } from './csv'
+import { arrayRowToEntry, columnIndexes, csvNumberText, duplicateHeaderColumns, guessMapping, importBasis } from './csv'
 import { toCanonicalReading, type CanonicalReading, type CanonicalValues, type KitBasisChoice } from './entry'
 import { dayFullRowMessage, MAX_IMPORT_ROWS, TESTS_PER_TANK_PER_DAY } from './limits'
 
@@ -18,6 +18,8 @@ const MAX_REPORTED_ERRORS = 200
 const PREVIEW_ROWS = 20
 
 const FIELD_COUNT = MEASURED_FIELDS.length
+/** Each measured field's column in a row of ImportRows' values (read once per value written, so not searched each time). */
+const FIELD_INDEX = Object.fromEntries(MEASURED_FIELDS.map((field, f) => [field, f])) as Record<MeasuredField, number>
 
 /**
  * The rows to write, held in columns (strings in arrays, numbers in one Float64Array) rather
@@ -45,9 +47,7 @@ export class ImportRows {
       grown.set(this.values)
       this.values = grown
     }
-    MEASURED_FIELDS.forEach((field, f) => {
-      this.values[i * FIELD_COUNT + f] = reading.values[field] ?? Number.NaN
-    })
+    for (let f = 0; f < FIELD_COUNT; f++) this.values[i * FIELD_COUNT + f] = reading.values[MEASURED_FIELDS[f]!] ?? Number.NaN
     this.line.push(line)
     this.takenAt.push(reading.takenAt)
     this.key.push(key)
@@ -57,7 +57,7 @@ export class ImportRows {
 
   /** Row i's value of a measured field; null when the row left it empty. */
   value(i: number, field: MeasuredField): number | null {
-    const v = this.values[i * FIELD_COUNT + MEASURED_FIELDS.indexOf(field)]!
+    const v = this.values[i * FIELD_COUNT + FIELD_INDEX[field]]!
     return Number.isNaN(v) ? null : v
   }
 
@@ -123,7 +123,7 @@ export function importKeyOf(reading: CanonicalReading): string {
   let normalised = reading.takenAt
   for (const field of MEASURED_FIELDS) {
     const value = reading.values[field]
-    normalised += value === null ? '|' : `|${csvNumber(value)}`
+    normalised += value === null ? '|' : `|${csvNumberText(value)}`
   }
   normalised += `|${reading.notes ?? ''}`
   return hash('sha256', normalised, 'hex').slice(0, 32)
@@ -225,18 +225,23 @@ export function capPerDay(plan: ImportPlan, held: ReadonlyMap<string, number>): 
   const counts = new Map(held)
   const capped = { errors: [...plan.errors], errorCount: plan.errorCount }
   const report = errorCollector(capped)
-  const kept = plan.rows.filter((i) => {
+  const keep = new Uint8Array(plan.rows.length)
+  let refused = 0
+  for (let i = 0; i < plan.rows.length; i++) {
     const day = dayOf(plan.rows.takenAt[i]!)
     const n = counts.get(day) ?? 0
     if (n >= TESTS_PER_TANK_PER_DAY) {
       report(plan.rows.line[i]!, [{ field: 'takenAt', message: dayFullRowMessage(day) }])
-      return false
+      refused++
+      continue
     }
     counts.set(day, n + 1)
-    return true
-  })
+    keep[i] = 1
+  }
+  if (refused === 0) return plan
   capped.errors.sort((a, b) => a.row - b.row)
-  return { ...plan, rows: kept, ...capped }
+  // A copy only when rows were refused: a file that fits is not held twice.
+  return { ...plan, rows: plan.rows.filter(i => keep[i] === 1), ...capped }
 }
 
 /** The import route's answer. */

@@ -5,6 +5,7 @@
 import { describe, expect, it } from 'vitest'
 import { capPerDay, planDays, planImport, type ImportPlan } from '../../../../shared/readings/import-plan'
 import { MAX_IMPORT_ROWS, TESTS_PER_TANK_PER_DAY } from '../../../../shared/readings/limits'
+import { csvNumber, csvNumberText } from '../../../../shared/readings/csv'
 
 const context = { kit: { ammonia: 'N', nitrite: 'N', nitrate: 'N' } as const, lockedMs: Number.NEGATIVE_INFINITY, alreadyImported: () => false, now: new Date('2026-06-01T00:00:00Z') }
 const input = (csv: string) => ({ csv, mapping: {}, temperatureUnit: 'C' as const, salinityMode: 'practical' as const, dryRun: true })
@@ -43,5 +44,14 @@ describe('tests per day', () => {
     // The columns keep each row's values with it.
     expect(capped.rows.valuesOf(0).ammoniaN).toBe(plan.rows.valuesOf(24).ammoniaN)
     expect(capped.rows.value(0, 'nitriteN')).toBeNull()
+  })
+})
+
+describe('import key numbers', () => {
+  it('writes each value as the text of csvNumber, short or long', () => {
+    const values = [0, -0, 0.1, 0.25, 1, 2.5, 8.2, 25.4, 34.5, 123456789, 1234567891, 0.123456789, 0.1234567891, 1 / 3, 2 / 3, 1e-7, 1.5e21, -0.000123, 0.1 + 0.2, 35.000000001]
+    // Conversions leave float noise of every length: the fast path must agree with the slow one on all of it.
+    for (let i = 0; i < 2000; i++) values.push(Math.round(Math.sin(i) * 10 ** (i % 12)) / 10 ** (i % 7), Math.sin(i) * 17.0307 / 14.0067)
+    for (const value of values) expect(csvNumberText(value)).toBe(String(csvNumber(value)))
   })
 })
