@@ -47,12 +47,12 @@ const instant = fc.integer({ min: 0, max: 40 }).map(n => new Date(now.getTime() 
 const value = fc.option(fc.double({ min: 0, max: 5, noNaN: true }), { nil: null })
 const test = fc.record({ takenAt: instant, createdAt: instant, ammoniaN: value, nitriteN: value, nitrateN: fc.double({ min: 0, max: 40, noNaN: true }) })
 
-type Step =
-  | { kind: 'save', test: fc.RecordValue<typeof test>, rollBack: boolean }
-  | { kind: 'save-elsewhere', test: fc.RecordValue<typeof test> }
-  | { kind: 'correct' | 'edit' | 'delete', pick: number, test: fc.RecordValue<typeof test> }
-  | { kind: 'event', at: string, amount: number, pick: number, change: 'add' | 'correct' | 'delete' | 'elsewhere' }
-  | { kind: 'thresholds', nitrateRiseN: number }
+type Step
+  = | { kind: 'save', test: fc.RecordValue<typeof test>, rollBack: boolean }
+    | { kind: 'save-elsewhere', test: fc.RecordValue<typeof test> }
+    | { kind: 'correct' | 'edit' | 'delete', pick: number, test: fc.RecordValue<typeof test> }
+    | { kind: 'event', at: string, amount: number, pick: number, change: 'add' | 'correct' | 'delete' | 'elsewhere' }
+    | { kind: 'thresholds', nitrateRiseN: number }
 
 const step: fc.Arbitrary<Step> = fc.oneof(
   { weight: 6, arbitrary: fc.record({ kind: fc.constant('save' as const), test, rollBack: fc.boolean() }) },
