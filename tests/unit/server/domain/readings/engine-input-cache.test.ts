@@ -47,10 +47,12 @@ const instant = fc.integer({ min: 0, max: 40 }).map(n => new Date(now.getTime() 
 const value = fc.option(fc.double({ min: 0, max: 5, noNaN: true }), { nil: null })
 const test = fc.record({ takenAt: instant, createdAt: instant, ammoniaN: value, nitriteN: value, nitrateN: fc.double({ min: 0, max: 40, noNaN: true }) })
 
+type TestRow = typeof test extends fc.Arbitrary<infer T> ? T : never
+
 type Step
-  = | { kind: 'save', test: fc.RecordValue<typeof test>, rollBack: boolean }
-    | { kind: 'save-elsewhere', test: fc.RecordValue<typeof test> }
-    | { kind: 'correct' | 'edit' | 'delete', pick: number, test: fc.RecordValue<typeof test> }
+  = | { kind: 'save', test: TestRow, rollBack: boolean }
+    | { kind: 'save-elsewhere', test: TestRow }
+    | { kind: 'correct' | 'edit' | 'delete', pick: number, test: TestRow }
     | { kind: 'event', at: string, amount: number, pick: number, change: 'add' | 'correct' | 'delete' | 'elsewhere' }
     | { kind: 'thresholds', nitrateRiseN: number }
 
@@ -70,7 +72,7 @@ const currentEventIds = (tankId: string) => db.select({ id: events.id }).from(ev
   .filter(id => !db.select({ id: events.id }).from(events).where(eq(events.correctsId, id)).get())
 
 /** A test saved as the reading route saves it: insert, count read in the same transaction, the kept copy told after the commit. */
-function saveLikeTheRoute(tankId: string, t: fc.RecordValue<typeof test>, rollBack: boolean): void {
+function saveLikeTheRoute(tankId: string, t: TestRow, rollBack: boolean): void {
   try {
     const { row, revisionAfterInsert } = db.transaction(() => {
       const row = db.insert(readings).values({ tankId, enteredBy: demo.users.aquarist, ...t, createdAt: t.createdAt, updatedAt: t.createdAt }).returning().get()
