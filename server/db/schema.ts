@@ -211,6 +211,18 @@ export const tankVerdicts = sqliteTable('tank_verdicts', {
   forecast: text('forecast', { mode: 'json' }).$type<CycleForecast>(),
 })
 
+/**
+ * How many times each tank's readings or events have changed, on any connection: triggers on
+ * `readings` and `events` (migration 0010) count every insert, update and delete, so a copy of
+ * the engine's input kept in memory knows whether it still matches the database
+ * (server/domain/readings/engine-input-cache.ts). No foreign key: a tank's rows deleted with the
+ * tank still count, and the counter of a tank that is gone is never read.
+ */
+export const tankDataRevisions = sqliteTable('tank_data_revisions', {
+  tankId: text('tank_id').primaryKey(),
+  revision: integer('revision').notNull(),
+})
+
 /** Who changed what: append-only by design. */
 export const auditLog = sqliteTable('audit_log', {
   id: integer('id').primaryKey({ autoIncrement: true }),

@@ -8,46 +8,24 @@ import { evaluateCycle } from '../../shared/cycle/engine'
 import { FORECAST_VERSION, forecastCycle } from '../../shared/cycle/forecast'
 import type { CycleEvent, CycleInput, CycleReading, Verdict } from '../../shared/cycle/types'
 import type { CycleForecast } from '../../shared/cycle/forecast'
-import { CYCLE_EVENT_KINDS, type CycleEventKind, type EventKind } from '../../shared/vocabulary'
 import type { Db } from './connection'
 import { preparedPerDb } from './prepared'
-import { tankEngineReadings, tankEvents } from '../domain/readings/current'
+import { engineRows } from '../domain/readings/engine-input-cache'
 import { tankVerdicts, tanks } from './schema'
 import { readOrganisationSettings } from './settings'
-
-const isCycleEventKind = (kind: EventKind): kind is CycleEventKind => (CYCLE_EVENT_KINDS as readonly string[]).includes(kind)
-
-const defined = <T>(value: T | null): T | undefined => value ?? undefined
 
 /** The engine input for a tank as the database holds it now, or undefined if there is no such tank. */
 export function cycleInputFor(db: Db, tankId: string, now: Date): CycleInput | undefined {
   const tank = db.select().from(tanks).where(eq(tanks.id, tankId)).get()
   if (!tank) return undefined
   const { thresholds } = readOrganisationSettings(db, tank.organisationId)
-  // A correction replaces the entry it corrects; the engine sees only the current value.
-  const readingRows = tankEngineReadings(db, tankId)
-  const eventRows = tankEvents(db, tankId)
+  // A correction replaces the entry it corrects; the engine sees only the current value. The rows
+  // come from a copy kept in memory while the tank's data has not changed (engine-input-cache.ts).
+  const rows = engineRows(db, tankId)
   return {
     tank: { volumeLitres: tank.volumeLitres + tank.sumpLitres, cycleMethod: tank.cycleMethod, startedAt: tank.cycleStartedAt ?? tank.createdAt },
-    readings: readingRows.map((r): CycleReading => ({
-      id: r.id,
-      takenAt: r.takenAt,
-      // Two tests taken in the same minute: the one entered last is the latest.
-      enteredAt: r.createdAt,
-      ammoniaN: defined(r.ammoniaN),
-      nitriteN: defined(r.nitriteN),
-      nitrateN: defined(r.nitrateN),
-      pH: defined(r.pH),
-      temperatureC: defined(r.temperatureC),
-      salinity: defined(r.salinity),
-      alkalinityDkh: defined(r.alkalinityDkh),
-      calciumMgL: defined(r.calciumMgL),
-      magnesiumMgL: defined(r.magnesiumMgL),
-      phosphateMgL: defined(r.phosphateMgL),
-    })),
-    events: eventRows.flatMap(({ kind, ...e }): CycleEvent[] => isCycleEventKind(kind)
-      ? [{ id: e.id, at: e.at, enteredAt: e.createdAt, kind, amount: defined(e.amount), group: defined(e.group) }]
-      : []),
+    readings: rows.readings as CycleReading[],
+    events: rows.events as CycleEvent[],
     thresholds,
     now: now.toISOString(),
   }

@@ -4,11 +4,12 @@
  * resolves it. One transaction, so an alert, its notices, their e-mails and its audit row
  * commit together. Framework-free: the server, the seed and the tests share it.
  */
-import { and, eq, ne } from 'drizzle-orm'
+import { and, eq, ne, sql } from 'drizzle-orm'
 import type { Finding, Verdict } from '../../../shared/cycle/types'
 import { forReader } from '../../../shared/readings/reader-words'
 import type { Db } from '../../db/connection'
 import { writeNotice } from '../../db/notices'
+import { preparedPerDb } from '../../db/prepared'
 import { alerts, tanks } from '../../db/schema'
 import { readOrganisationSettings } from '../../db/settings'
 import { recordAudit } from '../audit/record'
@@ -32,11 +33,18 @@ export interface AlertSyncResult {
   notifiedUserIds: string[]
 }
 
+/** Whether the tank has an alert not yet resolved, prepared once. */
+const unresolvedAlertOf = preparedPerDb(db => db.select({ id: alerts.id }).from(alerts)
+  .where(and(eq(alerts.tankId, sql.placeholder('tankId')), ne(alerts.status, 'resolved'))).limit(1).prepare())
+
 /** Opens, updates and resolves the tank's alerts to match its verdict. */
 export function syncAlertsInDb(db: Db, tankId: string, verdict: Verdict, options: AlertSyncOptions): AlertSyncResult {
   const now = options.now ?? new Date()
   const nowIso = now.toISOString()
   const result: AlertSyncResult = { opened: [], updated: [], resolved: [], notifiedUserIds: [] }
+  // Most saves: no danger, and no alert to update or resolve. The transaction below would read and
+  // write nothing then, so it is not opened (it takes the write lock and reads four tables).
+  if (!verdict.findings.some(f => f.severity === 'danger') && !unresolvedAlertOf(db).get({ tankId })) return result
   // Immediate: it reads, then writes; a deferred transaction would fail at once (SQLITE_BUSY) if
   // another connection wrote in between, where an immediate one waits its turn.
   db.transaction((t) => {

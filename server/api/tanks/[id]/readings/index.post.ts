@@ -5,6 +5,7 @@ import { toCanonicalReading } from '#shared/readings/entry'
 import type { ReadingSaved } from '#shared/types/readings'
 import { readings, tanks } from '#server/db/schema'
 import { readingColumns } from '#server/domain/readings/columns'
+import { noteTestAppended, tankDataRevisionInDb } from '#server/domain/readings/engine-input-cache'
 
 /**
  * POST /api/tanks/:id/readings — records one test session in canonical units and
@@ -21,8 +22,10 @@ export default defineEventHandler(async (event): Promise<ReadingSaved> => {
   if (!result.ok) fieldError(result.issues)
   assertWritableAt(tank.id, result.reading.takenAt)
   const db = useDB()
-  const row = db.transaction(() => {
+  const { row, revisionAfterInsert } = db.transaction(() => {
     const inserted = db.insert(readings).values({ tankId: tank.id, enteredBy: actor.id, ...readingColumns(result.reading) }).returning().get()
+    // Read right after the insert, in its transaction: the kept engine input may take this test in place of a re-read.
+    const revisionAfterInsert = tankDataRevisionInDb(db, tank.id)
     assertDayNotOverfull(event, db, tank.id, inserted.takenAt)
     if (input.photoUploadId && !attachTestPhoto(tank, inserted.id, input.photoUploadId)) {
       fieldError([{ field: 'photoUploadId', message: 'That photo was not found for this tank.' }])
@@ -34,8 +37,9 @@ export default defineEventHandler(async (event): Promise<ReadingSaved> => {
       db.update(tanks).set({ kitBasis: basis }).where(eq(tanks.id, tank.id)).run()
       writeAudit(actor, { action: 'tank.kit-basis', entity: 'tank', entityId: tank.id, before: current, after: basis })
     }
-    return inserted
+    return { row: inserted, revisionAfterInsert }
   })
+  noteTestAppended(db, tank.id, row, revisionAfterInsert)
   const verdict = onTankDataChanged(tank.id, { readingId: row.id, actor })
   setResponseStatus(event, 201)
   return { reading: toReadingView(row, actor.name, actor, tank), flags: result.reading.flags, ...verdictOnSave(verdict) }

@@ -1,0 +1,145 @@
+/**
+ * A tank's current readings and events as the rule engine reads them, kept in memory between
+ * verdict refreshes so a new test does not re-read and re-map a year of history.
+ *
+ * Why it is never out of date: triggers on `readings` and `events` count every insert, update
+ * and delete of a tank's rows in `tank_data_revisions`, on every connection (a CSV import in a
+ * worker thread, a correction, a delete, an edit, an event, a restore by hand). A copy is used
+ * only while the tank's count still equals the count it was read at; otherwise the rows are
+ * read again. The one change applied in place is the commonest: a new test saved on this
+ * connection, whose transaction read the count right after its insert (so the count moved by
+ * exactly that row) and whose position in the order is certain. Anything else reads again.
+ *
+ * Framework-free: takes a `Db`; each handle (the server's connection, a worker's, a test's)
+ * keeps its own copies.
+ */
+import { eq, sql } from 'drizzle-orm'
+import type { CycleEvent, CycleReading } from '../../../shared/cycle/types'
+import { CYCLE_EVENT_KINDS, type CycleEventKind, type EventKind } from '../../../shared/vocabulary'
+import type { Db } from '../../db/connection'
+import { preparedPerDb } from '../../db/prepared'
+import { tankDataRevisions, type readings } from '../../db/schema'
+import { tankEngineReadings, tankEvents, type EngineReadingRow } from './current'
+
+/** What the engine reads of a tank's rows, and the count of changes they were read at. */
+export interface EngineRows {
+  revision: number
+  readings: readonly CycleReading[]
+  events: readonly CycleEvent[]
+}
+
+/** Tanks kept per handle; the least recently used goes first (a year of tests is some hundreds of kB). */
+const MAX_TANKS = 64
+
+const copies = preparedPerDb(() => new Map<string, EngineRows>())
+
+const revisionOf = preparedPerDb(db => db.select({ revision: tankDataRevisions.revision }).from(tankDataRevisions)
+  .where(eq(tankDataRevisions.tankId, sql.placeholder('tankId'))).prepare())
+
+/** How many times the tank's readings and events have changed (0 before the first). */
+export function tankDataRevisionInDb(db: Db, tankId: string): number {
+  return revisionOf(db).get({ tankId })?.revision ?? 0
+}
+
+const defined = <T>(value: T | null): T | undefined => value ?? undefined
+
+const isCycleEventKind = (kind: EventKind): kind is CycleEventKind => (CYCLE_EVENT_KINDS as readonly string[]).includes(kind)
+
+/** A current reading as the engine takes it. */
+export function toCycleReading(r: EngineReadingRow): CycleReading {
+  return {
+    id: r.id,
+    takenAt: r.takenAt,
+    // Two tests taken in the same minute: the one entered last is the latest.
+    enteredAt: r.createdAt,
+    ammoniaN: defined(r.ammoniaN),
+    nitriteN: defined(r.nitriteN),
+    nitrateN: defined(r.nitrateN),
+    pH: defined(r.pH),
+    temperatureC: defined(r.temperatureC),
+    salinity: defined(r.salinity),
+    alkalinityDkh: defined(r.alkalinityDkh),
+    calciumMgL: defined(r.calciumMgL),
+    magnesiumMgL: defined(r.magnesiumMgL),
+    phosphateMgL: defined(r.phosphateMgL),
+  }
+}
+
+/** Reads the tank's rows from the database, as every refresh did before this copy was kept. */
+export function readEngineRows(db: Db, tankId: string, revision: number): EngineRows {
+  return {
+    revision,
+    readings: tankEngineReadings(db, tankId).map(toCycleReading),
+    events: tankEvents(db, tankId).flatMap(({ kind, ...e }): CycleEvent[] => isCycleEventKind(kind)
+      ? [{ id: e.id, at: e.at, enteredAt: e.createdAt, kind, amount: defined(e.amount), group: defined(e.group) }]
+      : []),
+  }
+}
+
+function keep(db: Db, tankId: string, rows: EngineRows): void {
+  const byTank = copies(db)
+  byTank.delete(tankId)
+  byTank.set(tankId, rows)
+  if (byTank.size > MAX_TANKS) byTank.delete(byTank.keys().next().value!)
+}
+
+/**
+ * The tank's current readings and events in the engine's shape and order: the kept copy when
+ * the tank's count has not moved since, otherwise read again (and kept). The arrays are shared:
+ * callers read them and never change them.
+ */
+export function engineRows(db: Db, tankId: string): EngineRows {
+  // The count is read before the rows: rows read after it are at least as new, so a copy is never
+  // labelled newer than its content (a write in between moves the count and the next call reads again).
+  const revision = tankDataRevisionInDb(db, tankId)
+  const kept = copies(db).get(tankId)
+  if (kept?.revision === revision) {
+    keep(db, tankId, kept)
+    return kept
+  }
+  const rows = readEngineRows(db, tankId, revision)
+  keep(db, tankId, rows)
+  return rows
+}
+
+type ReadingRow = typeof readings.$inferSelect
+
+/**
+ * After a new test (not a correction) was inserted and committed on this handle: `revisionAfter`
+ * is the tank's count read in the same transaction right after the insert. When the kept copy
+ * is the one just before it, the test is placed into a new copy where the database's order
+ * (taken, then entered, then row order) puts it; when that order is not certain from the copy
+ * (another row taken and entered at the same instants) or the copy is older, the copy is dropped.
+ */
+export function noteTestAppended(db: Db, tankId: string, row: ReadingRow, revisionAfter: number): void {
+  const byTank = copies(db)
+  const kept = byTank.get(tankId)
+  if (!kept) return
+  if (kept.revision !== revisionAfter - 1 || row.tankId !== tankId || row.correctsId !== null) {
+    byTank.delete(tankId)
+    return
+  }
+  const at = placeOf(kept.readings, row.takenAt, row.createdAt)
+  if (at === undefined) {
+    byTank.delete(tankId)
+    return
+  }
+  const next = kept.readings.slice()
+  next.splice(at, 0, toCycleReading(row))
+  keep(db, tankId, { revision: revisionAfter, readings: next, events: kept.events })
+}
+
+/** Where a test taken at `takenAt` and entered at `enteredAt` goes; undefined when a row ties on both (row order decides). */
+function placeOf(list: readonly CycleReading[], takenAt: string, enteredAt: string): number | undefined {
+  let low = 0
+  let high = list.length
+  while (low < high) {
+    const mid = (low + high) >>> 1
+    const r = list[mid]!
+    if (r.takenAt < takenAt || (r.takenAt === takenAt && r.enteredAt! < enteredAt)) low = mid + 1
+    else high = mid
+  }
+  const next = list[low]
+  if (next && next.takenAt === takenAt && next.enteredAt === enteredAt) return undefined
+  return low
+}

@@ -1,0 +1,166 @@
+/**
+ * The engine input kept in memory between verdict refreshes (engine-input-cache.ts) must always
+ * equal a full read of the tank's history, and the verdict and forecast made from it must equal
+ * the ones made from a full read. Random histories of changes on a real migrated SQLite file with
+ * the demo company: tests saved the way the reading route saves them (taken in any order, some
+ * at the same instant as another), tests written on a second connection (as the CSV import's
+ * worker thread does), corrections, edits that move a test, deletes, events and their
+ * corrections, a save rolled back, and threshold changes. After every step the kept input is
+ * compared with a full read and a full evaluation.
+ */
+import { mkdtempSync, rmSync } from 'node:fs'
+import { tmpdir } from 'node:os'
+import { join } from 'node:path'
+import { randomUUID } from 'node:crypto'
+import { and, eq, isNull } from 'drizzle-orm'
+import fc from 'fast-check'
+import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import { migrateDatabase, openDatabase, type TidewrightDB } from '../../../../../server/db/connection'
+import { events, organisations, readings } from '../../../../../server/db/schema'
+import { seedDemo, type DemoIds } from '../../../../../server/db/seed/demo'
+import { cycleInputFor, evaluateTank } from '../../../../../server/db/verdicts'
+import { engineRows, noteTestAppended, readEngineRows, tankDataRevisionInDb } from '../../../../../server/domain/readings/engine-input-cache'
+
+const dir = mkdtempSync(join(tmpdir(), 'tidewright-engine-input-cache-'))
+const dbPath = join(dir, 'engine-input-cache.sqlite')
+let db: TidewrightDB
+/** A second connection to the same file: the CSV import's worker thread writes on one of these. */
+let other: TidewrightDB
+let demo: DemoIds
+const now = new Date('2026-11-30T12:00:00.000Z')
+const DAY = 86_400_000
+
+beforeAll(async () => {
+  db = openDatabase(dbPath)
+  migrateDatabase(db)
+  demo = await seedDemo(db, now)
+  other = openDatabase(dbPath)
+})
+afterAll(() => {
+  other?.$client.close()
+  db?.$client.close()
+  rmSync(dir, { recursive: true, force: true })
+})
+
+/** A few instants, so tests often share a taken time or an entry time with another. */
+const instant = fc.integer({ min: 0, max: 40 }).map(n => new Date(now.getTime() - 40 * DAY + n * (DAY / 2)).toISOString())
+const value = fc.option(fc.double({ min: 0, max: 5, noNaN: true }), { nil: null })
+const test = fc.record({ takenAt: instant, createdAt: instant, ammoniaN: value, nitriteN: value, nitrateN: fc.double({ min: 0, max: 40, noNaN: true }) })
+
+type TestRow = typeof test extends fc.Arbitrary<infer T> ? T : never
+
+type Step
+  = | { kind: 'save', test: TestRow, rollBack: boolean }
+    | { kind: 'save-elsewhere', test: TestRow }
+    | { kind: 'correct' | 'edit' | 'delete', pick: number, test: TestRow }
+    | { kind: 'event', at: string, amount: number, pick: number, change: 'add' | 'correct' | 'delete' | 'elsewhere' }
+    | { kind: 'thresholds', nitrateRiseN: number }
+
+const step: fc.Arbitrary<Step> = fc.oneof(
+  { weight: 6, arbitrary: fc.record({ kind: fc.constant('save' as const), test, rollBack: fc.boolean() }) },
+  { weight: 2, arbitrary: fc.record({ kind: fc.constant('save-elsewhere' as const), test }) },
+  { weight: 3, arbitrary: fc.record({ kind: fc.constantFrom('correct' as const, 'edit' as const, 'delete' as const), pick: fc.nat(), test }) },
+  { weight: 2, arbitrary: fc.record({ kind: fc.constant('event' as const), at: instant, amount: fc.double({ min: 0.5, max: 4, noNaN: true }), pick: fc.nat(), change: fc.constantFrom('add' as const, 'correct' as const, 'delete' as const, 'elsewhere' as const) }) },
+  { weight: 1, arbitrary: fc.record({ kind: fc.constant('thresholds' as const), nitrateRiseN: fc.double({ min: 0.5, max: 5, noNaN: true }) }) },
+)
+
+const currentReadingIds = (tankId: string) => db.select({ id: readings.id }).from(readings)
+  .where(eq(readings.tankId, tankId)).all().map(r => r.id)
+  .filter(id => !db.select({ id: readings.id }).from(readings).where(eq(readings.correctsId, id)).get())
+const currentEventIds = (tankId: string) => db.select({ id: events.id }).from(events)
+  .where(and(eq(events.tankId, tankId), isNull(events.correctsId))).all().map(r => r.id)
+  .filter(id => !db.select({ id: events.id }).from(events).where(eq(events.correctsId, id)).get())
+
+/** A test saved as the reading route saves it: insert, count read in the same transaction, the kept copy told after the commit. */
+function saveLikeTheRoute(tankId: string, t: TestRow, rollBack: boolean): void {
+  try {
+    const { row, revisionAfterInsert } = db.transaction(() => {
+      const row = db.insert(readings).values({ tankId, enteredBy: demo.users.aquarist, ...t, createdAt: t.createdAt, updatedAt: t.createdAt }).returning().get()
+      const revisionAfterInsert = tankDataRevisionInDb(db, tankId)
+      if (rollBack) throw new Error('the day is full')
+      return { row, revisionAfterInsert }
+    })
+    noteTestAppended(db, tankId, row, revisionAfterInsert)
+  }
+  catch (error) {
+    if (!rollBack) throw error
+  }
+}
+
+function apply(tankId: string, s: Step, organisationId: string): void {
+  switch (s.kind) {
+    case 'save':
+      return saveLikeTheRoute(tankId, s.test, s.rollBack)
+    case 'save-elsewhere':
+      other.insert(readings).values({ id: randomUUID(), tankId, enteredBy: demo.users.client, ...s.test, updatedAt: s.test.createdAt }).run()
+      return
+    case 'correct':
+    case 'edit':
+    case 'delete': {
+      const ids = currentReadingIds(tankId)
+      if (ids.length === 0) return
+      const id = ids[s.pick % ids.length]!
+      if (s.kind === 'correct') db.insert(readings).values({ tankId, enteredBy: demo.users.aquarist, ...s.test, correctsId: id, correctionReason: 'misread the card' }).run()
+      else if (s.kind === 'edit') db.update(readings).set({ takenAt: s.test.takenAt, ammoniaN: s.test.ammoniaN }).where(eq(readings.id, id)).run()
+      else db.delete(readings).where(eq(readings.id, id)).run()
+      return
+    }
+    case 'event': {
+      const ids = currentEventIds(tankId)
+      const id = ids.length ? ids[s.pick % ids.length] : undefined
+      const row = { tankId, at: s.at, kind: s.pick % 5 === 0 ? 'lighting-change' as const : 'ammonia-dose' as const, amount: s.amount, enteredBy: demo.users.aquarist }
+      if (s.change === 'add' || !id) db.insert(events).values(row).run()
+      else if (s.change === 'elsewhere') other.update(events).set({ amount: s.amount }).where(eq(events.id, id)).run()
+      else if (s.change === 'correct') db.insert(events).values({ ...row, correctsId: id, correctionReason: 'wrong dose' }).run()
+      else db.delete(events).where(eq(events.id, id)).run()
+      return
+    }
+    case 'thresholds':
+      db.update(organisations).set({ settings: { thresholds: { nitrateRiseN: s.nitrateRiseN } } as never }).where(eq(organisations.id, organisationId)).run()
+  }
+}
+
+describe('the engine input kept between refreshes', () => {
+  it('equals a full read, and gives the full evaluation\'s verdict and forecast, after any history of changes', () => {
+    const tankId = demo.tanks.lobby
+    const organisationId = db.select({ id: organisations.id }).from(organisations).get()!.id
+    let appendedInPlace = 0
+    fc.assert(fc.property(fc.array(step, { minLength: 1, maxLength: 25 }), (steps) => {
+      for (const s of steps) {
+        const before = engineRows(db, tankId)
+        apply(tankId, s, organisationId)
+        const kept = cycleInputFor(db, tankId, now)!
+        const full = readEngineRows(db, tankId, tankDataRevisionInDb(db, tankId))
+        // The same objects as before the save: the copy was extended in place, not read again.
+        if (s.kind === 'save' && !s.rollBack && before.readings.length > 0 && kept.readings.includes(before.readings[0]!)) appendedInPlace++
+        expect(kept.readings).toEqual(full.readings)
+        expect(kept.events).toEqual(full.events)
+        expect(evaluateTank(kept)).toEqual(evaluateTank({ ...kept, readings: [...full.readings], events: [...full.events] }))
+      }
+    }), { numRuns: 60, seed: 20261203 })
+    // The copy did take tests in place (not only re-read every time), so the comparison above covers that path.
+    expect(appendedInPlace).toBeGreaterThan(0)
+  })
+
+  it('takes a test saved like the route in place, without reading the history again', () => {
+    const tankId = demo.tanks.nano
+    const before = engineRows(db, tankId)
+    saveLikeTheRoute(tankId, { takenAt: now.toISOString(), createdAt: now.toISOString(), ammoniaN: 0, nitriteN: 0, nitrateN: 4 }, false)
+    const after = engineRows(db, tankId)
+    expect(after).not.toBe(before)
+    expect(after.readings.length).toBe(before.readings.length + 1)
+    // The same objects for every older test: the copy was extended, not read again.
+    expect(after.readings.filter(r => before.readings.includes(r)).length).toBe(before.readings.length)
+    expect(after.readings).toEqual(readEngineRows(db, tankId, 0).readings)
+  })
+
+  it('reads again after a write on another connection', () => {
+    const tankId = demo.tanks.nano
+    const before = engineRows(db, tankId)
+    other.insert(readings).values({ id: randomUUID(), tankId, takenAt: new Date(now.getTime() - DAY).toISOString(), nitrateN: 9 }).run()
+    const after = engineRows(db, tankId)
+    expect(after.revision).toBe(before.revision + 1)
+    expect(after.readings.length).toBe(before.readings.length + 1)
+    expect(after.readings).toEqual(readEngineRows(db, tankId, 0).readings)
+  })
+})
