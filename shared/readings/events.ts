@@ -6,6 +6,7 @@ import { toNitrogen } from '../chemistry/nitrogen'
 import { usGallonsToLitres, litresToUsGallons } from '../units'
 import type { EventInput } from '../schemas/reading'
 import type { LivestockGroup, UnitSystem } from '../vocabulary'
+import { LIVESTOCK_GROUP_LABELS } from '../sign-off/plan'
 import { checkTakenAt, type EntryIssue } from './entry'
 import { toIsoInstant } from './fields'
 
@@ -74,11 +75,19 @@ export function toCanonicalEvent(input: EventInput, now: Date = new Date()): Eve
   return { ok: true, event: { at: toIsoInstant(input.at)!, kind: input.kind, amount, group, notes } }
 }
 
-/** A stored event's amount in the user's units, for display. */
+/**
+ * A stored event's amount in the user's units, for display: the one home for these words (the
+ * history page and the evidence page). Livestock names its group as the certificate's livestock
+ * plan does (`LIVESTOCK_GROUP_LABELS`), never by the stored key.
+ */
 export function describeEventAmount(kind: string, amount: number | null, units: UnitSystem, group?: string | null): string {
   if (amount === null) return ''
   if (kind === 'ammonia-dose') return `${(Math.round(amount * 100) / 100)} mg/L as N`
   if (kind === 'water-change') return units === 'us' ? `${Math.round(litresToUsGallons(amount) * 10) / 10} gal` : `${Math.round(amount * 10) / 10} L`
-  if (kind === 'livestock-added') return `${amount} ${group ?? ''}`.trim()
+  if (kind === 'livestock-added') {
+    const animals = `${amount} animal${amount === 1 ? '' : 's'}`
+    const label = group ? (LIVESTOCK_GROUP_LABELS as Record<string, string>)[group] : undefined
+    return label ? `${animals} (${label})` : animals
+  }
   return String(amount)
 }

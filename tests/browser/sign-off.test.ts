@@ -67,6 +67,12 @@ describe('sign-off, from request to certificate', () => {
     const decision = page.getByRole('heading', { name: 'Your decision' })
     const evidenceTop = await page.getByRole('heading', { name: 'The engine\'s verdict' }).boundingBox()
     expect((await decision.boundingBox())!.y).toBeGreaterThan(evidenceTop!.y)
+    // The stages' checklists read as marks with each item's state in words (the plan's StageChecklist), and the
+    // events' amounts in the history page's words (describeEventAmount: a dose in mg/L as N to two places).
+    expect(await page.getByRole('region', { name: 'Build plan' }).getByText('Done:', { exact: true }).count()).toBeGreaterThan(0)
+    const events = await page.getByRole('region', { name: 'Events' }).innerText()
+    expect(events).toMatch(/Ammonia dose · .+ · \d+\.\d\d mg\/L as N/)
+    expect(events).not.toMatch(/\d\.\d{3,} mg\/L as N/)
     expect(await page.getByLabel('Approve and sign off').isChecked()).toBe(false)
     expect(await page.getByLabel('Return to the aquarist').isChecked()).toBe(false)
     await page.getByRole('button', { name: 'Choose a decision' }).click()
