@@ -18,7 +18,7 @@ export interface StageHelperProps {
 export interface StageHelperForm {
   title: string
   fields?: readonly FieldSpec[]
-  values?: Record<string, unknown>
+  values?: object
   /** The fields' grid columns as Tailwind classes (`grid-cols-2 sm:grid-cols-3`). */
   columns?: string
   /** The save button's words and what it does; a calculator without them only computes. */
