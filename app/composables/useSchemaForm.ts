@@ -24,11 +24,16 @@ export interface SchemaFormOptions<TValues, TBody> {
 /** What to say beside the button (forms end with it) when some fields are marked. */
 export const CHECK_FIELDS = 'Check the fields marked above.'
 
-/** What a form hands the `<FormField name="…">` inside it: its messages, and who shows which. */
+/**
+ * What a form hands the `<FormField name="…">` inside it (its messages, and who shows which)
+ * and the `<FormSubmit>` that ends it (whether it is sending, and the message beside the button).
+ */
 export interface SchemaFormContext {
   errors: Ref<FieldErrors>
   /** Notes that a field is on screen, so its message is shown beside it; returns the undo. */
   show: (field: string) => () => void
+  submitting: Ref<boolean>
+  formError: Ref<string>
 }
 export const SCHEMA_FORM: InjectionKey<SchemaFormContext> = Symbol('schema-form')
 
@@ -61,8 +66,8 @@ export function useSchemaForm<TSchema extends v.GenericSchema, TValues extends o
     onScreen.set(field, (onScreen.get(field) ?? 0) + 1)
     return () => onScreen.set(field, (onScreen.get(field) ?? 1) - 1)
   }
-  // The last form set up in a component is the one its FormFields report to.
-  if (getCurrentInstance()) provide(SCHEMA_FORM, { errors, show })
+  // The last form set up in a component is the one its FormFields and FormSubmit report to.
+  if (getCurrentInstance()) provide(SCHEMA_FORM, { errors, show, submitting, formError })
   /** Fields of `found` no field on screen shows; they go above the button instead (or beside the catch-all field). */
   const aside = (found: FieldErrors) => {
     const known = [...Object.keys(leaves(values)), ...[...onScreen].filter(([, n]) => n > 0).map(([field]) => field)]

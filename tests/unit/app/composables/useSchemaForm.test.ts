@@ -1,7 +1,8 @@
 import * as v from 'valibot'
-import { nextTick } from 'vue'
+import { createSSRApp, defineComponent, h, inject, nextTick } from 'vue'
+import { renderToString } from 'vue/server-renderer'
 import { describe, expect, it } from 'vitest'
-import { CHECK_FIELDS, leaves, unshown, useSchemaForm, withoutFields } from '../../../../app/composables/useSchemaForm'
+import { CHECK_FIELDS, leaves, SCHEMA_FORM, unshown, useSchemaForm, withoutFields } from '../../../../app/composables/useSchemaForm'
 import type { FieldErrors } from '../../../../app/utils/api-error'
 import { MAX_UPLOAD_BYTES, uploadFileSchema, uploadTooLargeMessage } from '../../../../shared/uploads/files'
 
@@ -124,6 +125,32 @@ describe('useSchemaForm', () => {
     form.reset()
     expect(form.values).toEqual(start)
     expect(form.errors).toEqual({})
+  })
+})
+
+describe('what a form hands the fields and the button inside it', () => {
+  /** Renders a form component whose child reads the form's context as a FormSubmit does. */
+  const clientForm = () => useSchemaForm(ClientSchema, blank())
+  async function seenInside(setUp: (form: ReturnType<typeof clientForm>) => void) {
+    const Inside = defineComponent(() => {
+      const form = inject(SCHEMA_FORM, null)
+      return () => h('p', `${form ? form.submitting.value : 'no form'}|${form?.formError.value ?? ''}`)
+    })
+    const Form = defineComponent(() => {
+      setUp(clientForm())
+      return () => h(Inside)
+    })
+    return renderToString(createSSRApp(Form))
+  }
+
+  it('its sending state and the message beside the button', async () => {
+    expect(await seenInside(() => undefined)).toBe('<p>false|</p>')
+    expect(await seenInside(form => form.validate())).toBe(`<p>false|${CHECK_FIELDS}</p>`)
+    // Filled in well, so the request goes out and never comes back while the page is drawn.
+    expect(await seenInside((form) => {
+      Object.assign(form.values, { name: 'Ada', email: 'ada@example.test' })
+      void form.handleSubmit(() => new Promise(() => undefined))()
+    })).toBe('<p>true|</p>')
   })
 })
 

@@ -5,33 +5,15 @@
  * just signed. Real migrated SQLite file with the demo company; the worker's function is
  * called directly, with the boundary as the request saw it (nothing signed).
  */
-import { mkdtempSync, rmSync } from 'node:fs'
-import { tmpdir } from 'node:os'
-import { join } from 'node:path'
 import { randomUUID } from 'node:crypto'
 import { eq } from 'drizzle-orm'
-import { afterAll, beforeAll, describe, expect, it } from 'vitest'
-import { migrateDatabase, openDatabase, type TidewrightDB } from '../../../../server/db/connection'
+import { describe, expect, it } from 'vitest'
 import { readings, signOffs } from '../../../../server/db/schema'
-import { seedDemo, type DemoIds } from '../../../../server/db/seed/demo'
 import { lockedUntil } from '../../../../server/domain/sign-off/lock'
 import { readingImport } from '../../../../server/workers/reading-import'
+import { seededDatabase } from '../../../support/seeded-database'
 
-const dir = mkdtempSync(join(tmpdir(), 'tidewright-import-lock-'))
-const dbPath = join(dir, 'import-lock.sqlite')
-let db: TidewrightDB
-let demo: DemoIds
-const now = new Date()
-
-beforeAll(async () => {
-  db = openDatabase(dbPath)
-  migrateDatabase(db)
-  demo = await seedDemo(db, now)
-})
-afterAll(() => {
-  db?.$client.close()
-  rmSync(dir, { recursive: true, force: true })
-})
+const { db, dbPath, demo, now } = await seededDatabase('import-lock')
 
 const hoursAgo = (h: number) => new Date(now.getTime() - h * 3_600_000).toISOString()
 const csv = ['taken_at,ammonia,nitrite,nitrate', `${hoursAgo(30)},0,0,5`, `${hoursAgo(6)},0,0,5`].join('\n')

@@ -5,37 +5,19 @@
  * stored over it. Real migrated SQLite file with the demo company; the worker's function is
  * called directly, and the test is saved between its read and the store.
  */
-import { mkdtempSync, rmSync } from 'node:fs'
-import { tmpdir } from 'node:os'
-import { join } from 'node:path'
 import { randomUUID } from 'node:crypto'
 import { eq } from 'drizzle-orm'
-import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import { describe, expect, it } from 'vitest'
 import { evaluateCycle } from '../../../../../shared/cycle/engine'
 import { forecastCycle } from '../../../../../shared/cycle/forecast'
 import type { Verdict } from '../../../../../shared/cycle/types'
-import { migrateDatabase, openDatabase, type TidewrightDB } from '../../../../../server/db/connection'
 import { readings, tankVerdicts } from '../../../../../server/db/schema'
-import { seedDemo, type DemoIds } from '../../../../../server/db/seed/demo'
 import { computeAndStoreVerdict, cycleInputFor } from '../../../../../server/db/verdicts'
 import { noteTankDataChanged, refreshVerdictOffLoop } from '../../../../../server/domain/tanks/verdict-off-loop'
 import { tankVerdict } from '../../../../../server/workers/tank-verdict'
+import { seededDatabase } from '../../../../support/seeded-database'
 
-const dir = mkdtempSync(join(tmpdir(), 'tidewright-verdict-off-loop-'))
-const dbPath = join(dir, 'verdict-off-loop.sqlite')
-let db: TidewrightDB
-let demo: DemoIds
-const now = new Date()
-
-beforeAll(async () => {
-  db = openDatabase(dbPath)
-  migrateDatabase(db)
-  demo = await seedDemo(db, now)
-})
-afterAll(() => {
-  db?.$client.close()
-  rmSync(dir, { recursive: true, force: true })
-})
+const { db, dbPath, demo, now } = await seededDatabase('verdict-off-loop')
 
 const storedVerdict = (tankId: string) => db.select().from(tankVerdicts).where(eq(tankVerdicts.tankId, tankId)).get()?.verdict
 const storedForecast = (tankId: string) => db.select().from(tankVerdicts).where(eq(tankVerdicts.tankId, tankId)).get()?.forecast
