@@ -5,6 +5,7 @@
  * the latest.
  */
 
+import { latestValues, updatedLatest, type Latest } from './snapshot'
 import { parseTime } from './time'
 import type { CycleEvent, CycleReading } from './types'
 
@@ -109,32 +110,128 @@ function sanitize(raw: CycleReading, t: number): { reading: TimedReading, repair
   return { reading: { id: raw.id, t, entered: enteredTime(raw.enteredAt), ...values }, repaired }
 }
 
-/** Builds the ordered history from raw input, dropping what happened after `nowMs`. */
-export function buildHistory(readings: readonly CycleReading[], events: readonly CycleEvent[], nowMs: number): History {
+/**
+ * A tank's readings and events parsed, checked and put in history order once, for any `now`: what
+ * `buildHistory` does, kept between evaluations so a new test costs its own place in the order,
+ * not a year of parsing and sorting again. Cutting it at `now` (`historyAsOf`) is the history
+ * `buildHistory` gives, because the order puts time first: what happened by `now` is a prefix.
+ */
+export interface PreparedHistory {
+  /** The very arrays it was prepared from: the engine uses it for an input holding these arrays only. */
+  readonly source: { readonly readings: readonly CycleReading[], readonly events: readonly CycleEvent[] | undefined }
+  /** Every reading whose time parses, in history order (including any after a given `now`). */
+  readonly readings: readonly TimedReading[]
+  /** Every event whose time parses, in history order. */
+  readonly events: readonly TimedEvent[]
+  /** Readings whose time does not parse, sorted by id. */
+  readonly ignoredReadingIds: readonly string[]
+  /** Readings that lost a value, sorted by id, with their time (a `now` before it leaves it out). */
+  readonly repaired: readonly { readonly id: string, readonly t: number }[]
+  /** The latest reading carrying each value among all of `readings` (the engine's `latest` when nothing is cut). */
+  readonly latest: Latest
+}
+
+function byId(a: { id: string }, b: { id: string }): number {
+  return compareStrings(a.id, b.id)
+}
+
+/** Parses, checks and orders a tank's readings and events once (see `PreparedHistory`). */
+export function prepareHistory(readings: readonly CycleReading[], events: readonly CycleEvent[] | undefined): PreparedHistory {
   const kept: TimedReading[] = []
   const ignored: string[] = []
-  const repaired: string[] = []
+  const repaired: { id: string, t: number }[] = []
   for (const raw of readings) {
     const t = parseTime(raw.takenAt)
     if (!Number.isFinite(t)) {
       ignored.push(raw.id)
       continue
     }
-    // A reading after `now` is in the verdict's future: leaving it out keeps old verdicts reproducible.
-    if (t > nowMs) continue
     const result = sanitize(raw, t)
     kept.push(result.reading)
-    if (result.repaired) repaired.push(raw.id)
+    if (result.repaired) repaired.push({ id: raw.id, t })
   }
   const timedEvents: TimedEvent[] = []
-  for (const event of events) {
+  for (const event of events ?? []) {
     const t = parseTime(event.at)
-    if (Number.isFinite(t) && t <= nowMs) timedEvents.push({ event, t, entered: enteredTime(event.enteredAt) })
+    if (Number.isFinite(t)) timedEvents.push({ event, t, entered: enteredTime(event.enteredAt) })
   }
+  kept.sort(compareReadings)
   return {
-    readings: kept.sort(compareReadings),
+    source: { readings, events },
+    readings: kept,
     events: timedEvents.sort(compareEvents),
     ignoredReadingIds: ignored.sort(compareStrings),
-    repairedReadingIds: repaired.sort(compareStrings),
+    repaired: repaired.sort(byId),
+    latest: latestValues(kept),
   }
+}
+
+/** How many of `items` (in time order) happened at or before `nowMs`. */
+function countUpTo(items: readonly { readonly t: number }[], nowMs: number): number {
+  let low = 0
+  let high = items.length
+  while (low < high) {
+    const middle = (low + high) >>> 1
+    if (items[middle]!.t <= nowMs) low = middle + 1
+    else high = middle
+  }
+  return low
+}
+
+/** The prefix of `items` up to `count`: the array itself when nothing is cut (no copy on the common path). */
+function prefix<T>(items: readonly T[], count: number): readonly T[] {
+  return count === items.length ? items : items.slice(0, count)
+}
+
+/** The history as of `nowMs`: a reading or event after it is in the verdict's future and left out, which keeps old verdicts reproducible. */
+export function historyAsOf(prepared: PreparedHistory, nowMs: number): History {
+  const readings = prefix(prepared.readings, countUpTo(prepared.readings, nowMs))
+  const events = prefix(prepared.events, countUpTo(prepared.events, nowMs))
+  const repaired = prepared.repaired.some(r => r.t > nowMs) ? prepared.repaired.filter(r => r.t <= nowMs) : prepared.repaired
+  return { readings, events, ignoredReadingIds: prepared.ignoredReadingIds, repairedReadingIds: repaired.map(r => r.id) }
+}
+
+/** Where `item` goes in `list` (sorted by `compare`): after every element not after it. */
+function insertionPoint<T>(list: readonly T[], item: T, compare: (a: T, b: T) => number): number {
+  let low = 0
+  let high = list.length
+  while (low < high) {
+    const middle = (low + high) >>> 1
+    if (compare(list[middle]!, item) <= 0) low = middle + 1
+    else high = middle
+  }
+  return low
+}
+
+function inserted<T>(list: readonly T[], item: T, compare: (a: T, b: T) => number): T[] {
+  const next = list.slice()
+  next.splice(insertionPoint(list, item, compare), 0, item)
+  return next
+}
+
+/**
+ * `prepared` with one more reading, for `nextReadings`: the prepared readings plus `raw`, in
+ * any order (the order of the raw input never matters: the history's order is total). The raw
+ * events stay the same array. Undefined when `nextReadings` is not one longer than the prepared
+ * input: the caller then prepares the whole history again.
+ */
+export function withReadingAdded(prepared: PreparedHistory, raw: CycleReading, nextReadings: readonly CycleReading[]): PreparedHistory | undefined {
+  if (nextReadings.length !== prepared.source.readings.length + 1) return undefined
+  const source = { readings: nextReadings, events: prepared.source.events }
+  const t = parseTime(raw.takenAt)
+  if (!Number.isFinite(t)) return { ...prepared, source, ignoredReadingIds: inserted(prepared.ignoredReadingIds, raw.id, compareStrings) }
+  const result = sanitize(raw, t)
+  return {
+    ...prepared,
+    source,
+    readings: inserted(prepared.readings, result.reading, compareReadings),
+    // It goes after every reading not after it in the order, so it is the latest of each value it carries unless a later one does.
+    latest: updatedLatest(prepared.latest, result.reading, (a, b) => compareReadings(a, b) > 0),
+    repaired: result.repaired ? inserted(prepared.repaired, { id: raw.id, t }, byId) : prepared.repaired,
+  }
+}
+
+/** Builds the ordered history from raw input, dropping what happened after `nowMs`. */
+export function buildHistory(readings: readonly CycleReading[], events: readonly CycleEvent[], nowMs: number): History {
+  return historyAsOf(prepareHistory(readings, events), nowMs)
 }

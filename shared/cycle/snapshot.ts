@@ -24,6 +24,16 @@ export function latestValues(readings: readonly TimedReading[]): Latest {
   return latest
 }
 
+/** `latest` after `added` joined the readings: it takes each value it carries unless a reading `after` it already does. */
+export function updatedLatest(latest: Latest, added: TimedReading, after: (a: TimedReading, b: TimedReading) => boolean): Latest {
+  const next: Partial<Record<Measured, TimedReading>> = { ...latest }
+  for (const key of MEASURED) {
+    const current = next[key]
+    if (added[key] !== undefined && (current === undefined || !after(current, added))) next[key] = added
+  }
+  return next
+}
+
 /** The latest reading with ammonia or nitrite, or null. */
 export function latestNitrogen(readings: readonly TimedReading[]): TimedReading | null {
   for (let i = readings.length - 1; i >= 0; i -= 1) {

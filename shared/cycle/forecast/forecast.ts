@@ -42,13 +42,27 @@ function shell(status: CycleForecast['status'], gap: ForecastGap | null, basis: 
   }
 }
 
+function compareTests(a: { t: number, id: string }, b: { t: number, id: string }): number {
+  return a.t - b.t || (a.id < b.id ? -1 : a.id > b.id ? 1 : 0)
+}
+
 /** Ammonia and nitrite tests up to now, oldest first (same order rule as the engine: time, then id). */
 function testsUpTo(input: CycleInput, nowMs: number): TimedTest[] {
-  return input.readings
-    .map(r => ({ r, t: parseTime(r.takenAt) }))
-    .filter(({ r, t }) => Number.isFinite(t) && t <= nowMs && (r.ammoniaN !== undefined || r.nitriteN !== undefined))
-    .sort((a, b) => a.t - b.t || (a.r.id < b.r.id ? -1 : a.r.id > b.r.id ? 1 : 0))
-    .map(({ r, t }) => ({ t, ammoniaN: r.ammoniaN, nitriteN: r.nitriteN, nitrateN: r.nitrateN }))
+  const found: { t: number, id: string, test: TimedTest }[] = []
+  // The server hands the rows over in time order already: sort only when they are not in this order
+  // (the sort is stable, so rows already in order would come out as they went in).
+  let ordered = true
+  for (const r of input.readings) {
+    if (r.ammoniaN === undefined && r.nitriteN === undefined) continue
+    const t = parseTime(r.takenAt)
+    if (!Number.isFinite(t) || t > nowMs) continue
+    const entry = { t, id: r.id, test: { t, ammoniaN: r.ammoniaN, nitriteN: r.nitriteN, nitrateN: r.nitrateN } }
+    const previous = found[found.length - 1]
+    if (previous !== undefined && compareTests(previous, entry) > 0) ordered = false
+    found.push(entry)
+  }
+  if (!ordered) found.sort(compareTests)
+  return found.map(entry => entry.test)
 }
 
 interface ProofDose {
