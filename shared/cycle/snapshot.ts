@@ -43,6 +43,28 @@ export function latestNitrogen(readings: readonly TimedReading[]): TimedReading 
   return null
 }
 
+/** Index of the first reading (in time order) taken at or after `t` (`strictlyAfter`: after it). */
+function firstFrom(readings: readonly TimedReading[], t: number, strictlyAfter: boolean): number {
+  let low = 0
+  let high = readings.length
+  while (low < high) {
+    const middle = (low + high) >>> 1
+    const mt = readings[middle]!.t
+    if (mt < t || (strictlyAfter && mt === t)) low = middle + 1
+    else high = middle
+  }
+  return low
+}
+
+/**
+ * The readings (in time order) taken from `fromMs` to `toMs`, both included, in order: the same
+ * as filtering the whole history by time, found by binary search, so a rule that looks at the
+ * last days costs those days and not the years before them.
+ */
+export function readingsBetween(readings: readonly TimedReading[], fromMs: number, toMs = Number.POSITIVE_INFINITY): readonly TimedReading[] {
+  return readings.slice(firstFrom(readings, fromMs, false), firstFrom(readings, toMs, true))
+}
+
 /**
  * Where `at` stands in `readings` (in time order), or -1: a binary search to its time, then
  * a step over the tests of the same time. A rule may ask this for every test of a window, so
