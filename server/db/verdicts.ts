@@ -71,9 +71,14 @@ export function evaluateTank(input: CycleInput, prepared?: PreparedHistory): Tan
   return { verdict, forecast: forecastCycle(input, verdict) }
 }
 
-/** The upsert of a tank's current verdict, prepared once (Drizzle still encodes each bound value as its column's type: JSON, boolean). */
+/**
+ * The upsert of a tank's current verdict, prepared once: the row's values bound (Drizzle still
+ * encodes each as its column's type: JSON, boolean), and on a tank that has one, every column
+ * set to the value just offered (`excluded`).
+ */
 const upsertVerdict = preparedPerDb((db) => {
-  const row = {
+  const offered = (column: string) => sql.raw(`excluded.${column}`)
+  return db.insert(tankVerdicts).values({
     tankId: sql.placeholder('tankId'),
     phase: sql.placeholder('phase'),
     verdict: sql.placeholder('verdict'),
@@ -81,8 +86,17 @@ const upsertVerdict = preparedPerDb((db) => {
     ruleSetVersion: sql.placeholder('ruleSetVersion'),
     evaluatedAt: sql.placeholder('evaluatedAt'),
     stale: false,
-  }
-  return db.insert(tankVerdicts).values(row).onConflictDoUpdate({ target: tankVerdicts.tankId, set: row }).prepare()
+  }).onConflictDoUpdate({
+    target: tankVerdicts.tankId,
+    set: {
+      phase: offered(tankVerdicts.phase.name),
+      verdict: offered(tankVerdicts.verdict.name),
+      forecast: offered(tankVerdicts.forecast.name),
+      ruleSetVersion: offered(tankVerdicts.ruleSetVersion.name),
+      evaluatedAt: offered(tankVerdicts.evaluatedAt.name),
+      stale: false,
+    },
+  }).prepare()
 })
 
 /** Stores an evaluation made as of `evaluatedAt` (here, or in a worker thread) as the tank's current one. */

@@ -42,8 +42,8 @@ const oddArb = fc.record({
 
 const caseArb = fc.record({
   log: fc.oneof(
-    tankArb.map(k => ({ kind: 'cycle' as const, input: toInput(k) })),
-    dosingHistoryArb.map(k => ({ kind: 'dosing' as const, input: { tank: { volumeLitres: 200, cycleMethod: 'fishless' as const, startedAt: at(0, 8) }, ...dosingInput(k), now: at(k.days.length + 1, 12) } })),
+    tankArb.map((k): { kind: 'cycle', input: CycleInput } => ({ kind: 'cycle', input: toInput(k) })),
+    dosingHistoryArb.map((k): { kind: 'dosing', input: CycleInput } => ({ kind: 'dosing', input: { tank: { volumeLitres: 200, cycleMethod: 'fishless', startedAt: at(0, 8) }, ...dosingInput(k), now: at(k.days.length + 1, 12) } })),
   ),
   limits: fc.record({ ammoniaZeroN: fc.constantFrom(0, 0.02, 0.1), nitriteZeroN: fc.constantFrom(0, 0.05), clearanceDays: fc.constantFrom(1, 3) }),
   odd: oddArb,
@@ -90,7 +90,7 @@ describe('the kept history gives the full evaluation', { timeout: 2 * LIMIT_MS }
       const events: CycleEvent[] = [...(base.events ?? [])]
       const arrivals = shuffled(withOdd(base.readings, c.odd, now), c.seed)
       const first = Math.min(c.startWith, arrivals.length)
-      let readings: readonly CycleReading[] = arrivals.slice(0, first)
+      let readings: CycleReading[] = arrivals.slice(0, first)
       let prepared = prepareHistory(readings, events)
       for (const [step, reading] of arrivals.slice(first).entries()) {
         const next = [...readings, reading]
