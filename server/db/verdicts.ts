@@ -68,7 +68,7 @@ export interface TankEvaluation {
  */
 export function evaluateTank(input: CycleInput, prepared?: PreparedHistory): TankEvaluation {
   const verdict = evaluateCycle(input, CURRENT_RULE_OPTIONS, prepared)
-  return { verdict, forecast: forecastCycle(input, verdict) }
+  return { verdict, forecast: forecastCycle(input, verdict, prepared) }
 }
 
 /**

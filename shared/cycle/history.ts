@@ -129,6 +129,35 @@ export interface PreparedHistory {
   readonly repaired: readonly { readonly id: string, readonly t: number }[]
   /** The latest reading carrying each value among all of `readings` (the engine's `latest` when nothing is cut). */
   readonly latest: Latest
+  /**
+   * The tests with ammonia or nitrite whose time parses, in the forecast's order (time, then id,
+   * then input order), with their values as given: the forecast's curves, cut at `now` like the rest.
+   */
+  readonly nitrogenTests: readonly NitrogenTest[]
+}
+
+/** An ammonia or nitrite test as the forecast reads it. */
+export interface NitrogenTest {
+  readonly t: number
+  readonly id: string
+  readonly ammoniaN?: number
+  readonly nitriteN?: number
+  readonly nitrateN?: number
+}
+
+/** The forecast's order of tests: time, then id (a stable sort keeps input order after that). */
+export function compareNitrogenTests(a: NitrogenTest, b: NitrogenTest): number {
+  return a.t - b.t || compareStrings(a.id, b.id)
+}
+
+function nitrogenTest(raw: CycleReading, t: number): NitrogenTest | undefined {
+  if (raw.ammoniaN === undefined && raw.nitriteN === undefined) return undefined
+  return { t, id: raw.id, ammoniaN: raw.ammoniaN, nitriteN: raw.nitriteN, nitrateN: raw.nitrateN }
+}
+
+/** The forecast's tests as of `nowMs` (a prefix: its order puts time first). */
+export function nitrogenTestsAsOf(prepared: PreparedHistory, nowMs: number): readonly NitrogenTest[] {
+  return prefix(prepared.nitrogenTests, countUpTo(prepared.nitrogenTests, nowMs))
 }
 
 function byId(a: { id: string }, b: { id: string }): number {
@@ -140,6 +169,7 @@ export function prepareHistory(readings: readonly CycleReading[], events: readon
   const kept: TimedReading[] = []
   const ignored: string[] = []
   const repaired: { id: string, t: number }[] = []
+  const nitrogen: NitrogenTest[] = []
   for (const raw of readings) {
     const t = parseTime(raw.takenAt)
     if (!Number.isFinite(t)) {
@@ -149,6 +179,8 @@ export function prepareHistory(readings: readonly CycleReading[], events: readon
     const result = sanitize(raw, t)
     kept.push(result.reading)
     if (result.repaired) repaired.push({ id: raw.id, t })
+    const test = nitrogenTest(raw, t)
+    if (test) nitrogen.push(test)
   }
   const timedEvents: TimedEvent[] = []
   for (const event of events ?? []) {
@@ -163,6 +195,7 @@ export function prepareHistory(readings: readonly CycleReading[], events: readon
     ignoredReadingIds: ignored.sort(compareStrings),
     repaired: repaired.sort(byId),
     latest: latestValues(kept),
+    nitrogenTests: nitrogen.sort(compareNitrogenTests),
   }
 }
 
@@ -213,7 +246,8 @@ function inserted<T>(list: readonly T[], item: T, compare: (a: T, b: T) => numbe
  * `prepared` with one more reading, for `nextReadings`: the prepared readings plus `raw`, in
  * any order (the order of the raw input never matters: the history's order is total). The raw
  * events stay the same array. Undefined when `nextReadings` is not one longer than the prepared
- * input: the caller then prepares the whole history again.
+ * input, or when the test has the time and id of one already there (the input's order would
+ * decide between them): the caller then prepares the whole history again.
  */
 export function withReadingAdded(prepared: PreparedHistory, raw: CycleReading, nextReadings: readonly CycleReading[]): PreparedHistory | undefined {
   if (nextReadings.length !== prepared.source.readings.length + 1) return undefined
@@ -221,9 +255,20 @@ export function withReadingAdded(prepared: PreparedHistory, raw: CycleReading, n
   const t = parseTime(raw.takenAt)
   if (!Number.isFinite(t)) return { ...prepared, source, ignoredReadingIds: inserted(prepared.ignoredReadingIds, raw.id, compareStrings) }
   const result = sanitize(raw, t)
+  const test = nitrogenTest(raw, t)
+  let nitrogenTests = prepared.nitrogenTests
+  if (test) {
+    const place = insertionPoint(nitrogenTests, test, compareNitrogenTests)
+    const before = nitrogenTests[place - 1]
+    if (before && compareNitrogenTests(before, test) === 0) return undefined
+    const next = nitrogenTests.slice()
+    next.splice(place, 0, test)
+    nitrogenTests = next
+  }
   return {
     ...prepared,
     source,
+    nitrogenTests,
     readings: inserted(prepared.readings, result.reading, compareReadings),
     // It goes after every reading not after it in the order, so it is the latest of each value it carries unless a later one does.
     latest: updatedLatest(prepared.latest, result.reading, (a, b) => compareReadings(a, b) > 0),
