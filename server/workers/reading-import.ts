@@ -6,17 +6,23 @@
  * one IMMEDIATE transaction: all of them or none, and the day cap is counted under the
  * write lock, so no concurrent write can take the same room.
  *
+ * Rows are written as they are read and checked, a chunk of IMPORT_CHUNK_ROWS at a time
+ * (planImport hands them to the sink), so no array of the file's rows is built: memory stays
+ * flat however long the file. Whether
+ * a row is already held is the unique index's answer (ON CONFLICT DO NOTHING): no set of keys.
+ * A dry run reads in one read transaction and writes nothing.
+ *
  * Framework-free (no Nitro, no h3); its entry is heavy.worker.ts.
  */
 import { randomUUID } from 'node:crypto'
-import { capPerDay, planDays, planImport, toPreview, type ImportPlan } from '#shared/readings/import-plan'
+import type { Statement } from 'better-sqlite3'
+import { planImport, toPreview, type ImportRow, type ImportSink, type PlanContext, type PlanOutcome } from '#shared/readings/import-plan'
 import type { KitBasisChoice } from '#shared/readings/entry'
 import type { ReadingImportInput } from '#shared/schemas/reading'
 import type { ImportPreview } from '#shared/types/readings'
-import type { MeasuredField } from '#shared/vocabulary'
 import type { TidewrightDB } from '#server/db/connection'
 import { recordAudit } from '#server/domain/audit/record'
-import { testsPerDay } from '#server/domain/readings/day-cap'
+import { testsOnDay } from '#server/domain/readings/day-cap'
 import { lockedUntil } from '#server/domain/sign-off/lock'
 import { workerConnection } from './connection'
 
@@ -43,49 +49,95 @@ const INSERT_SQL = `INSERT INTO readings (id, tank_id, taken_at, entered_by, amm
   VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?)
   ON CONFLICT (tank_id, import_key) DO NOTHING`
 
-/** The plan held to the day cap against what the tank holds now. */
-function capped(db: TidewrightDB, tankId: string, plan: ImportPlan): ImportPlan {
-  const days = planDays(plan)
-  return days ? capPerDay(plan, testsPerDay(db, tankId, days.first, days.last)) : plan
+const HOLDS_SQL = 'SELECT 1 FROM readings WHERE tank_id = ? AND import_key = ?'
+
+/** Thrown inside the write transaction to undo what it took (a file found too long, a header refused). */
+class Refused extends Error {
+  constructor(readonly outcome: Exclude<PlanOutcome, { kind: 'plan' }>) {
+    super(outcome.kind)
+  }
+}
+
+/** Statements prepared once per connection: an import runs them up to 100,000 times each. */
+const statements = new WeakMap<TidewrightDB, { insert: Statement, holds: Statement }>()
+function statementsOf(db: TidewrightDB) {
+  let s = statements.get(db)
+  if (!s) {
+    s = { insert: db.$client.prepare(INSERT_SQL), holds: db.$client.prepare(HOLDS_SQL).pluck() }
+    statements.set(db, s)
+  }
+  return s
+}
+
+/** The day cap's starting counts: the tank's current tests on a day, read under the transaction. */
+const heldOnDayOf = (db: TidewrightDB, tankId: string) => (day: string) => testsOnDay(db, tankId, day)
+
+/** A sink that writes each row (the real import). */
+function writingSink(db: TidewrightDB, task: ReadingImportTask): ImportSink & { inserted: () => number } {
+  const { insert, holds } = statementsOf(db)
+  const stamp = new Date(task.nowMs).toISOString()
+  let inserted = 0
+  return {
+    heldOnDay: heldOnDayOf(db, task.tankId),
+    holds: key => holds.get(task.tankId, key) !== undefined,
+    add: ({ reading: { takenAt, values: v, notes }, key, entered }: ImportRow) => {
+      const changes = insert.run(randomUUID(), task.tankId, takenAt, task.actor.id, v.ammoniaN, v.nitriteN, v.nitrateN, v.pH, v.temperatureC, v.salinity,
+        v.alkalinityDkh, v.calciumMgL, v.magnesiumMgL, v.phosphateMgL, notes, entered, key, stamp, stamp).changes
+      inserted += changes
+      return changes === 1
+    },
+    inserted: () => inserted,
+  }
+}
+
+/** A sink that only looks (a dry run): the keys this file has taken so far are kept to find repeats within it. */
+function lookingSink(db: TidewrightDB, tankId: string): ImportSink {
+  const { holds } = statementsOf(db)
+  const taken = new Set<string>()
+  const held = (key: string) => taken.has(key) || holds.get(tankId, key) !== undefined
+  return {
+    heldOnDay: heldOnDayOf(db, tankId),
+    holds: held,
+    add: ({ key }) => {
+      if (held(key)) return false
+      taken.add(key)
+      return true
+    },
+  }
 }
 
 /** Plans the file and, unless it is a dry run, writes it; see the file's comment. */
 export function readingImport(task: ReadingImportTask): ReadingImportResult {
   const db = workerConnection(task.dbPath)
   const sqlite = db.$client
-  const existing = new Set<string>(sqlite.prepare('SELECT import_key FROM readings WHERE tank_id = ? AND import_key IS NOT NULL').pluck().all(task.tankId) as string[])
-  const outcome = planImport(task.input, {
-    kit: task.kit,
-    lockedMs: task.lockedMs ?? Number.NEGATIVE_INFINITY,
-    alreadyImported: key => existing.has(key),
-    now: new Date(task.nowMs),
-  })
-  if (outcome.kind !== 'plan') return outcome
-  if (task.input.dryRun) return { kind: 'done', preview: toPreview(capped(db, task.tankId, outcome.plan), true, 0) }
-
-  const insert = sqlite.prepare(INSERT_SQL)
-  const stamp = new Date(task.nowMs).toISOString()
+  const context: PlanContext = { kit: task.kit, lockedMs: task.lockedMs ?? Number.NEGATIVE_INFINITY, now: new Date(task.nowMs) }
+  if (task.input.dryRun) {
+    // One read transaction: every look-up sees the same state of the tank.
+    const outcome = sqlite.transaction(() => planImport(task.input, context, lookingSink(db, task.tankId))).deferred()
+    return outcome.kind === 'plan' ? { kind: 'done', preview: toPreview(outcome.plan, true, 0) } : outcome
+  }
   const write = sqlite.transaction(() => {
-    // Counted inside the write lock: what other writers committed before is seen, and
-    // nobody writes until this commits.
     // The boundary was read on the request loop before the file came here; a sign-off decided
-    // since would let the plan write into what the supervisor has just signed.
+    // since would let the import write into what the supervisor has just signed. Read inside
+    // the write lock, as are the day counts: nobody writes until this commits.
     const lockedNow = lockedUntil(db, task.tankId)
     if ((lockedNow === null ? null : Date.parse(lockedNow)) !== task.lockedMs) return null
-    const plan = capped(db, task.tankId, outcome.plan)
-    let inserted = 0
-    const rows = plan.rows
-    for (let i = 0; i < rows.length; i++) {
-      const v = (field: MeasuredField) => rows.value(i, field)
-      inserted += insert.run(randomUUID(), task.tankId, rows.takenAt[i], task.actor.id, v('ammoniaN'), v('nitriteN'), v('nitrateN'), v('pH'), v('temperatureC'), v('salinity'),
-        v('alkalinityDkh'), v('calciumMgL'), v('magnesiumMgL'), v('phosphateMgL'), rows.notes[i], rows.entered[i], rows.key[i], stamp, stamp).changes
-    }
+    const sink = writingSink(db, task)
+    const outcome = planImport(task.input, context, sink)
+    if (outcome.kind !== 'plan') throw new Refused(outcome)
+    const { plan } = outcome
+    const inserted = sink.inserted()
     // Same transaction: the rows and their audit line commit together or not at all.
     recordAudit(db, task.actor, { action: 'reading.import', entity: 'tank', entityId: task.tankId, after: { rows: plan.rowCount, inserted, skipped: plan.rowCount - inserted, errors: plan.errors.length } })
     return { plan, inserted }
   })
-  const written = write.immediate()
-  if (!written) return { kind: 'lock-moved' }
-  const { plan, inserted } = written
-  return { kind: 'done', preview: toPreview(plan, false, inserted) }
+  try {
+    const written = write.immediate()
+    if (!written) return { kind: 'lock-moved' }
+    return { kind: 'done', preview: toPreview(written.plan, false, written.inserted) }
+  }
+  catch (error) {
+    if (error instanceof Refused) return error.outcome
+    throw error
+  }
 }
