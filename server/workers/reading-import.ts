@@ -80,7 +80,7 @@ function writingSink(db: TidewrightDB, task: ReadingImportTask): ImportSink & { 
   return {
     heldOnDay: heldOnDayOf(db, task.tankId),
     holds: key => holds.get(task.tankId, key) !== undefined,
-    add: ({ reading: { takenAt, values: v, notes }, key, entered }: ImportRow) => {
+    add: ({ takenAt, values: v, notes, key, entered }: ImportRow) => {
       const changes = insert.run(randomUUID(), task.tankId, takenAt, task.actor.id, v.ammoniaN, v.nitriteN, v.nitrateN, v.pH, v.temperatureC, v.salinity,
         v.alkalinityDkh, v.calciumMgL, v.magnesiumMgL, v.phosphateMgL, notes, entered, key, stamp, stamp).changes
       inserted += changes

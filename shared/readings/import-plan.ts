@@ -11,18 +11,23 @@ import type { ReadingImportInput } from '../schemas/reading'
 import type { ImportPreview, ImportRowError } from '../types/readings'
 import { MEASURED_FIELDS } from '../vocabulary'
 import { arrayRowToEntry, columnIndexes, csvNumberText, duplicateHeaderColumns, guessMapping, importBasis } from './csv'
-import { toCanonicalReading, type CanonicalReading, type KitBasisChoice } from './entry'
+import { toCanonicalReading, type CanonicalReading, type CanonicalValues, type KitBasisChoice } from './entry'
 import { dayFullRowMessage, MAX_IMPORT_ROWS, TESTS_PER_TANK_PER_DAY } from './limits'
 
 /** At most this many row errors are reported; the count is always complete. */
 const MAX_REPORTED_ERRORS = 200
 const PREVIEW_ROWS = 20
 
-/** One row that passed every check, as the import writes it. */
+/**
+ * One row that passed every check, as the import writes it: only what is written, so a chunk
+ * waiting to be handed on keeps no entry, flags or other garbage of its rows alive.
+ */
 export interface ImportRow {
   /** The file's row number (the header is row 1). */
   line: number
-  reading: CanonicalReading
+  takenAt: string
+  values: CanonicalValues
+  notes: string | null
   /** The import key (importKeyOf). */
   key: string
   /** What was typed, as stored in readings.entered (enteredText). */
@@ -159,8 +164,7 @@ export function planImport(input: ReadingImportInput, context: PlanContext, sink
     }
   }
   const take = (into: ImportPlan, row: ImportRow) => {
-    const { reading } = row
-    const day = dayOf(reading.takenAt)
+    const day = dayOf(row.takenAt)
     // A test already held takes no room, so a full day still counts it as a duplicate.
     if (!room.hasRoom(day)) {
       if (sink.holds(row.key)) into.duplicates++
@@ -174,8 +178,8 @@ export function planImport(input: ReadingImportInput, context: PlanContext, sink
     room.took(day)
     into.added++
     if (into.preview.length < PREVIEW_ROWS) {
-      const { values } = reading
-      into.preview.push({ row: row.line, takenAt: reading.takenAt, ammoniaN: values.ammoniaN, nitriteN: values.nitriteN, nitrateN: values.nitrateN, pH: values.pH, temperatureC: values.temperatureC, salinity: values.salinity })
+      const { values } = row
+      into.preview.push({ row: row.line, takenAt: row.takenAt, ammoniaN: values.ammoniaN, nitriteN: values.nitriteN, nitrateN: values.nitrateN, pH: values.pH, temperatureC: values.temperatureC, salinity: values.salinity })
     }
   }
   Papa.parse<string[]>(input.csv, {
@@ -213,7 +217,7 @@ export function planImport(input: ReadingImportInput, context: PlanContext, sink
       const { reading } = converted
       // Rows inside a signed-off period would change what the supervisor signed: refused per row.
       if (Date.parse(reading.takenAt) <= context.lockedMs) return report(line, [{ field: 'takenAt', message: 'This test falls in the signed-off period and cannot be imported.' }])
-      chunk.push({ line, reading, key: importKeyOf(reading), entered: enteredText(reading) })
+      chunk.push({ line, takenAt: reading.takenAt, values: reading.values, notes: reading.notes, key: importKeyOf(reading), entered: enteredText(reading) })
       if (chunk.length === IMPORT_CHUNK_ROWS) handOver(plan)
     },
   })

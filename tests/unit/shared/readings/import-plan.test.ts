@@ -63,10 +63,10 @@ describe('tests per day', () => {
   it('counts each day on its own', () => {
     const tank = memoryTank({ '2026-03-10': TESTS_PER_TANK_PER_DAY })
     const plan = planOf(hourly(48, Date.parse('2026-03-10T00:00:00Z')), tank)
-    expect(tank.taken.every(r => dayOf(r.reading.takenAt) === '2026-03-11')).toBe(true)
+    expect(tank.taken.every(r => dayOf(r.takenAt) === '2026-03-11')).toBe(true)
     expect(plan.added).toBe(24)
-    expect(tank.taken[0]!.reading.values.ammoniaN).toBe(0.25)
-    expect(tank.taken[0]!.reading.values.nitriteN).toBeNull()
+    expect(tank.taken[0]!.values.ammoniaN).toBe(0.25)
+    expect(tank.taken[0]!.values.nitriteN).toBeNull()
     expect(plan.preview[0]).toMatchObject({ row: 26, takenAt: '2026-03-11T00:00:00.000Z', ammoniaN: 0.25, nitriteN: null })
   })
 
