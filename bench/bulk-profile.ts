@@ -19,7 +19,7 @@ const ROWS = Number(process.env.BULK_PROFILE_ROWS ?? 100_000)
 const mib = (n: number) => (n / 1048576).toFixed(0)
 const mem = () => {
   const m = process.memoryUsage()
-  return `rss ${mib(m.rss)} heap ${mib(m.heapUsed)} MiB`
+  return `rss ${mib(m.rss)} heap ${mib(m.heapUsed)} peak rss ${mib(process.resourceUsage().maxRSS * 1024)} MiB`
 }
 
 /** Runs `step`, printing its wall and CPU milliseconds; returns its value and CPU ms. */
