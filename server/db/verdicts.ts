@@ -5,42 +5,54 @@
  */
 import { eq, inArray, isNull, sql } from 'drizzle-orm'
 import { evaluateCycle } from '../../shared/cycle/engine'
+import type { PreparedHistory } from '../../shared/cycle/history'
+import { CURRENT_RULE_OPTIONS } from '../../shared/cycle/options'
 import { FORECAST_VERSION, forecastCycle } from '../../shared/cycle/forecast'
 import type { CycleEvent, CycleInput, CycleReading, Verdict } from '../../shared/cycle/types'
 import type { CycleForecast } from '../../shared/cycle/forecast'
 import type { Db } from './connection'
 import { preparedPerDb } from './prepared'
-import { engineRows } from '../domain/readings/engine-input-cache'
+import { engineRows, preparedHistoryOf, type EngineRows } from '../domain/readings/engine-input-cache'
 import { tankVerdicts, tanks } from './schema'
 import { readOrganisationSettings } from './settings'
 
-/** The engine input for a tank as the database holds it now, or undefined if there is no such tank. */
-export function cycleInputFor(db: Db, tankId: string, now: Date): CycleInput | undefined {
-  const tank = db.select().from(tanks).where(eq(tanks.id, tankId)).get()
+/** The tank's row, prepared once. */
+const tankById = preparedPerDb(db => db.select().from(tanks).where(eq(tanks.id, sql.placeholder('tankId'))).prepare())
+
+/** The engine input for a tank and the kept rows it was made from, or undefined if there is no such tank. */
+function cycleInputWithRows(db: Db, tankId: string, now: Date): { input: CycleInput, rows: EngineRows } | undefined {
+  const tank = tankById(db).get({ tankId })
   if (!tank) return undefined
   const { thresholds } = readOrganisationSettings(db, tank.organisationId)
   // A correction replaces the entry it corrects; the engine sees only the current value. The rows
   // come from a copy kept in memory while the tank's data has not changed (engine-input-cache.ts).
   const rows = engineRows(db, tankId)
-  return {
+  const input = {
     tank: { volumeLitres: tank.volumeLitres + tank.sumpLitres, cycleMethod: tank.cycleMethod, startedAt: tank.cycleStartedAt ?? tank.createdAt },
     readings: rows.readings as CycleReading[],
     events: rows.events as CycleEvent[],
     thresholds,
     now: now.toISOString(),
   }
+  return { input, rows }
+}
+
+/** The engine input for a tank as the database holds it now, or undefined if there is no such tank. */
+export function cycleInputFor(db: Db, tankId: string, now: Date): CycleInput | undefined {
+  return cycleInputWithRows(db, tankId, now)?.input
 }
 
 /**
  * Evaluates the tank's cycle now and stores the verdict with the completion forecast made from
  * the same input at the same time (lists read it instead of the tank's history); undefined if
- * the tank does not exist.
+ * the tank does not exist. The engine starts from the history kept with the rows (parsed and
+ * ordered once, a new test placed into it), which gives the verdict the rows alone give.
  */
 export function computeAndStoreVerdict(db: Db, tankId: string, now = new Date()): Verdict | undefined {
-  const input = cycleInputFor(db, tankId, now)
-  if (!input) return undefined
-  const evaluation = evaluateTank(input)
-  storeVerdict(db, tankId, evaluation, input.now)
+  const found = cycleInputWithRows(db, tankId, now)
+  if (!found) return undefined
+  const evaluation = evaluateTank(found.input, preparedHistoryOf(found.rows))
+  storeVerdict(db, tankId, evaluation, found.input.now)
   return evaluation.verdict
 }
 
@@ -50,24 +62,53 @@ export interface TankEvaluation {
   forecast: CycleForecast
 }
 
-/** The verdict and forecast for one engine input (here, or in a worker thread). */
-export function evaluateTank(input: CycleInput): TankEvaluation {
-  const verdict = evaluateCycle(input)
-  return { verdict, forecast: forecastCycle(input, verdict) }
+/**
+ * The verdict and forecast for one engine input (here, or in a worker thread). `prepared`: the
+ * input's history kept from an earlier evaluation (used only if made from these very arrays).
+ */
+export function evaluateTank(input: CycleInput, prepared?: PreparedHistory): TankEvaluation {
+  const verdict = evaluateCycle(input, CURRENT_RULE_OPTIONS, prepared)
+  return { verdict, forecast: forecastCycle(input, verdict, prepared) }
 }
+
+/**
+ * The upsert of a tank's current verdict, prepared once: the row's values bound (Drizzle still
+ * encodes each as its column's type: JSON, boolean), and on a tank that has one, every column
+ * set to the value just offered (`excluded`).
+ */
+const upsertVerdict = preparedPerDb((db) => {
+  const offered = (column: string) => sql.raw(`excluded.${column}`)
+  return db.insert(tankVerdicts).values({
+    tankId: sql.placeholder('tankId'),
+    phase: sql.placeholder('phase'),
+    verdict: sql.placeholder('verdict'),
+    forecast: sql.placeholder('forecast'),
+    ruleSetVersion: sql.placeholder('ruleSetVersion'),
+    evaluatedAt: sql.placeholder('evaluatedAt'),
+    stale: false,
+  }).onConflictDoUpdate({
+    target: tankVerdicts.tankId,
+    set: {
+      phase: offered(tankVerdicts.phase.name),
+      verdict: offered(tankVerdicts.verdict.name),
+      forecast: offered(tankVerdicts.forecast.name),
+      ruleSetVersion: offered(tankVerdicts.ruleSetVersion.name),
+      evaluatedAt: offered(tankVerdicts.evaluatedAt.name),
+      stale: false,
+    },
+  }).prepare()
+})
 
 /** Stores an evaluation made as of `evaluatedAt` (here, or in a worker thread) as the tank's current one. */
 export function storeVerdict(db: Db, tankId: string, { verdict, forecast }: TankEvaluation, evaluatedAt: string): void {
-  const row = {
+  upsertVerdict(db).run({
     tankId,
     phase: verdict.phase,
     verdict,
     forecast,
     ruleSetVersion: verdict.ruleSetVersion,
     evaluatedAt,
-    stale: false,
-  }
-  db.insert(tankVerdicts).values(row).onConflictDoUpdate({ target: tankVerdicts.tankId, set: row }).run()
+  })
 }
 
 /** The forecasts kept with the verdicts of a page of tanks, prepared once (the ids as one JSON array). */

@@ -6,7 +6,7 @@
 
 import { mergeActions } from './actions'
 import { traceCourse } from './course'
-import { buildHistory, compareReadings } from './history'
+import { compareReadings, historyAsOf, prepareHistory, type PreparedHistory } from './history'
 import { decidePhase, firstSourceTime } from './phase'
 import { assessReadiness } from './readiness'
 import { CURRENT_RULE_OPTIONS, type RuleOptions } from './options'
@@ -30,13 +30,21 @@ function compareFindings(a: Finding, b: Finding): number {
     || compareStrings(a.readingIds.join('\u0000'), b.readingIds.join('\u0000'))
 }
 
-function buildContext(input: CycleInput, options: RuleOptions): RuleContext {
+/** `prepared` when it was made from this input's very arrays, otherwise the input's history prepared now. */
+function preparedFor(input: CycleInput, prepared: PreparedHistory | undefined): PreparedHistory {
+  if (prepared && prepared.source.readings === input.readings && prepared.source.events === input.events) return prepared
+  return prepareHistory(input.readings, input.events)
+}
+
+function buildContext(input: CycleInput, options: RuleOptions, kept: PreparedHistory | undefined): RuleContext {
   const nowMs = requireTime('now', input.now)
   const startedMs = requireTime('tank.startedAt', input.tank.startedAt)
   const thresholds = resolveThresholds(input.thresholds)
-  const history = buildHistory(input.readings, input.events ?? [], nowMs)
+  const prepared = preparedFor(input, kept)
+  const history = historyAsOf(prepared, nowMs)
   const course = traceCourse(history, thresholds, input.tank.cycleMethod, startedMs, nowMs, options)
-  const latest = latestValues(history.readings)
+  // Nothing after `now` was cut: the latest values of the whole prepared history are the ones.
+  const latest = history.readings === prepared.readings ? prepared.latest : latestValues(history.readings)
   const sourceT = firstSourceTime(history, input.tank, startedMs, thresholds, nowMs)
   const phase = decidePhase({ history, course, latest, thresholds, sourceT })
   const livestock = history.events.filter(e => e.event.kind === 'livestock-added')
@@ -63,9 +71,12 @@ function runRules(ctx: RuleContext): { findings: Finding[], actions: CycleAction
  * readiness per livestock group and next actions. Throws a RangeError when `now`
  * or `tank.startedAt` is not an ISO time or a threshold is not a finite number >= 0.
  * `options` selects an earlier 2.x version's behaviour (see `versions.ts`); the default is current.
+ * `prepared`, when given, is this input's history prepared earlier (`prepareHistory`, kept between
+ * a tank's evaluations): it is used only when made from the input's very `readings` and `events`
+ * arrays, and gives the verdict the input alone gives.
  */
-export function evaluateCycle(input: CycleInput, options: RuleOptions = CURRENT_RULE_OPTIONS): Verdict {
-  const ctx = buildContext(input, options)
+export function evaluateCycle(input: CycleInput, options: RuleOptions = CURRENT_RULE_OPTIONS, prepared?: PreparedHistory): Verdict {
+  const ctx = buildContext(input, options, prepared)
   const { findings, actions } = runRules(ctx)
   return {
     phase: ctx.phase,

@@ -5,6 +5,7 @@
  * the latest.
  */
 
+import { latestValues, updatedLatest, type Latest } from './snapshot'
 import { parseTime } from './time'
 import type { CycleEvent, CycleReading } from './types'
 
@@ -109,32 +110,173 @@ function sanitize(raw: CycleReading, t: number): { reading: TimedReading, repair
   return { reading: { id: raw.id, t, entered: enteredTime(raw.enteredAt), ...values }, repaired }
 }
 
-/** Builds the ordered history from raw input, dropping what happened after `nowMs`. */
-export function buildHistory(readings: readonly CycleReading[], events: readonly CycleEvent[], nowMs: number): History {
+/**
+ * A tank's readings and events parsed, checked and put in history order once, for any `now`: what
+ * `buildHistory` does, kept between evaluations so a new test costs its own place in the order,
+ * not a year of parsing and sorting again. Cutting it at `now` (`historyAsOf`) is the history
+ * `buildHistory` gives, because the order puts time first: what happened by `now` is a prefix.
+ */
+export interface PreparedHistory {
+  /** The very arrays it was prepared from: the engine uses it for an input holding these arrays only. */
+  readonly source: { readonly readings: readonly CycleReading[], readonly events: readonly CycleEvent[] | undefined }
+  /** Every reading whose time parses, in history order (including any after a given `now`). */
+  readonly readings: readonly TimedReading[]
+  /** Every event whose time parses, in history order. */
+  readonly events: readonly TimedEvent[]
+  /** Readings whose time does not parse, sorted by id. */
+  readonly ignoredReadingIds: readonly string[]
+  /** Readings that lost a value, sorted by id, with their time (a `now` before it leaves it out). */
+  readonly repaired: readonly { readonly id: string, readonly t: number }[]
+  /** The latest reading carrying each value among all of `readings` (the engine's `latest` when nothing is cut). */
+  readonly latest: Latest
+  /**
+   * The tests with ammonia or nitrite whose time parses, in the forecast's order (time, then id,
+   * then input order), with their values as given: the forecast's curves, cut at `now` like the rest.
+   */
+  readonly nitrogenTests: readonly NitrogenTest[]
+}
+
+/** An ammonia or nitrite test as the forecast reads it. */
+export interface NitrogenTest {
+  readonly t: number
+  readonly id: string
+  readonly ammoniaN?: number
+  readonly nitriteN?: number
+  readonly nitrateN?: number
+}
+
+/** The forecast's order of tests: time, then id (a stable sort keeps input order after that). */
+export function compareNitrogenTests(a: NitrogenTest, b: NitrogenTest): number {
+  return a.t - b.t || compareStrings(a.id, b.id)
+}
+
+function nitrogenTest(raw: CycleReading, t: number): NitrogenTest | undefined {
+  if (raw.ammoniaN === undefined && raw.nitriteN === undefined) return undefined
+  return { t, id: raw.id, ammoniaN: raw.ammoniaN, nitriteN: raw.nitriteN, nitrateN: raw.nitrateN }
+}
+
+/** The forecast's tests as of `nowMs` (a prefix: its order puts time first). */
+export function nitrogenTestsAsOf(prepared: PreparedHistory, nowMs: number): readonly NitrogenTest[] {
+  return prefix(prepared.nitrogenTests, countUpTo(prepared.nitrogenTests, nowMs))
+}
+
+function byId(a: { id: string }, b: { id: string }): number {
+  return compareStrings(a.id, b.id)
+}
+
+/** Parses, checks and orders a tank's readings and events once (see `PreparedHistory`). */
+export function prepareHistory(readings: readonly CycleReading[], events: readonly CycleEvent[] | undefined): PreparedHistory {
   const kept: TimedReading[] = []
   const ignored: string[] = []
-  const repaired: string[] = []
+  const repaired: { id: string, t: number }[] = []
+  const nitrogen: NitrogenTest[] = []
   for (const raw of readings) {
     const t = parseTime(raw.takenAt)
     if (!Number.isFinite(t)) {
       ignored.push(raw.id)
       continue
     }
-    // A reading after `now` is in the verdict's future: leaving it out keeps old verdicts reproducible.
-    if (t > nowMs) continue
     const result = sanitize(raw, t)
     kept.push(result.reading)
-    if (result.repaired) repaired.push(raw.id)
+    if (result.repaired) repaired.push({ id: raw.id, t })
+    const test = nitrogenTest(raw, t)
+    if (test) nitrogen.push(test)
   }
   const timedEvents: TimedEvent[] = []
-  for (const event of events) {
+  for (const event of events ?? []) {
     const t = parseTime(event.at)
-    if (Number.isFinite(t) && t <= nowMs) timedEvents.push({ event, t, entered: enteredTime(event.enteredAt) })
+    if (Number.isFinite(t)) timedEvents.push({ event, t, entered: enteredTime(event.enteredAt) })
   }
+  kept.sort(compareReadings)
   return {
-    readings: kept.sort(compareReadings),
+    source: { readings, events },
+    readings: kept,
     events: timedEvents.sort(compareEvents),
     ignoredReadingIds: ignored.sort(compareStrings),
-    repairedReadingIds: repaired.sort(compareStrings),
+    repaired: repaired.sort(byId),
+    latest: latestValues(kept),
+    nitrogenTests: nitrogen.sort(compareNitrogenTests),
   }
+}
+
+/** How many of `items` (in time order) happened at or before `nowMs`. */
+function countUpTo(items: readonly { readonly t: number }[], nowMs: number): number {
+  let low = 0
+  let high = items.length
+  while (low < high) {
+    const middle = (low + high) >>> 1
+    if (items[middle]!.t <= nowMs) low = middle + 1
+    else high = middle
+  }
+  return low
+}
+
+/** The prefix of `items` up to `count`: the array itself when nothing is cut (no copy on the common path). */
+function prefix<T>(items: readonly T[], count: number): readonly T[] {
+  return count === items.length ? items : items.slice(0, count)
+}
+
+/** The history as of `nowMs`: a reading or event after it is in the verdict's future and left out, which keeps old verdicts reproducible. */
+export function historyAsOf(prepared: PreparedHistory, nowMs: number): History {
+  const readings = prefix(prepared.readings, countUpTo(prepared.readings, nowMs))
+  const events = prefix(prepared.events, countUpTo(prepared.events, nowMs))
+  const repaired = prepared.repaired.some(r => r.t > nowMs) ? prepared.repaired.filter(r => r.t <= nowMs) : prepared.repaired
+  return { readings, events, ignoredReadingIds: prepared.ignoredReadingIds, repairedReadingIds: repaired.map(r => r.id) }
+}
+
+/** Where `item` goes in `list` (sorted by `compare`): after every element not after it. */
+function insertionPoint<T>(list: readonly T[], item: T, compare: (a: T, b: T) => number): number {
+  let low = 0
+  let high = list.length
+  while (low < high) {
+    const middle = (low + high) >>> 1
+    if (compare(list[middle]!, item) <= 0) low = middle + 1
+    else high = middle
+  }
+  return low
+}
+
+function inserted<T>(list: readonly T[], item: T, compare: (a: T, b: T) => number): T[] {
+  const next = list.slice()
+  next.splice(insertionPoint(list, item, compare), 0, item)
+  return next
+}
+
+/**
+ * `prepared` with one more reading, for `nextReadings`: the prepared readings plus `raw`, in
+ * any order (the order of the raw input never matters: the history's order is total). The raw
+ * events stay the same array. Undefined when `nextReadings` is not one longer than the prepared
+ * input, or when the test has the time and id of one already there (the input's order would
+ * decide between them): the caller then prepares the whole history again.
+ */
+export function withReadingAdded(prepared: PreparedHistory, raw: CycleReading, nextReadings: readonly CycleReading[]): PreparedHistory | undefined {
+  if (nextReadings.length !== prepared.source.readings.length + 1) return undefined
+  const source = { readings: nextReadings, events: prepared.source.events }
+  const t = parseTime(raw.takenAt)
+  if (!Number.isFinite(t)) return { ...prepared, source, ignoredReadingIds: inserted(prepared.ignoredReadingIds, raw.id, compareStrings) }
+  const result = sanitize(raw, t)
+  const test = nitrogenTest(raw, t)
+  let nitrogenTests = prepared.nitrogenTests
+  if (test) {
+    const place = insertionPoint(nitrogenTests, test, compareNitrogenTests)
+    const before = nitrogenTests[place - 1]
+    if (before && compareNitrogenTests(before, test) === 0) return undefined
+    const next = nitrogenTests.slice()
+    next.splice(place, 0, test)
+    nitrogenTests = next
+  }
+  return {
+    ...prepared,
+    source,
+    nitrogenTests,
+    readings: inserted(prepared.readings, result.reading, compareReadings),
+    // It goes after every reading not after it in the order, so it is the latest of each value it carries unless a later one does.
+    latest: updatedLatest(prepared.latest, result.reading, (a, b) => compareReadings(a, b) > 0),
+    repaired: result.repaired ? inserted(prepared.repaired, { id: raw.id, t }, byId) : prepared.repaired,
+  }
+}
+
+/** Builds the ordered history from raw input, dropping what happened after `nowMs`. */
+export function buildHistory(readings: readonly CycleReading[], events: readonly CycleEvent[], nowMs: number): History {
+  return historyAsOf(prepareHistory(readings, events), nowMs)
 }

@@ -24,6 +24,16 @@ export function latestValues(readings: readonly TimedReading[]): Latest {
   return latest
 }
 
+/** `latest` after `added` joined the readings: it takes each value it carries unless a reading `after` it already does. */
+export function updatedLatest(latest: Latest, added: TimedReading, after: (a: TimedReading, b: TimedReading) => boolean): Latest {
+  const next: Partial<Record<Measured, TimedReading>> = { ...latest }
+  for (const key of MEASURED) {
+    const current = next[key]
+    if (added[key] !== undefined && (current === undefined || !after(current, added))) next[key] = added
+  }
+  return next
+}
+
 /** The latest reading with ammonia or nitrite, or null. */
 export function latestNitrogen(readings: readonly TimedReading[]): TimedReading | null {
   for (let i = readings.length - 1; i >= 0; i -= 1) {
@@ -31,6 +41,28 @@ export function latestNitrogen(readings: readonly TimedReading[]): TimedReading 
     if (reading && (reading.ammoniaN !== undefined || reading.nitriteN !== undefined)) return reading
   }
   return null
+}
+
+/** Index of the first reading (in time order) taken at or after `t` (`strictlyAfter`: after it). */
+function firstFrom(readings: readonly TimedReading[], t: number, strictlyAfter: boolean): number {
+  let low = 0
+  let high = readings.length
+  while (low < high) {
+    const middle = (low + high) >>> 1
+    const mt = readings[middle]!.t
+    if (mt < t || (strictlyAfter && mt === t)) low = middle + 1
+    else high = middle
+  }
+  return low
+}
+
+/**
+ * The readings (in time order) taken from `fromMs` to `toMs`, both included, in order: the same
+ * as filtering the whole history by time, found by binary search, so a rule that looks at the
+ * last days costs those days and not the years before them.
+ */
+export function readingsBetween(readings: readonly TimedReading[], fromMs: number, toMs = Number.POSITIVE_INFINITY): readonly TimedReading[] {
+  return readings.slice(firstFrom(readings, fromMs, false), firstFrom(readings, toMs, true))
 }
 
 /**

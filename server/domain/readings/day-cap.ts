@@ -18,7 +18,7 @@ function nextDay(day: string): string {
 
 const correction = alias(readings, 'correction')
 
-/** Prepared once per handle: the CSV import asks it once for every day its file touches (thousands). */
+/** Prepared once per handle: every save asks it for its own day, the CSV import for every day its file touches (thousands). */
 const currentTestsBetween = preparedPerDb(db => db.select({ n: count() }).from(readings).where(and(
   eq(readings.tankId, sql.placeholder('tankId')),
   gte(readings.takenAt, sql.placeholder('from')),

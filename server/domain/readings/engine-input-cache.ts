@@ -14,6 +14,7 @@
  * keeps its own copies.
  */
 import { eq, sql } from 'drizzle-orm'
+import { prepareHistory, withReadingAdded, type PreparedHistory } from '../../../shared/cycle/history'
 import type { CycleEvent, CycleReading } from '../../../shared/cycle/types'
 import { CYCLE_EVENT_KINDS, type CycleEventKind, type EventKind } from '../../../shared/vocabulary'
 import type { Db } from '../../db/connection'
@@ -26,6 +27,17 @@ export interface EngineRows {
   revision: number
   readings: readonly CycleReading[]
   events: readonly CycleEvent[]
+  /** The same rows parsed and ordered for the engine, once asked for (`preparedHistoryOf`). */
+  prepared?: PreparedHistory
+}
+
+/**
+ * The rows' history as the engine orders it, prepared the first time it is asked for and kept
+ * with them: the next evaluation, and the next test placed into the copy, start from it.
+ */
+export function preparedHistoryOf(rows: EngineRows): PreparedHistory {
+  rows.prepared ??= prepareHistory(rows.readings, rows.events)
+  return rows.prepared
 }
 
 /** Tanks kept per handle; the least recently used goes first (a year of tests is some hundreds of kB). */
@@ -124,9 +136,12 @@ export function noteTestAppended(db: Db, tankId: string, row: ReadingRow, revisi
     byTank.delete(tankId)
     return
   }
+  const reading = toCycleReading(row)
   const next = kept.readings.slice()
-  next.splice(at, 0, toCycleReading(row))
-  keep(db, tankId, { revision: revisionAfter, readings: next, events: kept.events })
+  next.splice(at, 0, reading)
+  // The engine's history takes the test in its own place too (or is prepared afresh when first asked).
+  const prepared = kept.prepared && withReadingAdded(kept.prepared, reading, next)
+  keep(db, tankId, { revision: revisionAfter, readings: next, events: kept.events, prepared })
 }
 
 /** Where a test taken at `takenAt` and entered at `enteredAt` goes; undefined when a row ties on both (row order decides). */

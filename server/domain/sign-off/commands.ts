@@ -9,6 +9,7 @@ import { acclimationSettingsOf, overrideGrounds } from '#shared/sign-off/plan'
 import { OVERRIDE_REASON_MESSAGE } from '#shared/schemas/sign-off'
 import type { SignOffSnapshot } from '#shared/types/sign-off'
 import type { Db } from '#server/db/connection'
+import { preparedPerDb } from '#server/db/prepared'
 import { events, planStages, signOffs, tanks, users } from '#server/db/schema'
 import { recordAudit } from '#server/domain/audit/record'
 import { changeTankStatus } from '#server/domain/tanks/status'
@@ -114,13 +115,16 @@ export function reopenSignOff(db: Db, actor: SignOffActor, tank: TankRow, reason
   })
 }
 
+/** Asked after every save (most tanks are not signed off and stop there): prepared once. */
+const tankStatus = preparedPerDb(db => db.select({ status: tanks.status }).from(tanks).where(eq(tanks.id, sql.placeholder('tankId'))).prepare())
+
 /**
  * After a change to a signed-off tank: livestock logged by staff after the sign-off means
  * stocking has begun. A client's livestock event is recorded (the engine sees it) but
  * does not move the tank's status: only staff start stocking.
  */
 export function advanceToStockingIfLivestock(db: Db, tankId: string): void {
-  const tank = db.select({ status: tanks.status }).from(tanks).where(eq(tanks.id, tankId)).get()
+  const tank = tankStatus(db).get({ tankId })
   if (tank?.status !== 'signed-off') return
   const approved = currentApprovedSignOff(db, tankId)
   if (!approved?.decidedAt) return

@@ -9,6 +9,7 @@ import { evaluateCycle } from '#shared/cycle/engine'
 import type { SignOffRecord, SignOffRecordWithSnapshot } from '#shared/types/sign-off'
 import type { Role } from '#shared/vocabulary'
 import type { Db } from '#server/db/connection'
+import { preparedPerDb } from '#server/db/prepared'
 import type { tanks } from '#server/db/schema'
 import { alerts, signOffs, users } from '#server/db/schema'
 import { readOrganisationSettings } from '#server/db/settings'
@@ -87,11 +88,14 @@ export function pendingRequest(db: Db, tankId: string): SignOffRow | undefined {
   return db.select().from(signOffs).where(and(eq(signOffs.tankId, tankId), eq(signOffs.status, 'requested'))).get()
 }
 
+/** Every save asks it (the locked record, the move to stocking): prepared once. */
+const approvedSignOff = preparedPerDb(db => db.select().from(signOffs)
+  .where(and(eq(signOffs.tankId, sql.placeholder('tankId')), eq(signOffs.status, 'approved')))
+  .orderBy(desc(signOffs.decidedAt)).prepare())
+
 /** The tank's current approved sign-off (not reopened), if there is one. */
 export function currentApprovedSignOff(db: Db, tankId: string): SignOffRow | undefined {
-  return db.select().from(signOffs)
-    .where(and(eq(signOffs.tankId, tankId), eq(signOffs.status, 'approved')))
-    .orderBy(desc(signOffs.decidedAt)).get()
+  return approvedSignOff(db).get({ tankId })
 }
 
 /** Alerts not yet resolved; every alert is raised by a danger finding. */

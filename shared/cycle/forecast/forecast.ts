@@ -8,6 +8,7 @@
  */
 
 import { evaluateCycle } from '../engine'
+import { nitrogenTestsAsOf, type PreparedHistory } from '../history'
 import { RULE_SET_VERSION } from '../registry'
 import { resolveThresholds } from '../thresholds'
 import { DAY_MS, HOUR_MS, parseTime, requireTime, toIso } from '../time'
@@ -42,13 +43,31 @@ function shell(status: CycleForecast['status'], gap: ForecastGap | null, basis: 
   }
 }
 
-/** Ammonia and nitrite tests up to now, oldest first (same order rule as the engine: time, then id). */
-function testsUpTo(input: CycleInput, nowMs: number): TimedTest[] {
-  return input.readings
-    .map(r => ({ r, t: parseTime(r.takenAt) }))
-    .filter(({ r, t }) => Number.isFinite(t) && t <= nowMs && (r.ammoniaN !== undefined || r.nitriteN !== undefined))
-    .sort((a, b) => a.t - b.t || (a.r.id < b.r.id ? -1 : a.r.id > b.r.id ? 1 : 0))
-    .map(({ r, t }) => ({ t, ammoniaN: r.ammoniaN, nitriteN: r.nitriteN, nitrateN: r.nitrateN }))
+function compareTests(a: { t: number, id: string }, b: { t: number, id: string }): number {
+  return a.t - b.t || (a.id < b.id ? -1 : a.id > b.id ? 1 : 0)
+}
+
+/**
+ * Ammonia and nitrite tests up to now, oldest first (same order rule as the engine: time, then id):
+ * from `prepared` when it was made from the input's very readings (kept between a tank's evaluations).
+ */
+function testsUpTo(input: CycleInput, nowMs: number, prepared: PreparedHistory | undefined): readonly TimedTest[] {
+  if (prepared && prepared.source.readings === input.readings) return nitrogenTestsAsOf(prepared, nowMs)
+  const found: { t: number, id: string, test: TimedTest }[] = []
+  // The server hands the rows over in time order already: sort only when they are not in this order
+  // (the sort is stable, so rows already in order would come out as they went in).
+  let ordered = true
+  for (const r of input.readings) {
+    if (r.ammoniaN === undefined && r.nitriteN === undefined) continue
+    const t = parseTime(r.takenAt)
+    if (!Number.isFinite(t) || t > nowMs) continue
+    const entry = { t, id: r.id, test: { t, ammoniaN: r.ammoniaN, nitriteN: r.nitriteN, nitrateN: r.nitrateN } }
+    const previous = found[found.length - 1]
+    if (previous !== undefined && compareTests(previous, entry) > 0) ordered = false
+    found.push(entry)
+  }
+  if (!ordered) found.sort(compareTests)
+  return found.map(entry => entry.test)
 }
 
 interface ProofDose {
@@ -179,14 +198,15 @@ function relapseAllowanceMs(base: ProjectionBase, tests: readonly TimedTest[], d
  * Forecasts when the cycle will be proven complete. Throws a RangeError for the same
  * bad input the engine refuses (`now`, `tank.startedAt`, thresholds). `verdict`, when
  * given, must be the engine's verdict on this same input (the server stores both from
- * one evaluation, so the engine does not run twice).
+ * one evaluation, so the engine does not run twice). `prepared`, when given, is the input's history
+ * kept from an earlier evaluation (as for `evaluateCycle`; used only if made from these readings).
  */
-export function forecastCycle(input: CycleInput, verdict?: Verdict): CycleForecast {
+export function forecastCycle(input: CycleInput, verdict?: Verdict, prepared?: PreparedHistory): CycleForecast {
   const nowMs = requireTime('now', input.now)
   const thresholds = resolveThresholds(input.thresholds)
-  verdict ??= evaluateCycle(input)
+  verdict ??= evaluateCycle(input, undefined, prepared)
   const doses = dosesUpTo(input, nowMs)
-  const allTests = testsUpTo(input, nowMs)
+  const allTests = testsUpTo(input, nowMs, prepared)
   const tests = curveTests(allTests, doses, thresholds)
   const lastTest = tests[tests.length - 1]
   const testEveryHours = thresholds.retestHours

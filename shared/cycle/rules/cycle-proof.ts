@@ -10,6 +10,7 @@ import { DAY_MS, formatWhen, HOUR_MS, toIso } from '../time'
 import { mgN, mgNWithIon } from '../words'
 import type { DoseOutcome } from '../course'
 import type { TimedReading } from '../history'
+import { readingsBetween } from '../snapshot'
 import { NITRIFICATION_STOICHIOMETRY } from '../thresholds'
 import { COMMON_PRACTICE, NOTHING, report, type CycleRule, type RuleResult } from './rule'
 
@@ -142,7 +143,7 @@ function nitrateKitStuck(ctx: RuleContext): RuleResult {
   const cleared = ctx.course.doses.filter(d => d.clearedBy !== null && !d.diluted && (d.event.amount ?? 0) >= th.clearanceMinDoseN)
   if (cleared.length < th.clearanceDays) return NOTHING
   const since = cleared[0]!.t - DAY_MS
-  const nitrate = ctx.history.readings.filter(r => r.t >= since && r.nitrateN !== undefined)
+  const nitrate = readingsBetween(ctx.history.readings, since).filter(r => r.nitrateN !== undefined)
   if (nitrate.length < th.clearanceDays) return NOTHING
   const first = nitrate[0]!
   const last = nitrate[nitrate.length - 1]!

@@ -1,0 +1,133 @@
+/**
+ * The history prepared once and kept between a tank's evaluations (shared/cycle/history.ts
+ * `prepareHistory`, `withReadingAdded`, `historyAsOf`) against a full evaluation. Random
+ * histories (ordinary cycles, long dosing logs that complete and lose their proof, thresholds
+ * that move the limits) arrive one test at a time in a shuffled order, so most arrive backdated,
+ * some at the same instant as another, some with a time that does not parse or a value the engine
+ * drops; the verdict is taken at `now`, before the latest tests and long after. At every step the
+ * verdict from the kept history must equal the verdict from the input alone, and the history cut
+ * at `now` the one the engine built before (reference/history-built-at-now.ts), and the forecast
+ * made from the kept history the forecast made from the input alone. An input whose
+ * arrays are not the ones the history was kept for (a correction, an event, a delete read again)
+ * must give the full verdict too. Any difference fails.
+ */
+
+import fc from 'fast-check'
+import { describe, expect, it } from 'vitest'
+import { evaluateCycle } from '../../../../shared/cycle/engine'
+import { forecastCycle } from '../../../../shared/cycle/forecast'
+import { historyAsOf, prepareHistory, withReadingAdded, type PreparedHistory } from '../../../../shared/cycle/history'
+import { RULE_OPTIONS_2 } from '../../../../shared/cycle/options'
+import { latestValues } from '../../../../shared/cycle/snapshot'
+import type { CycleEvent, CycleInput, CycleReading, Thresholds } from '../../../../shared/cycle/types'
+import { shuffled, tankArb, toInput } from './arbitraries'
+import { dosingHistoryArb, dosingInput } from './dosing-arbitrary'
+import { buildHistory as buildHistoryBefore } from './reference/history-built-at-now'
+import { at } from './tank-log'
+
+const RUNS = { seed: 20261203, numRuns: 80 }
+const LIMIT_MS = 60_000
+/** The verdict is compared at every step of the last arrivals and at every few before them (each comparison runs the engine twice). */
+const EVERY_STEP_AT_THE_END = 12
+const EVERY_FEW = 5
+const HOUR_MS = 3_600_000
+
+/** Readings the engine must treat with care, mixed into the arrivals. */
+const oddArb = fc.record({
+  unparseable: fc.boolean(),
+  repaired: fc.boolean(),
+  future: fc.boolean(),
+  atNow: fc.boolean(),
+  sameInstantAs: fc.option(fc.nat(), { freq: 2 }),
+})
+
+const caseArb = fc.record({
+  log: fc.oneof(
+    tankArb.map((k): { kind: 'cycle', input: CycleInput } => ({ kind: 'cycle', input: toInput(k) })),
+    dosingHistoryArb.map((k): { kind: 'dosing', input: CycleInput } => ({ kind: 'dosing', input: { tank: { volumeLitres: 200, cycleMethod: 'fishless', startedAt: at(0, 8) }, ...dosingInput(k), now: at(k.days.length + 1, 12) } })),
+  ),
+  limits: fc.record({ ammoniaZeroN: fc.constantFrom(0, 0.02, 0.1), nitriteZeroN: fc.constantFrom(0, 0.05), clearanceDays: fc.constantFrom(1, 3) }),
+  odd: oddArb,
+  seed: fc.integer(),
+  startWith: fc.nat({ max: 10 }),
+  nowShiftHours: fc.constantFrom(0, -30, -6, 48, 24 * 20),
+  options: fc.constantFrom(...RULE_OPTIONS_2),
+})
+
+type Case = typeof caseArb extends fc.Arbitrary<infer T> ? T : never
+
+function withOdd(readings: readonly CycleReading[], odd: Case['odd'], now: string): CycleReading[] {
+  const out = [...readings]
+  const nowMs = Date.parse(now)
+  if (odd.unparseable) out.push({ id: 'odd-time', takenAt: 'yesterday morning', ammoniaN: 4, nitriteN: 4 })
+  if (odd.repaired) out.push({ id: 'odd-value', takenAt: new Date(nowMs - 5 * HOUR_MS).toISOString(), ammoniaN: -1, nitriteN: Number.NaN, nitrateN: 9 })
+  // Taken at the very instant of the verdict: it is in the history, one a millisecond later is not.
+  if (odd.atNow) out.push({ id: 'odd-at-now', takenAt: now, ammoniaN: 0.5, nitriteN: 0, nitrateN: 3 })
+  if (odd.future) out.push({ id: 'odd-future', takenAt: new Date(nowMs + 7 * HOUR_MS).toISOString(), ammoniaN: 2, nitriteN: 2, nitrateN: 1 })
+  const twin = odd.sameInstantAs === null || readings.length === 0 ? undefined : readings[odd.sameInstantAs % readings.length]
+  // The same minute, entered later, and one entered at the same instant with another id: the total order decides.
+  if (twin) {
+    out.push({ id: 'odd-twin-later', takenAt: twin.takenAt, enteredAt: now, ammoniaN: 0, nitriteN: 0.3 })
+    out.push({ id: 'odd-twin-same', takenAt: twin.takenAt, enteredAt: twin.enteredAt, ammoniaN: 0.05, nitriteN: 0 })
+  }
+  return out
+}
+
+function expectSameAsFull(input: CycleInput, prepared: PreparedHistory, c: Case): void {
+  const nowMs = Date.parse(input.now)
+  expect(historyAsOf(prepared, nowMs)).toEqual(buildHistoryBefore(input.readings, input.events ?? [], nowMs))
+  const copy = { ...input, readings: [...input.readings], events: [...(input.events ?? [])] }
+  const kept = evaluateCycle(input, c.options, prepared)
+  const full = evaluateCycle(copy, c.options)
+  expect(kept).toEqual(full)
+  expect(forecastCycle(input, kept, prepared)).toEqual(forecastCycle(copy, full))
+}
+
+describe('the kept history gives the full evaluation', { timeout: 2 * LIMIT_MS }, () => {
+  it('as tests arrive one at a time in any order, at any now', () => {
+    fc.assert(fc.property(caseArb, (c) => {
+      const base = c.log.input
+      const now = new Date(Date.parse(base.now) + c.nowShiftHours * HOUR_MS).toISOString()
+      const thresholds: Partial<Thresholds> = { ...base.thresholds, ...c.limits }
+      const events: CycleEvent[] = [...(base.events ?? [])]
+      const arrivals = shuffled(withOdd(base.readings, c.odd, now), c.seed)
+      const first = Math.min(c.startWith, arrivals.length)
+      let readings: CycleReading[] = arrivals.slice(0, first)
+      let prepared = prepareHistory(readings, events)
+      for (const [step, reading] of arrivals.slice(first).entries()) {
+        const next = [...readings, reading]
+        prepared = withReadingAdded(prepared, reading, next)!
+        readings = next
+        const left = arrivals.length - first - step - 1
+        if (left < EVERY_STEP_AT_THE_END || step % EVERY_FEW === 0) expectSameAsFull({ ...base, readings, events, thresholds, now }, prepared, c)
+      }
+      expect(prepared.latest).toEqual(latestValues(buildHistoryBefore(readings, events, Number.POSITIVE_INFINITY).readings))
+    }), { ...RUNS, interruptAfterTimeLimit: LIMIT_MS })
+  })
+
+  it('falls back to the input when its arrays are not the ones the history was kept for', () => {
+    fc.assert(fc.property(caseArb, (c) => {
+      const input = { ...c.log.input, thresholds: { ...c.log.input.thresholds, ...c.limits } }
+      const events = input.events ?? []
+      const stale = prepareHistory(input.readings, events)
+      // A correction changes a value: the rows are read again into new arrays.
+      const corrected = input.readings.map((r, i) => (i === c.startWith % Math.max(1, input.readings.length) ? { ...r, ammoniaN: 3, nitriteN: 3 } : r))
+      // An event logged: the same readings with a new events array.
+      const dosed: CycleEvent[] = [...events, { id: 'late-dose', at: input.now, kind: 'ammonia-dose', amount: 2 }]
+      for (const changed of [{ ...input, readings: corrected, events }, { ...input, events: dosed }]) {
+        expect(evaluateCycle(changed, c.options, stale)).toEqual(evaluateCycle(changed, c.options))
+      }
+    }), { ...RUNS, interruptAfterTimeLimit: LIMIT_MS })
+  })
+
+  it('refuses a reading list that is not the kept one plus one', () => {
+    const readings: CycleReading[] = [{ id: 'a', takenAt: at(1, 8), ammoniaN: 1 }]
+    const prepared = prepareHistory(readings, [])
+    const added: CycleReading = { id: 'b', takenAt: at(2, 8), ammoniaN: 0 }
+    expect(withReadingAdded(prepared, added, [added])).toBeUndefined()
+    expect(withReadingAdded(prepared, added, [...readings, added])?.readings.map(r => r.id)).toEqual(['a', 'b'])
+    // The same time and id as a test already kept: only the input's order could tell them apart.
+    const twin: CycleReading = { id: 'a', takenAt: at(1, 8), ammoniaN: 0 }
+    expect(withReadingAdded(prepared, twin, [...readings, twin])).toBeUndefined()
+  })
+})
