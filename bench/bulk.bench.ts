@@ -70,6 +70,8 @@ interface ImportRun {
   rssMost: number
   /** CPU seconds the server used from the request to the verdict read (all its threads). */
   cpu: number
+  /** How long the import held the database's write lock, from the answer's Server-Timing header, in ms. */
+  lockHeldMs: number
 }
 
 /** Imports `csv` into the tank through the route, sampling the server's memory meanwhile. */
@@ -89,6 +91,7 @@ async function timedImport(bench: BenchServer, cookie: string, tankId: string, c
       body: JSON.stringify({ csv, dryRun: false, basis: { ammonia: 'N', nitrite: 'N', nitrate: 'N' }, temperatureUnit: 'C', salinityMode: 'practical' }),
     })
     const text = await response.text()
+    const lockHeldMs = Number(/import-write-lock;dur=([\d.]+)/.exec(response.headers.get('server-timing') ?? '')?.[1] ?? Number.NaN)
     const answeredSeconds = (performance.now() - start) / 1000
     if (response.status !== 200) throw new Error(`import answered ${response.status}: ${text.slice(0, 500)}`)
     // The route answers once the verdict is refreshed; this read shows it is served.
@@ -99,7 +102,7 @@ async function timedImport(bench: BenchServer, cookie: string, tankId: string, c
     const n = stored.prepare('select count(*) from readings where tank_id = ?').pluck().get(tankId) as number
     stored.close()
     if (n !== rows) throw new Error(`import stored ${n} of ${rows} rows: ${text.slice(0, 500)}`)
-    return { answeredSeconds, seconds, rssBefore, rssMost: Math.max(rssMost, memoryMiB(pid).rss), cpu }
+    return { answeredSeconds, seconds, rssBefore, rssMost: Math.max(rssMost, memoryMiB(pid).rss), cpu, lockHeldMs }
   }
   finally {
     clearInterval(sampler)
@@ -149,6 +152,11 @@ export async function runBulkBench(bench: BenchServer): Promise<Row[]> {
     area: 'Bulk', name: 'the same import in CPU seconds (server, all threads, until the verdict read)', value: run.cpu, unit: 's CPU',
     reference: { name: `raw insert loop ${floorCpuSeconds.toFixed(2)} s CPU`, value: floorCpuSeconds },
     ratio: run.cpu / floorCpuSeconds, aim: '<= 2.0',
+  }, {
+    // Every other write (any company's save) waits while the import holds the lock.
+    area: 'Bulk', name: `write lock held by the import (BEGIN IMMEDIATE to COMMIT): ${SMALL_ROWS.toLocaleString('en')} rows ${small.lockHeldMs.toFixed(0)} ms; ${BULK_ROWS.toLocaleString('en')} rows`, value: run.lockHeldMs, unit: 'ms',
+    reference: { name: `raw insert loop (the whole loop holds it) ${(floorSeconds * 1000).toFixed(0)} ms`, value: floorSeconds * 1000 },
+    ratio: run.lockHeldMs / (floorSeconds * 1000), aim: 'as short as the insert alone (~1x)',
   }, {
     area: 'Bulk', name: `server RSS growth while importing: ${SMALL_ROWS.toLocaleString('en')} rows ${grew(small)}; ${BULK_ROWS.toLocaleString('en')} rows ${grew(run)}`, value: run.rssMost - run.rssBefore, unit: 'MiB',
     reference: { name: `${SMALL_ROWS.toLocaleString('en')} rows`, value: small.rssMost - small.rssBefore },

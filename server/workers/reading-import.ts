@@ -15,6 +15,7 @@
  * Framework-free (no Nitro, no h3); its entry is heavy.worker.ts.
  */
 import { randomUUID } from 'node:crypto'
+import { performance } from 'node:perf_hooks'
 import type { Statement } from 'better-sqlite3'
 import { planImport, toPreview, type ImportRow, type ImportSink, type PlanContext, type PlanOutcome } from '#shared/readings/import-plan'
 import type { KitBasisChoice } from '#shared/readings/entry'
@@ -38,7 +39,8 @@ export interface ReadingImportTask {
 }
 
 export type ReadingImportResult
-  = | { kind: 'done', preview: ImportPreview }
+  /** lockHeldMs: how long the write transaction held the database's write lock (BEGIN IMMEDIATE to COMMIT), 0 on a dry run. */
+  = | { kind: 'done', preview: ImportPreview, lockHeldMs: number }
     | { kind: 'field-issues', issues: { field: string, message: string }[] }
     | { kind: 'too-many-rows' }
     /** A sign-off was approved (or reopened) after the request read the boundary: nothing written. */
@@ -114,9 +116,11 @@ export function readingImport(task: ReadingImportTask): ReadingImportResult {
   if (task.input.dryRun) {
     // One read transaction: every look-up sees the same state of the tank.
     const outcome = sqlite.transaction(() => planImport(task.input, context, lookingSink(db, task.tankId))).deferred()
-    return outcome.kind === 'plan' ? { kind: 'done', preview: toPreview(outcome.plan, true, 0) } : outcome
+    return outcome.kind === 'plan' ? { kind: 'done', preview: toPreview(outcome.plan, true, 0), lockHeldMs: 0 } : outcome
   }
+  let lockedAt = 0
   const write = sqlite.transaction(() => {
+    lockedAt = performance.now() // the write lock is held from here (BEGIN IMMEDIATE) to the commit
     // The boundary was read on the request loop before the file came here; a sign-off decided
     // since would let the import write into what the supervisor has just signed. Read inside
     // the write lock, as are the day counts: nobody writes until this commits.
@@ -133,8 +137,9 @@ export function readingImport(task: ReadingImportTask): ReadingImportResult {
   })
   try {
     const written = write.immediate()
+    const lockHeldMs = performance.now() - lockedAt
     if (!written) return { kind: 'lock-moved' }
-    return { kind: 'done', preview: toPreview(written.plan, false, written.inserted) }
+    return { kind: 'done', preview: toPreview(written.plan, false, written.inserted), lockHeldMs }
   }
   catch (error) {
     if (error instanceof Refused) return error.outcome
