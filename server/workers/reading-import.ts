@@ -2,25 +2,34 @@
  * The CSV import, run in a worker thread of the heavy-work pool (server/utils/heavy-work.ts)
  * so that parsing, converting, hashing and writing 100,000 rows never hold up the request
  * loop other companies are served from. It opens its own connection to the same SQLite
- * file (WAL, the same pragmas as the server's) and writes the rows and their audit line in
- * one IMMEDIATE transaction: all of them or none, and the day cap is counted under the
- * write lock, so no concurrent write can take the same room.
+ * file (WAL, the same pragmas as the server's).
  *
- * Rows are written as they are read and checked, a chunk of IMPORT_CHUNK_ROWS at a time
- * (planImport hands them to the sink), so no array of the file's rows is built: memory stays
- * flat however long the file. Whether
- * a row is already held is the unique index's answer (ON CONFLICT DO NOTHING): no set of keys.
- * A dry run reads in one read transaction and writes nothing.
+ * Two steps, so the database's write lock is held only for the write (every other company's
+ * save waits while it is held):
+ * 1. Stage (no write lock): planImport reads and checks the file a chunk at a time, in one
+ *    read transaction, and each row that passes goes into a TEMP table of this connection
+ *    (temp tables live outside the main database, spill to a file, and take none of its
+ *    locks). No array of the file's rows is built: memory stays flat however long the file.
+ *    A row the tank already holds is a duplicate (the unique index's look-up); a repeat
+ *    within the file, the temp table's unique key.
+ * 2. Write, in one short IMMEDIATE transaction: check again what may have changed since
+ *    staging (a sign-off decided, tests saved meanwhile that now fill a day: they take its
+ *    room first and the file's last staged rows of that day are refused, per row; a test of
+ *    the file imported meanwhile: a duplicate, by ON CONFLICT), copy the staged rows into
+ *    readings with one INSERT ... SELECT, write the audit line, commit. All or none.
+ * A dry run stages and checks the same way and writes nothing. The temp table is dropped
+ * either way.
  *
  * Framework-free (no Nitro, no h3); its entry is heavy.worker.ts.
  */
 import { randomUUID } from 'node:crypto'
 import { performance } from 'node:perf_hooks'
 import type { Statement } from 'better-sqlite3'
-import { planImport, toPreview, type ImportRow, type ImportSink, type PlanContext, type PlanOutcome } from '#shared/readings/import-plan'
+import { dayOf, MAX_REPORTED_ERRORS, planImport, toPreview, type ImportPlan, type ImportRow, type ImportSink, type PlanContext, type PlanOutcome } from '#shared/readings/import-plan'
 import type { KitBasisChoice } from '#shared/readings/entry'
+import { dayFullRowMessage, TESTS_PER_TANK_PER_DAY } from '#shared/readings/limits'
 import type { ReadingImportInput } from '#shared/schemas/reading'
-import type { ImportPreview } from '#shared/types/readings'
+import type { ImportPreview, ImportRowError } from '#shared/types/readings'
 import type { TidewrightDB } from '#server/db/connection'
 import { recordAudit } from '#server/domain/audit/record'
 import { testsOnDay } from '#server/domain/readings/day-cap'
@@ -46,103 +55,179 @@ export type ReadingImportResult
     /** A sign-off was approved (or reopened) after the request read the boundary: nothing written. */
     | { kind: 'lock-moved' }
 
-const INSERT_SQL = `INSERT INTO readings (id, tank_id, taken_at, entered_by, ammonia_n, nitrite_n, nitrate_n, ph, temperature_c, salinity,
+/** The staged rows: the columns of readings the file gives, keyed by the file's row number. */
+const CREATE_STAGE_SQL = `CREATE TEMP TABLE import_stage (line INTEGER PRIMARY KEY, id TEXT NOT NULL, taken_at TEXT NOT NULL,
+  ammonia_n REAL, nitrite_n REAL, nitrate_n REAL, ph REAL, temperature_c REAL, salinity REAL,
+  alkalinity_dkh REAL, calcium_mg_l REAL, magnesium_mg_l REAL, phosphate_mg_l REAL,
+  notes TEXT, entered TEXT NOT NULL, import_key TEXT NOT NULL UNIQUE)`
+
+const STAGE_SQL = `INSERT INTO temp.import_stage (line, id, taken_at, ammonia_n, nitrite_n, nitrate_n, ph, temperature_c, salinity,
+  alkalinity_dkh, calcium_mg_l, magnesium_mg_l, phosphate_mg_l, notes, entered, import_key)
+  VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?)
+  ON CONFLICT (import_key) DO NOTHING`
+
+// WHERE true: SQLite needs a WHERE before an upsert clause on INSERT ... SELECT.
+const PUBLISH_SQL = `INSERT INTO readings (id, tank_id, taken_at, entered_by, ammonia_n, nitrite_n, nitrate_n, ph, temperature_c, salinity,
   alkalinity_dkh, calcium_mg_l, magnesium_mg_l, phosphate_mg_l, notes, entered, import_key, created_at, updated_at)
-  VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?)
+  SELECT id, @tankId, taken_at, @enteredBy, ammonia_n, nitrite_n, nitrate_n, ph, temperature_c, salinity,
+  alkalinity_dkh, calcium_mg_l, magnesium_mg_l, phosphate_mg_l, notes, entered, import_key, @stamp, @stamp
+  FROM temp.import_stage WHERE true ORDER BY line
   ON CONFLICT (tank_id, import_key) DO NOTHING`
 
 const HOLDS_SQL = 'SELECT 1 FROM readings WHERE tank_id = ? AND import_key = ?'
 
-/** Thrown inside the write transaction to undo what it took (a file found too long, a header refused). */
-class Refused extends Error {
-  constructor(readonly outcome: Exclude<PlanOutcome, { kind: 'plan' }>) {
-    super(outcome.kind)
-  }
-}
-
-/** Statements prepared once per connection: an import runs them up to 100,000 times each. */
-const statements = new WeakMap<TidewrightDB, { insert: Statement, holds: Statement }>()
-function statementsOf(db: TidewrightDB) {
+/** Statements on the main database, prepared once per connection: staging runs them up to 100,000 times. */
+const statements = new WeakMap<TidewrightDB, { holds: Statement }>()
+function holdsOf(db: TidewrightDB): Statement {
   let s = statements.get(db)
   if (!s) {
-    s = { insert: db.$client.prepare(INSERT_SQL), holds: db.$client.prepare(HOLDS_SQL).pluck() }
+    s = { holds: db.$client.prepare(HOLDS_SQL).pluck() }
     statements.set(db, s)
   }
-  return s
+  return s.holds
 }
 
-/** The day cap's starting counts: the tank's current tests on a day, read under the transaction. */
-const heldOnDayOf = (db: TidewrightDB, tankId: string) => (day: string) => testsOnDay(db, tankId, day)
+/** The temp table's statements (prepared for each import, as the table lives only as long as it) and its rows per day. */
+export interface Stage {
+  /** Rows staged on each day (YYYY-MM-DD, UTC): the days the write checks again. */
+  perDay: Map<string, number>
+  insert: Statement
+  hasKey: Statement
+  count: Statement
+  ofDay: Statement
+  drop: Statement
+  publish: Statement
+}
 
-/** A sink that writes each row (the real import). */
-function writingSink(db: TidewrightDB, task: ReadingImportTask): ImportSink & { inserted: () => number } {
-  const { insert, holds } = statementsOf(db)
-  const stamp = new Date(task.nowMs).toISOString()
-  let inserted = 0
+function openStage(db: TidewrightDB): Stage {
+  const sqlite = db.$client
+  sqlite.exec('DROP TABLE IF EXISTS temp.import_stage') // left by an import cut short
+  sqlite.exec(CREATE_STAGE_SQL)
   return {
-    heldOnDay: heldOnDayOf(db, task.tankId),
-    holds: key => holds.get(task.tankId, key) !== undefined,
-    add: ({ takenAt, values: v, notes, key, entered }: ImportRow) => {
-      const changes = insert.run(randomUUID(), task.tankId, takenAt, task.actor.id, v.ammoniaN, v.nitriteN, v.nitrateN, v.pH, v.temperatureC, v.salinity,
-        v.alkalinityDkh, v.calciumMgL, v.magnesiumMgL, v.phosphateMgL, notes, entered, key, stamp, stamp).changes
-      inserted += changes
-      return changes === 1
-    },
-    inserted: () => inserted,
+    perDay: new Map(),
+    insert: sqlite.prepare(STAGE_SQL),
+    hasKey: sqlite.prepare('SELECT 1 FROM temp.import_stage WHERE import_key = ?').pluck(),
+    count: sqlite.prepare('SELECT count(*) FROM temp.import_stage').pluck(),
+    ofDay: sqlite.prepare('SELECT line, import_key AS key FROM temp.import_stage WHERE substr(taken_at, 1, 10) = ? ORDER BY line'),
+    drop: sqlite.prepare('DELETE FROM temp.import_stage WHERE line = ?'),
+    publish: sqlite.prepare(PUBLISH_SQL),
   }
 }
 
-/** A sink that only looks (a dry run): the keys this file has taken so far are kept to find repeats within it. */
-function lookingSink(db: TidewrightDB, tankId: string): ImportSink {
-  const { holds } = statementsOf(db)
-  const taken = new Set<string>()
-  const held = (key: string) => taken.has(key) || holds.get(tankId, key) !== undefined
+/** Stages each row that passes (see the file's comment). */
+function stagingSink(db: TidewrightDB, tankId: string, stage: Stage): ImportSink {
+  const holds = holdsOf(db)
+  const tankHolds = (key: string) => holds.get(tankId, key) !== undefined
   return {
-    heldOnDay: heldOnDayOf(db, tankId),
-    holds: held,
-    add: ({ key }) => {
-      if (held(key)) return false
-      taken.add(key)
-      return true
+    heldOnDay: day => testsOnDay(db, tankId, day),
+    holds: key => tankHolds(key) || stage.hasKey.get(key) !== undefined,
+    add: ({ line, takenAt, values: v, notes, key, entered }: ImportRow) => {
+      if (tankHolds(key)) return false
+      const staged = stage.insert.run(line, randomUUID(), takenAt, v.ammoniaN, v.nitriteN, v.nitrateN, v.pH, v.temperatureC, v.salinity,
+        v.alkalinityDkh, v.calciumMgL, v.magnesiumMgL, v.phosphateMgL, notes, entered, key).changes === 1
+      if (staged) stage.perDay.set(dayOf(takenAt), (stage.perDay.get(dayOf(takenAt)) ?? 0) + 1)
+      return staged
     },
   }
+}
+
+/** What the check made under the write lock changed: rows now duplicates, rows now over their day's cap. */
+interface Recheck {
+  duplicates: number
+  refused: ImportRowError[]
+}
+
+/**
+ * Under the write lock: each day the staged rows fall on, held to its cap against the tests
+ * the tank holds now (staging counted the tests it held then). Tests saved meanwhile take
+ * the day's room first; the file's last staged rows of a day with too little room are
+ * unstaged and refused, and rows the tank now holds (imported meanwhile) unstaged as duplicates.
+ */
+function recheckDays(db: TidewrightDB, tankId: string, stage: Stage): Recheck {
+  const holds = holdsOf(db)
+  const result: Recheck = { duplicates: 0, refused: [] }
+  for (const [day, n] of stage.perDay) {
+    const held = testsOnDay(db, tankId, day)
+    if (held + n <= TESTS_PER_TANK_PER_DAY) continue
+    let room = TESTS_PER_TANK_PER_DAY - held
+    for (const { line, key } of stage.ofDay.all(day) as { line: number, key: string }[]) {
+      if (holds.get(tankId, key) !== undefined) {
+        stage.drop.run(line)
+        result.duplicates++
+      }
+      else if (room > 0) room--
+      else {
+        stage.drop.run(line)
+        result.refused.push({ row: line, field: 'takenAt', message: dayFullRowMessage(day) })
+      }
+    }
+  }
+  return result
+}
+
+/** Folds what the write found into the plan: the answer then says what was written. */
+function settle(plan: ImportPlan, recheck: Recheck, staged: number, inserted: number): void {
+  // Staged rows the insert found held (imported since the check) are duplicates too.
+  const lateDuplicates = recheck.duplicates + (staged - inserted)
+  plan.added -= lateDuplicates + recheck.refused.length
+  plan.duplicates += lateDuplicates
+  if (!recheck.refused.length) return
+  plan.errorCount += recheck.refused.length
+  const refusedRows = new Set(recheck.refused.map(e => e.row))
+  plan.preview = plan.preview.filter(p => !refusedRows.has(p.row))
+  // The first 200 of both, in file order: the plan's list already holds its own first 200.
+  plan.errors = [...plan.errors, ...recheck.refused].sort((a, b) => a.row - b.row).slice(0, MAX_REPORTED_ERRORS)
+}
+
+/** Step 1: the file read, checked and staged; the stage is left for commitStaged (or dropStage). */
+export function stageImport(task: ReadingImportTask): { outcome: PlanOutcome, db: TidewrightDB, stage: Stage } {
+  const db = workerConnection(task.dbPath)
+  const context: PlanContext = { kit: task.kit, lockedMs: task.lockedMs ?? Number.NEGATIVE_INFINITY, now: new Date(task.nowMs) }
+  const stage = openStage(db)
+  // One read transaction: every look-up sees the same state of the tank; the temp table's writes take no lock of the main database.
+  const outcome = db.$client.transaction(() => planImport(task.input, context, stagingSink(db, task.tankId, stage))).deferred()
+  return { outcome, db, stage }
+}
+
+/** Drops the staged rows. */
+export function dropStage(db: TidewrightDB): void {
+  db.$client.exec('DROP TABLE IF EXISTS temp.import_stage')
+}
+
+/** Step 2: the staged rows written in one short transaction (see the file's comment), or null when a sign-off moved. */
+export function commitStaged(task: ReadingImportTask, db: TidewrightDB, stage: Stage, plan: ImportPlan): { inserted: number, lockHeldMs: number } | null {
+  let lockedAt = 0
+  const write = db.$client.transaction(() => {
+    lockedAt = performance.now() // the write lock is held from here (BEGIN IMMEDIATE) to the commit
+    // The boundary was read on the request loop before the file came here; a sign-off decided
+    // since would let the import write into what the supervisor has just signed.
+    const lockedNow = lockedUntil(db, task.tankId)
+    if ((lockedNow === null ? null : Date.parse(lockedNow)) !== task.lockedMs) return null
+    const recheck = recheckDays(db, task.tankId, stage)
+    const staged = stage.count.get() as number
+    const inserted = stage.publish.run({ tankId: task.tankId, enteredBy: task.actor.id, stamp: new Date(task.nowMs).toISOString() }).changes
+    settle(plan, recheck, staged, inserted)
+    // Same transaction: the rows and their audit line commit together or not at all.
+    recordAudit(db, task.actor, { action: 'reading.import', entity: 'tank', entityId: task.tankId, after: { rows: plan.rowCount, inserted, skipped: plan.rowCount - inserted, errors: plan.errors.length } })
+    return inserted
+  })
+  const inserted = write.immediate()
+  const lockHeldMs = performance.now() - lockedAt
+  return inserted === null ? null : { inserted, lockHeldMs }
 }
 
 /** Plans the file and, unless it is a dry run, writes it; see the file's comment. */
 export function readingImport(task: ReadingImportTask): ReadingImportResult {
-  const db = workerConnection(task.dbPath)
-  const sqlite = db.$client
-  const context: PlanContext = { kit: task.kit, lockedMs: task.lockedMs ?? Number.NEGATIVE_INFINITY, now: new Date(task.nowMs) }
-  if (task.input.dryRun) {
-    // One read transaction: every look-up sees the same state of the tank.
-    const outcome = sqlite.transaction(() => planImport(task.input, context, lookingSink(db, task.tankId))).deferred()
-    return outcome.kind === 'plan' ? { kind: 'done', preview: toPreview(outcome.plan, true, 0), lockHeldMs: 0 } : outcome
-  }
-  let lockedAt = 0
-  const write = sqlite.transaction(() => {
-    lockedAt = performance.now() // the write lock is held from here (BEGIN IMMEDIATE) to the commit
-    // The boundary was read on the request loop before the file came here; a sign-off decided
-    // since would let the import write into what the supervisor has just signed. Read inside
-    // the write lock, as are the day counts: nobody writes until this commits.
-    const lockedNow = lockedUntil(db, task.tankId)
-    if ((lockedNow === null ? null : Date.parse(lockedNow)) !== task.lockedMs) return null
-    const sink = writingSink(db, task)
-    const outcome = planImport(task.input, context, sink)
-    if (outcome.kind !== 'plan') throw new Refused(outcome)
-    const { plan } = outcome
-    const inserted = sink.inserted()
-    // Same transaction: the rows and their audit line commit together or not at all.
-    recordAudit(db, task.actor, { action: 'reading.import', entity: 'tank', entityId: task.tankId, after: { rows: plan.rowCount, inserted, skipped: plan.rowCount - inserted, errors: plan.errors.length } })
-    return { plan, inserted }
-  })
+  const { outcome, db, stage } = stageImport(task)
   try {
-    const written = write.immediate()
-    const lockHeldMs = performance.now() - lockedAt
+    if (outcome.kind !== 'plan') return outcome
+    const { plan } = outcome
+    if (task.input.dryRun) return { kind: 'done', preview: toPreview(plan, true, 0), lockHeldMs: 0 }
+    const written = commitStaged(task, db, stage, plan)
     if (!written) return { kind: 'lock-moved' }
-    return { kind: 'done', preview: toPreview(written.plan, false, written.inserted), lockHeldMs }
+    return { kind: 'done', preview: toPreview(plan, false, written.inserted), lockHeldMs: written.lockHeldMs }
   }
-  catch (error) {
-    if (error instanceof Refused) return error.outcome
-    throw error
+  finally {
+    dropStage(db)
   }
 }

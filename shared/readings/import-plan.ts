@@ -1,8 +1,8 @@
 /**
  * The CSV import's pure half: parse the file, map its columns, convert every row with the
  * entry rules of the form, key each row by its content, and hold each day of the tank to
- * its cap, handing each row that passes to a sink as soon as it is read (the worker writes
- * it). No database and no framework: it runs in the import worker
+ * its cap, handing each row that passes to a sink as soon as it is read (the worker stages
+ * it, then writes what it staged in one short transaction). No database and no framework: it runs in the import worker
  * (server/workers/reading-import.ts), off the request loop, and in unit tests.
  */
 import { hash } from 'node:crypto'
@@ -14,8 +14,8 @@ import { arrayRowToEntry, columnIndexes, csvNumberText, duplicateHeaderColumns, 
 import { toCanonicalReading, type CanonicalReading, type CanonicalValues, type KitBasisChoice } from './entry'
 import { dayFullRowMessage, MAX_IMPORT_ROWS, TESTS_PER_TANK_PER_DAY } from './limits'
 
-/** At most this many row errors are reported; the count is always complete. */
-const MAX_REPORTED_ERRORS = 200
+/** At most this many row errors are reported (the first, in file order); the count is always complete. */
+export const MAX_REPORTED_ERRORS = 200
 const PREVIEW_ROWS = 20
 
 /**
@@ -35,8 +35,8 @@ export interface ImportRow {
 }
 
 /**
- * Where the rows that pass go, one at a time and in file order: the worker's write (or, for
- * a dry run, a look-up), so no row is kept once it has been handed on.
+ * Where the rows that pass go, one at a time and in file order: the worker's staging table,
+ * so no row is kept here once it has been handed on.
  */
 export interface ImportSink {
   /** Current tests the tank holds on this day (YYYY-MM-DD, UTC) before the import; asked once per day. */
@@ -123,7 +123,7 @@ export class DayRoom {
 }
 
 /**
- * Rows read and checked before they are handed on together. Enough that the sink writes them
+ * Rows read and checked before they are handed on together. Enough that the sink stores them
  * in a tight loop (each insert between two rows' parsing made the inserts slower); few enough
  * that a chunk dies young: at 1,024 rows each chunk outlived a young-generation collection, was
  * copied to the old one and left there as garbage, and the worker's memory grew with the file
@@ -138,7 +138,7 @@ export const IMPORT_CHUNK_ROWS = 256
  * file order, and dropped. Nothing else of a row is kept (but the first PREVIEW_ROWS taken and
  * the first MAX_REPORTED_ERRORS errors), so memory does not grow with the file. Errors are
  * reported in file order; within a day the file's first rows are the ones taken. Parsing stops
- * one row past MAX_IMPORT_ROWS: a longer file is refused whole (the caller undoes what `sink`
+ * one row past MAX_IMPORT_ROWS: a longer file is refused whole (the caller drops what `sink`
  * took).
  */
 export function planImport(input: ReadingImportInput, context: PlanContext, sink: ImportSink): PlanOutcome {

@@ -1,9 +1,10 @@
 /**
- * The CSV import in the worker writes as it reads, a chunk at a time, in one transaction:
- * a dry run must say exactly what the write then does (rows repeated in the file, rows the
- * tank already holds, a day with little room left, refused rows), a file past the row cap
- * must leave nothing behind although earlier chunks were written, and the audit row commits
- * with the rows. Real migrated SQLite file with the demo company; the worker's function is
+ * The CSV import in the worker stages the file's rows (a chunk at a time, no write lock) and
+ * then writes them in one short transaction: a dry run must say exactly what the write then
+ * does (rows repeated in the file, rows the tank already holds, a day with little room left,
+ * refused rows), a test saved on another connection between staging and writing must still
+ * take its day's room first, a row imported meanwhile is a duplicate, a file past the row cap
+ * must leave nothing behind, and the audit row commits with the rows. Real migrated SQLite file with the demo company; the worker's function is
  * called directly.
  */
 import { mkdtempSync, rmSync } from 'node:fs'
@@ -16,7 +17,8 @@ import { auditLog, readings } from '../../../../server/db/schema'
 import { seedDemo, type DemoIds } from '../../../../server/db/seed/demo'
 import { IMPORT_CHUNK_ROWS } from '../../../../shared/readings/import-plan'
 import { MAX_IMPORT_ROWS, TESTS_PER_TANK_PER_DAY } from '../../../../shared/readings/limits'
-import { readingImport } from '../../../../server/workers/reading-import'
+import { workerConnection } from '../../../../server/workers/connection'
+import { commitStaged, dropStage, readingImport, stageImport, type ReadingImportTask } from '../../../../server/workers/reading-import'
 
 const dir = mkdtempSync(join(tmpdir(), 'tidewright-import-'))
 const dbPath = join(dir, 'import.sqlite')
@@ -37,8 +39,8 @@ afterAll(() => {
 const countOn = (tankId: string) => db.select().from(readings).where(eq(readings.tankId, tankId)).all().length
 const importAudits = (tankId: string) => db.select().from(auditLog).where(and(eq(auditLog.action, 'reading.import'), eq(auditLog.entityId, tankId))).all().length
 
-function run(tankId: string, csv: string, dryRun: boolean) {
-  return readingImport({
+function task(tankId: string, csv: string, dryRun: boolean): ReadingImportTask {
+  return {
     dbPath,
     tankId,
     actor: { id: demo.users.aquarist, organisationId: demo.organisationId },
@@ -46,7 +48,28 @@ function run(tankId: string, csv: string, dryRun: boolean) {
     kit: { ammonia: 'N', nitrite: 'N', nitrate: 'N' },
     lockedMs: null,
     nowMs: now.getTime(),
-  })
+  }
+}
+
+const run = (tankId: string, csv: string, dryRun: boolean) => readingImport(task(tankId, csv, dryRun))
+
+/** A test saved on the test's own connection (not the worker's), as another request would. */
+const saveElsewhere = (tankId: string, takenAt: string, ammoniaN: number) =>
+  db.insert(readings).values({ tankId, takenAt, ammoniaN, entered: {} }).run()
+
+/** Stages the file, lets `meanwhile` run (another connection), then writes what was staged. */
+function stageThenWrite(t: ReadingImportTask, meanwhile: () => void) {
+  const { outcome, db: workerDb, stage } = stageImport(t)
+  try {
+    if (outcome.kind !== 'plan') throw new Error(outcome.kind)
+    meanwhile()
+    const written = commitStaged(t, workerDb, stage, outcome.plan)
+    if (!written) throw new Error('lock moved')
+    return { plan: outcome.plan, inserted: written.inserted }
+  }
+  finally {
+    dropStage(workerDb)
+  }
 }
 
 /** `count` tests a minute apart from `start`, ammonia stepping so each row is its own test. */
@@ -82,6 +105,41 @@ describe('the CSV import in the worker', () => {
     const dayFull = wet.preview.errors.filter(e => e.field === 'takenAt' && e.message.includes('the most one day may hold'))
     expect(dayFull.length).toBe(5)
     expect(wet.preview.errors.map(e => e.row)).toEqual([...wet.preview.errors.map(e => e.row)].sort((a, b) => a - b))
+  })
+
+  it('counts a test saved on another connection between staging and writing against the day, and refuses the row that would pass the cap', () => {
+    const tankId = demo.tanks.study
+    const day = Date.parse(new Date(now.getTime() - 500 * 86_400_000).toISOString().slice(0, 10))
+    const rows = minutely(TESTS_PER_TANK_PER_DAY, day)
+    const csv = ['takenAt,ammonia,nitrite,nitrate', ...rows].join('\n')
+    const before = countOn(tankId)
+    const audits = importAudits(tankId)
+    // Staging sees an empty day and takes all 48; a save lands on the day before the write.
+    const { plan, inserted } = stageThenWrite(task(tankId, csv, false), () => saveElsewhere(tankId, new Date(day + 23 * 3_600_000).toISOString(), 0.3))
+    expect(inserted).toBe(TESTS_PER_TANK_PER_DAY - 1)
+    expect(countOn(tankId) - before).toBe(TESTS_PER_TANK_PER_DAY)
+    expect([plan.added, plan.duplicates, plan.errorCount]).toEqual([TESTS_PER_TANK_PER_DAY - 1, 0, 1])
+    // The file's last row of the day is the one refused, reported by its row number (header is row 1).
+    expect(plan.errors).toEqual([{ row: TESTS_PER_TANK_PER_DAY + 1, field: 'takenAt', message: expect.stringContaining('the most one day may hold') }])
+    expect(plan.preview.every(p => p.row !== TESTS_PER_TANK_PER_DAY + 1)).toBe(true)
+    expect(importAudits(tankId)).toBe(audits + 1)
+  })
+
+  it('counts a row of the file imported on another connection meanwhile as a duplicate, written once', () => {
+    const tankId = demo.tanks.study
+    const day = Date.parse(new Date(now.getTime() - 600 * 86_400_000).toISOString().slice(0, 10))
+    const csv = ['takenAt,ammonia,nitrite,nitrate', ...minutely(3, day)].join('\n')
+    const before = countOn(tankId)
+    // Another import of the same file commits on another connection between this one's staging
+    // and its write: the same tests, under the same import keys.
+    const { plan, inserted } = stageThenWrite(task(tankId, csv, false), () => {
+      const staged = workerConnection(dbPath).$client.prepare('SELECT taken_at AS takenAt, ammonia_n AS ammoniaN, import_key AS importKey FROM temp.import_stage').all() as { takenAt: string, ammoniaN: number, importKey: string }[]
+      expect(staged.length).toBe(3)
+      for (const row of staged) db.insert(readings).values({ tankId, ...row, entered: {} }).run()
+    })
+    expect(inserted).toBe(0)
+    expect([plan.added, plan.duplicates, plan.errorCount]).toEqual([0, 3, 0])
+    expect(countOn(tankId) - before).toBe(3)
   })
 
   it('leaves nothing behind for a file past the row cap, though its first chunks were written', () => {
