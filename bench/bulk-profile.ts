@@ -61,7 +61,7 @@ try {
     kit: { ammonia: 'N', nitrite: 'N', nitrate: 'N' }, lockedMs: null, nowMs: Date.now(),
   }))
   const verdict = timed('verdict', () => worker.tankVerdict({ dbPath, tankId, nowMs: Date.now() }))
-  console.log(`inserted ${imported.value.preview?.inserted}, errors ${imported.value.preview?.errorRows}, phase ${verdict.value?.verdict?.phase}; CPU ratio import / floor ${(imported.cpuMs / floor.cpuMs).toFixed(2)}, with verdict ${((imported.cpuMs + verdict.cpuMs) / floor.cpuMs).toFixed(2)}; peak rss ${mib(process.resourceUsage().maxRSS * 1024)} MiB`)
+  console.log(`inserted ${imported.value.preview?.inserted}, write lock held ${imported.value.lockHeldMs?.toFixed(0)} ms, errors ${imported.value.preview?.errorRows}, phase ${verdict.value?.verdict?.phase}; CPU ratio import / floor ${(imported.cpuMs / floor.cpuMs).toFixed(2)}, with verdict ${((imported.cpuMs + verdict.cpuMs) / floor.cpuMs).toFixed(2)}; peak rss ${mib(process.resourceUsage().maxRSS * 1024)} MiB`)
 }
 finally {
   rmSync(dir, { recursive: true, force: true })
