@@ -11,6 +11,7 @@ import { join } from 'node:path'
 import { performance } from 'node:perf_hooks'
 import Database from 'better-sqlite3'
 import { TESTS_PER_TANK_PER_DAY } from '../shared/readings/limits'
+import { OTHER_AQUARIST_EMAIL } from '../tests/support/fixtures'
 import { signInCookie, type BenchServer, type Row } from './support'
 
 export const BULK_ROWS = 100_000
@@ -109,6 +110,34 @@ async function timedImport(bench: BenchServer, cookie: string, tankId: string, c
   }
 }
 
+/** Saves made so far by savesMeanwhile: each goes 31 minutes further back. */
+let savesSoFar = 0
+
+/** Milliseconds at a quantile of sorted values. */
+const quantile = (sorted: number[], q: number) => sorted[Math.min(sorted.length - 1, Math.floor(q * sorted.length))] ?? Number.NaN
+
+/**
+ * Another company's aquarist saving one test after another on their own tank (each answer
+ * awaited), until `stop` says so: how long each save took, in ms. A save waits whenever the
+ * import holds the database's write lock.
+ */
+async function savesMeanwhile(bench: BenchServer, cookie: string, stop: () => boolean, atMost = Number.POSITIVE_INFINITY): Promise<number[]> {
+  const times: number[] = []
+  for (let i = 0; !stop() && i < atMost; i++) {
+    // 31 minutes apart, going back from an hour ago: never the 48th test of a day.
+    const takenAt = new Date(Date.now() - 3_600_000 - (savesSoFar++) * 31 * 60_000).toISOString()
+    const start = performance.now()
+    const response = await fetch(`${bench.server.baseURL}/api/tanks/${bench.fixtures.other.tankId}/readings`, {
+      method: 'POST', headers: { cookie, 'content-type': 'application/json' },
+      body: JSON.stringify({ takenAt, ammonia: 0.1, nitrite: 0, nitrate: 5, basis: { ammonia: 'N', nitrite: 'N', nitrate: 'N' }, temperature: 25, temperatureUnit: 'C', salinity: 35, salinityMode: 'practical' }),
+    })
+    await response.arrayBuffer()
+    if (response.status !== 201) throw new Error(`the other company's save answered ${response.status}`)
+    times.push(performance.now() - start)
+  }
+  return times.sort((a, b) => a - b)
+}
+
 export async function runBulkBench(bench: BenchServer): Promise<Row[]> {
   const cookie = await signInCookie(bench.server.baseURL, 'aquarist@tidewright.test')
   const { csv, rows } = bulkCsv(BULK_ROWS)
@@ -140,6 +169,17 @@ export async function runBulkBench(bench: BenchServer): Promise<Row[]> {
   // A tenth of the file first (the peak is a high-water mark): whether memory grows with the file.
   const small = await timedImport(bench, cookie, smallTankId, bulkCsv(SMALL_ROWS).csv, SMALL_ROWS)
   const run = await timedImport(bench, cookie, tankId, csv, BULK_ROWS)
+  // The same file again into a third tank while another company saves: its own run, so the
+  // saves' load does not weigh on the timings above.
+  const otherCookie = await signInCookie(bench.server.baseURL, OTHER_AQUARIST_EMAIL)
+  const idleSaves = await savesMeanwhile(bench, otherCookie, () => false, 50)
+  const probedTankId = await bulkTank(bench, cookie, 'Probed import reef')
+  let importing = true
+  const loadedSaves = savesMeanwhile(bench, otherCookie, () => !importing)
+  await timedImport(bench, cookie, probedTankId, csv, BULK_ROWS).finally(() => {
+    importing = false
+  })
+  const saves = await loadedSaves
   const rps = BULK_ROWS / run.seconds
   const floorRps = BULK_ROWS / floorSeconds
   const grew = (r: ImportRun) => `${(r.rssMost - r.rssBefore).toFixed(0)} MiB (${r.rssBefore.toFixed(0)} -> ${r.rssMost.toFixed(0)})`
@@ -157,6 +197,10 @@ export async function runBulkBench(bench: BenchServer): Promise<Row[]> {
     area: 'Bulk', name: `write lock held by the import (BEGIN IMMEDIATE to COMMIT): ${SMALL_ROWS.toLocaleString('en')} rows ${small.lockHeldMs.toFixed(0)} ms; ${BULK_ROWS.toLocaleString('en')} rows`, value: run.lockHeldMs, unit: 'ms',
     reference: { name: `raw insert loop (the whole loop holds it) ${(floorSeconds * 1000).toFixed(0)} ms`, value: floorSeconds * 1000 },
     ratio: run.lockHeldMs / (floorSeconds * 1000), aim: 'as short as the insert alone (~1x)',
+  }, {
+    area: 'Bulk', name: `another company's saves during the same import (in a third tank): p50 ${quantile(saves, 0.5).toFixed(0)} ms, max ${quantile(saves, 1).toFixed(0)} ms (${saves.length} saves); idle p50 ${quantile(idleSaves, 0.5).toFixed(0)} ms`, value: quantile(saves, 0.99), unit: 'ms p99',
+    reference: { name: `idle p99 (${idleSaves.length} saves)`, value: quantile(idleSaves, 0.99) },
+    ratio: quantile(saves, 0.99) / quantile(idleSaves, 0.99), aim: 'no company slows another (~1x)',
   }, {
     area: 'Bulk', name: `server RSS growth while importing: ${SMALL_ROWS.toLocaleString('en')} rows ${grew(small)}; ${BULK_ROWS.toLocaleString('en')} rows ${grew(run)}`, value: run.rssMost - run.rssBefore, unit: 'MiB',
     reference: { name: `${SMALL_ROWS.toLocaleString('en')} rows`, value: small.rssMost - small.rssBefore },
