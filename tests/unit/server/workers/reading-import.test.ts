@@ -142,7 +142,7 @@ describe('the CSV import in the worker', () => {
     expect(countOn(tankId) - before).toBe(3)
   })
 
-  it('leaves nothing behind for a file past the row cap, though its first chunks were written', () => {
+  it('leaves nothing behind for a file past the row cap, though its first chunks were staged', () => {
     const tankId = demo.tanks.lobby
     const before = countOn(tankId)
     const audits = importAudits(tankId)
