@@ -1,0 +1,68 @@
+/**
+ * The CSV import's worker steps run in this process on a seeded database, for profiling:
+ * `node --cpu-prof --import tsx bench/bulk-profile.ts` (after nuxt build: it runs the built
+ * worker file). Prints each step's wall and CPU time (CPU time moves less when other work
+ * shares the machine), the raw insert loop's on a copy of the same database, and the process's
+ * memory. BULK_PROFILE_ROWS sets the file's length (default 100,000).
+ */
+import { randomUUID } from 'node:crypto'
+import { mkdtempSync, rmSync } from 'node:fs'
+import { tmpdir } from 'node:os'
+import { join, resolve } from 'node:path'
+import { performance } from 'node:perf_hooks'
+import { pathToFileURL } from 'node:url'
+import Database from 'better-sqlite3'
+import { seededDatabase } from '../tests/support/own-server'
+import { bulkCsv } from './bulk.bench'
+
+const ROWS = Number(process.env.BULK_PROFILE_ROWS ?? 100_000)
+const mib = (n: number) => (n / 1048576).toFixed(0)
+const mem = () => {
+  const m = process.memoryUsage()
+  return `rss ${mib(m.rss)} heap ${mib(m.heapUsed)} peak rss ${mib(process.resourceUsage().maxRSS * 1024)} MiB`
+}
+
+/** Runs `step`, printing its wall and CPU milliseconds; returns its value and CPU ms. */
+function timed<T>(name: string, step: () => T): { value: T, cpuMs: number } {
+  const wall = performance.now()
+  const cpu = process.cpuUsage()
+  const value = step()
+  const used = process.cpuUsage(cpu)
+  const cpuMs = (used.user + used.system) / 1000
+  console.log(`${name}: ${(performance.now() - wall).toFixed(0)} ms wall, ${cpuMs.toFixed(0)} ms CPU; ${mem()}`)
+  return { value, cpuMs }
+}
+
+const dir = mkdtempSync(join(tmpdir(), 'tidewright-bulk-profile-'))
+try {
+  const { dbPath, fixtures } = await seededDatabase(dir)
+  const worker = await import(pathToFileURL(resolve('.output/server/workers/heavy.worker.mjs')).href)
+  const { csv, rows } = bulkCsv(ROWS)
+  const tankId = fixtures.other.tankId
+
+  const copy = join(dir, 'floor.sqlite')
+  const live = new Database(dbPath)
+  await live.backup(copy)
+  live.close()
+  const floorDb = new Database(copy)
+  floorDb.pragma('journal_mode = WAL')
+  floorDb.pragma('synchronous = NORMAL')
+  const insert = floorDb.prepare(`insert into readings (id, tank_id, taken_at, ammonia_n, nitrite_n, nitrate_n, ph, temperature_c, salinity, entered, import_key, created_at, updated_at)
+    values (?, ?, ?, ?, ?, ?, ?, ?, ?, '{}', ?, ?, ?)`)
+  const floor = timed('raw insert loop', () => floorDb.transaction(() => {
+    const now = new Date().toISOString()
+    rows.forEach((r, i) => insert.run(randomUUID(), tankId, r.at, r.ammonia, r.nitrite, r.nitrate, r.pH, r.temperature, r.salinity, `bulk-${i}`, now, now))
+  })())
+  floorDb.close()
+
+  const imported = timed('import', () => worker.readingImport({
+    dbPath, tankId, actor: { id: fixtures.other.aquaristId, organisationId: fixtures.other.organisationId },
+    input: { csv, dryRun: false, basis: { ammonia: 'N', nitrite: 'N', nitrate: 'N' }, temperatureUnit: 'C', salinityMode: 'practical' },
+    kit: { ammonia: 'N', nitrite: 'N', nitrate: 'N' }, lockedMs: null, nowMs: Date.now(),
+  }))
+  const verdict = timed('verdict', () => worker.tankVerdict({ dbPath, tankId, nowMs: Date.now() }))
+  console.log(`inserted ${imported.value.preview?.inserted}, write lock held ${imported.value.lockHeldMs?.toFixed(0)} ms, errors ${imported.value.preview?.errorRows}, phase ${verdict.value?.verdict?.phase}; CPU ratio import / floor ${(imported.cpuMs / floor.cpuMs).toFixed(2)}, with verdict ${((imported.cpuMs + verdict.cpuMs) / floor.cpuMs).toFixed(2)}; peak rss ${mib(process.resourceUsage().maxRSS * 1024)} MiB`)
+}
+finally {
+  rmSync(dir, { recursive: true, force: true })
+}
