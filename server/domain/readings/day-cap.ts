@@ -7,9 +7,9 @@
  */
 import { and, count, eq, gte, lt, notExists, sql } from 'drizzle-orm'
 import { alias } from 'drizzle-orm/sqlite-core'
-import type { Db } from '../../db/connection'
-import { preparedPerDb } from '../../db/prepared'
-import { readings } from '../../db/schema'
+import type { Db } from '#server/db/connection'
+import { preparedPerDb } from '#server/db/prepared'
+import { readings } from '#server/db/schema'
 
 /** The day after a YYYY-MM-DD day, as YYYY-MM-DD. */
 function nextDay(day: string): string {
