@@ -16,6 +16,8 @@ interface Case {
   name: string
   route: { method: 'GET' | 'POST', path: string, body?: () => string }
   floor: { method: 'GET' | 'POST', path: string, body?: () => string }
+  /** The aim printed beside the ratio at a number of connections, where it is not half the floor. */
+  aim?: (connections: number) => string
 }
 
 interface Measured { rps: number, p50: number, p99: number, non2xx: number, errors: number, timeouts: number }
@@ -57,7 +59,9 @@ export async function runApiBench(bench: BenchServer, seconds: number): Promise<
     { name: 'GET /api/tanks/:id/readings (year of data)', route: { method: 'GET', path: `/api/tanks/${lounge}/readings` }, floor: { method: 'GET', path: `/api/bench/tanks/${lounge}/readings` } },
     { name: 'GET /api/tanks/:id/verdict', route: { method: 'GET', path: `/api/tanks/${lounge}/verdict` }, floor: { method: 'GET', path: `/api/bench/tanks/${lounge}/verdict` } },
     // Writes last: they grow the tank's history for everything after them.
-    { name: 'POST /api/tanks/:id/readings', route: { method: 'POST', path: `/api/tanks/${lounge}/readings`, body: readingBody }, floor: { method: 'POST', path: `/api/bench/tanks/${demo.tanks.lobby}/readings`, body: floorReadingBody } },
+    // A save evaluates the tank's year of history with the engine, which a bare insert does not:
+    // its aim is its own (issue 18, item 3), a quarter of the floor at 1 connection and p99 under 100 ms at 16.
+    { name: 'POST /api/tanks/:id/readings', route: { method: 'POST', path: `/api/tanks/${lounge}/readings`, body: readingBody }, floor: { method: 'POST', path: `/api/bench/tanks/${demo.tanks.lobby}/readings`, body: floorReadingBody }, aim: n => (n === 1 ? '>= 0.25' : n === 16 ? 'p99 < 100 ms' : '') },
   ]
   const rows: Row[] = []
   for (const c of cases.filter(c => CASE_WORDS.length === 0 || CASE_WORDS.some(word => c.name.includes(word)))) {
@@ -73,7 +77,7 @@ export async function runApiBench(bench: BenchServer, seconds: number): Promise<
       rows.push({
         area: 'API', name: `${c.name} @${connections}`, value: route.rps, unit: 'req/s',
         reference: { name: `floor ${floor.rps.toFixed(0)} req/s; p50/p99 ${route.p50}/${route.p99} ms (floor ${floor.p50}/${floor.p99})${route.rps === 0 ? `; no request finished within ${seconds} s` : ''}`, value: floor.rps },
-        ratio: route.rps / floor.rps, aim: '>= 0.50',
+        ratio: route.rps / floor.rps, aim: c.aim?.(connections) ?? '>= 0.50',
       })
     }
   }

@@ -1,13 +1,13 @@
 /**
  * Tank page benchmark: a tank with a year of twice-daily readings, served by the built
  * server on a temporary database. Measures server time of the routes the tank page
- * reads, the chart payload size, and a 100,000-row CSV import against a raw
- * better-sqlite3 insert loop. Prints values and ratios measured in this one run.
+ * reads, the chart payload size, and a 100,000-row CSV import's time (its ratio to a raw
+ * insert loop is bulk.bench.ts's, the one floor for imports). Prints values and ratios
+ * measured in this one run.
  *
  *   npx tsx bench/tank-page.bench.ts
  */
 import { execSync } from 'node:child_process'
-import { randomUUID } from 'node:crypto'
 import { mkdtempSync, rmSync } from 'node:fs'
 import { tmpdir } from 'node:os'
 import { join } from 'node:path'
@@ -152,20 +152,6 @@ export async function runTankPageBench(): Promise<BenchResult[]> {
     await (await fetch(`${server.baseURL}/api/tanks/${importTank}/verdict`, { headers: { cookie: otherCookie } })).text()
     const afterImportVerdictMs = performance.now() - verdictStart
 
-    // ... against a raw better-sqlite3 loop inserting the same number of rows into another tank.
-    const raw = openDatabase(dbPath)
-    const insert = raw.$client.prepare(`INSERT INTO readings (id, tank_id, taken_at, ammonia_n, nitrite_n, nitrate_n, ph, temperature_c, salinity, notes, entered, import_key, created_at, updated_at)
-      VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?, '{}', ?, ?, ?)`)
-    const stamp = new Date().toISOString()
-    const rawStart = performance.now()
-    raw.$client.transaction(() => {
-      for (let i = 0; i < IMPORT_ROWS; i++) {
-        insert.run(randomUUID(), fixtures.demo.tanks.lobby, new Date(now - (IMPORT_ROWS - i) * 600_000).toISOString(), (i % 9) / 10, (i % 7) / 10, i % 30, 8 + (i % 4) / 10, 25 + (i % 9) / 10, 35 + (i % 3) / 10, `bench ${i}`, randomUUID(), stamp, stamp)
-      }
-    })()
-    const rawMs = performance.now() - rawStart
-    raw.$client.close()
-
     results.push(
       { name: 'engine: evaluate a year of twice-daily readings (in process)', value: engineMs, unit: 'ms' },
       { name: 'GET /readings (25 per page), median', value: page.ms, unit: 'ms' },
@@ -184,9 +170,6 @@ export async function runTankPageBench(): Promise<BenchResult[]> {
       { name: `import ${IMPORT_ROWS} rows via route`, value: importMs, unit: 'ms' },
       { name: `import ${IMPORT_ROWS} rows, dry run (parse, map, validate, hash)`, value: dryMs, unit: 'ms' },
       { name: 'first GET /verdict after the import (waits for the refresh)', value: afterImportVerdictMs, unit: 'ms' },
-      { name: `raw better-sqlite3 insert loop, ${IMPORT_ROWS} rows`, value: rawMs, unit: 'ms' },
-      { name: 'ratio: import route / raw insert loop', value: importMs / rawMs, unit: 'x' },
-      { name: 'ratio: import route + verdict refresh / raw insert loop', value: (importMs + afterImportVerdictMs) / rawMs, unit: 'x' },
     )
   }
   finally {
