@@ -36,7 +36,10 @@ function cpuSeconds(pid: number): number {
 const SPACING_MS = 86_400_000 / TESTS_PER_TANK_PER_DAY
 
 /** `count` readings ending an hour ago, as CSV and as values. */
-export function bulkCsv(count: number): { csv: string, rows: { at: string, ammonia: number, nitrite: number, nitrate: number, pH: number, temperature: number, salinity: number }[] } {
+/** One row of the bench's file, as the raw loop writes it. */
+export interface BulkRow { at: string, ammonia: number, nitrite: number, nitrate: number, pH: number, temperature: number, salinity: number }
+
+export function bulkCsv(count: number): { csv: string, rows: BulkRow[] } {
   // Whole half-hours, so no day holds more than its cap.
   const end = Math.floor((Date.now() - 3_600_000) / SPACING_MS) * SPACING_MS
   const rows = Array.from({ length: count }, (_, i) => ({
@@ -53,6 +56,33 @@ export function bulkCsv(count: number): { csv: string, rows: { at: string, ammon
 }
 
 /** A tank of its own, so nothing is deduplicated against earlier rows. */
+/**
+ * The import's floor: the same rows written by a raw better-sqlite3 insert loop in one
+ * transaction, on a copy of `dbPath` taken now (same schema, indexes and triggers), into
+ * `tankId`. Wall and CPU seconds of the loop alone; the copy is left at `copyPath`.
+ */
+export async function rawInsertFloor(dbPath: string, copyPath: string, tankId: string, rows: BulkRow[]): Promise<{ seconds: number, cpuSeconds: number }> {
+  const live = new Database(dbPath)
+  await live.backup(copyPath)
+  live.close()
+  const db = new Database(copyPath)
+  db.pragma('journal_mode = WAL')
+  db.pragma('synchronous = NORMAL')
+  const insert = db.prepare(`insert into readings (id, tank_id, taken_at, ammonia_n, nitrite_n, nitrate_n, ph, temperature_c, salinity, entered, import_key, created_at, updated_at)
+    values (?, ?, ?, ?, ?, ?, ?, ?, ?, '{}', ?, ?, ?)`)
+  const keys = rows.map((_, i) => `bulk-${i}`)
+  const start = performance.now()
+  const cpu = process.cpuUsage()
+  db.transaction(() => {
+    const now = new Date().toISOString()
+    rows.forEach((r, i) => insert.run(randomUUID(), tankId, r.at, r.ammonia, r.nitrite, r.nitrate, r.pH, r.temperature, r.salinity, keys[i], now, now))
+  })()
+  const seconds = (performance.now() - start) / 1000
+  const used = process.cpuUsage(cpu)
+  db.close()
+  return { seconds, cpuSeconds: (used.user + used.system) / 1e6 }
+}
+
 async function bulkTank(bench: BenchServer, cookie: string, name: string): Promise<string> {
   const created = await fetch(`${bench.server.baseURL}/api/tanks`, {
     method: 'POST', headers: { cookie, 'content-type': 'application/json' },
@@ -145,26 +175,7 @@ export async function runBulkBench(bench: BenchServer): Promise<Row[]> {
   const smallTankId = await bulkTank(bench, cookie, 'Small import reef')
 
   // Floor first, on a copy taken before the import (same schema, indexes and rows).
-  const copy = join(bench.dir, 'bulk-floor.sqlite')
-  const live = new Database(bench.dbPath)
-  await live.backup(copy)
-  live.close()
-  const db = new Database(copy)
-  db.pragma('journal_mode = WAL')
-  db.pragma('synchronous = NORMAL')
-  const insert = db.prepare(`insert into readings (id, tank_id, taken_at, ammonia_n, nitrite_n, nitrate_n, ph, temperature_c, salinity, entered, import_key, created_at, updated_at)
-    values (?, ?, ?, ?, ?, ?, ?, ?, ?, '{}', ?, ?, ?)`)
-  const keys = rows.map((_, i) => `bulk-${i}`)
-  const floorStart = performance.now()
-  const floorCpu = process.cpuUsage()
-  db.transaction(() => {
-    const now = new Date().toISOString()
-    rows.forEach((r, i) => insert.run(randomUUID(), tankId, r.at, r.ammonia, r.nitrite, r.nitrate, r.pH, r.temperature, r.salinity, keys[i], now, now))
-  })()
-  const floorSeconds = (performance.now() - floorStart) / 1000
-  const floorCpuUsed = process.cpuUsage(floorCpu)
-  const floorCpuSeconds = (floorCpuUsed.user + floorCpuUsed.system) / 1e6
-  db.close()
+  const { seconds: floorSeconds, cpuSeconds: floorCpuSeconds } = await rawInsertFloor(bench.dbPath, join(bench.dir, 'bulk-floor.sqlite'), tankId, rows)
 
   // A tenth of the file first (the peak is a high-water mark): whether memory grows with the file.
   const small = await timedImport(bench, cookie, smallTankId, bulkCsv(SMALL_ROWS).csv, SMALL_ROWS)
