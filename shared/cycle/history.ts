@@ -5,6 +5,7 @@
  * the latest.
  */
 
+import { partitionPoint } from '../sorted'
 import { latestValues, updatedLatest, type Latest } from './snapshot'
 import { parseTime } from './time'
 import type { CycleEvent, CycleReading } from './types'
@@ -201,14 +202,7 @@ export function prepareHistory(readings: readonly CycleReading[], events: readon
 
 /** How many of `items` (in time order) happened at or before `nowMs`. */
 function countUpTo(items: readonly { readonly t: number }[], nowMs: number): number {
-  let low = 0
-  let high = items.length
-  while (low < high) {
-    const middle = (low + high) >>> 1
-    if (items[middle]!.t <= nowMs) low = middle + 1
-    else high = middle
-  }
-  return low
+  return partitionPoint(items, item => item.t <= nowMs)
 }
 
 /** The prefix of `items` up to `count`: the array itself when nothing is cut (no copy on the common path). */
@@ -226,14 +220,7 @@ export function historyAsOf(prepared: PreparedHistory, nowMs: number): History {
 
 /** Where `item` goes in `list` (sorted by `compare`): after every element not after it. */
 function insertionPoint<T>(list: readonly T[], item: T, compare: (a: T, b: T) => number): number {
-  let low = 0
-  let high = list.length
-  while (low < high) {
-    const middle = (low + high) >>> 1
-    if (compare(list[middle]!, item) <= 0) low = middle + 1
-    else high = middle
-  }
-  return low
+  return partitionPoint(list, other => compare(other, item) <= 0)
 }
 
 function inserted<T>(list: readonly T[], item: T, compare: (a: T, b: T) => number): T[] {

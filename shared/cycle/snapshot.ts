@@ -3,6 +3,7 @@
  * with an ammonia test (carried forward from an earlier test when not retaken).
  */
 
+import { partitionPoint } from '../sorted'
 import { HOUR_MS } from './time'
 import type { TimedReading } from './history'
 
@@ -45,15 +46,7 @@ export function latestNitrogen(readings: readonly TimedReading[]): TimedReading 
 
 /** Index of the first reading (in time order) taken at or after `t` (`strictlyAfter`: after it). */
 function firstFrom(readings: readonly TimedReading[], t: number, strictlyAfter: boolean): number {
-  let low = 0
-  let high = readings.length
-  while (low < high) {
-    const middle = (low + high) >>> 1
-    const mt = readings[middle]!.t
-    if (mt < t || (strictlyAfter && mt === t)) low = middle + 1
-    else high = middle
-  }
-  return low
+  return partitionPoint(readings, r => r.t < t || (strictlyAfter && r.t === t))
 }
 
 /**
@@ -71,14 +64,7 @@ export function readingsBetween(readings: readonly TimedReading[], fromMs: numbe
  * a scan from the start would make the verdict's cost grow with the square of the history.
  */
 export function positionOf(readings: readonly TimedReading[], at: TimedReading): number {
-  let low = 0
-  let high = readings.length
-  while (low < high) {
-    const middle = (low + high) >>> 1
-    if (readings[middle]!.t < at.t) low = middle + 1
-    else high = middle
-  }
-  for (let i = low; i < readings.length && readings[i]!.t === at.t; i += 1) if (readings[i] === at) return i
+  for (let i = partitionPoint(readings, r => r.t < at.t); i < readings.length && readings[i]!.t === at.t; i += 1) if (readings[i] === at) return i
   return -1
 }
 

@@ -16,6 +16,7 @@
 import { eq, sql } from 'drizzle-orm'
 import { prepareHistory, withReadingAdded, type PreparedHistory } from '../../../shared/cycle/history'
 import type { CycleEvent, CycleReading } from '../../../shared/cycle/types'
+import { partitionPoint } from '../../../shared/sorted'
 import { CYCLE_EVENT_KINDS, type CycleEventKind, type EventKind } from '../../../shared/vocabulary'
 import type { Db } from '../../db/connection'
 import { preparedPerDb } from '../../db/prepared'
@@ -146,14 +147,7 @@ export function noteTestAppended(db: Db, tankId: string, row: ReadingRow, revisi
 
 /** Where a test taken at `takenAt` and entered at `enteredAt` goes; undefined when a row ties on both (row order decides). */
 function placeOf(list: readonly CycleReading[], takenAt: string, enteredAt: string): number | undefined {
-  let low = 0
-  let high = list.length
-  while (low < high) {
-    const mid = (low + high) >>> 1
-    const r = list[mid]!
-    if (r.takenAt < takenAt || (r.takenAt === takenAt && r.enteredAt! < enteredAt)) low = mid + 1
-    else high = mid
-  }
+  const low = partitionPoint(list, r => r.takenAt < takenAt || (r.takenAt === takenAt && r.enteredAt! < enteredAt))
   const next = list[low]
   if (next && next.takenAt === takenAt && next.enteredAt === enteredAt) return undefined
   return low
