@@ -5,15 +5,15 @@
  * (SQLite serialises writers). Throwing rolls the write back.
  */
 import type { H3Event } from 'h3'
-import { dayFullMessage, TESTS_PER_TANK_PER_DAY } from '#shared/readings/limits'
+import { dayFullMessage, dayOf, TESTS_PER_TANK_PER_DAY } from '#shared/readings/limits'
 import type { Db } from '#server/db/connection'
 import { testsOnDayOf } from '#server/domain/readings/day-cap'
 
 /** 429 when the day of `takenAt` now holds more than the cap; Retry-After when that day is today (UTC). */
 export function assertDayNotOverfull(event: H3Event, db: Db, tankId: string, takenAt: string, now = new Date()): void {
   if (testsOnDayOf(db, tankId, takenAt) <= TESTS_PER_TANK_PER_DAY) return
-  const day = takenAt.slice(0, 10)
-  if (day === now.toISOString().slice(0, 10)) {
+  const day = dayOf(takenAt)
+  if (day === dayOf(now.toISOString())) {
     const midnight = Date.parse(`${day}T00:00:00Z`) + 86_400_000
     setResponseHeader(event, 'Retry-After', Math.max(1, Math.ceil((midnight - now.getTime()) / 1000)))
   }

@@ -25,9 +25,9 @@
 import { randomUUID } from 'node:crypto'
 import { performance } from 'node:perf_hooks'
 import type { Statement } from 'better-sqlite3'
-import { dayOf, MAX_REPORTED_ERRORS, planImport, toPreview, type ImportPlan, type ImportRow, type ImportSink, type PlanContext, type PlanOutcome } from '#shared/readings/import-plan'
+import { MAX_REPORTED_ERRORS, planImport, toPreview, type ImportPlan, type ImportRow, type ImportSink, type PlanContext, type PlanOutcome } from '#shared/readings/import-plan'
 import type { KitBasisChoice } from '#shared/readings/entry'
-import { dayFullRowMessage, TESTS_PER_TANK_PER_DAY } from '#shared/readings/limits'
+import { dayFullRowMessage, dayOf, TESTS_PER_TANK_PER_DAY } from '#shared/readings/limits'
 import type { ReadingImportInput } from '#shared/schemas/reading'
 import type { ImportPreview, ImportRowError } from '#shared/types/readings'
 import type { TidewrightDB } from '#server/db/connection'
@@ -125,7 +125,10 @@ function stagingSink(db: TidewrightDB, tankId: string, stage: Stage): ImportSink
       if (tankHolds(key)) return false
       const staged = stage.insert.run(line, randomUUID(), takenAt, v.ammoniaN, v.nitriteN, v.nitrateN, v.pH, v.temperatureC, v.salinity,
         v.alkalinityDkh, v.calciumMgL, v.magnesiumMgL, v.phosphateMgL, notes, entered, key).changes === 1
-      if (staged) stage.perDay.set(dayOf(takenAt), (stage.perDay.get(dayOf(takenAt)) ?? 0) + 1)
+      if (staged) {
+        const day = dayOf(takenAt)
+        stage.perDay.set(day, (stage.perDay.get(day) ?? 0) + 1)
+      }
       return staged
     },
   }

@@ -12,7 +12,7 @@ import type { ImportPreview, ImportRowError } from '../types/readings'
 import { MEASURED_FIELDS } from '../vocabulary'
 import { arrayRowToEntry, columnIndexes, csvNumberText, duplicateHeaderColumns, guessMapping, importBasis } from './csv'
 import { toCanonicalReading, type CanonicalReading, type CanonicalValues, type KitBasisChoice } from './entry'
-import { dayFullRowMessage, MAX_IMPORT_ROWS, TESTS_PER_TANK_PER_DAY } from './limits'
+import { dayFullRowMessage, dayOf, MAX_IMPORT_ROWS, TESTS_PER_TANK_PER_DAY } from './limits'
 
 /** At most this many row errors are reported (the first, in file order); the count is always complete. */
 export const MAX_REPORTED_ERRORS = 200
@@ -94,9 +94,6 @@ export function enteredText(reading: CanonicalReading): string {
   reading.entered.source = 'csv'
   return JSON.stringify(reading.entered)
 }
-
-/** The calendar day (UTC) a canonical time falls on: its first ten characters. */
-export const dayOf = (takenAt: string): string => takenAt.slice(0, 10)
 
 /**
  * Each day's room under TESTS_PER_TANK_PER_DAY: what the tank held (asked once per day, the

@@ -16,6 +16,9 @@
 /** Current (not corrected-away) tests one tank may hold for one calendar day (UTC). */
 export const TESTS_PER_TANK_PER_DAY = 48
 
+/** The calendar day (UTC) a canonical time falls on, the day the cap counts: its first ten characters. */
+export const dayOf = (takenAt: string): string => takenAt.slice(0, 10)
+
 /** Data rows one CSV import may hold (the header row not counted). */
 export const MAX_IMPORT_ROWS = 100_000
 

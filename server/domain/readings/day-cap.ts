@@ -7,6 +7,7 @@
  */
 import { and, count, eq, gte, lt, notExists, sql } from 'drizzle-orm'
 import { alias } from 'drizzle-orm/sqlite-core'
+import { dayOf } from '#shared/readings/limits'
 import type { Db } from '#server/db/connection'
 import { preparedPerDb } from '#server/db/prepared'
 import { readings } from '#server/db/schema'
@@ -33,5 +34,5 @@ export function testsOnDay(db: Db, tankId: string, day: string): number {
 
 /** Current tests the tank holds on the day of `takenAt`. */
 export function testsOnDayOf(db: Db, tankId: string, takenAt: string): number {
-  return testsOnDay(db, tankId, takenAt.slice(0, 10))
+  return testsOnDay(db, tankId, dayOf(takenAt))
 }

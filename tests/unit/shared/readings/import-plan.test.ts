@@ -4,8 +4,8 @@
  * held takes no room, and each row that passes is handed on as it is read.
  */
 import { describe, expect, it } from 'vitest'
-import { dayOf, planImport, type ImportPlan, type ImportRow, type ImportSink } from '../../../../shared/readings/import-plan'
-import { MAX_IMPORT_ROWS, TESTS_PER_TANK_PER_DAY } from '../../../../shared/readings/limits'
+import { planImport, type ImportPlan, type ImportRow, type ImportSink } from '../../../../shared/readings/import-plan'
+import { dayOf, MAX_IMPORT_ROWS, TESTS_PER_TANK_PER_DAY } from '../../../../shared/readings/limits'
 import { csvNumber, csvNumberText } from '../../../../shared/readings/csv'
 
 const context = { kit: { ammonia: 'N', nitrite: 'N', nitrate: 'N' } as const, lockedMs: Number.NEGATIVE_INFINITY, now: new Date('2026-06-01T00:00:00Z') }

@@ -1,6 +1,7 @@
 import { eq } from 'drizzle-orm'
 import { ReadingParams, ReadingPatchSchema } from '#shared/schemas/reading'
 import { entryFromStored, toCanonicalReading } from '#shared/readings/entry'
+import { dayOf } from '#shared/readings/limits'
 import type { ReadingSaved } from '#shared/types/readings'
 import { readings } from '#server/db/schema'
 import { readingColumns } from '#server/domain/readings/columns'
@@ -27,7 +28,7 @@ export default defineEventHandler(async (event): Promise<ReadingSaved> => {
   const row = db.transaction(() => {
     const updated = db.update(readings).set(readingColumns(result.reading)).where(eq(readings.id, existing.id)).returning().get()
     // Moved to another day: that day must have room. Staying on its day never raises the count.
-    if (updated.takenAt.slice(0, 10) !== existing.takenAt.slice(0, 10)) assertDayNotOverfull(event, db, tank.id, updated.takenAt)
+    if (dayOf(updated.takenAt) !== dayOf(existing.takenAt)) assertDayNotOverfull(event, db, tank.id, updated.takenAt)
     writeAudit(actor, { action: 'reading.update', entity: 'reading', entityId: existing.id, before: existing, after: updated })
     return updated
   })
