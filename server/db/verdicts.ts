@@ -49,11 +49,20 @@ export function cycleInputFor(db: Db, tankId: string, now: Date): CycleInput | u
  * ordered once, a new test placed into it), which gives the verdict the rows alone give.
  */
 export function computeAndStoreVerdict(db: Db, tankId: string, now = new Date()): Verdict | undefined {
-  const found = cycleInputWithRows(db, tankId, now)
-  if (!found) return undefined
-  const evaluation = evaluateTank(found.input, preparedHistoryOf(found.rows))
-  storeVerdict(db, tankId, evaluation, found.input.now)
+  const evaluation = evaluateTankNow(db, tankId, now)
+  if (!evaluation) return undefined
+  storeVerdict(db, tankId, evaluation, now.toISOString())
   return evaluation.verdict
+}
+
+/**
+ * The tank's verdict and forecast as of `now` from its data as the database holds it (here, or
+ * in a worker thread), undefined if there is no such tank. The engine and the forecast share
+ * the history kept with the rows, so neither parses and orders the tests again.
+ */
+export function evaluateTankNow(db: Db, tankId: string, now: Date): TankEvaluation | undefined {
+  const found = cycleInputWithRows(db, tankId, now)
+  return found && evaluateTank(found.input, preparedHistoryOf(found.rows))
 }
 
 /** What is stored for a tank: the engine's verdict and the completion forecast made from the same input. */

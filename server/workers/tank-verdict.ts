@@ -2,9 +2,9 @@
  * The engine's verdict for a tank as its data stands, computed in a worker thread: over
  * years of imported tests the engine takes long enough that running it on the request
  * loop (as the evidence page does on every load) would hold up every other company.
- * Calls the same framework-free pieces the server does: cycleInputFor and evaluateCycle.
+ * Calls the same framework-free piece the server does (evaluateTankNow).
  */
-import { cycleInputFor, evaluateTank, type TankEvaluation } from '#server/db/verdicts'
+import { evaluateTankNow, type TankEvaluation } from '#server/db/verdicts'
 import { workerConnection } from './connection'
 
 export interface TankVerdictTask {
@@ -15,6 +15,5 @@ export interface TankVerdictTask {
 
 /** The verdict and its forecast, or null when there is no such tank. */
 export function tankVerdict(task: TankVerdictTask): TankEvaluation | null {
-  const input = cycleInputFor(workerConnection(task.dbPath), task.tankId, new Date(task.nowMs))
-  return input ? evaluateTank(input) : null
+  return evaluateTankNow(workerConnection(task.dbPath), task.tankId, new Date(task.nowMs)) ?? null
 }

@@ -21,7 +21,7 @@ import { CYCLE_EVENT_KINDS, type CycleEventKind, type EventKind } from '../../..
 import type { Db } from '../../db/connection'
 import { preparedPerDb } from '../../db/prepared'
 import { tankDataRevisions, type readings } from '../../db/schema'
-import { tankEngineReadings, tankEvents, type EngineReadingRow } from './current'
+import { engineValuesOf, tankEngineReadings, tankEvents, type EngineReadingValues } from './current'
 
 /** What the engine reads of a tank's rows, and the count of changes they were read at. */
 export interface EngineRows {
@@ -58,23 +58,23 @@ const defined = <T>(value: T | null): T | undefined => value ?? undefined
 
 const isCycleEventKind = (kind: EventKind): kind is CycleEventKind => (CYCLE_EVENT_KINDS as readonly string[]).includes(kind)
 
-/** A current reading as the engine takes it. */
-export function toCycleReading(r: EngineReadingRow): CycleReading {
+/** A current reading (its engine values, `engineValuesOf` for a row) as the engine takes it. */
+export function toCycleReading([id, takenAt, createdAt, ammoniaN, nitriteN, nitrateN, pH, temperatureC, salinity, alkalinityDkh, calciumMgL, magnesiumMgL, phosphateMgL]: EngineReadingValues): CycleReading {
   return {
-    id: r.id,
-    takenAt: r.takenAt,
+    id,
+    takenAt,
     // Two tests taken in the same minute: the one entered last is the latest.
-    enteredAt: r.createdAt,
-    ammoniaN: defined(r.ammoniaN),
-    nitriteN: defined(r.nitriteN),
-    nitrateN: defined(r.nitrateN),
-    pH: defined(r.pH),
-    temperatureC: defined(r.temperatureC),
-    salinity: defined(r.salinity),
-    alkalinityDkh: defined(r.alkalinityDkh),
-    calciumMgL: defined(r.calciumMgL),
-    magnesiumMgL: defined(r.magnesiumMgL),
-    phosphateMgL: defined(r.phosphateMgL),
+    enteredAt: createdAt,
+    ammoniaN: defined(ammoniaN),
+    nitriteN: defined(nitriteN),
+    nitrateN: defined(nitrateN),
+    pH: defined(pH),
+    temperatureC: defined(temperatureC),
+    salinity: defined(salinity),
+    alkalinityDkh: defined(alkalinityDkh),
+    calciumMgL: defined(calciumMgL),
+    magnesiumMgL: defined(magnesiumMgL),
+    phosphateMgL: defined(phosphateMgL),
   }
 }
 
@@ -137,7 +137,7 @@ export function noteTestAppended(db: Db, tankId: string, row: ReadingRow, revisi
     byTank.delete(tankId)
     return
   }
-  const reading = toCycleReading(row)
+  const reading = toCycleReading(engineValuesOf(row))
   const next = kept.readings.slice()
   next.splice(at, 0, reading)
   // The engine's history takes the test in its own place too (or is prepared afresh when first asked).

@@ -11,7 +11,7 @@ import { afterAll, describe, expect, it } from 'vitest'
 import { migrateDatabase, openDatabase } from '../../../server/db/connection'
 import { readings } from '../../../server/db/schema'
 import { seedDemo } from '../../../server/db/seed/demo'
-import { ENGINE_READING_COLUMNS, tankEngineReadings, tankReadings } from '../../../server/domain/readings/current'
+import { ENGINE_READING_COLUMNS, engineValuesOf, tankEngineReadings, tankReadings } from '../../../server/domain/readings/current'
 
 const dir = mkdtempSync(join(tmpdir(), 'tidewright-engine-readings-'))
 afterAll(() => rmSync(dir, { recursive: true, force: true }))
@@ -31,7 +31,8 @@ describe('the readings a verdict is made from', () => {
     const lean = tankEngineReadings(db, tankId)
     expect(lean.map(r => r.id)).not.toContain(first!.id)
     const keys = Object.keys(ENGINE_READING_COLUMNS) as (keyof typeof ENGINE_READING_COLUMNS)[]
-    expect(lean).toEqual(full.map(row => Object.fromEntries(keys.map(key => [key, row[key]]))))
+    expect(lean).toEqual(full.map(row => keys.map(key => row[key])))
+    expect(full.map(engineValuesOf)).toEqual(lean)
     db.$client.close()
   })
 })

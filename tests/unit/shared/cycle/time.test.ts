@@ -31,6 +31,18 @@ describe('parseTime', () => {
     }), { numRuns: 3000, seed: 20261203 })
   })
 
+  it('reads a time in the stored form (as toISOString writes it) as the ISO rule does, at the edges of every field', () => {
+    const field = (max: number, width: number) => fc.integer({ min: 0, max }).map(n => pad(n, width))
+    const stored = fc.tuple(field(9999, 4), field(13, 2), field(32, 2), field(25, 2), field(61, 2), field(61, 2), field(999, 3), fc.constantFrom('Z', 'z', '+'))
+      .map(([y, mo, d, h, mi, s, ms, z]) => `${y}-${mo}-${d}T${h}:${mi}:${s}.${ms}${z}`)
+    fc.assert(fc.property(stored, (text) => {
+      expect(parseTime(text)).toEqual(expected(text))
+    }), { numRuns: 5000, seed: 20261204 })
+    for (const text of ['0999-12-31T23:59:59.999Z', '1000-01-01T00:00:00.000Z', '2026-02-28T23:59:59.999Z', '2026-02-29T00:00:00.000Z', '2028-02-29T12:00:00.000Z', '2026-04-31T10:00:00.000Z', '2026-01-01T24:00:00.000Z', '2026-1-01T00:00:00.000Z0', '2026-01-01T00:00:00.0001']) {
+      expect(parseTime(text)).toEqual(expected(text))
+    }
+  })
+
   it('still answers rightly after more times than it remembers', () => {
     const start = Date.parse('2020-01-01T00:00:00.000Z')
     const texts = Array.from({ length: 70_000 }, (_, i) => new Date(start + i * 60_000).toISOString())
