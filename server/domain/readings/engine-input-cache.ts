@@ -21,6 +21,7 @@ import { CYCLE_EVENT_KINDS, type CycleEventKind, type EventKind } from '../../..
 import type { Db } from '../../db/connection'
 import { preparedPerDb } from '../../db/prepared'
 import { tankDataRevisions, type readings } from '../../db/schema'
+import { KeptTanks } from './kept-tanks'
 import { engineValuesOf, tankEngineReadings, tankEvents, type EngineReadingValues } from './current'
 
 /** What the engine reads of a tank's rows, and the count of changes they were read at. */
@@ -41,10 +42,14 @@ export function preparedHistoryOf(rows: EngineRows): PreparedHistory {
   return rows.prepared
 }
 
-/** Tanks kept per handle; the least recently used goes first (a year of tests is some hundreds of kB). */
-const MAX_TANKS = 64
+/**
+ * Kept per handle: at most 64 tanks (a year of a client's tests is some hundreds of kB) and
+ * 250,000 tests together (about 200 MB with their prepared histories; a 100,000-test import is
+ * kept, three of them are not). The least recently used goes first.
+ */
+const KEPT = { maxTanks: 64, maxReadings: 250_000 }
 
-const copies = preparedPerDb(() => new Map<string, EngineRows>())
+const copies = preparedPerDb(() => new KeptTanks<EngineRows>(KEPT))
 
 const revisionOf = preparedPerDb(db => db.select({ revision: tankDataRevisions.revision }).from(tankDataRevisions)
   .where(eq(tankDataRevisions.tankId, sql.placeholder('tankId'))).prepare())
@@ -89,13 +94,6 @@ export function readEngineRows(db: Db, tankId: string, revision: number): Engine
   }
 }
 
-function keep(db: Db, tankId: string, rows: EngineRows): void {
-  const byTank = copies(db)
-  byTank.delete(tankId)
-  byTank.set(tankId, rows)
-  if (byTank.size > MAX_TANKS) byTank.delete(byTank.keys().next().value!)
-}
-
 /**
  * The tank's current readings and events in the engine's shape and order: the kept copy when
  * the tank's count has not moved since, otherwise read again (and kept). The arrays are shared:
@@ -106,12 +104,9 @@ export function engineRows(db: Db, tankId: string): EngineRows {
   // labelled newer than its content (a write in between moves the count and the next call reads again).
   const revision = tankDataRevisionInDb(db, tankId)
   const kept = copies(db).get(tankId)
-  if (kept?.revision === revision) {
-    keep(db, tankId, kept)
-    return kept
-  }
+  if (kept?.revision === revision) return kept
   const rows = readEngineRows(db, tankId, revision)
-  keep(db, tankId, rows)
+  copies(db).keep(tankId, rows)
   return rows
 }
 
@@ -129,12 +124,12 @@ export function noteTestAppended(db: Db, tankId: string, row: ReadingRow, revisi
   const kept = byTank.get(tankId)
   if (!kept) return
   if (kept.revision !== revisionAfter - 1 || row.tankId !== tankId || row.correctsId !== null) {
-    byTank.delete(tankId)
+    byTank.drop(tankId)
     return
   }
   const at = placeOf(kept.readings, row.takenAt, row.createdAt)
   if (at === undefined) {
-    byTank.delete(tankId)
+    byTank.drop(tankId)
     return
   }
   const reading = toCycleReading(engineValuesOf(row))
@@ -142,7 +137,7 @@ export function noteTestAppended(db: Db, tankId: string, row: ReadingRow, revisi
   next.splice(at, 0, reading)
   // The engine's history takes the test in its own place too (or is prepared afresh when first asked).
   const prepared = kept.prepared && withReadingAdded(kept.prepared, reading, next)
-  keep(db, tankId, { revision: revisionAfter, readings: next, events: kept.events, prepared })
+  byTank.keep(tankId, { revision: revisionAfter, readings: next, events: kept.events, prepared })
 }
 
 /** Where a test taken at `takenAt` and entered at `enteredAt` goes; undefined when a row ties on both (row order decides). */
