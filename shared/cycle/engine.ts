@@ -6,7 +6,7 @@
 
 import { mergeActions } from './actions'
 import { traceCourse } from './course'
-import { compareReadings, historyAsOf, prepareHistory, type PreparedHistory } from './history'
+import { compareReadings, historyAsOf, preparedFrom, type PreparedHistory } from './history'
 import { decidePhase, firstSourceTime } from './phase'
 import { assessReadiness } from './readiness'
 import { CURRENT_RULE_OPTIONS, type RuleOptions } from './options'
@@ -30,17 +30,11 @@ function compareFindings(a: Finding, b: Finding): number {
     || compareStrings(a.readingIds.join('\u0000'), b.readingIds.join('\u0000'))
 }
 
-/** `prepared` when it was made from this input's very arrays, otherwise the input's history prepared now. */
-function preparedFor(input: CycleInput, prepared: PreparedHistory | undefined): PreparedHistory {
-  if (prepared && prepared.source.readings === input.readings && prepared.source.events === input.events) return prepared
-  return prepareHistory(input.readings, input.events)
-}
-
 function buildContext(input: CycleInput, options: RuleOptions, kept: PreparedHistory | undefined): RuleContext {
   const nowMs = requireTime('now', input.now)
   const startedMs = requireTime('tank.startedAt', input.tank.startedAt)
   const thresholds = resolveThresholds(input.thresholds)
-  const prepared = preparedFor(input, kept)
+  const prepared = preparedFrom(input.readings, input.events, kept)
   const history = historyAsOf(prepared, nowMs)
   const course = traceCourse(history, thresholds, input.tank.cycleMethod, startedMs, nowMs, options)
   // Nothing after `now` was cut: the latest values of the whole prepared history are the ones.

@@ -200,6 +200,12 @@ export function prepareHistory(readings: readonly CycleReading[], events: readon
   }
 }
 
+/** `kept` when it was made from these very arrays, otherwise their history prepared now. */
+export function preparedFrom(readings: readonly CycleReading[], events: readonly CycleEvent[] | undefined, kept: PreparedHistory | undefined): PreparedHistory {
+  if (kept && kept.source.readings === readings && kept.source.events === events) return kept
+  return prepareHistory(readings, events)
+}
+
 /** How many of `items` (in time order) happened at or before `nowMs`. */
 function countUpTo(items: readonly { readonly t: number }[], nowMs: number): number {
   return partitionPoint(items, item => item.t <= nowMs)
@@ -260,6 +266,36 @@ export function withReadingAdded(prepared: PreparedHistory, raw: CycleReading, n
     // It goes after every reading not after it in the order, so it is the latest of each value it carries unless a later one does.
     latest: updatedLatest(prepared.latest, result.reading, (a, b) => compareReadings(a, b) > 0),
     repaired: result.repaired ? inserted(prepared.repaired, { id: raw.id, t }, byId) : prepared.repaired,
+  }
+}
+
+/**
+ * `prepared` as of `nowMs`, continued by readings and events that all come after `nowMs` (the
+ * forecast's assumed future): the history `prepareHistory` makes of `source`, the past as of
+ * `nowMs` (a time that does not parse stays, as it does in the past) followed by `later`. Only
+ * the later ones are parsed and ordered: they go after every past one, as the order puts time
+ * first. Undefined when one of them is not after `nowMs` or its time does not parse.
+ */
+export function withLaterAppended(
+  prepared: PreparedHistory,
+  nowMs: number,
+  later: { readonly readings: readonly CycleReading[], readonly events: readonly CycleEvent[] },
+  source: { readonly readings: readonly CycleReading[], readonly events: readonly CycleEvent[] },
+): PreparedHistory | undefined {
+  const future = prepareHistory(later.readings, later.events)
+  const allAfter = (items: readonly { readonly t: number }[], given: number) => items.length === given && items.every(item => item.t > nowMs)
+  if (!allAfter(future.readings, later.readings.length) || !allAfter(future.events, later.events.length)) return undefined
+  const past = historyAsOf(prepared, nowMs)
+  const pastLatest = past.readings === prepared.readings ? prepared.latest : latestValues(past.readings)
+  const after = (a: TimedReading, b: TimedReading) => compareReadings(a, b) > 0
+  return {
+    source,
+    readings: [...past.readings, ...future.readings],
+    events: [...past.events, ...future.events],
+    ignoredReadingIds: prepared.ignoredReadingIds,
+    repaired: [...prepared.repaired.filter(r => r.t <= nowMs), ...future.repaired].sort(byId),
+    latest: future.readings.reduce((latest, reading) => updatedLatest(latest, reading, after), pastLatest),
+    nitrogenTests: [...nitrogenTestsAsOf(prepared, nowMs), ...future.nitrogenTests],
   }
 }
 

@@ -8,7 +8,7 @@
  */
 
 import { evaluateCycle } from '../engine'
-import { nitrogenTestsAsOf, type PreparedHistory } from '../history'
+import { nitrogenTestsAsOf, preparedFrom, type PreparedHistory } from '../history'
 import { RULE_SET_VERSION } from '../registry'
 import { resolveThresholds } from '../thresholds'
 import { DAY_MS, HOUR_MS, parseTime, requireTime, toIso } from '../time'
@@ -235,6 +235,7 @@ export function forecastCycle(input: CycleInput, verdict?: Verdict, prepared?: P
   const doseAfterZeroTests = input.tank.cycleMethod === 'fishless' && !livestockIn
   const base: ProjectionBase = {
     input: pastOnly(input, nowMs),
+    history: preparedFrom(input.readings, input.events, prepared),
     thresholds,
     lastTestMs: lastTest.t,
     nowMs,

@@ -20,6 +20,7 @@
  */
 
 import { evaluateCycle } from '../engine'
+import { withLaterAppended, type PreparedHistory } from '../history'
 import { DAY_MS, HOUR_MS, toIso } from '../time'
 import { LIVESTOCK_GROUPS, type CycleEvent, type CycleInput, type CycleReading, type LivestockGroup, type Thresholds } from '../types'
 import { HORIZON_DAYS } from './parameters'
@@ -33,7 +34,10 @@ export interface Projection {
 
 /** The tank's state the routine continues from. */
 export interface ProjectionBase {
+  /** The tank's input as of now (nothing after now). */
   input: CycleInput
+  /** The tank's whole history prepared (`input` is it as of now): each projection continues it instead of preparing years again. */
+  history: PreparedHistory
   thresholds: Thresholds
   /** Time of the latest real test. */
   lastTestMs: number
@@ -107,8 +111,9 @@ export function firstProvingRoutine(base: ProjectionBase, zeroFromMs: number): {
 }
 
 function projectUntil(base: ProjectionBase, zeroFromMs: number, untilMs: number, routine: Routine): Projection | null {
-  const readings = [...base.input.readings]
-  const events = [...(base.input.events ?? [])]
+  // The assumed future, all after now.
+  const readings: CycleReading[] = []
+  const events: CycleEvent[] = []
   const times = futureTestTimes(base, untilMs)
   const last = times[times.length - 1]
   if (last === undefined) return null
@@ -131,7 +136,10 @@ function projectUntil(base: ProjectionBase, zeroFromMs: number, untilMs: number,
     // The routine ends on a test before the next dose: the engine judges the proof there.
     if (zero && base.doseAfterZeroTests && t !== last) dose(t, String(i))
   })
-  const verdict = evaluateCycle({ ...base.input, readings, events, now: toIso(last) })
+  const input = { ...base.input, readings: [...base.input.readings, ...readings], events: [...(base.input.events ?? []), ...events], now: toIso(last) }
+  // The tank's history continued by the future (undefined, and prepared whole by the engine, only if one were not after now).
+  const history = withLaterAppended(base.history, base.nowMs, { readings, events }, input)
+  const verdict = evaluateCycle(input, undefined, history)
   if (verdict.completedOn === null) return null
   const groups = {} as Record<LivestockGroup, number | null>
   for (const g of LIVESTOCK_GROUPS) {

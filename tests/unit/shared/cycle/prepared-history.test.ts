@@ -16,7 +16,7 @@ import fc from 'fast-check'
 import { describe, expect, it } from 'vitest'
 import { evaluateCycle } from '../../../../shared/cycle/engine'
 import { forecastCycle } from '../../../../shared/cycle/forecast'
-import { historyAsOf, prepareHistory, withReadingAdded, type PreparedHistory } from '../../../../shared/cycle/history'
+import { historyAsOf, prepareHistory, withLaterAppended, withReadingAdded, type PreparedHistory } from '../../../../shared/cycle/history'
 import { RULE_OPTIONS_2 } from '../../../../shared/cycle/options'
 import { latestValues } from '../../../../shared/cycle/snapshot'
 import type { CycleEvent, CycleInput, CycleReading, Thresholds } from '../../../../shared/cycle/types'
@@ -129,5 +129,52 @@ describe('the kept history gives the full evaluation', { timeout: 2 * LIMIT_MS }
     // The same time and id as a test already kept: only the input's order could tell them apart.
     const twin: CycleReading = { id: 'a', takenAt: at(1, 8), ammoniaN: 0 }
     expect(withReadingAdded(prepared, twin, [...readings, twin])).toBeUndefined()
+  })
+})
+
+/** Tests and doses after `now`, as the forecast assumes them: some at one instant, some with a value missing. */
+const laterArb = fc.record({
+  readings: fc.array(fc.record({ hours: fc.integer({ min: 0, max: 400 }), ammoniaN: fc.option(fc.double({ min: 0, max: 4, noNaN: true }), { nil: undefined }), nitriteN: fc.option(fc.constantFrom(0, 0.1, 2), { nil: undefined }), nitrateN: fc.option(fc.constantFrom(2, 10), { nil: undefined }) }), { maxLength: 12 }),
+  doses: fc.array(fc.integer({ min: 0, max: 400 }), { maxLength: 6 }),
+})
+
+/** The history without its source arrays: what the engine reads of it. */
+const content = ({ source: _source, ...rest }: PreparedHistory) => rest
+
+describe('the kept history continued by an assumed future (the forecast\'s projections)', { timeout: 2 * LIMIT_MS }, () => {
+  it('is the history prepared from the past and the future together', () => {
+    fc.assert(fc.property(caseArb, laterArb, (c, later) => {
+      const base = c.log.input
+      const now = new Date(Date.parse(base.now) + c.nowShiftHours * HOUR_MS).toISOString()
+      const nowMs = Date.parse(now)
+      const all = withOdd(base.readings, c.odd, now)
+      // A value the engine drops, on a test after now: the past leaves it out.
+      if (c.odd.repaired && c.odd.future) all.push({ id: 'odd-future-value', takenAt: new Date(nowMs + 3 * HOUR_MS).toISOString(), ammoniaN: -1, nitrateN: 4 })
+      const prepared = prepareHistory(all, base.events ?? [])
+      // The past as the forecast keeps it: nothing after now (a time that does not parse stays).
+      const past = (iso: string) => !(Date.parse(iso) > nowMs)
+      const pastReadings = all.filter(r => past(r.takenAt))
+      const pastEvents = (base.events ?? []).filter(e => past(e.at))
+      // One millisecond after now at the earliest: the assumed future starts after it.
+      const laterReadings: CycleReading[] = later.readings.map((r, i) => ({ id: `later-${i}`, takenAt: new Date(nowMs + 1 + r.hours * HOUR_MS).toISOString(), ammoniaN: r.ammoniaN, nitriteN: r.nitriteN, nitrateN: r.nitrateN }))
+      const laterEvents: CycleEvent[] = later.doses.map((h, i) => ({ id: `later-dose-${i}`, at: new Date(nowMs + 1 + h * HOUR_MS).toISOString(), kind: 'ammonia-dose', amount: 2 }))
+      const source = { readings: [...pastReadings, ...laterReadings], events: [...pastEvents, ...laterEvents] }
+      const continued = withLaterAppended(prepared, nowMs, { readings: laterReadings, events: laterEvents }, source)
+      expect(continued).toBeDefined()
+      expect(continued!.source).toEqual(source)
+      expect(content(continued!)).toEqual(content(prepareHistory(source.readings, source.events)))
+    }), { ...RUNS, numRuns: 300, interruptAfterTimeLimit: LIMIT_MS })
+  })
+
+  it('refuses a future that is not after now', () => {
+    const readings: CycleReading[] = [{ id: 'a', takenAt: at(1, 8), ammoniaN: 1 }]
+    const prepared = prepareHistory(readings, [])
+    const nowMs = Date.parse(at(2, 8))
+    const atNow: CycleReading = { id: 'b', takenAt: at(2, 8), ammoniaN: 0 }
+    expect(withLaterAppended(prepared, nowMs, { readings: [atNow], events: [] }, { readings: [...readings, atNow], events: [] })).toBeUndefined()
+    const unreadable: CycleEvent = { id: 'e', at: 'tomorrow', kind: 'ammonia-dose', amount: 2 }
+    expect(withLaterAppended(prepared, nowMs, { readings: [], events: [unreadable] }, { readings, events: [unreadable] })).toBeUndefined()
+    const after: CycleReading = { id: 'c', takenAt: at(3, 8), ammoniaN: 0 }
+    expect(withLaterAppended(prepared, nowMs, { readings: [after], events: [] }, { readings: [...readings, after], events: [] })?.readings.map(r => r.id)).toEqual(['a', 'c'])
   })
 })
