@@ -15,7 +15,7 @@ export default defineNitroPlugin((nitroApp) => {
     try {
       if (clocked) {
         const now = new Date()
-        runClockedJobs(now)
+        await runClockedJobs(now)
         await removeExpiredPendingPhotos(now)
       }
       await deliverDueMail()

@@ -34,8 +34,8 @@ export function resolveAlert(actor: Actor, alertId: string, note: string, now = 
 }
 
 /** The clocked jobs at `now`: verdicts made again where time alone may have changed them, then escalations, test reminders and weekly digests, then database housekeeping. */
-export function runClockedJobs(now: Date) {
-  const verdicts = refreshStaleVerdicts(now)
+export async function runClockedJobs(now: Date) {
+  const verdicts = await refreshStaleVerdicts(now)
   const db = useDB()
   const escalation = escalateDueAlerts(db, now, publicBaseUrl())
   const reminders = runTestReminders(db, now, publicBaseUrl())

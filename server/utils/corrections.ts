@@ -28,7 +28,7 @@ function alreadyCorrected(kind: 'reading' | 'event', correctionId: string): neve
 }
 
 /** Adds a correction of a reading of the tank; 404 if the reading is not the tank's. */
-export function correctReading(actor: Actor, tankId: string, readingId: string, input: ReadingCorrectionInput, now = new Date()) {
+export async function correctReading(actor: Actor, tankId: string, readingId: string, input: ReadingCorrectionInput, now = new Date()) {
   const db = useDB()
   const original = db.select().from(readings).where(and(eq(readings.id, readingId), eq(readings.tankId, tankId))).get()
   if (!original) throw createError({ statusCode: 404, statusMessage: 'Test not found' })
@@ -55,12 +55,12 @@ export function correctReading(actor: Actor, tankId: string, readingId: string, 
     writeAudit(actor, { action: 'reading.correct', entity: 'reading', entityId: inserted.id, before: { readingId: original.id, ...changed }, after: { correctsId: original.id, reason: input.reason, ...Object.fromEntries(Object.keys(changed).map(k => [k, inserted[k as keyof typeof inserted]])) } })
     return inserted
   })
-  onTankDataChanged(tankId, { readingId: row.id, actor })
+  await onTankDataChanged(tankId, { readingId: row.id, actor })
   return row
 }
 
 /** Adds a correction of an event of the tank; 404 if the event is not the tank's. */
-export function correctEvent(actor: Actor, tankId: string, eventId: string, input: EventCorrectionInput, now = new Date()) {
+export async function correctEvent(actor: Actor, tankId: string, eventId: string, input: EventCorrectionInput, now = new Date()) {
   const db = useDB()
   const original = db.select().from(events).where(and(eq(events.id, eventId), eq(events.tankId, tankId))).get()
   if (!original) throw createError({ statusCode: 404, statusMessage: 'Event not found' })
@@ -92,7 +92,7 @@ export function correctEvent(actor: Actor, tankId: string, eventId: string, inpu
     writeAudit(actor, { action: 'event.correct', entity: 'event', entityId: inserted.id, before: { eventId: original.id, amount: original.amount, group: original.group, notes: original.notes }, after: { correctsId: original.id, reason: input.reason, amount: inserted.amount, group: inserted.group, notes: inserted.notes } })
     return inserted
   })
-  onTankDataChanged(tankId, { actor })
+  await onTankDataChanged(tankId, { actor })
   return row
 }
 
@@ -104,7 +104,7 @@ function firstLivestock(livestock: NonNullable<StartStockingInput['livestock']>,
 }
 
 /** Moves a signed-off tank to stocking, recording the first livestock when given. */
-export function startStocking(actor: Actor, tank: typeof tanks.$inferSelect, input: StartStockingInput, now = new Date()) {
+export async function startStocking(actor: Actor, tank: typeof tanks.$inferSelect, input: StartStockingInput, now = new Date()) {
   if (!canManageTank(actor, tank)) throw createError({ statusCode: 403, statusMessage: 'Only the company\'s aquarists and admins may start stocking' })
   if (tank.status !== 'signed-off') throw createError({ statusCode: 409, statusMessage: tank.status === 'stocking' ? 'Stocking has already started' : 'Stocking starts after the sign-off' })
   const db = useDB()
@@ -118,6 +118,6 @@ export function startStocking(actor: Actor, tank: typeof tanks.$inferSelect, inp
     writeAudit(actor, { action: 'tank.start-stocking', entity: 'tank', entityId: tank.id, before: { status: tank.status }, after: { status: 'stocking', livestockEventId: livestock?.id ?? null, group: livestock?.group ?? null } })
     return livestock?.id ?? null
   })
-  onTankDataChanged(tank.id, { actor, now })
+  await onTankDataChanged(tank.id, { actor, now })
   return { status: 'stocking' as const, eventId }
 }

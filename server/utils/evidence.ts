@@ -17,7 +17,7 @@ import { getTankView } from './tank-views'
 
 /** The whole cycle of one tank (a page of its readings and events), or undefined when the actor may not see it. */
 export async function tankEvidence(actor: Actor, tankId: string, now = new Date(), page = 1): Promise<Evidence | undefined> {
-  const tank = getTankView(actor, tankId)
+  const tank = await getTankView(actor, tankId)
   if (!tank) return undefined
   const db = useDB()
   const names = userNames(actor.organisationId)

@@ -13,7 +13,7 @@ const running = new Set<string>()
 export function reevaluateCompanyInBatches(organisationId: string): void {
   if (running.has(organisationId)) return
   running.add(organisationId)
-  const step = () => {
+  const step = async () => {
     try {
       const batch = staleCompanyTanks(useDB(), organisationId)
       if (!batch.length) {
@@ -21,7 +21,7 @@ export function reevaluateCompanyInBatches(organisationId: string): void {
         return
       }
       const now = new Date()
-      for (const tankId of batch) onTankDataChanged(tankId, { now })
+      for (const tankId of batch) await onTankDataChanged(tankId, { now })
       setTimeout(step, 0)
     }
     catch (error) {

@@ -1,4 +1,5 @@
 import type { Verdict } from '#shared/cycle/types'
+import { hasLongHistory } from '#server/domain/tanks/long-history'
 import { noteTankDataChanged, refreshVerdictOffLoop } from '#server/domain/tanks/verdict-off-loop'
 import type { Actor } from './access'
 
@@ -12,24 +13,21 @@ export interface TankChange {
 /**
  * The one place that reacts to a change in a tank's readings, events or profile: the
  * verdict is re-evaluated and stored, then everything that follows from a verdict
- * (alerts, notifications) runs from here. Routes call this after their write.
+ * (alerts, notifications) runs from here. Routes call this after their write, and answer
+ * once it is done, so the answer carries the verdict that includes the change.
+ *
+ * A tank with a long history (server/domain/tanks/long-history.ts: an imported log of years)
+ * is evaluated in the heavy-work pool, so the request loop every company is served from
+ * stays free meanwhile; a write that lands during it refreshes the verdict itself and makes
+ * this evaluation run again, so the stored verdict is never older than the data
+ * (server/domain/tanks/verdict-off-loop.ts). Every other tank is evaluated here, at once.
  */
-export function onTankDataChanged(tankId: string, change: TankChange = {}): Verdict | undefined {
+export async function onTankDataChanged(tankId: string, change: TankChange = {}): Promise<Verdict | undefined> {
   noteTankDataChanged(tankId)
-  const verdict = refreshVerdict(tankId, change.now)
-  followVerdict(tankId, verdict, change)
-  return verdict
-}
-
-/**
- * The same reaction with the engine run in the heavy-work pool, for a change over a long
- * history (a CSV import): the request loop stays free while it evaluates. A write that lands
- * meanwhile refreshes the verdict itself and makes this evaluation run again, so the stored
- * verdict is never older than the data (server/domain/tanks/verdict-off-loop.ts).
- */
-export async function onTankDataChangedOffLoop(tankId: string, change: Omit<TankChange, 'now'> = {}): Promise<Verdict | undefined> {
-  noteTankDataChanged(tankId)
-  const verdict = await refreshVerdictOffLoop(useDB(), tankId, evaluateOffLoop)
+  const db = useDB()
+  const verdict = hasLongHistory(db, tankId)
+    ? await refreshVerdictOffLoop(db, tankId, evaluateOffLoop, () => change.now ?? new Date())
+    : refreshVerdict(tankId, change.now)
   followVerdict(tankId, verdict, change)
   return verdict
 }

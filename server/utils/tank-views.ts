@@ -126,7 +126,7 @@ function listStatementsFor(shape: ListShape): ReturnType<typeof prepareList> {
 }
 
 /** One page of the tanks the actor may see, filtered and sorted on the server, phases as of `now`. */
-export function listTanks(actor: Actor, query: TankListQuery, now = new Date()): TankList {
+export async function listTanks(actor: Actor, query: TankListQuery, now = new Date()): Promise<TankList> {
   const statements = listStatementsFor({
     client: actor.role === 'client',
     status: Boolean(query.status),
@@ -146,7 +146,7 @@ export function listTanks(actor: Actor, query: TankListQuery, now = new Date()):
   const page = () => statements.page.all({ ...values, limit: query.pageSize, offset: (query.page - 1) * query.pageSize })
   let rows = page()
   // A phase time alone has changed is made again before the page is shown.
-  if (refreshStaleVerdicts(now, rows.map(r => r.tank.id)) > 0) rows = page()
+  if (await refreshStaleVerdicts(now, rows.map(r => r.tank.id)) > 0) rows = page()
   // One row per tank, the forecast kept with its verdict: never the tanks' histories.
   const forecasts = storedForecasts(useDB(), rows.map(r => r.tank.id))
   const total = statements.count.get(values)?.n ?? 0
@@ -161,12 +161,12 @@ const tankViewStatements = preparedPerDb(() => ({
 }))
 
 /** The full view of one tank (its phase as of `now`), or undefined when the actor may not see it. */
-export function getTankView(actor: Actor, tankId: string, now = new Date()): TankView | undefined {
+export async function getTankView(actor: Actor, tankId: string, now = new Date()): Promise<TankView | undefined> {
   const statements = tankViewStatements(useDB())
   const one = () => preparedFor(actor, statements).get({ tankId, ...visibleTankValues(actor) })
   let row = one()
   if (!row) return undefined
-  if (refreshStaleVerdicts(now, [tankId]) > 0) row = one() ?? row
+  if (await refreshStaleVerdicts(now, [tankId]) > 0) row = one() ?? row
   const t = row.tank
   return {
     ...toSummary(row),

@@ -2,11 +2,22 @@ import { eq, sql } from 'drizzle-orm'
 import type { Verdict } from '#shared/cycle/types'
 import { tankVerdicts } from '#server/db/schema'
 import { preparedPerDb } from '#server/db/prepared'
-import { computeAndStoreVerdict, tanksWithStaleVerdicts } from '#server/db/verdicts'
+import { computeAndStoreVerdict, evaluateTankNow, tanksWithStaleVerdicts, type TankEvaluation } from '#server/db/verdicts'
+import { hasLongHistory } from '#server/domain/tanks/long-history'
 
 const MINUTE_MS = 60_000
 /** Time alone changes verdicts (a missed test, a coral date reached): none is kept longer than an hour. */
 const LONGEST_MS = 60 * MINUTE_MS
+
+/**
+ * The tank's verdict and forecast as of `now`, not stored: in the heavy-work pool for a tank with
+ * a long history (`hasLongHistory`), so reading it never holds the request loop; undefined when
+ * there is no such tank.
+ */
+export async function tankEvaluationNow(tankId: string, now = new Date()): Promise<TankEvaluation | undefined> {
+  const db = useDB()
+  return hasLongHistory(db, tankId) ? (await evaluateOffLoop(tankId, now)) ?? undefined : evaluateTankNow(db, tankId, now)
+}
 
 /** Re-evaluates a tank after any change to its readings, events or profile, and stores the verdict. */
 export function refreshVerdict(tankId: string, now = new Date()): Verdict | undefined {
@@ -27,9 +38,9 @@ export function verdictIntervalMs(): number {
  * interval (among `tankIds` when given, otherwise for every tank not archived), opening and
  * resolving alerts exactly as a new reading would. Returns how many were made again.
  */
-export function refreshStaleVerdicts(now: Date, tankIds?: readonly string[]): number {
+export async function refreshStaleVerdicts(now: Date, tankIds?: readonly string[]): Promise<number> {
   const stale = tanksWithStaleVerdicts(useDB(), now, verdictIntervalMs(), tankIds)
-  for (const tankId of stale) onTankDataChanged(tankId, { now })
+  for (const tankId of stale) await onTankDataChanged(tankId, { now })
   return stale.length
 }
 
@@ -39,7 +50,7 @@ const storedVerdict = preparedPerDb(db => db.select({ tankId: tankVerdicts.tankI
   .from(tankVerdicts).where(eq(tankVerdicts.tankId, sql.placeholder('tankId'))).prepare())
 
 /** The tank's stored verdict row as of `now`: made again first when it is missing or stale. */
-export function currentVerdictRow(tankId: string, now = new Date()) {
-  refreshStaleVerdicts(now, [tankId])
+export async function currentVerdictRow(tankId: string, now = new Date()) {
+  await refreshStaleVerdicts(now, [tankId])
   return storedVerdict(useDB()).get({ tankId })
 }

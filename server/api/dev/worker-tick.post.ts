@@ -13,7 +13,7 @@ export default defineEventHandler(async (event) => {
   requireSwitch(useRuntimeConfig().testHooks)
   const { now } = await readValidatedBody(event, valid(TickSchema))
   const at = now ? new Date(now) : new Date()
-  const jobs = runClockedJobs(at)
+  const jobs = await runClockedJobs(at)
   const photosRemoved = await removeExpiredPendingPhotos(at)
   const mail = await deliverDueMail(new Date(Math.max(at.getTime(), Date.now())))
   return { ...jobs, photosRemoved, ...mail }

@@ -4,7 +4,7 @@ import { IdParams } from '#shared/schemas/common'
 export default defineEventHandler(async (event) => {
   const actor = await requireActor(event)
   const { id } = await getValidatedRouterParams(event, valid(IdParams))
-  const tank = getTankView(actor, id, requestNow(event))
+  const tank = await getTankView(actor, id, requestNow(event))
   if (!tank) throw createError({ statusCode: 404, statusMessage: 'Tank not found' })
   return tank
 })

@@ -29,7 +29,7 @@ export default defineEventHandler(async (event) => {
     changes.dimensions = computed.dimensions
     changes.volumeLitres = computed.volumeLitres
   }
-  if (!Object.keys(changes).length) return getTankView(actor, id)
+  if (!Object.keys(changes).length) return await getTankView(actor, id)
   // What a signed-off tank's certificate prints changes only by reopening or an amendment with a reason.
   const signed = currentApprovedSignOff(id)
   const signedChanges = signed ? signedFieldChanges(before, changes) : []
@@ -46,6 +46,6 @@ export default defineEventHandler(async (event) => {
     }
     writeAudit(actor, { action: 'tank.update', entity: 'tank', entityId: id, before, after: updated })
   })
-  onTankDataChanged(id, { actor })
-  return getTankView(actor, id)
+  await onTankDataChanged(id, { actor })
+  return await getTankView(actor, id)
 })

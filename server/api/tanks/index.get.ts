@@ -4,5 +4,5 @@ import { TankListQuerySchema } from '#shared/schemas/tank-list'
 export default defineEventHandler(async (event) => {
   const actor = await requireActor(event)
   const query = await getValidatedQuery(event, valid(TankListQuerySchema))
-  return listTanks(actor, query, requestNow(event))
+  return await listTanks(actor, query, requestNow(event))
 })

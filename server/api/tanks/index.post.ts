@@ -28,7 +28,7 @@ export default defineEventHandler(async (event) => {
     writeAudit(actor, { action: 'tank.create', entity: 'tank', entityId: row.id, after: row })
     return row
   })
-  onTankDataChanged(tank.id, { actor })
+  await onTankDataChanged(tank.id, { actor })
   setResponseStatus(event, 201)
-  return getTankView(actor, tank.id)
+  return await getTankView(actor, tank.id)
 })

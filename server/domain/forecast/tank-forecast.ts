@@ -3,19 +3,17 @@
  * gets (current tests and events, corrections applied, the company's thresholds).
  * Framework-free: routes, the tank list, the attention board and the weekly digest share it.
  */
-import { forecastCycle } from '#shared/cycle/forecast'
 import type { CycleForecast } from '#shared/cycle/forecast'
 import type { Db } from '#server/db/connection'
-import { cycleInputFor } from '#server/db/verdicts'
+import { evaluateTankNow } from '#server/db/verdicts'
 import type { TankStatus } from '#shared/vocabulary'
 
 /** Tank statuses in which a cycle forecast means something to the reader. */
 export const FORECAST_STATUSES: ReadonlySet<TankStatus> = new Set<TankStatus>(['cycling', 'cycled'])
 
-/** The forecast for `tankId` at `now`, or undefined when there is no such tank. */
+/** The forecast for `tankId` at `now` (from the tank's kept history, as the verdict is made), or undefined when there is no such tank. */
 export function forecastTank(db: Db, tankId: string, now: Date): CycleForecast | undefined {
-  const input = cycleInputFor(db, tankId, now)
-  return input ? forecastCycle(input) : undefined
+  return evaluateTankNow(db, tankId, now)?.forecast
 }
 
 /**

@@ -26,7 +26,7 @@ function legacyFacts(actor: Actor, tank: TankView, decidedBy: string | null): Si
 export default defineEventHandler(async (event) => {
   const actor = await requireActor(event)
   const { id } = await getValidatedRouterParams(event, valid(IdParams))
-  const tank = getTankView(actor, id)
+  const tank = await getTankView(actor, id)
   if (!tank) throw createError({ statusCode: 404, statusMessage: 'Tank not found' })
   const signOff = currentApprovedSignOff(id)
   if (!signOff?.decidedAt || !signOff.snapshot || !signOff.verificationCode) throw createError({ statusCode: 404, statusMessage: 'This tank has no current sign-off' })

@@ -25,7 +25,7 @@ export default defineEventHandler(async (event): Promise<ChartData> => {
   // Current rows only: a corrected value is drawn once, as corrected.
   const rows = tankReadings(db, tank.id, { range: query })
   const eventRows = tankEvents(db, tank.id, { range: query })
-  const stored = currentVerdictRow(tank.id, requestNow(event))
+  const stored = await currentVerdictRow(tank.id, requestNow(event))
   const limits = resolveThresholds(readOrganisationSettings(db, tank.organisationId).thresholds)
   // Three significant decimals are far finer than any kit reads and keep the payload small.
   const r3 = (x: number | null) => (x === null ? null : Math.round(x * 1000) / 1000)

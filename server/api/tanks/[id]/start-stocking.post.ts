@@ -15,5 +15,5 @@ export default defineEventHandler(async (event) => {
   requireVisibleTank(actor, id)
   const input = await readValidatedBody(event, valid(StartStockingSchema))
   const tank = requireVisibleTank(actor, id)
-  return startStocking(actor, tank, input, requestNow(event))
+  return await startStocking(actor, tank, input, requestNow(event))
 })

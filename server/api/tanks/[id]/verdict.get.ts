@@ -21,7 +21,7 @@ export default defineEventHandler(async (event): Promise<VerdictView> => {
   const tank = requireVisibleTank(actor, id)
   const db = useDB()
   // The verdict is as of now: a stored one older than the verdict interval is made again first.
-  const stored = currentVerdictRow(tank.id, requestNow(event))
+  const stored = await currentVerdictRow(tank.id, requestNow(event))
   if (!stored) throw createError({ statusCode: 404, statusMessage: 'Tank not found' })
   const verdict = stored.verdict
   const ruleIds = new Set(verdict.findings.map(f => f.ruleId))

@@ -14,7 +14,7 @@ export default defineEventHandler(async (event) => {
     db.delete(events).where(eq(events.id, existing.id)).run()
     writeAudit(actor, { action: 'event.delete', entity: 'event', entityId: existing.id, before: existing })
   })
-  onTankDataChanged(tank.id, { actor })
+  await onTankDataChanged(tank.id, { actor })
   setResponseStatus(event, 204)
   return null
 })

@@ -27,6 +27,6 @@ export default defineEventHandler(async (event): Promise<EventView> => {
     writeAudit(actor, { action: 'event.update', entity: 'event', entityId: existing.id, before: existing, after: updated })
     return updated
   })
-  onTankDataChanged(tank.id, { actor })
+  await onTankDataChanged(tank.id, { actor })
   return toEventView(row, userName(row.enteredBy ?? ''), actor, tank)
 })

@@ -24,7 +24,7 @@ export default defineEventHandler(async (event): Promise<EventView> => {
     writeAudit(actor, { action: 'event.create', entity: 'event', entityId: inserted.id, after: inserted })
     return inserted
   })
-  onTankDataChanged(tank.id, { actor })
+  await onTankDataChanged(tank.id, { actor })
   setResponseStatus(event, 201)
   return toEventView(row, actor.name, actor, tank)
 })

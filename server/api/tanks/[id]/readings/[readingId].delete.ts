@@ -14,7 +14,7 @@ export default defineEventHandler(async (event) => {
     db.delete(readings).where(eq(readings.id, existing.id)).run()
     writeAudit(actor, { action: 'reading.delete', entity: 'reading', entityId: existing.id, before: existing })
   })
-  onTankDataChanged(tank.id, { actor })
+  await onTankDataChanged(tank.id, { actor })
   setResponseStatus(event, 204)
   return null
 })

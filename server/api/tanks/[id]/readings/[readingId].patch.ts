@@ -32,6 +32,6 @@ export default defineEventHandler(async (event): Promise<ReadingSaved> => {
     writeAudit(actor, { action: 'reading.update', entity: 'reading', entityId: existing.id, before: existing, after: updated })
     return updated
   })
-  const verdict = onTankDataChanged(tank.id, { readingId: row.id, actor })
+  const verdict = await onTankDataChanged(tank.id, { readingId: row.id, actor })
   return { reading: toReadingView(row, userName(row.enteredBy ?? ''), actor, tank), flags: result.reading.flags, ...verdictOnSave(verdict) }
 })

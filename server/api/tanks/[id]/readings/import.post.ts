@@ -42,6 +42,6 @@ export default defineEventHandler(async (event): Promise<ImportPreview> => {
   if (!input.dryRun) setResponseHeader(event, 'Server-Timing', `import-write-lock;dur=${result.lockHeldMs.toFixed(1)}`)
   // One verdict refresh for the whole file, awaited so the answer comes once the verdict and its
   // alerts match the file; the engine runs in the pool, so a long history holds up no other request.
-  if (preview.inserted > 0) await onTankDataChangedOffLoop(tank.id, { actor })
+  if (preview.inserted > 0) await onTankDataChanged(tank.id, { actor })
   return preview
 })

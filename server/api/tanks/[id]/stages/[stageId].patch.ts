@@ -35,6 +35,6 @@ export default defineEventHandler(async (event) => {
       : undefined
     return { tankAfter }
   })
-  if (tankAfter) onTankDataChanged(tank.id, { actor, now })
+  if (tankAfter) await onTankDataChanged(tank.id, { actor, now })
   return planView(actor, tankAfter ?? tank)
 })

@@ -12,7 +12,7 @@ export default defineEventHandler(async (event) => {
   const tank = requireVisibleTank(actor, id)
   requireEvent(tank.id, eventId)
   const input = await readValidatedBody(event, valid(EventCorrectionSchema))
-  const row = correctEvent(actor, tank.id, eventId, input, requestNow(event))
+  const row = await correctEvent(actor, tank.id, eventId, input, requestNow(event))
   setResponseStatus(event, 201)
   return row
 })

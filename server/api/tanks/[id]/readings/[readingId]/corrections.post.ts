@@ -13,7 +13,7 @@ export default defineEventHandler(async (event) => {
   const tank = requireVisibleTank(actor, id)
   requireReading(tank.id, readingId)
   const input = await readValidatedBody(event, valid(ReadingCorrectionSchema))
-  const row = correctReading(actor, tank.id, readingId, input, requestNow(event))
+  const row = await correctReading(actor, tank.id, readingId, input, requestNow(event))
   setResponseStatus(event, 201)
   return row
 })

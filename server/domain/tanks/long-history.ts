@@ -1,0 +1,24 @@
+/**
+ * Whether a tank's history is long enough that its verdict is made in the heavy-work pool
+ * rather than on the request loop every company is served from. Reading a tank's tests back
+ * and running the engine over them costs about 5 µs a test: nothing for a year of a client's
+ * daily tests, half a second for an imported log of 100,000, during which every other request
+ * would wait. Framework-free: takes a `Db`.
+ */
+import { count, eq, sql } from 'drizzle-orm'
+import type { Db } from '../../db/connection'
+import { preparedPerDb } from '../../db/prepared'
+import { readings } from '../../db/schema'
+
+/**
+ * Above this many stored tests (corrections included) a tank's verdict leaves the request loop:
+ * a client testing three times a day takes four years to reach it; only an imported log does.
+ */
+export const LONG_HISTORY_TESTS = 5_000
+
+/** The tank's stored tests counted from the index on (tank, taken), prepared once: no row is read. */
+const storedTests = preparedPerDb(db => db.select({ n: count() }).from(readings).where(eq(readings.tankId, sql.placeholder('tankId'))).prepare())
+
+export function hasLongHistory(db: Db, tankId: string): boolean {
+  return (storedTests(db).get({ tankId })?.n ?? 0) > LONG_HISTORY_TESTS
+}
