@@ -15,6 +15,7 @@ import { dirname, join, resolve } from 'node:path'
 import { fileURLToPath } from 'node:url'
 import { Piscina } from 'piscina'
 import type { TankEvaluation } from '#server/db/verdicts'
+import type { AppendedTest } from '#server/domain/readings/engine-input-cache'
 import type { CertificateFacts } from './certificate'
 import type { CertificateTask } from '#server/workers/certificate'
 import type { ReadingImportResult, ReadingImportTask } from '#server/workers/reading-import'
@@ -59,9 +60,12 @@ export function runReadingImport(task: Omit<ReadingImportTask, 'dbPath'>): Promi
   return heavyPool().run({ ...task, dbPath: dbPath() } satisfies ReadingImportTask, { name: 'readingImport' })
 }
 
-/** The engine's verdict and forecast for the tank as its data stands now, computed in the pool; null when there is no such tank. */
-export function evaluateOffLoop(tankId: string, now: Date): Promise<TankEvaluation | null> {
-  return heavyPool().run({ tankId, nowMs: now.getTime(), dbPath: dbPath() } satisfies TankVerdictTask, { name: 'tankVerdict' })
+/**
+ * The engine's verdict and forecast for the tank as its data stands now, computed in the pool; null
+ * when there is no such tank. `appended`: the test just saved, which the pool's kept copy takes in place.
+ */
+export function evaluateOffLoop(tankId: string, now: Date, appended?: AppendedTest): Promise<TankEvaluation | null> {
+  return heavyPool().run({ tankId, nowMs: now.getTime(), dbPath: dbPath(), appended } satisfies TankVerdictTask, { name: 'tankVerdict' })
 }
 
 /** The sign-off certificate's PDF bytes, rendered in the pool. */

@@ -1,4 +1,5 @@
 import type { Verdict } from '#shared/cycle/types'
+import type { AppendedTest } from '#server/domain/readings/engine-input-cache'
 import { hasLongHistory } from '#server/domain/tanks/long-history'
 import { noteTankDataChanged, refreshVerdictOffLoop } from '#server/domain/tanks/verdict-off-loop'
 import type { Actor } from './access'
@@ -8,6 +9,8 @@ export interface TankChange {
   readingId?: string
   actor?: Actor
   now?: Date
+  /** A test just saved (not a correction): a tank evaluated in the pool places it into the pool's kept history. */
+  appended?: AppendedTest
 }
 
 /**
@@ -26,7 +29,7 @@ export async function onTankDataChanged(tankId: string, change: TankChange = {})
   noteTankDataChanged(tankId)
   const db = useDB()
   const verdict = hasLongHistory(db, tankId)
-    ? await refreshVerdictOffLoop(db, tankId, evaluateOffLoop, () => change.now ?? new Date())
+    ? await refreshVerdictOffLoop(db, tankId, evaluateOffLoop, () => change.now ?? new Date(), change.appended)
     : refreshVerdict(tankId, change.now)
   followVerdict(tankId, verdict, change)
   return verdict

@@ -5,15 +5,20 @@
  * Calls the same framework-free piece the server does (evaluateTankNow).
  */
 import { evaluateTankNow, type TankEvaluation } from '#server/db/verdicts'
+import { noteTestAppended, type AppendedTest } from '#server/domain/readings/engine-input-cache'
 import { workerConnection } from './connection'
 
 export interface TankVerdictTask {
   dbPath: string
   tankId: string
   nowMs: number
+  /** A test just saved on the request loop's connection: placed into this thread's kept copy instead of reading the history again. */
+  appended?: AppendedTest
 }
 
 /** The verdict and its forecast, or null when there is no such tank. */
 export function tankVerdict(task: TankVerdictTask): TankEvaluation | null {
-  return evaluateTankNow(workerConnection(task.dbPath), task.tankId, new Date(task.nowMs)) ?? null
+  const db = workerConnection(task.dbPath)
+  if (task.appended) noteTestAppended(db, task.tankId, task.appended.row, task.appended.revisionAfter)
+  return evaluateTankNow(db, task.tankId, new Date(task.nowMs)) ?? null
 }

@@ -112,12 +112,20 @@ export function engineRows(db: Db, tankId: string): EngineRows {
 
 type ReadingRow = typeof readings.$inferSelect
 
+/** A new test as `noteTestAppended` takes it: the row inserted and the tank's count read right after the insert, in its transaction. */
+export interface AppendedTest {
+  row: ReadingRow
+  revisionAfter: number
+}
+
 /**
  * After a new test (not a correction) was inserted and committed on this handle: `revisionAfter`
  * is the tank's count read in the same transaction right after the insert. When the kept copy
  * is the one just before it, the test is placed into a new copy where the database's order
  * (taken, then entered, then row order) puts it; when that order is not certain from the copy
  * (another row taken and entered at the same instants) or the copy is older, the copy is dropped.
+ * Any handle may be told (the heavy-work pool's, for a tank evaluated there): the count says
+ * whether its copy is the one just before the test.
  */
 export function noteTestAppended(db: Db, tankId: string, row: ReadingRow, revisionAfter: number): void {
   const byTank = copies(db)

@@ -14,6 +14,7 @@
 import type { Verdict } from '#shared/cycle/types'
 import type { Db } from '#server/db/connection'
 import { storeVerdict, type TankEvaluation } from '#server/db/verdicts'
+import type { AppendedTest } from '#server/domain/readings/engine-input-cache'
 
 /** How many times an evaluation overtaken by newer writes is run again before this refresh gives way to theirs. */
 const MAX_ATTEMPTS = 3
@@ -31,18 +32,20 @@ export function tankDataRevision(tankId: string): number {
 }
 
 /** The engine's verdict and forecast as of `now`, computed elsewhere (the heavy-work pool); null when there is no such tank. */
-export type EvaluateElsewhere = (tankId: string, now: Date) => Promise<TankEvaluation | null>
+export type EvaluateElsewhere = (tankId: string, now: Date, appended?: AppendedTest) => Promise<TankEvaluation | null>
 
 /**
- * Evaluates the tank with `evaluate` and stores the verdict if no change was noted while it
- * ran; otherwise runs it again. Returns the stored verdict, or undefined when there is no such
- * tank or every attempt was overtaken (the writes that overtook it refresh the verdict themselves).
+ * Evaluates the tank with `evaluate` (told of `appended`, the test just saved, if any) and
+ * stores the verdict if no change was noted while it ran; otherwise runs it again. Returns the
+ * stored verdict, or undefined when there is no such tank or every attempt was overtaken (the
+ * writes that overtook it refresh the verdict themselves).
  */
-export async function refreshVerdictOffLoop(db: Db, tankId: string, evaluate: EvaluateElsewhere, clock: () => Date = () => new Date()): Promise<Verdict | undefined> {
+export async function refreshVerdictOffLoop(db: Db, tankId: string, evaluate: EvaluateElsewhere, clock: () => Date = () => new Date(), appended?: AppendedTest): Promise<Verdict | undefined> {
   for (let attempt = 0; attempt < MAX_ATTEMPTS; attempt++) {
     const revision = tankDataRevision(tankId)
     const now = clock()
-    const evaluation = await evaluate(tankId, now)
+    // The saved test is handed over once: a later attempt follows other changes, and reads them.
+    const evaluation = await evaluate(tankId, now, attempt === 0 ? appended : undefined)
     if (!evaluation) return undefined
     // Compared and stored in one synchronous step: no other write on this loop can come between.
     if (tankDataRevision(tankId) !== revision) continue

@@ -40,7 +40,7 @@ export default defineEventHandler(async (event): Promise<ReadingSaved> => {
     return { row: inserted, revisionAfterInsert }
   })
   noteTestAppended(db, tank.id, row, revisionAfterInsert)
-  const verdict = await onTankDataChanged(tank.id, { readingId: row.id, actor })
+  const verdict = await onTankDataChanged(tank.id, { readingId: row.id, actor, appended: { row, revisionAfter: revisionAfterInsert } })
   setResponseStatus(event, 201)
   return { reading: toReadingView(row, actor.name, actor, tank), flags: result.reading.flags, ...verdictOnSave(verdict) }
 })

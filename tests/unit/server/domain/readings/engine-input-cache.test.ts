@@ -81,6 +81,8 @@ function saveLikeTheRoute(tankId: string, t: TestRow, rollBack: boolean): void {
       return { row, revisionAfterInsert }
     })
     noteTestAppended(db, tankId, row, revisionAfterInsert)
+    // The heavy-work pool's handle is told too (a tank with a long history is evaluated there), with the row as a thread receives it.
+    noteTestAppended(other, tankId, structuredClone(row), revisionAfterInsert)
   }
   catch (error) {
     if (!rollBack) throw error
@@ -125,9 +127,11 @@ describe('the engine input kept between refreshes', () => {
     const tankId = demo.tanks.lobby
     const organisationId = db.select({ id: organisations.id }).from(organisations).get()!.id
     let appendedInPlace = 0
+    let appendedInPool = 0
     fc.assert(fc.property(fc.array(step, { minLength: 1, maxLength: 25 }), (steps) => {
       for (const s of steps) {
         const before = engineRows(db, tankId)
+        const poolBefore = engineRows(other, tankId)
         apply(tankId, s, organisationId)
         const kept = cycleInputFor(db, tankId, now)!
         const full = readEngineRows(db, tankId, tankDataRevisionInDb(db, tankId))
@@ -136,10 +140,15 @@ describe('the engine input kept between refreshes', () => {
         expect(kept.readings).toEqual(full.readings)
         expect(kept.events).toEqual(full.events)
         expect(evaluateTank(kept)).toEqual(evaluateTank({ ...kept, readings: [...full.readings], events: [...full.events] }))
+        const pool = cycleInputFor(other, tankId, now)!
+        if (s.kind === 'save' && !s.rollBack && poolBefore.readings.length > 0 && pool.readings.includes(poolBefore.readings[0]!)) appendedInPool++
+        expect(pool.readings).toEqual(full.readings)
+        expect(evaluateTank(pool)).toEqual(evaluateTank(kept))
       }
     }), { numRuns: 60, seed: 20261203 })
     // The copy did take tests in place (not only re-read every time), so the comparison above covers that path.
     expect(appendedInPlace).toBeGreaterThan(0)
+    expect(appendedInPool).toBeGreaterThan(0)
   })
 
   it('takes a test saved like the route in place, without reading the history again', () => {
