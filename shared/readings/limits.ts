@@ -22,6 +22,13 @@ export const dayOf = (takenAt: string): string => takenAt.slice(0, 10)
 /** Data rows one CSV import may hold (the header row not counted). */
 export const MAX_IMPORT_ROWS = 100_000
 
+/**
+ * Tests one chart draws: the latest ones (the chart says how many there are in all; the
+ * history and the CSV export hold every one). Years of a client's tests fit; an imported log
+ * of 100,000 would be megabytes to a phone and seconds of the server's time.
+ */
+export const CHART_MAX_TESTS = 5_000
+
 /** Readings and events the evidence answer carries per page, newest first. */
 export const EVIDENCE_PAGE_SIZE = 1_000
 

@@ -4,10 +4,14 @@
  * served from (reading its tests back and running the engine over them held that loop for half
  * a second after an import). The answers must not change: a test saved on such a tank answers
  * with the verdict that includes it, a correction with the verdict that includes the correction,
- * and the stored verdict is the same one.
+ * and the stored verdict is the same one. Its chart carries the latest CHART_MAX_TESTS tests
+ * (drawing 100,000 meant reading them all on the loop, seconds, and megabytes to a phone) and says
+ * how many there are in all.
  */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { LONG_HISTORY_TESTS } from '../../server/domain/tanks/long-history'
+import { CHART_MAX_TESTS } from '../../shared/readings/limits'
+import type { ChartData } from '../../shared/types/readings'
 import { ApiClient } from '../support/http'
 import { startOwnServer, type OwnServer } from '../support/own-server'
 
@@ -58,4 +62,32 @@ describe('a tank with a long history', { timeout: 120_000 }, () => {
       expect(after.body.verdict.phase).toBe(hot.body.phase)
     })
   }
+})
+
+describe('the chart of a tank with more tests than one chart draws', { timeout: 120_000 }, () => {
+  it('carries the latest CHART_MAX_TESTS tests and the events among them, and says how many there are', async () => {
+    const count = CHART_MAX_TESTS + 25
+    const tank = await tankWithHistory('Long chart reef', count)
+    // A dose before the first test the chart shows, and one among them.
+    const end = Math.floor((Date.now() - 2 * 3_600_000) / HALF_HOUR) * HALF_HOUR
+    const firstShown = end - (CHART_MAX_TESTS - 1) * HALF_HOUR
+    for (const at of [firstShown - 10 * HALF_HOUR, firstShown + 10 * HALF_HOUR]) {
+      const dose = await api.post(`/api/tanks/${tank}/events`, { at: new Date(at + 60_000).toISOString(), kind: 'ammonia-dose', amount: 2, doseBasis: 'N' })
+      expect(dose.status, JSON.stringify(dose.body).slice(0, 300)).toBe(201)
+    }
+    const chart = await api.get<ChartData>(`/api/tanks/${tank}/chart`)
+    expect(chart.status).toBe(200)
+    expect(chart.body.t).toHaveLength(CHART_MAX_TESTS)
+    expect(chart.body.nitrateN).toHaveLength(CHART_MAX_TESTS)
+    expect(chart.body.tests).toEqual({ shown: CHART_MAX_TESTS, total: count })
+    expect(chart.body.t[0]).toBe(firstShown / 1000)
+    expect(chart.body.t.at(-1)).toBe(end / 1000)
+    expect(chart.body.events.map(e => e.t)).toEqual([(firstShown + 10 * HALF_HOUR + 60_000) / 1000])
+
+    // An ordinary tank's chart shows every test.
+    const short = await tankWithHistory('Short chart reef', 30)
+    const whole = await api.get<ChartData>(`/api/tanks/${short}/chart`)
+    expect(whole.body.t).toHaveLength(30)
+    expect(whole.body.tests).toEqual({ shown: 30, total: 30 })
+  })
 })

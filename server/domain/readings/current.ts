@@ -8,7 +8,7 @@
  *
  * Framework-free: takes a `Db` (the connection or a transaction).
  */
-import { and, asc, count, desc, eq, gte, isNull, lte, sql, type SQL } from 'drizzle-orm'
+import { and, asc, count, desc, eq, gte, isNotNull, isNull, lte, sql, type SQL } from 'drizzle-orm'
 import { alias, type AnySQLiteColumn } from 'drizzle-orm/sqlite-core'
 import { toIsoInstant } from '../../../shared/readings/fields'
 import type { Replacement } from '../../../shared/types/readings'
@@ -150,6 +150,28 @@ export function tankEngineReadings(db: Db, tankId: string): EngineReadingValues[
     left join ${readings} as ${sql.identifier('later_reading')} on ${laterReading.correctsId} = ${readings.id}
     where ${readings.tankId} = ${tankId} and ${laterReading.id} is null
     order by ${readings.takenAt} asc, ${readings.createdAt} asc, ${readings}.rowid asc`)
+}
+
+/** What a chart draws of a test: its time and the charted values, in this order. */
+export type ChartReadingValues = [takenAt: string, ammoniaN: number | null, nitriteN: number | null, nitrateN: number | null, pH: number | null, temperatureC: number | null, salinity: number | null]
+
+/**
+ * The latest `max` current readings of a tank in a range, oldest first, with only what a chart
+ * draws (read newest first from the index on tank and time, so a long history costs the tests
+ * drawn, not all of them), and how many current readings the range holds in all: every row
+ * less the corrections, as each correction replaces one row of the same tank taken at the same
+ * time (counted from the indexes, no row read).
+ */
+export function latestChartReadings(db: Db, tankId: string, range: TimeRange, max: number): { rows: ChartReadingValues[], total: number } {
+  const rows = db.select({ takenAt: readings.takenAt, ammoniaN: readings.ammoniaN, nitriteN: readings.nitriteN, nitrateN: readings.nitrateN, pH: readings.pH, temperatureC: readings.temperatureC, salinity: readings.salinity })
+    .from(readings).leftJoin(laterReading, eq(laterReading.correctsId, readings.id))
+    .where(readingFilter(tankId, range, 'current'))
+    .orderBy(desc(readings.takenAt), desc(readings.createdAt), desc(sql`${readings}.rowid`)).limit(max).all()
+    .reverse().map((r): ChartReadingValues => [r.takenAt, r.ammoniaN, r.nitriteN, r.nitrateN, r.pH, r.temperatureC, r.salinity])
+  if (rows.length < max) return { rows, total: rows.length }
+  const all = countOf(db, readings, readingFilter(tankId, range, 'all'))
+  const corrections = countOf(db, readings, and(readingFilter(tankId, range, 'all'), isNotNull(readings.correctsId)))
+  return { rows, total: all - corrections }
 }
 
 /** A tank's events, oldest first: the current ones, or every row with its trail. */

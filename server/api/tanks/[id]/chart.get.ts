@@ -4,7 +4,8 @@ import type { CyclePhase } from '#shared/cycle/types'
 import type { ChartData } from '#shared/types/readings'
 import { IdParams, isoTimeText } from '#shared/schemas/common'
 import { readOrganisationSettings } from '#server/db/settings'
-import { tankEvents, tankReadings } from '#server/domain/readings/current'
+import { CHART_MAX_TESTS } from '#shared/readings/limits'
+import { latestChartReadings, tankEvents } from '#server/domain/readings/current'
 
 const ChartQuery = v.object({
   from: v.optional(isoTimeText('From must be a date.')),
@@ -13,7 +14,8 @@ const ChartQuery = v.object({
 
 /**
  * GET /api/tanks/:id/chart — the tank's current readings as compact parallel arrays (epoch
- * seconds, canonical values), its events, the current phase and the limits the charts
+ * seconds, canonical values): the latest CHART_MAX_TESTS in the range, with how many it holds in
+ * all; its events from the first test drawn; the current phase and the limits the charts
  * draw. Returns ChartData.
  */
 export default defineEventHandler(async (event): Promise<ChartData> => {
@@ -23,20 +25,23 @@ export default defineEventHandler(async (event): Promise<ChartData> => {
   const query = await getValidatedQuery(event, valid(ChartQuery))
   const db = useDB()
   // Current rows only: a corrected value is drawn once, as corrected.
-  const rows = tankReadings(db, tank.id, { range: query })
-  const eventRows = tankEvents(db, tank.id, { range: query })
+  const { rows, total } = latestChartReadings(db, tank.id, query, CHART_MAX_TESTS)
+  // A chart cut to its latest tests marks the events of the same span.
+  const firstDrawn = total > rows.length ? rows[0]?.[0] : undefined
+  const eventRows = tankEvents(db, tank.id, { range: firstDrawn ? { ...query, from: firstDrawn } : query })
   const stored = await currentVerdictRow(tank.id, requestNow(event))
   const limits = resolveThresholds(readOrganisationSettings(db, tank.organisationId).thresholds)
   // Three significant decimals are far finer than any kit reads and keep the payload small.
   const r3 = (x: number | null) => (x === null ? null : Math.round(x * 1000) / 1000)
   return {
-    t: rows.map(r => Math.round(Date.parse(r.takenAt) / 1000)),
-    ammoniaN: rows.map(r => r3(r.ammoniaN)),
-    nitriteN: rows.map(r => r3(r.nitriteN)),
-    nitrateN: rows.map(r => r3(r.nitrateN)),
-    pH: rows.map(r => r3(r.pH)),
-    temperatureC: rows.map(r => r3(r.temperatureC)),
-    salinity: rows.map(r => r3(r.salinity)),
+    t: rows.map(([takenAt]) => Math.round(Date.parse(takenAt) / 1000)),
+    ammoniaN: rows.map(r => r3(r[1])),
+    nitriteN: rows.map(r => r3(r[2])),
+    nitrateN: rows.map(r => r3(r[3])),
+    pH: rows.map(r => r3(r[4])),
+    temperatureC: rows.map(r => r3(r[5])),
+    salinity: rows.map(r => r3(r[6])),
+    tests: { shown: rows.length, total },
     events: eventRows.map(e => ({ t: Math.round(Date.parse(e.at) / 1000), kind: e.kind, amount: r3(e.amount), group: e.group })),
     phase: (stored?.phase as CyclePhase | undefined) ?? 'not-started',
     completedOn: stored?.verdict.completedOn ?? null,
