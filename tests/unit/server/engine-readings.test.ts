@@ -11,7 +11,7 @@ import { afterAll, describe, expect, it } from 'vitest'
 import { migrateDatabase, openDatabase } from '../../../server/db/connection'
 import { readings } from '../../../server/db/schema'
 import { seedDemo } from '../../../server/db/seed/demo'
-import { ENGINE_READING_COLUMNS, engineValuesOf, tankEngineReadings, tankReadings } from '../../../server/domain/readings/current'
+import { ENGINE_READING_COLUMNS, engineValuesOf, latestChartReadings, tankEngineReadings, tankReadings } from '../../../server/domain/readings/current'
 
 const dir = mkdtempSync(join(tmpdir(), 'tidewright-engine-readings-'))
 afterAll(() => rmSync(dir, { recursive: true, force: true }))
@@ -33,6 +33,16 @@ describe('the readings a verdict is made from', () => {
     const keys = Object.keys(ENGINE_READING_COLUMNS) as (keyof typeof ENGINE_READING_COLUMNS)[]
     expect(lean).toEqual(full.map(row => keys.map(key => row[key])))
     expect(full.map(engineValuesOf)).toEqual(lean)
+
+    // The chart's read: the latest current readings, oldest first, and how many there are in all.
+    const charted = (r: (typeof full)[number]) => [r.takenAt, r.ammoniaN, r.nitriteN, r.nitrateN, r.pH, r.temperatureC, r.salinity]
+    const latest = latestChartReadings(db, tankId, {}, 3)
+    expect(latest.rows).toEqual(full.slice(-3).map(charted))
+    expect(latest.total).toBe(full.length)
+    const range = { from: full[1]!.takenAt, to: full.at(-2)!.takenAt }
+    const inRange = tankReadings(db, tankId, { range })
+    expect(latestChartReadings(db, tankId, range, 2)).toEqual({ rows: inRange.slice(-2).map(charted), total: inRange.length })
+    expect(latestChartReadings(db, tankId, {}, full.length + 5)).toEqual({ rows: full.map(charted), total: full.length })
     db.$client.close()
   })
 })
