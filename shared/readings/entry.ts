@@ -177,6 +177,11 @@ export function checkTakenAt(takenAt: string, now: Date): EntryIssue | null {
   if (!calendarDateExists(takenAt)) return { field: 'takenAt', message: 'That date does not exist. Check the day and the month.' }
   const t = parseIsoTime(takenAt)?.ms
   if (t === undefined) return { field: 'takenAt', message: 'Give the date and time the test was taken.' }
+  return checkInstant(t, now)
+}
+
+/** checkTakenAt's rules for the instant itself (epoch ms), once the text is read. */
+function checkInstant(t: number, now: Date): EntryIssue | null {
   if (t > now.getTime() + FUTURE_SKEW_MS) return { field: 'takenAt', message: 'A test cannot be taken in the future. Check the date and time.' }
   if (t < now.getTime() - OLDEST_READING_YEARS * 365.25 * 86_400_000) return { field: 'takenAt', message: 'That date is too far in the past.' }
   return null
@@ -235,10 +240,14 @@ export function flagsForValues(values: CanonicalValues): EntryFlag[] {
 /**
  * Converts one entry to canonical values, or lists a message per field for values that
  * cannot be real. Alarming but possible values come back as `flags`.
+ *
+ * `takenMs`, when the caller has read the time already (the CSV import, once per row): the
+ * instant entry.takenAt names, which must then be its stored text ("2026-03-14T08:30:00.000Z",
+ * as toISOString writes it, so a real day); the text is not read again.
  */
-export function toCanonicalReading(entry: ReadingEntry, now: Date = new Date()): EntryResult {
+export function toCanonicalReading(entry: ReadingEntry, now: Date = new Date(), takenMs?: number): EntryResult {
   const issues: EntryIssue[] = []
-  const timeIssue = checkTakenAt(entry.takenAt, now)
+  const timeIssue = takenMs === undefined ? checkTakenAt(entry.takenAt, now) : checkInstant(takenMs, now)
   if (timeIssue) issues.push(timeIssue)
 
   const values: CanonicalValues = {
@@ -291,7 +300,7 @@ export function toCanonicalReading(entry: ReadingEntry, now: Date = new Date()):
   return {
     ok: true,
     reading: {
-      takenAt: ISO_UTC.test(entry.takenAt) ? entry.takenAt : toIsoInstant(entry.takenAt)!,
+      takenAt: takenMs !== undefined || ISO_UTC.test(entry.takenAt) ? entry.takenAt : toIsoInstant(entry.takenAt)!,
       values,
       notes,
       entered: enteredRecord(entry),
@@ -317,7 +326,7 @@ function boundsMessage(field: MeasuredField, entry: ReadingEntry): string {
 }
 
 /** What was typed, in the shape the demo seed and CSV import also use. */
-function enteredRecord(entry: ReadingEntry): Record<string, unknown> {
+export function enteredRecord(entry: ReadingEntry): Record<string, unknown> {
   const out: Record<string, unknown> = {}
   if (present(entry.ammonia)) out.ammonia = { value: entry.ammonia, basis: entry.basis.ammonia }
   if (present(entry.nitrite)) out.nitrite = { value: entry.nitrite, basis: entry.basis.nitrite }
@@ -335,6 +344,40 @@ function enteredRecord(entry: ReadingEntry): Record<string, unknown> {
     if (present(entry[key])) out[key] = entry[key]
   }
   return out
+}
+
+/** A number as JSON.stringify writes it. */
+const jsonNumber = (value: number): string => (Number.isFinite(value) ? String(value) : 'null')
+
+/**
+ * JSON.stringify({ ...enteredRecord(entry), source }), byte for byte, written as text: a CSV
+ * import stores one for each of up to 100,000 rows, and building the record's objects only to
+ * serialise them cost more than writing the text.
+ */
+export function enteredJson(entry: ReadingEntry, source: string): string {
+  let out = '{'
+  const add = (part: string) => {
+    out += out.length === 1 ? part : `,${part}`
+  }
+  if (present(entry.ammonia)) add(`"ammonia":{"value":${jsonNumber(entry.ammonia)},"basis":${JSON.stringify(entry.basis.ammonia)}}`)
+  if (present(entry.nitrite)) add(`"nitrite":{"value":${jsonNumber(entry.nitrite)},"basis":${JSON.stringify(entry.basis.nitrite)}}`)
+  if (present(entry.nitrate)) add(`"nitrate":{"value":${jsonNumber(entry.nitrate)},"basis":${JSON.stringify(entry.basis.nitrate)}}`)
+  if (present(entry.pH)) add(`"pH":${jsonNumber(entry.pH)}`)
+  if (present(entry.temperature)) add(`"temperature":{"value":${jsonNumber(entry.temperature)},"unit":${JSON.stringify(entry.temperatureUnit)}}`)
+  if (present(entry.salinity)) {
+    const value = jsonNumber(entry.salinity)
+    add(entry.salinityMode === 'sg'
+      ? `"salinity":{"value":${value},"as":"sg","basis":${JSON.stringify(entry.sgBasis ?? '25/25C')}}`
+      : entry.salinityMode === 'conductivity'
+        ? `"salinity":{"value":${value},"as":"conductivity","temperatureC":${jsonNumber(entry.conductivityTemperatureC ?? 25)}}`
+        : `"salinity":{"value":${value},"as":"practical"}`)
+  }
+  if (present(entry.alkalinityDkh)) add(`"alkalinityDkh":${jsonNumber(entry.alkalinityDkh)}`)
+  if (present(entry.calciumMgL)) add(`"calciumMgL":${jsonNumber(entry.calciumMgL)}`)
+  if (present(entry.magnesiumMgL)) add(`"magnesiumMgL":${jsonNumber(entry.magnesiumMgL)}`)
+  if (present(entry.phosphateMgL)) add(`"phosphateMgL":${jsonNumber(entry.phosphateMgL)}`)
+  add(`"source":${JSON.stringify(source)}`)
+  return `${out}}`
 }
 
 interface StoredReading extends CanonicalValues {

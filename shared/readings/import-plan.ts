@@ -10,8 +10,8 @@ import Papa from 'papaparse'
 import type { ReadingImportInput } from '../schemas/reading'
 import type { ImportPreview, ImportRowError } from '../types/readings'
 import { MEASURED_FIELDS } from '../vocabulary'
-import { arrayRowToEntry, columnIndexes, csvNumberText, duplicateHeaderColumns, guessMapping, importBasis } from './csv'
-import { toCanonicalReading, type CanonicalReading, type CanonicalValues, type KitBasisChoice } from './entry'
+import { columnIndexes, csvNumberText, csvRowReader, duplicateHeaderColumns, guessMapping, importBasis } from './csv'
+import { enteredJson, toCanonicalReading, type CanonicalReading, type CanonicalValues, type KitBasisChoice, type ReadingEntry } from './entry'
 import { dayFullRowMessage, dayOf, MAX_IMPORT_ROWS, TESTS_PER_TANK_PER_DAY } from './limits'
 
 /** At most this many row errors are reported (the first, in file order); the count is always complete. */
@@ -88,11 +88,9 @@ export function importKeyOf(reading: CanonicalReading): string {
   return hash('sha256', normalised, 'hex').slice(0, 32)
 }
 
-/** What was typed, as stored in readings.entered (JSON), marked as coming from a CSV file. */
-export function enteredText(reading: CanonicalReading): string {
-  // The record is this row's own (toCanonicalReading builds it anew): marked in place, not copied.
-  reading.entered.source = 'csv'
-  return JSON.stringify(reading.entered)
+/** What was typed, as stored in readings.entered (JSON): the entered record, marked as coming from a CSV file. */
+export function enteredText(entry: ReadingEntry): string {
+  return enteredJson(entry, 'csv')
 }
 
 /**
@@ -141,8 +139,7 @@ export const IMPORT_CHUNK_ROWS = 256
 export function planImport(input: ReadingImportInput, context: PlanContext, sink: ImportSink): PlanOutcome {
   let refusal: PlanOutcome | null = null
   let plan: ImportPlan | null = null
-  let indexes: ReturnType<typeof columnIndexes> | null = null
-  let options: Parameters<typeof arrayRowToEntry>[2] | null = null
+  let readRow: ReturnType<typeof csvRowReader> | null = null
   const room = new DayRoom(sink.heldOnDay)
   let index = 0
   let chunk: ImportRow[] = []
@@ -197,9 +194,8 @@ export function planImport(input: ReadingImportInput, context: PlanContext, sink
           refusal = { kind: 'field-issues', issues: [{ field: 'mapping.takenAt', message: 'Choose the column that holds the date and time of each test.' }] }
         }
         if (refusal) return parser.abort()
-        indexes = columnIndexes(headers, mapping)
         const basis = importBasis(input.basis, mapping, context.kit)
-        options = { basis, temperatureUnit: input.temperatureUnit, salinityMode: input.salinityMode, sgBasis: input.sgBasis }
+        readRow = csvRowReader(columnIndexes(headers, mapping), { basis, temperatureUnit: input.temperatureUnit, salinityMode: input.salinityMode, sgBasis: input.sgBasis })
         plan = { headers, mapping, basis, rowCount: 0, added: 0, errors: [], errorCount: 0, duplicates: 0, preview: [] }
         return
       }
@@ -209,14 +205,15 @@ export function planImport(input: ReadingImportInput, context: PlanContext, sink
       }
       plan.rowCount = index
       const line = index + 1 // the header is row 1, as a spreadsheet numbers it
-      const mapped = arrayRowToEntry(cells, indexes!, options!)
+      const mapped = readRow!(cells)
       if ('issues' in mapped) return report(line, mapped.issues)
-      const converted = toCanonicalReading(mapped.entry, context.now)
+      const { entry, takenMs } = mapped
+      const converted = toCanonicalReading(entry, context.now, takenMs)
       if (!converted.ok) return report(line, converted.issues)
       const { reading } = converted
       // Rows inside a signed-off period would change what the supervisor signed: refused per row.
-      if (Date.parse(reading.takenAt) <= context.lockedMs) return report(line, [{ field: 'takenAt', message: 'This test falls in the signed-off period and cannot be imported.' }])
-      chunk.push({ line, takenAt: reading.takenAt, values: reading.values, notes: reading.notes, key: importKeyOf(reading), entered: enteredText(reading) })
+      if ((takenMs ?? Date.parse(reading.takenAt)) <= context.lockedMs) return report(line, [{ field: 'takenAt', message: 'This test falls in the signed-off period and cannot be imported.' }])
+      chunk.push({ line, takenAt: reading.takenAt, values: reading.values, notes: reading.notes, key: importKeyOf(reading), entered: enteredText(entry) })
       if (chunk.length === IMPORT_CHUNK_ROWS) handOver(plan)
     },
   })
