@@ -91,7 +91,7 @@ const NUMERIC = ['ammonia', 'nitrite', 'nitrate', 'pH', 'temperature', 'salinity
 
 /**
  * A row read as the entry the form sends, and the instant its time names (the entry's
- * takenAt, read once: toCanonicalReading and the import take it as it is). takenMs is left
+ * takenAt, read once: convertEntry and the import take it as it is). takenMs is left
  * out for a time past year 9999 or before year 0, whose stored text is not ISO 8601's
  * four-digit form: the entry rules read that text again, and refuse it.
  */

@@ -240,12 +240,26 @@ export function flagsForValues(values: CanonicalValues): EntryFlag[] {
 /**
  * Converts one entry to canonical values, or lists a message per field for values that
  * cannot be real. Alarming but possible values come back as `flags`.
+ */
+export function toCanonicalReading(entry: ReadingEntry, now: Date = new Date()): EntryResult {
+  const converted = convertEntry(entry, now)
+  if (!converted.ok) return converted
+  const { takenAt, values, notes } = converted
+  return { ok: true, reading: { takenAt, values, notes, entered: enteredRecord(entry), flags: flagsForValues(values) } }
+}
+
+/** An entry's canonical time, values and notes, or a message per field (what toCanonicalReading decides, without its flags and entered record). */
+export type ConvertedEntry = { ok: true, takenAt: string, values: CanonicalValues, notes: string | null } | { ok: false, issues: EntryIssue[] }
+
+/**
+ * toCanonicalReading's rules, for a caller that stores the values and keeps what was typed
+ * its own way (the CSV import, 100,000 rows: it builds neither flags nor an entered record).
  *
- * `takenMs`, when the caller has read the time already (the CSV import, once per row): the
+ * `takenMs`, when the caller has read the time already (the import, once per row): the
  * instant entry.takenAt names, which must then be its stored text ("2026-03-14T08:30:00.000Z",
  * as toISOString writes it, so a real day); the text is not read again.
  */
-export function toCanonicalReading(entry: ReadingEntry, now: Date = new Date(), takenMs?: number): EntryResult {
+export function convertEntry(entry: ReadingEntry, now: Date = new Date(), takenMs?: number): ConvertedEntry {
   const issues: EntryIssue[] = []
   const timeIssue = takenMs === undefined ? checkTakenAt(entry.takenAt, now) : checkInstant(takenMs, now)
   if (timeIssue) issues.push(timeIssue)
@@ -276,19 +290,13 @@ export function toCanonicalReading(entry: ReadingEntry, now: Date = new Date(), 
     else values.salinity = result.value
   }
 
-  const flags: EntryFlag[] = []
   for (const field of MEASURED_FIELDS) {
     const value = values[field]
     if (value === null) continue
     const inputField = INPUT_FIELD[field]
     if (issues.length && issues.some(i => i.field === inputField)) continue
     const [min, max] = PHYSICAL_BOUNDS[field]
-    if (!Number.isFinite(value) || value < min || value > max) {
-      issues.push({ field: inputField, message: boundsMessage(field, entry) })
-      continue
-    }
-    const flag = flagFor(field, value)
-    if (flag) flags.push(flag)
+    if (!Number.isFinite(value) || value < min || value > max) issues.push({ field: inputField, message: boundsMessage(field, entry) })
   }
   const notes = entry.notes?.trim() ? entry.notes.trim() : null
   if (notes && notes.length > ENTRY_NOTES_MAX) issues.push({ field: 'notes', message: `Notes are at most ${ENTRY_NOTES_MAX} characters.` })
@@ -296,17 +304,8 @@ export function toCanonicalReading(entry: ReadingEntry, now: Date = new Date(), 
     issues.push({ field: 'ammonia', message: 'Enter at least one test result.' })
   }
   if (issues.length) return { ok: false, issues }
-
-  return {
-    ok: true,
-    reading: {
-      takenAt: takenMs !== undefined || ISO_UTC.test(entry.takenAt) ? entry.takenAt : toIsoInstant(entry.takenAt)!,
-      values,
-      notes,
-      entered: enteredRecord(entry),
-      flags,
-    },
-  }
+  // Every value is within its bounds here: flagsForValues (toCanonicalReading) flags each.
+  return { ok: true, takenAt: takenMs !== undefined || ISO_UTC.test(entry.takenAt) ? entry.takenAt : toIsoInstant(entry.takenAt)!, values, notes }
 }
 
 /** The refusal for a value outside physical bounds, in the units the user typed. */

@@ -11,7 +11,7 @@ import type { ReadingImportInput } from '../schemas/reading'
 import type { ImportPreview, ImportRowError } from '../types/readings'
 import { MEASURED_FIELDS } from '../vocabulary'
 import { columnIndexes, csvNumberText, csvRowReader, duplicateHeaderColumns, guessMapping, importBasis } from './csv'
-import { enteredJson, toCanonicalReading, type CanonicalReading, type CanonicalValues, type KitBasisChoice, type ReadingEntry } from './entry'
+import { convertEntry, enteredJson, type CanonicalValues, type KitBasisChoice, type ReadingEntry } from './entry'
 import { dayFullRowMessage, dayOf, MAX_IMPORT_ROWS, TESTS_PER_TANK_PER_DAY } from './limits'
 
 /** At most this many row errors are reported (the first, in file order); the count is always complete. */
@@ -78,7 +78,7 @@ export interface PlanContext {
 }
 
 /** The import key: a hash of the row's canonical content, so the same test imported twice is one reading. */
-export function importKeyOf(reading: CanonicalReading): string {
+export function importKeyOf(reading: { takenAt: string, values: CanonicalValues, notes: string | null }): string {
   let normalised = reading.takenAt
   for (const field of MEASURED_FIELDS) {
     const value = reading.values[field]
@@ -128,7 +128,7 @@ export const IMPORT_CHUNK_ROWS = 256
 
 /**
  * Reads the file as the parser reads it: each row is mapped, converted with the entry rules of
- * the form (toCanonicalReading), held to the signed-off period and keyed; each chunk of
+ * the form (convertEntry), held to the signed-off period and keyed; each chunk of
  * IMPORT_CHUNK_ROWS rows that passed is then held to its days' room and handed to `sink` in
  * file order, and dropped. Nothing else of a row is kept (but the first PREVIEW_ROWS taken and
  * the first MAX_REPORTED_ERRORS errors), so memory does not grow with the file. Errors are
@@ -208,9 +208,9 @@ export function planImport(input: ReadingImportInput, context: PlanContext, sink
       const mapped = readRow!(cells)
       if ('issues' in mapped) return report(line, mapped.issues)
       const { entry, takenMs } = mapped
-      const converted = toCanonicalReading(entry, context.now, takenMs)
-      if (!converted.ok) return report(line, converted.issues)
-      const { reading } = converted
+      // The entry rules of the form; the import keeps no flags, and writes what was typed as text.
+      const reading = convertEntry(entry, context.now, takenMs)
+      if (!reading.ok) return report(line, reading.issues)
       // Rows inside a signed-off period would change what the supervisor signed: refused per row.
       if ((takenMs ?? Date.parse(reading.takenAt)) <= context.lockedMs) return report(line, [{ field: 'takenAt', message: 'This test falls in the signed-off period and cannot be imported.' }])
       chunk.push({ line, takenAt: reading.takenAt, values: reading.values, notes: reading.notes, key: importKeyOf(reading), entered: enteredText(entry) })
