@@ -55,16 +55,21 @@ export type ReadingImportResult
     /** A sign-off was approved (or reopened) after the request read the boundary: nothing written. */
     | { kind: 'lock-moved' }
 
-/** The staged rows: the columns of readings the file gives, keyed by the file's row number. */
+/**
+ * The staged rows: the columns of readings the file gives, keyed by the file's row number.
+ * A repeat within the file is a row with an import key already staged; as the key hashes the
+ * row's time, it is unique with the time in front: a file in time order (either way) then
+ * adds to one end of the index, where the key alone (random) went anywhere in it.
+ */
 const CREATE_STAGE_SQL = `CREATE TEMP TABLE import_stage (line INTEGER PRIMARY KEY, id TEXT NOT NULL, taken_at TEXT NOT NULL,
   ammonia_n REAL, nitrite_n REAL, nitrate_n REAL, ph REAL, temperature_c REAL, salinity REAL,
   alkalinity_dkh REAL, calcium_mg_l REAL, magnesium_mg_l REAL, phosphate_mg_l REAL,
-  notes TEXT, entered TEXT NOT NULL, import_key TEXT NOT NULL UNIQUE)`
+  notes TEXT, entered TEXT NOT NULL, import_key TEXT NOT NULL, UNIQUE (taken_at, import_key))`
 
 const STAGE_SQL = `INSERT INTO temp.import_stage (line, id, taken_at, ammonia_n, nitrite_n, nitrate_n, ph, temperature_c, salinity,
   alkalinity_dkh, calcium_mg_l, magnesium_mg_l, phosphate_mg_l, notes, entered, import_key)
   VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?)
-  ON CONFLICT (import_key) DO NOTHING`
+  ON CONFLICT (taken_at, import_key) DO NOTHING`
 
 // WHERE true: SQLite needs a WHERE before an upsert clause on INSERT ... SELECT.
 const PUBLISH_SQL = `INSERT INTO readings (id, tank_id, taken_at, entered_by, ammonia_n, nitrite_n, nitrate_n, ph, temperature_c, salinity,
@@ -107,7 +112,7 @@ function openStage(db: TidewrightDB): Stage {
   return {
     perDay: new Map(),
     insert: sqlite.prepare(STAGE_SQL),
-    hasKey: sqlite.prepare('SELECT 1 FROM temp.import_stage WHERE import_key = ?').pluck(),
+    hasKey: sqlite.prepare('SELECT 1 FROM temp.import_stage WHERE taken_at = ? AND import_key = ?').pluck(),
     count: sqlite.prepare('SELECT count(*) FROM temp.import_stage').pluck(),
     ofDay: sqlite.prepare('SELECT line, import_key AS key FROM temp.import_stage WHERE substr(taken_at, 1, 10) = ? ORDER BY line'),
     drop: sqlite.prepare('DELETE FROM temp.import_stage WHERE line = ?'),
@@ -126,7 +131,7 @@ function stagingSink(db: TidewrightDB, tankId: string, stage: Stage): ImportSink
     : (key: string) => holds.get(tankId, key) !== undefined
   return {
     heldOnDay: day => testsOnDay(db, tankId, day),
-    holds: key => tankHolds(key) || stage.hasKey.get(key) !== undefined,
+    holds: ({ takenAt, key }) => tankHolds(key) || stage.hasKey.get(takenAt, key) !== undefined,
     add: ({ line, takenAt, values: v, notes, key, entered }: ImportRow) => {
       if (tankHolds(key)) return false
       const staged = stage.insert.run(line, randomUUID(), takenAt, v.ammoniaN, v.nitriteN, v.nitrateN, v.pH, v.temperatureC, v.salinity,

@@ -43,8 +43,8 @@ export interface ImportSink {
   heldOnDay: (day: string) => number
   /** Takes the row: false when the tank (or the file, earlier) already holds a test with its key. */
   add: (row: ImportRow) => boolean
-  /** Whether the tank (or the file, earlier) already holds a test with this key, for a row whose day is full. */
-  holds: (key: string) => boolean
+  /** Whether the tank (or the file, earlier) already holds a test with the row's key, for a row whose day is full. */
+  holds: (row: ImportRow) => boolean
 }
 
 /** What an import of the whole file came to, without the rows themselves. */
@@ -163,7 +163,7 @@ export function planImport(input: ReadingImportInput, context: PlanContext, sink
     const day = dayOf(row.takenAt)
     // A test already held takes no room, so a full day still counts it as a duplicate.
     if (!room.hasRoom(day)) {
-      if (sink.holds(row.key)) into.duplicates++
+      if (sink.holds(row)) into.duplicates++
       else report(row.line, [{ field: 'takenAt', message: dayFullRowMessage(day) }])
       return
     }

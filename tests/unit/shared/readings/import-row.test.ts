@@ -17,7 +17,7 @@ function imported(input: ReadingImportInput, keys: string[] = []) {
   const held = new Set(keys)
   const sink: ImportSink = {
     heldOnDay: () => 0,
-    holds: key => held.has(key),
+    holds: row => held.has(row.key),
     add: (row) => {
       if (held.has(row.key)) return false
       held.add(row.key)
