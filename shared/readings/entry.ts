@@ -15,7 +15,7 @@ import { DEFAULT_THRESHOLDS } from '../cycle/thresholds'
 import { celsiusToFahrenheit, fahrenheitToCelsius } from '../units'
 import { calendarDateExists, ENTRY_NOTES_MAX, parseIsoTime, toIsoInstant } from './fields'
 import {
-  MEASURED_FIELDS, PHYSICAL_BOUNDS,
+  AMMONIA_BASES, MEASURED_FIELDS, NITRATE_BASES, NITRITE_BASES, PHYSICAL_BOUNDS, TEMPERATURE_UNITS,
   type AmmoniaBasis, type FlagSeverity, type MeasuredField, type NitrateBasis, type NitriteBasis, type SalinityMode, type TemperatureUnit,
 } from '../vocabulary'
 
@@ -348,6 +348,10 @@ export function enteredRecord(entry: ReadingEntry): Record<string, unknown> {
 /** A number as JSON.stringify writes it. */
 const jsonNumber = (value: number): string => (Number.isFinite(value) ? String(value) : 'null')
 
+/** The words an entered record holds, as JSON strings: written once, not once per row. */
+const QUOTED = new Map([...AMMONIA_BASES, ...NITRITE_BASES, ...NITRATE_BASES, ...TEMPERATURE_UNITS, ...SG_BASIS_KEYS, 'csv'].map(word => [word, JSON.stringify(word)]))
+const jsonString = (text: string): string => QUOTED.get(text) ?? JSON.stringify(text)
+
 /**
  * JSON.stringify({ ...enteredRecord(entry), source }), byte for byte, written as text: a CSV
  * import stores one for each of up to 100,000 rows, and building the record's objects only to
@@ -355,28 +359,51 @@ const jsonNumber = (value: number): string => (Number.isFinite(value) ? String(v
  */
 export function enteredJson(entry: ReadingEntry, source: string): string {
   let out = '{'
-  const add = (part: string) => {
-    out += out.length === 1 ? part : `,${part}`
+  let comma = ''
+  if (present(entry.ammonia)) {
+    out += `"ammonia":{"value":${jsonNumber(entry.ammonia)},"basis":${jsonString(entry.basis.ammonia)}}`
+    comma = ','
   }
-  if (present(entry.ammonia)) add(`"ammonia":{"value":${jsonNumber(entry.ammonia)},"basis":${JSON.stringify(entry.basis.ammonia)}}`)
-  if (present(entry.nitrite)) add(`"nitrite":{"value":${jsonNumber(entry.nitrite)},"basis":${JSON.stringify(entry.basis.nitrite)}}`)
-  if (present(entry.nitrate)) add(`"nitrate":{"value":${jsonNumber(entry.nitrate)},"basis":${JSON.stringify(entry.basis.nitrate)}}`)
-  if (present(entry.pH)) add(`"pH":${jsonNumber(entry.pH)}`)
-  if (present(entry.temperature)) add(`"temperature":{"value":${jsonNumber(entry.temperature)},"unit":${JSON.stringify(entry.temperatureUnit)}}`)
+  if (present(entry.nitrite)) {
+    out += `${comma}"nitrite":{"value":${jsonNumber(entry.nitrite)},"basis":${jsonString(entry.basis.nitrite)}}`
+    comma = ','
+  }
+  if (present(entry.nitrate)) {
+    out += `${comma}"nitrate":{"value":${jsonNumber(entry.nitrate)},"basis":${jsonString(entry.basis.nitrate)}}`
+    comma = ','
+  }
+  if (present(entry.pH)) {
+    out += `${comma}"pH":${jsonNumber(entry.pH)}`
+    comma = ','
+  }
+  if (present(entry.temperature)) {
+    out += `${comma}"temperature":{"value":${jsonNumber(entry.temperature)},"unit":${jsonString(entry.temperatureUnit)}}`
+    comma = ','
+  }
   if (present(entry.salinity)) {
     const value = jsonNumber(entry.salinity)
-    add(entry.salinityMode === 'sg'
-      ? `"salinity":{"value":${value},"as":"sg","basis":${JSON.stringify(entry.sgBasis ?? '25/25C')}}`
+    out += entry.salinityMode === 'sg'
+      ? `${comma}"salinity":{"value":${value},"as":"sg","basis":${jsonString(entry.sgBasis ?? '25/25C')}}`
       : entry.salinityMode === 'conductivity'
-        ? `"salinity":{"value":${value},"as":"conductivity","temperatureC":${jsonNumber(entry.conductivityTemperatureC ?? 25)}}`
-        : `"salinity":{"value":${value},"as":"practical"}`)
+        ? `${comma}"salinity":{"value":${value},"as":"conductivity","temperatureC":${jsonNumber(entry.conductivityTemperatureC ?? 25)}}`
+        : `${comma}"salinity":{"value":${value},"as":"practical"}`
+    comma = ','
   }
-  if (present(entry.alkalinityDkh)) add(`"alkalinityDkh":${jsonNumber(entry.alkalinityDkh)}`)
-  if (present(entry.calciumMgL)) add(`"calciumMgL":${jsonNumber(entry.calciumMgL)}`)
-  if (present(entry.magnesiumMgL)) add(`"magnesiumMgL":${jsonNumber(entry.magnesiumMgL)}`)
-  if (present(entry.phosphateMgL)) add(`"phosphateMgL":${jsonNumber(entry.phosphateMgL)}`)
-  add(`"source":${JSON.stringify(source)}`)
-  return `${out}}`
+  if (present(entry.alkalinityDkh)) {
+    out += `${comma}"alkalinityDkh":${jsonNumber(entry.alkalinityDkh)}`
+    comma = ','
+  }
+  if (present(entry.calciumMgL)) {
+    out += `${comma}"calciumMgL":${jsonNumber(entry.calciumMgL)}`
+    comma = ','
+  }
+  if (present(entry.magnesiumMgL)) {
+    out += `${comma}"magnesiumMgL":${jsonNumber(entry.magnesiumMgL)}`
+    comma = ','
+  }
+  if (present(entry.phosphateMgL)) out += `${comma}"phosphateMgL":${jsonNumber(entry.phosphateMgL)}`
+  // The source comes last, after a comma when a value came before it.
+  return `${out}${out.length > 1 ? ',' : ''}"source":${jsonString(source)}}`
 }
 
 interface StoredReading extends CanonicalValues {
