@@ -5,7 +5,7 @@
 import type { ImportTarget, ReadingImportInput } from '../schemas/reading'
 import { IMPORT_TARGETS } from '../schemas/reading'
 import type { EntryIssue, KitBasisChoice, ReadingEntry } from './entry'
-import { calendarDateExists, parseDecimal, parseIsoTime } from './fields'
+import { calendarDateExists, parseDecimal, parseIsoTime, STORED_TIME } from './fields'
 
 /** Header words each target is recognised by (lower case, punctuation removed). */
 const HEADER_HINTS: Record<ImportTarget, string[]> = {
@@ -143,7 +143,9 @@ export function csvRowReader(indexes: Partial<Record<ImportTarget, number>>, opt
     }
     if (issues) return { issues }
     const notes = notesAt < 0 ? '' : (cells[notesAt] ?? '').trim()
-    const takenAt = new Date(takenMs!).toISOString()
+    // The cell itself when it is the stored text already (Tidewright's export, most devices):
+    // no Date to format per row. Not for years 0 to 99, which Date.UTC reads as 1900 to 1999.
+    const takenAt = STORED_TIME.test(time) && !time.startsWith('00') ? time : new Date(takenMs!).toISOString()
     const entry: ReadingEntry = {
       takenAt,
       ammonia: numbers[0],

@@ -13,7 +13,7 @@ import { toNitrogen, fromNitrogen, type NitrogenSpecies } from '../chemistry/nit
 import { SG_BASES, salinityFromConductivity, salinityFromSpecificGravity } from '../chemistry/seawater'
 import { DEFAULT_THRESHOLDS } from '../cycle/thresholds'
 import { celsiusToFahrenheit, fahrenheitToCelsius } from '../units'
-import { calendarDateExists, ENTRY_NOTES_MAX, parseIsoTime, toIsoInstant } from './fields'
+import { calendarDateExists, ENTRY_NOTES_MAX, parseIsoTime, STORED_TIME, toIsoInstant } from './fields'
 import {
   AMMONIA_BASES, MEASURED_FIELDS, NITRATE_BASES, NITRITE_BASES, PHYSICAL_BOUNDS, TEMPERATURE_UNITS,
   type AmmoniaBasis, type FlagSeverity, type MeasuredField, type NitrateBasis, type NitriteBasis, type SalinityMode, type TemperatureUnit,
@@ -92,8 +92,6 @@ export interface CanonicalReading {
 }
 
 export type EntryResult = { ok: true, reading: CanonicalReading } | { ok: false, issues: EntryIssue[] }
-
-const ISO_UTC = /^\d{4}-\d{2}-\d{2}T\d{2}:\d{2}:\d{2}\.\d{3}Z$/
 
 /** A back-dated reading is fine; one from the future beyond this clock skew is refused. */
 export const FUTURE_SKEW_MS = 5 * 60_000
@@ -305,7 +303,7 @@ export function convertEntry(entry: ReadingEntry, now: Date = new Date(), takenM
   }
   if (issues.length) return { ok: false, issues }
   // Every value is within its bounds here: flagsForValues (toCanonicalReading) flags each.
-  return { ok: true, takenAt: takenMs !== undefined || ISO_UTC.test(entry.takenAt) ? entry.takenAt : toIsoInstant(entry.takenAt)!, values, notes }
+  return { ok: true, takenAt: takenMs !== undefined || STORED_TIME.test(entry.takenAt) ? entry.takenAt : toIsoInstant(entry.takenAt)!, values, notes }
 }
 
 /** The refusal for a value outside physical bounds, in the units the user typed. */
