@@ -10,8 +10,8 @@
  *    read transaction, and each row that passes goes into a TEMP table of this connection
  *    (temp tables live outside the main database, spill to a file, and take none of its
  *    locks). No array of the file's rows is built: memory stays flat however long the file.
- *    A row the tank already holds is a duplicate (the unique index's look-up); a repeat
- *    within the file, the temp table's unique key.
+ *    A row the tank already holds is a duplicate (the unique index's look-up, skipped when
+ *    the tank holds no imported test at all); a repeat within the file, the temp table's unique key.
  * 2. Write, in one short IMMEDIATE transaction: check again what may have changed since
  *    staging (a sign-off decided, tests saved meanwhile that now fill a day: they take its
  *    room first and the file's last staged rows of that day are refused, per row; a test of
@@ -55,16 +55,21 @@ export type ReadingImportResult
     /** A sign-off was approved (or reopened) after the request read the boundary: nothing written. */
     | { kind: 'lock-moved' }
 
-/** The staged rows: the columns of readings the file gives, keyed by the file's row number. */
+/**
+ * The staged rows: the columns of readings the file gives, keyed by the file's row number.
+ * A repeat within the file is a row with an import key already staged; as the key hashes the
+ * row's time, it is unique with the time in front: a file in time order (either way) then
+ * adds to one end of the index, where the key alone (random) went anywhere in it.
+ */
 const CREATE_STAGE_SQL = `CREATE TEMP TABLE import_stage (line INTEGER PRIMARY KEY, id TEXT NOT NULL, taken_at TEXT NOT NULL,
   ammonia_n REAL, nitrite_n REAL, nitrate_n REAL, ph REAL, temperature_c REAL, salinity REAL,
   alkalinity_dkh REAL, calcium_mg_l REAL, magnesium_mg_l REAL, phosphate_mg_l REAL,
-  notes TEXT, entered TEXT NOT NULL, import_key TEXT NOT NULL UNIQUE)`
+  notes TEXT, entered TEXT NOT NULL, import_key TEXT NOT NULL, UNIQUE (taken_at, import_key))`
 
 const STAGE_SQL = `INSERT INTO temp.import_stage (line, id, taken_at, ammonia_n, nitrite_n, nitrate_n, ph, temperature_c, salinity,
   alkalinity_dkh, calcium_mg_l, magnesium_mg_l, phosphate_mg_l, notes, entered, import_key)
   VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?)
-  ON CONFLICT (import_key) DO NOTHING`
+  ON CONFLICT (taken_at, import_key) DO NOTHING`
 
 // WHERE true: SQLite needs a WHERE before an upsert clause on INSERT ... SELECT.
 const PUBLISH_SQL = `INSERT INTO readings (id, tank_id, taken_at, entered_by, ammonia_n, nitrite_n, nitrate_n, ph, temperature_c, salinity,
@@ -75,16 +80,17 @@ const PUBLISH_SQL = `INSERT INTO readings (id, tank_id, taken_at, entered_by, am
   ON CONFLICT (tank_id, import_key) DO NOTHING`
 
 const HOLDS_SQL = 'SELECT 1 FROM readings WHERE tank_id = ? AND import_key = ?'
+const HOLDS_ANY_SQL = 'SELECT 1 FROM readings WHERE tank_id = ? AND import_key IS NOT NULL LIMIT 1'
 
-/** Statements on the main database, prepared once per connection: staging runs them up to 100,000 times. */
-const statements = new WeakMap<TidewrightDB, { holds: Statement }>()
-function holdsOf(db: TidewrightDB): Statement {
+/** Statements on the main database, prepared once per connection: staging runs `holds` up to 100,000 times. */
+const statements = new WeakMap<TidewrightDB, { holds: Statement, holdsAny: Statement }>()
+function statementsOf(db: TidewrightDB): { holds: Statement, holdsAny: Statement } {
   let s = statements.get(db)
   if (!s) {
-    s = { holds: db.$client.prepare(HOLDS_SQL).pluck() }
+    s = { holds: db.$client.prepare(HOLDS_SQL).pluck(), holdsAny: db.$client.prepare(HOLDS_ANY_SQL).pluck() }
     statements.set(db, s)
   }
-  return s.holds
+  return s
 }
 
 /** The temp table's statements (prepared for each import, as the table lives only as long as it) and its rows per day. */
@@ -106,7 +112,7 @@ function openStage(db: TidewrightDB): Stage {
   return {
     perDay: new Map(),
     insert: sqlite.prepare(STAGE_SQL),
-    hasKey: sqlite.prepare('SELECT 1 FROM temp.import_stage WHERE import_key = ?').pluck(),
+    hasKey: sqlite.prepare('SELECT 1 FROM temp.import_stage WHERE taken_at = ? AND import_key = ?').pluck(),
     count: sqlite.prepare('SELECT count(*) FROM temp.import_stage').pluck(),
     ofDay: sqlite.prepare('SELECT line, import_key AS key FROM temp.import_stage WHERE substr(taken_at, 1, 10) = ? ORDER BY line'),
     drop: sqlite.prepare('DELETE FROM temp.import_stage WHERE line = ?'),
@@ -114,13 +120,18 @@ function openStage(db: TidewrightDB): Stage {
   }
 }
 
-/** Stages each row that passes (see the file's comment). */
+/** Stages each row that passes (see the file's comment). Runs in staging's read transaction. */
 function stagingSink(db: TidewrightDB, tankId: string, stage: Stage): ImportSink {
-  const holds = holdsOf(db)
-  const tankHolds = (key: string) => holds.get(tankId, key) !== undefined
+  const { holds, holdsAny } = statementsOf(db)
+  // Asked once, in the read transaction every look-up shares: a tank that holds no imported
+  // test holds none of the file's keys, and its rows are not looked up one by one (a first
+  // import, the long one). A row imported meanwhile is still a duplicate, by the write's ON CONFLICT.
+  const tankHolds = holdsAny.get(tankId) === undefined
+    ? () => false
+    : (key: string) => holds.get(tankId, key) !== undefined
   return {
     heldOnDay: day => testsOnDay(db, tankId, day),
-    holds: key => tankHolds(key) || stage.hasKey.get(key) !== undefined,
+    holds: ({ takenAt, key }) => tankHolds(key) || stage.hasKey.get(takenAt, key) !== undefined,
     add: ({ line, takenAt, values: v, notes, key, entered }: ImportRow) => {
       if (tankHolds(key)) return false
       const staged = stage.insert.run(line, randomUUID(), takenAt, v.ammoniaN, v.nitriteN, v.nitrateN, v.pH, v.temperatureC, v.salinity,
@@ -147,7 +158,7 @@ interface Recheck {
  * unstaged and refused, and rows the tank now holds (imported meanwhile) unstaged as duplicates.
  */
 function recheckDays(db: TidewrightDB, tankId: string, stage: Stage): Recheck {
-  const holds = holdsOf(db)
+  const { holds } = statementsOf(db)
   const result: Recheck = { duplicates: 0, refused: [] }
   for (const [day, n] of stage.perDay) {
     const held = testsOnDay(db, tankId, day)

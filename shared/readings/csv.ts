@@ -5,7 +5,7 @@
 import type { ImportTarget, ReadingImportInput } from '../schemas/reading'
 import { IMPORT_TARGETS } from '../schemas/reading'
 import type { EntryIssue, KitBasisChoice, ReadingEntry } from './entry'
-import { calendarDateExists, parseDecimal, parseIsoTime } from './fields'
+import { calendarDateExists, parseDecimal, parseIsoTime, STORED_TIME } from './fields'
 
 /** Header words each target is recognised by (lower case, punctuation removed). */
 const HEADER_HINTS: Record<ImportTarget, string[]> = {
@@ -70,25 +70,37 @@ export const CSV_TIME_FORMATS_MESSAGE = 'Write the date as 2026-03-14 (read as n
 /**
  * A date-time cell in one of the documented forms (see parseIsoTime): ISO 8601, or
  * "YYYY-MM-DD HH:MM[:SS]" read as UTC; a date alone is noon UTC, so the day is the same
- * for any time zone within 12 hours. Null for anything else.
+ * for any time zone within 12 hours. The instant in epoch ms, or null for anything else.
  */
-export function parseCsvTime(cell: string): string | null {
+export function readCsvTime(cell: string): number | null {
   const parsed = parseIsoTime(cell)
   if (!parsed) return null
-  return new Date(parsed.dateOnly ? parsed.ms + 12 * 3_600_000 : parsed.ms).toISOString()
+  return parsed.dateOnly ? parsed.ms + 12 * 3_600_000 : parsed.ms
+}
+
+/** readCsvTime as the stored text ("2026-03-14T12:00:00.000Z"), or null. */
+export function parseCsvTime(cell: string): string | null {
+  const ms = readCsvTime(cell)
+  return ms === null ? null : new Date(ms).toISOString()
 }
 
 /** How each row is read; the basis is settled before the rows are (see importBasis). */
 type Options = Pick<ReadingImportInput, 'temperatureUnit' | 'salinityMode' | 'sgBasis'> & { basis: KitBasisChoice }
 
-const NUMERIC: readonly ImportTarget[] = ['ammonia', 'nitrite', 'nitrate', 'pH', 'temperature', 'salinity', 'alkalinityDkh', 'calciumMgL', 'magnesiumMgL', 'phosphateMgL']
+const NUMERIC = ['ammonia', 'nitrite', 'nitrate', 'pH', 'temperature', 'salinity', 'alkalinityDkh', 'calciumMgL', 'magnesiumMgL', 'phosphateMgL'] as const satisfies readonly ImportTarget[]
+
+/**
+ * A row read as the entry the form sends, and the instant its time names (the entry's
+ * takenAt, read once: convertEntry and the import take it as it is). takenMs is left
+ * out for a time past year 9999 or before year 0, whose stored text is not ISO 8601's
+ * four-digit form: the entry rules read that text again, and refuse it.
+ */
+export type CsvRowResult = { entry: ReadingEntry, takenMs?: number } | { issues: EntryIssue[] }
 
 /** One CSV row (header -> cell) as a reading entry, or the messages for the cells that are not numbers or times. */
-export function rowToEntry(row: Record<string, string | undefined>, mapping: Partial<Record<ImportTarget, string>>, options: Options): { entry: ReadingEntry } | { issues: EntryIssue[] } {
-  return cellsToEntry((target) => {
-    const header = mapping[target]
-    return header === undefined ? '' : (row[header] ?? '')
-  }, options)
+export function rowToEntry(row: Record<string, string | undefined>, mapping: Partial<Record<ImportTarget, string>>, options: Options): CsvRowResult {
+  const headers = Object.keys(row)
+  return arrayRowToEntry(headers.map(h => row[h] ?? ''), columnIndexes(headers, mapping), options)
 }
 
 /** Column positions of each mapped target, for rows parsed as arrays (the fast path for large files). */
@@ -102,47 +114,58 @@ export function columnIndexes(headers: readonly string[], mapping: Partial<Recor
 }
 
 /** One CSV row parsed as an array of cells, with the column positions from columnIndexes. */
-export function arrayRowToEntry(cells: readonly string[], indexes: Partial<Record<ImportTarget, number>>, options: Options): { entry: ReadingEntry } | { issues: EntryIssue[] } {
-  return cellsToEntry((target) => {
-    const index = indexes[target]
-    return index === undefined ? '' : (cells[index] ?? '')
-  }, options)
+export function arrayRowToEntry(cells: readonly string[], indexes: Partial<Record<ImportTarget, number>>, options: Options): CsvRowResult {
+  return csvRowReader(indexes, options)(cells)
 }
 
-function cellsToEntry(raw: (target: ImportTarget) => string, options: Options): { entry: ReadingEntry } | { issues: EntryIssue[] } {
-  const issues: EntryIssue[] = []
-  const time = raw('takenAt')
-  const takenAt = parseCsvTime(time)
-  if (!takenAt) issues.push({ field: 'takenAt', message: calendarDateExists(time) ? CSV_TIME_FORMATS_MESSAGE : 'That date does not exist. Check the day and the month.' })
-  const numbers: Partial<Record<ImportTarget, number | null>> = {}
-  for (const target of NUMERIC) {
-    const text = raw(target).trim()
-    if (!text) { numbers[target] = null; continue }
-    const value = parseDecimal(text)
-    if (value === null) issues.push({ field: target, message: 'Not a number.' })
-    else numbers[target] = value
-  }
-  if (issues.length) return { issues }
-  const notes = raw('notes').trim()
-  return {
-    entry: {
-      takenAt: takenAt!,
-      ammonia: numbers.ammonia,
-      nitrite: numbers.nitrite,
-      nitrate: numbers.nitrate,
-      basis: options.basis,
-      pH: numbers.pH,
-      temperature: numbers.temperature,
-      temperatureUnit: options.temperatureUnit,
-      salinity: numbers.salinity,
-      salinityMode: options.salinityMode,
-      sgBasis: options.sgBasis,
-      alkalinityDkh: numbers.alkalinityDkh,
-      calciumMgL: numbers.calciumMgL,
-      magnesiumMgL: numbers.magnesiumMgL,
-      phosphateMgL: numbers.phosphateMgL,
+/**
+ * arrayRowToEntry for every row of one file: the column positions and options are settled
+ * once, and a row costs its cells alone (an import reads 100,000).
+ */
+export function csvRowReader(indexes: Partial<Record<ImportTarget, number>>, options: Options): (cells: readonly string[]) => CsvRowResult {
+  // -1: a target no column holds, read as an empty cell.
+  const timeAt = indexes.takenAt ?? -1
+  const notesAt = indexes.notes ?? -1
+  const numberAt = NUMERIC.map(target => indexes[target] ?? -1)
+  const { basis, temperatureUnit, salinityMode, sgBasis } = options
+  return (cells) => {
+    let issues: EntryIssue[] | null = null
+    const time = timeAt < 0 ? '' : (cells[timeAt] ?? '')
+    const takenMs = readCsvTime(time)
+    if (takenMs === null) issues = [{ field: 'takenAt', message: calendarDateExists(time) ? CSV_TIME_FORMATS_MESSAGE : 'That date does not exist. Check the day and the month.' }]
+    const numbers: (number | null)[] = []
+    for (let i = 0; i < NUMERIC.length; i++) {
+      const at = numberAt[i]!
+      const text = at < 0 ? '' : (cells[at] ?? '').trim()
+      const value = text ? parseDecimal(text) : null
+      if (text && value === null) (issues ??= []).push({ field: NUMERIC[i]!, message: 'Not a number.' })
+      numbers.push(value)
+    }
+    if (issues) return { issues }
+    const notes = notesAt < 0 ? '' : (cells[notesAt] ?? '').trim()
+    // The cell itself when it is the stored text already (Tidewright's export, most devices):
+    // no Date to format per row. Not for years 0 to 99, which Date.UTC reads as 1900 to 1999.
+    const takenAt = STORED_TIME.test(time) && !time.startsWith('00') ? time : new Date(takenMs!).toISOString()
+    const entry: ReadingEntry = {
+      takenAt,
+      ammonia: numbers[0],
+      nitrite: numbers[1],
+      nitrate: numbers[2],
+      basis,
+      pH: numbers[3],
+      temperature: numbers[4],
+      temperatureUnit,
+      salinity: numbers[5],
+      salinityMode,
+      sgBasis,
+      alkalinityDkh: numbers[6],
+      calciumMgL: numbers[7],
+      magnesiumMgL: numbers[8],
+      phosphateMgL: numbers[9],
       notes: notes || null,
-    },
+    }
+    // ISO 8601's four-digit years only (see CsvRowResult).
+    return takenAt.length === 24 ? { entry, takenMs: takenMs! } : { entry }
   }
 }
 

@@ -13,9 +13,9 @@ import { toNitrogen, fromNitrogen, type NitrogenSpecies } from '../chemistry/nit
 import { SG_BASES, salinityFromConductivity, salinityFromSpecificGravity } from '../chemistry/seawater'
 import { DEFAULT_THRESHOLDS } from '../cycle/thresholds'
 import { celsiusToFahrenheit, fahrenheitToCelsius } from '../units'
-import { calendarDateExists, ENTRY_NOTES_MAX, parseIsoTime, toIsoInstant } from './fields'
+import { calendarDateExists, ENTRY_NOTES_MAX, parseIsoTime, STORED_TIME, toIsoInstant } from './fields'
 import {
-  MEASURED_FIELDS, PHYSICAL_BOUNDS,
+  AMMONIA_BASES, MEASURED_FIELDS, NITRATE_BASES, NITRITE_BASES, PHYSICAL_BOUNDS, TEMPERATURE_UNITS,
   type AmmoniaBasis, type FlagSeverity, type MeasuredField, type NitrateBasis, type NitriteBasis, type SalinityMode, type TemperatureUnit,
 } from '../vocabulary'
 
@@ -92,8 +92,6 @@ export interface CanonicalReading {
 }
 
 export type EntryResult = { ok: true, reading: CanonicalReading } | { ok: false, issues: EntryIssue[] }
-
-const ISO_UTC = /^\d{4}-\d{2}-\d{2}T\d{2}:\d{2}:\d{2}\.\d{3}Z$/
 
 /** A back-dated reading is fine; one from the future beyond this clock skew is refused. */
 export const FUTURE_SKEW_MS = 5 * 60_000
@@ -177,6 +175,11 @@ export function checkTakenAt(takenAt: string, now: Date): EntryIssue | null {
   if (!calendarDateExists(takenAt)) return { field: 'takenAt', message: 'That date does not exist. Check the day and the month.' }
   const t = parseIsoTime(takenAt)?.ms
   if (t === undefined) return { field: 'takenAt', message: 'Give the date and time the test was taken.' }
+  return checkInstant(t, now)
+}
+
+/** checkTakenAt's rules for the instant itself (epoch ms), once the text is read. */
+function checkInstant(t: number, now: Date): EntryIssue | null {
   if (t > now.getTime() + FUTURE_SKEW_MS) return { field: 'takenAt', message: 'A test cannot be taken in the future. Check the date and time.' }
   if (t < now.getTime() - OLDEST_READING_YEARS * 365.25 * 86_400_000) return { field: 'takenAt', message: 'That date is too far in the past.' }
   return null
@@ -237,8 +240,26 @@ export function flagsForValues(values: CanonicalValues): EntryFlag[] {
  * cannot be real. Alarming but possible values come back as `flags`.
  */
 export function toCanonicalReading(entry: ReadingEntry, now: Date = new Date()): EntryResult {
+  const converted = convertEntry(entry, now)
+  if (!converted.ok) return converted
+  const { takenAt, values, notes } = converted
+  return { ok: true, reading: { takenAt, values, notes, entered: enteredRecord(entry), flags: flagsForValues(values) } }
+}
+
+/** An entry's canonical time, values and notes, or a message per field (what toCanonicalReading decides, without its flags and entered record). */
+export type ConvertedEntry = { ok: true, takenAt: string, values: CanonicalValues, notes: string | null } | { ok: false, issues: EntryIssue[] }
+
+/**
+ * toCanonicalReading's rules, for a caller that stores the values and keeps what was typed
+ * its own way (the CSV import, 100,000 rows: it builds neither flags nor an entered record).
+ *
+ * `takenMs`, when the caller has read the time already (the import, once per row): the
+ * instant entry.takenAt names, which must then be its stored text ("2026-03-14T08:30:00.000Z",
+ * as toISOString writes it, so a real day); the text is not read again.
+ */
+export function convertEntry(entry: ReadingEntry, now: Date = new Date(), takenMs?: number): ConvertedEntry {
   const issues: EntryIssue[] = []
-  const timeIssue = checkTakenAt(entry.takenAt, now)
+  const timeIssue = takenMs === undefined ? checkTakenAt(entry.takenAt, now) : checkInstant(takenMs, now)
   if (timeIssue) issues.push(timeIssue)
 
   const values: CanonicalValues = {
@@ -267,19 +288,13 @@ export function toCanonicalReading(entry: ReadingEntry, now: Date = new Date()):
     else values.salinity = result.value
   }
 
-  const flags: EntryFlag[] = []
   for (const field of MEASURED_FIELDS) {
     const value = values[field]
     if (value === null) continue
     const inputField = INPUT_FIELD[field]
     if (issues.length && issues.some(i => i.field === inputField)) continue
     const [min, max] = PHYSICAL_BOUNDS[field]
-    if (!Number.isFinite(value) || value < min || value > max) {
-      issues.push({ field: inputField, message: boundsMessage(field, entry) })
-      continue
-    }
-    const flag = flagFor(field, value)
-    if (flag) flags.push(flag)
+    if (!Number.isFinite(value) || value < min || value > max) issues.push({ field: inputField, message: boundsMessage(field, entry) })
   }
   const notes = entry.notes?.trim() ? entry.notes.trim() : null
   if (notes && notes.length > ENTRY_NOTES_MAX) issues.push({ field: 'notes', message: `Notes are at most ${ENTRY_NOTES_MAX} characters.` })
@@ -287,17 +302,8 @@ export function toCanonicalReading(entry: ReadingEntry, now: Date = new Date()):
     issues.push({ field: 'ammonia', message: 'Enter at least one test result.' })
   }
   if (issues.length) return { ok: false, issues }
-
-  return {
-    ok: true,
-    reading: {
-      takenAt: ISO_UTC.test(entry.takenAt) ? entry.takenAt : toIsoInstant(entry.takenAt)!,
-      values,
-      notes,
-      entered: enteredRecord(entry),
-      flags,
-    },
-  }
+  // Every value is within its bounds here: flagsForValues (toCanonicalReading) flags each.
+  return { ok: true, takenAt: takenMs !== undefined || STORED_TIME.test(entry.takenAt) ? entry.takenAt : toIsoInstant(entry.takenAt)!, values, notes }
 }
 
 /** The refusal for a value outside physical bounds, in the units the user typed. */
@@ -317,7 +323,7 @@ function boundsMessage(field: MeasuredField, entry: ReadingEntry): string {
 }
 
 /** What was typed, in the shape the demo seed and CSV import also use. */
-function enteredRecord(entry: ReadingEntry): Record<string, unknown> {
+export function enteredRecord(entry: ReadingEntry): Record<string, unknown> {
   const out: Record<string, unknown> = {}
   if (present(entry.ammonia)) out.ammonia = { value: entry.ammonia, basis: entry.basis.ammonia }
   if (present(entry.nitrite)) out.nitrite = { value: entry.nitrite, basis: entry.basis.nitrite }
@@ -335,6 +341,67 @@ function enteredRecord(entry: ReadingEntry): Record<string, unknown> {
     if (present(entry[key])) out[key] = entry[key]
   }
   return out
+}
+
+/** A number as JSON.stringify writes it. */
+const jsonNumber = (value: number): string => (Number.isFinite(value) ? String(value) : 'null')
+
+/** The words an entered record holds, as JSON strings: written once, not once per row. */
+const QUOTED = new Map([...AMMONIA_BASES, ...NITRITE_BASES, ...NITRATE_BASES, ...TEMPERATURE_UNITS, ...SG_BASIS_KEYS, 'csv'].map(word => [word, JSON.stringify(word)]))
+const jsonString = (text: string): string => QUOTED.get(text) ?? JSON.stringify(text)
+
+/**
+ * JSON.stringify({ ...enteredRecord(entry), source }), byte for byte, written as text: a CSV
+ * import stores one for each of up to 100,000 rows, and building the record's objects only to
+ * serialise them cost more than writing the text.
+ */
+export function enteredJson(entry: ReadingEntry, source: string): string {
+  let out = '{'
+  let comma = ''
+  if (present(entry.ammonia)) {
+    out += `"ammonia":{"value":${jsonNumber(entry.ammonia)},"basis":${jsonString(entry.basis.ammonia)}}`
+    comma = ','
+  }
+  if (present(entry.nitrite)) {
+    out += `${comma}"nitrite":{"value":${jsonNumber(entry.nitrite)},"basis":${jsonString(entry.basis.nitrite)}}`
+    comma = ','
+  }
+  if (present(entry.nitrate)) {
+    out += `${comma}"nitrate":{"value":${jsonNumber(entry.nitrate)},"basis":${jsonString(entry.basis.nitrate)}}`
+    comma = ','
+  }
+  if (present(entry.pH)) {
+    out += `${comma}"pH":${jsonNumber(entry.pH)}`
+    comma = ','
+  }
+  if (present(entry.temperature)) {
+    out += `${comma}"temperature":{"value":${jsonNumber(entry.temperature)},"unit":${jsonString(entry.temperatureUnit)}}`
+    comma = ','
+  }
+  if (present(entry.salinity)) {
+    const value = jsonNumber(entry.salinity)
+    out += entry.salinityMode === 'sg'
+      ? `${comma}"salinity":{"value":${value},"as":"sg","basis":${jsonString(entry.sgBasis ?? '25/25C')}}`
+      : entry.salinityMode === 'conductivity'
+        ? `${comma}"salinity":{"value":${value},"as":"conductivity","temperatureC":${jsonNumber(entry.conductivityTemperatureC ?? 25)}}`
+        : `${comma}"salinity":{"value":${value},"as":"practical"}`
+    comma = ','
+  }
+  if (present(entry.alkalinityDkh)) {
+    out += `${comma}"alkalinityDkh":${jsonNumber(entry.alkalinityDkh)}`
+    comma = ','
+  }
+  if (present(entry.calciumMgL)) {
+    out += `${comma}"calciumMgL":${jsonNumber(entry.calciumMgL)}`
+    comma = ','
+  }
+  if (present(entry.magnesiumMgL)) {
+    out += `${comma}"magnesiumMgL":${jsonNumber(entry.magnesiumMgL)}`
+    comma = ','
+  }
+  if (present(entry.phosphateMgL)) out += `${comma}"phosphateMgL":${jsonNumber(entry.phosphateMgL)}`
+  // The source comes last, after a comma when a value came before it.
+  return `${out}${out.length > 1 ? ',' : ''}"source":${jsonString(source)}}`
 }
 
 interface StoredReading extends CanonicalValues {

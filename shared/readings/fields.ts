@@ -64,6 +64,9 @@ export function parseIsoTime(text: string): ParsedTime | null {
   return { ms: utc - offsetMinutes * 60_000, dateOnly: match[4] === undefined }
 }
 
+/** The stored form of an instant: "2026-03-14T08:30:00.000Z", as toISOString writes it. */
+export const STORED_TIME = /^\d{4}-\d{2}-\d{2}T\d{2}:\d{2}:\d{2}\.\d{3}Z$/
+
 /** The instant a text names, as stored ("2026-03-14T08:30:00.000Z"), read by parseIsoTime; null when it names none. */
 export function toIsoInstant(text: string): string | null {
   const parsed = parseIsoTime(text)

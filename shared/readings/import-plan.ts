@@ -10,8 +10,8 @@ import Papa from 'papaparse'
 import type { ReadingImportInput } from '../schemas/reading'
 import type { ImportPreview, ImportRowError } from '../types/readings'
 import { MEASURED_FIELDS } from '../vocabulary'
-import { arrayRowToEntry, columnIndexes, csvNumberText, duplicateHeaderColumns, guessMapping, importBasis } from './csv'
-import { toCanonicalReading, type CanonicalReading, type CanonicalValues, type KitBasisChoice } from './entry'
+import { columnIndexes, csvNumberText, csvRowReader, duplicateHeaderColumns, guessMapping, importBasis } from './csv'
+import { convertEntry, enteredJson, type CanonicalValues, type KitBasisChoice, type ReadingEntry } from './entry'
 import { dayFullRowMessage, dayOf, MAX_IMPORT_ROWS, TESTS_PER_TANK_PER_DAY } from './limits'
 
 /** At most this many row errors are reported (the first, in file order); the count is always complete. */
@@ -43,8 +43,8 @@ export interface ImportSink {
   heldOnDay: (day: string) => number
   /** Takes the row: false when the tank (or the file, earlier) already holds a test with its key. */
   add: (row: ImportRow) => boolean
-  /** Whether the tank (or the file, earlier) already holds a test with this key, for a row whose day is full. */
-  holds: (key: string) => boolean
+  /** Whether the tank (or the file, earlier) already holds a test with the row's key, for a row whose day is full. */
+  holds: (row: ImportRow) => boolean
 }
 
 /** What an import of the whole file came to, without the rows themselves. */
@@ -78,7 +78,7 @@ export interface PlanContext {
 }
 
 /** The import key: a hash of the row's canonical content, so the same test imported twice is one reading. */
-export function importKeyOf(reading: CanonicalReading): string {
+export function importKeyOf(reading: { takenAt: string, values: CanonicalValues, notes: string | null }): string {
   let normalised = reading.takenAt
   for (const field of MEASURED_FIELDS) {
     const value = reading.values[field]
@@ -88,11 +88,9 @@ export function importKeyOf(reading: CanonicalReading): string {
   return hash('sha256', normalised, 'hex').slice(0, 32)
 }
 
-/** What was typed, as stored in readings.entered (JSON), marked as coming from a CSV file. */
-export function enteredText(reading: CanonicalReading): string {
-  // The record is this row's own (toCanonicalReading builds it anew): marked in place, not copied.
-  reading.entered.source = 'csv'
-  return JSON.stringify(reading.entered)
+/** What was typed, as stored in readings.entered (JSON): the entered record, marked as coming from a CSV file. */
+export function enteredText(entry: ReadingEntry): string {
+  return enteredJson(entry, 'csv')
 }
 
 /**
@@ -130,7 +128,7 @@ export const IMPORT_CHUNK_ROWS = 256
 
 /**
  * Reads the file as the parser reads it: each row is mapped, converted with the entry rules of
- * the form (toCanonicalReading), held to the signed-off period and keyed; each chunk of
+ * the form (convertEntry), held to the signed-off period and keyed; each chunk of
  * IMPORT_CHUNK_ROWS rows that passed is then held to its days' room and handed to `sink` in
  * file order, and dropped. Nothing else of a row is kept (but the first PREVIEW_ROWS taken and
  * the first MAX_REPORTED_ERRORS errors), so memory does not grow with the file. Errors are
@@ -141,8 +139,7 @@ export const IMPORT_CHUNK_ROWS = 256
 export function planImport(input: ReadingImportInput, context: PlanContext, sink: ImportSink): PlanOutcome {
   let refusal: PlanOutcome | null = null
   let plan: ImportPlan | null = null
-  let indexes: ReturnType<typeof columnIndexes> | null = null
-  let options: Parameters<typeof arrayRowToEntry>[2] | null = null
+  let readRow: ReturnType<typeof csvRowReader> | null = null
   const room = new DayRoom(sink.heldOnDay)
   let index = 0
   let chunk: ImportRow[] = []
@@ -166,7 +163,7 @@ export function planImport(input: ReadingImportInput, context: PlanContext, sink
     const day = dayOf(row.takenAt)
     // A test already held takes no room, so a full day still counts it as a duplicate.
     if (!room.hasRoom(day)) {
-      if (sink.holds(row.key)) into.duplicates++
+      if (sink.holds(row)) into.duplicates++
       else report(row.line, [{ field: 'takenAt', message: dayFullRowMessage(day) }])
       return
     }
@@ -197,9 +194,8 @@ export function planImport(input: ReadingImportInput, context: PlanContext, sink
           refusal = { kind: 'field-issues', issues: [{ field: 'mapping.takenAt', message: 'Choose the column that holds the date and time of each test.' }] }
         }
         if (refusal) return parser.abort()
-        indexes = columnIndexes(headers, mapping)
         const basis = importBasis(input.basis, mapping, context.kit)
-        options = { basis, temperatureUnit: input.temperatureUnit, salinityMode: input.salinityMode, sgBasis: input.sgBasis }
+        readRow = csvRowReader(columnIndexes(headers, mapping), { basis, temperatureUnit: input.temperatureUnit, salinityMode: input.salinityMode, sgBasis: input.sgBasis })
         plan = { headers, mapping, basis, rowCount: 0, added: 0, errors: [], errorCount: 0, duplicates: 0, preview: [] }
         return
       }
@@ -209,14 +205,15 @@ export function planImport(input: ReadingImportInput, context: PlanContext, sink
       }
       plan.rowCount = index
       const line = index + 1 // the header is row 1, as a spreadsheet numbers it
-      const mapped = arrayRowToEntry(cells, indexes!, options!)
+      const mapped = readRow!(cells)
       if ('issues' in mapped) return report(line, mapped.issues)
-      const converted = toCanonicalReading(mapped.entry, context.now)
-      if (!converted.ok) return report(line, converted.issues)
-      const { reading } = converted
+      const { entry, takenMs } = mapped
+      // The entry rules of the form; the import keeps no flags, and writes what was typed as text.
+      const reading = convertEntry(entry, context.now, takenMs)
+      if (!reading.ok) return report(line, reading.issues)
       // Rows inside a signed-off period would change what the supervisor signed: refused per row.
-      if (Date.parse(reading.takenAt) <= context.lockedMs) return report(line, [{ field: 'takenAt', message: 'This test falls in the signed-off period and cannot be imported.' }])
-      chunk.push({ line, takenAt: reading.takenAt, values: reading.values, notes: reading.notes, key: importKeyOf(reading), entered: enteredText(reading) })
+      if ((takenMs ?? Date.parse(reading.takenAt)) <= context.lockedMs) return report(line, [{ field: 'takenAt', message: 'This test falls in the signed-off period and cannot be imported.' }])
+      chunk.push({ line, takenAt: reading.takenAt, values: reading.values, notes: reading.notes, key: importKeyOf(reading), entered: enteredText(entry) })
       if (chunk.length === IMPORT_CHUNK_ROWS) handOver(plan)
     },
   })

@@ -4,13 +4,14 @@
  * does (rows repeated in the file, rows the tank already holds, a day with little room left,
  * refused rows), a test saved on another connection between staging and writing must still
  * take its day's room first, a row imported meanwhile is a duplicate, a file past the row cap
- * must leave nothing behind, and the audit row commits with the rows. Real migrated SQLite file with the demo company; the worker's function is
+ * must leave nothing behind, and the audit row commits with the rows; repeats and rows imported
+ * meanwhile count the same in a tank that holds no imported tests yet. Real migrated SQLite file with the demo company; the worker's function is
  * called directly.
  */
 import { mkdtempSync, rmSync } from 'node:fs'
 import { tmpdir } from 'node:os'
 import { join } from 'node:path'
-import { and, eq } from 'drizzle-orm'
+import { and, eq, isNotNull } from 'drizzle-orm'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { migrateDatabase, openDatabase, type TidewrightDB } from '../../../../server/db/connection'
 import { auditLog, readings } from '../../../../server/db/schema'
@@ -37,6 +38,8 @@ afterAll(() => {
 })
 
 const countOn = (tankId: string) => db.select().from(readings).where(eq(readings.tankId, tankId)).all().length
+/** Readings of the tank that carry an import key. */
+const importedIn = (tankId: string) => db.select().from(readings).where(and(eq(readings.tankId, tankId), isNotNull(readings.importKey))).all().length
 const importAudits = (tankId: string) => db.select().from(auditLog).where(and(eq(auditLog.action, 'reading.import'), eq(auditLog.entityId, tankId))).all().length
 
 function task(tankId: string, csv: string, dryRun: boolean): ReadingImportTask {
@@ -140,6 +143,43 @@ describe('the CSV import in the worker', () => {
     expect(inserted).toBe(0)
     expect([plan.added, plan.duplicates, plan.errorCount]).toEqual([0, 3, 0])
     expect(countOn(tankId) - before).toBe(3)
+  })
+
+  it('counts repeats within the file as duplicates in a tank that holds no imported tests yet, on a day with room and on a full one', () => {
+    const tankId = demo.tanks.lounge
+    expect(importedIn(tankId)).toBe(0)
+    const day = Date.parse(new Date(now.getTime() - 700 * 86_400_000).toISOString().slice(0, 10))
+    const tests = minutely(TESTS_PER_TANK_PER_DAY + 1, day)
+    // A repeat while the day has room, the day filled, a repeat once it is full, then a new test it has no room for.
+    const rows = [...tests.slice(0, 10), tests[0]!, ...tests.slice(10, TESTS_PER_TANK_PER_DAY), tests[1]!, tests[TESTS_PER_TANK_PER_DAY]!]
+    const csv = ['takenAt,ammonia,nitrite,nitrate', ...rows].join('\n')
+    const dry = run(tankId, csv, true)
+    const wet = run(tankId, csv, false)
+    if (dry.kind !== 'done' || wet.kind !== 'done') throw new Error(`${dry.kind} ${wet.kind}`)
+    for (const answer of [dry.preview, wet.preview]) {
+      expect([answer.rows, answer.valid, answer.duplicates, answer.errorRows]).toEqual([rows.length, TESTS_PER_TANK_PER_DAY, 2, 1])
+      expect(answer.errors).toEqual([{ row: rows.length + 1, field: 'takenAt', message: expect.stringContaining('the most one day may hold') }])
+    }
+    expect(wet.preview.inserted).toBe(TESTS_PER_TANK_PER_DAY)
+    expect(importedIn(tankId)).toBe(TESTS_PER_TANK_PER_DAY)
+    // The same file again: every test it holds is a duplicate, the day still refuses the new one.
+    const again = run(tankId, csv, false)
+    if (again.kind !== 'done') throw new Error(again.kind)
+    expect([again.preview.inserted, again.preview.duplicates, again.preview.errorRows]).toEqual([0, rows.length - 1, 1])
+  })
+
+  it('counts a row imported on another connection meanwhile as a duplicate in a tank that held no imported tests when staging began', () => {
+    const tankId = demo.tanks.nano
+    expect(importedIn(tankId)).toBe(0)
+    const day = Date.parse(new Date(now.getTime() - 800 * 86_400_000).toISOString().slice(0, 10))
+    const csv = ['takenAt,ammonia,nitrite,nitrate', ...minutely(3, day)].join('\n')
+    const { plan, inserted } = stageThenWrite(task(tankId, csv, false), () => {
+      const staged = workerConnection(dbPath).$client.prepare('SELECT taken_at AS takenAt, ammonia_n AS ammoniaN, import_key AS importKey FROM temp.import_stage ORDER BY line LIMIT 2').all() as { takenAt: string, ammoniaN: number, importKey: string }[]
+      for (const row of staged) db.insert(readings).values({ tankId, ...row, entered: {} }).run()
+    })
+    expect(inserted).toBe(1)
+    expect([plan.added, plan.duplicates, plan.errorCount]).toEqual([1, 2, 0])
+    expect(importedIn(tankId)).toBe(3)
   })
 
   it('leaves nothing behind for a file past the row cap, though its first chunks were staged', () => {

@@ -48,6 +48,17 @@ describe('CSV mapping', () => {
     }
   })
 
+  it('stores a row\'s time as parseCsvTime writes it, whatever form the cell is in', () => {
+    const cells = ['2026-03-10T08:30:00.000Z', ' 2026-03-10T08:30:00.000Z ', '2026-03-10T08:30:00.5Z', '2026-03-10T08:30:00.500+00:00', '2026-03-10', '0150-06-01T10:00:00.000Z',
+      // Date.UTC reads years 0 to 99 as 1900 to 1999.
+      '0050-01-01T00:00:00.000Z', '0000-01-01T00:00:00.000Z']
+    for (const cell of cells) {
+      const result = arrayRowToEntry([cell, '0.5'], { takenAt: 0, ammonia: 1 }, options)
+      expect('entry' in result && result.entry.takenAt, cell).toBe(parseCsvTime(cell))
+    }
+    expect(parseCsvTime('0050-01-01T00:00:00.000Z')).toBe('1950-01-01T00:00:00.000Z')
+  })
+
   it('says which forms it reads when a row\'s date is in another', () => {
     const result = rowToEntry({ Date: '05/01/2026', NH3: '0.25' }, { takenAt: 'Date', ammonia: 'NH3' }, options)
     expect(result).toEqual({ issues: [{ field: 'takenAt', message: CSV_TIME_FORMATS_MESSAGE }] })

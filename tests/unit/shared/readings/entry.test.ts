@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest'
 import { t90FromT68, conductivityFromSalinity, specificGravity, SG_BASES } from '../../../../shared/chemistry/seawater'
-import { checkCanonicalReading, entryFromStored, toCanonicalReading, type CanonicalValues, type ReadingEntry } from '../../../../shared/readings/entry'
+import { checkCanonicalReading, enteredJson, enteredRecord, entryFromStored, SG_BASIS_KEYS, toCanonicalReading, type CanonicalValues, type ReadingEntry } from '../../../../shared/readings/entry'
 import { PHYSICAL_BOUNDS } from '../../../../shared/vocabulary'
 
 const NOW = new Date('2026-06-01T12:00:00Z')
@@ -106,6 +106,27 @@ describe('toCanonicalReading: bounds and flags', () => {
 
   it('refuses an empty test', () => {
     expect(issues(base())[0]!.message).toMatch(/at least one/)
+  })
+})
+
+describe('enteredJson: the entered record as text', () => {
+  it('writes what JSON.stringify writes of the record a reading keeps, for every basis, unit, mode and value', () => {
+    const numbers = [null, undefined, 0, -0, 0.25, 1e-7, 8.123456789012, 1300, 2 / 3, 1.5e21, Number.POSITIVE_INFINITY]
+    const pick = <T>(list: readonly T[], i: number): T => list[i % list.length]!
+    for (let i = 0; i < 3000; i++) {
+      const n = (k: number) => pick(numbers, i * 7 + k * 3 + Math.floor(i / 11) * k)
+      const entry: ReadingEntry = {
+        takenAt: '2026-06-01T09:00:00.000Z',
+        ammonia: n(1), nitrite: n(2), nitrate: n(3), pH: n(4),
+        basis: { ammonia: pick(['NH3', 'NH4', 'N'] as const, i), nitrite: pick(['NO2', 'N'] as const, i >> 1), nitrate: pick(['NO3', 'N'] as const, i >> 2) },
+        temperature: n(5), temperatureUnit: pick(['C', 'F'] as const, i >> 3),
+        salinity: n(6), salinityMode: pick(['practical', 'sg', 'conductivity'] as const, i >> 4),
+        sgBasis: pick([undefined, ...SG_BASIS_KEYS], i >> 5), conductivityTemperatureC: pick([undefined, null, 18.5], i >> 6),
+        alkalinityDkh: n(7), calciumMgL: n(8), magnesiumMgL: n(9), phosphateMgL: n(10),
+        notes: pick([null, 'a "quoted" note'], i),
+      }
+      expect(enteredJson(entry, 'csv')).toBe(JSON.stringify({ ...enteredRecord(entry), source: 'csv' }))
+    }
   })
 })
 

@@ -23,7 +23,7 @@ function memoryTank(held: Record<string, number> = {}, keys: string[] = []) {
       asked.push(day)
       return held[day] ?? 0
     },
-    holds: key => keySet.has(key),
+    holds: row => keySet.has(row.key),
     add: (row) => {
       if (keySet.has(row.key)) return false
       keySet.add(row.key)
