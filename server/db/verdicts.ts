@@ -56,6 +56,15 @@ export function computeAndStoreVerdict(db: Db, tankId: string, now = new Date())
 }
 
 /**
+ * The tank's engine input as the database holds it at `now` and its verdict, made from the
+ * history kept with the rows (a sign-off decides on it and records the input); undefined if there is no such tank.
+ */
+export function verdictWithInput(db: Db, tankId: string, now: Date): { input: CycleInput, verdict: Verdict } | undefined {
+  const found = cycleInputWithRows(db, tankId, now)
+  return found && { input: found.input, verdict: evaluateCycle(found.input, CURRENT_RULE_OPTIONS, preparedHistoryOf(found.rows)) }
+}
+
+/**
  * The tank's verdict and forecast as of `now` from its data as the database holds it (here, or
  * in a worker thread), undefined if there is no such tank. The engine and the forecast share
  * the history kept with the rows, so neither parses and orders the tests again.

@@ -2,8 +2,8 @@
  * The heavy-work pool: worker threads (piscina) for the work that would otherwise hold the
  * one request loop every company is served from (a 100,000-row CSV import takes seconds).
  * One thread fewer than the machine has cores, at least one, so requests keep a core. Its
- * tasks: the CSV import, the engine run for the evidence page and for the verdict
- * refresh after an import, and the certificate's PDF.
+ * tasks: the CSV import, the engine run for the evidence page and for the verdict refresh
+ * of a tank with a long history, that tank's CSV export, and the certificate's PDF.
  *
  * Each worker entry is built beside the server (scripts/build-workers.mjs): found by
  * looking up from this chunk's own file, so a moved .output keeps working. There is no
@@ -19,6 +19,7 @@ import type { AppendedTest } from '#server/domain/readings/engine-input-cache'
 import type { CertificateFacts } from './certificate'
 import type { CertificateTask } from '#server/workers/certificate'
 import type { ReadingImportResult, ReadingImportTask } from '#server/workers/reading-import'
+import type { ReadingsExportTask } from '#server/workers/readings-export'
 import type { TankVerdictTask } from '#server/workers/tank-verdict'
 
 let pool: Piscina | undefined
@@ -66,6 +67,11 @@ export function runReadingImport(task: Omit<ReadingImportTask, 'dbPath'>): Promi
  */
 export function evaluateOffLoop(tankId: string, now: Date, appended?: AppendedTest): Promise<TankEvaluation | null> {
   return heavyPool().run({ tankId, nowMs: now.getTime(), dbPath: dbPath(), appended } satisfies TankVerdictTask, { name: 'tankVerdict' })
+}
+
+/** A tank's readings as CSV text (server/domain/readings/export.ts), written in the pool. */
+export function exportReadingsOffLoop(tankId: string): Promise<string> {
+  return heavyPool().run({ tankId, dbPath: dbPath() } satisfies ReadingsExportTask, { name: 'readingsExport' })
 }
 
 /** The sign-off certificate's PDF bytes, rendered in the pool. */

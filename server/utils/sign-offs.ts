@@ -73,8 +73,11 @@ export function reopenSignOff(actor: Actor, tank: TankRow, reason: string, now =
 }
 
 /** Everything the tank page needs to show and offer about sign-off. */
-export function signOffState(actor: Actor, tank: TankRow, now = new Date()) {
-  return signOffAnswer(() => stateInDb(useDB(), actor, tank, canManageTank(actor, tank), now))
+export async function signOffState(actor: Actor, tank: TankRow, now = new Date()) {
+  // The stored verdict, made again first when too old (in the pool for a long history): the page never runs the engine on the request loop.
+  const stored = await currentVerdictRow(tank.id, now)
+  if (!stored) throw createError({ statusCode: 404, statusMessage: 'Tank not found' })
+  return signOffAnswer(() => stateInDb(useDB(), actor, tank, canManageTank(actor, tank), stored.verdict))
 }
 
 /** Livestock logged by staff after the sign-off moves the tank to stocking (called from onTankDataChanged). */

@@ -7,6 +7,7 @@
 import type { CertificateTask } from './certificate'
 
 export { readingImport } from './reading-import'
+export { readingsExport } from './readings-export'
 export { tankVerdict } from './tank-verdict'
 
 export async function certificatePdf(task: CertificateTask): Promise<Uint8Array> {

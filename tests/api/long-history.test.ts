@@ -60,6 +60,16 @@ describe('a tank with a long history', { timeout: 120_000 }, () => {
       const after = await api.get(`/api/tanks/${tank}/verdict`)
       expect(ruleIds(after.body.verdict.findings)).not.toContain('temperature.range')
       expect(after.body.verdict.phase).toBe(hot.body.phase)
+
+      // The export (written in the pool for a long history) holds every current test, the corrected one as corrected.
+      const exported = await fetch(`${own.server.baseURL}/api/tanks/${tank}/readings/export.csv`, { headers: { cookie: api.cookieHeader() } })
+      expect(exported.status).toBe(200)
+      expect(exported.headers.get('content-type')).toContain('text/csv')
+      const lines = (await exported.text()).trimEnd().split('\n')
+      expect(lines).toHaveLength(1 + count + 1)
+      expect(lines[0]).toMatch(/^taken_at,ammonia_mg_l_n,.*,temperature_c,/)
+      const temperature = lines[0]!.split(',').indexOf('temperature_c')
+      expect(lines.slice(1).filter(line => line.split(',')[temperature] !== '25')).toEqual([])
     })
   }
 })

@@ -5,7 +5,6 @@
  */
 import { randomBytes } from 'node:crypto'
 import { and, desc, eq, ne, sql } from 'drizzle-orm'
-import { evaluateCycle } from '#shared/cycle/engine'
 import type { SignOffRecord, SignOffRecordWithSnapshot } from '#shared/types/sign-off'
 import type { Role } from '#shared/vocabulary'
 import type { Db } from '#server/db/connection'
@@ -13,7 +12,7 @@ import { preparedPerDb } from '#server/db/prepared'
 import type { tanks } from '#server/db/schema'
 import { alerts, signOffs, users } from '#server/db/schema'
 import { readOrganisationSettings } from '#server/db/settings'
-import { cycleInputFor } from '#server/db/verdicts'
+import { verdictWithInput } from '#server/db/verdicts'
 import { SignOffRefused } from './refusal'
 
 export type TankRow = typeof tanks.$inferSelect
@@ -106,9 +105,9 @@ export function unresolvedAlertCount(db: Db, tankId: string): number {
 
 /** The engine's verdict for the tank as its data stands at `now`, with the input it was computed from. */
 export function evaluateNow(db: Db, tankId: string, now: Date) {
-  const input = cycleInputFor(db, tankId, now)
-  if (!input) throw new SignOffRefused(404, 'Tank not found')
-  return { input, verdict: evaluateCycle(input) }
+  const found = verdictWithInput(db, tankId, now)
+  if (!found) throw new SignOffRefused(404, 'Tank not found')
+  return found
 }
 
 /** The tank's supervisor, or an admin of its organisation. */

@@ -9,7 +9,7 @@ import type { ReviewItem, SignOffState, StockingPlanView } from '#shared/types/s
 import type { CyclePhase } from '#shared/types/tanks'
 import type { Db } from '#server/db/connection'
 import { alerts, clients, signOffs, tankVerdicts, tanks } from '#server/db/schema'
-import { evaluateNow, maySignOff, nameOf, organisationUserNames, signOffHistory, toSignOffRecord, unresolvedAlertCount, type SignOffActor, type TankRow } from './records'
+import { maySignOff, nameOf, organisationUserNames, signOffHistory, toSignOffRecord, unresolvedAlertCount, type SignOffActor, type TankRow } from './records'
 
 /**
  * The requests waiting for this supervisor (an admin: for the whole company), oldest first.
@@ -57,12 +57,12 @@ export function stockingPlan(signedAt: string, verdict: Verdict, acclimation?: A
 
 /**
  * Everything the tank page needs to show and offer about sign-off. `mayManage`: whether
- * the viewer may change this tank (server/utils/access.ts decides).
+ * the viewer may change this tank (server/utils/access.ts decides). `verdict`: the tank's
+ * current stored one (a request or a decision evaluates the tank again, `evaluateNow`).
  */
-export function signOffState(db: Db, viewer: SignOffActor, tank: TankRow, mayManage: boolean, now = new Date()): SignOffState {
+export function signOffState(db: Db, viewer: SignOffActor, tank: TankRow, mayManage: boolean, verdict: Verdict): SignOffState {
   const names = organisationUserNames(db, tank.organisationId)
   const history = signOffHistory(db, tank.id)
-  const { verdict } = evaluateNow(db, tank.id, now)
   const approved = history.find(r => r.status === 'approved') ?? null
   const pending = history.find(r => r.status === 'requested') ?? null
   const grounds = overrideGrounds(verdict, unresolvedAlertCount(db, tank.id))

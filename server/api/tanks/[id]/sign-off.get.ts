@@ -9,5 +9,5 @@ export default defineEventHandler(async (event) => {
   const actor = await requireActor(event)
   const { id } = await getValidatedRouterParams(event, valid(IdParams))
   const tank = requireVisibleTank(actor, id)
-  return signOffState(actor, tank)
+  return await signOffState(actor, tank, requestNow(event))
 })

@@ -1,22 +1,21 @@
-import Papa from 'papaparse'
 import { IdParams } from '#shared/schemas/common'
-import { csvNumber, EXPORT_COLUMNS } from '#shared/readings/csv'
-import { tankReadings } from '#server/domain/readings/current'
+import { readingsCsv } from '#server/domain/readings/export'
+import { hasLongHistory } from '#server/domain/tanks/long-history'
 
 /**
  * GET /api/tanks/:id/readings/export.csv — the tank's current readings (as corrected) as CSV in canonical
  * units (mg/L as N, degrees C, practical salinity); the header names the units. Re-importing
- * the file with its own mapping adds nothing twice.
+ * the file with its own mapping adds nothing twice. A tank with a long history is written in
+ * the heavy-work pool, off the request loop.
  */
 export default defineEventHandler(async (event) => {
   const actor = await requireActor(event)
   const { id } = await getValidatedRouterParams(event, valid(IdParams))
   const tank = requireVisibleTank(actor, id)
-  const rows = tankReadings(useDB(), tank.id)
-  const data = rows.map(r => EXPORT_COLUMNS.map(([, key]) => { const value = r[key]; return typeof value === 'number' ? csvNumber(value) : value ?? '' }))
-  const csv = Papa.unparse({ fields: EXPORT_COLUMNS.map(([header]) => header), data }, { newline: '\n', escapeFormulae: true })
+  const db = useDB()
+  const csv = hasLongHistory(db, tank.id) ? await exportReadingsOffLoop(tank.id) : readingsCsv(db, tank.id)
   const safeName = tank.name.replace(/[^A-Za-z0-9-]+/g, '-').replace(/^-|-$/g, '').toLowerCase() || 'tank'
   setResponseHeader(event, 'content-type', 'text/csv; charset=utf-8')
   setResponseHeader(event, 'content-disposition', `attachment; filename="${safeName}-readings.csv"`)
-  return `${csv}\n`
+  return csv
 })

@@ -13,6 +13,7 @@ import { auditLog, signOffs, tanks } from '../../../../../server/db/schema'
 import { seedDemo, type DemoIds } from '../../../../../server/db/seed/demo'
 import { decideSignOff, reopenSignOff, requestSignOff } from '../../../../../server/domain/sign-off/commands'
 import { entryLockRefusal, lockedUntil } from '../../../../../server/domain/sign-off/lock'
+import { evaluateNow } from '../../../../../server/domain/sign-off/records'
 import { SignOffRefused } from '../../../../../server/domain/sign-off/refusal'
 import { signOffState } from '../../../../../server/domain/sign-off/state'
 
@@ -69,7 +70,7 @@ describe('sign-off commands on a Db', () => {
     expect(lockedUntil(db, demo.tanks.nano)).toBe(decided.signOff.decidedAt)
     expect(entryLockRefusal(db, demo.tanks.nano, new Date(now.getTime() - 60_000))?.message).toMatch(/signed off on/)
     expect(entryLockRefusal(db, demo.tanks.nano, new Date(now.getTime() + 60_000))).toBeNull()
-    const state = signOffState(db, person('supervisor', 'supervisor'), tankRow(demo.tanks.nano), false, now)
+    const state = signOffState(db, person('supervisor', 'supervisor'), tankRow(demo.tanks.nano), false, evaluateNow(db, demo.tanks.nano, now).verdict)
     expect(state).toMatchObject({ tankStatus: 'signed-off', canReopen: true, canDecide: false, hasCertificate: true })
   })
 
