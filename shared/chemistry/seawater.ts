@@ -109,6 +109,22 @@ export function conductivityFromSalinity(salinity: number, temperatureC: number)
   return conductivityRatioFromSalinity(salinity, temperatureC, 0) * CONDUCTIVITY_S35_T15_MS_CM
 }
 
+let lastRange: { temperatureC: number, range: readonly [number, number] } | null = null
+
+/**
+ * The conductivities, mS/cm at one atmosphere, that `salinityFromConductivity` converts at this
+ * sample temperature: those of sea water at the ends of PSS78_SALINITY_RANGE (Fofonoff & Millard
+ * 1983). Outside them it throws. Throws for a temperature outside PSS78_TEMPERATURE_RANGE_C.
+ */
+export function conductivityRangeMsCm(temperatureC: number): readonly [number, number] {
+  // An import reads every row at one sample temperature: two bisections once, not per row.
+  if (lastRange?.temperatureC !== temperatureC) {
+    const range = [conductivityFromSalinity(PSS78_SALINITY_RANGE[0], temperatureC), conductivityFromSalinity(PSS78_SALINITY_RANGE[1], temperatureC)] as const
+    lastRange = { temperatureC, range }
+  }
+  return lastRange.range
+}
+
 const RHO_W = [999.842594, 6.793952e-2, -9.09529e-3, 1.001685e-4, -1.120083e-6, 6.536332e-9] as const
 const RHO_B = [8.24493e-1, -4.0899e-3, 7.6438e-5, -8.2467e-7, 5.3875e-9] as const
 const RHO_C = [-5.72466e-3, 1.0227e-4, -1.6546e-6] as const

@@ -10,7 +10,10 @@
  *   client sees at once that it matters.
  */
 import { toNitrogen, fromNitrogen, type NitrogenSpecies } from '../chemistry/nitrogen'
-import { SG_BASES, salinityFromConductivity, salinityFromSpecificGravity } from '../chemistry/seawater'
+import {
+  PSS78_SALINITY_RANGE, PSS78_TEMPERATURE_RANGE_C, SG_BASES, SPECIFIC_GRAVITY_RANGE,
+  conductivityRangeMsCm, salinityFromConductivity, salinityFromSpecificGravity,
+} from '../chemistry/seawater'
 import { DEFAULT_THRESHOLDS } from '../cycle/thresholds'
 import { celsiusToFahrenheit, fahrenheitToCelsius } from '../units'
 import { calendarDateExists, ENTRY_NOTES_MAX, parseIsoTime, STORED_TIME, toIsoInstant } from './fields'
@@ -192,7 +195,8 @@ function salinityFrom(entry: ReadingEntry): { value: number } | { message: strin
   if (entry.salinityMode === 'sg') {
     const basis = SG_BASES[entry.sgBasis ?? '25/25C']
     if (!basis) return { message: 'Choose the reference temperatures of the hydrometer or refractometer.' }
-    if (value < 1 || value > 1.04) return { message: 'Specific gravity must be between 1.000 and 1.040.' }
+    const [minSg, maxSg] = SPECIFIC_GRAVITY_RANGE
+    if (!(value >= minSg && value <= maxSg)) return { message: `Specific gravity must be between ${minSg.toFixed(3)} and ${maxSg.toFixed(3)}.` }
     try {
       return { value: salinityFromSpecificGravity(value, basis.sampleC, basis.referenceC) }
     }
@@ -200,13 +204,26 @@ function salinityFrom(entry: ReadingEntry): { value: number } | { message: strin
       return { message: 'That specific gravity is outside what sea water can read on this basis.' }
     }
   }
-  // Conductivity, mS/cm.
-  if (value < 0 || value > 80) return { message: 'Conductivity must be between 0 and 80 mS/cm.' }
-  const sampleC = entry.conductivityTemperatureC ?? 25
-  if (sampleC < -2 || sampleC > 35) return { message: 'Conductivity converts for sample temperatures from -2 to 35 C.' }
-  const salinity = salinityFromConductivity(value, sampleC)
-  if (!Number.isFinite(salinity) || salinity < 0) return { message: 'That conductivity is outside what sea water can read.' }
-  return { value: salinity }
+  return salinityFromConductivityEntry(value, entry.conductivityTemperatureC ?? 25)
+}
+
+/**
+ * Conductivity (mS/cm at the sample temperature) -> practical salinity. PSS-78 is defined for
+ * salinity 2 to 42 and sample temperatures -2 to 35 C (Fofonoff & Millard 1983, UNESCO TP44):
+ * outside them the value is refused with the range at that temperature, never extrapolated.
+ */
+function salinityFromConductivityEntry(value: number, sampleC: number): { value: number } | { message: string } {
+  const [minC, maxC] = PSS78_TEMPERATURE_RANGE_C
+  if (!(sampleC >= minC && sampleC <= maxC)) return { message: `Conductivity converts for sample temperatures from ${minC} to ${maxC} °C.` }
+  const [low, high] = conductivityRangeMsCm(sampleC)
+  if (!(value >= low && value <= high)) {
+    // Rounded inward to 0.1 mS/cm, so every value the message allows is taken.
+    const shownLow = Math.ceil(low * 10) / 10
+    const shownHigh = Math.floor(high * 10) / 10
+    const [minS, maxS] = PSS78_SALINITY_RANGE
+    return { message: `Conductivity at ${Math.round(sampleC * 100) / 100} °C must be between ${shownLow} and ${shownHigh} mS/cm (practical salinity ${minS} to ${maxS}).` }
+  }
+  return { value: salinityFromConductivity(value, sampleC) }
 }
 
 function flagFor(field: MeasuredField, value: number): EntryFlag | null {

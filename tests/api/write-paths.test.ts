@@ -2,7 +2,9 @@
  * One rule, every path: the form and the CSV import refuse the same values. A note longer
  * than the form allows, a day that does not exist (2026-02-30 is not rolled into March),
  * a number written in hex, and a header row that names a column twice. JSON times (create,
- * edit, list and chart ranges, audit days) are read by the same rule as CSV times.
+ * edit, list and chart ranges, audit days) are read by the same rule as CSV times. A conductivity
+ * outside what PSS-78 converts is refused on the salinity field by the form, an edit and each
+ * CSV row alike.
  */
 import { describe, expect, inject, it } from 'vitest'
 import { queryFile } from '../support/db-checksum'
@@ -71,6 +73,59 @@ describe('readings through the form and through CSV', () => {
     expect(csv.body.data.issues[0].field).toBe('csv')
     expect(csv.body.data.issues[0].message).toContain('column 3')
     expect(count(`select count(*) as n from readings where tank_id = ? and notes = 'which ammonia'`, tank)).toBe(0)
+  })
+})
+
+describe('conductivity outside the PSS-78 range on every path', () => {
+  // PSS-78 converts practical salinity 2 to 42 (Fofonoff & Millard 1983, UNESCO TP44): 3.797 to
+  // 62.358 mS/cm at 25 C. 1 mS/cm (S about 0.5) used to throw inside the conversion: a 500 from
+  // the form, a failed file from the import.
+  const RANGE_MESSAGE = 'Conductivity at 25 °C must be between 3.8 and 62.3 mS/cm (practical salinity 2 to 42).'
+  const conductivity = (salinity: number) => ({ ...READING_BODY(), salinity, salinityMode: 'conductivity' })
+
+  it('answers the form\'s POST with 400 and a message on salinity, below, above and far above the range', async () => {
+    const api = await new ApiClient().signIn('aquarist@tidewright.test')
+    const tank = inject('fixtures').demo.tanks.lobby
+    for (const value of [1, 0, 70, 200]) {
+      const refused = await api.post(`/api/tanks/${tank}/readings`, { ...conductivity(value), notes: 'conductivity out of range' })
+      expect(refused.status, `${value} mS/cm`).toBe(400)
+      expect(refused.body.data.issues, `${value} mS/cm`).toEqual([{ field: 'salinity', message: RANGE_MESSAGE }])
+    }
+    expect(count(`select count(*) as n from readings where tank_id = ? and notes = 'conductivity out of range'`, tank)).toBe(0)
+    const taken = await api.post(`/api/tanks/${tank}/readings`, conductivity(53))
+    expect(taken.status).toBe(201)
+    expect(taken.body.reading.salinity).toBeGreaterThan(34)
+    expect(taken.body.reading.salinity).toBeLessThan(36)
+  })
+
+  it('answers an edit to 1 mS/cm with 400 on salinity and keeps the reading as it was', async () => {
+    const api = await new ApiClient().signIn('aquarist@tidewright.test')
+    const tank = inject('fixtures').demo.tanks.lobby
+    const saved = await api.post(`/api/tanks/${tank}/readings`, { ...READING_BODY(), notes: 'conductivity edit target' })
+    expect(saved.status).toBe(201)
+    const refused = await api.patch(`/api/tanks/${tank}/readings/${saved.body.reading.id}`, { salinity: 1, salinityMode: 'conductivity' })
+    expect(refused.status).toBe(400)
+    expect(refused.body.data.issues).toEqual([{ field: 'salinity', message: RANGE_MESSAGE }])
+    expect(count(`select count(*) as n from readings where id = ? and salinity = 35`, saved.body.reading.id)).toBe(1)
+  })
+
+  it('refuses each out-of-range row of a CSV import with its message and imports the others', async () => {
+    const api = await new ApiClient().signIn('aquarist@tidewright.test')
+    const tank = inject('fixtures').demo.tanks.lobby
+    const rows = ['53', '1', '200', '0', '-3', 'NaN', '52.5'].map((value, i) => `2026-02-13T0${i}:00:00Z,${value},conductivity row ${i + 2}`)
+    const csv = await api.post(`/api/tanks/${tank}/readings/import`, { csv: `takenAt,conductivity,notes\n${rows.join('\n')}`, salinityMode: 'conductivity', dryRun: false })
+    expect(csv.status).toBe(200)
+    expect(csv.body.inserted).toBe(2)
+    expect(csv.body.errorRows).toBe(5)
+    expect(csv.body.errors).toEqual([
+      { row: 3, field: 'salinity', message: RANGE_MESSAGE },
+      { row: 4, field: 'salinity', message: RANGE_MESSAGE },
+      { row: 5, field: 'salinity', message: RANGE_MESSAGE },
+      { row: 6, field: 'salinity', message: RANGE_MESSAGE },
+      { row: 7, field: 'salinity', message: 'Not a number.' },
+    ])
+    expect(count(`select count(*) as n from readings where tank_id = ? and notes like 'conductivity row %'`, tank)).toBe(2)
+    expect(count(`select count(*) as n from readings where tank_id = ? and notes in ('conductivity row 2', 'conductivity row 8') and salinity between 34 and 36`, tank)).toBe(2)
   })
 })
 

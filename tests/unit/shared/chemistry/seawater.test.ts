@@ -2,8 +2,10 @@ import { describe, expect, it } from 'vitest'
 import fc from 'fast-check'
 import {
   CONDUCTIVITY_S35_T15_MS_CM,
+  PSS78_SALINITY_RANGE,
   SG_BASES,
   conductivityFromSalinity,
+  conductivityRangeMsCm,
   conductivityRatioFromSalinity,
   pureWaterDensity,
   salinityFromConductivity,
@@ -70,6 +72,21 @@ describe('PSS-78 (Fofonoff & Millard 1983, UNESCO TP44)', () => {
       const c = conductivityFromSalinity(s, t)
       return salinityFromConductivity(c * 1.01, t) > s
     }), FC)
+  })
+
+  it('conductivityRangeMsCm: the conductivities of S 2 and S 42, what salinityFromConductivity converts and no more', () => {
+    fc.assert(fc.property(fc.double({ min: -2, max: 35, noNaN: true }), (t) => {
+      const [low, high] = conductivityRangeMsCm(t)
+      expect(salinityFromConductivity(low, t)).toBeCloseTo(PSS78_SALINITY_RANGE[0], 9)
+      expect(salinityFromConductivity(high, t)).toBeCloseTo(PSS78_SALINITY_RANGE[1], 9)
+      expect(() => salinityFromConductivity(low * (1 - 1e-6), t)).toThrow(/outside the PSS-78 range/)
+      expect(() => salinityFromConductivity(high * (1 + 1e-6), t)).toThrow(/outside the PSS-78 range/)
+    }), FC)
+    // The standard sea water of TP44 (42.914 mS/cm at 15 C IPTS-68) lies inside.
+    const [low, high] = conductivityRangeMsCm(t90FromT68(15))
+    expect(low).toBeLessThan(CONDUCTIVITY_S35_T15_MS_CM)
+    expect(high).toBeGreaterThan(CONDUCTIVITY_S35_T15_MS_CM)
+    expect(() => conductivityRangeMsCm(36)).toThrow(/temperatureC/)
   })
 
   it('throws outside the valid range instead of extrapolating', () => {

@@ -34,4 +34,12 @@ describe('messages of a reading entry', () => {
     expect(readingEntryIssues(body({ takenAt: '2026-12-09T11:00:00.000Z', pH: 8.1 }), now).map(i => i.field)).toEqual(['takenAt'])
     expect(readingEntryIssues(body({ pH: 8.1, temperature: 25 }), now)).toEqual([])
   })
+
+  it('the form names a conductivity PSS-78 cannot convert beside salinity, with the rest of the entry checked', () => {
+    // S 2 and S 42 at 25 C are 3.797 and 62.358 mS/cm (Fofonoff & Millard 1983, UNESCO TP44).
+    expect(readingEntryIssues(body({ salinity: 1, salinityMode: 'conductivity', pH: 19 }), now)).toEqual([
+      { field: 'salinity', message: 'Conductivity at 25 °C must be between 3.8 and 62.3 mS/cm (practical salinity 2 to 42).' },
+      { field: 'pH', message: 'pH must be between 0 and 14.' },
+    ])
+  })
 })

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest'
-import { t90FromT68, conductivityFromSalinity, specificGravity, SG_BASES } from '../../../../shared/chemistry/seawater'
+import { t90FromT68, conductivityFromSalinity, specificGravity, PSS78_SALINITY_RANGE, PSS78_TEMPERATURE_RANGE_C, SG_BASES } from '../../../../shared/chemistry/seawater'
 import { checkCanonicalReading, enteredJson, enteredRecord, entryFromStored, SG_BASIS_KEYS, toCanonicalReading, type CanonicalValues, type ReadingEntry } from '../../../../shared/readings/entry'
 import { PHYSICAL_BOUNDS } from '../../../../shared/vocabulary'
 
@@ -81,6 +81,60 @@ describe('toCanonicalReading: temperature and salinity', () => {
 
   it('reads 42.914 mS/cm at 15 C (IPTS-68) as salinity 35 (Fofonoff & Millard 1983, UNESCO TP44)', () => {
     expect(ok(base({ salinity: 42.914, salinityMode: 'conductivity', conductivityTemperatureC: t90FromT68(15) })).values.salinity).toBeCloseTo(35, 4)
+  })
+})
+
+describe('toCanonicalReading: conductivity outside the PSS-78 range (Fofonoff & Millard 1983, UNESCO TP44: S 2 to 42, t -2 to 35 C)', () => {
+  const conductivity = (salinity: number, over: Partial<ReadingEntry> = {}) => base({ salinity, salinityMode: 'conductivity', ...over })
+  const salinityIssue = (entry: ReadingEntry) => {
+    const found = issues(entry)
+    expect(found.map(i => i.field)).toEqual(['salinity'])
+    return found[0]!.message
+  }
+
+  it('refuses 1 mS/cm (practical salinity below 2) on the salinity field instead of throwing', () => {
+    // S 2 and S 42 at 25 C are 3.797 and 62.358 mS/cm (PSS-78 inverse); the message rounds inward.
+    expect(salinityIssue(conductivity(1))).toBe('Conductivity at 25 °C must be between 3.8 and 62.3 mS/cm (practical salinity 2 to 42).')
+  })
+
+  it('refuses conductivity above S 42 and far above it, zero, below zero and not a number', () => {
+    for (const value of [70, 200, 0, -1, Number.NaN, Number.POSITIVE_INFINITY]) {
+      expect(salinityIssue(conductivity(value)), String(value)).toMatch(/^Conductivity at 25 °C must be between/)
+    }
+  })
+
+  it('states the range at the sample temperature given', () => {
+    // S 2 and S 42 at 15 C are 3.047 and 50.475 mS/cm (PSS-78 inverse).
+    expect(salinityIssue(conductivity(1, { conductivityTemperatureC: 15 }))).toBe('Conductivity at 15 °C must be between 3.1 and 50.4 mS/cm (practical salinity 2 to 42).')
+  })
+
+  it('accepts the conductivity of S 2 and S 42 themselves', () => {
+    const [low, high] = PSS78_SALINITY_RANGE
+    for (const t of [PSS78_TEMPERATURE_RANGE_C[0], 15, 25, PSS78_TEMPERATURE_RANGE_C[1]]) {
+      expect(ok(conductivity(conductivityFromSalinity(low, t), { conductivityTemperatureC: t })).values.salinity, `S ${low} at ${t} C`).toBeCloseTo(low, 9)
+      expect(ok(conductivity(conductivityFromSalinity(high, t), { conductivityTemperatureC: t })).values.salinity, `S ${high} at ${t} C`).toBeCloseTo(high, 9)
+    }
+  })
+
+  it('refuses a sample temperature outside -2 to 35 C, or none that is a number, without throwing', () => {
+    for (const t of [-3, 36, Number.NaN]) {
+      expect(salinityIssue(conductivity(53, { conductivityTemperatureC: t })), String(t)).toBe('Conductivity converts for sample temperatures from -2 to 35 °C.')
+    }
+  })
+
+  it('never throws: conductivity from -10 to 300 mS/cm at sample temperatures from -2 to 35 C is stored in range or refused', () => {
+    for (let t = PSS78_TEMPERATURE_RANGE_C[0]; t <= PSS78_TEMPERATURE_RANGE_C[1]; t += 1) {
+      for (let value = -10; value <= 300; value += 0.5) {
+        const result = toCanonicalReading(conductivity(value, { conductivityTemperatureC: t }), NOW)
+        if (result.ok) {
+          expect(result.reading.values.salinity).toBeGreaterThanOrEqual(PSS78_SALINITY_RANGE[0] - 1e-9)
+          expect(result.reading.values.salinity).toBeLessThanOrEqual(PSS78_SALINITY_RANGE[1] + 1e-9)
+        }
+        else {
+          expect(result.issues.map(i => i.field)).toEqual(['salinity'])
+        }
+      }
+    }
   })
 })
 
