@@ -79,8 +79,8 @@ export interface ChartData {
   temperatureC: (number | null)[]
   salinity: (number | null)[]
   events: { t: number, kind: string, amount: number | null, group: string | null }[]
-  /** Tests drawn (the latest, at most CHART_MAX_TESTS) and the tests in the range in all. */
-  tests: { shown: number, total: number }
+  /** Tests drawn (the latest, at most CHART_MAX_TESTS), and whether the range holds older ones. */
+  tests: { shown: number, older: boolean }
   phase: CyclePhase
   completedOn: string | null
   limits: { ammoniaZeroN: number, nitriteZeroN: number, riseN: number, ammoniaActionN: number, salinityMin: number, salinityMax: number, temperatureMinC: number, temperatureMaxC: number }

@@ -34,15 +34,14 @@ describe('the readings a verdict is made from', () => {
     expect(lean).toEqual(full.map(row => keys.map(key => row[key])))
     expect(full.map(engineValuesOf)).toEqual(lean)
 
-    // The chart's read: the latest current readings, oldest first, and how many there are in all.
+    // The chart's read: the latest current readings, oldest first, and whether there are older ones.
     const charted = (r: (typeof full)[number]) => [r.takenAt, r.ammoniaN, r.nitriteN, r.nitrateN, r.pH, r.temperatureC, r.salinity]
     const latest = latestChartReadings(db, tankId, {}, 3)
-    expect(latest.rows).toEqual(full.slice(-3).map(charted))
-    expect(latest.total).toBe(full.length)
+    expect(latest).toEqual({ rows: full.slice(-3).map(charted), older: true })
     const range = { from: full[1]!.takenAt, to: full.at(-2)!.takenAt }
     const inRange = tankReadings(db, tankId, { range })
-    expect(latestChartReadings(db, tankId, range, 2)).toEqual({ rows: inRange.slice(-2).map(charted), total: inRange.length })
-    expect(latestChartReadings(db, tankId, {}, full.length + 5)).toEqual({ rows: full.map(charted), total: full.length })
+    expect(latestChartReadings(db, tankId, range, 2)).toEqual({ rows: inRange.slice(-2).map(charted), older: inRange.length > 2 })
+    expect(latestChartReadings(db, tankId, {}, full.length)).toEqual({ rows: full.map(charted), older: false })
     db.$client.close()
   })
 })

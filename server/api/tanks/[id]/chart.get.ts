@@ -14,8 +14,8 @@ const ChartQuery = v.object({
 
 /**
  * GET /api/tanks/:id/chart — the tank's current readings as compact parallel arrays (epoch
- * seconds, canonical values): the latest CHART_MAX_TESTS in the range, with how many it holds in
- * all; its events from the first test drawn; the current phase and the limits the charts
+ * seconds, canonical values): the latest CHART_MAX_TESTS in the range, and whether it holds older
+ * ones; its events from the first test drawn (all of the range when every test is drawn); the current phase and the limits the charts
  * draw. Returns ChartData.
  */
 export default defineEventHandler(async (event): Promise<ChartData> => {
@@ -25,9 +25,9 @@ export default defineEventHandler(async (event): Promise<ChartData> => {
   const query = await getValidatedQuery(event, valid(ChartQuery))
   const db = useDB()
   // Current rows only: a corrected value is drawn once, as corrected.
-  const { rows, total } = latestChartReadings(db, tank.id, query, CHART_MAX_TESTS)
+  const { rows, older } = latestChartReadings(db, tank.id, query, CHART_MAX_TESTS)
   // A chart cut to its latest tests marks the events of the same span.
-  const firstDrawn = total > rows.length ? rows[0]?.[0] : undefined
+  const firstDrawn = older ? rows[0]?.[0] : undefined
   const eventRows = tankEvents(db, tank.id, { range: firstDrawn ? { ...query, from: firstDrawn } : query })
   const stored = await currentVerdictRow(tank.id, requestNow(event))
   const limits = resolveThresholds(readOrganisationSettings(db, tank.organisationId).thresholds)
@@ -41,7 +41,7 @@ export default defineEventHandler(async (event): Promise<ChartData> => {
     pH: rows.map(r => r3(r[4])),
     temperatureC: rows.map(r => r3(r[5])),
     salinity: rows.map(r => r3(r[6])),
-    tests: { shown: rows.length, total },
+    tests: { shown: rows.length, older },
     events: eventRows.map(e => ({ t: Math.round(Date.parse(e.at) / 1000), kind: e.kind, amount: r3(e.amount), group: e.group })),
     phase: (stored?.phase as CyclePhase | undefined) ?? 'not-started',
     completedOn: stored?.verdict.completedOn ?? null,
