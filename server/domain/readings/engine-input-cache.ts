@@ -13,14 +13,14 @@
  * Framework-free: takes a `Db`; each handle (the server's connection, a worker's, a test's)
  * keeps its own copies.
  */
-import { eq, sql } from 'drizzle-orm'
 import { prepareHistory, withReadingAdded, type PreparedHistory } from '../../../shared/cycle/history'
 import type { CycleEvent, CycleReading } from '../../../shared/cycle/types'
 import { partitionPoint } from '../../../shared/sorted'
 import { CYCLE_EVENT_KINDS, type CycleEventKind, type EventKind } from '../../../shared/vocabulary'
 import type { Db } from '../../db/connection'
 import { preparedPerDb } from '../../db/prepared'
-import { tankDataRevisions, type readings } from '../../db/schema'
+import type { readings } from '../../db/schema'
+import { tankDataRevisionInDb } from './data-revision'
 import { KeptTanks } from './kept-tanks'
 import { engineValuesOf, tankEngineReadings, tankEvents, type EngineReadingValues } from './current'
 
@@ -50,14 +50,6 @@ export function preparedHistoryOf(rows: EngineRows): PreparedHistory {
 const KEPT = { maxTanks: 64, maxReadings: 250_000 }
 
 const copies = preparedPerDb(() => new KeptTanks<EngineRows>(KEPT))
-
-const revisionOf = preparedPerDb(db => db.select({ revision: tankDataRevisions.revision }).from(tankDataRevisions)
-  .where(eq(tankDataRevisions.tankId, sql.placeholder('tankId'))).prepare())
-
-/** How many times the tank's readings and events have changed (0 before the first). */
-export function tankDataRevisionInDb(db: Db, tankId: string): number {
-  return revisionOf(db).get({ tankId })?.revision ?? 0
-}
 
 const defined = <T>(value: T | null): T | undefined => value ?? undefined
 

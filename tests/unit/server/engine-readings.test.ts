@@ -7,11 +7,12 @@
 import { mkdtempSync, rmSync } from 'node:fs'
 import { tmpdir } from 'node:os'
 import { join } from 'node:path'
+import { eq } from 'drizzle-orm'
 import { afterAll, describe, expect, it } from 'vitest'
 import { migrateDatabase, openDatabase } from '../../../server/db/connection'
 import { readings } from '../../../server/db/schema'
 import { seedDemo } from '../../../server/db/seed/demo'
-import { ENGINE_READING_COLUMNS, engineValuesOf, latestChartReadings, tankEngineReadings, tankReadings } from '../../../server/domain/readings/current'
+import { ENGINE_READING_COLUMNS, engineValuesOf, latestChartReadings, readingHistoryPage, tankEngineReadings, tankReadings } from '../../../server/domain/readings/current'
 
 const dir = mkdtempSync(join(tmpdir(), 'tidewright-engine-readings-'))
 afterAll(() => rmSync(dir, { recursive: true, force: true }))
@@ -42,6 +43,26 @@ describe('the readings a verdict is made from', () => {
     const inRange = tankReadings(db, tankId, { range })
     expect(latestChartReadings(db, tankId, range, 2)).toEqual({ rows: inRange.slice(-2).map(charted), older: inRange.length > 2 })
     expect(latestChartReadings(db, tankId, {}, full.length)).toEqual({ rows: full.map(charted), older: false })
+    db.$client.close()
+  })
+
+  it('are counted for a history page as the database holds them, a write on another connection included', async () => {
+    const path = join(dir, 'counts.sqlite')
+    const db = openDatabase(path)
+    migrateDatabase(db)
+    const ids = await seedDemo(db, new Date())
+    const other = openDatabase(path)
+    const tankId = ids.tanks.nano
+    const page = () => readingHistoryPage(db, tankId, {}, { sort: readings.takenAt, dir: 'desc', page: 1, pageSize: 5 }).total
+    const stored = () => (db.$client.prepare('select count(*) as n from readings where tank_id = ?').get(tankId) as { n: number }).n
+    expect(page()).toBe(stored())
+    expect(page()).toBe(stored())
+    other.insert(readings).values({ tankId, takenAt: new Date().toISOString(), nitrateN: 4, entered: {} }).run()
+    expect(page()).toBe(stored())
+    const [latest] = tankReadings(db, tankId).slice(-1)
+    db.delete(readings).where(eq(readings.id, latest!.id)).run()
+    expect(page()).toBe(stored())
+    other.$client.close()
     db.$client.close()
   })
 })

@@ -5,7 +5,8 @@ import { toCanonicalReading } from '#shared/readings/entry'
 import type { ReadingSaved } from '#shared/types/readings'
 import { readings, tanks } from '#server/db/schema'
 import { readingColumns } from '#server/domain/readings/columns'
-import { noteTestAppended, tankDataRevisionInDb } from '#server/domain/readings/engine-input-cache'
+import { tankDataRevisionInDb } from '#server/domain/readings/data-revision'
+import { noteTestAppended } from '#server/domain/readings/engine-input-cache'
 
 /**
  * POST /api/tanks/:id/readings — records one test session in canonical units and

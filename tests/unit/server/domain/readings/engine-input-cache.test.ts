@@ -19,7 +19,8 @@ import { migrateDatabase, openDatabase, type TidewrightDB } from '../../../../..
 import { events, organisations, readings } from '../../../../../server/db/schema'
 import { seedDemo, type DemoIds } from '../../../../../server/db/seed/demo'
 import { cycleInputFor, evaluateTank } from '../../../../../server/db/verdicts'
-import { engineRows, noteTestAppended, readEngineRows, tankDataRevisionInDb } from '../../../../../server/domain/readings/engine-input-cache'
+import { tankDataRevisionInDb } from '../../../../../server/domain/readings/data-revision'
+import { engineRows, noteTestAppended, readEngineRows } from '../../../../../server/domain/readings/engine-input-cache'
 
 const dir = mkdtempSync(join(tmpdir(), 'tidewright-engine-input-cache-'))
 const dbPath = join(dir, 'engine-input-cache.sqlite')
