@@ -5,8 +5,8 @@
  * heavy-work pool for a tank with a long history (100,000 tests took two seconds).
  */
 import Papa from 'papaparse'
-import { csvNumber, EXPORT_COLUMNS } from '../../../shared/readings/csv'
-import type { Db } from '../../db/connection'
+import { csvNumber, EXPORT_COLUMNS } from '#shared/readings/csv'
+import type { Db } from '#server/db/connection'
 import { tankReadings } from './current'
 
 export function readingsCsv(db: Db, tankId: string): string {
