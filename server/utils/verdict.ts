@@ -2,22 +2,11 @@ import { eq, sql } from 'drizzle-orm'
 import type { Verdict } from '#shared/cycle/types'
 import { tankVerdicts } from '#server/db/schema'
 import { preparedPerDb } from '#server/db/prepared'
-import { computeAndStoreVerdict, evaluateTankNow, tanksWithStaleVerdicts, type TankEvaluation } from '#server/db/verdicts'
-import { hasLongHistory } from '#server/domain/tanks/long-history'
+import { computeAndStoreVerdict, tanksWithStaleVerdicts } from '#server/db/verdicts'
 
 const MINUTE_MS = 60_000
 /** Time alone changes verdicts (a missed test, a coral date reached): none is kept longer than an hour. */
 const LONGEST_MS = 60 * MINUTE_MS
-
-/**
- * The tank's verdict and forecast as of `now`, not stored: in the heavy-work pool for a tank with
- * a long history (`hasLongHistory`), so reading it never holds the request loop; undefined when
- * there is no such tank.
- */
-export async function tankEvaluationNow(tankId: string, now = new Date()): Promise<TankEvaluation | undefined> {
-  const db = useDB()
-  return hasLongHistory(db, tankId) ? (await evaluateOffLoop(tankId, now)) ?? undefined : evaluateTankNow(db, tankId, now)
-}
 
 /** Re-evaluates a tank after any change to its readings, events or profile, and stores the verdict. */
 export function refreshVerdict(tankId: string, now = new Date()): Verdict | undefined {
