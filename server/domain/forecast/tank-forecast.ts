@@ -1,7 +1,8 @@
 /**
  * The completion forecast for one tank, computed from the same input the rule engine
- * gets (current tests and events, corrections applied, the company's thresholds).
- * Framework-free: routes, the tank list, the attention board and the weekly digest share it.
+ * gets (current tests and events, corrections applied, the company's thresholds), and which
+ * statuses a list shows one for. Framework-free. The tank page and the lists read the forecast
+ * stored with the verdict; the weekly digest computes it here.
  */
 import type { CycleForecast } from '#shared/cycle/forecast'
 import type { Db } from '#server/db/connection'

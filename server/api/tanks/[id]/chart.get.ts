@@ -14,9 +14,9 @@ const ChartQuery = v.object({
 
 /**
  * GET /api/tanks/:id/chart — the tank's current readings as compact parallel arrays (epoch
- * seconds, canonical values): the latest CHART_MAX_TESTS in the range, and whether it holds older
- * ones; its events from the first test drawn (all of the range when every test is drawn); the current phase and the limits the charts
- * draw. Returns ChartData.
+ * seconds, canonical values): the latest CHART_MAX_TESTS in the range, and whether it holds
+ * older ones; its events from the first test drawn (all of the range when every test is
+ * drawn); the current phase and the limits the charts draw. Returns ChartData.
  */
 export default defineEventHandler(async (event): Promise<ChartData> => {
   const actor = await requireActor(event)
