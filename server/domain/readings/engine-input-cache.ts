@@ -102,6 +102,12 @@ export function engineRows(db: Db, tankId: string): EngineRows {
   return rows
 }
 
+/** How many current tests the tank's kept copy holds, when one is kept at the tank's current revision. */
+export function keptTestCount(db: Db, tankId: string): number | undefined {
+  const kept = copies(db).get(tankId)
+  return kept && kept.revision === tankDataRevisionInDb(db, tankId) ? kept.readings.length : undefined
+}
+
 type ReadingRow = typeof readings.$inferSelect
 
 /** A new test as `noteTestAppended` takes it: the row inserted and the tank's count read right after the insert, in its transaction. */

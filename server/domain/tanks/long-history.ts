@@ -9,16 +9,22 @@ import { count, eq, sql } from 'drizzle-orm'
 import type { Db } from '../../db/connection'
 import { preparedPerDb } from '../../db/prepared'
 import { readings } from '../../db/schema'
+import { keptTestCount } from '../readings/engine-input-cache'
 
 /**
- * Above this many stored tests (corrections included) a tank's verdict leaves the request loop:
- * a client testing three times a day takes four years to reach it; only an imported log does.
+ * Above this many tests (the stored ones, corrections included, or the current ones of a kept
+ * copy) a tank's verdict leaves the request loop: a client testing three times a day takes
+ * four years to reach it; only an imported log does.
  */
 export const LONG_HISTORY_TESTS = 5_000
 
 /** The tank's stored tests counted from the index on (tank, taken), prepared once: no row is read. */
 const storedTests = preparedPerDb(db => db.select({ n: count() }).from(readings).where(eq(readings.tankId, sql.placeholder('tankId'))).prepare())
 
+/**
+ * Whether the tank holds more than LONG_HISTORY_TESTS tests: from the copy of its history the
+ * connection keeps when it is current (a save has just placed its test in it), else counted.
+ */
 export function hasLongHistory(db: Db, tankId: string): boolean {
-  return (storedTests(db).get({ tankId })?.n ?? 0) > LONG_HISTORY_TESTS
+  return (keptTestCount(db, tankId) ?? storedTests(db).get({ tankId })?.n ?? 0) > LONG_HISTORY_TESTS
 }
