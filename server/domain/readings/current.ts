@@ -149,17 +149,12 @@ export function tankEngineReadings(db: Db, tankId: string): EngineReadingValues[
   const columns = sql.join(Object.values(ENGINE_READING_COLUMNS).map(column => sql`${column}`), sql`, `)
   return db.values<EngineReadingValues>(sql`select ${columns} from ${readings}
     left join ${readings} as ${sql.identifier('later_reading')} on ${laterReading.correctsId} = ${readings.id}
-    where ${readings.tankId} = ${tankId} and ${laterReading.id} is null
+    where ${readingFilter(tankId, {}, 'current')}
     order by ${readings.takenAt} asc, ${readings.createdAt} asc, ${readings}.rowid asc`)
 }
 
 /** What a chart draws of a test: its time and the charted values, in this order. */
 export type ChartReadingValues = [takenAt: string, ammoniaN: number | null, nitriteN: number | null, nitrateN: number | null, pH: number | null, temperatureC: number | null, salinity: number | null]
-
-/** The range's bounds on `taken_at`, as SQL to append to a WHERE. */
-function takenWithin(range: TimeRange): SQL {
-  return sql`${range.from ? sql` and ${readings.takenAt} >= ${iso(range.from)}` : sql``}${range.to ? sql` and ${readings.takenAt} <= ${iso(range.to)}` : sql``}`
-}
 
 /**
  * The latest `max` current readings of a tank in a range, oldest first, with only what a chart
@@ -172,7 +167,7 @@ export function latestChartReadings(db: Db, tankId: string, range: TimeRange, ma
   const rows = db.values<ChartReadingValues>(sql`select ${readings.takenAt}, ${readings.ammoniaN}, ${readings.nitriteN}, ${readings.nitrateN}, ${readings.pH}, ${readings.temperatureC}, ${readings.salinity}
     from ${readings} indexed by readings_tank_taken
     left join ${readings} as ${sql.identifier('later_reading')} on ${laterReading.correctsId} = ${readings.id}
-    where ${readings.tankId} = ${tankId} and ${laterReading.id} is null${takenWithin(range)}
+    where ${readingFilter(tankId, range, 'current')}
     order by ${readings.takenAt} desc, ${readings.createdAt} desc, ${readings}.rowid desc limit ${max + 1}`)
   const older = rows.length > max
   return { rows: rows.slice(0, max).reverse(), older }
@@ -220,18 +215,21 @@ const COUNTED_TANKS = 256
 /** Each tank's count of stored readings, with the data revision it was counted at. */
 const keptCounts = preparedPerDb(() => new Map<string, { revision: number, n: number }>())
 
+/** A tank's stored readings counted from the index on (tank, taken), prepared once: no row is read. */
+const storedReadings = preparedPerDb(db => db.select({ n: count() }).from(readings).where(eq(readings.tankId, sql.placeholder('tankId'))).prepare())
+
 /**
- * The tank's stored readings, every row (`count` counts them), counted again only when the
- * tank's data revision has moved since: counting 100,000 index entries took 5 ms of the request
- * loop at every page of a long history's evidence and history lists.
+ * How many readings the tank stores, every row (corrections included), counted again only when
+ * the tank's data revision has moved since: counting 100,000 index entries took 5 ms of the
+ * request loop at every page of a long history's evidence and history lists.
  */
-function storedReadingCount(db: Db, tankId: string, count: () => number): number {
+export function storedReadingCount(db: Db, tankId: string): number {
   const revision = tankDataRevisionInDb(db, tankId)
   const byTank = keptCounts(db)
   const kept = byTank.get(tankId)
   if (kept?.revision === revision) return kept.n
   // The revision is read before counting: a write in between moves it, and the next call counts again.
-  const n = count()
+  const n = storedReadings(db).get({ tankId })?.n ?? 0
   byTank.delete(tankId)
   byTank.set(tankId, { revision, n })
   if (byTank.size > COUNTED_TANKS) byTank.delete(byTank.keys().next().value!)
@@ -251,8 +249,7 @@ export function readingHistoryPage(db: Db, tankId: string, range: TimeRange, pag
   }
   const values = { tankId, from: range.from ? iso(range.from) : undefined, to: range.to ? iso(range.to) : undefined }
   const rows = statements.page.all({ ...values, limit: page.pageSize, offset: (page.page - 1) * page.pageSize })
-  const counted = () => statements.count.get(values)?.n ?? 0
-  const total = range.from || range.to ? counted() : storedReadingCount(db, tankId, counted)
+  const total = range.from || range.to ? statements.count.get(values)?.n ?? 0 : storedReadingCount(db, tankId)
   return { rows: rows.map(r => withTrail(r.row, r.enteredByName, r.later, r.byName)), total }
 }
 

@@ -5,10 +5,8 @@
  * daily tests, half a second for an imported log of 100,000, during which every other request
  * would wait. Framework-free: takes a `Db`.
  */
-import { count, eq, sql } from 'drizzle-orm'
 import type { Db } from '../../db/connection'
-import { preparedPerDb } from '../../db/prepared'
-import { readings } from '../../db/schema'
+import { storedReadingCount } from '../readings/current'
 import { keptTestCount } from '../readings/engine-input-cache'
 
 /**
@@ -18,13 +16,10 @@ import { keptTestCount } from '../readings/engine-input-cache'
  */
 export const LONG_HISTORY_TESTS = 5_000
 
-/** The tank's stored tests counted from the index on (tank, taken), prepared once: no row is read. */
-const storedTests = preparedPerDb(db => db.select({ n: count() }).from(readings).where(eq(readings.tankId, sql.placeholder('tankId'))).prepare())
-
 /**
  * Whether the tank holds more than LONG_HISTORY_TESTS tests: from the copy of its history the
  * connection keeps when it is current (a save has just placed its test in it), else counted.
  */
 export function hasLongHistory(db: Db, tankId: string): boolean {
-  return (keptTestCount(db, tankId) ?? storedTests(db).get({ tankId })?.n ?? 0) > LONG_HISTORY_TESTS
+  return (keptTestCount(db, tankId) ?? storedReadingCount(db, tankId)) > LONG_HISTORY_TESTS
 }
