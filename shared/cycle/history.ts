@@ -151,9 +151,15 @@ export function compareNitrogenTests(a: NitrogenTest, b: NitrogenTest): number {
   return a.t - b.t || compareStrings(a.id, b.id)
 }
 
-function nitrogenTest(raw: CycleReading, t: number): NitrogenTest | undefined {
+/**
+ * The forecast's test for a raw reading, or undefined without ammonia and nitrite. When checking
+ * left its three values as given (the common case), the history's own reading is that test: a
+ * second object per test would double what a long history holds in memory.
+ */
+function nitrogenTest(raw: CycleReading, reading: TimedReading): NitrogenTest | undefined {
   if (raw.ammoniaN === undefined && raw.nitriteN === undefined) return undefined
-  return { t, id: raw.id, ammoniaN: raw.ammoniaN, nitriteN: raw.nitriteN, nitrateN: raw.nitrateN }
+  if (reading.ammoniaN === raw.ammoniaN && reading.nitriteN === raw.nitriteN && reading.nitrateN === raw.nitrateN) return reading
+  return { t: reading.t, id: raw.id, ammoniaN: raw.ammoniaN, nitriteN: raw.nitriteN, nitrateN: raw.nitrateN }
 }
 
 /** The forecast's tests as of `nowMs` (a prefix: its order puts time first). */
@@ -180,7 +186,7 @@ export function prepareHistory(readings: readonly CycleReading[], events: readon
     const result = sanitize(raw, t)
     kept.push(result.reading)
     if (result.repaired) repaired.push({ id: raw.id, t })
-    const test = nitrogenTest(raw, t)
+    const test = nitrogenTest(raw, result.reading)
     if (test) nitrogen.push(test)
   }
   const timedEvents: TimedEvent[] = []
@@ -248,7 +254,7 @@ export function withReadingAdded(prepared: PreparedHistory, raw: CycleReading, n
   const t = parseTime(raw.takenAt)
   if (!Number.isFinite(t)) return { ...prepared, source, ignoredReadingIds: inserted(prepared.ignoredReadingIds, raw.id, compareStrings) }
   const result = sanitize(raw, t)
-  const test = nitrogenTest(raw, t)
+  const test = nitrogenTest(raw, result.reading)
   let nitrogenTests = prepared.nitrogenTests
   if (test) {
     const place = insertionPoint(nitrogenTests, test, compareNitrogenTests)

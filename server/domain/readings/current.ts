@@ -13,6 +13,7 @@ import { alias, type AnySQLiteColumn } from 'drizzle-orm/sqlite-core'
 import { toIsoInstant } from '../../../shared/readings/fields'
 import type { Replacement } from '../../../shared/types/readings'
 import type { Db } from '../../db/connection'
+import { iterateValues } from '../../db/iterate'
 import { preparedPerDb } from '../../db/prepared'
 import { events, readings, users } from '../../db/schema'
 import { tankDataRevisionInDb } from './data-revision'
@@ -143,11 +144,12 @@ export function engineValuesOf(row: EngineReadingRow): EngineReadingValues {
  * a signed snapshot's input is written as before). Every verdict refresh reads the whole history: leaving out the author, the
  * correction trail and the notes makes that read several times cheaper. The rows come straight
  * from SQLite as arrays of ENGINE_READING_COLUMNS' values (text and real columns, nothing for an
- * ORM to convert): mapping 100,000 rows of an imported history through Drizzle took as long as reading them.
+ * ORM to convert: mapping 100,000 rows of an imported history through Drizzle took as long as
+ * reading them), one at a time, so a caller maps each into its own shape without holding them all twice.
  */
-export function tankEngineReadings(db: Db, tankId: string): EngineReadingValues[] {
+export function tankEngineReadings(db: Db, tankId: string): IterableIterator<EngineReadingValues> {
   const columns = sql.join(Object.values(ENGINE_READING_COLUMNS).map(column => sql`${column}`), sql`, `)
-  return db.values<EngineReadingValues>(sql`select ${columns} from ${readings}
+  return iterateValues<EngineReadingValues>(db, sql`select ${columns} from ${readings}
     left join ${readings} as ${sql.identifier('later_reading')} on ${laterReading.correctsId} = ${readings.id}
     where ${readingFilter(tankId, {}, 'current')}
     order by ${readings.takenAt} asc, ${readings.createdAt} asc, ${readings}.rowid asc`)

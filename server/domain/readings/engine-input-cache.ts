@@ -79,7 +79,7 @@ export function toCycleReading([id, takenAt, createdAt, ammoniaN, nitriteN, nitr
 export function readEngineRows(db: Db, tankId: string, revision: number): EngineRows {
   return {
     revision,
-    readings: tankEngineReadings(db, tankId).map(toCycleReading),
+    readings: Array.from(tankEngineReadings(db, tankId), toCycleReading),
     events: tankEvents(db, tankId).flatMap(({ kind, ...e }): CycleEvent[] => isCycleEventKind(kind)
       ? [{ id: e.id, at: e.at, enteredAt: e.createdAt, kind, amount: defined(e.amount), group: defined(e.group) }]
       : []),

@@ -29,7 +29,9 @@ describe('the readings a verdict is made from', () => {
     db.insert(readings).values({ tankId, takenAt: first!.takenAt, ammoniaN: 0.25, nitriteN: 0, entered: {}, correctsId: first!.id, correctionReason: 'misread', createdAt: now.toISOString(), updatedAt: now.toISOString() }).run()
     db.insert(readings).values({ tankId, takenAt: second!.takenAt, ammoniaN: 1, entered: {}, createdAt: new Date(now.getTime() + 1000).toISOString(), updatedAt: now.toISOString() }).run()
     const full = tankReadings(db, tankId)
-    const lean = tankEngineReadings(db, tankId)
+    const lean = [...tankEngineReadings(db, tankId)]
+    // Read one row at a time on the handle's connection, inside a transaction too.
+    expect(db.transaction(tx => [...tankEngineReadings(tx, tankId)])).toEqual(lean)
     expect(lean.map(([id]) => id)).not.toContain(first!.id)
     const keys = Object.keys(ENGINE_READING_COLUMNS) as (keyof typeof ENGINE_READING_COLUMNS)[]
     expect(lean).toEqual(full.map(row => keys.map(key => row[key])))
