@@ -75,11 +75,27 @@ export function toCycleReading([id, takenAt, createdAt, ammoniaN, nitriteN, nitr
   }
 }
 
+/**
+ * The rows as the engine takes them, in their order. An imported file's tests share one entry
+ * time, and SQLite hands each row its own copy of the text: a row entered when the one before
+ * it was keeps that one's string, so a long import holds the time once instead of once per test.
+ */
+function cycleReadingsOf(rows: Iterable<EngineReadingValues>): CycleReading[] {
+  const out: CycleReading[] = []
+  let entered = ''
+  for (const values of rows) {
+    if (values[2] === entered) values[2] = entered
+    else entered = values[2]
+    out.push(toCycleReading(values))
+  }
+  return out
+}
+
 /** Reads the tank's rows from the database, as every refresh did before this copy was kept. */
 export function readEngineRows(db: Db, tankId: string, revision: number): EngineRows {
   return {
     revision,
-    readings: Array.from(tankEngineReadings(db, tankId), toCycleReading),
+    readings: cycleReadingsOf(tankEngineReadings(db, tankId)),
     events: tankEvents(db, tankId).flatMap(({ kind, ...e }): CycleEvent[] => isCycleEventKind(kind)
       ? [{ id: e.id, at: e.at, enteredAt: e.createdAt, kind, amount: defined(e.amount), group: defined(e.group) }]
       : []),
