@@ -1,21 +1,14 @@
 /**
- * The completion forecast for one tank, computed from the same input the rule engine
- * gets (current tests and events, corrections applied, the company's thresholds), and which
- * statuses a list shows one for. Framework-free. The tank page and the lists read the forecast
- * stored with the verdict; the weekly digest computes it here.
+ * Which tank statuses a forecast is shown for, and the forecast a list shows. Framework-free.
+ * The forecast itself is made with the verdict, from the same input at the same time
+ * (`evaluateTankNow`), and stored beside it: the tank page, the lists and the weekly digest
+ * all read that one.
  */
 import type { CycleForecast } from '#shared/cycle/forecast'
-import type { Db } from '#server/db/connection'
-import { evaluateTankNow } from '#server/db/verdicts'
 import type { TankStatus } from '#shared/vocabulary'
 
 /** Tank statuses in which a cycle forecast means something to the reader. */
 export const FORECAST_STATUSES: ReadonlySet<TankStatus> = new Set<TankStatus>(['cycling', 'cycled'])
-
-/** The forecast for `tankId` at `now` (from the tank's kept history, as the verdict is made), or undefined when there is no such tank. */
-export function forecastTank(db: Db, tankId: string, now: Date): CycleForecast | undefined {
-  return evaluateTankNow(db, tankId, now)?.forecast
-}
 
 /**
  * The forecast a list shows beside a tank (the tank list, the attention board): the one stored

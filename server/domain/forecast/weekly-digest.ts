@@ -5,6 +5,11 @@
  * zone while the company's reminders are on; a client can switch it off among their
  * e-mail choices. E-mail only (it repeats what the tank page shows, so it adds no
  * notice to the app). Framework-free with an explicit `now`, like the test reminders.
+ *
+ * Each tank's words come from the forecast stored with its verdict, the one its page shows:
+ * the clocked jobs make stale verdicts again first (a long history's in the worker pool), so
+ * the digest never runs the engine on the request loop. A client one of whose tanks has no
+ * stored forecast yet gets the digest on a later run that Monday rather than a made-up line.
  */
 import { and, eq, inArray, isNull } from 'drizzle-orm'
 import { explainForecast, FORECAST_CAVEAT, forecastGapWords, forecastRangeWords } from '#shared/cycle/forecast'
@@ -19,7 +24,8 @@ import { enqueueMail, MESSAGE_ID_DOMAIN } from '#server/db/outbox'
 import { localClock } from '#server/db/reminders'
 import { mailOutbox, organisations, tanks, users } from '#server/db/schema'
 import { readOrganisationSettings } from '#server/db/settings'
-import { FORECAST_STATUSES, forecastTank } from './tank-forecast'
+import { storedForecasts } from '#server/db/verdicts'
+import { FORECAST_STATUSES } from './tank-forecast'
 
 /** Monday (0 is Sunday), from 08:00 local time: the start of the client's week. */
 export const DIGEST_WEEKDAY = 1
@@ -51,7 +57,7 @@ export interface DigestRunResult {
 
 interface DigestTank { id: string, name: string, cycleMethod: CycleMethod, clientId: string }
 
-/** Queues the weekly digests due at `now`. Idempotent: one per client and local Monday. */
+/** Queues the weekly digests due at `now` from the stored forecasts (make stale verdicts again first). Idempotent: one per client and local Monday. */
 export function runWeeklyDigest(db: Db, now: Date, baseUrl: string): DigestRunResult {
   const out: DigestRunResult = { sent: [] }
   const base = baseUrl.replace(/\/+$/, '')
@@ -65,6 +71,7 @@ export function runWeeklyDigest(db: Db, now: Date, baseUrl: string): DigestRunRe
       .orderBy(tanks.name).all()
     if (!cycling.length) continue
     const date = dateIn(timeZone)
+    const forecasts = storedForecasts(db, cycling.map(t => t.id))
     const byClient = new Map<string, DigestTank[]>()
     for (const t of cycling) byClient.set(t.clientId, [...(byClient.get(t.clientId) ?? []), t])
     for (const [clientId, clientTanks] of byClient) {
@@ -74,7 +81,9 @@ export function runWeeklyDigest(db: Db, now: Date, baseUrl: string): DigestRunRe
       const due = recipients.filter(u => wantsEmail(emailChoices(db, u.id), 'weekly-digest')
         && !db.select({ id: mailOutbox.id }).from(mailOutbox).where(eq(mailOutbox.messageId, digestId(u.id))).get())
       if (!due.length) continue
-      const paragraphs = clientTanks.map(t => tankDigestWords(t.name, t.cycleMethod, forecastTank(db, t.id, now)!, date))
+      const stored = clientTanks.map(t => forecasts.get(t.id))
+      if (stored.some(forecast => !forecast)) continue
+      const paragraphs = clientTanks.map((t, i) => tankDigestWords(t.name, t.cycleMethod, stored[i]!, date))
       paragraphs.push(FORECAST_CAVEAT)
       const links = clientTanks.map(t => `${t.name}: ${base}/tanks/${t.id}`)
       for (const user of due) {
