@@ -9,7 +9,7 @@ import { dayOf, MAX_IMPORT_ROWS, TESTS_PER_TANK_PER_DAY } from '../../../../shar
 import { csvNumber, csvNumberText } from '../../../../shared/readings/csv'
 
 const context = { kit: { ammonia: 'N', nitrite: 'N', nitrate: 'N' } as const, lockedMs: Number.NEGATIVE_INFINITY, now: new Date('2026-06-01T00:00:00Z') }
-const input = (csv: string) => ({ csv, mapping: {}, temperatureUnit: 'C' as const, salinityMode: 'practical' as const, dryRun: true })
+const input = (csv: string) => [[csv], { mapping: {}, temperatureUnit: 'C' as const, salinityMode: 'practical' as const }] as const
 const hourly = (count: number, start = Date.parse('2016-01-01T00:00:00Z')) =>
   `takenAt,ammonia\n${Array.from({ length: count }, (_, i) => `${new Date(start + i * 3_600_000).toISOString()},0.25`).join('\n')}`
 
@@ -35,15 +35,15 @@ function memoryTank(held: Record<string, number> = {}, keys: string[] = []) {
 }
 
 const planOf = (csv: string, tank = memoryTank()): ImportPlan => {
-  const outcome = planImport(input(csv), context, tank.sink)
+  const outcome = planImport(...input(csv), context, tank.sink)
   if (outcome.kind !== 'plan') throw new Error(outcome.kind)
   return outcome.plan
 }
 
 describe('rows per import', () => {
   it('takes a file of exactly the cap and refuses one row more', () => {
-    expect(planImport(input(hourly(MAX_IMPORT_ROWS)), context, memoryTank().sink).kind).toBe('plan')
-    expect(planImport(input(hourly(MAX_IMPORT_ROWS + 1)), context, memoryTank().sink).kind).toBe('too-many-rows')
+    expect(planImport(...input(hourly(MAX_IMPORT_ROWS)), context, memoryTank().sink).kind).toBe('plan')
+    expect(planImport(...input(hourly(MAX_IMPORT_ROWS + 1)), context, memoryTank().sink).kind).toBe('too-many-rows')
   })
 })
 
