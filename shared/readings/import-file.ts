@@ -11,27 +11,55 @@ const CSV_EXTENSIONS = ['csv', 'txt', 'tsv']
 
 export const NOT_CSV_MESSAGE = 'This is not a CSV file. Choose the .csv file your tests were saved in (a spreadsheet saves one with "Save as CSV").'
 
+const QUOTE = 0x22
+const LF = 0x0A
+const CR = 0x0D
+/** What the importer skips as a line with no content: spaces, tabs, separators and empty quotes. */
+const BLANK = new Set([0x20, 0x09, 0x2C, 0x3B, QUOTE])
+
 /**
- * Data rows of CSV text (the header row and blank lines not counted), reading quoted cells
- * the way the importer does so a note that spans lines is one row; counting stops past `stopAfter`.
+ * Counts the data rows of CSV text as it arrives (the header row and blank lines not
+ * counted), reading quoted cells the way the importer does so a note that spans lines is one
+ * row. It takes text or its UTF-8 bytes alike: the characters it looks at are ASCII, and no
+ * byte of a longer character looks like one. The form counts a chosen file with it, the
+ * import route a file as its bytes arrive, so both refuse one past MAX_IMPORT_ROWS alike.
  */
-export function csvDataRows(text: string, stopAfter = MAX_IMPORT_ROWS + 1): number {
-  let rows = 0
-  let quoted = false
-  let blank = true
-  for (let i = 0; i < text.length && rows <= stopAfter; i++) {
-    const c = text[i]
-    // A doubled quote inside a quoted cell toggles twice: still quoted, as CSV means it.
-    if (c === '"') quoted = !quoted
-    if (!quoted && (c === '\n' || c === '\r')) {
-      if (!blank) rows++
-      blank = true
+export class CsvRowCounter {
+  private quoted = false
+  private blank = true
+  private lines = 0
+
+  /** Takes the next piece of the file. */
+  add(piece: string | Uint8Array): void {
+    if (typeof piece === 'string') {
+      for (let i = 0; i < piece.length; i++) this.step(piece.charCodeAt(i))
     }
-    // As the importer skips a line with no content: only spaces, separators and empty quotes.
-    else if (!' \t,;"'.includes(c!)) blank = false
+    else {
+      for (let i = 0; i < piece.length; i++) this.step(piece[i]!)
+    }
   }
-  if (!blank) rows++
-  return Math.max(0, rows - 1)
+
+  /** Data rows so far; the last line counts before its line ending arrives. */
+  get dataRows(): number {
+    return Math.max(0, this.lines + (this.blank ? 0 : 1) - 1)
+  }
+
+  private step(c: number): void {
+    // A doubled quote inside a quoted cell toggles twice: still quoted, as CSV means it.
+    if (c === QUOTE) this.quoted = !this.quoted
+    if (!this.quoted && (c === LF || c === CR)) {
+      if (!this.blank) this.lines++
+      this.blank = true
+    }
+    else if (!BLANK.has(c)) this.blank = false
+  }
+}
+
+/** Data rows of CSV text (CsvRowCounter). */
+export function csvDataRows(text: string): number {
+  const counter = new CsvRowCounter()
+  counter.add(text)
+  return counter.dataRows
 }
 
 /** Why a chosen file cannot be imported, or null: a picture or other non-text file, or one past the row cap. */
