@@ -52,6 +52,8 @@ export function readBodyWithin(req: IncomingMessage, limit: number, sink: BodySi
       finish()
       return
     }
+    // The piece being taken: the last piece's 'end' (and 'close') come even while the stream is paused for it.
+    let taking = Promise.resolve()
     req.on('data', (piece: Buffer) => {
       read += piece.length
       if (outcome) {
@@ -60,7 +62,7 @@ export function readBodyWithin(req: IncomingMessage, limit: number, sink: BodySi
       }
       if (read > limit) return decide('too-large')
       req.pause()
-      Promise.resolve(sink.write(piece)).then((ok) => {
+      taking = Promise.resolve(sink.write(piece)).then((ok) => {
         if (ok) taken += piece.length
         else decide('refused')
         req.resume()
@@ -69,14 +71,14 @@ export function readBodyWithin(req: IncomingMessage, limit: number, sink: BodySi
         reject(error)
       })
     })
-    req.on('end', () => {
+    req.on('end', () => void taking.then(() => {
       decide('read')
       finish()
-    })
+    }))
     // After 'end' too; before it, the sender went away or was cut off.
-    req.on('close', () => {
-      decide('cut')
+    req.on('close', () => void taking.then(() => {
+      decide(req.complete ? 'read' : 'cut')
       finish()
-    })
+    }))
   })
 }
