@@ -95,7 +95,9 @@ export function enteredText(entry: ReadingEntry): string {
 
 /**
  * Each day's room under TESTS_PER_TANK_PER_DAY: what the tank held (asked once per day, the
- * first time a row falls on it) plus the rows this import has taken on it.
+ * first time a row falls on it) plus the rows this import has taken on it. One entry per day
+ * the file's accepted rows fall on: at most OLDEST_READING_YEARS of days (about 7,300), however
+ * long the file.
  */
 export class DayRoom {
   private readonly counts = new Map<string, number>()
