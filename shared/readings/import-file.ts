@@ -11,11 +11,12 @@ const CSV_EXTENSIONS = ['csv', 'txt', 'tsv']
 
 export const NOT_CSV_MESSAGE = 'This is not a CSV file. Choose the .csv file your tests were saved in (a spreadsheet saves one with "Save as CSV").'
 
-const QUOTE = 0x22
-const LF = 0x0A
-const CR = 0x0D
-/** What the importer skips as a line with no content: spaces, tabs, separators and empty quotes. */
-const BLANK = new Set([0x20, 0x09, 0x2C, 0x3B, QUOTE])
+/** What each ASCII character is to the count: content (0), blank (1: spaces, tabs, separators, as the importer skips a line of only these and empty quotes), a quote (2) or a line ending (3). */
+const CHARACTER_KIND = new Uint8Array(128)
+for (const c of ' \t,;') CHARACTER_KIND[c.charCodeAt(0)] = 1
+CHARACTER_KIND[0x22] = 2
+CHARACTER_KIND[0x0A] = 3
+CHARACTER_KIND[0x0D] = 3
 
 /**
  * Counts the data rows of CSV text as it arrives (the header row and blank lines not
@@ -31,27 +32,27 @@ export class CsvRowCounter {
 
   /** Takes the next piece of the file. */
   add(piece: string | Uint8Array): void {
-    if (typeof piece === 'string') {
-      for (let i = 0; i < piece.length; i++) this.step(piece.charCodeAt(i))
+    let { quoted, blank, lines } = this
+    const text = typeof piece === 'string'
+    for (let i = 0; i < piece.length; i++) {
+      const c = text ? piece.charCodeAt(i) : piece[i]!
+      const kind = c < 128 ? CHARACTER_KIND[c] : 0
+      if (kind === 0) blank = false
+      // A doubled quote inside a quoted cell toggles twice: still quoted, as CSV means it.
+      else if (kind === 2) quoted = !quoted
+      else if (kind === 3 && !quoted) {
+        if (!blank) lines++
+        blank = true
+      }
     }
-    else {
-      for (let i = 0; i < piece.length; i++) this.step(piece[i]!)
-    }
+    this.quoted = quoted
+    this.blank = blank
+    this.lines = lines
   }
 
   /** Data rows so far; the last line counts before its line ending arrives. */
   get dataRows(): number {
     return Math.max(0, this.lines + (this.blank ? 0 : 1) - 1)
-  }
-
-  private step(c: number): void {
-    // A doubled quote inside a quoted cell toggles twice: still quoted, as CSV means it.
-    if (c === QUOTE) this.quoted = !this.quoted
-    if (!this.quoted && (c === LF || c === CR)) {
-      if (!this.blank) this.lines++
-      this.blank = true
-    }
-    else if (!BLANK.has(c)) this.blank = false
   }
 }
 
