@@ -108,12 +108,15 @@ interface ImportRun {
 }
 
 /** The bench's options, in the query string a file sent as the body comes with. */
-const IMPORT_QUERY = new URLSearchParams(importOptionsQuery({ dryRun: false, basis: { ammonia: 'N', nitrite: 'N', nitrate: 'N' }, temperatureUnit: 'C', salinityMode: 'practical', mapping: {} }))
+const IMPORT_OPTIONS = { dryRun: false, basis: { ammonia: 'N', nitrite: 'N', nitrate: 'N' }, temperatureUnit: 'C', salinityMode: 'practical', mapping: {} } as const
+const IMPORT_QUERY = new URLSearchParams(importOptionsQuery(IMPORT_OPTIONS))
+/** BULK_IMPORT_AS=json sends the file as JSON text instead, to compare the two ways on the same machine. */
+const AS_JSON = process.env.BULK_IMPORT_AS === 'json'
 
 /**
  * Imports `csv` into the tank through the route, sampling the server's memory meanwhile. The
- * file is sent as the request's body (text/csv), as the form sends it; the JSON way is
- * covered by the API tests.
+ * file is sent as the request's body (text/csv), as the form sends it (BULK_IMPORT_AS=json:
+ * as JSON text, for a comparison); the JSON way is covered by the API tests.
  */
 async function timedImport(bench: BenchServer, cookie: string, tankId: string, csv: string, rows: number): Promise<ImportRun> {
   const { baseURL } = bench.server
@@ -126,9 +129,9 @@ async function timedImport(bench: BenchServer, cookie: string, tankId: string, c
   }, 50)
   const start = performance.now()
   try {
-    const response = await fetch(`${baseURL}/api/tanks/${tankId}/readings/import?${IMPORT_QUERY}`, {
-      method: 'POST', headers: { cookie, 'content-type': 'text/csv' }, body: csv,
-    })
+    const response = AS_JSON
+      ? await fetch(`${baseURL}/api/tanks/${tankId}/readings/import`, { method: 'POST', headers: { cookie, 'content-type': 'application/json' }, body: JSON.stringify({ csv, ...IMPORT_OPTIONS }) })
+      : await fetch(`${baseURL}/api/tanks/${tankId}/readings/import?${IMPORT_QUERY}`, { method: 'POST', headers: { cookie, 'content-type': 'text/csv' }, body: csv })
     const text = await response.text()
     const lockHeldMs = Number(/import-write-lock;dur=([\d.]+)/.exec(response.headers.get('server-timing') ?? '')?.[1] ?? Number.NaN)
     const answeredSeconds = (performance.now() - start) / 1000
