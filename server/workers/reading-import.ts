@@ -6,7 +6,8 @@
  *
  * Two steps, so the database's write lock is held only for the write (every other company's
  * save waits while it is held):
- * 1. Stage (no write lock): planImport reads and checks the file a chunk at a time, in one
+ * 1. Stage (no write lock): planImport reads and checks the file a chunk at a time (a file on
+ *    disk is read in pieces too, never whole: server/workers/file-text.ts), in one
  *    read transaction, and each row that passes goes into a TEMP table of this connection
  *    (temp tables live outside the main database, spill to a file, and take none of its
  *    locks). No array of the file's rows is built: memory stays flat however long the file.
@@ -28,19 +29,28 @@ import type { Statement } from 'better-sqlite3'
 import { MAX_REPORTED_ERRORS, planImport, toPreview, type ImportPlan, type ImportRow, type ImportSink, type PlanContext, type PlanOutcome } from '#shared/readings/import-plan'
 import type { KitBasisChoice } from '#shared/readings/entry'
 import { dayFullRowMessage, dayOf, TESTS_PER_TANK_PER_DAY } from '#shared/readings/limits'
-import type { ReadingImportInput } from '#shared/schemas/reading'
+import type { ReadingImportOptions } from '#shared/schemas/reading'
 import type { ImportPreview, ImportRowError } from '#shared/types/readings'
 import type { TidewrightDB } from '#server/db/connection'
 import { recordAudit } from '#server/domain/audit/record'
 import { testsOnDay } from '#server/domain/readings/day-cap'
 import { lockedUntil } from '#server/domain/sign-off/lock'
 import { workerConnection } from './connection'
+import { fileText } from './file-text'
+
+/**
+ * Where the file is: its text (sent as JSON, copied into the worker whole) or a temporary
+ * file (sent as the request's body, streamed there by the route), read a piece at a time.
+ */
+export type ImportFileSource = { text: string } | { path: string }
 
 export interface ReadingImportTask {
   dbPath: string
   tankId: string
   actor: { id: string, organisationId: string }
-  input: ReadingImportInput
+  /** How the file is read, and whether to write. */
+  input: ReadingImportOptions & { dryRun: boolean }
+  file: ImportFileSource
   kit: KitBasisChoice
   /** End of the signed-off period in ms, or null. */
   lockedMs: number | null
@@ -199,7 +209,8 @@ export function stageImport(task: ReadingImportTask): { outcome: PlanOutcome, db
   const context: PlanContext = { kit: task.kit, lockedMs: task.lockedMs ?? Number.NEGATIVE_INFINITY, now: new Date(task.nowMs) }
   const stage = openStage(db)
   // One read transaction: every look-up sees the same state of the tank; the temp table's writes take no lock of the main database.
-  const outcome = db.$client.transaction(() => planImport(task.input, context, stagingSink(db, task.tankId, stage))).deferred()
+  const text = 'path' in task.file ? fileText(task.file.path) : [task.file.text]
+  const outcome = db.$client.transaction(() => planImport(text, task.input, context, stagingSink(db, task.tankId, stage))).deferred()
   return { outcome, db, stage }
 }
 

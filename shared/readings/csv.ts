@@ -2,7 +2,7 @@
  * CSV rows to reading entries: guessing which column holds what, and turning one row
  * into the same entry the form sends, so imported rows pass the same bounds and flags.
  */
-import type { ImportTarget, ReadingImportInput } from '../schemas/reading'
+import type { ImportTarget, ReadingImportOptions } from '../schemas/reading'
 import { IMPORT_TARGETS } from '../schemas/reading'
 import type { EntryIssue, KitBasisChoice, ReadingEntry } from './entry'
 import { calendarDateExists, parseDecimal, parseIsoTime, STORED_TIME } from './fields'
@@ -85,7 +85,7 @@ export function parseCsvTime(cell: string): string | null {
 }
 
 /** How each row is read; the basis is settled before the rows are (see importBasis). */
-type Options = Pick<ReadingImportInput, 'temperatureUnit' | 'salinityMode' | 'sgBasis'> & { basis: KitBasisChoice }
+type Options = Pick<ReadingImportOptions, 'temperatureUnit' | 'salinityMode' | 'sgBasis'> & { basis: KitBasisChoice }
 
 const NUMERIC = ['ammonia', 'nitrite', 'nitrate', 'pH', 'temperature', 'salinity', 'alkalinityDkh', 'calciumMgL', 'magnesiumMgL', 'phosphateMgL'] as const satisfies readonly ImportTarget[]
 

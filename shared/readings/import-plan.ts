@@ -6,11 +6,11 @@
  * (server/workers/reading-import.ts), off the request loop, and in unit tests.
  */
 import { hash } from 'node:crypto'
-import Papa from 'papaparse'
-import type { ReadingImportInput } from '../schemas/reading'
+import type { ReadingImportOptions } from '../schemas/reading'
 import type { ImportPreview, ImportRowError } from '../types/readings'
 import { MEASURED_FIELDS } from '../vocabulary'
 import { columnIndexes, csvNumberText, csvRowReader, duplicateHeaderColumns, guessMapping, importBasis } from './csv'
+import { readCsvRows } from './csv-rows'
 import { convertEntry, enteredJson, type CanonicalValues, type KitBasisChoice, type ReadingEntry } from './entry'
 import { dayFullRowMessage, dayOf, MAX_IMPORT_ROWS, TESTS_PER_TANK_PER_DAY } from './limits'
 
@@ -95,7 +95,9 @@ export function enteredText(entry: ReadingEntry): string {
 
 /**
  * Each day's room under TESTS_PER_TANK_PER_DAY: what the tank held (asked once per day, the
- * first time a row falls on it) plus the rows this import has taken on it.
+ * first time a row falls on it) plus the rows this import has taken on it. One entry per day
+ * the file's accepted rows fall on: at most OLDEST_READING_YEARS of days (about 7,300), however
+ * long the file.
  */
 export class DayRoom {
   private readonly counts = new Map<string, number>()
@@ -127,7 +129,8 @@ export class DayRoom {
 export const IMPORT_CHUNK_ROWS = 256
 
 /**
- * Reads the file as the parser reads it: each row is mapped, converted with the entry rules of
+ * Reads the file's text (`text`: its pieces in order, the whole text as one piece or a file
+ * read a chunk at a time; readCsvRows) as the parser reads it: each row is mapped, converted with the entry rules of
  * the form (convertEntry), held to the signed-off period and keyed; each chunk of
  * IMPORT_CHUNK_ROWS rows that passed is then held to its days' room and handed to `sink` in
  * file order, and dropped. Nothing else of a row is kept (but the first PREVIEW_ROWS taken and
@@ -136,7 +139,7 @@ export const IMPORT_CHUNK_ROWS = 256
  * one row past MAX_IMPORT_ROWS: a longer file is refused whole (the caller drops what `sink`
  * took).
  */
-export function planImport(input: ReadingImportInput, context: PlanContext, sink: ImportSink): PlanOutcome {
+export function planImport(text: Iterable<string>, input: ReadingImportOptions, context: PlanContext, sink: ImportSink): PlanOutcome {
   let refusal: PlanOutcome | null = null
   let plan: ImportPlan | null = null
   let readRow: ReturnType<typeof csvRowReader> | null = null
@@ -178,44 +181,39 @@ export function planImport(input: ReadingImportInput, context: PlanContext, sink
       into.preview.push({ row: row.line, takenAt: row.takenAt, ammoniaN: values.ammoniaN, nitriteN: values.nitriteN, nitrateN: values.nitrateN, pH: values.pH, temperatureC: values.temperatureC, salinity: values.salinity })
     }
   }
-  Papa.parse<string[]>(input.csv, {
-    header: false,
-    skipEmptyLines: 'greedy',
-    step: (result, parser) => {
-      const cells = result.data
-      if (!plan) {
-        const headers = cells.map(h => h.trim())
-        const repeats = duplicateHeaderColumns(headers)
-        const mapping = guessMapping(headers, input.mapping) as Record<string, string>
-        if (repeats.length) {
-          refusal = { kind: 'field-issues', issues: [{ field: 'csv', message: `The header row repeats a column name (column ${repeats.join(', ')}), so it is unclear which column holds what. Rename or remove the repeated column and import again.` }] }
-        }
-        else if (!mapping.takenAt) {
-          refusal = { kind: 'field-issues', issues: [{ field: 'mapping.takenAt', message: 'Choose the column that holds the date and time of each test.' }] }
-        }
-        if (refusal) return parser.abort()
-        const basis = importBasis(input.basis, mapping, context.kit)
-        readRow = csvRowReader(columnIndexes(headers, mapping), { basis, temperatureUnit: input.temperatureUnit, salinityMode: input.salinityMode, sgBasis: input.sgBasis })
-        plan = { headers, mapping, basis, rowCount: 0, added: 0, errors: [], errorCount: 0, duplicates: 0, preview: [] }
-        return
+  readCsvRows(text, (cells, stop) => {
+    if (!plan) {
+      const headers = cells.map(h => h.trim())
+      const repeats = duplicateHeaderColumns(headers)
+      const mapping = guessMapping(headers, input.mapping) as Record<string, string>
+      if (repeats.length) {
+        refusal = { kind: 'field-issues', issues: [{ field: 'csv', message: `The header row repeats a column name (column ${repeats.join(', ')}), so it is unclear which column holds what. Rename or remove the repeated column and import again.` }] }
       }
-      if (++index > MAX_IMPORT_ROWS) {
-        refusal = { kind: 'too-many-rows' }
-        return parser.abort()
+      else if (!mapping.takenAt) {
+        refusal = { kind: 'field-issues', issues: [{ field: 'mapping.takenAt', message: 'Choose the column that holds the date and time of each test.' }] }
       }
-      plan.rowCount = index
-      const line = index + 1 // the header is row 1, as a spreadsheet numbers it
-      const mapped = readRow!(cells)
-      if ('issues' in mapped) return report(line, mapped.issues)
-      const { entry, takenMs } = mapped
-      // The entry rules of the form; the import keeps no flags, and writes what was typed as text.
-      const reading = convertEntry(entry, context.now, takenMs)
-      if (!reading.ok) return report(line, reading.issues)
-      // Rows inside a signed-off period would change what the supervisor signed: refused per row.
-      if ((takenMs ?? Date.parse(reading.takenAt)) <= context.lockedMs) return report(line, [{ field: 'takenAt', message: 'This test falls in the signed-off period and cannot be imported.' }])
-      chunk.push({ line, takenAt: reading.takenAt, values: reading.values, notes: reading.notes, key: importKeyOf(reading), entered: enteredText(entry) })
-      if (chunk.length === IMPORT_CHUNK_ROWS) handOver(plan)
-    },
+      if (refusal) return stop()
+      const basis = importBasis(input.basis, mapping, context.kit)
+      readRow = csvRowReader(columnIndexes(headers, mapping), { basis, temperatureUnit: input.temperatureUnit, salinityMode: input.salinityMode, sgBasis: input.sgBasis })
+      plan = { headers, mapping, basis, rowCount: 0, added: 0, errors: [], errorCount: 0, duplicates: 0, preview: [] }
+      return
+    }
+    if (++index > MAX_IMPORT_ROWS) {
+      refusal = { kind: 'too-many-rows' }
+      return stop()
+    }
+    plan.rowCount = index
+    const line = index + 1 // the header is row 1, as a spreadsheet numbers it
+    const mapped = readRow!(cells)
+    if ('issues' in mapped) return report(line, mapped.issues)
+    const { entry, takenMs } = mapped
+    // The entry rules of the form; the import keeps no flags, and writes what was typed as text.
+    const reading = convertEntry(entry, context.now, takenMs)
+    if (!reading.ok) return report(line, reading.issues)
+    // Rows inside a signed-off period would change what the supervisor signed: refused per row.
+    if ((takenMs ?? Date.parse(reading.takenAt)) <= context.lockedMs) return report(line, [{ field: 'takenAt', message: 'This test falls in the signed-off period and cannot be imported.' }])
+    chunk.push({ line, takenAt: reading.takenAt, values: reading.values, notes: reading.notes, key: importKeyOf(reading), entered: enteredText(entry) })
+    if (chunk.length === IMPORT_CHUNK_ROWS) handOver(plan)
   })
   if (refusal) return refusal
   if (!plan) return { kind: 'plan', plan: { headers: [], mapping: {}, basis: importBasis(input.basis, {}, context.kit), rowCount: 0, added: 0, errors: [], errorCount: 0, duplicates: 0, preview: [] } }

@@ -6,6 +6,7 @@
 import * as v from 'valibot'
 import { SG_BASES } from '../chemistry/seawater'
 import { ENTRY_NOTES_MAX } from '../readings/fields'
+import { UPLOAD_EMPTY_MESSAGE } from '../uploads/files'
 import { isoTimeText as isoTime } from './common'
 import {
   AMMONIA_BASES, EVENT_KINDS, LIVESTOCK_GROUPS, NITRATE_BASES, NITRITE_BASES, SALINITY_MODES, TEMPERATURE_UNITS, VOLUME_UNITS,
@@ -114,9 +115,8 @@ export type EventPatch = v.InferOutput<typeof EventPatchSchema>
 export const IMPORT_TARGETS = ['takenAt', 'ammonia', 'nitrite', 'nitrate', 'pH', 'temperature', 'salinity', 'alkalinityDkh', 'calciumMgL', 'magnesiumMgL', 'phosphateMgL', 'notes'] as const
 export type ImportTarget = (typeof IMPORT_TARGETS)[number]
 
-/** POST /api/tanks/:id/readings/import. Nothing is written unless dryRun is false. */
-export const ReadingImportSchema = v.object({
-  csv: v.pipe(v.string('Attach the CSV text.'), v.minLength(1, 'The file is empty.')),
+/** How the import reads a file: the same options whether the file comes as JSON text or as the request's body. */
+const importOptionEntries = {
   /** Target -> the CSV header that holds it. Unmapped targets are guessed from the header. */
   mapping: v.optional(v.record(v.picklist(IMPORT_TARGETS, 'Unknown column target.'), v.pipe(v.string(), v.maxLength(200))), {}),
   /** How the kit reads; when left out, as the file's headers say (Tidewright's export: as N), else the tank's remembered kit. */
@@ -124,6 +124,59 @@ export const ReadingImportSchema = v.object({
   temperatureUnit: v.optional(v.picklist(TEMPERATURE_UNITS, 'Temperature unit is C or F.'), 'C'),
   salinityMode: v.optional(v.picklist(SALINITY_MODES, 'Unknown salinity mode.'), 'practical'),
   sgBasis: v.optional(v.picklist(SG_KEYS, 'Unknown specific-gravity basis.')),
-  dryRun: v.optional(v.boolean('dryRun is true or false.'), true),
+}
+const DRY_RUN_MESSAGE = 'dryRun is true or false.'
+
+/** The import's options without the file (what the form checks, and what a file sent as the body comes with). */
+export const ReadingImportOptionsSchema = v.object(importOptionEntries)
+export type ReadingImportOptions = v.InferOutput<typeof ReadingImportOptionsSchema>
+
+/** POST /api/tanks/:id/readings/import as JSON, the file's text in `csv`. Nothing is written unless dryRun is false. */
+export const ReadingImportSchema = v.object({
+  csv: v.pipe(v.string('Attach the CSV text.'), v.minLength(1, UPLOAD_EMPTY_MESSAGE)),
+  ...importOptionEntries,
+  dryRun: v.optional(v.boolean(DRY_RUN_MESSAGE), true),
 })
+
+/**
+ * The same options in the query string, for a file sent as the request's body (text/csv):
+ * `?dryRun=false&basis.ammonia=NH3&mapping.takenAt=Date`, so a long file is never JSON text.
+ * Keys with a dot fill the option they name (basis, mapping); an issue names the field as
+ * the JSON way does (`basis.ammonia`).
+ */
+export const ReadingImportQuerySchema = v.pipe(
+  v.record(v.string(), v.string('Give each option once.')),
+  v.transform(nestedQuery),
+  v.object({
+    ...importOptionEntries,
+    dryRun: v.pipe(v.optional(v.picklist(['true', 'false'], DRY_RUN_MESSAGE), 'true'), v.transform(text => text === 'true')),
+  }),
+)
+
+/** The options as query-string pairs (ReadingImportQuerySchema reads them back): what the form sends with a file. */
+export function importOptionsQuery(options: ReadingImportOptions & { dryRun: boolean }): Record<string, string> {
+  const query: Record<string, string> = { dryRun: String(options.dryRun), temperatureUnit: options.temperatureUnit, salinityMode: options.salinityMode }
+  if (options.sgBasis) query.sgBasis = options.sgBasis
+  for (const [key, value] of Object.entries(options.basis ?? {})) query[`basis.${key}`] = value
+  for (const [key, value] of Object.entries(options.mapping)) if (value) query[`mapping.${key}`] = value
+  return query
+}
+
+/** `{ 'basis.ammonia': 'NH3' }` -> `{ basis: { ammonia: 'NH3' } }`, in maps first so no key (`__proto__.x`) reaches a prototype. */
+function nestedQuery(query: Record<string, string>): Record<string, unknown> {
+  const entries = new Map<string, unknown>()
+  for (const [key, value] of Object.entries(query)) {
+    const dot = key.indexOf('.')
+    if (dot < 0) {
+      entries.set(key, value)
+      continue
+    }
+    const outer = key.slice(0, dot)
+    const inner = entries.get(outer) instanceof Map ? entries.get(outer) as Map<string, string> : new Map<string, string>()
+    entries.set(outer, inner.set(key.slice(dot + 1), value))
+  }
+  return Object.fromEntries([...entries].map(([key, value]) => [key, value instanceof Map ? Object.fromEntries(value) : value]))
+}
+
 export type ReadingImportInput = v.InferOutput<typeof ReadingImportSchema>
+export type ReadingImportQuery = v.InferOutput<typeof ReadingImportQuerySchema>

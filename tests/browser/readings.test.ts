@@ -106,6 +106,11 @@ describe('daily tests', () => {
     const day = (n: number) => new Date(Date.now() - n * 86_400_000).toISOString()
     const csv = `Date,NH3,NO2,NO3,pH\n${day(3)},0.5,0,5,8.1\n${day(2)},0.25,0,5,8.2\nnot a date,1,1,1,8\n`
     await page.getByLabel('Ammonia as').selectOption('NH3')
+    // The file itself is the request's body (never JSON text; Chromium does not show a file's bytes here), the options in the query string.
+    const sent: { url: URL, type: string | undefined }[] = []
+    page.on('request', (request) => {
+      if (request.url().includes('/readings/import')) sent.push({ url: new URL(request.url()), type: request.headers()['content-type'] })
+    })
     await page.getByLabel('CSV file').setInputFiles({ name: 'tests.csv', mimeType: 'text/csv', buffer: Buffer.from(csv) })
     await expect.poll(() => page.getByText('2 ready to import').isVisible()).toBe(true)
     await expect.poll(() => page.getByRole('list', { name: 'Rows with errors' }).textContent()).toContain('Row 4')
@@ -115,6 +120,8 @@ describe('daily tests', () => {
     await page.getByRole('button', { name: 'Import 2 tests' }).click()
     await expect.poll(() => page.getByText('2 tests imported').isVisible()).toBe(true)
     await expect.poll(() => page.getByRole('table', { name: 'Tests' }).getByRole('row').count()).toBe(3)
+    // The demo aquarist works in US units: the form reads temperatures in °F.
+    expect(sent.map(s => [s.type, s.url.searchParams.get('dryRun'), s.url.searchParams.get('temperatureUnit'), s.url.searchParams.get('mapping.takenAt')])).toEqual([['text/csv', 'true', 'F', null], ['text/csv', 'false', 'F', 'Date']])
     expect(problems).toEqual([])
     await context.close()
   })

@@ -16,12 +16,14 @@ export const BODY_LIMITS = {
   planTemplate: 1 * MB,
   /** Multipart uploads: one file of at most MAX_UPLOAD_BYTES (shared/uploads/files.ts, which the forms check too). */
   upload: MAX_UPLOAD_BYTES + MULTIPART_OVERHEAD_BYTES,
-  /** CSV import as JSON text: 100,000 rows are about 8 MB. */
+  /** CSV import, as JSON text or as the file itself (text/csv): 100,000 rows are about 8 MB. */
   import: 24 * MB,
 } as const
 
+const IMPORT_ROUTE = /^\/api\/tanks\/[^/]+\/readings\/import$/
+
 const ROUTES: ReadonlyArray<[RegExp, number]> = [
-  [/^\/api\/tanks\/[^/]+\/readings\/import$/, BODY_LIMITS.import],
+  [IMPORT_ROUTE, BODY_LIMITS.import],
   [/^\/api\/tanks\/[^/]+\/stages\/[^/]+\/uploads$/, BODY_LIMITS.upload],
   [/^\/api\/tanks\/[^/]+\/test-photos$/, BODY_LIMITS.upload],
   [/^\/api\/plan-template$/, BODY_LIMITS.planTemplate],
@@ -31,6 +33,15 @@ const ROUTES: ReadonlyArray<[RegExp, number]> = [
 export function bodyLimitFor(path: string): number {
   const bare = path.split('?')[0]!
   return ROUTES.find(([pattern]) => pattern.test(bare))?.[1] ?? BODY_LIMITS.json
+}
+
+/**
+ * Whether the route reads the body itself, as a stream, rather than the body-limit middleware
+ * holding it whole: a CSV file sent as it is (text/csv) to the import, which writes it to a
+ * temporary file as it arrives (server/utils/csv-upload.ts).
+ */
+export function streamsOwnBody(path: string, contentType: string | undefined): boolean {
+  return (contentType ?? '').toLowerCase().startsWith('text/csv') && IMPORT_ROUTE.test(path.split('?')[0]!)
 }
 
 /** A refusal for a body past its limit, with the field a form shows it beside when there is one. */

@@ -24,7 +24,8 @@ function task(tankId: string, lockedMs: number | null) {
     dbPath,
     tankId,
     actor: { id: demo.users.aquarist, organisationId: demo.organisationId },
-    input: { csv, mapping: {}, temperatureUnit: 'C' as const, salinityMode: 'practical' as const, dryRun: false },
+    input: { mapping: {}, temperatureUnit: 'C' as const, salinityMode: 'practical' as const, dryRun: false },
+    file: { text: csv },
     kit: { ammonia: 'N', nitrite: 'N', nitrate: 'N' } as never,
     lockedMs,
     nowMs: now.getTime(),
@@ -48,7 +49,7 @@ describe('CSV import in the worker and the signed record', () => {
     const tankId = demo.tanks.nano
     const locked = lockedUntil(db, tankId)!
     const before = countOn(tankId)
-    const later = { ...task(tankId, Date.parse(locked)), input: { ...task(tankId, null).input, csv: ['taken_at,ammonia,nitrite,nitrate', `${now.toISOString()},0,0,5`].join('\n') } }
+    const later = { ...task(tankId, Date.parse(locked)), file: { text: ['taken_at,ammonia,nitrite,nitrate', `${now.toISOString()},0,0,5`].join('\n') } }
     const result = readingImport(later)
     expect(result.kind).toBe('done')
     expect(countOn(tankId)).toBe(before + 1)

@@ -8,7 +8,7 @@
  * meanwhile count the same in a tank that holds no imported tests yet. Real migrated SQLite file with the demo company; the worker's function is
  * called directly.
  */
-import { mkdtempSync, rmSync } from 'node:fs'
+import { mkdtempSync, rmSync, writeFileSync } from 'node:fs'
 import { tmpdir } from 'node:os'
 import { join } from 'node:path'
 import { and, eq, isNotNull } from 'drizzle-orm'
@@ -47,7 +47,8 @@ function task(tankId: string, csv: string, dryRun: boolean): ReadingImportTask {
     dbPath,
     tankId,
     actor: { id: demo.users.aquarist, organisationId: demo.organisationId },
-    input: { csv, mapping: {}, temperatureUnit: 'C', salinityMode: 'practical', dryRun },
+    input: { mapping: {}, temperatureUnit: 'C', salinityMode: 'practical', dryRun },
+    file: { text: csv },
     kit: { ammonia: 'N', nitrite: 'N', nitrate: 'N' },
     lockedMs: null,
     nowMs: now.getTime(),
@@ -191,6 +192,21 @@ describe('the CSV import in the worker', () => {
     expect(run(tankId, ['takenAt,ammonia,nitrite,nitrate', ...rows].join('\n'), false).kind).toBe('too-many-rows')
     expect(countOn(tankId)).toBe(before)
     expect(importAudits(tankId)).toBe(audits)
+  })
+
+  it('answers the same for a file read from disk in pieces as for its text, notes spanning lines and characters of several bytes included', () => {
+    const tankId = demo.tanks.study
+    const start = now.getTime() - 900 * 86_400_000
+    // Longer than several of the reader's pieces; every ninth note is quoted and spans lines (CRLF file).
+    const rows = Array.from({ length: 3000 }, (_, i) => `${new Date(start + i * 3_600_000).toISOString()},${(i % 40) / 10},0,5,${i % 9 ? `Wasserwechsel ${i} µS 🐠` : `"Kalk ""hoch"",\r\nnach dem Wechsel ${i}"`}`)
+    const csv = `\uFEFF${['takenAt,ammonia,nitrite,nitrate,notes', ...rows, 'not a date,0,0,5,x'].join('\r\n')}\r\n`
+    const path = join(dir, 'upload.csv')
+    writeFileSync(path, csv)
+    const fromText = readingImport({ ...task(tankId, csv, true), file: { text: csv } })
+    const fromFile = readingImport({ ...task(tankId, csv, true), file: { path } })
+    if (fromText.kind !== 'done') throw new Error(fromText.kind)
+    expect(fromText.preview).toMatchObject({ rows: 3001, valid: 3000, errorRows: 1 })
+    expect(fromFile).toEqual(fromText)
   })
 
   it('writes the audit row with the rows', () => {

@@ -4,12 +4,12 @@
  * held takes no room, and each row that passes is handed on as it is read.
  */
 import { describe, expect, it } from 'vitest'
-import { planImport, type ImportPlan, type ImportRow, type ImportSink } from '../../../../shared/readings/import-plan'
+import { MAX_REPORTED_ERRORS, planImport, type ImportPlan, type ImportRow, type ImportSink } from '../../../../shared/readings/import-plan'
 import { dayOf, MAX_IMPORT_ROWS, TESTS_PER_TANK_PER_DAY } from '../../../../shared/readings/limits'
 import { csvNumber, csvNumberText } from '../../../../shared/readings/csv'
 
 const context = { kit: { ammonia: 'N', nitrite: 'N', nitrate: 'N' } as const, lockedMs: Number.NEGATIVE_INFINITY, now: new Date('2026-06-01T00:00:00Z') }
-const input = (csv: string) => ({ csv, mapping: {}, temperatureUnit: 'C' as const, salinityMode: 'practical' as const, dryRun: true })
+const input = (csv: string) => [[csv], { mapping: {}, temperatureUnit: 'C' as const, salinityMode: 'practical' as const }] as const
 const hourly = (count: number, start = Date.parse('2016-01-01T00:00:00Z')) =>
   `takenAt,ammonia\n${Array.from({ length: count }, (_, i) => `${new Date(start + i * 3_600_000).toISOString()},0.25`).join('\n')}`
 
@@ -35,15 +35,31 @@ function memoryTank(held: Record<string, number> = {}, keys: string[] = []) {
 }
 
 const planOf = (csv: string, tank = memoryTank()): ImportPlan => {
-  const outcome = planImport(input(csv), context, tank.sink)
+  const outcome = planImport(...input(csv), context, tank.sink)
   if (outcome.kind !== 'plan') throw new Error(outcome.kind)
   return outcome.plan
 }
 
 describe('rows per import', () => {
   it('takes a file of exactly the cap and refuses one row more', () => {
-    expect(planImport(input(hourly(MAX_IMPORT_ROWS)), context, memoryTank().sink).kind).toBe('plan')
-    expect(planImport(input(hourly(MAX_IMPORT_ROWS + 1)), context, memoryTank().sink).kind).toBe('too-many-rows')
+    expect(planImport(...input(hourly(MAX_IMPORT_ROWS)), context, memoryTank().sink).kind).toBe('plan')
+    expect(planImport(...input(hourly(MAX_IMPORT_ROWS + 1)), context, memoryTank().sink).kind).toBe('too-many-rows')
+  })
+})
+
+describe('what an import keeps of its rows', () => {
+  it('keeps the first errors and the first rows taken, however many there are, and counts them all', () => {
+    // Each good row followed by three bad ones: 4,000 errors, 1,000 rows taken.
+    const rows = Array.from({ length: 1000 }, (_, i) => [`${new Date(Date.parse('2020-01-01T00:00:00Z') + i * 3_600_000).toISOString()},0.25`, 'not a date,1', `${new Date(Date.parse('2020-01-01T00:00:00Z') + i * 3_600_000).toISOString()},-1`, ',1']).flat()
+    const tank = memoryTank()
+    const plan = planOf(`takenAt,ammonia\n${rows.join('\n')}`, tank)
+    expect([plan.rowCount, plan.added, plan.errorCount]).toEqual([4000, 1000, 3000])
+    expect(plan.errors).toHaveLength(MAX_REPORTED_ERRORS)
+    expect(plan.errors.map(e => e.row)).toEqual([...plan.errors.map(e => e.row)].sort((a, b) => a - b))
+    expect(plan.errors[0]!.row).toBe(3)
+    expect(plan.preview).toHaveLength(20)
+    expect(plan.preview.map(p => p.row)).toEqual(Array.from({ length: 20 }, (_, i) => 2 + 4 * i))
+    expect(tank.taken).toHaveLength(1000)
   })
 })
 

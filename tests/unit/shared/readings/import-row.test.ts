@@ -25,7 +25,7 @@ function imported(input: ReadingImportInput, keys: string[] = []) {
       return true
     },
   }
-  const outcome = planImport(input, context, sink)
+  const outcome = planImport([input.csv], input, context, sink)
   if (outcome.kind !== 'plan') throw new Error(outcome.kind)
   return { taken, plan: outcome.plan }
 }
