@@ -8,7 +8,7 @@
  */
 
 import { evaluateCycle } from '../engine'
-import { nitrogenTestsAsOf, preparedFrom, type PreparedHistory } from '../history'
+import { endsBy, nitrogenTestsAsOf, preparedFrom, type PreparedHistory } from '../history'
 import { RULE_SET_VERSION } from '../registry'
 import { resolveThresholds } from '../thresholds'
 import { DAY_MS, HOUR_MS, parseTime, requireTime, toIso } from '../time'
@@ -119,8 +119,15 @@ function uncheckedDose(doses: readonly ProofDose[], allTests: readonly TimedTest
   return allTests.some(t => t.t > last.t) ? null : last.t
 }
 
-/** The input without tests or events after now: the assumed routine must continue from now, not from a later record. */
-function pastOnly(input: CycleInput, nowMs: number): CycleInput {
+/**
+ * The input without tests or events after now: the assumed routine must continue from now, not from
+ * a later record. When the history kept with these very arrays ends by now, nothing is cut, and the
+ * arrays are taken as they are instead of reading every time again.
+ */
+function pastOnly(input: CycleInput, nowMs: number, prepared: PreparedHistory | undefined): CycleInput {
+  if (prepared && prepared.source.readings === input.readings && prepared.source.events === input.events && endsBy(prepared, nowMs)) {
+    return { ...input, events: input.events ?? [] }
+  }
   const past = (iso: string) => !(parseTime(iso) > nowMs)
   return { ...input, readings: input.readings.filter(r => past(r.takenAt)), events: (input.events ?? []).filter(e => past(e.at)) }
 }
@@ -135,13 +142,28 @@ function lastWaterChange(input: CycleInput, nowMs: number): number {
   return last
 }
 
+/** A value the curves take: measured, a finite number, not below zero. */
+function curveValue(value: number | undefined): value is number {
+  return value !== undefined && Number.isFinite(value) && value >= 0
+}
+
 function seriesOf(tests: readonly TimedTest[], key: 'ammoniaN' | 'nitriteN', fromMs: number): SeriesPoint[] {
   const points: SeriesPoint[] = []
   for (const test of tests) {
     const value = test[key]
-    if (value !== undefined && Number.isFinite(value) && value >= 0 && test.t > fromMs) points.push({ t: test.t, value })
+    if (curveValue(value) && test.t > fromMs) points.push({ t: test.t, value })
   }
   return points
+}
+
+/** The last value of `seriesOf(tests, key, fromMs)`, found from the end instead of building the series. */
+function latestOfSeries(tests: readonly TimedTest[], key: 'ammoniaN' | 'nitriteN', fromMs: number): number | undefined {
+  for (let i = tests.length - 1; i >= 0; i--) {
+    const test = tests[i]!
+    const value = test[key]
+    if (curveValue(value) && test.t > fromMs) return value
+  }
+  return undefined
 }
 
 function completeForecast(verdict: Verdict, basis: ForecastBasis): CycleForecast {
@@ -219,9 +241,8 @@ export function forecastCycle(input: CycleInput, verdict?: Verdict, prepared?: P
   if (nowMs - lastTest.t > 2 * thresholds.testIntervalHours * HOUR_MS) return shell('not-enough-data', 'stale', basis)
 
   const fromMs = lastWaterChange(input, nowMs)
-  const latest = (key: 'ammoniaN' | 'nitriteN') => seriesOf(tests, key, fromMs).at(-1)?.value
   const limits = { ammoniaN: thresholds.ammoniaZeroN, nitriteN: thresholds.nitriteZeroN } as const
-  const above = (key: 'ammoniaN' | 'nitriteN') => (latest(key) ?? 0) > limits[key]
+  const above = (key: 'ammoniaN' | 'nitriteN') => (latestOfSeries(tests, key, fromMs) ?? 0) > limits[key]
   const ammoniaAbove = above('ammoniaN')
   const nitriteAbove = above('nitriteN')
   const results: DeclineResult[] = []
@@ -230,11 +251,11 @@ export function forecastCycle(input: CycleInput, verdict?: Verdict, prepared?: P
   basis.fits = results.flatMap(r => (r.ok ? [r.fit] : [] as DeclineFit[]))
   basis.readingZero = !ammoniaAbove && !nitriteAbove
 
-  const lastNitrate = [...tests].reverse().find(x => x.nitrateN !== undefined)?.nitrateN ?? 0
+  const lastNitrate = tests.findLast(x => x.nitrateN !== undefined)?.nitrateN ?? 0
   const livestockIn = (input.events ?? []).some(e => e.kind === 'livestock-added' && parseTime(e.at) <= nowMs)
   const doseAfterZeroTests = input.tank.cycleMethod === 'fishless' && !livestockIn
   const base: ProjectionBase = {
-    input: pastOnly(input, nowMs),
+    input: pastOnly(input, nowMs, prepared),
     history: preparedFrom(input.readings, input.events, prepared),
     thresholds,
     lastTestMs: lastTest.t,
