@@ -14,17 +14,11 @@ import { resolveThresholds } from '../thresholds'
 import { DAY_MS, HOUR_MS, parseTime, requireTime, toIso } from '../time'
 import { LIVESTOCK_GROUPS, type CycleInput, type LivestockGroup, type Thresholds, type Verdict } from '../types'
 import { fitDecline, type DeclineResult, type SeriesPoint } from './decline'
+import { latestOfSeries, seriesOf, seriesSincePeak, type TimedTest } from './series'
 import { DOSE_CHECK_HOURS, HORIZON_DAYS, INTERVAL_PROBABILITY, MAX_RANGE_DAYS, MAX_RELAPSE_DAYS, MIN_TESTS, RANGE_SLACK_DAYS } from './parameters'
 import { firstProvingRoutine, futureTestTimes, projectCompletion, type ProjectionBase } from './project'
 import type { CycleForecast, DeclineFit, ForecastBasis, ForecastGap, ForecastRange } from './types'
 import { FORECAST_VERSION } from './version'
-
-interface TimedTest {
-  t: number
-  ammoniaN?: number
-  nitriteN?: number
-  nitrateN?: number
-}
 
 const NO_GROUPS = (): Record<LivestockGroup, ForecastRange | null> =>
   Object.fromEntries(LIVESTOCK_GROUPS.map(g => [g, null])) as Record<LivestockGroup, ForecastRange | null>
@@ -142,30 +136,6 @@ function lastWaterChange(input: CycleInput, nowMs: number): number {
   return last
 }
 
-/** A value the curves take: measured, a finite number, not below zero. */
-function curveValue(value: number | undefined): value is number {
-  return value !== undefined && Number.isFinite(value) && value >= 0
-}
-
-function seriesOf(tests: readonly TimedTest[], key: 'ammoniaN' | 'nitriteN', fromMs: number): SeriesPoint[] {
-  const points: SeriesPoint[] = []
-  for (const test of tests) {
-    const value = test[key]
-    if (curveValue(value) && test.t > fromMs) points.push({ t: test.t, value })
-  }
-  return points
-}
-
-/** The last value of `seriesOf(tests, key, fromMs)`, found from the end instead of building the series. */
-function latestOfSeries(tests: readonly TimedTest[], key: 'ammoniaN' | 'nitriteN', fromMs: number): number | undefined {
-  for (let i = tests.length - 1; i >= 0; i--) {
-    const test = tests[i]!
-    const value = test[key]
-    if (curveValue(value) && test.t > fromMs) return value
-  }
-  return undefined
-}
-
 function completeForecast(verdict: Verdict, basis: ForecastBasis): CycleForecast {
   const done = verdict.completedOn!
   const forecast = shell('complete', null, basis)
@@ -246,8 +216,8 @@ export function forecastCycle(input: CycleInput, verdict?: Verdict, prepared?: P
   const ammoniaAbove = above('ammoniaN')
   const nitriteAbove = above('nitriteN')
   const results: DeclineResult[] = []
-  if (ammoniaAbove) results.push(fitDecline('ammonia', seriesOf(tests, 'ammoniaN', fromMs), limits.ammoniaN))
-  if (nitriteAbove) results.push(fitDecline('nitrite', seriesOf(tests, 'nitriteN', fromMs), limits.nitriteN))
+  if (ammoniaAbove) results.push(fitDecline('ammonia', seriesSincePeak(tests, 'ammoniaN', fromMs), limits.ammoniaN))
+  if (nitriteAbove) results.push(fitDecline('nitrite', seriesSincePeak(tests, 'nitriteN', fromMs), limits.nitriteN))
   basis.fits = results.flatMap(r => (r.ok ? [r.fit] : [] as DeclineFit[]))
   basis.readingZero = !ammoniaAbove && !nitriteAbove
 
