@@ -57,7 +57,9 @@ export async function startBenchServer(options: { yearOnLounge?: boolean, env?: 
   const dir = mkdtempSync(join(tmpdir(), 'tidewright-bench-'))
   const { dbPath, fixtures } = await seededDatabase(dir)
   if (options.yearOnLounge) addYearOfReadings(dbPath, fixtures.demo.tanks.lounge, fixtures.demo.users.client)
-  const server = await startServer({ dbPath, env: { NUXT_BENCH_ROUTES: '1', NUXT_UPLOADS_DIR: join(dir, 'uploads'), ...options.env } })
+  // BENCH_SERVER_NODE_ARGS (opt-in) go to the server's node alone, e.g. `--cpu-prof --cpu-prof-dir=/tmp/prof` for a profile of it under the bench.
+  const nodeArgs = process.env.BENCH_SERVER_NODE_ARGS?.split(' ').filter(Boolean)
+  const server = await startServer({ dbPath, nodeArgs, env: { NUXT_BENCH_ROUTES: '1', NUXT_UPLOADS_DIR: join(dir, 'uploads'), ...options.env } })
   return {
     server, dbPath, dir, fixtures,
     stop: async () => {

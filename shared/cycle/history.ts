@@ -222,6 +222,13 @@ function prefix<T>(items: readonly T[], count: number): readonly T[] {
   return count === items.length ? items : items.slice(0, count)
 }
 
+/** Nothing in the prepared history (readings and events whose time parses) happened after `nowMs`. */
+export function endsBy(prepared: PreparedHistory, nowMs: number): boolean {
+  const lastReading = prepared.readings[prepared.readings.length - 1]
+  const lastEvent = prepared.events[prepared.events.length - 1]
+  return (lastReading === undefined || lastReading.t <= nowMs) && (lastEvent === undefined || lastEvent.t <= nowMs)
+}
+
 /** The history as of `nowMs`: a reading or event after it is in the verdict's future and left out, which keeps old verdicts reproducible. */
 export function historyAsOf(prepared: PreparedHistory, nowMs: number): History {
   const readings = prefix(prepared.readings, countUpTo(prepared.readings, nowMs))

@@ -54,6 +54,31 @@ describe('POST /api/tanks/:id/readings', () => {
     expect(auditCount('reading.create', body.reading.id)).toBe(1)
   })
 
+  it('gives every save its own row id and times, and an audit row of its own time with the row and no before (SQL NULL)', async () => {
+    const api = await signedIn('client@tidewright.test')
+    const saved: ReadingSaved[] = []
+    for (const h of [3, 2]) {
+      const started = new Date().toISOString()
+      const { status, body } = await api.post<ReadingSaved>(`/api/tanks/${lounge}/readings`, reading({ takenAt: hoursAgo(h), nitrate: 10 + h }))
+      expect(status).toBe(201)
+      expect(body.reading.createdAt >= started).toBe(true)
+      saved.push(body)
+    }
+    const [first, second] = saved.map(s => s.reading)
+    expect(first!.id).not.toBe(second!.id)
+    expect(second!.createdAt >= first!.createdAt).toBe(true)
+    const audit = (id: string) => db.prepare('SELECT before, typeof(before) AS beforeType, after, at FROM audit_log WHERE action = ? AND entity_id = ?').get('reading.create', id) as { before: null, beforeType: string, after: string, at: string }
+    const rows = [first!, second!].map(r => ({ stored: db.prepare('SELECT id, tank_id, taken_at, nitrate_n, created_at, updated_at FROM readings WHERE id = ?').get(r.id) as Record<string, unknown>, audit: audit(r.id), view: r }))
+    for (const { stored, audit: line, view } of rows) {
+      expect(stored).toEqual({ id: view.id, tank_id: lounge, taken_at: view.takenAt, nitrate_n: view.nitrateN, created_at: view.createdAt, updated_at: view.createdAt })
+      expect(line.beforeType).toBe('null')
+      expect(JSON.parse(line.after)).toMatchObject({ id: view.id, tankId: lounge, takenAt: view.takenAt, createdAt: view.createdAt, entered: view.entered })
+      // Its own time, not the first save's: written after the row in the same transaction.
+      expect(line.at >= view.createdAt).toBe(true)
+    }
+    for (const r of saved) await api.delete(`/api/tanks/${lounge}/readings/${r.reading.id}`)
+  })
+
   it('accepts an alarming but possible value and flags it', async () => {
     const api = await signedIn('client@tidewright.test')
     const { status, body } = await api.post<ReadingSaved>(`/api/tanks/${lounge}/readings`, reading({ ammonia: 6, pH: 7.3 }))

@@ -37,12 +37,12 @@ async function waitForHealth(baseURL: string, child: ChildProcess, log: () => st
   throw new Error(`Server did not become healthy in ${timeoutMs} ms:\n${log()}`)
 }
 
-/** Starts `node .output/server/index.mjs` on a free port against the given database file. */
-export async function startServer(options: { dbPath: string, port?: number, env?: Record<string, string> }): Promise<RunningServer> {
+/** Starts `node .output/server/index.mjs` on a free port against the given database file; `nodeArgs` go to node before the script (a profiler's flags, which NODE_OPTIONS refuses). */
+export async function startServer(options: { dbPath: string, port?: number, env?: Record<string, string>, nodeArgs?: readonly string[] }): Promise<RunningServer> {
   const port = options.port ?? await freePort()
   const baseURL = `http://127.0.0.1:${port}`
   let log = ''
-  const child = spawn(process.execPath, ['.output/server/index.mjs'], {
+  const child = spawn(process.execPath, [...options.nodeArgs ?? [], '.output/server/index.mjs'], {
     env: {
       ...process.env,
       NODE_ENV: 'production',

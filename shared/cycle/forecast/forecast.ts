@@ -8,23 +8,17 @@
  */
 
 import { evaluateCycle } from '../engine'
-import { nitrogenTestsAsOf, preparedFrom, type PreparedHistory } from '../history'
+import { endsBy, nitrogenTestsAsOf, preparedFrom, type PreparedHistory } from '../history'
 import { RULE_SET_VERSION } from '../registry'
 import { resolveThresholds } from '../thresholds'
 import { DAY_MS, HOUR_MS, parseTime, requireTime, toIso } from '../time'
 import { LIVESTOCK_GROUPS, type CycleInput, type LivestockGroup, type Thresholds, type Verdict } from '../types'
 import { fitDecline, type DeclineResult, type SeriesPoint } from './decline'
+import { latestOfSeries, seriesOf, seriesSincePeak, type TimedTest } from './series'
 import { DOSE_CHECK_HOURS, HORIZON_DAYS, INTERVAL_PROBABILITY, MAX_RANGE_DAYS, MAX_RELAPSE_DAYS, MIN_TESTS, RANGE_SLACK_DAYS } from './parameters'
 import { firstProvingRoutine, futureTestTimes, projectCompletion, type ProjectionBase } from './project'
 import type { CycleForecast, DeclineFit, ForecastBasis, ForecastGap, ForecastRange } from './types'
 import { FORECAST_VERSION } from './version'
-
-interface TimedTest {
-  t: number
-  ammoniaN?: number
-  nitriteN?: number
-  nitrateN?: number
-}
 
 const NO_GROUPS = (): Record<LivestockGroup, ForecastRange | null> =>
   Object.fromEntries(LIVESTOCK_GROUPS.map(g => [g, null])) as Record<LivestockGroup, ForecastRange | null>
@@ -119,8 +113,15 @@ function uncheckedDose(doses: readonly ProofDose[], allTests: readonly TimedTest
   return allTests.some(t => t.t > last.t) ? null : last.t
 }
 
-/** The input without tests or events after now: the assumed routine must continue from now, not from a later record. */
-function pastOnly(input: CycleInput, nowMs: number): CycleInput {
+/**
+ * The input without tests or events after now: the assumed routine must continue from now, not from
+ * a later record. When the history kept with these very arrays ends by now, nothing is cut, and the
+ * arrays are taken as they are instead of reading every time again.
+ */
+function pastOnly(input: CycleInput, nowMs: number, prepared: PreparedHistory | undefined): CycleInput {
+  if (prepared && prepared.source.readings === input.readings && prepared.source.events === input.events && endsBy(prepared, nowMs)) {
+    return { ...input, events: input.events ?? [] }
+  }
   const past = (iso: string) => !(parseTime(iso) > nowMs)
   return { ...input, readings: input.readings.filter(r => past(r.takenAt)), events: (input.events ?? []).filter(e => past(e.at)) }
 }
@@ -133,15 +134,6 @@ function lastWaterChange(input: CycleInput, nowMs: number): number {
     if (e.kind === 'water-change' && Number.isFinite(t) && t <= nowMs && t > last) last = t
   }
   return last
-}
-
-function seriesOf(tests: readonly TimedTest[], key: 'ammoniaN' | 'nitriteN', fromMs: number): SeriesPoint[] {
-  const points: SeriesPoint[] = []
-  for (const test of tests) {
-    const value = test[key]
-    if (value !== undefined && Number.isFinite(value) && value >= 0 && test.t > fromMs) points.push({ t: test.t, value })
-  }
-  return points
 }
 
 function completeForecast(verdict: Verdict, basis: ForecastBasis): CycleForecast {
@@ -219,22 +211,21 @@ export function forecastCycle(input: CycleInput, verdict?: Verdict, prepared?: P
   if (nowMs - lastTest.t > 2 * thresholds.testIntervalHours * HOUR_MS) return shell('not-enough-data', 'stale', basis)
 
   const fromMs = lastWaterChange(input, nowMs)
-  const latest = (key: 'ammoniaN' | 'nitriteN') => seriesOf(tests, key, fromMs).at(-1)?.value
   const limits = { ammoniaN: thresholds.ammoniaZeroN, nitriteN: thresholds.nitriteZeroN } as const
-  const above = (key: 'ammoniaN' | 'nitriteN') => (latest(key) ?? 0) > limits[key]
+  const above = (key: 'ammoniaN' | 'nitriteN') => (latestOfSeries(tests, key, fromMs) ?? 0) > limits[key]
   const ammoniaAbove = above('ammoniaN')
   const nitriteAbove = above('nitriteN')
   const results: DeclineResult[] = []
-  if (ammoniaAbove) results.push(fitDecline('ammonia', seriesOf(tests, 'ammoniaN', fromMs), limits.ammoniaN))
-  if (nitriteAbove) results.push(fitDecline('nitrite', seriesOf(tests, 'nitriteN', fromMs), limits.nitriteN))
+  if (ammoniaAbove) results.push(fitDecline('ammonia', seriesSincePeak(tests, 'ammoniaN', fromMs), limits.ammoniaN))
+  if (nitriteAbove) results.push(fitDecline('nitrite', seriesSincePeak(tests, 'nitriteN', fromMs), limits.nitriteN))
   basis.fits = results.flatMap(r => (r.ok ? [r.fit] : [] as DeclineFit[]))
   basis.readingZero = !ammoniaAbove && !nitriteAbove
 
-  const lastNitrate = [...tests].reverse().find(x => x.nitrateN !== undefined)?.nitrateN ?? 0
+  const lastNitrate = tests.findLast(x => x.nitrateN !== undefined)?.nitrateN ?? 0
   const livestockIn = (input.events ?? []).some(e => e.kind === 'livestock-added' && parseTime(e.at) <= nowMs)
   const doseAfterZeroTests = input.tank.cycleMethod === 'fishless' && !livestockIn
   const base: ProjectionBase = {
-    input: pastOnly(input, nowMs),
+    input: pastOnly(input, nowMs, prepared),
     history: preparedFrom(input.readings, input.events, prepared),
     thresholds,
     lastTestMs: lastTest.t,

@@ -73,11 +73,12 @@ function checks(ctx: RuleContext): string {
 
 function stalled(ctx: RuleContext): RuleResult {
   if (ctx.phase === 'complete' || ctx.phase === 'not-started') return NOTHING
+  // Nitrate being made clears a stall whatever the curves do: asked first, so the window's curves are read only when it is not.
+  if (nitrateClimbing(ctx)) return NOTHING
   const th = ctx.thresholds
   const which: Array<[string, Trend, number]> = []
   const nitrite = flatHigh(ctx, 'nitriteN', th.nitriteStallN)
   const ammonia = flatHigh(ctx, 'ammoniaN', th.riseN)
-  if (nitrateClimbing(ctx)) return NOTHING
   if (nitrite) which.push(['Nitrite', nitrite, th.nitriteStallN])
   if (ammonia) which.push(['Ammonia', ammonia, th.riseN])
   if (which.length === 0) return NOTHING

@@ -3,8 +3,8 @@ import { IdParams } from '#shared/schemas/common'
 import { ReadingInputSchema } from '#shared/schemas/reading'
 import { toCanonicalReading } from '#shared/readings/entry'
 import type { ReadingSaved } from '#shared/types/readings'
-import { readings, tanks } from '#server/db/schema'
-import { readingColumns } from '#server/domain/readings/columns'
+import { tanks } from '#server/db/schema'
+import { insertTest } from '#server/domain/readings/new-test'
 import { tankDataRevisionInDb } from '#server/domain/readings/data-revision'
 import { noteTestAppended } from '#server/domain/readings/engine-input-cache'
 
@@ -24,7 +24,7 @@ export default defineEventHandler(async (event): Promise<ReadingSaved> => {
   assertWritableAt(tank.id, result.reading.takenAt)
   const db = useDB()
   const { row, revisionAfterInsert } = db.transaction(() => {
-    const inserted = db.insert(readings).values({ tankId: tank.id, enteredBy: actor.id, ...readingColumns(result.reading) }).returning().get()
+    const inserted = insertTest(db, tank.id, actor.id, result.reading)
     // Read right after the insert, in its transaction: the kept engine input may take this test in place of a re-read.
     const revisionAfterInsert = tankDataRevisionInDb(db, tank.id)
     assertDayNotOverfull(event, db, tank.id, inserted.takenAt)
