@@ -14,6 +14,9 @@ export default defineConfig({
           name: 'unit',
           environment: 'node',
           include: ['tests/unit/**/*.test.ts'],
+          // The property tests over a real SQLite file take 3-4 s on a quiet 2-core machine and
+          // went past vitest's 5 s default once while builds shared it: a limit, not a measure.
+          testTimeout: 20_000,
         },
       },
       {

@@ -136,8 +136,9 @@ export interface AppendedTest {
  * After a new test (not a correction) was inserted and committed on this handle: `revisionAfter`
  * is the tank's count read in the same transaction right after the insert. When the kept copy
  * is the one just before it, the test is placed into a new copy where the database's order
- * (taken, then entered, then row order) puts it; when that order is not certain from the copy
- * (another row taken and entered at the same instants) or the copy is older, the copy is dropped.
+ * (taken, then entered, then row order) puts it; a copy read at or after the count already holds
+ * it and stays; when that order is not certain from the copy (another row taken and entered at
+ * the same instants) or the copy is older, the copy is dropped.
  * Any handle may be told (the heavy-work pool's, for a tank evaluated there): the count says
  * whether its copy is the one just before the test.
  */
@@ -145,6 +146,9 @@ export function noteTestAppended(db: Db, tankId: string, row: ReadingRow, revisi
   const byTank = copies(db)
   const kept = byTank.get(tankId)
   if (!kept) return
+  // A copy read at or after the test's own count holds it already (or what became of it since):
+  // saves on one tank that overtook each other reach the pool after it read the history anew.
+  if (row.tankId === tankId && kept.revision >= revisionAfter) return
   if (kept.revision !== revisionAfter - 1 || row.tankId !== tankId || row.correctsId !== null) {
     byTank.drop(tankId)
     return

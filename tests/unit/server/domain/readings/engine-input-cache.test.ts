@@ -72,15 +72,20 @@ const currentEventIds = (tankId: string) => db.select({ id: events.id }).from(ev
   .where(and(eq(events.tankId, tankId), isNull(events.correctsId))).all().map(r => r.id)
   .filter(id => !db.select({ id: events.id }).from(events).where(eq(events.correctsId, id)).get())
 
+/** A test inserted as the reading route inserts it: the count read in the same transaction, right after the insert. */
+function insertLikeTheRoute(tankId: string, t: TestRow, rollBack = false) {
+  return db.transaction(() => {
+    const row = db.insert(readings).values({ tankId, enteredBy: demo.users.aquarist, ...t, createdAt: t.createdAt, updatedAt: t.createdAt }).returning().get()
+    const revisionAfterInsert = tankDataRevisionInDb(db, tankId)
+    if (rollBack) throw new Error('the day is full')
+    return { row, revisionAfterInsert }
+  })
+}
+
 /** A test saved as the reading route saves it: insert, count read in the same transaction, the kept copy told after the commit. */
 function saveLikeTheRoute(tankId: string, t: TestRow, rollBack: boolean): void {
   try {
-    const { row, revisionAfterInsert } = db.transaction(() => {
-      const row = db.insert(readings).values({ tankId, enteredBy: demo.users.aquarist, ...t, createdAt: t.createdAt, updatedAt: t.createdAt }).returning().get()
-      const revisionAfterInsert = tankDataRevisionInDb(db, tankId)
-      if (rollBack) throw new Error('the day is full')
-      return { row, revisionAfterInsert }
-    })
+    const { row, revisionAfterInsert } = insertLikeTheRoute(tankId, t, rollBack)
     noteTestAppended(db, tankId, row, revisionAfterInsert)
     // The heavy-work pool's handle is told too (a tank with a long history is evaluated there), with the row as a thread receives it.
     noteTestAppended(other, tankId, structuredClone(row), revisionAfterInsert)
@@ -162,6 +167,19 @@ describe('the engine input kept between refreshes', () => {
     // The same objects for every older test: the copy was extended, not read again.
     expect(after.readings.filter(r => before.readings.includes(r)).length).toBe(before.readings.length)
     expect(after.readings).toEqual(readEngineRows(db, tankId, 0).readings)
+  })
+
+  it('keeps a copy read after a test when told of that test late, as saves that overtook each other reach the pool', () => {
+    const tankId = demo.tanks.nano
+    const at = (minutes: number) => new Date(now.getTime() - minutes * 60_000).toISOString()
+    const first = insertLikeTheRoute(tankId, { takenAt: at(30), createdAt: at(1), ammoniaN: 0, nitriteN: 0, nitrateN: 5 })
+    const second = insertLikeTheRoute(tankId, { takenAt: at(20), createdAt: at(1), ammoniaN: 0, nitriteN: 0, nitrateN: 6 })
+    // The pool's handle read the history after both saves (for the first save's refresh), then hears of each.
+    const read = engineRows(other, tankId)
+    noteTestAppended(other, tankId, structuredClone(first.row), first.revisionAfterInsert)
+    noteTestAppended(other, tankId, structuredClone(second.row), second.revisionAfterInsert)
+    expect(engineRows(other, tankId)).toBe(read)
+    expect(read.readings).toEqual(readEngineRows(other, tankId, 0).readings)
   })
 
   it('reads again after a write on another connection', () => {
