@@ -14,6 +14,7 @@ import { toIsoInstant } from '../../../shared/readings/fields'
 import type { Replacement } from '../../../shared/types/readings'
 import type { Db } from '../../db/connection'
 import { preparedPerDb } from '../../db/prepared'
+import { streamValues } from '../../db/stream'
 import { events, readings, users } from '../../db/schema'
 import { tankDataRevisionInDb } from './data-revision'
 
@@ -144,10 +145,12 @@ export function engineValuesOf(row: EngineReadingRow): EngineReadingValues {
  * correction trail and the notes makes that read several times cheaper. The rows come straight
  * from SQLite as arrays of ENGINE_READING_COLUMNS' values (text and real columns, nothing for an
  * ORM to convert): mapping 100,000 rows of an imported history through Drizzle took as long as reading them.
+ * They come one at a time (streamValues): take each as it comes, and read nothing else on the
+ * connection until the last has come.
  */
-export function tankEngineReadings(db: Db, tankId: string): EngineReadingValues[] {
+export function tankEngineReadings(db: Db, tankId: string): Iterable<EngineReadingValues> {
   const columns = sql.join(Object.values(ENGINE_READING_COLUMNS).map(column => sql`${column}`), sql`, `)
-  return db.values<EngineReadingValues>(sql`select ${columns} from ${readings}
+  return streamValues<EngineReadingValues>(db, sql`select ${columns} from ${readings}
     left join ${readings} as ${sql.identifier('later_reading')} on ${laterReading.correctsId} = ${readings.id}
     where ${readingFilter(tankId, {}, 'current')}
     order by ${readings.takenAt} asc, ${readings.createdAt} asc, ${readings}.rowid asc`)

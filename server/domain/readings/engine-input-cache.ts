@@ -79,7 +79,8 @@ export function toCycleReading([id, takenAt, createdAt, ammoniaN, nitriteN, nitr
 export function readEngineRows(db: Db, tankId: string, revision: number): EngineRows {
   return {
     revision,
-    readings: tankEngineReadings(db, tankId).map(toCycleReading),
+    // Each row made the engine's reading as it comes (see tankEngineReadings): no list of the raw rows.
+    readings: Array.from(tankEngineReadings(db, tankId), values => toCycleReading(values)),
     events: tankEvents(db, tankId).flatMap(({ kind, ...e }): CycleEvent[] => isCycleEventKind(kind)
       ? [{ id: e.id, at: e.at, enteredAt: e.createdAt, kind, amount: defined(e.amount), group: defined(e.group) }]
       : []),
