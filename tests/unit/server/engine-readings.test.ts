@@ -29,11 +29,13 @@ describe('the readings a verdict is made from', () => {
     db.insert(readings).values({ tankId, takenAt: first!.takenAt, ammoniaN: 0.25, nitriteN: 0, entered: {}, correctsId: first!.id, correctionReason: 'misread', createdAt: now.toISOString(), updatedAt: now.toISOString() }).run()
     db.insert(readings).values({ tankId, takenAt: second!.takenAt, ammoniaN: 1, entered: {}, createdAt: new Date(now.getTime() + 1000).toISOString(), updatedAt: now.toISOString() }).run()
     const full = tankReadings(db, tankId)
-    const lean = tankEngineReadings(db, tankId)
+    const lean = [...tankEngineReadings(db, tankId)]
     expect(lean.map(([id]) => id)).not.toContain(first!.id)
     const keys = Object.keys(ENGINE_READING_COLUMNS) as (keyof typeof ENGINE_READING_COLUMNS)[]
     expect(lean).toEqual(full.map(row => keys.map(key => row[key])))
     expect(full.map(engineValuesOf)).toEqual(lean)
+    // The connection streams the rows; a transaction (a sign-off, the seed) reads them as one list: the same rows.
+    expect(db.transaction(tx => [...tankEngineReadings(tx, tankId)])).toEqual(lean)
 
     // The chart's read: the latest current readings, oldest first, and whether there are older ones.
     const charted = (r: (typeof full)[number]) => [r.takenAt, r.ammoniaN, r.nitriteN, r.nitrateN, r.pH, r.temperatureC, r.salinity]
