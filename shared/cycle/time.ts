@@ -78,7 +78,7 @@ function digits(text: string, start: number, end: number): number {
  * Date.parse were most of the cost. Within these ranges Date.UTC and Date.parse agree exactly
  * (checked by a property test against the full rule).
  */
-function storedInstantMs(text: string): number | undefined {
+export function storedInstantMs(text: string): number | undefined {
   if (text.length !== 24 || text.charCodeAt(4) !== 45 || text.charCodeAt(7) !== 45 || text.charCodeAt(10) !== 84
     || text.charCodeAt(13) !== 58 || text.charCodeAt(16) !== 58 || text.charCodeAt(19) !== 46 || text.charCodeAt(23) !== 90) return undefined
   const year = digits(text, 0, 4)
