@@ -3,7 +3,7 @@
  * 100,000 tests of an imported history, for the verdict) then never holds every row's array
  * at once: each one dies as soon as the caller has made its own shape of it, where a list of
  * them all lived until the last was mapped and the collector copied every one of them on the
- * way (a seventh of the verdict refresh after an import).
+ * way (up to a seventh of the verdict refresh after an import).
  *
  * A transaction's handle (the seed, a sign-off) has no connection of its own to stream from:
  * its rows come as one list, the same rows in the same order. Framework-free.
