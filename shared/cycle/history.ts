@@ -7,7 +7,7 @@
 
 import { partitionPoint } from '../sorted'
 import { latestValues, updatedLatest, type Latest } from './snapshot'
-import { parseTime } from './time'
+import { parseTime, timeReaderFor, type TimeReader } from './time'
 import type { CycleEvent, CycleReading } from './types'
 
 /** A reading with its parsed time; only values the engine can trust are kept. */
@@ -94,21 +94,23 @@ export function atLimitPrecision(value: number): number {
 }
 
 /** Entry time in epoch ms; a missing or unreadable one sorts first, as if entered before any other. */
-function enteredTime(iso: string | undefined): number {
-  const ms = iso === undefined ? Number.NaN : parseTime(iso)
+function enteredTime(iso: string | undefined, readTime: TimeReader): number {
+  const ms = iso === undefined ? Number.NaN : readTime(iso)
   return Number.isFinite(ms) ? ms : Number.NEGATIVE_INFINITY
 }
 
-function sanitize(raw: CycleReading, t: number): { reading: TimedReading, repaired: boolean } {
-  const values: Partial<Record<NumericKey, number>> = {}
+function sanitize(raw: CycleReading, t: number, readTime: TimeReader = parseTime): { reading: TimedReading, repaired: boolean } {
+  // The values go straight into the reading (the same keys in the same order as a spread of them
+  // would give): a long history made a second object per test for the collector.
+  const reading: { -readonly [K in keyof TimedReading]: TimedReading[K] } = { id: raw.id, t, entered: enteredTime(raw.enteredAt, readTime) }
   let repaired = false
   for (const key of VALUE_KEYS) {
     const value = raw[key]
     if (value === undefined || value === null) continue
-    if (acceptable(key, value)) values[key] = atLimitPrecision(value)
+    if (acceptable(key, value)) reading[key] = atLimitPrecision(value)
     else repaired = true
   }
-  return { reading: { id: raw.id, t, entered: enteredTime(raw.enteredAt), ...values }, repaired }
+  return { reading, repaired }
 }
 
 /**
@@ -177,13 +179,14 @@ export function prepareHistory(readings: readonly CycleReading[], events: readon
   const ignored: string[] = []
   const repaired: { id: string, t: number }[] = []
   const nitrogen: NitrogenTest[] = []
+  const readTime = timeReaderFor(readings.length)
   for (const raw of readings) {
-    const t = parseTime(raw.takenAt)
+    const t = readTime(raw.takenAt)
     if (!Number.isFinite(t)) {
       ignored.push(raw.id)
       continue
     }
-    const result = sanitize(raw, t)
+    const result = sanitize(raw, t, readTime)
     kept.push(result.reading)
     if (result.repaired) repaired.push({ id: raw.id, t })
     const test = nitrogenTest(raw, result.reading)
@@ -192,7 +195,7 @@ export function prepareHistory(readings: readonly CycleReading[], events: readon
   const timedEvents: TimedEvent[] = []
   for (const event of events ?? []) {
     const t = parseTime(event.at)
-    if (Number.isFinite(t)) timedEvents.push({ event, t, entered: enteredTime(event.enteredAt) })
+    if (Number.isFinite(t)) timedEvents.push({ event, t, entered: enteredTime(event.enteredAt, parseTime) })
   }
   kept.sort(compareReadings)
   return {

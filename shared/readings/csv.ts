@@ -6,6 +6,7 @@ import type { ImportTarget, ReadingImportOptions } from '../schemas/reading'
 import { IMPORT_TARGETS } from '../schemas/reading'
 import type { EntryIssue, KitBasisChoice, ReadingEntry } from './entry'
 import { calendarDateExists, parseDecimal, parseIsoTime, STORED_TIME } from './fields'
+import { numberText } from './number-text'
 
 /** Header words each target is recognised by (lower case, punctuation removed). */
 const HEADER_HINTS: Record<ImportTarget, string[]> = {
@@ -189,7 +190,7 @@ export function csvNumber(value: number): number {
  * conversions (a CSV import keys 100,000 rows).
  */
 export function csvNumberText(value: number): string {
-  const text = String(value)
+  const text = numberText(value)
   return text.length <= CSV_SIGNIFICANT_DIGITS && !text.includes('e') ? text : String(csvNumber(value))
 }
 

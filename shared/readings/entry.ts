@@ -17,6 +17,7 @@ import {
 import { DEFAULT_THRESHOLDS } from '../cycle/thresholds'
 import { celsiusToFahrenheit, fahrenheitToCelsius } from '../units'
 import { calendarDateExists, ENTRY_NOTES_MAX, parseIsoTime, STORED_TIME, toIsoInstant } from './fields'
+import { numberText } from './number-text'
 import {
   AMMONIA_BASES, MEASURED_FIELDS, NITRATE_BASES, NITRITE_BASES, PHYSICAL_BOUNDS, TEMPERATURE_UNITS,
   type AmmoniaBasis, type FlagSeverity, type MeasuredField, type NitrateBasis, type NitriteBasis, type SalinityMode, type TemperatureUnit,
@@ -361,7 +362,7 @@ export function enteredRecord(entry: ReadingEntry): Record<string, unknown> {
 }
 
 /** A number as JSON.stringify writes it. */
-const jsonNumber = (value: number): string => (Number.isFinite(value) ? String(value) : 'null')
+const jsonNumber = (value: number): string => (Number.isFinite(value) ? numberText(value) : 'null')
 
 /** The words an entered record holds, as JSON strings: written once, not once per row. */
 const QUOTED = new Map([...AMMONIA_BASES, ...NITRITE_BASES, ...NITRATE_BASES, ...TEMPERATURE_UNITS, ...SG_BASIS_KEYS, 'csv'].map(word => [word, JSON.stringify(word)]))

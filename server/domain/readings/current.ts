@@ -146,6 +146,8 @@ export function engineValuesOf(row: EngineReadingRow): EngineReadingValues {
  * from SQLite as arrays of ENGINE_READING_COLUMNS' values (text and real columns, nothing for an
  * ORM to convert: mapping 100,000 rows of an imported history through Drizzle took as long as
  * reading them), one at a time, so a caller maps each into its own shape without holding them all twice.
+ * The index on (tank, taken, entered) holds them in this order (its entries end with the rowid):
+ * SQLite sorts none of them.
  */
 export function tankEngineReadings(db: Db, tankId: string): IterableIterator<EngineReadingValues> {
   const columns = sql.join(Object.values(ENGINE_READING_COLUMNS).map(column => sql`${column}`), sql`, `)
@@ -163,7 +165,7 @@ export type ChartReadingValues = [takenAt: string, ammoniaN: number | null, nitr
  * draws, and whether the range holds older ones (one more row is asked for; counting a long
  * history took longer than reading what is drawn). The query names its index: without
  * statistics SQLite took the tank's import-key index and sorted all of a 100,000-test history
- * (211 ms) to keep the latest; walking (tank, taken) backwards reads only those.
+ * (211 ms) to keep the latest; walking (tank, taken, entered) backwards reads only those.
  */
 export function latestChartReadings(db: Db, tankId: string, range: TimeRange, max: number): { rows: ChartReadingValues[], older: boolean } {
   const rows = db.values<ChartReadingValues>(sql`select ${readings.takenAt}, ${readings.ammoniaN}, ${readings.nitriteN}, ${readings.nitrateN}, ${readings.pH}, ${readings.temperatureC}, ${readings.salinity}
@@ -217,7 +219,7 @@ const COUNTED_TANKS = 256
 /** Each tank's count of stored readings, with the data revision it was counted at. */
 const keptCounts = preparedPerDb(() => new Map<string, { revision: number, n: number }>())
 
-/** A tank's stored readings counted from the index on (tank, taken), prepared once: no row is read. */
+/** A tank's stored readings counted from the index on (tank, taken, entered), prepared once: no row is read. */
 const storedReadings = preparedPerDb(db => db.select({ n: count() }).from(readings).where(eq(readings.tankId, sql.placeholder('tankId'))).prepare())
 
 /**

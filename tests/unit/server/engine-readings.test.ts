@@ -36,6 +36,8 @@ describe('the readings a verdict is made from', () => {
     const keys = Object.keys(ENGINE_READING_COLUMNS) as (keyof typeof ENGINE_READING_COLUMNS)[]
     expect(lean).toEqual(full.map(row => keys.map(key => row[key])))
     expect(full.map(engineValuesOf)).toEqual(lean)
+    // The connection streams the rows; a transaction (a sign-off, the seed) reads them as one list: the same rows.
+    expect(db.transaction(tx => [...tankEngineReadings(tx, tankId)])).toEqual(lean)
 
     // The chart's read: the latest current readings, oldest first, and whether there are older ones.
     const charted = (r: (typeof full)[number]) => [r.takenAt, r.ammoniaN, r.nitriteN, r.nitrateN, r.pH, r.temperatureC, r.salinity]

@@ -6,7 +6,7 @@
  */
 import fc from 'fast-check'
 import { describe, expect, it } from 'vitest'
-import { parseTime } from '../../../../shared/cycle/time'
+import { parseTime, timeReaderFor } from '../../../../shared/cycle/time'
 
 /** The rule parseTime implements, written out here without any memory. */
 function expected(text: string): number {
@@ -40,6 +40,18 @@ describe('parseTime', () => {
     }), { numRuns: 5000, seed: 20261204 })
     for (const text of ['0999-12-31T23:59:59.999Z', '1000-01-01T00:00:00.000Z', '2026-02-28T23:59:59.999Z', '2026-02-29T00:00:00.000Z', '2028-02-29T12:00:00.000Z', '2026-04-31T10:00:00.000Z', '2026-01-01T24:00:00.000Z', '2026-1-01T00:00:00.000Z0', '2026-01-01T00:00:00.0001']) {
       expect(parseTime(text)).toEqual(expected(text))
+    }
+  })
+
+  it('is what a whole history is read with: parseTime while it fits in the memory, the same answers past that', () => {
+    expect(timeReaderFor(100)).toBe(parseTime)
+    const long = timeReaderFor(100_000)
+    expect(long).not.toBe(parseTime)
+    fc.assert(fc.property(fc.oneof(isoLike, fc.string()), (text) => {
+      expect(long(text)).toEqual(expected(text))
+    }), { numRuns: 3000, seed: 20261205 })
+    for (const text of ['0999-12-31T23:59:59.999Z', '2026-02-29T00:00:00.000Z', '2028-02-29T12:00:00.000Z', '2026-01-01T24:00:00.000Z', '2026-03-14T08:00']) {
+      expect(long(text)).toEqual(expected(text))
     }
   })
 
