@@ -6,10 +6,10 @@
  * call. The row comes back as the plain insert returned it. Framework-free: takes a `Db`.
  */
 import { sql } from 'drizzle-orm'
-import type { CanonicalReading } from '../../../shared/readings/entry'
-import type { Db } from '../../db/connection'
-import { preparedPerDb } from '../../db/prepared'
-import { readings } from '../../db/schema'
+import type { CanonicalReading } from '#shared/readings/entry'
+import type { Db } from '#server/db/connection'
+import { preparedPerDb } from '#server/db/prepared'
+import { readings } from '#server/db/schema'
 import { readingColumns } from './columns'
 
 const bound = (name: string) => sql.placeholder(name)
