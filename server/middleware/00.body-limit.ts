@@ -7,8 +7,9 @@
  * is) reads it there, under the same limit.
  */
 import type { IncomingMessage } from 'node:http'
-import { bodyLimitFor, bodyTooLarge, streamsOwnBody } from '#server/domain/http/body-limits'
+import { bodyLimitFor, streamsOwnBody } from '#server/domain/http/body-limits'
 import { readBodyWithin } from '#server/domain/http/body-reader'
+import { refuseBody } from '#server/utils/body-refusal'
 
 function hasBody(req: IncomingMessage): boolean {
   return Number(req.headers['content-length'] ?? 0) > 0 || req.headers['transfer-encoding'] !== undefined
@@ -28,10 +29,9 @@ export default defineEventHandler(async (event) => {
   if (body.outcome === 'too-large') {
     pieces = [] // nothing more is kept while the rest is read
     await body.rest
-    const { message, issues } = bodyTooLarge(limit)
-    throw createError({ statusCode: 413, statusMessage: 'Request too large', message, data: issues ? { issues } : undefined })
+    refuseBody('too-large', limit)
   }
-  if (body.outcome !== 'read') throw createError({ statusCode: 400, statusMessage: 'The request ended before its body did.' })
+  if (body.outcome !== 'read') refuseBody('cut', limit)
   // h3's readBody/readRawBody/readMultipartFormData take an already-read body from here.
   ;(req as IncomingMessage & { body?: Buffer }).body = Buffer.concat(pieces, body.bytes)
 })

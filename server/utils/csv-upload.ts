@@ -13,12 +13,13 @@ import type { H3Event } from 'h3'
 import { CsvRowCounter } from '#shared/readings/import-file'
 import { importTooLargeMessage, MAX_IMPORT_ROWS } from '#shared/readings/limits'
 import { UPLOAD_EMPTY_MESSAGE } from '#shared/uploads/files'
-import { bodyLimitFor, bodyTooLarge } from '#server/domain/http/body-limits'
+import { bodyLimitFor, streamsOwnBody } from '#server/domain/http/body-limits'
 import { readBodyWithin } from '#server/domain/http/body-reader'
+import { refuseBody } from './body-refusal'
 
-/** Whether the request carries the file itself rather than JSON. */
+/** Whether the request carries the file itself rather than JSON: the rule the body-limit middleware leaves such a body unread by. */
 export function sendsCsvBody(event: H3Event): boolean {
-  return (getRequestHeader(event, 'content-type') ?? '').toLowerCase().startsWith('text/csv')
+  return streamsOwnBody(event.path, getRequestHeader(event, 'content-type'))
 }
 
 /** The 413 for a file of more than MAX_IMPORT_ROWS rows, however it was sent. */
@@ -53,10 +54,9 @@ export async function withCsvUpload<T>(event: H3Event, use: (path: string) => Pr
     finally {
       await file.close()
     }
-    // The words of the body-limit middleware for a JSON body too large.
-    if (body.outcome === 'too-large') throw createError({ statusCode: 413, statusMessage: 'Request too large', message: bodyTooLarge(limit).message })
     if (body.outcome === 'refused') importTooLarge()
-    if (body.outcome === 'cut') throw createError({ statusCode: 400, statusMessage: 'The request ended before its body did.' })
+    // The body-limit middleware's answers, for a body past the limit or cut short.
+    if (body.outcome !== 'read') refuseBody(body.outcome, limit)
     if (body.bytes === 0) fieldError([{ field: 'csv', message: UPLOAD_EMPTY_MESSAGE }])
     return await use(path)
   }

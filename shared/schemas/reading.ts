@@ -179,4 +179,3 @@ function nestedQuery(query: Record<string, string>): Record<string, unknown> {
 }
 
 export type ReadingImportInput = v.InferOutput<typeof ReadingImportSchema>
-export type ReadingImportQuery = v.InferOutput<typeof ReadingImportQuerySchema>
