@@ -11,7 +11,7 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { LONG_HISTORY_TESTS } from '../../server/domain/tanks/long-history'
 import { CHART_MAX_TESTS } from '../../shared/readings/limits'
-import type { ChartData } from '../../shared/types/readings'
+import type { ChartData, ReadingList } from '../../shared/types/readings'
 import { ApiClient } from '../support/http'
 import { startOwnServer, type OwnServer } from '../support/own-server'
 
@@ -27,12 +27,12 @@ afterAll(async () => {
 
 const HALF_HOUR = 1_800_000
 
-/** A tank holding `count` ordinary tests, half an hour apart, ending two hours ago (through the CSV import). */
-async function tankWithHistory(name: string, count: number): Promise<string> {
+/** A tank holding `count` ordinary tests, half an hour apart, ending `hoursAgo` hours ago (through the CSV import). */
+async function tankWithHistory(name: string, count: number, hoursAgo = 2): Promise<string> {
   const created = await api.post('/api/tanks', { name, clientId: own.fixtures.demo.clients.lowe, shape: 'rectangular', dimensions: { lengthMm: 900, widthMm: 450, heightMm: 450 } })
   expect(created.status).toBe(201)
   const tank = created.body.id as string
-  const end = Math.floor((Date.now() - 2 * 3_600_000) / HALF_HOUR) * HALF_HOUR
+  const end = Math.floor((Date.now() - hoursAgo * 3_600_000) / HALF_HOUR) * HALF_HOUR
   const rows = Array.from({ length: count }, (_, i) => `${new Date(end - (count - 1 - i) * HALF_HOUR).toISOString()},0.5,0.2,${2 + (i % 10) / 10},8.1,25,35`)
   const imported = await api.post(`/api/tanks/${tank}/readings/import`, { csv: `takenAt,ammonia,nitrite,nitrate,pH,temperature,salinity\n${rows.join('\n')}`, dryRun: false, basis: { ammonia: 'N', nitrite: 'N', nitrate: 'N' }, temperatureUnit: 'C', salinityMode: 'practical' })
   expect(imported.status, JSON.stringify(imported.body).slice(0, 300)).toBe(200)
@@ -72,6 +72,34 @@ describe('a tank with a long history', { timeout: 120_000 }, () => {
       expect(lines.slice(1).filter(line => line.split(',')[temperature] !== '25')).toEqual([])
     })
   }
+})
+
+describe('saves arriving together on a tank with a long history', { timeout: 120_000 }, () => {
+  it('answers each with a verdict that includes it, and stores the one that includes them all', async () => {
+    // The history ends two days ago, so the day of the saves has room for all of them.
+    const tank = await tankWithHistory('Busy long reef', LONG_HISTORY_TESTS + 1, 48)
+    // Taken at one time, each too warm (the company's range ends at 29 C): the temperature finding
+    // names the latest of them, which for tests taken together is the one entered last. A verdict
+    // that includes a save names it or one entered after it; one made before it, one entered before.
+    const takenAt = new Date(Date.now() - 60 * 60_000).toISOString()
+    const saves = await Promise.all(Array.from({ length: 8 }, (_, i) => api.post(`/api/tanks/${tank}/readings`, {
+      takenAt, ammonia: 0.5, nitrite: 0.2, nitrate: 3, basis: { ammonia: 'N', nitrite: 'N', nitrate: 'N' }, pH: 8.1,
+      temperature: 33 + i / 10, temperatureUnit: 'C', salinity: 35, salinityMode: 'practical',
+    })))
+    for (const saved of saves) expect(saved.status, JSON.stringify(saved.body).slice(0, 300)).toBe(201)
+    // The order the server entered them in: the engine's (taken, then entered, then row order).
+    const list = await api.get<ReadingList>(`/api/tanks/${tank}/readings?sort=takenAt&dir=asc&pageSize=500&from=${encodeURIComponent(takenAt)}`)
+    expect(list.status).toBe(200)
+    const entered = list.body.items.map(r => r.id)
+    expect(entered.slice().sort()).toEqual(saves.map(s => s.body.reading.id as string).sort())
+    const latestNamed = (findings: { ruleId: string, readingIds: string[] }[]) => entered.indexOf(findings.find(f => f.ruleId === 'temperature.range')?.readingIds.at(-1) ?? '')
+    for (const saved of saves) {
+      expect(latestNamed(saved.body.findings)).toBeGreaterThanOrEqual(entered.indexOf(saved.body.reading.id))
+    }
+    const stored = await api.get(`/api/tanks/${tank}/verdict`)
+    expect(stored.status).toBe(200)
+    expect(latestNamed(stored.body.verdict.findings)).toBe(entered.length - 1)
+  })
 })
 
 describe('the chart of a tank with more tests than one chart draws', { timeout: 120_000 }, () => {
