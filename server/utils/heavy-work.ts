@@ -70,9 +70,10 @@ export function runReadingImport(task: Omit<ReadingImportTask, 'dbPath'>): Promi
 
 /**
  * The engine's verdict and forecast for the tank as its data stands now, computed in the pool; null
- * when there is no such tank. `appended`: the test just saved, which the pool's kept copy takes in place.
+ * when there is no such tank. `appended`: the tests saved since its last evaluation, in the order they
+ * were saved, which the pool's kept copy takes in place.
  */
-export function evaluateOffLoop(tankId: string, now: Date, appended?: AppendedTest): Promise<TankEvaluation | null> {
+export function evaluateOffLoop(tankId: string, now: Date, appended: readonly AppendedTest[] = []): Promise<TankEvaluation | null> {
   return heavyPool().run({ tankId, nowMs: now.getTime(), dbPath: dbPath(), appended } satisfies TankVerdictTask, { name: 'tankVerdict' })
 }
 

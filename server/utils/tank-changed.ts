@@ -1,7 +1,8 @@
 import type { Verdict } from '#shared/cycle/types'
 import type { AppendedTest } from '#server/domain/readings/engine-input-cache'
 import { hasLongHistory } from '#server/domain/tanks/long-history'
-import { noteTankDataChanged, refreshVerdictOffLoop } from '#server/domain/tanks/verdict-off-loop'
+import { noteTankDataChanged, type VerdictRefresh } from '#server/domain/tanks/newest-verdict'
+import { refreshVerdictOffLoop } from '#server/domain/tanks/verdict-off-loop'
 import type { Actor } from './access'
 
 export interface TankChange {
@@ -21,22 +22,24 @@ export interface TankChange {
  *
  * A tank with a long history (server/domain/tanks/long-history.ts: an imported log of years)
  * is evaluated in the heavy-work pool, so the request loop every company is served from
- * stays free meanwhile; a write that lands during it refreshes the verdict itself and makes
- * this evaluation run again, so the stored verdict is never older than the data
- * (server/domain/tanks/verdict-off-loop.ts). Every other tank is evaluated here, at once.
+ * stays free meanwhile: one evaluation per tank at a time, changes that arrive while it runs
+ * joining the next one (server/domain/tanks/verdict-off-loop.ts). Every other tank is
+ * evaluated here, at once. Either way the verdict is stored only if none made from newer
+ * data was stored first (server/domain/tanks/newest-verdict.ts).
  */
 export async function onTankDataChanged(tankId: string, change: TankChange = {}): Promise<Verdict | undefined> {
   noteTankDataChanged(tankId)
   const db = useDB()
-  const verdict = hasLongHistory(db, tankId)
+  const refreshed = hasLongHistory(db, tankId)
     ? await refreshVerdictOffLoop(db, tankId, evaluateOffLoop, () => change.now ?? new Date(), change.appended)
     : refreshVerdict(tankId, change.now)
-  followVerdict(tankId, verdict, change)
-  return verdict
+  followVerdict(tankId, refreshed, change)
+  return refreshed?.verdict
 }
 
-/** What follows from a stored verdict: the move to stocking once livestock is logged, and the alerts. */
-function followVerdict(tankId: string, verdict: Verdict | undefined, change: TankChange): void {
+/** What follows from a verdict: the move to stocking once livestock is logged, and the alerts. */
+function followVerdict(tankId: string, refreshed: VerdictRefresh | undefined, change: TankChange): void {
   advanceToStockingIfLivestock(tankId)
-  if (verdict) syncAlerts(tankId, verdict, { readingId: change.readingId, now: change.now, actor: change.actor })
+  // Alerts follow the stored verdict: one from older data, not stored, would undo what the newer one's change did.
+  if (refreshed?.stored) syncAlerts(tankId, refreshed.verdict, { readingId: change.readingId, now: change.now, actor: change.actor })
 }

@@ -1,16 +1,19 @@
 import { eq, sql } from 'drizzle-orm'
-import type { Verdict } from '#shared/cycle/types'
 import { tankVerdicts } from '#server/db/schema'
 import { preparedPerDb } from '#server/db/prepared'
-import { computeAndStoreVerdict, tanksWithStaleVerdicts } from '#server/db/verdicts'
+import { tanksWithStaleVerdicts } from '#server/db/verdicts'
+import { refreshVerdictOnLoop, type VerdictRefresh } from '#server/domain/tanks/newest-verdict'
 
 const MINUTE_MS = 60_000
 /** Time alone changes verdicts (a missed test, a coral date reached): none is kept longer than an hour. */
 const LONGEST_MS = 60 * MINUTE_MS
 
-/** Re-evaluates a tank after any change to its readings, events or profile, and stores the verdict. */
-export function refreshVerdict(tankId: string, now = new Date()): Verdict | undefined {
-  return computeAndStoreVerdict(useDB(), tankId, now)
+/**
+ * Re-evaluates a tank on the request loop after any change to its readings, events or profile,
+ * and stores the verdict, noting the revision it was made from (server/domain/tanks/newest-verdict.ts).
+ */
+export function refreshVerdict(tankId: string, now = new Date()): VerdictRefresh | undefined {
+  return refreshVerdictOnLoop(useDB(), tankId, now)
 }
 
 /**

@@ -12,13 +12,17 @@ export interface TankVerdictTask {
   dbPath: string
   tankId: string
   nowMs: number
-  /** A test just saved on the request loop's connection: placed into this thread's kept copy instead of reading the history again. */
-  appended?: AppendedTest
+  /**
+   * Tests saved on the request loop's connection since the tank's last evaluation, in the order
+   * they were saved: placed into this thread's kept copy one by one instead of reading the history
+   * again (one that does not follow the copy drops it, and the history is read).
+   */
+  appended: readonly AppendedTest[]
 }
 
 /** The verdict and its forecast, or null when there is no such tank. */
 export function tankVerdict(task: TankVerdictTask): TankEvaluation | null {
   const db = workerConnection(task.dbPath)
-  if (task.appended) noteTestAppended(db, task.tankId, task.appended.row, task.appended.revisionAfter)
+  for (const test of task.appended) noteTestAppended(db, task.tankId, test.row, test.revisionAfter)
   return evaluateTankNow(db, task.tankId, new Date(task.nowMs)) ?? null
 }

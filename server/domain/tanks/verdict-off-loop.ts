@@ -1,56 +1,94 @@
 /**
- * A tank's verdict evaluated off the request loop (in the heavy-work pool) and stored on the
- * main connection. Over a long history the engine takes seconds, so the refresh after a CSV
- * import runs it in a worker; meanwhile the request loop goes on and other writes may land
- * on the same tank (a test saved by hand refreshes the verdict at once). A verdict made from
- * data that has since moved is not stored over the newer one: the evaluation runs again.
+ * A tank's verdict evaluated off the request loop (in the heavy-work pool), one evaluation per
+ * tank at a time. Over a long history the engine takes long enough to run it in a worker, whose
+ * thread every company's heavy work shares; when each of many saves arriving together on one
+ * tank ran its own evaluation (and ran it again once overtaken by newer saves), 16 saves at once
+ * meant up to 48 evaluations of the same history in a row.
  *
- * The tank's data revision counts the changes this process has reacted to. Every write to
- * a tank's readings, events or profile goes through onTankDataChanged, which notes it here
- * before it refreshes, so comparing the revision before the evaluation and before the store
- * tells whether a newer write (and its own refresh) came in between. Framework-free: takes a
- * `Db` and the evaluation to run, so the server and the tests share it.
+ * Per tank at most one evaluation runs and at most one waits. A change noted while one runs
+ * joins the waiting one (made if there is none), which starts when the running one ends: every
+ * change that joined it was committed before it joined, so it reads all of them. Each caller is
+ * answered with the verdict of the first evaluation that started after its change was noted, so
+ * a save's answer includes the save. The result is stored only if the stored verdict was not
+ * made from newer data (newest-verdict.ts: the request loop stores too, for a tank that fell
+ * back under LONG_HISTORY_TESTS). Framework-free: takes a `Db` and the evaluation to run, so
+ * the server and the tests share it.
  */
-import type { Verdict } from '#shared/cycle/types'
 import type { Db } from '#server/db/connection'
-import { storeVerdict, type TankEvaluation } from '#server/db/verdicts'
+import type { TankEvaluation } from '#server/db/verdicts'
 import type { AppendedTest } from '#server/domain/readings/engine-input-cache'
-
-/** How many times an evaluation overtaken by newer writes is run again before this refresh gives way to theirs. */
-const MAX_ATTEMPTS = 3
-
-const revisions = new Map<string, number>()
-
-/** Notes that the tank's data changed (called before its verdict is refreshed). */
-export function noteTankDataChanged(tankId: string): void {
-  revisions.set(tankId, (revisions.get(tankId) ?? 0) + 1)
-}
-
-/** The tank's data revision in this process: moves on every noted change. */
-export function tankDataRevision(tankId: string): number {
-  return revisions.get(tankId) ?? 0
-}
-
-/** The engine's verdict and forecast as of `now`, computed elsewhere (the heavy-work pool); null when there is no such tank. */
-export type EvaluateElsewhere = (tankId: string, now: Date, appended?: AppendedTest) => Promise<TankEvaluation | null>
+import { storeVerdictIfNewer, tankDataRevision, type VerdictRefresh } from './newest-verdict'
 
 /**
- * Evaluates the tank with `evaluate` (told of `appended`, the test just saved, if any) and
- * stores the verdict if no change was noted while it ran; otherwise runs it again. Returns the
- * stored verdict, or undefined when there is no such tank or every attempt was overtaken (the
- * writes that overtook it refresh the verdict themselves).
+ * The engine's verdict and forecast as of `now`, computed elsewhere (the heavy-work pool), told
+ * of the tests saved since the last evaluation in the order they were saved; null when there is
+ * no such tank.
  */
-export async function refreshVerdictOffLoop(db: Db, tankId: string, evaluate: EvaluateElsewhere, clock: () => Date = () => new Date(), appended?: AppendedTest): Promise<Verdict | undefined> {
-  for (let attempt = 0; attempt < MAX_ATTEMPTS; attempt++) {
-    const revision = tankDataRevision(tankId)
-    const now = clock()
-    // The saved test is handed over once: a later attempt follows other changes, and reads them.
-    const evaluation = await evaluate(tankId, now, attempt === 0 ? appended : undefined)
-    if (!evaluation) return undefined
-    // Compared and stored in one synchronous step: no other write on this loop can come between.
-    if (tankDataRevision(tankId) !== revision) continue
-    storeVerdict(db, tankId, evaluation, now.toISOString())
-    return evaluation.verdict
-  }
-  return undefined
+export type EvaluateElsewhere = (tankId: string, now: Date, appended: readonly AppendedTest[]) => Promise<TankEvaluation | null>
+
+/** One evaluation and the changes that joined it before it started. */
+interface Evaluation {
+  db: Db
+  evaluate: EvaluateElsewhere
+  /** Each joiner's time: the evaluation is made as of the latest of them. */
+  clocks: (() => Date)[]
+  /**
+   * The tests its joiners saved, in the order they joined: a save joins right after its commit,
+   * in the same synchronous step, so this is the order of their counts (`revisionAfter`).
+   */
+  appended: AppendedTest[]
+  answer: Promise<VerdictRefresh | undefined>
+  resolve: (refresh: VerdictRefresh | undefined) => void
+  reject: (error: unknown) => void
+}
+
+/** Per tank with an evaluation running: the one waiting to start after it, if any. */
+const running = new Map<string, { waiting?: Evaluation }>()
+
+function newEvaluation(db: Db, evaluate: EvaluateElsewhere): Evaluation {
+  let resolve!: Evaluation['resolve']
+  let reject!: Evaluation['reject']
+  const answer = new Promise<VerdictRefresh | undefined>((res, rej) => {
+    resolve = res
+    reject = rej
+  })
+  return { db, evaluate, clocks: [], appended: [], answer, resolve, reject }
+}
+
+/**
+ * Refreshes the tank's verdict in the pool after a change that the caller has committed and
+ * noted (noteTankDataChanged). `clock`: the change's time (a test injects one; otherwise the
+ * clock when the evaluation starts). `appended`: the test just saved, if any. Resolves with the
+ * verdict of the first evaluation started after the change was noted and whether it was stored,
+ * or undefined when there is no such tank; rejects when that evaluation fails.
+ */
+export function refreshVerdictOffLoop(db: Db, tankId: string, evaluate: EvaluateElsewhere, clock: () => Date = () => new Date(), appended?: AppendedTest): Promise<VerdictRefresh | undefined> {
+  const tank = running.get(tankId)
+  const evaluation = tank ? (tank.waiting ??= newEvaluation(db, evaluate)) : newEvaluation(db, evaluate)
+  evaluation.clocks.push(clock)
+  if (appended) evaluation.appended.push(appended)
+  if (!tank) start(tankId, evaluation)
+  return evaluation.answer
+}
+
+/** Runs the evaluation, answers its joiners, then starts the one that waited for it, or leaves the tank idle. */
+function start(tankId: string, evaluation: Evaluation): void {
+  const tank: { waiting?: Evaluation } = {}
+  running.set(tankId, tank)
+  evaluateAndStore(tankId, evaluation)
+    .then(evaluation.resolve, evaluation.reject)
+    .finally(() => {
+      running.delete(tankId)
+      if (tank.waiting) start(tankId, tank.waiting)
+    })
+}
+
+async function evaluateAndStore(tankId: string, { db, evaluate, clocks, appended }: Evaluation): Promise<VerdictRefresh | undefined> {
+  // Read before the evaluation reads anything: what it reads is at least this new.
+  const revision = tankDataRevision(tankId)
+  // The latest of its joiners' times: a joiner's test taken by its own time is taken by then too.
+  const now = new Date(Math.max(...clocks.map(clock => clock().getTime())))
+  const evaluation = await evaluate(tankId, now, appended)
+  if (!evaluation) return undefined
+  return { verdict: evaluation.verdict, stored: storeVerdictIfNewer(db, tankId, evaluation, now, revision) }
 }
