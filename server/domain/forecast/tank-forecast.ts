@@ -12,7 +12,7 @@ export const FORECAST_STATUSES: ReadonlySet<TankStatus> = new Set<TankStatus>(['
 
 /**
  * The forecast a list shows beside a tank (the tank list, the attention board): the one stored
- * with the tank's verdict (made from the same input at the same time, `computeAndStoreVerdict`),
+ * with the tank's verdict (made from the same input at the same time, `evaluateTankNow`),
  * so a list reads one row per tank and never the history; while the cycle is what the reader
  * waits for (`FORECAST_STATUSES`), null for any other status.
  */
