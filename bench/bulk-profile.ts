@@ -74,7 +74,12 @@ try {
   collect()
   const kept = process.memoryUsage().heapUsed - before.heapUsed
   console.log(`import step added: rss ${mib(after.rss - before.rss)}, peak rss ${mib(residentBytes().peak - before.rss)}, heap ${mib(after.heapUsed - before.heapUsed)} (kept after a collection ${(kept / 1048576).toFixed(1)}) MiB`)
+  collect()
+  writeFileSync('/proc/self/clear_refs', '5')
+  const beforeVerdict = { ...process.memoryUsage(), ...residentBytes() }
   const verdict = timed('verdict', () => worker.tankVerdict({ dbPath, tankId, nowMs: Date.now() }))
+  collect()
+  console.log(`verdict step added: peak rss ${mib(residentBytes().peak - beforeVerdict.rss)}, heap kept after a collection ${((process.memoryUsage().heapUsed - beforeVerdict.heapUsed) / 1048576).toFixed(1)} MiB (the tank's kept history)`)
   console.log(`inserted ${imported.value.preview?.inserted}, write lock held ${imported.value.lockHeldMs?.toFixed(0)} ms, errors ${imported.value.preview?.errorRows}, phase ${verdict.value?.verdict?.phase}; CPU ratio import / floor ${(imported.cpuMs / (floor.cpuSeconds * 1000)).toFixed(2)}, with verdict ${((imported.cpuMs + verdict.cpuMs) / (floor.cpuSeconds * 1000)).toFixed(2)}; peak rss ${mib(process.resourceUsage().maxRSS * 1024)} MiB`)
 }
 finally {

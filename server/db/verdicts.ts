@@ -4,49 +4,53 @@
  * tests share it.
  */
 import { eq, inArray, isNull, sql } from 'drizzle-orm'
-import { evaluateCycle } from '../../shared/cycle/engine'
-import type { PreparedHistory } from '../../shared/cycle/history'
+import { evaluateCycle, evaluatePrepared } from '../../shared/cycle/engine'
+import type { PreparedInput } from '../../shared/cycle/history'
 import { CURRENT_RULE_OPTIONS } from '../../shared/cycle/options'
-import { FORECAST_VERSION, forecastCycle } from '../../shared/cycle/forecast'
-import type { CycleEvent, CycleInput, CycleReading, Verdict } from '../../shared/cycle/types'
+import { FORECAST_VERSION, forecastPrepared } from '../../shared/cycle/forecast'
+import type { CycleInput, CycleTank, Thresholds, Verdict } from '../../shared/cycle/types'
 import type { CycleForecast } from '../../shared/cycle/forecast'
 import type { Db } from './connection'
 import { preparedPerDb } from './prepared'
-import { engineRows, preparedHistoryOf, type EngineRows } from '../domain/readings/engine-input-cache'
+import { keptHistory, readEngineInput } from '../domain/readings/engine-input-cache'
 import { tankVerdicts, tanks } from './schema'
 import { readOrganisationSettings } from './settings'
 
 /** The tank's row, prepared once. */
 const tankById = preparedPerDb(db => db.select().from(tanks).where(eq(tanks.id, sql.placeholder('tankId'))).prepare())
 
-/** The engine input for a tank and the kept rows it was made from, or undefined if there is no such tank. */
-function cycleInputWithRows(db: Db, tankId: string, now: Date): { input: CycleInput, rows: EngineRows } | undefined {
+/** What the engine reads of a tank's profile and its company's limits, or undefined if there is no such tank. */
+function engineTank(db: Db, tankId: string): { tank: CycleTank, thresholds: Partial<Thresholds> } | undefined {
   const tank = tankById(db).get({ tankId })
   if (!tank) return undefined
   const { thresholds } = readOrganisationSettings(db, tank.organisationId)
-  // A correction replaces the entry it corrects; the engine sees only the current value. The rows
-  // come from a copy kept in memory while the tank's data has not changed (engine-input-cache.ts).
-  const rows = engineRows(db, tankId)
-  const input = {
-    tank: { volumeLitres: tank.volumeLitres + tank.sumpLitres, cycleMethod: tank.cycleMethod, startedAt: tank.cycleStartedAt ?? tank.createdAt },
-    readings: rows.readings as CycleReading[],
-    events: rows.events as CycleEvent[],
-    thresholds,
-    now: now.toISOString(),
-  }
-  return { input, rows }
+  return { tank: { volumeLitres: tank.volumeLitres + tank.sumpLitres, cycleMethod: tank.cycleMethod, startedAt: tank.cycleStartedAt ?? tank.createdAt }, thresholds }
 }
 
-/** The engine input for a tank as the database holds it now, or undefined if there is no such tank. */
+/**
+ * The engine input for a tank as the database holds it now, read anew (a sign-off records it), or
+ * undefined if there is no such tank. A correction replaces the entry it corrects; the engine
+ * sees only the current value.
+ */
 export function cycleInputFor(db: Db, tankId: string, now: Date): CycleInput | undefined {
-  return cycleInputWithRows(db, tankId, now)?.input
+  const found = engineTank(db, tankId)
+  return found && { ...found, ...readEngineInput(db, tankId), now: now.toISOString() }
+}
+
+/**
+ * The same input with its history prepared, from the copy kept in memory while the tank's data
+ * has not changed (engine-input-cache.ts): what a verdict refresh evaluates.
+ */
+function preparedInputFor(db: Db, tankId: string, now: Date): PreparedInput | undefined {
+  const found = engineTank(db, tankId)
+  return found && { ...found, history: keptHistory(db, tankId).history, now: now.toISOString() }
 }
 
 /**
  * Evaluates the tank's cycle now and stores the verdict with the completion forecast made from
  * the same input at the same time (lists read it instead of the tank's history); undefined if
- * the tank does not exist. The engine starts from the history kept with the rows (parsed and
- * ordered once, a new test placed into it), which gives the verdict the rows alone give.
+ * the tank does not exist. The engine starts from the tank's kept history (parsed and ordered
+ * once, a new test placed into it), which gives the verdict the rows alone give.
  */
 export function computeAndStoreVerdict(db: Db, tankId: string, now = new Date()): Verdict | undefined {
   const evaluation = evaluateTankNow(db, tankId, now)
@@ -56,22 +60,22 @@ export function computeAndStoreVerdict(db: Db, tankId: string, now = new Date())
 }
 
 /**
- * The tank's engine input as the database holds it at `now` and its verdict, made from the
- * history kept with the rows (a sign-off decides on it and records the input); undefined if there is no such tank.
+ * The tank's engine input as the database holds it at `now` and its verdict, made from that very
+ * input (a sign-off decides on it and records the input); undefined if there is no such tank.
  */
 export function verdictWithInput(db: Db, tankId: string, now: Date): { input: CycleInput, verdict: Verdict } | undefined {
-  const found = cycleInputWithRows(db, tankId, now)
-  return found && { input: found.input, verdict: evaluateCycle(found.input, CURRENT_RULE_OPTIONS, preparedHistoryOf(found.rows)) }
+  const input = cycleInputFor(db, tankId, now)
+  return input && { input, verdict: evaluateCycle(input, CURRENT_RULE_OPTIONS) }
 }
 
 /**
  * The tank's verdict and forecast as of `now` from its data as the database holds it (here, or
  * in a worker thread), undefined if there is no such tank. The engine and the forecast share
- * the history kept with the rows, so neither parses and orders the tests again.
+ * the tank's kept history, so neither parses and orders the tests again.
  */
 export function evaluateTankNow(db: Db, tankId: string, now: Date): TankEvaluation | undefined {
-  const found = cycleInputWithRows(db, tankId, now)
-  return found && evaluateTank(found.input, preparedHistoryOf(found.rows))
+  const input = preparedInputFor(db, tankId, now)
+  return input && evaluateTank(input)
 }
 
 /** What is stored for a tank: the engine's verdict and the completion forecast made from the same input. */
@@ -80,13 +84,10 @@ export interface TankEvaluation {
   forecast: CycleForecast
 }
 
-/**
- * The verdict and forecast for one engine input (here, or in a worker thread). `prepared`: the
- * input's history kept from an earlier evaluation (used only if made from these very arrays).
- */
-export function evaluateTank(input: CycleInput, prepared?: PreparedHistory): TankEvaluation {
-  const verdict = evaluateCycle(input, CURRENT_RULE_OPTIONS, prepared)
-  return { verdict, forecast: forecastCycle(input, verdict, prepared) }
+/** The verdict and forecast for one engine input, its history prepared (here, or in a worker thread). */
+export function evaluateTank(input: PreparedInput): TankEvaluation {
+  const verdict = evaluatePrepared(input, CURRENT_RULE_OPTIONS)
+  return { verdict, forecast: forecastPrepared(input, verdict) }
 }
 
 /**

@@ -6,7 +6,7 @@
 
 import { mergeActions } from './actions'
 import { traceCourse } from './course'
-import { compareReadings, historyAsOf, preparedFrom, type PreparedHistory } from './history'
+import { compareReadings, historyAsOf, prepareInput, type PreparedInput } from './history'
 import { decidePhase, firstSourceTime } from './phase'
 import { assessReadiness } from './readiness'
 import { CURRENT_RULE_OPTIONS, type RuleOptions } from './options'
@@ -30,11 +30,11 @@ function compareFindings(a: Finding, b: Finding): number {
     || compareStrings(a.readingIds.join('\u0000'), b.readingIds.join('\u0000'))
 }
 
-function buildContext(input: CycleInput, options: RuleOptions, kept: PreparedHistory | undefined): RuleContext {
+function buildContext(input: PreparedInput, options: RuleOptions): RuleContext {
   const nowMs = requireTime('now', input.now)
   const startedMs = requireTime('tank.startedAt', input.tank.startedAt)
   const thresholds = resolveThresholds(input.thresholds)
-  const prepared = preparedFrom(input.readings, input.events, kept)
+  const prepared = input.history
   const history = historyAsOf(prepared, nowMs)
   const course = traceCourse(history, thresholds, input.tank.cycleMethod, startedMs, nowMs, options)
   // Nothing after `now` was cut: the latest values of the whole prepared history are the ones.
@@ -65,12 +65,18 @@ function runRules(ctx: RuleContext): { findings: Finding[], actions: CycleAction
  * readiness per livestock group and next actions. Throws a RangeError when `now`
  * or `tank.startedAt` is not an ISO time or a threshold is not a finite number >= 0.
  * `options` selects an earlier 2.x version's behaviour (see `versions.ts`); the default is current.
- * `prepared`, when given, is this input's history prepared earlier (`prepareHistory`, kept between
- * a tank's evaluations): it is used only when made from the input's very `readings` and `events`
- * arrays, and gives the verdict the input alone gives.
  */
-export function evaluateCycle(input: CycleInput, options: RuleOptions = CURRENT_RULE_OPTIONS, prepared?: PreparedHistory): Verdict {
-  const ctx = buildContext(input, options, prepared)
+export function evaluateCycle(input: CycleInput, options: RuleOptions = CURRENT_RULE_OPTIONS): Verdict {
+  return evaluatePrepared(prepareInput(input), options)
+}
+
+/**
+ * `evaluateCycle` for an input whose history was prepared already: a tank's history kept between
+ * its evaluations (a new test placed into it), or read from the database a row at a time. The
+ * verdict is the one `evaluateCycle` gives for the readings and events it was prepared from.
+ */
+export function evaluatePrepared(input: PreparedInput, options: RuleOptions = CURRENT_RULE_OPTIONS): Verdict {
+  const ctx = buildContext(input, options)
   const { findings, actions } = runRules(ctx)
   return {
     phase: ctx.phase,

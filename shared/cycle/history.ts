@@ -8,7 +8,7 @@
 import { partitionPoint } from '../sorted'
 import { latestValues, updatedLatest, type Latest } from './snapshot'
 import { parseTime, timeReaderFor, type TimeReader } from './time'
-import type { CycleEvent, CycleReading } from './types'
+import type { CycleEvent, CycleInput, CycleReading, CycleTank, Thresholds } from './types'
 
 /** A reading with its parsed time; only values the engine can trust are kept. */
 export interface TimedReading {
@@ -118,10 +118,10 @@ function sanitize(raw: CycleReading, t: number, readTime: TimeReader = parseTime
  * `buildHistory` does, kept between evaluations so a new test costs its own place in the order,
  * not a year of parsing and sorting again. Cutting it at `now` (`historyAsOf`) is the history
  * `buildHistory` gives, because the order puts time first: what happened by `now` is a prefix.
+ * It holds nothing of the raw readings it was made from: a long history kept between a tank's
+ * evaluations would otherwise be held twice, once as given and once in order.
  */
 export interface PreparedHistory {
-  /** The very arrays it was prepared from: the engine uses it for an input holding these arrays only. */
-  readonly source: { readonly readings: readonly CycleReading[], readonly events: readonly CycleEvent[] | undefined }
   /** Every reading whose time parses, in history order (including any after a given `now`). */
   readonly readings: readonly TimedReading[]
   /** Every event whose time parses, in history order. */
@@ -137,6 +137,19 @@ export interface PreparedHistory {
    * then input order), with their values as given: the forecast's curves, cut at `now` like the rest.
    */
   readonly nitrogenTests: readonly NitrogenTest[]
+}
+
+/**
+ * What the engine and the forecast read of a `CycleInput`, with its readings and events already
+ * prepared (`prepareInput`, or a history kept between a tank's evaluations and read from the
+ * database a row at a time): the raw arrays are not needed once their history is made.
+ */
+export interface PreparedInput {
+  readonly tank: CycleTank
+  readonly thresholds?: Partial<Thresholds>
+  /** ISO 8601 time the verdict is for. */
+  readonly now: string
+  readonly history: PreparedHistory
 }
 
 /** An ammonia or nitrite test as the forecast reads it. */
@@ -173,13 +186,17 @@ function byId(a: { id: string }, b: { id: string }): number {
   return compareStrings(a.id, b.id)
 }
 
-/** Parses, checks and orders a tank's readings and events once (see `PreparedHistory`). */
-export function prepareHistory(readings: readonly CycleReading[], events: readonly CycleEvent[] | undefined): PreparedHistory {
+/**
+ * Parses, checks and orders a tank's readings and events once (see `PreparedHistory`). The
+ * readings may come one at a time (rows read from the database): none of them is held after its
+ * turn. `count` is how many there are, when they are not an array (it chooses how times are read).
+ */
+export function prepareHistory(readings: Iterable<CycleReading>, events: readonly CycleEvent[] | undefined, count = Array.isArray(readings) ? readings.length : Number.POSITIVE_INFINITY): PreparedHistory {
   const kept: TimedReading[] = []
   const ignored: string[] = []
   const repaired: { id: string, t: number }[] = []
   const nitrogen: NitrogenTest[] = []
-  const readTime = timeReaderFor(readings.length)
+  const readTime = timeReaderFor(count)
   for (const raw of readings) {
     const t = readTime(raw.takenAt)
     if (!Number.isFinite(t)) {
@@ -199,7 +216,6 @@ export function prepareHistory(readings: readonly CycleReading[], events: readon
   }
   kept.sort(compareReadings)
   return {
-    source: { readings, events },
     readings: kept,
     events: timedEvents.sort(compareEvents),
     ignoredReadingIds: ignored.sort(compareStrings),
@@ -209,10 +225,9 @@ export function prepareHistory(readings: readonly CycleReading[], events: readon
   }
 }
 
-/** `kept` when it was made from these very arrays, otherwise their history prepared now. */
-export function preparedFrom(readings: readonly CycleReading[], events: readonly CycleEvent[] | undefined, kept: PreparedHistory | undefined): PreparedHistory {
-  if (kept && kept.source.readings === readings && kept.source.events === events) return kept
-  return prepareHistory(readings, events)
+/** The input with its readings and events prepared: what `evaluatePrepared` and `forecastPrepared` read. */
+export function prepareInput(input: CycleInput): PreparedInput {
+  return { tank: input.tank, thresholds: input.thresholds, now: input.now, history: prepareHistory(input.readings, input.events) }
 }
 
 /** How many of `items` (in time order) happened at or before `nowMs`. */
@@ -223,13 +238,6 @@ function countUpTo(items: readonly { readonly t: number }[], nowMs: number): num
 /** The prefix of `items` up to `count`: the array itself when nothing is cut (no copy on the common path). */
 function prefix<T>(items: readonly T[], count: number): readonly T[] {
   return count === items.length ? items : items.slice(0, count)
-}
-
-/** Nothing in the prepared history (readings and events whose time parses) happened after `nowMs`. */
-export function endsBy(prepared: PreparedHistory, nowMs: number): boolean {
-  const lastReading = prepared.readings[prepared.readings.length - 1]
-  const lastEvent = prepared.events[prepared.events.length - 1]
-  return (lastReading === undefined || lastReading.t <= nowMs) && (lastEvent === undefined || lastEvent.t <= nowMs)
 }
 
 /** The history as of `nowMs`: a reading or event after it is in the verdict's future and left out, which keeps old verdicts reproducible. */
@@ -252,17 +260,14 @@ function inserted<T>(list: readonly T[], item: T, compare: (a: T, b: T) => numbe
 }
 
 /**
- * `prepared` with one more reading, for `nextReadings`: the prepared readings plus `raw`, in
- * any order (the order of the raw input never matters: the history's order is total). The raw
- * events stay the same array. Undefined when `nextReadings` is not one longer than the prepared
- * input, or when the test has the time and id of one already there (the input's order would
+ * `prepared` with one more reading, `raw`: the history `prepareHistory` makes of its readings and
+ * `raw`, in any order (the order of the raw input never matters: the history's order is total).
+ * Undefined when the test has the time and id of one already there (the input's order would
  * decide between them): the caller then prepares the whole history again.
  */
-export function withReadingAdded(prepared: PreparedHistory, raw: CycleReading, nextReadings: readonly CycleReading[]): PreparedHistory | undefined {
-  if (nextReadings.length !== prepared.source.readings.length + 1) return undefined
-  const source = { readings: nextReadings, events: prepared.source.events }
+export function withReadingAdded(prepared: PreparedHistory, raw: CycleReading): PreparedHistory | undefined {
   const t = parseTime(raw.takenAt)
-  if (!Number.isFinite(t)) return { ...prepared, source, ignoredReadingIds: inserted(prepared.ignoredReadingIds, raw.id, compareStrings) }
+  if (!Number.isFinite(t)) return { ...prepared, ignoredReadingIds: inserted(prepared.ignoredReadingIds, raw.id, compareStrings) }
   const result = sanitize(raw, t)
   const test = nitrogenTest(raw, result.reading)
   let nitrogenTests = prepared.nitrogenTests
@@ -276,7 +281,6 @@ export function withReadingAdded(prepared: PreparedHistory, raw: CycleReading, n
   }
   return {
     ...prepared,
-    source,
     nitrogenTests,
     readings: inserted(prepared.readings, result.reading, compareReadings),
     // It goes after every reading not after it in the order, so it is the latest of each value it carries unless a later one does.
@@ -287,8 +291,8 @@ export function withReadingAdded(prepared: PreparedHistory, raw: CycleReading, n
 
 /**
  * `prepared` as of `nowMs`, continued by readings and events that all come after `nowMs` (the
- * forecast's assumed future): the history `prepareHistory` makes of `source`, the past as of
- * `nowMs` (a time that does not parse stays, as it does in the past) followed by `later`. Only
+ * forecast's assumed future): the history `prepareHistory` makes of the readings and events up
+ * to `nowMs` and `later` together (a time that does not parse stays, as it does in the past). Only
  * the later ones are parsed and ordered: they go after every past one, as the order puts time
  * first. Undefined when one of them is not after `nowMs` or its time does not parse.
  */
@@ -296,7 +300,6 @@ export function withLaterAppended(
   prepared: PreparedHistory,
   nowMs: number,
   later: { readonly readings: readonly CycleReading[], readonly events: readonly CycleEvent[] },
-  source: { readonly readings: readonly CycleReading[], readonly events: readonly CycleEvent[] },
 ): PreparedHistory | undefined {
   const future = prepareHistory(later.readings, later.events)
   const allAfter = (items: readonly { readonly t: number }[], given: number) => items.length === given && items.every(item => item.t > nowMs)
@@ -305,7 +308,6 @@ export function withLaterAppended(
   const pastLatest = past.readings === prepared.readings ? prepared.latest : latestValues(past.readings)
   const after = (a: TimedReading, b: TimedReading) => compareReadings(a, b) > 0
   return {
-    source,
     readings: [...past.readings, ...future.readings],
     events: [...past.events, ...future.events],
     ignoredReadingIds: prepared.ignoredReadingIds,

@@ -1,6 +1,7 @@
 /**
- * A tank's current readings and events as the rule engine reads them, kept in memory between
- * verdict refreshes so a new test does not re-read and re-map a year of history.
+ * A tank's current readings and events as the rule engine reads them (its prepared history:
+ * parsed, checked and in order), kept in memory between verdict refreshes so a new test does not
+ * re-read and re-order a year of history.
  *
  * Why it is never out of date: triggers on `readings` and `events` count every insert, update
  * and delete of a tank's rows in `tank_data_revisions`, on every connection (a CSV import in a
@@ -8,14 +9,13 @@
  * only while the tank's count still equals the count it was read at; otherwise the rows are
  * read again. The one change applied in place is the commonest: a new test saved on this
  * connection, whose transaction read the count right after its insert (so the count moved by
- * exactly that row) and whose position in the order is certain. Anything else reads again.
+ * exactly that row). Anything else reads again.
  *
  * Framework-free: takes a `Db`; each handle (the server's connection, a worker's, a test's)
  * keeps its own copies.
  */
 import { prepareHistory, withReadingAdded, type PreparedHistory } from '../../../shared/cycle/history'
 import type { CycleEvent, CycleReading } from '../../../shared/cycle/types'
-import { partitionPoint } from '../../../shared/sorted'
 import { CYCLE_EVENT_KINDS, type CycleEventKind, type EventKind } from '../../../shared/vocabulary'
 import type { Db } from '../../db/connection'
 import { preparedPerDb } from '../../db/prepared'
@@ -24,32 +24,22 @@ import { tankDataRevisionInDb } from './data-revision'
 import { KeptTanks } from './kept-tanks'
 import { engineValuesOf, tankEngineReadings, tankEvents, type EngineReadingValues } from './current'
 
-/** What the engine reads of a tank's rows, and the count of changes they were read at. */
-export interface EngineRows {
+/** A tank's history as the engine reads it, and the count of changes it was read at. */
+export interface KeptHistory {
   revision: number
-  readings: readonly CycleReading[]
-  events: readonly CycleEvent[]
-  /** The same rows parsed and ordered for the engine, once asked for (`preparedHistoryOf`). */
-  prepared?: PreparedHistory
-}
-
-/**
- * The rows' history as the engine orders it, prepared the first time it is asked for and kept
- * with them: the next evaluation, and the next test placed into the copy, start from it.
- */
-export function preparedHistoryOf(rows: EngineRows): PreparedHistory {
-  rows.prepared ??= prepareHistory(rows.readings, rows.events)
-  return rows.prepared
+  /** How many current tests it was made from (one whose time does not parse included). */
+  tests: number
+  history: PreparedHistory
 }
 
 /**
  * Kept per handle: at most 64 tanks (a year of a client's tests is some hundreds of kB) and
- * 250,000 tests together (about 200 MB with their prepared histories; a 100,000-test import is
- * kept, three of them are not). The least recently used goes first.
+ * 250,000 tests together (about 70 MB of prepared history; a 100,000-test import is kept, three of
+ * them are not). The least recently used goes first.
  */
 const KEPT = { maxTanks: 64, maxReadings: 250_000 }
 
-const copies = preparedPerDb(() => new KeptTanks<EngineRows>(KEPT))
+const copies = preparedPerDb(() => new KeptTanks<KeptHistory>(KEPT))
 
 const defined = <T>(value: T | null): T | undefined => value ?? undefined
 
@@ -75,53 +65,56 @@ export function toCycleReading([id, takenAt, createdAt, ammoniaN, nitriteN, nitr
   }
 }
 
-/**
- * The rows as the engine takes them, in their order. An imported file's tests share one entry
- * time, and SQLite hands each row its own copy of the text: a row entered when the one before
- * it was keeps that one's string, so a long import holds the time once instead of once per test.
- */
-function cycleReadingsOf(rows: Iterable<EngineReadingValues>): CycleReading[] {
-  const out: CycleReading[] = []
-  let entered = ''
-  for (const values of rows) {
-    if (values[2] === entered) values[2] = entered
-    else entered = values[2]
-    out.push(toCycleReading(values))
-  }
-  return out
-}
-
-/** Reads the tank's rows from the database, as every refresh did before this copy was kept. */
-export function readEngineRows(db: Db, tankId: string, revision: number): EngineRows {
-  return {
-    revision,
-    readings: cycleReadingsOf(tankEngineReadings(db, tankId)),
-    events: tankEvents(db, tankId).flatMap(({ kind, ...e }): CycleEvent[] => isCycleEventKind(kind)
-      ? [{ id: e.id, at: e.at, enteredAt: e.createdAt, kind, amount: defined(e.amount), group: defined(e.group) }]
-      : []),
-  }
+/** The tank's current events the engine reads, in their order. */
+function cycleEventsOf(db: Db, tankId: string): CycleEvent[] {
+  return tankEvents(db, tankId).flatMap(({ kind, ...e }): CycleEvent[] => isCycleEventKind(kind)
+    ? [{ id: e.id, at: e.at, enteredAt: e.createdAt, kind, amount: defined(e.amount), group: defined(e.group) }]
+    : [])
 }
 
 /**
- * The tank's current readings and events in the engine's shape and order: the kept copy when
- * the tank's count has not moved since, otherwise read again (and kept). The arrays are shared:
- * callers read them and never change them.
+ * The tank's current readings and events as the engine takes them, in the database's order (time
+ * taken, then entered, then row order): what a sign-off records and re-runs. Read anew each time.
  */
-export function engineRows(db: Db, tankId: string): EngineRows {
+export function readEngineInput(db: Db, tankId: string): { readings: CycleReading[], events: CycleEvent[] } {
+  return { readings: Array.from(tankEngineReadings(db, tankId), toCycleReading), events: cycleEventsOf(db, tankId) }
+}
+
+/**
+ * Reads the tank's history from the database and prepares it a row at a time: no reading is held
+ * in the shape it was read in, so a long history is held once, in order, and not twice.
+ */
+export function readKeptHistory(db: Db, tankId: string, revision: number): KeptHistory {
+  let tests = 0
+  function* readings(): Generator<CycleReading> {
+    for (const values of tankEngineReadings(db, tankId)) {
+      tests += 1
+      yield toCycleReading(values)
+    }
+  }
+  const history = prepareHistory(readings(), cycleEventsOf(db, tankId))
+  return { revision, tests, history }
+}
+
+/**
+ * The tank's current history as the engine reads it: the kept copy when the tank's count has not
+ * moved since, otherwise read again (and kept). It is shared: callers read it and never change it.
+ */
+export function keptHistory(db: Db, tankId: string): KeptHistory {
   // The count is read before the rows: rows read after it are at least as new, so a copy is never
   // labelled newer than its content (a write in between moves the count and the next call reads again).
   const revision = tankDataRevisionInDb(db, tankId)
   const kept = copies(db).get(tankId)
   if (kept?.revision === revision) return kept
-  const rows = readEngineRows(db, tankId, revision)
-  copies(db).keep(tankId, rows)
-  return rows
+  const read = readKeptHistory(db, tankId, revision)
+  copies(db).keep(tankId, read)
+  return read
 }
 
 /** How many current tests the tank's kept copy holds, when one is kept at the tank's current revision. */
 export function keptTestCount(db: Db, tankId: string): number | undefined {
   const kept = copies(db).get(tankId)
-  return kept && kept.revision === tankDataRevisionInDb(db, tankId) ? kept.readings.length : undefined
+  return kept && kept.revision === tankDataRevisionInDb(db, tankId) ? kept.tests : undefined
 }
 
 type ReadingRow = typeof readings.$inferSelect
@@ -135,10 +128,10 @@ export interface AppendedTest {
 /**
  * After a new test (not a correction) was inserted and committed on this handle: `revisionAfter`
  * is the tank's count read in the same transaction right after the insert. When the kept copy
- * is the one just before it, the test is placed into a new copy where the database's order
- * (taken, then entered, then row order) puts it; a copy read at or after the count already holds
- * it and stays; when that order is not certain from the copy (another row taken and entered at
- * the same instants) or the copy is older, the copy is dropped.
+ * is the one just before it, the test is placed into a new copy where the history's order puts
+ * it (a total order: the database's row order never decides it); a copy read at or after the
+ * count already holds it and stays; when the copy is older, or the test ties with one already
+ * there on time and id, the copy is dropped.
  * Any handle may be told (the heavy-work pool's, for a tank evaluated there): the count says
  * whether its copy is the one just before the test.
  */
@@ -153,23 +146,7 @@ export function noteTestAppended(db: Db, tankId: string, row: ReadingRow, revisi
     byTank.drop(tankId)
     return
   }
-  const at = placeOf(kept.readings, row.takenAt, row.createdAt)
-  if (at === undefined) {
-    byTank.drop(tankId)
-    return
-  }
-  const reading = toCycleReading(engineValuesOf(row))
-  const next = kept.readings.slice()
-  next.splice(at, 0, reading)
-  // The engine's history takes the test in its own place too (or is prepared afresh when first asked).
-  const prepared = kept.prepared && withReadingAdded(kept.prepared, reading, next)
-  byTank.keep(tankId, { revision: revisionAfter, readings: next, events: kept.events, prepared })
-}
-
-/** Where a test taken at `takenAt` and entered at `enteredAt` goes; undefined when a row ties on both (row order decides). */
-function placeOf(list: readonly CycleReading[], takenAt: string, enteredAt: string): number | undefined {
-  const low = partitionPoint(list, r => r.takenAt < takenAt || (r.takenAt === takenAt && r.enteredAt! < enteredAt))
-  const next = list[low]
-  if (next && next.takenAt === takenAt && next.enteredAt === enteredAt) return undefined
-  return low
+  const history = withReadingAdded(kept.history, toCycleReading(engineValuesOf(row)))
+  if (history) byTank.keep(tankId, { revision: revisionAfter, tests: kept.tests + 1, history })
+  else byTank.drop(tankId)
 }

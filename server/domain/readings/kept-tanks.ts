@@ -11,7 +11,7 @@ export interface KeptTanksBounds {
   maxReadings: number
 }
 
-export class KeptTanks<Rows extends { readonly readings: readonly unknown[] }> {
+export class KeptTanks<Rows extends { readonly tests: number }> {
   private readonly byTank = new Map<string, Rows>()
   private held = 0
 
@@ -33,7 +33,7 @@ export class KeptTanks<Rows extends { readonly readings: readonly unknown[] }> {
   keep(tankId: string, rows: Rows): void {
     this.drop(tankId)
     this.byTank.set(tankId, rows)
-    this.held += rows.readings.length
+    this.held += rows.tests
     while (this.byTank.size > 1 && (this.byTank.size > this.bounds.maxTanks || this.held > this.bounds.maxReadings)) {
       this.drop(this.byTank.keys().next().value!)
     }
@@ -43,6 +43,6 @@ export class KeptTanks<Rows extends { readonly readings: readonly unknown[] }> {
     const rows = this.byTank.get(tankId)
     if (!rows) return
     this.byTank.delete(tankId)
-    this.held -= rows.readings.length
+    this.held -= rows.tests
   }
 }

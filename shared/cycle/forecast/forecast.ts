@@ -7,11 +7,11 @@
  * flat or erratic. See README.md beside this file for the model and its limits.
  */
 
-import { evaluateCycle } from '../engine'
-import { endsBy, nitrogenTestsAsOf, preparedFrom, type PreparedHistory } from '../history'
+import { evaluatePrepared } from '../engine'
+import { nitrogenTestsAsOf, prepareInput, type PreparedInput, type TimedEvent } from '../history'
 import { RULE_SET_VERSION } from '../registry'
 import { resolveThresholds } from '../thresholds'
-import { DAY_MS, HOUR_MS, parseTime, requireTime, toIso } from '../time'
+import { DAY_MS, HOUR_MS, requireTime, toIso } from '../time'
 import { LIVESTOCK_GROUPS, type CycleInput, type LivestockGroup, type Thresholds, type Verdict } from '../types'
 import { fitDecline, type DeclineResult, type SeriesPoint } from './decline'
 import { latestOfSeries, seriesOf, seriesSincePeak, type TimedTest } from './series'
@@ -37,46 +37,20 @@ function shell(status: CycleForecast['status'], gap: ForecastGap | null, basis: 
   }
 }
 
-function compareTests(a: { t: number, id: string }, b: { t: number, id: string }): number {
-  return a.t - b.t || (a.id < b.id ? -1 : a.id > b.id ? 1 : 0)
-}
-
-/**
- * Ammonia and nitrite tests up to now, oldest first (same order rule as the engine: time, then id):
- * from `prepared` when it was made from the input's very readings (kept between a tank's evaluations).
- */
-function testsUpTo(input: CycleInput, nowMs: number, prepared: PreparedHistory | undefined): readonly TimedTest[] {
-  if (prepared && prepared.source.readings === input.readings) return nitrogenTestsAsOf(prepared, nowMs)
-  const found: { t: number, id: string, test: TimedTest }[] = []
-  // The server hands the rows over in time order already: sort only when they are not in this order
-  // (the sort is stable, so rows already in order would come out as they went in).
-  let ordered = true
-  for (const r of input.readings) {
-    if (r.ammoniaN === undefined && r.nitriteN === undefined) continue
-    const t = parseTime(r.takenAt)
-    if (!Number.isFinite(t) || t > nowMs) continue
-    const entry = { t, id: r.id, test: { t, ammoniaN: r.ammoniaN, nitriteN: r.nitriteN, nitrateN: r.nitrateN } }
-    const previous = found[found.length - 1]
-    if (previous !== undefined && compareTests(previous, entry) > 0) ordered = false
-    found.push(entry)
-  }
-  if (!ordered) found.sort(compareTests)
-  return found.map(entry => entry.test)
-}
-
 interface ProofDose {
   t: number
   /** mg/L as N; 0 when logged without an amount. */
   amount: number
 }
 
+/** The events at or before now (their time parses), oldest first. */
+function eventsUpTo(input: PreparedInput, nowMs: number): readonly TimedEvent[] {
+  return input.history.events.filter(e => e.t <= nowMs)
+}
+
 /** Ammonia doses at or before now, oldest first. */
-function dosesUpTo(input: CycleInput, nowMs: number): ProofDose[] {
-  return (input.events ?? [])
-    .filter(e => e.kind === 'ammonia-dose')
-    .map(e => ({ t: parseTime(e.at), amount: e.amount ?? 0 }))
-    .filter(d => Number.isFinite(d.t) && d.t <= nowMs)
-    .sort((a, b) => a.t - b.t)
+function dosesOf(events: readonly TimedEvent[]): ProofDose[] {
+  return events.filter(e => e.event.kind === 'ammonia-dose').map(e => ({ t: e.t, amount: e.event.amount ?? 0 }))
 }
 
 function readsZero(test: TimedTest, th: Thresholds): boolean {
@@ -113,27 +87,9 @@ function uncheckedDose(doses: readonly ProofDose[], allTests: readonly TimedTest
   return allTests.some(t => t.t > last.t) ? null : last.t
 }
 
-/**
- * The input without tests or events after now: the assumed routine must continue from now, not from
- * a later record. When the history kept with these very arrays ends by now, nothing is cut, and the
- * arrays are taken as they are instead of reading every time again.
- */
-function pastOnly(input: CycleInput, nowMs: number, prepared: PreparedHistory | undefined): CycleInput {
-  if (prepared && prepared.source.readings === input.readings && prepared.source.events === input.events && endsBy(prepared, nowMs)) {
-    return { ...input, events: input.events ?? [] }
-  }
-  const past = (iso: string) => !(parseTime(iso) > nowMs)
-  return { ...input, readings: input.readings.filter(r => past(r.takenAt)), events: (input.events ?? []).filter(e => past(e.at)) }
-}
-
 /** Time of the last water change at or before now: dilution breaks a curve, so fits start after it. */
-function lastWaterChange(input: CycleInput, nowMs: number): number {
-  let last = Number.NEGATIVE_INFINITY
-  for (const e of input.events ?? []) {
-    const t = parseTime(e.at)
-    if (e.kind === 'water-change' && Number.isFinite(t) && t <= nowMs && t > last) last = t
-  }
-  return last
+function lastWaterChange(events: readonly TimedEvent[]): number {
+  return events.findLast(e => e.event.kind === 'water-change')?.t ?? Number.NEGATIVE_INFINITY
 }
 
 function completeForecast(verdict: Verdict, basis: ForecastBasis): CycleForecast {
@@ -190,15 +146,24 @@ function relapseAllowanceMs(base: ProjectionBase, tests: readonly TimedTest[], d
  * Forecasts when the cycle will be proven complete. Throws a RangeError for the same
  * bad input the engine refuses (`now`, `tank.startedAt`, thresholds). `verdict`, when
  * given, must be the engine's verdict on this same input (the server stores both from
- * one evaluation, so the engine does not run twice). `prepared`, when given, is the input's history
- * kept from an earlier evaluation (as for `evaluateCycle`; used only if made from these readings).
+ * one evaluation, so the engine does not run twice).
  */
-export function forecastCycle(input: CycleInput, verdict?: Verdict, prepared?: PreparedHistory): CycleForecast {
+export function forecastCycle(input: CycleInput, verdict?: Verdict): CycleForecast {
+  return forecastPrepared(prepareInput(input), verdict)
+}
+
+/**
+ * `forecastCycle` for an input whose history was prepared already (see `evaluatePrepared`):
+ * the forecast `forecastCycle` gives for the readings and events it was prepared from.
+ */
+export function forecastPrepared(input: PreparedInput, verdict?: Verdict): CycleForecast {
   const nowMs = requireTime('now', input.now)
   const thresholds = resolveThresholds(input.thresholds)
-  verdict ??= evaluateCycle(input, undefined, prepared)
-  const doses = dosesUpTo(input, nowMs)
-  const allTests = testsUpTo(input, nowMs, prepared)
+  verdict ??= evaluatePrepared(input)
+  const events = eventsUpTo(input, nowMs)
+  const doses = dosesOf(events)
+  // The tests in the forecast's order (time, then id), with their values as given.
+  const allTests = nitrogenTestsAsOf(input.history, nowMs)
   const tests = curveTests(allTests, doses, thresholds)
   const lastTest = tests[tests.length - 1]
   const testEveryHours = thresholds.retestHours
@@ -210,7 +175,7 @@ export function forecastCycle(input: CycleInput, verdict?: Verdict, prepared?: P
   // The engine expects a test at least every testIntervalHours; twice that missed leaves the curve unknown.
   if (nowMs - lastTest.t > 2 * thresholds.testIntervalHours * HOUR_MS) return shell('not-enough-data', 'stale', basis)
 
-  const fromMs = lastWaterChange(input, nowMs)
+  const fromMs = lastWaterChange(events)
   const limits = { ammoniaN: thresholds.ammoniaZeroN, nitriteN: thresholds.nitriteZeroN } as const
   const above = (key: 'ammoniaN' | 'nitriteN') => (latestOfSeries(tests, key, fromMs) ?? 0) > limits[key]
   const ammoniaAbove = above('ammoniaN')
@@ -222,11 +187,10 @@ export function forecastCycle(input: CycleInput, verdict?: Verdict, prepared?: P
   basis.readingZero = !ammoniaAbove && !nitriteAbove
 
   const lastNitrate = tests.findLast(x => x.nitrateN !== undefined)?.nitrateN ?? 0
-  const livestockIn = (input.events ?? []).some(e => e.kind === 'livestock-added' && parseTime(e.at) <= nowMs)
+  const livestockIn = events.some(e => e.event.kind === 'livestock-added')
   const doseAfterZeroTests = input.tank.cycleMethod === 'fishless' && !livestockIn
   const base: ProjectionBase = {
-    input: pastOnly(input, nowMs, prepared),
-    history: preparedFrom(input.readings, input.events, prepared),
+    input,
     thresholds,
     lastTestMs: lastTest.t,
     nowMs,

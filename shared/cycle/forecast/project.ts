@@ -19,10 +19,10 @@
  * - no water change, and nothing else that restarts the engine's count.
  */
 
-import { evaluateCycle } from '../engine'
-import { withLaterAppended, type PreparedHistory } from '../history'
+import { evaluatePrepared } from '../engine'
+import { withLaterAppended, type PreparedInput } from '../history'
 import { DAY_MS, HOUR_MS, toIso } from '../time'
-import { LIVESTOCK_GROUPS, type CycleEvent, type CycleInput, type CycleReading, type LivestockGroup, type Thresholds } from '../types'
+import { LIVESTOCK_GROUPS, type CycleEvent, type CycleReading, type LivestockGroup, type Thresholds } from '../types'
 import { HORIZON_DAYS } from './parameters'
 
 /** What the engine decides under one assumed future. */
@@ -34,10 +34,8 @@ export interface Projection {
 
 /** The tank's state the routine continues from. */
 export interface ProjectionBase {
-  /** The tank's input as of now (nothing after now). */
-  input: CycleInput
-  /** The tank's whole history prepared (`input` is it as of now): each projection continues it instead of preparing years again. */
-  history: PreparedHistory
+  /** The tank's input, its whole history prepared: each projection continues it as of now instead of preparing years again. */
+  input: PreparedInput
   thresholds: Thresholds
   /** Time of the latest real test. */
   lastTestMs: number
@@ -136,10 +134,11 @@ function projectUntil(base: ProjectionBase, zeroFromMs: number, untilMs: number,
     // The routine ends on a test before the next dose: the engine judges the proof there.
     if (zero && base.doseAfterZeroTests && t !== last) dose(t, String(i))
   })
-  const input = { ...base.input, readings: [...base.input.readings, ...readings], events: [...(base.input.events ?? []), ...events], now: toIso(last) }
-  // The tank's history continued by the future (undefined, and prepared whole by the engine, only if one were not after now).
-  const history = withLaterAppended(base.history, base.nowMs, { readings, events }, input)
-  const verdict = evaluateCycle(input, undefined, history)
+  // The tank's history as of now continued by the assumed future. Every assumed test and dose is
+  // after now by construction (futureTestTimes); one that were not would be no routine to follow.
+  const history = withLaterAppended(base.input.history, base.nowMs, { readings, events })
+  if (!history) return null
+  const verdict = evaluatePrepared({ ...base.input, history, now: toIso(last) })
   if (verdict.completedOn === null) return null
   const groups = {} as Record<LivestockGroup, number | null>
   for (const g of LIVESTOCK_GROUPS) {

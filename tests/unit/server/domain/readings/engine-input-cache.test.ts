@@ -1,7 +1,7 @@
 /**
- * The engine input kept in memory between verdict refreshes (engine-input-cache.ts) must always
- * equal a full read of the tank's history, and the verdict and forecast made from it must equal
- * the ones made from a full read. Random histories of changes on a real migrated SQLite file with
+ * The tank's prepared history kept in memory between verdict refreshes (engine-input-cache.ts)
+ * must always equal a full read of the tank's history, and the verdict and forecast made from it
+ * must equal the ones the engine makes from the input read anew. Random histories of changes on a real migrated SQLite file with
  * the demo company: tests saved the way the reading route saves them (taken in any order, some
  * at the same instant as another), tests written on a second connection (as the CSV import's
  * worker thread does), corrections, edits that move a test, deletes, events and their
@@ -18,9 +18,11 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { migrateDatabase, openDatabase, type TidewrightDB } from '../../../../../server/db/connection'
 import { events, organisations, readings } from '../../../../../server/db/schema'
 import { seedDemo, type DemoIds } from '../../../../../server/db/seed/demo'
-import { cycleInputFor, evaluateTank } from '../../../../../server/db/verdicts'
+import { evaluateCycle } from '../../../../../shared/cycle/engine'
+import { forecastCycle } from '../../../../../shared/cycle/forecast'
+import { cycleInputFor, evaluateTankNow } from '../../../../../server/db/verdicts'
 import { tankDataRevisionInDb } from '../../../../../server/domain/readings/data-revision'
-import { engineRows, noteTestAppended, readEngineRows } from '../../../../../server/domain/readings/engine-input-cache'
+import { keptHistory, noteTestAppended, readKeptHistory } from '../../../../../server/domain/readings/engine-input-cache'
 
 const dir = mkdtempSync(join(tmpdir(), 'tidewright-engine-input-cache-'))
 const dbPath = join(dir, 'engine-input-cache.sqlite')
@@ -136,20 +138,22 @@ describe('the engine input kept between refreshes', () => {
     let appendedInPool = 0
     fc.assert(fc.property(fc.array(step, { minLength: 1, maxLength: 25 }), (steps) => {
       for (const s of steps) {
-        const before = engineRows(db, tankId)
-        const poolBefore = engineRows(other, tankId)
+        const before = keptHistory(db, tankId).history.readings
+        const poolBefore = keptHistory(other, tankId).history.readings
         apply(tankId, s, organisationId)
-        const kept = cycleInputFor(db, tankId, now)!
-        const full = readEngineRows(db, tankId, tankDataRevisionInDb(db, tankId))
+        const kept = keptHistory(db, tankId)
+        const full = readKeptHistory(db, tankId, 0)
         // The same objects as before the save: the copy was extended in place, not read again.
-        if (s.kind === 'save' && !s.rollBack && before.readings.length > 0 && kept.readings.includes(before.readings[0]!)) appendedInPlace++
-        expect(kept.readings).toEqual(full.readings)
-        expect(kept.events).toEqual(full.events)
-        expect(evaluateTank(kept)).toEqual(evaluateTank({ ...kept, readings: [...full.readings], events: [...full.events] }))
-        const pool = cycleInputFor(other, tankId, now)!
-        if (s.kind === 'save' && !s.rollBack && poolBefore.readings.length > 0 && pool.readings.includes(poolBefore.readings[0]!)) appendedInPool++
-        expect(pool.readings).toEqual(full.readings)
-        expect(evaluateTank(pool)).toEqual(evaluateTank(kept))
+        if (s.kind === 'save' && !s.rollBack && before.length > 0 && kept.history.readings.includes(before[0]!)) appendedInPlace++
+        expect(kept.history).toEqual(full.history)
+        expect(kept.tests).toBe(full.tests)
+        const input = cycleInputFor(db, tankId, now)!
+        const verdict = evaluateCycle(input)
+        expect(evaluateTankNow(db, tankId, now)).toEqual({ verdict, forecast: forecastCycle(input, verdict) })
+        const pool = keptHistory(other, tankId)
+        if (s.kind === 'save' && !s.rollBack && poolBefore.length > 0 && pool.history.readings.includes(poolBefore[0]!)) appendedInPool++
+        expect(pool.history).toEqual(full.history)
+        expect(evaluateTankNow(other, tankId, now)).toEqual({ verdict, forecast: forecastCycle(input, verdict) })
       }
     }), { numRuns: 60, seed: 20261203 })
     // The copy did take tests in place (not only re-read every time), so the comparison above covers that path.
@@ -159,14 +163,15 @@ describe('the engine input kept between refreshes', () => {
 
   it('takes a test saved like the route in place, without reading the history again', () => {
     const tankId = demo.tanks.nano
-    const before = engineRows(db, tankId)
+    const before = keptHistory(db, tankId)
     saveLikeTheRoute(tankId, { takenAt: now.toISOString(), createdAt: now.toISOString(), ammoniaN: 0, nitriteN: 0, nitrateN: 4 }, false)
-    const after = engineRows(db, tankId)
+    const after = keptHistory(db, tankId)
     expect(after).not.toBe(before)
-    expect(after.readings.length).toBe(before.readings.length + 1)
+    expect(after.tests).toBe(before.tests + 1)
+    expect(after.history.readings.length).toBe(before.history.readings.length + 1)
     // The same objects for every older test: the copy was extended, not read again.
-    expect(after.readings.filter(r => before.readings.includes(r)).length).toBe(before.readings.length)
-    expect(after.readings).toEqual(readEngineRows(db, tankId, 0).readings)
+    expect(after.history.readings.filter(r => before.history.readings.includes(r)).length).toBe(before.history.readings.length)
+    expect(after.history).toEqual(readKeptHistory(db, tankId, 0).history)
   })
 
   it('keeps a copy read after a test when told of that test late, as saves that overtook each other reach the pool', () => {
@@ -175,20 +180,20 @@ describe('the engine input kept between refreshes', () => {
     const first = insertLikeTheRoute(tankId, { takenAt: at(30), createdAt: at(1), ammoniaN: 0, nitriteN: 0, nitrateN: 5 })
     const second = insertLikeTheRoute(tankId, { takenAt: at(20), createdAt: at(1), ammoniaN: 0, nitriteN: 0, nitrateN: 6 })
     // The pool's handle read the history after both saves (for the first save's refresh), then hears of each.
-    const read = engineRows(other, tankId)
+    const read = keptHistory(other, tankId)
     noteTestAppended(other, tankId, structuredClone(first.row), first.revisionAfterInsert)
     noteTestAppended(other, tankId, structuredClone(second.row), second.revisionAfterInsert)
-    expect(engineRows(other, tankId)).toBe(read)
-    expect(read.readings).toEqual(readEngineRows(other, tankId, 0).readings)
+    expect(keptHistory(other, tankId)).toBe(read)
+    expect(read.history).toEqual(readKeptHistory(other, tankId, 0).history)
   })
 
   it('reads again after a write on another connection', () => {
     const tankId = demo.tanks.nano
-    const before = engineRows(db, tankId)
+    const before = keptHistory(db, tankId)
     other.insert(readings).values({ id: randomUUID(), tankId, takenAt: new Date(now.getTime() - DAY).toISOString(), nitrateN: 9 }).run()
-    const after = engineRows(db, tankId)
+    const after = keptHistory(db, tankId)
     expect(after.revision).toBe(before.revision + 1)
-    expect(after.readings.length).toBe(before.readings.length + 1)
-    expect(after.readings).toEqual(readEngineRows(db, tankId, 0).readings)
+    expect(after.tests).toBe(before.tests + 1)
+    expect(after.history).toEqual(readKeptHistory(db, tankId, 0).history)
   })
 })
