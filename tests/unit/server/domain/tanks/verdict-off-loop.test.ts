@@ -18,7 +18,7 @@ import type { Verdict } from '../../../../../shared/cycle/types'
 import { readings, tankVerdicts } from '../../../../../server/db/schema'
 import { cycleInputFor, evaluateTankNow, type TankEvaluation } from '../../../../../server/db/verdicts'
 import { tankDataRevisionInDb } from '../../../../../server/domain/readings/data-revision'
-import { engineRows, noteTestAppended, type AppendedTest } from '../../../../../server/domain/readings/engine-input-cache'
+import { keptHistory, noteTestAppended, type AppendedTest } from '../../../../../server/domain/readings/engine-input-cache'
 import { noteTankDataChanged, refreshVerdictOnLoop, storeVerdictIfNewer, tankDataRevision } from '../../../../../server/domain/tanks/newest-verdict'
 import { refreshVerdictOffLoop, type EvaluateElsewhere } from '../../../../../server/domain/tanks/verdict-off-loop'
 import { workerConnection } from '../../../../../server/workers/connection'
@@ -159,21 +159,21 @@ describe('the verdict refreshed off the request loop', () => {
     const tankId = demo.tanks.study
     const pool = workerConnection(dbPath)
     tankVerdict({ dbPath, tankId, nowMs: now.getTime(), appended: [] })
-    const before = engineRows(pool, tankId)
+    const before = keptHistory(pool, tankId)
     // As a thread receives them: copies.
     const list = [saveTest(tankId), saveTest(tankId), saveTest(tankId)].map(s => structuredClone(s.appended))
     expect(tankVerdict({ dbPath, tankId, nowMs: now.getTime(), appended: list })?.verdict).toEqual(engineNow(tankId))
-    const after = engineRows(pool, tankId)
-    expect(after.readings).toHaveLength(before.readings.length + 3)
+    const after = keptHistory(pool, tankId)
+    expect(after.tests).toBe(before.tests + 3)
     // The same events array: the copy took the tests in place; a read of the history makes a new one.
-    expect(after.events).toBe(before.events)
+    expect(after.history.events).toBe(before.history.events)
 
     // A change among them that was not a save breaks the chain: the copy is dropped and the history read again.
     const edited = saveTest(tankId)
     db.update(readings).set({ nitrateN: 9 }).where(eq(readings.id, edited.appended.row.id)).run()
     const next = saveTest(tankId)
     expect(tankVerdict({ dbPath, tankId, nowMs: now.getTime(), appended: [edited.appended, next.appended].map(a => structuredClone(a)) })?.verdict).toEqual(engineNow(tankId))
-    expect(engineRows(pool, tankId).events).not.toBe(before.events)
+    expect(keptHistory(pool, tankId).history.events).not.toBe(before.history.events)
   })
 
   it('stores a result only when it was made from data at least as new as the stored verdict\'s', () => {
