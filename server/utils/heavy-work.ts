@@ -2,8 +2,9 @@
  * The heavy-work pool: worker threads (piscina) for the work that would otherwise hold the
  * one request loop every company is served from (a 100,000-row CSV import takes seconds).
  * One thread fewer than the machine has cores, at least one, so requests keep a core. Its
- * tasks: the CSV import, the engine run for the evidence page and for the verdict refresh
- * of a tank with a long history, that tank's CSV export, and the certificate's PDF.
+ * tasks: the CSV import, the engine run for the evidence page, for the verdict refresh and for
+ * a sign-off request or decision on a tank with a long history, that tank's CSV export, and the
+ * certificate's PDF.
  *
  * Each worker entry is built beside the server (scripts/build-workers.mjs): found by
  * looking up from this chunk's own file, so a moved .output keeps working. There is no
@@ -16,10 +17,12 @@ import { fileURLToPath } from 'node:url'
 import { Piscina } from 'piscina'
 import type { TankEvaluation } from '#server/db/verdicts'
 import type { AppendedTest } from '#server/domain/readings/engine-input-cache'
+import type { SignOffEvaluation } from '#server/domain/sign-off/evaluation'
 import type { CertificateFacts } from './certificate'
 import type { CertificateTask } from '#server/workers/certificate'
 import type { ReadingImportResult, ReadingImportTask } from '#server/workers/reading-import'
 import type { ReadingsExportTask } from '#server/workers/readings-export'
+import type { SignOffEvaluationTask } from '#server/workers/sign-off-evaluation'
 import type { TankVerdictTask } from '#server/workers/tank-verdict'
 
 let pool: Piscina | undefined
@@ -75,6 +78,15 @@ export function runReadingImport(task: Omit<ReadingImportTask, 'dbPath'>): Promi
  */
 export function evaluateOffLoop(tankId: string, now: Date, appended: readonly AppendedTest[] = []): Promise<TankEvaluation | null> {
   return heavyPool().run({ tankId, nowMs: now.getTime(), dbPath: dbPath(), appended } satisfies TankVerdictTask, { name: 'tankVerdict' })
+}
+
+/**
+ * What a sign-off request or decision rests on, made in the pool: the tank's data revision, then its
+ * engine input as of `now` read anew and the verdict made from it (server/domain/sign-off/evaluation.ts);
+ * null when there is no such tank.
+ */
+export function signOffEvaluationOffLoop(tankId: string, now: Date): Promise<SignOffEvaluation | null> {
+  return heavyPool().run({ tankId, nowMs: now.getTime(), dbPath: dbPath() } satisfies SignOffEvaluationTask, { name: 'signOffEvaluation' })
 }
 
 /** A tank's readings as CSV text (server/domain/readings/export.ts), written in the pool. */

@@ -3,12 +3,15 @@
  * server/domain/sign-off/ on the process's database, with the actor's scope from
  * access.ts, and turns their refusals into HTTP answers. Routes stay thin and call these.
  */
-import { requestSignOff as requestInDb, decideSignOff as decideInDb, reopenSignOff as reopenInDb, advanceToStockingIfLivestock as advanceInDb, type DecisionResult } from '#server/domain/sign-off/commands'
-import { evaluateNow as evaluateInDb, organisationUserNames, pendingRequest as pendingInDb, signOffHistory as historyInDb, unresolvedAlertCount as alertCountInDb, type SignOffRow, type TankRow } from '#server/domain/sign-off/records'
+import { requestSignOff as requestInDb, decideSignOff as decideInDb, reopenSignOff as reopenInDb, advanceToStockingIfLivestock as advanceInDb, checkSignOffDecision, checkSignOffRequest, type DecisionResult } from '#server/domain/sign-off/commands'
+import { EvaluationOutdated, evaluateForSignOff as evaluateInDb, type SignOffEvaluation } from '#server/domain/sign-off/evaluation'
+import { organisationUserNames, pendingRequest as pendingInDb, signOffHistory as historyInDb, unresolvedAlertCount as alertCountInDb, type SignOffRow, type TankRow } from '#server/domain/sign-off/records'
 import { SignOffRefused } from '#server/domain/sign-off/refusal'
 import { reviewQueue as reviewQueueInDb, signOffState as stateInDb } from '#server/domain/sign-off/state'
+import { hasLongHistory } from '#server/domain/tanks/long-history'
 import { TankStatusRefused } from '#server/domain/tanks/status'
-import { canManageTank, visibleTankCondition, type Actor } from './access'
+import { canManageTank, requireVisibleTank, visibleTankCondition, type Actor } from './access'
+import { signOffEvaluationOffLoop } from './heavy-work'
 
 export { maySignOff, toSignOffRecord, toSignOffRecordWithSnapshot } from '#server/domain/sign-off/records'
 
@@ -47,14 +50,51 @@ export function unresolvedAlertCount(tankId: string): number {
   return alertCountInDb(useDB(), tankId)
 }
 
-/** The engine's verdict for the tank as its data stands at `now`, with its input; 404 for no such tank. */
-export function evaluateNow(tankId: string, now: Date) {
-  return signOffAnswer(() => evaluateInDb(useDB(), tankId, now))
+/**
+ * What a sign-off request or decision rests on: the tank's data revision, its engine input as of
+ * `now` read anew and the verdict made from it. In the heavy-work pool for a long history
+ * (LONG_HISTORY_TESTS), so the request loop never runs the engine over an imported log; on the
+ * loop, at once, for every other tank. 404 for no such tank.
+ */
+async function evaluateForSignOff(tankId: string, now: Date): Promise<SignOffEvaluation> {
+  const db = useDB()
+  const evaluation = hasLongHistory(db, tankId) ? await signOffEvaluationOffLoop(tankId, now) : evaluateInDb(db, tankId, now)
+  if (!evaluation) throw createError({ statusCode: 404, statusMessage: 'Tank not found' })
+  return evaluation
+}
+
+/** How many times a sign-off is evaluated before it is refused because the tank's tests keep changing meanwhile. */
+const SIGN_OFF_ATTEMPTS = 3
+
+/**
+ * Runs a sign-off command on an evaluation of the tank made just before it. `check`: the command's
+ * own refusals that need no engine, answered before any evaluation is made. A command refused
+ * because a test, correction or event landed while the evaluation was made (EvaluationOutdated)
+ * is evaluated and run again, at most SIGN_OFF_ATTEMPTS times in all, then answered 409. The tank
+ * is read again after each evaluation: its status may have moved meanwhile.
+ */
+async function onCurrentEvaluation<T>(actor: Actor, tankId: string, check: (tank: TankRow) => void, command: (tank: TankRow, evaluation: SignOffEvaluation) => T): Promise<T> {
+  for (let attempt = 1; ; attempt++) {
+    signOffAnswer(() => check(requireVisibleTank(actor, tankId)))
+    const evaluation = await evaluateForSignOff(tankId, new Date())
+    const done = signOffAnswer(() => {
+      try {
+        return { result: command(requireVisibleTank(actor, tankId), evaluation) }
+      }
+      catch (error) {
+        if (error instanceof EvaluationOutdated && attempt < SIGN_OFF_ATTEMPTS) return null
+        throw error
+      }
+    })
+    if (done) return done.result
+  }
 }
 
 /** Asks for sign-off of a cycle the engine judges complete; the tank becomes 'cycled'. */
-export function requestSignOff(actor: Actor, tank: TankRow, note: string, now = new Date()): SignOffRow {
-  return signOffAnswer(() => requestInDb(useDB(), actor, tank, note, canManageTank(actor, tank), now))
+export function requestSignOff(actor: Actor, tank: TankRow, note: string): Promise<SignOffRow> {
+  return onCurrentEvaluation(actor, tank.id,
+    current => checkSignOffRequest(useDB(), current, canManageTank(actor, current)),
+    (current, evaluation) => requestInDb(useDB(), actor, current, note, canManageTank(actor, current), evaluation))
 }
 
 /** The requests waiting for this supervisor (an admin: for the whole company), oldest first. */
@@ -63,8 +103,10 @@ export function reviewQueue(actor: Actor, now = new Date()) {
 }
 
 /** Approves or returns the waiting request, with the verdict snapshot. */
-export function decideSignOff(actor: Actor, tank: TankRow, decision: 'approve' | 'return', note: string, now = new Date()): DecisionResult {
-  return signOffAnswer(() => decideInDb(useDB(), actor, tank, decision, note, now))
+export function decideSignOff(actor: Actor, tank: TankRow, decision: 'approve' | 'return', note: string): Promise<DecisionResult> {
+  return onCurrentEvaluation(actor, tank.id,
+    current => checkSignOffDecision(useDB(), actor, current, decision, note),
+    (current, evaluation) => decideInDb(useDB(), actor, current, decision, note, evaluation))
 }
 
 /** Reopens the current approved sign-off with a reason. */

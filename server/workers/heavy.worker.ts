@@ -2,12 +2,13 @@
  * The heavy-work pool's worker entry (server/utils/heavy-work.ts runs its tasks by name).
  * Built on its own into .output/server/workers/heavy.worker.mjs by scripts/build-workers.mjs.
  * The certificate's PDF code (fonts, layout) is loaded on its first task: the thread starts
- * without it, and the CSV import and the verdict never need it.
+ * without it, and the CSV import and the verdicts never need it.
  */
 import type { CertificateTask } from './certificate'
 
 export { readingImport } from './reading-import'
 export { readingsExport } from './readings-export'
+export { signOffEvaluation } from './sign-off-evaluation'
 export { tankVerdict } from './tank-verdict'
 
 export async function certificatePdf(task: CertificateTask): Promise<Uint8Array> {

@@ -13,7 +13,8 @@ import { preparedPerDb } from '#server/db/prepared'
 import { events, planStages, signOffs, tanks, users } from '#server/db/schema'
 import { recordAudit } from '#server/domain/audit/record'
 import { changeTankStatus } from '#server/domain/tanks/status'
-import { currentApprovedSignOff, evaluateNow, maySignOff, newVerificationCode, pendingRequest, selfApprovalAllowed, unresolvedAlertCount, type SignOffActor, type SignOffRow, type TankRow } from './records'
+import { currentApprovedSignOff, maySignOff, newVerificationCode, pendingRequest, selfApprovalAllowed, unresolvedAlertCount, type SignOffActor, type SignOffRow, type TankRow } from './records'
+import { assertEvaluationCurrent, type SignOffEvaluation } from './evaluation'
 import { conflict, SignOffRefused } from './refusal'
 import { captureSignedFacts } from './signed-record'
 
@@ -21,24 +22,35 @@ import { captureSignedFacts } from './signed-record'
 const REASON_MIN_LENGTH = 3
 
 /**
- * Asks for sign-off of a cycle the engine judges complete; the tank becomes 'cycled'.
- * `mayManage`: whether the actor may change this tank (server/utils/access.ts decides).
+ * What must hold before a sign-off may be asked for, checked before the engine runs (the glue
+ * evaluates only a request that may go ahead) and again by the command.
  */
-export function requestSignOff(db: Db, actor: SignOffActor, tank: TankRow, note: string, mayManage: boolean, now = new Date()): SignOffRow {
+export function checkSignOffRequest(db: Db, tank: TankRow, mayManage: boolean): void {
   if (!mayManage) throw new SignOffRefused(403, 'Only the company\'s aquarists and admins may ask for sign-off')
   if (tank.status !== 'cycling' && tank.status !== 'cycled') conflict(`A tank that is ${tank.status} cannot be put up for sign-off`)
   if (pendingRequest(db, tank.id)) conflict('A sign-off request is already waiting for the supervisor')
-  const { verdict } = evaluateNow(db, tank.id, now)
-  if (verdict.phase !== 'complete') conflict('The engine does not judge this cycle complete yet; keep testing until it does')
-  const at = now.toISOString()
+}
+
+/**
+ * Asks for sign-off of a cycle the engine judges complete; the tank becomes 'cycled'.
+ * `mayManage`: whether the actor may change this tank (server/utils/access.ts decides).
+ * `evaluation`: the tank evaluated as of the request (evaluation.ts); refused (EvaluationOutdated)
+ * when the tank's data changed after it was made.
+ */
+export function requestSignOff(db: Db, actor: SignOffActor, tank: TankRow, note: string, mayManage: boolean, evaluation: SignOffEvaluation): SignOffRow {
+  checkSignOffRequest(db, tank, mayManage)
+  if (evaluation.verdict.phase !== 'complete') conflict('The engine does not judge this cycle complete yet; keep testing until it does')
+  const at = evaluation.input.now
+  // Immediate: it reads the tank's data revision, then writes; no other connection writes in between.
   return db.transaction((tx) => {
+    assertEvaluationCurrent(tx, tank.id, evaluation)
     const row = tx.insert(signOffs).values({
       organisationId: tank.organisationId, tankId: tank.id, requestedBy: actor.id, requestedAt: at, requestNote: note || null, status: 'requested',
     }).returning().get()
     changeTankStatus(tx, { tankId: tank.id, trigger: 'sign-off-requested', actor })
     recordAudit(tx, actor, { action: 'sign-off.request', entity: 'sign_off', entityId: row.id, before: { tankStatus: tank.status }, after: { tankId: tank.id, note: row.requestNote, tankStatus: 'cycled' } })
     return row
-  })
+  }, { behavior: 'immediate' })
 }
 
 export interface DecisionResult {
@@ -54,15 +66,26 @@ function checkSelfApproval(db: Db, actor: SignOffActor, tank: TankRow, request: 
 }
 
 /**
- * Approves or returns the waiting request. The engine input and verdict at this moment are
- * stored with the decision; approving against the verdict needs a written reason (400).
+ * What must hold before a decision may be made, checked before the engine runs (the glue
+ * evaluates only a decision that may go ahead) and again by the command: the waiting request.
  */
-export function decideSignOff(db: Db, actor: SignOffActor, tank: TankRow, decision: 'approve' | 'return', note: string, now = new Date()): DecisionResult {
+export function checkSignOffDecision(db: Db, actor: SignOffActor, tank: TankRow, decision: 'approve' | 'return', note: string): SignOffRow {
   if (!maySignOff(actor, tank)) throw new SignOffRefused(403, 'Only this tank\'s supervisor or an admin may decide')
   const request = pendingRequest(db, tank.id)
   if (!request) conflict('No sign-off request is waiting for this tank')
   if (decision === 'approve') checkSelfApproval(db, actor, tank, request, note)
-  const { input, verdict } = evaluateNow(db, tank.id, now)
+  return request
+}
+
+/**
+ * Approves or returns the waiting request. The engine input and verdict of `evaluation` (the tank
+ * evaluated as of the decision, evaluation.ts) are stored with it; approving against the verdict
+ * needs a written reason (400). Refused (EvaluationOutdated) when the tank's data changed after
+ * the evaluation was made: a decision never rests on a verdict that leaves out a test.
+ */
+export function decideSignOff(db: Db, actor: SignOffActor, tank: TankRow, decision: 'approve' | 'return', note: string, evaluation: SignOffEvaluation): DecisionResult {
+  const request = checkSignOffDecision(db, actor, tank, decision, note)
+  const { input, verdict } = evaluation
   const unresolvedAlerts = unresolvedAlertCount(db, tank.id)
   const grounds = overrideGrounds(verdict, unresolvedAlerts)
   const override = decision === 'approve' && grounds.length > 0
@@ -72,9 +95,11 @@ export function decideSignOff(db: Db, actor: SignOffActor, tank: TankRow, decisi
   // The tank's own lighting acclimation, kept with the decision so the plan stays as signed.
   const acclimation = acclimationSettingsOf(db.select({ key: planStages.key, data: planStages.data }).from(planStages).where(eq(planStages.tankId, tank.id)).all())
   const snapshot: SignOffSnapshot = { facts, input, verdict, overrideGrounds: decision === 'approve' ? grounds : [], unresolvedAlerts, acclimation }
-  const at = now.toISOString()
+  const at = input.now
   const code = decision === 'approve' ? newVerificationCode() : null
+  // Immediate: it reads the tank's data revision, then writes; no other connection writes in between.
   const row = db.transaction((tx) => {
+    assertEvaluationCurrent(tx, tank.id, evaluation)
     const updated = tx.update(signOffs).set({
       status: decision === 'approve' ? 'approved' : 'returned',
       decidedBy: actor.id,
@@ -95,7 +120,7 @@ export function decideSignOff(db: Db, actor: SignOffActor, tank: TankRow, decisi
       after: { status: updated.status, tankStatus: moved.status, note: updated.decisionNote, override, overrideGrounds: snapshot.overrideGrounds, phase: verdict.phase, ruleSetVersion: verdict.ruleSetVersion },
     })
     return updated
-  })
+  }, { behavior: 'immediate' })
   return { signOff: row, verificationCode: code }
 }
 

@@ -1,7 +1,6 @@
 /**
  * Sign-off rows and what every command reads about them, framework-free: the history, the
- * waiting request, the current approval, who may decide, the engine's verdict as of now,
- * and the records shaped for the API.
+ * waiting request, the current approval, who may decide, and the records shaped for the API.
  */
 import { randomBytes } from 'node:crypto'
 import { and, desc, eq, ne, sql } from 'drizzle-orm'
@@ -12,8 +11,6 @@ import { preparedPerDb } from '#server/db/prepared'
 import type { tanks } from '#server/db/schema'
 import { alerts, signOffs, users } from '#server/db/schema'
 import { readOrganisationSettings } from '#server/db/settings'
-import { verdictWithInput } from '#server/db/verdicts'
-import { SignOffRefused } from './refusal'
 
 export type TankRow = typeof tanks.$inferSelect
 export type SignOffRow = typeof signOffs.$inferSelect
@@ -101,13 +98,6 @@ export function currentApprovedSignOff(db: Db, tankId: string): SignOffRow | und
 export function unresolvedAlertCount(db: Db, tankId: string): number {
   return db.select({ n: sql<number>`count(*)` }).from(alerts)
     .where(and(eq(alerts.tankId, tankId), ne(alerts.status, 'resolved'))).get()?.n ?? 0
-}
-
-/** The engine's verdict for the tank as its data stands at `now`, with the input it was computed from. */
-export function evaluateNow(db: Db, tankId: string, now: Date) {
-  const found = verdictWithInput(db, tankId, now)
-  if (!found) throw new SignOffRefused(404, 'Tank not found')
-  return found
 }
 
 /** The tank's supervisor, or an admin of its organisation. */

@@ -58,7 +58,7 @@ export function stockingPlan(signedAt: string, verdict: Verdict, acclimation?: A
 /**
  * Everything the tank page needs to show and offer about sign-off. `mayManage`: whether
  * the viewer may change this tank (server/utils/access.ts decides). `verdict`: the tank's
- * current stored one (a request or a decision evaluates the tank again, `evaluateNow`).
+ * current stored one (a request or a decision evaluates the tank again, `evaluateForSignOff`).
  */
 export function signOffState(db: Db, viewer: SignOffActor, tank: TankRow, mayManage: boolean, verdict: Verdict): SignOffState {
   const names = organisationUserNames(db, tank.organisationId)

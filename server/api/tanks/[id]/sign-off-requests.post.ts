@@ -4,7 +4,8 @@ import { SignOffRequestSchema } from '#shared/schemas/sign-off'
 /**
  * POST /api/tanks/:id/sign-off-requests — an aquarist or admin asks the tank's supervisor
  * to sign off a cycle the engine judges complete; the tank becomes 'cycled'.
- * Returns 201 with the SignOffRecord; 409 when the cycle is not complete or a request waits.
+ * The engine runs in the heavy-work pool for a long history. Returns 201 with the SignOffRecord;
+ * 409 when the cycle is not complete, a request waits, or the tank's tests kept changing while it was checked.
  */
 export default defineEventHandler(async (event) => {
   const actor = await requireActor(event, ['admin', 'aquarist'])
@@ -13,7 +14,7 @@ export default defineEventHandler(async (event) => {
   requireVisibleTank(actor, id)
   const input = await readValidatedBody(event, valid(SignOffRequestSchema))
   const tank = requireVisibleTank(actor, id)
-  const row = requestSignOff(actor, tank, input.note)
+  const row = await requestSignOff(actor, tank, input.note)
   setResponseStatus(event, 201)
   return toSignOffRecord(row, userNames(actor.organisationId))
 })

@@ -5,7 +5,8 @@ import { SignOffDecisionSchema } from '#shared/schemas/sign-off'
  * POST /api/tanks/:id/sign-off/decision — the tank's supervisor (or an admin) approves the
  * waiting request or returns it with a note. Approving against the engine's verdict needs
  * a written reason (400 otherwise) and is stored as an override. The engine input and
- * verdict are stored with the decision. Returns SignOffRecordWithSnapshot.
+ * verdict are stored with the decision (the engine runs in the heavy-work pool for a long history;
+ * 409 when the tank's tests kept changing while it was checked). Returns SignOffRecordWithSnapshot.
  */
 export default defineEventHandler(async (event) => {
   const actor = await requireActor(event, ['admin', 'supervisor'])
@@ -14,6 +15,6 @@ export default defineEventHandler(async (event) => {
   requireVisibleTank(actor, id)
   const input = await readValidatedBody(event, valid(SignOffDecisionSchema))
   const tank = requireVisibleTank(actor, id)
-  const { signOff } = decideSignOff(actor, tank, input.decision, input.note)
+  const { signOff } = await decideSignOff(actor, tank, input.decision, input.note)
   return toSignOffRecordWithSnapshot(signOff, userNames(actor.organisationId))
 })

@@ -13,7 +13,7 @@ import { auditLog, signOffs, tanks } from '../../../../../server/db/schema'
 import { seedDemo, type DemoIds } from '../../../../../server/db/seed/demo'
 import { decideSignOff, reopenSignOff, requestSignOff } from '../../../../../server/domain/sign-off/commands'
 import { entryLockRefusal, lockedUntil } from '../../../../../server/domain/sign-off/lock'
-import { evaluateNow } from '../../../../../server/domain/sign-off/records'
+import { evaluateForSignOff } from '../../../../../server/domain/sign-off/evaluation'
 import { SignOffRefused } from '../../../../../server/domain/sign-off/refusal'
 import { signOffState } from '../../../../../server/domain/sign-off/state'
 
@@ -34,6 +34,8 @@ afterAll(() => {
 
 const person = (key: keyof DemoIds['users'], role: 'admin' | 'aquarist' | 'supervisor') => ({ id: demo.users[key], organisationId: demo.organisationId, role })
 const tankRow = (id: string) => db.select().from(tanks).where(eq(tanks.id, id)).get()!
+/** The tank evaluated as of `now`, as the glue hands it to a command. */
+const evaluated = (id: string) => evaluateForSignOff(db, id, now)!
 
 /** The refusal a command throws, or a failure if it throws something else or nothing. */
 function refusalOf(run: () => unknown): SignOffRefused {
@@ -50,18 +52,18 @@ function refusalOf(run: () => unknown): SignOffRefused {
 describe('sign-off commands on a Db', () => {
   it('refuses a request from someone who may not manage the tank (403) and a second request while one waits (409)', () => {
     const nano = tankRow(demo.tanks.nano)
-    expect(refusalOf(() => requestSignOff(db, person('supervisor', 'supervisor'), nano, '', false, now)).status).toBe(403)
-    expect(refusalOf(() => requestSignOff(db, person('aquarist', 'aquarist'), nano, '', true, now))).toMatchObject({ status: 409, message: expect.stringContaining('already waiting') })
+    expect(refusalOf(() => requestSignOff(db, person('supervisor', 'supervisor'), nano, '', false, evaluated(nano.id))).status).toBe(403)
+    expect(refusalOf(() => requestSignOff(db, person('aquarist', 'aquarist'), nano, '', true, evaluated(nano.id)))).toMatchObject({ status: 409, message: expect.stringContaining('already waiting') })
   })
 
   it('refuses a decision by an aquarist (403) and reopening with nothing approved (409)', () => {
     const nano = tankRow(demo.tanks.nano)
-    expect(refusalOf(() => decideSignOff(db, person('aquarist', 'aquarist'), nano, 'approve', '', now)).status).toBe(403)
+    expect(refusalOf(() => decideSignOff(db, person('aquarist', 'aquarist'), nano, 'approve', '', evaluated(nano.id))).status).toBe(403)
     expect(refusalOf(() => reopenSignOff(db, person('supervisor', 'supervisor'), nano, 'Check again', now)).status).toBe(409)
   })
 
   it('approves the waiting request with a code, signs the tank off and locks its record, audit rows included', () => {
-    const decided = decideSignOff(db, person('supervisor', 'supervisor'), tankRow(demo.tanks.nano), 'approve', 'Cycle proven.', now)
+    const decided = decideSignOff(db, person('supervisor', 'supervisor'), tankRow(demo.tanks.nano), 'approve', 'Cycle proven.', evaluated(demo.tanks.nano))
     expect(decided.verificationCode).toMatch(/^TW-(?:[0-9A-Z]{4}-){5}[0-9A-Z]{4}$/)
     expect(decided.signOff).toMatchObject({ status: 'approved', decidedBy: demo.users.supervisor, override: false })
     expect(tankRow(demo.tanks.nano).status).toBe('signed-off')
@@ -70,7 +72,7 @@ describe('sign-off commands on a Db', () => {
     expect(lockedUntil(db, demo.tanks.nano)).toBe(decided.signOff.decidedAt)
     expect(entryLockRefusal(db, demo.tanks.nano, new Date(now.getTime() - 60_000))?.message).toMatch(/signed off on/)
     expect(entryLockRefusal(db, demo.tanks.nano, new Date(now.getTime() + 60_000))).toBeNull()
-    const state = signOffState(db, person('supervisor', 'supervisor'), tankRow(demo.tanks.nano), false, evaluateNow(db, demo.tanks.nano, now).verdict)
+    const state = signOffState(db, person('supervisor', 'supervisor'), tankRow(demo.tanks.nano), false, evaluated(demo.tanks.nano).verdict)
     expect(state).toMatchObject({ tankStatus: 'signed-off', canReopen: true, canDecide: false, hasCertificate: true })
   })
 

@@ -1,0 +1,51 @@
+/**
+ * The engine's judgement a sign-off request or decision rests on, and the check, inside the
+ * command's write transaction, that it still speaks for the tank's data. Made on the request loop
+ * for an ordinary tank and in the heavy-work pool for a long history (server/workers/sign-off-evaluation.ts),
+ * by the same function. Framework-free: takes a `Db`.
+ */
+import type { CycleInput, Verdict } from '#shared/cycle/types'
+import type { Db } from '#server/db/connection'
+import { verdictWithInput } from '#server/db/verdicts'
+import { tankDataRevisionInDb } from '#server/domain/readings/data-revision'
+import { SignOffRefused } from './refusal'
+
+/** What a sign-off command decides on and records. */
+export interface SignOffEvaluation {
+  /** The engine input as the database held it, read anew; `input.now` is the moment the request or decision is made at. */
+  input: CycleInput
+  /** The verdict made from that very input. */
+  verdict: Verdict
+  /** The tank's data revision (server/domain/readings/data-revision.ts), read before the rows were. */
+  revision: number
+}
+
+/**
+ * The tank's engine input as of `now`, read anew, its verdict, and the data revision it is at;
+ * undefined if there is no such tank. The revision is read first: a change landing while the rows
+ * are read moves the count past it, so the evaluation is judged out of date, never a newer one
+ * taken for complete.
+ */
+export function evaluateForSignOff(db: Db, tankId: string, now: Date): SignOffEvaluation | undefined {
+  const revision = tankDataRevisionInDb(db, tankId)
+  const found = verdictWithInput(db, tankId, now)
+  return found && { ...found, revision }
+}
+
+/** Refused when the tank's tests or events changed after the evaluation the command was given was made. */
+export class EvaluationOutdated extends SignOffRefused {
+  constructor() {
+    super(409, 'The tank\'s tests changed while the sign-off was being checked. Try again.')
+    this.name = 'EvaluationOutdated'
+  }
+}
+
+/**
+ * Called inside the command's write transaction: refuses (EvaluationOutdated) when a test, a
+ * correction or an event landed on the tank after the evaluation was made, so no request and no
+ * decision is stored on a verdict that leaves it out (a danger test saved while a supervisor's
+ * approval was being checked).
+ */
+export function assertEvaluationCurrent(db: Db, tankId: string, evaluation: SignOffEvaluation): void {
+  if (tankDataRevisionInDb(db, tankId) !== evaluation.revision) throw new EvaluationOutdated()
+}

@@ -1,0 +1,20 @@
+/**
+ * The evaluation a sign-off request or decision rests on, made in a worker thread for a tank
+ * with a long history: the tank's whole history read anew and the engine run over it take long
+ * enough (about a second for 100,000 tests) that on the request loop they would hold up every
+ * other company. Calls the same framework-free piece the loop does (evaluateForSignOff), on this
+ * thread's own connection: the revision it reads is the database's, counted on every connection.
+ */
+import { evaluateForSignOff, type SignOffEvaluation } from '#server/domain/sign-off/evaluation'
+import { workerConnection } from './connection'
+
+export interface SignOffEvaluationTask {
+  dbPath: string
+  tankId: string
+  nowMs: number
+}
+
+/** The tank's input, verdict and data revision as of the task's moment, or null when there is no such tank. */
+export function signOffEvaluation(task: SignOffEvaluationTask): SignOffEvaluation | null {
+  return evaluateForSignOff(workerConnection(task.dbPath), task.tankId, new Date(task.nowMs)) ?? null
+}

@@ -1,0 +1,137 @@
+/**
+ * A sign-off request or decision is made on an evaluation made before it (in the heavy-work pool
+ * for a long history, while the request loop serves others): the command stores it only if the
+ * tank's data revision is still the one the evaluation was made at, checked inside its write
+ * transaction. On a real migrated SQLite file with the demo company; the demo nano waits for a
+ * decision and its cycle is complete.
+ */
+import { and, eq } from 'drizzle-orm'
+import { describe, expect, it } from 'vitest'
+import { evaluateCycle } from '../../../../../shared/cycle/engine'
+import type { SignOffSnapshot } from '../../../../../shared/types/sign-off'
+import { auditLog, readings, signOffs, tanks } from '../../../../../server/db/schema'
+import { decideSignOff, requestSignOff } from '../../../../../server/domain/sign-off/commands'
+import { EvaluationOutdated, evaluateForSignOff, type SignOffEvaluation } from '../../../../../server/domain/sign-off/evaluation'
+import { tankDataRevisionInDb } from '../../../../../server/domain/readings/data-revision'
+import { SignOffRefused } from '../../../../../server/domain/sign-off/refusal'
+import { seededDatabase } from '../../../../support/seeded-database'
+
+const { db, demo } = await seededDatabase('sign-off-evaluation')
+const nano = demo.tanks.nano
+const supervisor = { id: demo.users.supervisor, organisationId: demo.organisationId, role: 'supervisor' as const }
+const aquarist = { id: demo.users.aquarist, organisationId: demo.organisationId, role: 'aquarist' as const }
+const tankRow = () => db.select().from(tanks).where(eq(tanks.id, nano)).get()!
+const signOffRows = () => db.select().from(signOffs).where(eq(signOffs.tankId, nano)).all()
+const auditCount = () => db.select().from(auditLog).all().length
+
+/** The refusal a command throws, or a failure if it throws something else or nothing. */
+function refusalOf(run: () => unknown): SignOffRefused {
+  try {
+    run()
+  }
+  catch (error) {
+    if (error instanceof SignOffRefused) return error
+    throw error
+  }
+  throw new Error('the command was not refused')
+}
+
+/** The evaluation as of a moment, made as the glue makes it. */
+function evaluation(now = new Date()): SignOffEvaluation {
+  const made = evaluateForSignOff(db, nano, now)
+  if (!made) throw new Error('no such tank')
+  return made
+}
+
+/** A change to one of the tank's tests that the engine does not read: only the tank's data revision moves. */
+function touchATest(): void {
+  const test = db.select({ id: readings.id }).from(readings).where(eq(readings.tankId, nano)).get()!
+  db.update(readings).set({ notes: `looked at ${Date.now()}` }).where(eq(readings.id, test.id)).run()
+}
+
+/** Nothing of the refused command was written: the rows, the tank's status and the audit log are as they were. */
+function expectUnchanged(before: { rows: unknown, status: string, audit: number }): void {
+  expect(signOffRows()).toEqual(before.rows)
+  expect(tankRow().status).toBe(before.status)
+  expect(auditCount()).toBe(before.audit)
+}
+const stateNow = () => ({ rows: signOffRows(), status: tankRow().status, audit: auditCount() })
+
+describe('a sign-off command given an evaluation made before the tank\'s data changed', () => {
+  it('reads the revision with the input: the revision is the tank\'s current one', () => {
+    const made = evaluation()
+    expect(made.revision).toBe(tankDataRevisionInDb(db, nano))
+    expect(made.revision).toBeGreaterThan(0)
+    expect(made.verdict).toEqual(evaluateCycle(made.input))
+  })
+
+  it('refuses a decision on an out-of-date evaluation (409) and stores nothing', () => {
+    const before = stateNow()
+    const made = evaluation()
+    touchATest()
+    const refused = refusalOf(() => decideSignOff(db, supervisor, tankRow(), 'approve', 'Cycle proven.', made))
+    expect(refused).toBeInstanceOf(EvaluationOutdated)
+    expect(refused).toMatchObject({ status: 409, message: 'The tank\'s tests changed while the sign-off was being checked. Try again.' })
+    expectUnchanged(before)
+    expect(signOffRows().filter(r => r.status === 'approved')).toEqual([])
+    expect(tankRow().status).toBe('cycled')
+  })
+
+  it('never approves without a worrying test saved while the approval was being checked', () => {
+    const made = evaluation()
+    expect(made.verdict.phase).toBe('complete')
+    // Ammonia back at 2 mg/L: the cycle is no longer complete.
+    const worrying = db.insert(readings).values({ tankId: nano, takenAt: new Date(Date.now() - 10 * 60_000).toISOString(), ammoniaN: 2, nitriteN: 0, nitrateN: 10, pH: 8.1, temperatureC: 25.5, salinity: 35 }).returning().get()
+    const before = stateNow()
+    expect(refusalOf(() => decideSignOff(db, supervisor, tankRow(), 'approve', 'Cycle proven.', made))).toBeInstanceOf(EvaluationOutdated)
+    expectUnchanged(before)
+
+    // Made again, the verdict holds the test: approving now goes against the engine and needs a written reason.
+    const again = evaluation()
+    expect(again.input.readings.map(r => r.id)).toContain(worrying.id)
+    expect(again.verdict.phase).not.toBe('complete')
+    expect(refusalOf(() => decideSignOff(db, supervisor, tankRow(), 'approve', '', again))).toMatchObject({ status: 400, details: { field: 'note' } })
+    expectUnchanged(before)
+    // The test is removed: the tank's rows are as the first evaluation saw them, but its revision has moved on.
+    db.delete(readings).where(eq(readings.id, worrying.id)).run()
+    expect(refusalOf(() => decideSignOff(db, supervisor, tankRow(), 'approve', 'Cycle proven.', made))).toBeInstanceOf(EvaluationOutdated)
+    expectUnchanged(before)
+  })
+
+  it('stores a decision on the current evaluation exactly as before: its input and verdict, which re-run alike', () => {
+    const made = evaluation()
+    const { signOff } = decideSignOff(db, supervisor, tankRow(), 'return', 'The leak test photo is missing.', made)
+    expect(signOff).toMatchObject({ status: 'returned', decidedBy: supervisor.id, decidedAt: made.input.now, ruleSetVersion: made.verdict.ruleSetVersion })
+    const stored = db.select().from(signOffs).where(eq(signOffs.id, signOff.id)).get()!
+    const snapshot = stored.snapshot as SignOffSnapshot
+    expect(snapshot.input).toEqual(JSON.parse(JSON.stringify(made.input)))
+    expect(snapshot.verdict).toEqual(JSON.parse(JSON.stringify(made.verdict)))
+    expect(snapshot.input.now).toBe(stored.decidedAt)
+    expect(evaluateCycle(snapshot.input)).toEqual(snapshot.verdict)
+    expect(tankRow().status).toBe('cycling')
+    expect(db.select({ action: auditLog.action }).from(auditLog).where(eq(auditLog.entityId, signOff.id)).all().map(a => a.action)).toEqual(['sign-off.return'])
+  })
+
+  it('refuses a request on an out-of-date evaluation (409) and stores nothing; on the current one it is stored', () => {
+    const before = stateNow()
+    const made = evaluation()
+    expect(made.verdict.phase).toBe('complete')
+    touchATest()
+    expect(refusalOf(() => requestSignOff(db, aquarist, tankRow(), 'Zero for a week', true, made))).toBeInstanceOf(EvaluationOutdated)
+    expectUnchanged(before)
+    expect(signOffRows().filter(r => r.status === 'requested')).toEqual([])
+
+    const current = evaluation()
+    const row = requestSignOff(db, aquarist, tankRow(), 'Zero for a week', true, current)
+    expect(row).toMatchObject({ status: 'requested', requestedAt: current.input.now, requestNote: 'Zero for a week' })
+    expect(tankRow().status).toBe('cycled')
+    expect(db.select().from(signOffs).where(and(eq(signOffs.tankId, nano), eq(signOffs.status, 'requested'))).all()).toHaveLength(1)
+  })
+
+  it('keeps the refusals that come before the evaluation first: a second request while one waits is 409 whatever the revision', () => {
+    const made = evaluation()
+    touchATest()
+    expect(refusalOf(() => requestSignOff(db, aquarist, tankRow(), '', true, made))).toMatchObject({ status: 409, message: expect.stringContaining('already waiting') })
+    expect(refusalOf(() => decideSignOff(db, aquarist, tankRow(), 'approve', '', made)).status).toBe(403)
+  })
+})
