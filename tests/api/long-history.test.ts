@@ -9,10 +9,14 @@
  * that there are older ones.
  */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import { evaluateCycle } from '../../shared/cycle/engine'
+import { openDatabase } from '../../server/db/connection'
 import { LONG_HISTORY_TESTS } from '../../server/domain/tanks/long-history'
 import { CHART_MAX_TESTS } from '../../shared/readings/limits'
 import type { ChartData, ReadingList } from '../../shared/types/readings'
+import type { SignOffRecordWithSnapshot } from '../../shared/types/sign-off'
 import { ApiClient } from '../support/http'
+import { copyTank } from '../support/sign-off-tanks'
 import { startOwnServer, type OwnServer } from '../support/own-server'
 
 let own: OwnServer
@@ -27,16 +31,24 @@ afterAll(async () => {
 
 const HALF_HOUR = 1_800_000
 
+/** The values of an ordinary test (ammonia, nitrite, nitrate, pH, temperature, salinity), by its place in the file. */
+const ordinaryTest = (i: number) => `0.5,0.2,${2 + (i % 10) / 10},8.1,25,35`
+
+/** `count` tests, half an hour apart, ending `hoursAgo` hours ago, imported into the tank through the CSV import. */
+async function importHistory(tank: string, count: number, hoursAgo: number, values = ordinaryTest): Promise<void> {
+  const end = Math.floor((Date.now() - hoursAgo * 3_600_000) / HALF_HOUR) * HALF_HOUR
+  const rows = Array.from({ length: count }, (_, i) => `${new Date(end - (count - 1 - i) * HALF_HOUR).toISOString()},${values(i)}`)
+  const imported = await api.post(`/api/tanks/${tank}/readings/import`, { csv: `takenAt,ammonia,nitrite,nitrate,pH,temperature,salinity\n${rows.join('\n')}`, dryRun: false, basis: { ammonia: 'N', nitrite: 'N', nitrate: 'N' }, temperatureUnit: 'C', salinityMode: 'practical' })
+  expect(imported.status, JSON.stringify(imported.body).slice(0, 300)).toBe(200)
+  expect(imported.body.inserted).toBe(count)
+}
+
 /** A tank holding `count` ordinary tests, half an hour apart, ending `hoursAgo` hours ago (through the CSV import). */
 async function tankWithHistory(name: string, count: number, hoursAgo = 2): Promise<string> {
   const created = await api.post('/api/tanks', { name, clientId: own.fixtures.demo.clients.lowe, shape: 'rectangular', dimensions: { lengthMm: 900, widthMm: 450, heightMm: 450 } })
   expect(created.status).toBe(201)
   const tank = created.body.id as string
-  const end = Math.floor((Date.now() - hoursAgo * 3_600_000) / HALF_HOUR) * HALF_HOUR
-  const rows = Array.from({ length: count }, (_, i) => `${new Date(end - (count - 1 - i) * HALF_HOUR).toISOString()},0.5,0.2,${2 + (i % 10) / 10},8.1,25,35`)
-  const imported = await api.post(`/api/tanks/${tank}/readings/import`, { csv: `takenAt,ammonia,nitrite,nitrate,pH,temperature,salinity\n${rows.join('\n')}`, dryRun: false, basis: { ammonia: 'N', nitrite: 'N', nitrate: 'N' }, temperatureUnit: 'C', salinityMode: 'practical' })
-  expect(imported.status, JSON.stringify(imported.body).slice(0, 300)).toBe(200)
-  expect(imported.body.inserted).toBe(count)
+  await importHistory(tank, count, hoursAgo)
   return tank
 }
 
@@ -127,5 +139,72 @@ describe('the chart of a tank with more tests than one chart draws', { timeout: 
     const whole = await api.get<ChartData>(`/api/tanks/${short}/chart`)
     expect(whole.body.t).toHaveLength(30)
     expect(whole.body.tests).toEqual({ shown: 30, older: false })
+  })
+})
+
+describe('a sign-off on a tank with a long history', { timeout: 180_000 }, () => {
+  /**
+   * A copy of the demo nano (its cycle complete, the engine says) with LONG_HISTORY_TESTS + 1 older
+   * tests at zero imported before its cycle began: the engine still judges it complete, and its
+   * request and decision are evaluated in the heavy-work pool.
+   */
+  async function longCompleteTank(name: string): Promise<string> {
+    const db = openDatabase(own.dbPath)
+    try {
+      const tank = copyTank(db, own.fixtures.demo.tanks.nano, name, { status: 'cycling' })
+      const startedDaysAgo = (Date.now() - Date.parse(db.$client.prepare('select cycle_started_at from tanks where id = ?').pluck().get(tank) as string)) / 86_400_000
+      await importHistory(tank, LONG_HISTORY_TESTS + 1, Math.ceil(startedDaysAgo + 2) * 24, () => '0,0,0.5,8.1,25,35')
+      return tank
+    }
+    finally {
+      db.$client.close()
+    }
+  }
+  const asked = (tank: string) => api.post(`/api/tanks/${tank}/sign-off-requests`, { note: 'Imported log and the cycle since.' })
+
+  it('asks and approves end to end; the snapshot holds every test and re-runs to its verdict', async () => {
+    const tank = await longCompleteTank('Long signed reef')
+    const request = await asked(tank)
+    expect(request.status, JSON.stringify(request.body).slice(0, 300)).toBe(201)
+    expect(request.body.status).toBe('requested')
+    const supervisor = await new ApiClient(own.server.baseURL).signIn('supervisor@tidewright.test')
+    const { status, body } = await supervisor.post<SignOffRecordWithSnapshot>(`/api/tanks/${tank}/sign-off/decision`, { decision: 'approve' })
+    expect(status, JSON.stringify(body).slice(0, 300)).toBe(200)
+    expect(body).toMatchObject({ status: 'approved', override: false })
+    const snapshot = body.snapshot!
+    expect(snapshot.verdict.phase).toBe('complete')
+    expect(snapshot.input.now).toBe(body.decidedAt)
+    expect(snapshot.input.readings.length).toBeGreaterThan(LONG_HISTORY_TESTS)
+    expect(evaluateCycle(snapshot.input)).toEqual(snapshot.verdict)
+  })
+
+  it('answers a decision with a test saved meanwhile either with a verdict that holds the test, or a 409; never an approval without it', async () => {
+    const tank = await longCompleteTank('Long contested reef')
+    expect((await asked(tank)).status).toBe(201)
+    const supervisor = await new ApiClient(own.server.baseURL).signIn('supervisor@tidewright.test')
+    // Sent together: ammonia back at 2 mg/L undoes the cycle; the written reason lets an approval against the engine through.
+    const [decision, save] = await Promise.all([
+      supervisor.post(`/api/tanks/${tank}/sign-off/decision`, { decision: 'approve', note: 'Approved as the evidence stands.' }),
+      api.post(`/api/tanks/${tank}/readings`, { takenAt: new Date(Date.now() - 5 * 60_000).toISOString(), ammonia: 2, nitrite: 0, nitrate: 5, basis: { ammonia: 'N', nitrite: 'N', nitrate: 'N' }, pH: 8.1, temperature: 25, temperatureUnit: 'C', salinity: 35, salinityMode: 'practical' }),
+    ])
+    console.log(`[long-history] decision ${decision.status} (${decision.body.statusMessage ?? decision.body.status}), save ${save.status}`)
+    expect([200, 409]).toContain(decision.status)
+    expect([201, 409]).toContain(save.status)
+    if (decision.status === 200 && save.status === 201) {
+      // The save came first: the approval holds it, and so is against the engine.
+      const snapshot = (decision.body as SignOffRecordWithSnapshot).snapshot!
+      expect(snapshot.input.readings.map(r => r.id)).toContain(save.body.reading.id)
+      expect(snapshot.verdict.phase).not.toBe('complete')
+      expect(decision.body.override).toBe(true)
+      expect(evaluateCycle(snapshot.input)).toEqual(snapshot.verdict)
+    }
+    else if (decision.status === 200) {
+      // The approval came first: the test, dated inside the signed period, is refused.
+      expect(save.body.statusMessage).toMatch(/signed off/)
+    }
+    else {
+      expect(decision.body.statusMessage).toBe('The tank\'s tests changed while the sign-off was being checked. Try again.')
+      expect(save.status).toBe(201)
+    }
   })
 })
