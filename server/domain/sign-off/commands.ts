@@ -4,7 +4,7 @@
  * rows, the tank's status (through changeTankStatus) and its audit row in one transaction,
  * and refuses with SignOffRefused (or TankStatusRefused from the lifecycle).
  */
-import { and, eq, ne, sql } from 'drizzle-orm'
+import { and, eq, getTableColumns, ne, sql } from 'drizzle-orm'
 import { acclimationSettingsOf, overrideGrounds } from '#shared/sign-off/plan'
 import { OVERRIDE_REASON_MESSAGE } from '#shared/schemas/sign-off'
 import type { SignOffSnapshot } from '#shared/types/sign-off'
@@ -52,6 +52,12 @@ export function requestSignOff(db: Db, actor: SignOffActor, tank: TankRow, note:
     return row
   }, { behavior: 'immediate' })
 }
+
+/**
+ * A sign-off's columns but its snapshot: a decision has its snapshot in hand and does not read it
+ * back (for an imported history that is megabytes of JSON parsed again on the request loop).
+ */
+const { snapshot: _snapshot, ...decidedColumns } = getTableColumns(signOffs)
 
 export interface DecisionResult {
   signOff: SignOffRow
@@ -109,7 +115,7 @@ export function decideSignOff(db: Db, actor: SignOffActor, tank: TankRow, decisi
       snapshot,
       ruleSetVersion: verdict.ruleSetVersion,
       verificationCode: code,
-    }).where(and(eq(signOffs.id, request.id), eq(signOffs.status, 'requested'))).returning().get()
+    }).where(and(eq(signOffs.id, request.id), eq(signOffs.status, 'requested'))).returning(decidedColumns).get()
     if (!updated) conflict('This request was decided a moment ago')
     const moved = changeTankStatus(tx, { tankId: tank.id, trigger: decision === 'approve' ? 'sign-off-approved' : 'sign-off-returned', actor })
     recordAudit(tx, actor, {
@@ -119,7 +125,7 @@ export function decideSignOff(db: Db, actor: SignOffActor, tank: TankRow, decisi
       before: { status: 'requested', tankStatus: tank.status },
       after: { status: updated.status, tankStatus: moved.status, note: updated.decisionNote, override, overrideGrounds: snapshot.overrideGrounds, phase: verdict.phase, ruleSetVersion: verdict.ruleSetVersion },
     })
-    return updated
+    return { ...updated, snapshot }
   }, { behavior: 'immediate' })
   return { signOff: row, verificationCode: code }
 }

@@ -108,6 +108,8 @@ describe('a sign-off command given an evaluation made before the tank\'s data ch
     expect(snapshot.verdict).toEqual(JSON.parse(JSON.stringify(made.verdict)))
     expect(snapshot.input.now).toBe(stored.decidedAt)
     expect(evaluateCycle(snapshot.input)).toEqual(snapshot.verdict)
+    // The answer carries the snapshot as stored (the command does not read it back).
+    expect(JSON.parse(JSON.stringify(signOff))).toEqual(JSON.parse(JSON.stringify(stored)))
     expect(tankRow().status).toBe('cycling')
     expect(db.select({ action: auditLog.action }).from(auditLog).where(eq(auditLog.entityId, signOff.id)).all().map(a => a.action)).toEqual(['sign-off.return'])
   })
