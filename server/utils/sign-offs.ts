@@ -4,7 +4,7 @@
  * access.ts, and turns their refusals into HTTP answers. Routes stay thin and call these.
  */
 import { requestSignOff as requestInDb, decideSignOff as decideInDb, reopenSignOff as reopenInDb, advanceToStockingIfLivestock as advanceInDb, checkSignOffDecision, checkSignOffRequest, type DecisionResult } from '#server/domain/sign-off/commands'
-import { EvaluationOutdated, evaluateForSignOff as evaluateInDb, type SignOffEvaluation } from '#server/domain/sign-off/evaluation'
+import { evaluateForSignOff as evaluateInDb, onCurrentEvaluation, type SignOffEvaluation } from '#server/domain/sign-off/evaluation'
 import { organisationUserNames, pendingRequest as pendingInDb, signOffHistory as historyInDb, unresolvedAlertCount as alertCountInDb, type SignOffRow, type TankRow } from '#server/domain/sign-off/records'
 import { SignOffRefused } from '#server/domain/sign-off/refusal'
 import { reviewQueue as reviewQueueInDb, signOffState as stateInDb } from '#server/domain/sign-off/state'
@@ -15,18 +15,33 @@ import { signOffEvaluationOffLoop } from './heavy-work'
 
 export { maySignOff, toSignOffRecord, toSignOffRecordWithSnapshot } from '#server/domain/sign-off/records'
 
+/** Throws a sign-off refusal as its HTTP answer (a refused field: a 400 with that field's message), any other error as it is. */
+function throwAnswered(error: unknown): never {
+  if (error instanceof SignOffRefused) {
+    if (error.details.field) fieldError([{ field: error.details.field, message: error.message }], error.details.data)
+    throw createError({ statusCode: error.status, statusMessage: error.message, data: error.details.data })
+  }
+  if (error instanceof TankStatusRefused) throw tankStatusHttpError(error)
+  throw error
+}
+
 /** Runs a sign-off command or read, answering its refusal as HTTP: a refused field is a 400 with that field's message. */
 export function signOffAnswer<T>(run: () => T): T {
   try {
     return run()
   }
   catch (error) {
-    if (error instanceof SignOffRefused) {
-      if (error.details.field) fieldError([{ field: error.details.field, message: error.message }], error.details.data)
-      throw createError({ statusCode: error.status, statusMessage: error.message, data: error.details.data })
-    }
-    if (error instanceof TankStatusRefused) throw tankStatusHttpError(error)
-    throw error
+    throwAnswered(error)
+  }
+}
+
+/** signOffAnswer for a command that awaits (an evaluation in the heavy-work pool). */
+async function signOffAnswerLater<T>(run: () => Promise<T>): Promise<T> {
+  try {
+    return await run()
+  }
+  catch (error) {
+    throwAnswered(error)
   }
 }
 
@@ -63,36 +78,22 @@ async function evaluateForSignOff(tankId: string, now: Date): Promise<SignOffEva
   return evaluation
 }
 
-/** How many times a sign-off is evaluated before it is refused because the tank's tests keep changing meanwhile. */
-const SIGN_OFF_ATTEMPTS = 3
-
 /**
- * Runs a sign-off command on an evaluation of the tank made just before it. `check`: the command's
- * own refusals that need no engine, answered before any evaluation is made. A command refused
- * because a test, correction or event landed while the evaluation was made (EvaluationOutdated)
- * is evaluated and run again, at most SIGN_OFF_ATTEMPTS times in all, then answered 409. The tank
- * is read again after each evaluation: its status may have moved meanwhile.
+ * Runs a sign-off command on an evaluation of the tank made just before it, evaluated again when the
+ * tank's tests changed meanwhile (onCurrentEvaluation: three tries, then 409). The tank is read again
+ * before each step: its status may have moved while the evaluation was made.
  */
-async function onCurrentEvaluation<T>(actor: Actor, tankId: string, check: (tank: TankRow) => void, command: (tank: TankRow, evaluation: SignOffEvaluation) => T): Promise<T> {
-  for (let attempt = 1; ; attempt++) {
-    signOffAnswer(() => check(requireVisibleTank(actor, tankId)))
-    const evaluation = await evaluateForSignOff(tankId, new Date())
-    const done = signOffAnswer(() => {
-      try {
-        return { result: command(requireVisibleTank(actor, tankId), evaluation) }
-      }
-      catch (error) {
-        if (error instanceof EvaluationOutdated && attempt < SIGN_OFF_ATTEMPTS) return null
-        throw error
-      }
-    })
-    if (done) return done.result
-  }
+function onEvaluatedTank<T>(actor: Actor, tankId: string, check: (tank: TankRow) => void, command: (tank: TankRow, evaluation: SignOffEvaluation) => T): Promise<T> {
+  return signOffAnswerLater(() => onCurrentEvaluation({
+    check: () => check(requireVisibleTank(actor, tankId)),
+    evaluate: () => evaluateForSignOff(tankId, new Date()),
+    command: evaluation => command(requireVisibleTank(actor, tankId), evaluation),
+  }))
 }
 
 /** Asks for sign-off of a cycle the engine judges complete; the tank becomes 'cycled'. */
 export function requestSignOff(actor: Actor, tank: TankRow, note: string): Promise<SignOffRow> {
-  return onCurrentEvaluation(actor, tank.id,
+  return onEvaluatedTank(actor, tank.id,
     current => checkSignOffRequest(useDB(), current, canManageTank(actor, current)),
     (current, evaluation) => requestInDb(useDB(), actor, current, note, canManageTank(actor, current), evaluation))
 }
@@ -104,7 +105,7 @@ export function reviewQueue(actor: Actor, now = new Date()) {
 
 /** Approves or returns the waiting request, with the verdict snapshot. */
 export function decideSignOff(actor: Actor, tank: TankRow, decision: 'approve' | 'return', note: string): Promise<DecisionResult> {
-  return onCurrentEvaluation(actor, tank.id,
+  return onEvaluatedTank(actor, tank.id,
     current => checkSignOffDecision(useDB(), actor, current, decision, note),
     (current, evaluation) => decideInDb(useDB(), actor, current, decision, note, evaluation))
 }

@@ -1,6 +1,7 @@
 /**
- * The engine's judgement a sign-off request or decision rests on, and the check, inside the
- * command's write transaction, that it still speaks for the tank's data. Made on the request loop
+ * The engine's judgement a sign-off request or decision rests on, the check, inside the command's
+ * write transaction, that it still speaks for the tank's data, and the loop that evaluates again
+ * when it does not (onCurrentEvaluation). Made on the request loop
  * for an ordinary tank and in the heavy-work pool for a long history (server/workers/sign-off-evaluation.ts),
  * by the same function. Framework-free: takes a `Db`.
  */
@@ -48,4 +49,35 @@ export class EvaluationOutdated extends SignOffRefused {
  */
 export function assertEvaluationCurrent(db: Db, tankId: string, evaluation: SignOffEvaluation): void {
   if (tankDataRevisionInDb(db, tankId) !== evaluation.revision) throw new EvaluationOutdated()
+}
+
+/** How many times a sign-off is evaluated before it is refused because the tank's tests keep changing meanwhile. */
+export const SIGN_OFF_ATTEMPTS = 3
+
+/** The steps of a sign-off command run on an evaluation made just before it. */
+export interface EvaluatedCommand<T> {
+  /** The command's refusals that need no engine: answered before any evaluation is made. */
+  check: () => void
+  /** Makes the evaluation (the caller decides where: the pool for a long history). */
+  evaluate: () => Promise<SignOffEvaluation>
+  /** The command itself, which refuses (EvaluationOutdated) when the tank's data moved past the evaluation. */
+  command: (evaluation: SignOffEvaluation) => T
+}
+
+/**
+ * Runs a sign-off command on an evaluation of the tank made just before it. Refused because a test,
+ * correction or event landed while the evaluation was made, it is checked, evaluated and run again,
+ * SIGN_OFF_ATTEMPTS times in all; then the refusal (409) stands.
+ */
+export async function onCurrentEvaluation<T>({ check, evaluate, command }: EvaluatedCommand<T>): Promise<T> {
+  for (let attempt = 1; ; attempt++) {
+    check()
+    const evaluation = await evaluate()
+    try {
+      return command(evaluation)
+    }
+    catch (error) {
+      if (!(error instanceof EvaluationOutdated) || attempt >= SIGN_OFF_ATTEMPTS) throw error
+    }
+  }
 }

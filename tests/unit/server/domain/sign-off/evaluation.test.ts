@@ -11,7 +11,7 @@ import { evaluateCycle } from '../../../../../shared/cycle/engine'
 import type { SignOffSnapshot } from '../../../../../shared/types/sign-off'
 import { auditLog, readings, signOffs, tanks } from '../../../../../server/db/schema'
 import { decideSignOff, requestSignOff } from '../../../../../server/domain/sign-off/commands'
-import { EvaluationOutdated, evaluateForSignOff, type SignOffEvaluation } from '../../../../../server/domain/sign-off/evaluation'
+import { EvaluationOutdated, evaluateForSignOff, onCurrentEvaluation, SIGN_OFF_ATTEMPTS, type SignOffEvaluation } from '../../../../../server/domain/sign-off/evaluation'
 import { tankDataRevisionInDb } from '../../../../../server/domain/readings/data-revision'
 import { SignOffRefused } from '../../../../../server/domain/sign-off/refusal'
 import { seededDatabase } from '../../../../support/seeded-database'
@@ -135,5 +135,56 @@ describe('a sign-off command given an evaluation made before the tank\'s data ch
     touchATest()
     expect(refusalOf(() => requestSignOff(db, aquarist, tankRow(), '', true, made))).toMatchObject({ status: 409, message: expect.stringContaining('already waiting') })
     expect(refusalOf(() => decideSignOff(db, aquarist, tankRow(), 'approve', '', made)).status).toBe(403)
+  })
+})
+
+describe('a sign-off command whose tank changes while it is evaluated', () => {
+  /** The decision's steps as the glue runs them; the tank's tests change after each of the first `changes` evaluations. */
+  function returnWhileChanging(changes: number) {
+    let evaluations = 0
+    const run = onCurrentEvaluation({
+      check: () => void decideCheck(),
+      evaluate: async () => {
+        const made = evaluation()
+        if (evaluations++ < changes) touchATest()
+        return made
+      },
+      command: made => decideSignOff(db, supervisor, tankRow(), 'return', 'Photos of the sump are missing.', made),
+    })
+    return { run, evaluations: () => evaluations }
+  }
+  /** The decision's own refusals, before any evaluation. */
+  const decideCheck = () => {
+    if (!signOffRows().some(r => r.status === 'requested')) throw new SignOffRefused(409, 'No sign-off request is waiting for this tank')
+  }
+
+  it('is refused (409) after SIGN_OFF_ATTEMPTS evaluations that the tank\'s tests kept overtaking; nothing is stored', async () => {
+    const before = stateNow()
+    const { run, evaluations } = returnWhileChanging(SIGN_OFF_ATTEMPTS)
+    await expect(run).rejects.toBeInstanceOf(EvaluationOutdated)
+    expect(evaluations()).toBe(3)
+    expectUnchanged(before)
+  })
+
+  it('is evaluated again after a change and stored on the evaluation that follows it', async () => {
+    const { run, evaluations } = returnWhileChanging(SIGN_OFF_ATTEMPTS - 1)
+    const { signOff } = await run
+    expect(evaluations()).toBe(3)
+    expect(signOff.status).toBe('returned')
+    const snapshot = db.select().from(signOffs).where(eq(signOffs.id, signOff.id)).get()!.snapshot as SignOffSnapshot
+    expect(snapshot.input).toEqual(JSON.parse(JSON.stringify(evaluation(new Date(snapshot.input.now)).input)))
+  })
+
+  it('answers a refusal that needs no engine before any evaluation', async () => {
+    let evaluated = false
+    await expect(onCurrentEvaluation({
+      check: decideCheck,
+      evaluate: async () => {
+        evaluated = true
+        return evaluation()
+      },
+      command: () => 'stored',
+    })).rejects.toMatchObject({ status: 409, message: 'No sign-off request is waiting for this tank' })
+    expect(evaluated).toBe(false)
   })
 })
