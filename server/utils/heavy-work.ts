@@ -17,7 +17,7 @@ import { fileURLToPath } from 'node:url'
 import { Piscina } from 'piscina'
 import type { TankEvaluation } from '#server/db/verdicts'
 import type { AppendedTest } from '#server/domain/readings/engine-input-cache'
-import type { SignOffEvaluation } from '#server/domain/sign-off/evaluation'
+import type { SignOffEvaluation, SignOffVerdict } from '#server/domain/sign-off/evaluation'
 import type { CertificateFacts } from './certificate'
 import type { CertificateTask } from '#server/workers/certificate'
 import type { ReadingImportResult, ReadingImportTask } from '#server/workers/reading-import'
@@ -81,12 +81,17 @@ export function evaluateOffLoop(tankId: string, now: Date, appended: readonly Ap
 }
 
 /**
- * What a sign-off request or decision rests on, made in the pool: the tank's data revision, then its
- * engine input as of `now` read anew and the verdict made from it (server/domain/sign-off/evaluation.ts);
+ * What a sign-off decision rests on, made in the pool: the tank's data revision, then its engine
+ * input as of `now` read anew and the verdict made from it (server/domain/sign-off/evaluation.ts);
  * null when there is no such tank.
  */
 export function signOffEvaluationOffLoop(tankId: string, now: Date): Promise<SignOffEvaluation | null> {
-  return heavyPool().run({ tankId, nowMs: now.getTime(), dbPath: dbPath() } satisfies SignOffEvaluationTask, { name: 'signOffEvaluation' })
+  return heavyPool().run({ tankId, nowMs: now.getTime(), dbPath: dbPath(), withInput: true } satisfies SignOffEvaluationTask, { name: 'signOffEvaluation' })
+}
+
+/** What a sign-off request rests on, made in the pool: the same without the input, which a request does not record. */
+export function signOffVerdictOffLoop(tankId: string, now: Date): Promise<SignOffVerdict | null> {
+  return heavyPool().run({ tankId, nowMs: now.getTime(), dbPath: dbPath(), withInput: false } satisfies SignOffEvaluationTask, { name: 'signOffEvaluation' })
 }
 
 /** A tank's readings as CSV text (server/domain/readings/export.ts), written in the pool. */

@@ -4,14 +4,14 @@
  * access.ts, and turns their refusals into HTTP answers. Routes stay thin and call these.
  */
 import { requestSignOff as requestInDb, decideSignOff as decideInDb, reopenSignOff as reopenInDb, advanceToStockingIfLivestock as advanceInDb, checkSignOffDecision, checkSignOffRequest, type DecisionResult } from '#server/domain/sign-off/commands'
-import { evaluateForSignOff as evaluateInDb, onCurrentEvaluation, type SignOffEvaluation } from '#server/domain/sign-off/evaluation'
+import { evaluateForSignOff as evaluateInDb, onCurrentEvaluation, type SignOffEvaluation, type SignOffVerdict } from '#server/domain/sign-off/evaluation'
 import { organisationUserNames, pendingRequest as pendingInDb, signOffHistory as historyInDb, unresolvedAlertCount as alertCountInDb, type SignOffRow, type TankRow } from '#server/domain/sign-off/records'
 import { SignOffRefused } from '#server/domain/sign-off/refusal'
 import { reviewQueue as reviewQueueInDb, signOffState as stateInDb } from '#server/domain/sign-off/state'
 import { hasLongHistory } from '#server/domain/tanks/long-history'
 import { TankStatusRefused } from '#server/domain/tanks/status'
 import { canManageTank, requireVisibleTank, visibleTankCondition, type Actor } from './access'
-import { signOffEvaluationOffLoop } from './heavy-work'
+import { signOffEvaluationOffLoop, signOffVerdictOffLoop } from './heavy-work'
 
 export { maySignOff, toSignOffRecord, toSignOffRecordWithSnapshot } from '#server/domain/sign-off/records'
 
@@ -66,34 +66,43 @@ export function unresolvedAlertCount(tankId: string): number {
 }
 
 /**
- * What a sign-off request or decision rests on: the tank's data revision, its engine input as of
- * `now` read anew and the verdict made from it. In the heavy-work pool for a long history
+ * What a sign-off decision rests on: the tank's data revision, its engine input as of `now` read
+ * anew and the verdict made from it. In the heavy-work pool for a long history
  * (LONG_HISTORY_TESTS), so the request loop never runs the engine over an imported log; on the
  * loop, at once, for every other tank. 404 for no such tank.
  */
 async function evaluateForSignOff(tankId: string, now: Date): Promise<SignOffEvaluation> {
   const db = useDB()
-  const evaluation = hasLongHistory(db, tankId) ? await signOffEvaluationOffLoop(tankId, now) : evaluateInDb(db, tankId, now)
+  return found(hasLongHistory(db, tankId) ? await signOffEvaluationOffLoop(tankId, now) : evaluateInDb(db, tankId, now))
+}
+
+/** What a sign-off request rests on: the same, but from the pool without the input (a request records none). */
+async function verdictForSignOff(tankId: string, now: Date): Promise<SignOffVerdict> {
+  const db = useDB()
+  return found(hasLongHistory(db, tankId) ? await signOffVerdictOffLoop(tankId, now) : evaluateInDb(db, tankId, now))
+}
+
+function found<E>(evaluation: E | null | undefined): E {
   if (!evaluation) throw createError({ statusCode: 404, statusMessage: 'Tank not found' })
   return evaluation
 }
 
 /**
- * Runs a sign-off command on an evaluation of the tank made just before it, evaluated again when the
- * tank's tests changed meanwhile (onCurrentEvaluation: three tries, then 409). The tank is read again
- * before each step: its status may have moved while the evaluation was made.
+ * Runs a sign-off command on an evaluation of the tank made just before it (by `evaluate`),
+ * evaluated again when the tank's tests changed meanwhile (onCurrentEvaluation: three tries, then
+ * 409). The tank is read again before each step: its status may have moved while the evaluation was made.
  */
-function onEvaluatedTank<T>(actor: Actor, tankId: string, check: (tank: TankRow) => void, command: (tank: TankRow, evaluation: SignOffEvaluation) => T): Promise<T> {
+function onEvaluatedTank<T, E extends SignOffVerdict>(actor: Actor, tankId: string, evaluate: (tankId: string, now: Date) => Promise<E>, check: (tank: TankRow) => void, command: (tank: TankRow, evaluation: E) => T): Promise<T> {
   return signOffAnswerLater(() => onCurrentEvaluation({
     check: () => check(requireVisibleTank(actor, tankId)),
-    evaluate: () => evaluateForSignOff(tankId, new Date()),
+    evaluate: () => evaluate(tankId, new Date()),
     command: evaluation => command(requireVisibleTank(actor, tankId), evaluation),
   }))
 }
 
 /** Asks for sign-off of a cycle the engine judges complete; the tank becomes 'cycled'. */
 export function requestSignOff(actor: Actor, tank: TankRow, note: string): Promise<SignOffRow> {
-  return onEvaluatedTank(actor, tank.id,
+  return onEvaluatedTank(actor, tank.id, verdictForSignOff,
     current => checkSignOffRequest(useDB(), current, canManageTank(actor, current)),
     (current, evaluation) => requestInDb(useDB(), actor, current, note, canManageTank(actor, current), evaluation))
 }
@@ -105,7 +114,7 @@ export function reviewQueue(actor: Actor, now = new Date()) {
 
 /** Approves or returns the waiting request, with the verdict snapshot. */
 export function decideSignOff(actor: Actor, tank: TankRow, decision: 'approve' | 'return', note: string): Promise<DecisionResult> {
-  return onEvaluatedTank(actor, tank.id,
+  return onEvaluatedTank(actor, tank.id, evaluateForSignOff,
     current => checkSignOffDecision(useDB(), actor, current, decision, note),
     (current, evaluation) => decideInDb(useDB(), actor, current, decision, note, evaluation))
 }

@@ -5,16 +5,20 @@
  * other company. Calls the same framework-free piece the loop does (evaluateForSignOff), on this
  * thread's own connection: the revision it reads is the database's, counted on every connection.
  */
-import { evaluateForSignOff, type SignOffEvaluation } from '#server/domain/sign-off/evaluation'
+import { evaluateForSignOff, withoutInput, type SignOffEvaluation, type SignOffVerdict } from '#server/domain/sign-off/evaluation'
 import { workerConnection } from './connection'
 
 export interface SignOffEvaluationTask {
   dbPath: string
   tankId: string
   nowMs: number
+  /** Whether the input is wanted back (a decision records it; a request does not, and copying a long history between threads holds up the request loop). */
+  withInput: boolean
 }
 
-/** The tank's input, verdict and data revision as of the task's moment, or null when there is no such tank. */
-export function signOffEvaluation(task: SignOffEvaluationTask): SignOffEvaluation | null {
-  return evaluateForSignOff(workerConnection(task.dbPath), task.tankId, new Date(task.nowMs)) ?? null
+/** The tank's verdict, data revision and (when asked) input as of the task's moment, or null when there is no such tank. */
+export function signOffEvaluation(task: SignOffEvaluationTask): SignOffEvaluation | SignOffVerdict | null {
+  const evaluation = evaluateForSignOff(workerConnection(task.dbPath), task.tankId, new Date(task.nowMs))
+  if (!evaluation) return null
+  return task.withInput ? evaluation : withoutInput(evaluation)
 }

@@ -14,7 +14,7 @@ import { events, planStages, signOffs, tanks, users } from '#server/db/schema'
 import { recordAudit } from '#server/domain/audit/record'
 import { changeTankStatus } from '#server/domain/tanks/status'
 import { currentApprovedSignOff, maySignOff, newVerificationCode, pendingRequest, selfApprovalAllowed, unresolvedAlertCount, type SignOffActor, type SignOffRow, type TankRow } from './records'
-import { assertEvaluationCurrent, type SignOffEvaluation } from './evaluation'
+import { assertEvaluationCurrent, type SignOffEvaluation, type SignOffVerdict } from './evaluation'
 import { conflict, SignOffRefused } from './refusal'
 import { captureSignedFacts } from './signed-record'
 
@@ -37,10 +37,10 @@ export function checkSignOffRequest(db: Db, tank: TankRow, mayManage: boolean): 
  * `evaluation`: the tank evaluated as of the request (evaluation.ts); refused (EvaluationOutdated)
  * when the tank's data changed after it was made.
  */
-export function requestSignOff(db: Db, actor: SignOffActor, tank: TankRow, note: string, mayManage: boolean, evaluation: SignOffEvaluation): SignOffRow {
+export function requestSignOff(db: Db, actor: SignOffActor, tank: TankRow, note: string, mayManage: boolean, evaluation: SignOffVerdict): SignOffRow {
   checkSignOffRequest(db, tank, mayManage)
   if (evaluation.verdict.phase !== 'complete') conflict('The engine does not judge this cycle complete yet; keep testing until it does')
-  const at = evaluation.input.now
+  const at = evaluation.now
   // Immediate: it reads the tank's data revision, then writes; no other connection writes in between.
   return db.transaction((tx) => {
     assertEvaluationCurrent(tx, tank.id, evaluation)

@@ -11,14 +11,28 @@ import { verdictWithInput } from '#server/db/verdicts'
 import { tankDataRevisionInDb } from '#server/domain/readings/data-revision'
 import { SignOffRefused } from './refusal'
 
-/** What a sign-off command decides on and records. */
-export interface SignOffEvaluation {
-  /** The engine input as the database held it, read anew; `input.now` is the moment the request or decision is made at. */
-  input: CycleInput
-  /** The verdict made from that very input. */
+/** What a sign-off request rests on: the engine's verdict on the tank as of `now` and the data revision it was made at. */
+export interface SignOffVerdict {
+  /** The moment the request or decision is made at (ISO 8601). */
+  now: string
+  /** The verdict made from the tank's input as the database held it, read anew. */
   verdict: Verdict
   /** The tank's data revision (server/domain/readings/data-revision.ts), read before the rows were. */
   revision: number
+}
+
+/** What a sign-off decision rests on and records: the same, with the engine input the verdict was made from. */
+export interface SignOffEvaluation extends SignOffVerdict {
+  /** `input.now` is `now`. */
+  input: CycleInput
+}
+
+/**
+ * The evaluation without its input, for a request (which records no input): the pool hands back
+ * this much instead of copying a long history over to the request loop.
+ */
+export function withoutInput({ now, verdict, revision }: SignOffVerdict): SignOffVerdict {
+  return { now, verdict, revision }
 }
 
 /**
@@ -30,7 +44,7 @@ export interface SignOffEvaluation {
 export function evaluateForSignOff(db: Db, tankId: string, now: Date): SignOffEvaluation | undefined {
   const revision = tankDataRevisionInDb(db, tankId)
   const found = verdictWithInput(db, tankId, now)
-  return found && { ...found, revision }
+  return found && { ...found, now: found.input.now, revision }
 }
 
 /** Refused when the tank's tests or events changed after the evaluation the command was given was made. */
@@ -47,7 +61,7 @@ export class EvaluationOutdated extends SignOffRefused {
  * decision is stored on a verdict that leaves it out (a danger test saved while a supervisor's
  * approval was being checked).
  */
-export function assertEvaluationCurrent(db: Db, tankId: string, evaluation: SignOffEvaluation): void {
+export function assertEvaluationCurrent(db: Db, tankId: string, evaluation: SignOffVerdict): void {
   if (tankDataRevisionInDb(db, tankId) !== evaluation.revision) throw new EvaluationOutdated()
 }
 
@@ -55,13 +69,13 @@ export function assertEvaluationCurrent(db: Db, tankId: string, evaluation: Sign
 export const SIGN_OFF_ATTEMPTS = 3
 
 /** The steps of a sign-off command run on an evaluation made just before it. */
-export interface EvaluatedCommand<T> {
+export interface EvaluatedCommand<T, E extends SignOffVerdict = SignOffEvaluation> {
   /** The command's refusals that need no engine: answered before any evaluation is made. */
   check: () => void
   /** Makes the evaluation (the caller decides where: the pool for a long history). */
-  evaluate: () => Promise<SignOffEvaluation>
+  evaluate: () => Promise<E>
   /** The command itself, which refuses (EvaluationOutdated) when the tank's data moved past the evaluation. */
-  command: (evaluation: SignOffEvaluation) => T
+  command: (evaluation: E) => T
 }
 
 /**
@@ -69,7 +83,7 @@ export interface EvaluatedCommand<T> {
  * correction or event landed while the evaluation was made, it is checked, evaluated and run again,
  * SIGN_OFF_ATTEMPTS times in all; then the refusal (409) stands.
  */
-export async function onCurrentEvaluation<T>({ check, evaluate, command }: EvaluatedCommand<T>): Promise<T> {
+export async function onCurrentEvaluation<T, E extends SignOffVerdict = SignOffEvaluation>({ check, evaluate, command }: EvaluatedCommand<T, E>): Promise<T> {
   for (let attempt = 1; ; attempt++) {
     check()
     const evaluation = await evaluate()
