@@ -14,8 +14,8 @@ import { seedDemo, type DemoIds } from '../../../../../server/db/seed/demo'
 import { decideSignOff, reopenSignOff, requestSignOff } from '../../../../../server/domain/sign-off/commands'
 import { entryLockRefusal, lockedUntil } from '../../../../../server/domain/sign-off/lock'
 import { evaluateForSignOff } from '../../../../../server/domain/sign-off/evaluation'
-import { SignOffRefused } from '../../../../../server/domain/sign-off/refusal'
 import { signOffState } from '../../../../../server/domain/sign-off/state'
+import { refusalOf } from '../../../../support/sign-off-refusal'
 
 const dir = mkdtempSync(join(tmpdir(), 'tidewright-sign-off-'))
 let db: TidewrightDB
@@ -36,18 +36,6 @@ const person = (key: keyof DemoIds['users'], role: 'admin' | 'aquarist' | 'super
 const tankRow = (id: string) => db.select().from(tanks).where(eq(tanks.id, id)).get()!
 /** The tank evaluated as of `now`, as the glue hands it to a command. */
 const evaluated = (id: string) => evaluateForSignOff(db, id, now)!
-
-/** The refusal a command throws, or a failure if it throws something else or nothing. */
-function refusalOf(run: () => unknown): SignOffRefused {
-  try {
-    run()
-  }
-  catch (error) {
-    if (error instanceof SignOffRefused) return error
-    throw error
-  }
-  throw new Error('the command was not refused')
-}
 
 describe('sign-off commands on a Db', () => {
   it('refuses a request from someone who may not manage the tank (403) and a second request while one waits (409)', () => {

@@ -15,6 +15,7 @@ import { EvaluationOutdated, evaluateForSignOff, onCurrentEvaluation, SIGN_OFF_A
 import { tankDataRevisionInDb } from '../../../../../server/domain/readings/data-revision'
 import { SignOffRefused } from '../../../../../server/domain/sign-off/refusal'
 import { seededDatabase } from '../../../../support/seeded-database'
+import { refusalOf } from '../../../../support/sign-off-refusal'
 
 const { db, demo } = await seededDatabase('sign-off-evaluation')
 const nano = demo.tanks.nano
@@ -23,18 +24,6 @@ const aquarist = { id: demo.users.aquarist, organisationId: demo.organisationId,
 const tankRow = () => db.select().from(tanks).where(eq(tanks.id, nano)).get()!
 const signOffRows = () => db.select().from(signOffs).where(eq(signOffs.tankId, nano)).all()
 const auditCount = () => db.select().from(auditLog).all().length
-
-/** The refusal a command throws, or a failure if it throws something else or nothing. */
-function refusalOf(run: () => unknown): SignOffRefused {
-  try {
-    run()
-  }
-  catch (error) {
-    if (error instanceof SignOffRefused) return error
-    throw error
-  }
-  throw new Error('the command was not refused')
-}
 
 /** The evaluation as of a moment, made as the glue makes it. */
 function evaluation(now = new Date()): SignOffEvaluation {
