@@ -187,7 +187,6 @@ describe('a sign-off on a tank with a long history', { timeout: 180_000 }, () =>
       supervisor.post(`/api/tanks/${tank}/sign-off/decision`, { decision: 'approve', note: 'Approved as the evidence stands.' }),
       api.post(`/api/tanks/${tank}/readings`, { takenAt: new Date(Date.now() - 5 * 60_000).toISOString(), ammonia: 2, nitrite: 0, nitrate: 5, basis: { ammonia: 'N', nitrite: 'N', nitrate: 'N' }, pH: 8.1, temperature: 25, temperatureUnit: 'C', salinity: 35, salinityMode: 'practical' }),
     ])
-    console.log(`[long-history] decision ${decision.status} (${decision.body.statusMessage ?? decision.body.status}), save ${save.status}`)
     expect([200, 409]).toContain(decision.status)
     expect([201, 409]).toContain(save.status)
     if (decision.status === 200 && save.status === 201) {
