@@ -182,6 +182,11 @@ export function nitrogenTestsAsOf(prepared: PreparedHistory, nowMs: number): rea
   return prefix(prepared.nitrogenTests, countUpTo(prepared.nitrogenTests, nowMs))
 }
 
+/** The events as of `nowMs` (a prefix: the history's order puts time first). */
+export function eventsAsOf(prepared: PreparedHistory, nowMs: number): readonly TimedEvent[] {
+  return prefix(prepared.events, countUpTo(prepared.events, nowMs))
+}
+
 function byId(a: { id: string }, b: { id: string }): number {
   return compareStrings(a.id, b.id)
 }
@@ -243,7 +248,7 @@ function prefix<T>(items: readonly T[], count: number): readonly T[] {
 /** The history as of `nowMs`: a reading or event after it is in the verdict's future and left out, which keeps old verdicts reproducible. */
 export function historyAsOf(prepared: PreparedHistory, nowMs: number): History {
   const readings = prefix(prepared.readings, countUpTo(prepared.readings, nowMs))
-  const events = prefix(prepared.events, countUpTo(prepared.events, nowMs))
+  const events = eventsAsOf(prepared, nowMs)
   const repaired = prepared.repaired.some(r => r.t > nowMs) ? prepared.repaired.filter(r => r.t <= nowMs) : prepared.repaired
   return { readings, events, ignoredReadingIds: prepared.ignoredReadingIds, repairedReadingIds: repaired.map(r => r.id) }
 }

@@ -8,7 +8,7 @@
  */
 
 import { evaluatePrepared } from '../engine'
-import { nitrogenTestsAsOf, prepareInput, type PreparedInput, type TimedEvent } from '../history'
+import { eventsAsOf, nitrogenTestsAsOf, prepareInput, type PreparedInput, type TimedEvent } from '../history'
 import { RULE_SET_VERSION } from '../registry'
 import { resolveThresholds } from '../thresholds'
 import { DAY_MS, HOUR_MS, requireTime, toIso } from '../time'
@@ -41,11 +41,6 @@ interface ProofDose {
   t: number
   /** mg/L as N; 0 when logged without an amount. */
   amount: number
-}
-
-/** The events at or before now (their time parses), oldest first. */
-function eventsUpTo(input: PreparedInput, nowMs: number): readonly TimedEvent[] {
-  return input.history.events.filter(e => e.t <= nowMs)
 }
 
 /** Ammonia doses at or before now, oldest first. */
@@ -160,7 +155,8 @@ export function forecastPrepared(input: PreparedInput, verdict?: Verdict): Cycle
   const nowMs = requireTime('now', input.now)
   const thresholds = resolveThresholds(input.thresholds)
   verdict ??= evaluatePrepared(input)
-  const events = eventsUpTo(input, nowMs)
+  // The events at or before now (their time parses), oldest first.
+  const events = eventsAsOf(input.history, nowMs)
   const doses = dosesOf(events)
   // The tests in the forecast's order (time, then id), with their values as given.
   const allTests = nitrogenTestsAsOf(input.history, nowMs)
