@@ -85,15 +85,15 @@ export function readEngineInput(db: Db, tankId: string): { readings: CycleReadin
  * in the shape it was read in, so a long history is held once, in order, and not twice.
  */
 export function readKeptHistory(db: Db, tankId: string, revision: number): KeptHistory {
-  let tests = 0
   function* readings(): Generator<CycleReading> {
-    for (const values of tankEngineReadings(db, tankId)) {
-      tests += 1
-      yield toCycleReading(values)
-    }
+    for (const values of tankEngineReadings(db, tankId)) yield toCycleReading(values)
   }
-  const history = prepareHistory(readings(), cycleEventsOf(db, tankId))
-  return { revision, tests, history }
+  return keptAt(revision, prepareHistory(readings(), cycleEventsOf(db, tankId)))
+}
+
+/** A kept copy of `history`: every test it was made from is either in its order or left out for its time. */
+function keptAt(revision: number, history: PreparedHistory): KeptHistory {
+  return { revision, tests: history.readings.length + history.ignoredReadingIds.length, history }
 }
 
 /**
@@ -147,6 +147,6 @@ export function noteTestAppended(db: Db, tankId: string, row: ReadingRow, revisi
     return
   }
   const history = withReadingAdded(kept.history, toCycleReading(engineValuesOf(row)))
-  if (history) byTank.keep(tankId, { revision: revisionAfter, tests: kept.tests + 1, history })
+  if (history) byTank.keep(tankId, keptAt(revisionAfter, history))
   else byTank.drop(tankId)
 }
