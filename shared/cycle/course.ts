@@ -543,28 +543,51 @@ class CourseScan {
   }
 }
 
+/**
+ * Feeds the course scan a history one test at a time, each after the events at or before its time
+ * (events at the same instant as a test come first): the whole history's order, whether the tests
+ * come from an array (traceCourse) or stream past once and are not kept (history-stream.ts).
+ */
+export class CourseFeed {
+  private readonly scan: CourseScan
+  private next = 0
+
+  /** `events` are the history's events as of `now`, in order. */
+  constructor(private readonly events: readonly TimedEvent[], thresholds: Thresholds, method: CycleMethod, startedMs: number, options: RuleOptions) {
+    const livestock = events.find(e => e.event.kind === 'livestock-added')
+    const fishIn = method === 'fish-in' ? startedMs : Number.POSITIVE_INFINITY
+    this.scan = new CourseScan({
+      thresholds,
+      method,
+      animalsT: Math.min(fishIn, livestock ? livestock.t : Number.POSITIVE_INFINITY),
+      windowMs: thresholds.clearanceWindowHours * HOUR_MS,
+      spanMs: thresholds.stableSpanHours * HOUR_MS,
+      gapMs: thresholds.zeroRunMaxGapHours * HOUR_MS,
+      options,
+    })
+  }
+
+  /** The next test in history order (none after `now`). */
+  reading(reading: TimedReading): void {
+    const { events } = this
+    for (let event = events[this.next]; event !== undefined && event.t <= reading.t; event = events[this.next]) {
+      this.scan.onEvent(event)
+      this.next += 1
+    }
+    this.scan.onReading(reading)
+  }
+
+  /** The course as of `nowMs`, once every test has been fed. */
+  result(nowMs: number): Course {
+    for (const event of this.events.slice(this.next)) this.scan.onEvent(event)
+    this.next = this.events.length
+    return this.scan.result(nowMs)
+  }
+}
+
 /** Follows the cycle through the ordered history. Events at the same instant as a test come first. */
 export function traceCourse(history: History, thresholds: Thresholds, method: CycleMethod, startedMs: number, nowMs: number, options: RuleOptions): Course {
-  const livestock = history.events.find(e => e.event.kind === 'livestock-added')
-  const fishIn = method === 'fish-in' ? startedMs : Number.POSITIVE_INFINITY
-  const scan = new CourseScan({
-    thresholds,
-    method,
-    animalsT: Math.min(fishIn, livestock ? livestock.t : Number.POSITIVE_INFINITY),
-    windowMs: thresholds.clearanceWindowHours * HOUR_MS,
-    spanMs: thresholds.stableSpanHours * HOUR_MS,
-    gapMs: thresholds.zeroRunMaxGapHours * HOUR_MS,
-    options,
-  })
-  const { readings, events } = history
-  let next = 0
-  for (const reading of readings) {
-    for (let event = events[next]; event !== undefined && event.t <= reading.t; event = events[next]) {
-      scan.onEvent(event)
-      next += 1
-    }
-    scan.onReading(reading)
-  }
-  for (const event of events.slice(next)) scan.onEvent(event)
-  return scan.result(nowMs)
+  const feed = new CourseFeed(history.events, thresholds, method, startedMs, options)
+  for (const reading of history.readings) feed.reading(reading)
+  return feed.result(nowMs)
 }

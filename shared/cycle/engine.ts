@@ -5,8 +5,8 @@
  */
 
 import { mergeActions } from './actions'
-import { traceCourse } from './course'
-import { compareReadings, historyAsOf, prepareInput, type PreparedInput } from './history'
+import { traceCourse, type Course } from './course'
+import { compareReadings, historyAsOf, prepareInput, type History, type PreparedInput } from './history'
 import { decidePhase, firstSourceTime } from './phase'
 import { assessReadiness } from './readiness'
 import { CURRENT_RULE_OPTIONS, type RuleOptions } from './options'
@@ -14,8 +14,9 @@ import { FINDING_RULES } from './registry'
 import { latestValues } from './snapshot'
 import { resolveThresholds } from './thresholds'
 import { requireTime, toIso } from './time'
+import { assertWindowFits } from './window'
 import type { RuleContext } from './context'
-import type { CycleAction, CycleInput, Finding, Severity, Verdict } from './types'
+import type { CycleAction, CycleInput, CycleMethod, Finding, Severity, Thresholds, Verdict } from './types'
 
 const SEVERITY_RANK: Record<Severity, number> = { danger: 0, caution: 1, info: 2 }
 
@@ -30,13 +31,20 @@ function compareFindings(a: Finding, b: Finding): number {
     || compareStrings(a.readingIds.join('\u0000'), b.readingIds.join('\u0000'))
 }
 
+/** The course as of `nowMs`: traced over the history, or the one a window folded for this very evaluation. */
+function courseOf(history: History, thresholds: Thresholds, method: CycleMethod, startedMs: number, nowMs: number, options: RuleOptions): Course {
+  if (!history.window) return traceCourse(history, thresholds, method, startedMs, nowMs, options)
+  assertWindowFits(history.window, thresholds, method, startedMs, nowMs, options)
+  return history.window.course
+}
+
 function buildContext(input: PreparedInput, options: RuleOptions): RuleContext {
   const nowMs = requireTime('now', input.now)
   const startedMs = requireTime('tank.startedAt', input.tank.startedAt)
   const thresholds = resolveThresholds(input.thresholds)
   const prepared = input.history
   const history = historyAsOf(prepared, nowMs)
-  const course = traceCourse(history, thresholds, input.tank.cycleMethod, startedMs, nowMs, options)
+  const course = courseOf(history, thresholds, input.tank.cycleMethod, startedMs, nowMs, options)
   // Nothing after `now` was cut: the latest values of the whole prepared history are the ones.
   const latest = history.readings === prepared.readings ? prepared.latest : latestValues(history.readings)
   const sourceT = firstSourceTime(history, input.tank, startedMs, thresholds, nowMs)

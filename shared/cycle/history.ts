@@ -9,6 +9,7 @@ import { partitionPoint } from '../sorted'
 import { latestValues, updatedLatest, type Latest } from './snapshot'
 import { parseTime, timeReaderFor, type TimeReader } from './time'
 import type { CycleEvent, CycleInput, CycleReading, CycleTank, Thresholds } from './types'
+import { BeyondWindow, windowStart, type HistoryWindow } from './window'
 
 /** A reading with its parsed time; only values the engine can trust are kept. */
 export interface TimedReading {
@@ -43,6 +44,8 @@ export interface History {
   readonly ignoredReadingIds: readonly string[]
   /** Readings that kept their time but lost a value that was negative or not a number. Sorted. */
   readonly repairedReadingIds: readonly string[]
+  /** Set when `readings` holds only the latest part of the history (window.ts): read them through reads.ts. */
+  readonly window?: HistoryWindow
 }
 
 type NumericKey = Exclude<keyof TimedReading, 'id' | 't' | 'entered'>
@@ -56,7 +59,7 @@ function acceptable(key: NumericKey, value: number): boolean {
   return Number.isFinite(value) && (key === 'temperatureC' || value >= 0)
 }
 
-function compareStrings(a: string, b: string): number {
+export function compareStrings(a: string, b: string): number {
   return a < b ? -1 : a > b ? 1 : 0
 }
 
@@ -99,7 +102,8 @@ function enteredTime(iso: string | undefined, readTime: TimeReader): number {
   return Number.isFinite(ms) ? ms : Number.NEGATIVE_INFINITY
 }
 
-function sanitize(raw: CycleReading, t: number, readTime: TimeReader = parseTime): { reading: TimedReading, repaired: boolean } {
+/** A raw reading as the history holds it: its time read, each value checked (see `repaired`) and set at limit precision. */
+export function sanitize(raw: CycleReading, t: number, readTime: TimeReader = parseTime): { reading: TimedReading, repaired: boolean } {
   // The values go straight into the reading (the same keys in the same order as a spread of them
   // would give): a long history made a second object per test for the collector.
   const reading: { -readonly [K in keyof TimedReading]: TimedReading[K] } = { id: raw.id, t, entered: enteredTime(raw.enteredAt, readTime) }
@@ -137,6 +141,12 @@ export interface PreparedHistory {
    * then input order), with their values as given: the forecast's curves, cut at `now` like the rest.
    */
   readonly nitrogenTests: readonly NitrogenTest[]
+  /**
+   * Set when the history was streamed for one `now` (see window.ts and history-stream.ts):
+   * `readings` and `nitrogenTests` are the tests from the window's start to that `now`, and
+   * nothing is placed into it or cut from it at another time.
+   */
+  readonly window?: HistoryWindow
 }
 
 /**
@@ -171,7 +181,7 @@ export function compareNitrogenTests(a: NitrogenTest, b: NitrogenTest): number {
  * left its three values as given (the common case), the history's own reading is that test: a
  * second object per test would double what a long history holds in memory.
  */
-function nitrogenTest(raw: CycleReading, reading: TimedReading): NitrogenTest | undefined {
+export function nitrogenTest(raw: CycleReading, reading: TimedReading): NitrogenTest | undefined {
   if (raw.ammoniaN === undefined && raw.nitriteN === undefined) return undefined
   if (reading.ammoniaN === raw.ammoniaN && reading.nitriteN === raw.nitriteN && reading.nitrateN === raw.nitrateN) return reading
   return { t: reading.t, id: raw.id, ammoniaN: raw.ammoniaN, nitriteN: raw.nitriteN, nitrateN: raw.nitrateN }
@@ -179,6 +189,7 @@ function nitrogenTest(raw: CycleReading, reading: TimedReading): NitrogenTest | 
 
 /** The forecast's tests as of `nowMs` (a prefix: its order puts time first). */
 export function nitrogenTestsAsOf(prepared: PreparedHistory, nowMs: number): readonly NitrogenTest[] {
+  if (windowStart(prepared) > Number.NEGATIVE_INFINITY) throw new BeyondWindow('the forecast\'s tests of the whole history')
   return prefix(prepared.nitrogenTests, countUpTo(prepared.nitrogenTests, nowMs))
 }
 
@@ -187,7 +198,7 @@ export function eventsAsOf(prepared: PreparedHistory, nowMs: number): readonly T
   return prefix(prepared.events, countUpTo(prepared.events, nowMs))
 }
 
-function byId(a: { id: string }, b: { id: string }): number {
+export function byId(a: { id: string }, b: { id: string }): number {
   return compareStrings(a.id, b.id)
 }
 
@@ -214,20 +225,25 @@ export function prepareHistory(readings: Iterable<CycleReading>, events: readonl
     const test = nitrogenTest(raw, result.reading)
     if (test) nitrogen.push(test)
   }
-  const timedEvents: TimedEvent[] = []
-  for (const event of events ?? []) {
-    const t = parseTime(event.at)
-    if (Number.isFinite(t)) timedEvents.push({ event, t, entered: enteredTime(event.enteredAt, parseTime) })
-  }
   kept.sort(compareReadings)
   return {
     readings: kept,
-    events: timedEvents.sort(compareEvents),
+    events: timedEventsOf(events),
     ignoredReadingIds: ignored.sort(compareStrings),
     repaired: repaired.sort(byId),
     latest: latestValues(kept),
     nitrogenTests: nitrogen.sort(compareNitrogenTests),
   }
+}
+
+/** The events whose time parses, with it, in history order. */
+export function timedEventsOf(events: readonly CycleEvent[] | undefined): TimedEvent[] {
+  const timed: TimedEvent[] = []
+  for (const event of events ?? []) {
+    const t = parseTime(event.at)
+    if (Number.isFinite(t)) timed.push({ event, t, entered: enteredTime(event.enteredAt, parseTime) })
+  }
+  return timed.sort(compareEvents)
 }
 
 /** The input with its readings and events prepared: what `evaluatePrepared` and `forecastPrepared` read. */
@@ -247,6 +263,11 @@ function prefix<T>(items: readonly T[], count: number): readonly T[] {
 
 /** The history as of `nowMs`: a reading or event after it is in the verdict's future and left out, which keeps old verdicts reproducible. */
 export function historyAsOf(prepared: PreparedHistory, nowMs: number): History {
+  const { window } = prepared
+  if (window) {
+    if (window.nowMs !== nowMs) throw new BeyondWindow('it was read for another moment')
+    return { readings: prepared.readings, events: eventsAsOf(prepared, nowMs), ignoredReadingIds: prepared.ignoredReadingIds, repairedReadingIds: prepared.repaired.map(r => r.id), window }
+  }
   const readings = prefix(prepared.readings, countUpTo(prepared.readings, nowMs))
   const events = eventsAsOf(prepared, nowMs)
   const repaired = prepared.repaired.some(r => r.t > nowMs) ? prepared.repaired.filter(r => r.t <= nowMs) : prepared.repaired
@@ -271,6 +292,8 @@ function inserted<T>(list: readonly T[], item: T, compare: (a: T, b: T) => numbe
  * decide between them): the caller then prepares the whole history again.
  */
 export function withReadingAdded(prepared: PreparedHistory, raw: CycleReading): PreparedHistory | undefined {
+  // A window is read for one moment: a later test means reading the tank again.
+  if (prepared.window) return undefined
   const t = parseTime(raw.takenAt)
   if (!Number.isFinite(t)) return { ...prepared, ignoredReadingIds: inserted(prepared.ignoredReadingIds, raw.id, compareStrings) }
   const result = sanitize(raw, t)
@@ -306,6 +329,8 @@ export function withLaterAppended(
   nowMs: number,
   later: { readonly readings: readonly CycleReading[], readonly events: readonly CycleEvent[] },
 ): PreparedHistory | undefined {
+  // Saying "undefined" would read as a future the engine cannot judge, so a window says why instead.
+  if (windowStart(prepared) > Number.NEGATIVE_INFINITY) throw new BeyondWindow('a projection continues the whole history')
   const future = prepareHistory(later.readings, later.events)
   const allAfter = (items: readonly { readonly t: number }[], given: number) => items.length === given && items.every(item => item.t > nowMs)
   if (!allAfter(future.readings, later.readings.length) || !allAfter(future.events, later.events.length)) return undefined

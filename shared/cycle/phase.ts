@@ -4,7 +4,8 @@
  * both at zero but unproven, or proven.
  */
 
-import { latestNitrogen, type Latest } from './snapshot'
+import { firstShown, lastWhere, latestNitrogen, readingsAfter } from './reads'
+import type { Latest } from './snapshot'
 import { HOUR_MS } from './time'
 import type { Course } from './course'
 import type { History, TimedReading } from './history'
@@ -24,7 +25,7 @@ export function firstSourceTime(history: History, tank: CycleTank, startedMs: nu
     }
   }
   // Ammonia nobody logged (rock, food, tap water) still feeds the bacteria.
-  const shown = history.readings.find(r => (r.ammoniaN ?? 0) > thresholds.ammoniaZeroN || (r.nitriteN ?? 0) > thresholds.nitriteZeroN)
+  const shown = firstShown(history, thresholds)
   if (shown) first = Math.min(first, shown.t)
   return Number.isFinite(first) ? first : null
 }
@@ -40,14 +41,11 @@ export function ammoniaFalling(history: History, latest: TimedReading, fallFract
     if ((event.kind === 'ammonia-dose' || event.kind === 'water-change') && t <= latest.t) since = t
   }
   // Ammonia back after reading zero is a new rise (a relapse): its peak starts there.
-  for (const r of history.readings) {
-    if (r.t >= latest.t) break
-    if (r.t > since && r.ammoniaN !== undefined && r.ammoniaN <= zeroN) since = r.t
-  }
+  const zero = lastWhere(history, latest.t, false, r => r.ammoniaN !== undefined && r.ammoniaN <= zeroN, since)
+  if (zero !== null) since = zero.t
   let peak = 0
-  for (const r of history.readings) {
-    if (r.t > latest.t) break
-    if (r.t > since && r.ammoniaN !== undefined) peak = Math.max(peak, r.ammoniaN)
+  for (const r of readingsAfter(history, since, latest.t)) {
+    if (r.ammoniaN !== undefined) peak = Math.max(peak, r.ammoniaN)
   }
   return (latest.ammoniaN ?? 0) <= (1 - fallFraction) * peak
 }
@@ -72,7 +70,7 @@ export function decidePhase({ history, course, latest, thresholds, sourceT }: Ph
   // A proven tank working off a dose or a spike is settling, not back in the ammonia or nitrite stage.
   if (course.held) return 'settling'
   if (sourceT === null) return 'not-started'
-  const lastTest = latestNitrogen(history.readings)
+  const lastTest = latestNitrogen(history)
   // The source went in after the last test: ammonia is expected, not yet measured.
   if (lastTest === null || lastTest.t < sourceT) return 'ammonia'
   const ammonia = latest.ammoniaN

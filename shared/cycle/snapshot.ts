@@ -1,10 +1,10 @@
 /**
- * The latest value of each measured quantity, and the water conditions that go
- * with an ammonia test (carried forward from an earlier test when not retaken).
+ * The latest value of each measured quantity, the tests of a stretch of time, and the water
+ * conditions that go with an ammonia test (carried forward from an earlier test when not
+ * retaken; found by `conditionsAt` in reads.ts).
  */
 
 import { partitionPoint } from '../sorted'
-import { HOUR_MS } from './time'
 import type { TimedReading } from './history'
 
 type Measured = Exclude<keyof TimedReading, 'id' | 't' | 'entered'>
@@ -33,15 +33,6 @@ export function updatedLatest(latest: Latest, added: TimedReading, after: (a: Ti
     if (added[key] !== undefined && (current === undefined || !after(current, added))) next[key] = added
   }
   return next
-}
-
-/** The latest reading with ammonia or nitrite, or null. */
-export function latestNitrogen(readings: readonly TimedReading[]): TimedReading | null {
-  for (let i = readings.length - 1; i >= 0; i -= 1) {
-    const reading = readings[i]
-    if (reading && (reading.ammoniaN !== undefined || reading.nitriteN !== undefined)) return reading
-  }
-  return null
 }
 
 /** Index of the first reading (in time order) taken at or after `t` (`strictlyAfter`: after it). */
@@ -73,21 +64,4 @@ export interface Conditions {
   pH?: { value: number, from: TimedReading }
   temperatureC?: { value: number, from: TimedReading }
   salinity?: { value: number, from: TimedReading }
-}
-
-/** Finds pH, temperature and salinity for the test `at` (which must be in `readings`). */
-export function conditionsAt(readings: readonly TimedReading[], at: TimedReading, maxAgeHours: number): Conditions {
-  const oldest = at.t - maxAgeHours * HOUR_MS
-  const found: Conditions = {}
-  const index = positionOf(readings, at)
-  // Walk back from the test itself: the nearest earlier value describes the water best.
-  for (let i = index; i >= 0; i -= 1) {
-    const r = readings[i]
-    if (!r || r.t < oldest) break
-    if (found.pH === undefined && r.pH !== undefined) found.pH = { value: r.pH, from: r }
-    if (found.temperatureC === undefined && r.temperatureC !== undefined) found.temperatureC = { value: r.temperatureC, from: r }
-    if (found.salinity === undefined && r.salinity !== undefined) found.salinity = { value: r.salinity, from: r }
-    if (found.pH && found.temperatureC && found.salinity) break
-  }
-  return found
 }

@@ -12,13 +12,16 @@ import { eventsAsOf, nitrogenTestsAsOf, prepareInput, type PreparedInput, type T
 import { RULE_SET_VERSION } from '../registry'
 import { resolveThresholds } from '../thresholds'
 import { DAY_MS, HOUR_MS, requireTime, toIso } from '../time'
-import { LIVESTOCK_GROUPS, type CycleInput, type LivestockGroup, type Thresholds, type Verdict } from '../types'
+import { LIVESTOCK_GROUPS, type CycleInput, type LivestockGroup, type Verdict } from '../types'
 import { fitDecline, type DeclineResult, type SeriesPoint } from './decline'
 import { latestOfSeries, seriesOf, seriesSincePeak, type TimedTest } from './series'
 import { DOSE_CHECK_HOURS, HORIZON_DAYS, INTERVAL_PROBABILITY, MAX_RANGE_DAYS, MAX_RELAPSE_DAYS, MIN_TESTS, RANGE_SLACK_DAYS } from './parameters'
 import { firstProvingRoutine, futureTestTimes, projectCompletion, type ProjectionBase } from './project'
 import type { CycleForecast, DeclineFit, ForecastBasis, ForecastGap, ForecastRange } from './types'
 import { FORECAST_VERSION } from './version'
+import { curveTests, dosesOf, readsZero, type ProofDose } from './curve-tests'
+import { CURRENT_RULE_OPTIONS } from '../options'
+import { assertWindowFits, BeyondWindow, windowStart } from '../window'
 
 const NO_GROUPS = (): Record<LivestockGroup, ForecastRange | null> =>
   Object.fromEntries(LIVESTOCK_GROUPS.map(g => [g, null])) as Record<LivestockGroup, ForecastRange | null>
@@ -35,44 +38,6 @@ function shell(status: CycleForecast['status'], gap: ForecastGap | null, basis: 
     groups: NO_GROUPS(),
     basis,
   }
-}
-
-interface ProofDose {
-  t: number
-  /** mg/L as N; 0 when logged without an amount. */
-  amount: number
-}
-
-/** Ammonia doses at or before now, oldest first. */
-function dosesOf(events: readonly TimedEvent[]): ProofDose[] {
-  return events.filter(e => e.event.kind === 'ammonia-dose').map(e => ({ t: e.t, amount: e.event.amount ?? 0 }))
-}
-
-function readsZero(test: TimedTest, th: Thresholds): boolean {
-  return test.ammoniaN !== undefined && test.nitriteN !== undefined && test.ammoniaN <= th.ammoniaZeroN && test.nitriteN <= th.nitriteZeroN
-}
-
-/**
- * The tests that trace the curves: all but the checks that a proof dose arrived (a test
- * within DOSE_CHECK_HOURS of a dose given after a zero test), which show the dose, not
- * the bacteria's progress.
- */
-function curveTests(tests: readonly TimedTest[], doses: readonly ProofDose[], th: Thresholds): TimedTest[] {
-  const kept: TimedTest[] = []
-  let d = 0
-  let lastDose = Number.NEGATIVE_INFINITY
-  let lastDoseProof = false
-  for (const test of tests) {
-    while (d < doses.length && doses[d]!.t < test.t) {
-      lastDose = doses[d]!.t
-      const before = kept[kept.length - 1]
-      lastDoseProof = before !== undefined && readsZero(before, th)
-      d += 1
-    }
-    if (lastDoseProof && test.t - lastDose <= DOSE_CHECK_HOURS * HOUR_MS) continue
-    kept.push(test)
-  }
-  return kept
 }
 
 /** The latest dose after the latest curve test, when no test at all has followed it yet. */
@@ -158,18 +123,24 @@ export function forecastPrepared(input: PreparedInput, verdict?: Verdict): Cycle
   // The events at or before now (their time parses), oldest first.
   const events = eventsAsOf(input.history, nowMs)
   const doses = dosesOf(events)
-  // The tests in the forecast's order (time, then id), with their values as given.
-  const allTests = nitrogenTestsAsOf(input.history, nowMs)
-  const tests = curveTests(allTests, doses, thresholds)
-  const lastTest = tests[tests.length - 1]
+  // The tests in the forecast's order (time, then id), with their values as given; a windowed
+  // history folded its curve tests as they streamed past (the latest, and how many).
+  const held = windowStart(input.history) > Number.NEGATIVE_INFINITY ? input.history.window : undefined
+  if (held) assertWindowFits(held, thresholds, input.tank.cycleMethod, requireTime('tank.startedAt', input.tank.startedAt), nowMs, CURRENT_RULE_OPTIONS)
+  const allTests = held ? [] : nitrogenTestsAsOf(input.history, nowMs)
+  const tests = held ? [] : curveTests(allTests, doses, thresholds)
+  const lastTest = held ? held.curve.last ?? undefined : tests[tests.length - 1]
+  const curveCount = held ? held.curve.count : tests.length
   const testEveryHours = thresholds.retestHours
   const basis: ForecastBasis = { fits: [], readingZero: false, testEveryHours, latestTest: lastTest ? toIso(lastTest.t) : null, relapseDays: 0 }
   if (verdict.completedOn !== null) return completeForecast(verdict, basis)
   if (verdict.phase === 'not-started') return shell('not-enough-data', 'not-started', basis)
-  if (!lastTest || tests.length < MIN_TESTS) return shell('not-enough-data', 'sparse', basis)
+  if (!lastTest || curveCount < MIN_TESTS) return shell('not-enough-data', 'sparse', basis)
   if (verdict.phase === 'ammonia') return shell('not-enough-data', 'before-nitrite', basis)
   // The engine expects a test at least every testIntervalHours; twice that missed leaves the curve unknown.
   if (nowMs - lastTest.t > 2 * thresholds.testIntervalHours * HOUR_MS) return shell('not-enough-data', 'stale', basis)
+  // The curves are fitted to every test since their peak, which may be years back.
+  if (held) throw new BeyondWindow('the forecast\'s curves')
 
   const fromMs = lastWaterChange(events)
   const limits = { ammoniaN: thresholds.ammoniaZeroN, nitriteN: thresholds.nitriteZeroN } as const

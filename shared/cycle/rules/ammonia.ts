@@ -5,7 +5,7 @@
 
 import { freeAmmonia, PH_RANGE, SALINITY_RANGE, SEAWATER_TEMPERATURE_RANGE_C, FRESHWATER_TEMPERATURE_RANGE_C } from '../../chemistry/ammonia'
 import { animalsInAt, type RuleContext } from '../context'
-import { conditionsAt } from '../snapshot'
+import { conditionsAt, readingsFrom } from '../reads'
 import { DAY_MS, formatWhen, HOUR_MS, toIso } from '../time'
 import { formatNumber, mgN, mgNWithIon } from '../words'
 import type { TimedReading } from '../history'
@@ -37,7 +37,7 @@ interface FreeAmmonia {
 
 /** Free ammonia for the test, or null when pH or temperature is unknown or outside the formula's range. */
 export function freeAmmoniaFor(ctx: RuleContext, test: TimedReading): FreeAmmonia | null {
-  const c = conditionsAt(ctx.history.readings, test, ctx.thresholds.conditionsMaxAgeHours)
+  const c = conditionsAt(ctx.history, test, ctx.thresholds.conditionsMaxAgeHours)
   if (c.pH === undefined || c.temperatureC === undefined) return null
   const salinity = c.salinity?.value ?? ASSUMED_SALINITY
   const temperatureRange = salinity > 0 ? SEAWATER_TEMPERATURE_RANGE_C : FRESHWATER_TEMPERATURE_RANGE_C
@@ -101,8 +101,8 @@ function chronicAverage(ctx: RuleContext, latest: TimedReading): { meanN: number
   const from = latest.t - th.chronicAveragingDays * DAY_MS
   const values: number[] = []
   const tests: TimedReading[] = []
-  for (const r of ctx.history.readings) {
-    if (r.t < from || r.t > latest.t || r.ammoniaN === undefined || !animalsInAt(ctx, r.t)) continue
+  for (const r of readingsFrom(ctx.history, from, latest.t)) {
+    if (r.ammoniaN === undefined || !animalsInAt(ctx, r.t)) continue
     const free = r.ammoniaN <= th.ammoniaZeroN ? { valueN: 0 } : freeAmmoniaFor(ctx, r)
     if (free === null) continue
     values.push(free.valueN)

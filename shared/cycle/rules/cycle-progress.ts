@@ -3,7 +3,7 @@
  * ammonia or nitrite stage, settling, complete, or complete once and lost since.
  */
 
-import { latestNitrogen } from '../snapshot'
+import { everyReading, latestNitrogen } from '../reads'
 import { formatDuration, formatWhen, HOUR_MS, toIso } from '../time'
 import { mgN, mgNWithIon } from '../words'
 import type { RuleContext } from '../context'
@@ -12,7 +12,7 @@ import { needsDoseProof } from './cycle-proof'
 
 function notStarted(ctx: RuleContext): RuleResult {
   if (ctx.phase !== 'not-started') return NOTHING
-  const tests = ctx.history.readings.filter(r => r.ammoniaN !== undefined || r.nitriteN !== undefined)
+  const tests = everyReading(ctx.history).filter(r => r.ammoniaN !== undefined || r.nitriteN !== undefined)
   const zeros = tests.length > 0
     ? ` All ${tests.length} ammonia and nitrite tests read zero because nothing is feeding the bacteria yet; zero readings before the cycle starts prove nothing.`
     : ''
@@ -30,7 +30,7 @@ function notStarted(ctx: RuleContext): RuleResult {
 
 function ammoniaStage(ctx: RuleContext): RuleResult {
   const test = ctx.latest.ammoniaN
-  const last = latestNitrogen(ctx.history.readings)
+  const last = latestNitrogen(ctx.history)
   if (test === undefined || last === null || ctx.sourceT === null || last.t < ctx.sourceT) {
     const since = ctx.sourceT === null ? '' : ` since ${formatWhen(ctx.sourceT)}`
     return report('info', `The ammonia source is in${since}, but ammonia has not been tested since. Test ammonia and nitrite now.`, [])

@@ -10,7 +10,7 @@ import { DAY_MS, formatWhen, HOUR_MS, toIso } from '../time'
 import { mgN, mgNWithIon } from '../words'
 import type { DoseOutcome } from '../course'
 import type { TimedReading } from '../history'
-import { readingsBetween } from '../snapshot'
+import { lastWhere, readingsFrom } from '../reads'
 import { NITRIFICATION_STOICHIOMETRY } from '../thresholds'
 import { COMMON_PRACTICE, NOTHING, report, type CycleRule, type RuleResult } from './rule'
 
@@ -101,13 +101,8 @@ function proofProgress(ctx: RuleContext): RuleResult {
 /** True when the last ammonia and nitrite test before `t` read zero for both. */
 function readZeroBefore(ctx: RuleContext, t: number): boolean {
   const th = ctx.thresholds
-  let zero = false
-  for (const r of ctx.history.readings) {
-    if (r.t >= t) break
-    if (r.ammoniaN === undefined || r.nitriteN === undefined) continue
-    zero = r.ammoniaN <= th.ammoniaZeroN && r.nitriteN <= th.nitriteZeroN
-  }
-  return zero
+  const last = lastWhere(ctx.history, t, false, r => r.ammoniaN !== undefined && r.nitriteN !== undefined)
+  return last !== null && (last.ammoniaN ?? 0) <= th.ammoniaZeroN && (last.nitriteN ?? 0) <= th.nitriteZeroN
 }
 
 /** The latest dose, if it was a proof attempt that is decided and did not prove anything, with why. */
@@ -143,7 +138,7 @@ function nitrateKitStuck(ctx: RuleContext): RuleResult {
   const cleared = ctx.course.doses.filter(d => d.clearedBy !== null && !d.diluted && (d.event.amount ?? 0) >= th.clearanceMinDoseN)
   if (cleared.length < th.clearanceDays) return NOTHING
   const since = cleared[0]!.t - DAY_MS
-  const nitrate = readingsBetween(ctx.history.readings, since).filter(r => r.nitrateN !== undefined)
+  const nitrate = readingsFrom(ctx.history, since).filter(r => r.nitrateN !== undefined)
   if (nitrate.length < th.clearanceDays) return NOTHING
   const first = nitrate[0]!
   const last = nitrate[nitrate.length - 1]!

@@ -10,7 +10,7 @@ import { DAY_MS, formatDuration, formatWhen, toIso } from '../time'
 import { formatNumber, mgN, mgNWithIon } from '../words'
 import type { RuleContext } from '../context'
 import type { TimedReading } from '../history'
-import { readingsBetween } from '../snapshot'
+import { lastReading, readingsFrom } from '../reads'
 import { COMMON_PRACTICE, NOTHING, report, type CycleRule, type RuleResult } from './rule'
 
 type Value = 'ammoniaN' | 'nitriteN'
@@ -26,7 +26,7 @@ interface Trend {
  * stall seen yesterday does not vanish while nobody tests; 2.0.0 ended it at now.
  */
 function stallWindow(ctx: RuleContext): { from: number, to: number } {
-  const last = ctx.history.readings[ctx.history.readings.length - 1]
+  const last = lastReading(ctx.history)
   const to = ctx.options.stallWindowAtLatestTest && last !== undefined ? Math.min(ctx.nowMs, last.t) : ctx.nowMs
   return { from: to - ctx.thresholds.stallDays * DAY_MS, to }
 }
@@ -38,7 +38,7 @@ function mean(values: readonly number[]): number {
 /** The window's tests of `key` when every one is above `limit` and the last third is not below the first by the fall fraction. */
 function flatHigh(ctx: RuleContext, key: Value, limit: number): Trend | null {
   const { from, to } = stallWindow(ctx)
-  const tests = readingsBetween(ctx.history.readings, from, to).filter(r => r[key] !== undefined)
+  const tests = readingsFrom(ctx.history, from, to).filter(r => r[key] !== undefined)
   const first = tests[0]
   const last = tests[tests.length - 1]
   // The window must be covered by tests: a stall is a trend, and two tests are not one.
@@ -53,7 +53,7 @@ function flatHigh(ctx: RuleContext, key: Value, limit: number): Trend | null {
 /** Nitrate made over the window: the bacteria are working even if nitrite stays high. */
 function nitrateClimbing(ctx: RuleContext): boolean {
   const { from, to } = stallWindow(ctx)
-  const tests = readingsBetween(ctx.history.readings, from, to).filter(r => r.nitrateN !== undefined)
+  const tests = readingsFrom(ctx.history, from, to).filter(r => r.nitrateN !== undefined)
   const first = tests[0]
   const last = tests[tests.length - 1]
   return first !== undefined && last !== undefined && (last.nitrateN ?? 0) - (first.nitrateN ?? 0) >= ctx.thresholds.nitrateRiseN

@@ -7,7 +7,7 @@ import { DAY_MS, formatWhen } from '../time'
 import { formatNumber } from '../words'
 import { animalsInAt, type RuleContext } from '../context'
 import type { TimedReading } from '../history'
-import { readingsBetween } from '../snapshot'
+import { readingsFrom } from '../reads'
 import { COMMON_PRACTICE, NOTHING, report, type CycleRule, type RuleResult } from './rule'
 
 type RangeKey = 'salinity' | 'temperatureC' | 'pH' | 'alkalinityDkh' | 'calciumMgL' | 'magnesiumMgL'
@@ -114,7 +114,7 @@ function reefChemistry(ctx: RuleContext): RuleResult {
 export function salinityStability(ctx: RuleContext): { stable: boolean, words: string } {
   const th = ctx.thresholds
   const from = ctx.nowMs - th.salinityStableDays * DAY_MS
-  const values = readingsBetween(ctx.history.readings, from).filter(r => r.salinity !== undefined).map(r => r.salinity ?? 0)
+  const values = readingsFrom(ctx.history, from).filter(r => r.salinity !== undefined).map(r => r.salinity ?? 0)
   const band = `${formatNumber(th.salinityTargetMin)}-${formatNumber(th.salinityTargetMax)}`
   const want = `salinity held at ${band}, varying by no more than ${formatNumber(th.salinityStableSpread)}, over the last ${th.salinityStableDays} days`
   if (values.length < 2) return { stable: false, words: `Stony corals need ${want}; there are ${values.length} salinity test(s) in that time, at least 2 are needed.` }

@@ -4,11 +4,12 @@
  */
 
 import type { RuleContext } from '../context'
+import { repairedReadings } from '../reads'
 import { COMMON_PRACTICE, type CycleRule, type Hit, type RuleResult } from './rule'
 
 function ignored(ctx: RuleContext): RuleResult {
   const hits: Hit[] = []
-  const { ignoredReadingIds, repairedReadingIds, readings } = ctx.history
+  const { ignoredReadingIds, repairedReadingIds } = ctx.history
   if (ignoredReadingIds.length > 0) {
     hits.push({
       severity: 'info',
@@ -20,7 +21,7 @@ function ignored(ctx: RuleContext): RuleResult {
     hits.push({
       severity: 'info',
       message: `${repairedReadingIds.length} test(s) had a value that was negative or not a number; that value was left out.`,
-      readings: readings.filter(r => repairedReadingIds.includes(r.id)),
+      readings: repairedReadings(ctx.history),
     })
   }
   return { hits, actions: [] }

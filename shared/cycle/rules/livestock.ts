@@ -7,6 +7,7 @@ import { DAY_MS, formatWhen, HOUR_MS, toIso } from '../time'
 import { mgN } from '../words'
 import type { RuleContext } from '../context'
 import type { TimedEvent } from '../history'
+import { anyAfter, lastWhere } from '../reads'
 import { COMMON_PRACTICE, NOTHING, report, type CycleRule, type RuleResult } from './rule'
 
 function fishPresent(ctx: RuleContext): RuleResult {
@@ -23,12 +24,7 @@ function lastLivestock(ctx: RuleContext): TimedEvent | undefined {
 }
 
 function ammoniaBefore(ctx: RuleContext, t: number): number {
-  let value = 0
-  for (const r of ctx.history.readings) {
-    if (r.t > t) break
-    if (r.ammoniaN !== undefined) value = r.ammoniaN
-  }
-  return value
+  return lastWhere(ctx.history, t, true, r => r.ammoniaN !== undefined)?.ammoniaN ?? 0
 }
 
 function ammoniaRise(ctx: RuleContext): RuleResult {
@@ -53,7 +49,7 @@ function retestAfterAdding(ctx: RuleContext): RuleResult {
   const added = lastLivestock(ctx)
   if (added === undefined) return NOTHING
   const th = ctx.thresholds
-  const tested = ctx.history.readings.some(r => r.t > added.t && r.ammoniaN !== undefined)
+  const tested = anyAfter(ctx.history, added.t, r => r.ammoniaN !== undefined)
   if (tested || ctx.nowMs > added.t + th.livestockWatchDays * DAY_MS) return NOTHING
   const dueBy = added.t + th.retestHours * HOUR_MS
   return report(

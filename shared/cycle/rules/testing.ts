@@ -3,14 +3,14 @@
  * `testIntervalHours`; a verdict on stale tests is a guess.
  */
 
-import { latestNitrogen } from '../snapshot'
+import { latestNitrogen } from '../reads'
 import { formatDuration, formatWhen, HOUR_MS, toIso } from '../time'
 import type { RuleContext } from '../context'
 import { COMMON_PRACTICE, NOTHING, report, type CycleRule, type RuleResult } from './rule'
 
 function overdue(ctx: RuleContext): RuleResult {
   if (ctx.phase === 'complete' || ctx.phase === 'not-started') return NOTHING
-  const last = latestNitrogen(ctx.history.readings)
+  const last = latestNitrogen(ctx.history)
   // Before the first test the clock runs from when the cycle started.
   const since = Math.max(last?.t ?? Number.NEGATIVE_INFINITY, ctx.sourceT ?? ctx.startedMs)
   const limit = ctx.thresholds.testIntervalHours

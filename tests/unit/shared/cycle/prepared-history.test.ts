@@ -17,11 +17,10 @@ import { describe, expect, it } from 'vitest'
 import { evaluateCycle, evaluatePrepared } from '../../../../shared/cycle/engine'
 import { forecastCycle, forecastPrepared } from '../../../../shared/cycle/forecast'
 import { historyAsOf, prepareHistory, withLaterAppended, withReadingAdded, type PreparedHistory } from '../../../../shared/cycle/history'
-import { RULE_OPTIONS_2 } from '../../../../shared/cycle/options'
 import { latestValues } from '../../../../shared/cycle/snapshot'
 import type { CycleEvent, CycleInput, CycleReading, Thresholds } from '../../../../shared/cycle/types'
-import { shuffled, tankArb, toInput } from './arbitraries'
-import { dosingHistoryArb, dosingInput } from './dosing-arbitrary'
+import { shuffled } from './arbitraries'
+import { caseArb, withOdd, type Case } from './history-cases'
 import { buildHistory as buildHistoryBefore } from './reference/history-built-at-now'
 import { at } from './tank-log'
 
@@ -31,47 +30,6 @@ const LIMIT_MS = 60_000
 const EVERY_STEP_AT_THE_END = 12
 const EVERY_FEW = 5
 const HOUR_MS = 3_600_000
-
-/** Readings the engine must treat with care, mixed into the arrivals. */
-const oddArb = fc.record({
-  unparseable: fc.boolean(),
-  repaired: fc.boolean(),
-  future: fc.boolean(),
-  atNow: fc.boolean(),
-  sameInstantAs: fc.option(fc.nat(), { freq: 2 }),
-})
-
-const caseArb = fc.record({
-  log: fc.oneof(
-    tankArb.map((k): { kind: 'cycle', input: CycleInput } => ({ kind: 'cycle', input: toInput(k) })),
-    dosingHistoryArb.map((k): { kind: 'dosing', input: CycleInput } => ({ kind: 'dosing', input: { tank: { volumeLitres: 200, cycleMethod: 'fishless', startedAt: at(0, 8) }, ...dosingInput(k), now: at(k.days.length + 1, 12) } })),
-  ),
-  limits: fc.record({ ammoniaZeroN: fc.constantFrom(0, 0.02, 0.1), nitriteZeroN: fc.constantFrom(0, 0.05), clearanceDays: fc.constantFrom(1, 3) }),
-  odd: oddArb,
-  seed: fc.integer(),
-  startWith: fc.nat({ max: 10 }),
-  nowShiftHours: fc.constantFrom(0, -30, -6, 48, 24 * 20),
-  options: fc.constantFrom(...RULE_OPTIONS_2),
-})
-
-type Case = typeof caseArb extends fc.Arbitrary<infer T> ? T : never
-
-function withOdd(readings: readonly CycleReading[], odd: Case['odd'], now: string): CycleReading[] {
-  const out = [...readings]
-  const nowMs = Date.parse(now)
-  if (odd.unparseable) out.push({ id: 'odd-time', takenAt: 'yesterday morning', ammoniaN: 4, nitriteN: 4 })
-  if (odd.repaired) out.push({ id: 'odd-value', takenAt: new Date(nowMs - 5 * HOUR_MS).toISOString(), ammoniaN: -1, nitriteN: Number.NaN, nitrateN: 9 })
-  // Taken at the very instant of the verdict: it is in the history, one a millisecond later is not.
-  if (odd.atNow) out.push({ id: 'odd-at-now', takenAt: now, ammoniaN: 0.5, nitriteN: 0, nitrateN: 3 })
-  if (odd.future) out.push({ id: 'odd-future', takenAt: new Date(nowMs + 7 * HOUR_MS).toISOString(), ammoniaN: 2, nitriteN: 2, nitrateN: 1 })
-  const twin = odd.sameInstantAs === null || readings.length === 0 ? undefined : readings[odd.sameInstantAs % readings.length]
-  // The same minute, entered later, and one entered at the same instant with another id: the total order decides.
-  if (twin) {
-    out.push({ id: 'odd-twin-later', takenAt: twin.takenAt, enteredAt: now, ammoniaN: 0, nitriteN: 0.3 })
-    out.push({ id: 'odd-twin-same', takenAt: twin.takenAt, enteredAt: twin.enteredAt, ammoniaN: 0.05, nitriteN: 0 })
-  }
-  return out
-}
 
 function expectSameAsFull(input: CycleInput, prepared: PreparedHistory, c: Case): void {
   const nowMs = Date.parse(input.now)

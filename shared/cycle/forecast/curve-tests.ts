@@ -1,0 +1,61 @@
+/**
+ * Which tests trace the forecast's curves: all but the checks that a proof dose arrived (a test
+ * within DOSE_CHECK_HOURS of a dose given after a zero test), which show the dose, not the
+ * bacteria's progress. A fold, so a history streamed past once (history-stream.ts) counts the
+ * same tests an array of them keeps.
+ */
+import type { TimedEvent } from '../history'
+import { HOUR_MS } from '../time'
+import type { Thresholds } from '../types'
+import { DOSE_CHECK_HOURS } from './parameters'
+import type { TimedTest } from './series'
+
+/** An ammonia dose as the forecast reads it. */
+export interface ProofDose {
+  t: number
+  /** mg/L as N; 0 when logged without an amount. */
+  amount: number
+}
+
+/** Ammonia doses among `events` (at or before now), oldest first. */
+export function dosesOf(events: readonly TimedEvent[]): ProofDose[] {
+  return events.filter(e => e.event.kind === 'ammonia-dose').map(e => ({ t: e.t, amount: e.event.amount ?? 0 }))
+}
+
+/** Whether a test reads zero ammonia and zero nitrite, both measured. */
+export function readsZero(test: TimedTest, th: Thresholds): boolean {
+  return test.ammoniaN !== undefined && test.nitriteN !== undefined && test.ammoniaN <= th.ammoniaZeroN && test.nitriteN <= th.nitriteZeroN
+}
+
+/** The curve tests of a history's tests taken one at a time, in the forecast's order. */
+export class CurveTestFold {
+  /** The latest curve test so far. */
+  last: TimedTest | undefined
+  /** How many curve tests so far. */
+  count = 0
+  private d = 0
+  private lastDose = Number.NEGATIVE_INFINITY
+  private lastDoseProof = false
+
+  constructor(private readonly doses: readonly ProofDose[], private readonly th: Thresholds) {}
+
+  /** Takes the next test; true when it traces the curve. */
+  push(test: TimedTest): boolean {
+    const { doses } = this
+    while (this.d < doses.length && doses[this.d]!.t < test.t) {
+      this.lastDose = doses[this.d]!.t
+      this.lastDoseProof = this.last !== undefined && readsZero(this.last, this.th)
+      this.d += 1
+    }
+    if (this.lastDoseProof && test.t - this.lastDose <= DOSE_CHECK_HOURS * HOUR_MS) return false
+    this.last = test
+    this.count += 1
+    return true
+  }
+}
+
+/** The tests that trace the curves, in order. */
+export function curveTests(tests: readonly TimedTest[], doses: readonly ProofDose[], th: Thresholds): TimedTest[] {
+  const fold = new CurveTestFold(doses, th)
+  return tests.filter(test => fold.push(test))
+}

@@ -1,0 +1,64 @@
+/**
+ * A history held only in its latest part: the tests from `startMs` to the one moment it was read
+ * for, with what the verdict needs of the tests before (the course over all of them, the first
+ * test that showed ammonia or nitrite, the forecast's curve count) folded as they streamed past.
+ * A tank with years of imported tests is judged holding weeks of them, not years.
+ *
+ * Exact or nothing: every read of the tests goes through `reads.ts`, which answers only what the
+ * held part settles and otherwise throws `BeyondWindow`; the caller then evaluates the whole
+ * history as before. So a windowed verdict is the whole history's verdict, or it is not made.
+ */
+import type { Course } from './course'
+import type { TimedTest } from './forecast/series'
+import type { TimedReading } from './history'
+import type { RuleOptions } from './options'
+import type { CycleMethod, Thresholds } from './types'
+
+/** What a windowed history holds of the tests before its start, folded as they streamed past. */
+export interface HistoryWindow {
+  /** `readings` holds every test taken from this time up to `nowMs` (its time parsed), and none before it; minus infinity when it holds them all. */
+  readonly startMs: number
+  /** The one moment the history was read for: the course and the facts below are as of it. */
+  readonly nowMs: number
+  /** What the course and the facts were folded with: a verdict asked with anything else cannot use them. */
+  readonly thresholds: Thresholds
+  readonly method: CycleMethod
+  readonly startedMs: number
+  readonly options: RuleOptions
+  /** The course over the whole history as of `nowMs`. */
+  readonly course: Course
+  /** The first test of the whole history showing ammonia or nitrite above zero (`showsNitrogen`), or null. */
+  readonly firstShown: TimedReading | null
+  /** Whether a test before `startMs` lost a value (the input rule names each such test). */
+  readonly repairedBeforeStart: boolean
+  /** The forecast's curve tests of the whole history as of `nowMs`: the latest, and how many. */
+  readonly curve: { readonly last: TimedTest | null, readonly count: number }
+}
+
+/** Thrown when a verdict or forecast needs tests from before a windowed history's start. */
+export class BeyondWindow extends Error {
+  constructor(what: string) {
+    super(`The verdict needs tests from before the part of the history held: ${what}.`)
+    this.name = 'BeyondWindow'
+  }
+}
+
+/** Where the tests held begin: minus infinity for a whole history. */
+export function windowStart(history: { readonly window?: HistoryWindow }): number {
+  return history.window?.startMs ?? Number.NEGATIVE_INFINITY
+}
+
+function sameThresholds(a: Thresholds, b: Thresholds): boolean {
+  const keys = Object.keys(a) as (keyof Thresholds)[]
+  return keys.length === Object.keys(b).length && keys.every(key => a[key] === b[key])
+}
+
+/**
+ * Throws BeyondWindow unless the window was folded for this very evaluation: the same moment,
+ * limits, tank and rule set version. A window read for one `now` says nothing about another.
+ */
+export function assertWindowFits(window: HistoryWindow, thresholds: Thresholds, method: CycleMethod, startedMs: number, nowMs: number, options: RuleOptions): void {
+  const fits = window.nowMs === nowMs && window.method === method && window.startedMs === startedMs
+    && window.options === options && sameThresholds(window.thresholds, thresholds)
+  if (!fits) throw new BeyondWindow('it was read for another moment, limits, tank or rule set')
+}

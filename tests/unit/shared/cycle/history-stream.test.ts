@@ -1,0 +1,127 @@
+/**
+ * A history streamed past once and held only in its latest part (shared/cycle/history-stream.ts,
+ * window.ts, reads.ts) against a full evaluation. For random histories (history-cases.ts), windows
+ * from a few hours to longer than the history, and every rule set version, the verdict and the
+ * forecast made from the window must equal those made from the whole input, or the engine must say
+ * it cannot (BeyondWindow) so the caller evaluates the whole history: a window never answers
+ * differently. A realistic long history (a fish-in cycle, then two years of upkeep) must be
+ * judged from its window without falling back.
+ */
+
+import fc from 'fast-check'
+import { describe, expect, it } from 'vitest'
+import { evaluateCycle, evaluatePrepared } from '../../../../shared/cycle/engine'
+import { forecastCycle, forecastPrepared } from '../../../../shared/cycle/forecast'
+import { buildHistory } from '../../../../shared/cycle/history'
+import { prepareStreamed } from '../../../../shared/cycle/history-stream'
+import { CURRENT_RULE_OPTIONS, RULE_OPTIONS_2_0_0 } from '../../../../shared/cycle/options'
+import { BeyondWindow } from '../../../../shared/cycle/window'
+import type { CycleInput, CycleReading, Thresholds } from '../../../../shared/cycle/types'
+import { caseArb, withOdd } from './history-cases'
+import { at, TankLog } from './tank-log'
+
+const RUNS = { seed: 20261203, numRuns: 150 }
+const LIMIT_MS = 60_000
+const HOUR_MS = 3_600_000
+const DAY_MS = 24 * HOUR_MS
+
+/** The readings in time order as rows come from the database; a time that does not parse anywhere (here last). */
+function inTimeOrder(readings: readonly CycleReading[]): CycleReading[] {
+  const readable = readings.filter(r => Number.isFinite(Date.parse(r.takenAt)))
+  const unreadable = readings.filter(r => !Number.isFinite(Date.parse(r.takenAt)))
+  return [...readable.sort((a, b) => Date.parse(a.takenAt) - Date.parse(b.takenAt)), ...unreadable]
+}
+
+/** The value of `run`, or undefined when it threw BeyondWindow (any other error fails the test). */
+function unlessBeyond<T>(run: () => T): T | undefined {
+  try {
+    return run()
+  }
+  catch (error) {
+    if (error instanceof BeyondWindow) return undefined
+    throw error
+  }
+}
+
+describe('a streamed history held in its window gives the full evaluation, or says it cannot', { timeout: 2 * LIMIT_MS }, () => {
+  it('for random histories, windows and rule set versions', () => {
+    let judged = 0
+    let judgedFromPart = 0
+    let forecast = 0
+    let cases = 0
+    fc.assert(fc.property(caseArb, fc.constantFrom(0.25, 1, 3, 10, 20, 40, 10_000), (c, windowDays) => {
+      cases += 1
+      const base = c.log.input
+      const now = new Date(Date.parse(base.now) + c.nowShiftHours * HOUR_MS).toISOString()
+      const thresholds: Partial<Thresholds> = { ...base.thresholds, ...c.limits }
+      const input: CycleInput = { ...base, readings: inTimeOrder(withOdd(base.readings, c.odd, now)), thresholds, now }
+      const streamed = prepareStreamed(input, input.readings, input.events, windowDays, c.options)
+      expect(streamed).toBeDefined()
+      // What it holds: the whole history's tests from the window's start on, no others.
+      const startMs = Date.parse(now) - windowDays * DAY_MS
+      expect(streamed!.history.readings).toEqual(buildHistory(input.readings, input.events ?? [], Date.parse(now)).readings.filter(r => r.t >= startMs))
+      const full = evaluateCycle(input, c.options)
+      const verdict = unlessBeyond(() => evaluatePrepared(streamed!, c.options))
+      if (verdict === undefined) return
+      judged += 1
+      if (streamed!.history.window!.startMs > Number.NEGATIVE_INFINITY) judgedFromPart += 1
+      expect(verdict).toEqual(full)
+      if (c.options !== CURRENT_RULE_OPTIONS) return
+      const predicted = unlessBeyond(() => forecastPrepared(streamed!, verdict))
+      if (predicted === undefined) return
+      forecast += 1
+      expect(predicted).toEqual(forecastCycle(input, full))
+    }), { ...RUNS, interruptAfterTimeLimit: LIMIT_MS })
+    // The comparison is not empty: many windows settle the verdict, some holding only part of
+    // the history (a window of hours rarely does: the rules look back days), and many the forecast.
+    expect(judged).toBeGreaterThan(cases / 3)
+    expect(judgedFromPart).toBeGreaterThan(cases / 10)
+    expect(forecast).toBeGreaterThan(cases / 10)
+  })
+
+  it('judges two years of upkeep after a fish-in cycle from its last 60 days', () => {
+    const log = new TankLog('fish-in')
+    // The cycle: ammonia up and down, nitrite after it, nitrate left behind.
+    log.days(0, {
+      ammonia: [0.1, 0.3, 0.5, 0.8, 1, 1, 0.8, 0.5, 0.3, 0.2, 0.1, 0.05, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0],
+      nitrite: [0, 0, 0, 0.1, 0.3, 0.6, 1, 1.2, 1, 0.8, 0.5, 0.3, 0.2, 0.1, 0.05, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0],
+      nitrate: [0.5, 0.5, 0.5, 1, 1, 2, 2, 3, 4, 5, 6, 7, 8, 9, 10, 10, 11, 11, 12, 12, 12, 13, 13, 13, 14, 14, 14, 15],
+    })
+    log.livestock(40, 'fish')
+    // Upkeep: a test each morning and evening, a water change each week, nitrate climbing between changes.
+    for (let day = 28; day < 760; day += 1) {
+      log.test(day, { ammoniaN: 0, nitriteN: 0, nitrateN: 5 + (day % 7) * 1.5, alkalinityDkh: 8.5, calciumMgL: 420, magnesiumMgL: 1300 }, 8)
+      log.test(day, { ammoniaN: 0, nitriteN: 0 }, 20)
+      if (day % 7 === 6) log.waterChange(day, 30)
+    }
+    const input = log.input(760, 9)
+    input.readings = inTimeOrder(input.readings)
+    const streamed = prepareStreamed(input, input.readings, input.events, 60)!
+    expect(streamed.history.readings.length).toBeLessThanOrEqual(2 * 60)
+    const full = evaluateCycle(input)
+    expect(full.phase).toBe('complete')
+    const verdict = evaluatePrepared(streamed)
+    expect(verdict).toEqual(full)
+    expect(forecastPrepared(streamed, verdict)).toEqual(forecastCycle(input, full))
+  })
+
+  it('is not made from readings out of time order', () => {
+    const readings: CycleReading[] = [{ id: 'b', takenAt: at(2), ammoniaN: 0 }, { id: 'a', takenAt: at(1), ammoniaN: 1 }]
+    const input: CycleInput = { tank: { volumeLitres: 100, cycleMethod: 'fishless', startedAt: at(0) }, readings, events: [], now: at(3) }
+    expect(prepareStreamed(input, readings, [], 30)).toBeUndefined()
+    // One whose time does not parse may come anywhere.
+    const withUnreadable = [readings[1]!, { id: 'x', takenAt: 'soon', ammoniaN: 3 }, readings[0]!]
+    expect(prepareStreamed(input, withUnreadable, [], 30)).toBeDefined()
+  })
+
+  it('answers only the moment, limits and rule set it was read for', () => {
+    const log = new TankLog('fishless').days(0, { ammonia: [0, 1, 2, 1, 0], nitrite: [0, 0, 1, 2, 0] })
+    const input = log.input(5)
+    const streamed = prepareStreamed(input, input.readings, input.events, 30)!
+    expect(evaluatePrepared(streamed)).toEqual(evaluateCycle(input))
+    expect(() => evaluatePrepared({ ...streamed, now: at(6) })).toThrow(BeyondWindow)
+    expect(() => evaluatePrepared({ ...streamed, thresholds: { ammoniaZeroN: 0.1 } })).toThrow(BeyondWindow)
+    expect(() => evaluatePrepared({ ...streamed, tank: { ...streamed.tank, cycleMethod: 'fish-in' } })).toThrow(BeyondWindow)
+    expect(() => evaluatePrepared(streamed, RULE_OPTIONS_2_0_0)).toThrow(BeyondWindow)
+  })
+})
