@@ -209,11 +209,12 @@ describe('a sign-off command given an evaluation made before what else the engin
     db.update(tanks).set(change(tankRow())).where(eq(tanks.id, nano)).run()
 
   it('refuses a request on an evaluation made under thresholds since changed (409) and stores nothing; on the current ones it is stored', () => {
-    const before = stateNow()
-    expect(before.rows.some(r => r.status === 'requested')).toBe(false)
+    expect(signOffRows().some(r => r.status === 'requested')).toBe(false)
     const made = evaluation()
     expect(made.verdict.phase).toBe('complete')
     nudgeAThreshold()
+    // Taken after the save, whose own audit row is not the command's.
+    const before = stateNow()
     // Only the company's limits moved: the tank's tests are as the evaluation read them.
     expect(tankDataRevisionInDb(db, nano)).toBe(made.revision)
     const refused = refusalOf(() => requestSignOff(db, aquarist, tankRow(), 'Zero for a week', true, made))
@@ -227,9 +228,9 @@ describe('a sign-off command given an evaluation made before what else the engin
   })
 
   it('refuses a decision on an evaluation made under thresholds since changed (409) and stores nothing', () => {
-    const before = stateNow()
     const made = evaluation()
     nudgeAThreshold()
+    const before = stateNow()
     expect(tankDataRevisionInDb(db, nano)).toBe(made.revision)
     expect(refusalOf(() => decideSignOff(db, supervisor, tankRow(), 'approve', 'Cycle proven.', made))).toMatchObject(OUTDATED)
     expectUnchanged(before)
@@ -237,9 +238,9 @@ describe('a sign-off command given an evaluation made before what else the engin
 
   for (const [label, change] of profileChanges) {
     it(`refuses a decision on an evaluation made before the tank's ${label} changed (409) and stores nothing`, () => {
-      const before = stateNow()
       const made = evaluation()
       changeTank(change)
+      const before = stateNow()
       expect(tankDataRevisionInDb(db, nano)).toBe(made.revision)
       expect(refusalOf(() => decideSignOff(db, supervisor, tankRow(), 'approve', 'Cycle proven.', made))).toMatchObject(OUTDATED)
       expectUnchanged(before)
