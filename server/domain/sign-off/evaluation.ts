@@ -23,7 +23,7 @@ export interface SignOffVerdict {
   revision: number
   /**
    * The tank's profile and company thresholds the verdict was made under: the input's own part
-   * besides the history (small, so the pool hands it back even when it keeps the input).
+   * besides the history (small, so the pool hands it back even when it hands back no input).
    */
   settings: EngineSettings
 }

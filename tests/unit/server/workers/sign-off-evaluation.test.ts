@@ -1,7 +1,9 @@
 /**
  * The pool's sign-off evaluation, called as the worker thread calls it (its own connection
- * from the file's path): the same input, verdict and data revision the request loop's connection
- * gives for the same moment, and a revision that counts a change made on the other connection.
+ * from the file's path): the same input, verdict, data revision and settings the request loop's
+ * connection gives for the same moment, a revision that counts a change made on the other
+ * connection, and the settings handed back even without the input, so a request on them is still
+ * checked against the company's thresholds.
  */
 import { eq } from 'drizzle-orm'
 import { describe, expect, it } from 'vitest'

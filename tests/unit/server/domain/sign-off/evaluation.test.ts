@@ -1,7 +1,8 @@
 /**
  * A sign-off request or decision is made on an evaluation made before it (in the heavy-work pool
  * for a long history, while the request loop serves others): the command stores it only if the
- * tank's data revision is still the one the evaluation was made at, checked inside its write
+ * tank's data revision is still the one the evaluation was made at, and the tank's profile and the
+ * company's thresholds still the ones its verdict was made under, checked inside its write
  * transaction. On a real migrated SQLite file with the demo company; the demo nano waits for a
  * decision and its cycle is complete.
  */
