@@ -19,8 +19,21 @@ import { readOrganisationSettings } from './settings'
 /** The tank's row, prepared once. */
 const tankById = preparedPerDb(db => db.select().from(tanks).where(eq(tanks.id, sql.placeholder('tankId'))).prepare())
 
-/** What the engine reads of a tank's profile and its company's limits, or undefined if there is no such tank. */
-function engineTank(db: Db, tankId: string): { tank: CycleTank, thresholds: Partial<Thresholds> } | undefined {
+/** What the engine reads besides the tank's history and `now`: the tank's profile and its company's thresholds. */
+export interface EngineSettings {
+  tank: CycleTank
+  thresholds: Partial<Thresholds>
+}
+
+/** The engine input as cycleInputFor builds it: its thresholds always read from the company. */
+export type TankCycleInput = CycleInput & EngineSettings
+
+/**
+ * What the engine reads of a tank's profile and its company's limits, or undefined if there is no
+ * such tank: the one builder of that part of every engine input (a sign-off compares it, read
+ * again, with the one its verdict was made under).
+ */
+export function engineSettingsFor(db: Db, tankId: string): EngineSettings | undefined {
   const tank = tankById(db).get({ tankId })
   if (!tank) return undefined
   const { thresholds } = readOrganisationSettings(db, tank.organisationId)
@@ -32,8 +45,8 @@ function engineTank(db: Db, tankId: string): { tank: CycleTank, thresholds: Part
  * undefined if there is no such tank. A correction replaces the entry it corrects; the engine
  * sees only the current value.
  */
-export function cycleInputFor(db: Db, tankId: string, now: Date): CycleInput | undefined {
-  const found = engineTank(db, tankId)
+export function cycleInputFor(db: Db, tankId: string, now: Date): TankCycleInput | undefined {
+  const found = engineSettingsFor(db, tankId)
   return found && { ...found, ...readEngineInput(db, tankId), now: now.toISOString() }
 }
 
@@ -42,7 +55,7 @@ export function cycleInputFor(db: Db, tankId: string, now: Date): CycleInput | u
  * has not changed (engine-input-cache.ts): what a verdict refresh evaluates.
  */
 function preparedInputFor(db: Db, tankId: string, now: Date): PreparedInput | undefined {
-  const found = engineTank(db, tankId)
+  const found = engineSettingsFor(db, tankId)
   return found && { ...found, history: keptHistory(db, tankId).history, now: now.toISOString() }
 }
 
@@ -63,7 +76,7 @@ export function computeAndStoreVerdict(db: Db, tankId: string, now = new Date())
  * The tank's engine input as the database holds it at `now` and its verdict, made from that very
  * input (a sign-off decides on it and records the input); undefined if there is no such tank.
  */
-export function verdictWithInput(db: Db, tankId: string, now: Date): { input: CycleInput, verdict: Verdict } | undefined {
+export function verdictWithInput(db: Db, tankId: string, now: Date): { input: TankCycleInput, verdict: Verdict } | undefined {
   const input = cycleInputFor(db, tankId, now)
   return input && { input, verdict: evaluateCycle(input, CURRENT_RULE_OPTIONS) }
 }

@@ -89,7 +89,10 @@ export function signOffEvaluationOffLoop(tankId: string, now: Date): Promise<Sig
   return heavyPool().run({ tankId, nowMs: now.getTime(), dbPath: dbPath(), withInput: true } satisfies SignOffEvaluationTask, { name: 'signOffEvaluation' })
 }
 
-/** What a sign-off request rests on, made in the pool: the same without the input, which a request does not record. */
+/**
+ * What a sign-off request rests on, made in the pool: the same without the input, which a request
+ * does not record; the tank's profile and thresholds the verdict was made under come back with it.
+ */
 export function signOffVerdictOffLoop(tankId: string, now: Date): Promise<SignOffVerdict | null> {
   return heavyPool().run({ tankId, nowMs: now.getTime(), dbPath: dbPath(), withInput: false } satisfies SignOffEvaluationTask, { name: 'signOffEvaluation' })
 }

@@ -76,7 +76,10 @@ async function evaluateForSignOff(tankId: string, now: Date): Promise<SignOffEva
   return found(hasLongHistory(db, tankId) ? await signOffEvaluationOffLoop(tankId, now) : evaluateInDb(db, tankId, now))
 }
 
-/** What a sign-off request rests on: the same, but from the pool without the input (a request records none). */
+/**
+ * What a sign-off request rests on: the same, but from the pool without the input (a request
+ * records none); the tank profile and thresholds the verdict was made under still come back.
+ */
 async function verdictForSignOff(tankId: string, now: Date): Promise<SignOffVerdict> {
   const db = useDB()
   return found(hasLongHistory(db, tankId) ? await signOffVerdictOffLoop(tankId, now) : evaluateInDb(db, tankId, now))
@@ -89,8 +92,9 @@ function found<E>(evaluation: E | null | undefined): E {
 
 /**
  * Runs a sign-off command on an evaluation of the tank made just before it (by `evaluate`),
- * evaluated again when the tank's tests changed meanwhile (onCurrentEvaluation: three tries, then
- * 409). The tank is read again before each step: its status may have moved while the evaluation was made.
+ * evaluated again when the tank's tests or settings changed meanwhile (onCurrentEvaluation: three
+ * tries, then 409). The tank is read again before each step: its status may have moved while the
+ * evaluation was made.
  */
 function onEvaluatedTank<T, E extends SignOffVerdict>(actor: Actor, tankId: string, evaluate: (tankId: string, now: Date) => Promise<E>, check: (tank: TankRow) => void, command: (tank: TankRow, evaluation: E) => T): Promise<T> {
   return signOffAnswerLater(() => onCurrentEvaluation({

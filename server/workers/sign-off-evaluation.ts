@@ -3,7 +3,8 @@
  * with a long history: the tank's whole history read anew and the engine run over it take long
  * enough (about a second for 100,000 tests) that on the request loop they would hold up every
  * other company. Calls the same framework-free piece the loop does (evaluateForSignOff), on this
- * thread's own connection: the revision it reads is the database's, counted on every connection.
+ * thread's own connection: the revision it reads is the database's, counted on every connection,
+ * and the tank's profile and thresholds it hands back are the ones the verdict was made under.
  */
 import { evaluateForSignOff, withoutInput, type SignOffEvaluation, type SignOffVerdict } from '#server/domain/sign-off/evaluation'
 import { workerConnection } from './connection'
@@ -16,7 +17,10 @@ export interface SignOffEvaluationTask {
   withInput: boolean
 }
 
-/** The tank's verdict, data revision and (when asked) input as of the task's moment, or null when there is no such tank. */
+/**
+ * The tank's verdict, data revision, the settings it was made under and (when asked) input as of
+ * the task's moment, or null when there is no such tank.
+ */
 export function signOffEvaluation(task: SignOffEvaluationTask): SignOffEvaluation | SignOffVerdict | null {
   const evaluation = evaluateForSignOff(workerConnection(task.dbPath), task.tankId, new Date(task.nowMs))
   if (!evaluation) return null

@@ -202,7 +202,7 @@ describe('a sign-off on a tank with a long history', { timeout: 180_000 }, () =>
       expect(save.body.statusMessage).toMatch(/signed off/)
     }
     else {
-      expect(decision.body.statusMessage).toBe('The tank\'s tests changed while the sign-off was being checked. Try again.')
+      expect(decision.body.statusMessage).toBe('The tank\'s tests or settings changed while the sign-off was being checked. Try again.')
       expect(save.status).toBe(201)
     }
   })

@@ -35,7 +35,8 @@ export function checkSignOffRequest(db: Db, tank: TankRow, mayManage: boolean): 
  * Asks for sign-off of a cycle the engine judges complete; the tank becomes 'cycled'.
  * `mayManage`: whether the actor may change this tank (server/utils/access.ts decides).
  * `evaluation`: the tank evaluated as of the request (evaluation.ts); refused (EvaluationOutdated)
- * when the tank's data changed after it was made.
+ * when the tank's data or what else the engine read (its profile, the company's thresholds)
+ * changed after it was made.
  */
 export function requestSignOff(db: Db, actor: SignOffActor, tank: TankRow, note: string, mayManage: boolean, evaluation: SignOffVerdict): SignOffRow {
   checkSignOffRequest(db, tank, mayManage)
@@ -86,8 +87,9 @@ export function checkSignOffDecision(db: Db, actor: SignOffActor, tank: TankRow,
 /**
  * Approves or returns the waiting request. The engine input and verdict of `evaluation` (the tank
  * evaluated as of the decision, evaluation.ts) are stored with it; approving against the verdict
- * needs a written reason (400). Refused (EvaluationOutdated) when the tank's data changed after
- * the evaluation was made: a decision never rests on a verdict that leaves out a test.
+ * needs a written reason (400). Refused (EvaluationOutdated) when the tank's data, profile or
+ * thresholds changed after the evaluation was made: a decision never rests on a verdict that
+ * leaves out a test or was made under settings no longer in force.
  */
 export function decideSignOff(db: Db, actor: SignOffActor, tank: TankRow, decision: 'approve' | 'return', note: string, evaluation: SignOffEvaluation): DecisionResult {
   const request = checkSignOffDecision(db, actor, tank, decision, note)

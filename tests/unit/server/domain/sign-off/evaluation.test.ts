@@ -1,7 +1,8 @@
 /**
  * A sign-off request or decision is made on an evaluation made before it (in the heavy-work pool
  * for a long history, while the request loop serves others): the command stores it only if the
- * tank's data revision is still the one the evaluation was made at, checked inside its write
+ * tank's data revision is still the one the evaluation was made at, and the tank's profile and the
+ * company's thresholds still the ones its verdict was made under, checked inside its write
  * transaction. On a real migrated SQLite file with the demo company; the demo nano waits for a
  * decision and its cycle is complete.
  */
@@ -10,6 +11,8 @@ import { describe, expect, it } from 'vitest'
 import { evaluateCycle } from '../../../../../shared/cycle/engine'
 import type { SignOffSnapshot } from '../../../../../shared/types/sign-off'
 import { auditLog, readings, signOffs, tanks } from '../../../../../server/db/schema'
+import { readCompanySettings, saveCompanySettings } from '../../../../../server/domain/settings/update'
+import type { OrganisationSettings } from '../../../../../shared/schemas/settings'
 import { decideSignOff, requestSignOff } from '../../../../../server/domain/sign-off/commands'
 import { EvaluationOutdated, evaluateForSignOff, onCurrentEvaluation, SIGN_OFF_ATTEMPTS, type SignOffEvaluation } from '../../../../../server/domain/sign-off/evaluation'
 import { tankDataRevisionInDb } from '../../../../../server/domain/readings/data-revision'
@@ -38,6 +41,21 @@ function touchATest(): void {
   db.update(readings).set({ notes: `looked at ${Date.now()}` }).where(eq(readings.id, test.id)).run()
 }
 
+/** The company settings saved as the settings form saves them, with `change` made to them. */
+function saveSettings(change: (settings: OrganisationSettings) => OrganisationSettings): void {
+  const current = readCompanySettings(db, demo.organisationId)!
+  const saved = saveCompanySettings(db, { id: demo.users.admin, organisationId: demo.organisationId }, { name: current.name, settings: change(current.settings), version: current.version })
+  expect(saved.ok).toBe(true)
+}
+
+/** One of the company's thresholds moved by a little (the engine reads every threshold). */
+function nudgeAThreshold(): void {
+  saveSettings((settings) => {
+    const max = settings.thresholds.temperatureMaxC ?? 29
+    return { ...settings, thresholds: { ...settings.thresholds, temperatureMaxC: max === 29 ? 28.5 : 29 } }
+  })
+}
+
 /** Nothing of the refused command was written: the rows, the tank's status and the audit log are as they were. */
 function expectUnchanged(before: { rows: unknown, status: string, audit: number }): void {
   expect(signOffRows()).toEqual(before.rows)
@@ -60,7 +78,7 @@ describe('a sign-off command given an evaluation made before the tank\'s data ch
     touchATest()
     const refused = refusalOf(() => decideSignOff(db, supervisor, tankRow(), 'approve', 'Cycle proven.', made))
     expect(refused).toBeInstanceOf(EvaluationOutdated)
-    expect(refused).toMatchObject({ status: 409, message: 'The tank\'s tests changed while the sign-off was being checked. Try again.' })
+    expect(refused).toMatchObject({ status: 409, message: 'The tank\'s tests or settings changed while the sign-off was being checked. Try again.' })
     expectUnchanged(before)
     expect(signOffRows().filter(r => r.status === 'approved')).toEqual([])
     expect(tankRow().status).toBe('cycled')
@@ -175,5 +193,70 @@ describe('a sign-off command whose tank changes while it is evaluated', () => {
       command: () => 'stored',
     })).rejects.toMatchObject({ status: 409, message: 'No sign-off request is waiting for this tank' })
     expect(evaluated).toBe(false)
+  })
+})
+
+describe('a sign-off command given an evaluation made before what else the engine reads changed', () => {
+  const OUTDATED = { status: 409, message: 'The tank\'s tests or settings changed while the sign-off was being checked. Try again.' }
+
+  /** The tank's row changed in one of the fields the engine reads of it. */
+  const profileChanges: Array<[string, (tank: ReturnType<typeof tankRow>) => Partial<ReturnType<typeof tankRow>>]> = [
+    ['volume', tank => ({ volumeLitres: tank.volumeLitres + 10 })],
+    ['sump', tank => ({ sumpLitres: tank.sumpLitres + 5 })],
+    ['cycle method', tank => ({ cycleMethod: tank.cycleMethod === 'fishless' ? 'fish-in' : 'fishless' })],
+    ['cycle start', tank => ({ cycleStartedAt: new Date(Date.parse(tank.cycleStartedAt ?? tank.createdAt) - 3_600_000).toISOString() })],
+  ]
+  const changeTank = (change: (tank: ReturnType<typeof tankRow>) => Partial<ReturnType<typeof tankRow>>) =>
+    db.update(tanks).set(change(tankRow())).where(eq(tanks.id, nano)).run()
+
+  it('refuses a request on an evaluation made under thresholds since changed (409) and stores nothing; on the current ones it is stored', () => {
+    expect(signOffRows().some(r => r.status === 'requested')).toBe(false)
+    const made = evaluation()
+    expect(made.verdict.phase).toBe('complete')
+    nudgeAThreshold()
+    // Taken after the save, whose own audit row is not the command's.
+    const before = stateNow()
+    // Only the company's limits moved: the tank's tests are as the evaluation read them.
+    expect(tankDataRevisionInDb(db, nano)).toBe(made.revision)
+    const refused = refusalOf(() => requestSignOff(db, aquarist, tankRow(), 'Zero for a week', true, made))
+    expect(refused).toBeInstanceOf(EvaluationOutdated)
+    expect(refused).toMatchObject(OUTDATED)
+    expectUnchanged(before)
+
+    const current = evaluation()
+    expect(current.input.thresholds).toEqual(readCompanySettings(db, demo.organisationId)!.settings.thresholds)
+    expect(requestSignOff(db, aquarist, tankRow(), 'Zero for a week', true, current)).toMatchObject({ status: 'requested', requestedAt: current.now })
+  })
+
+  it('refuses a decision on an evaluation made under thresholds since changed (409) and stores nothing', () => {
+    const made = evaluation()
+    nudgeAThreshold()
+    const before = stateNow()
+    expect(tankDataRevisionInDb(db, nano)).toBe(made.revision)
+    expect(refusalOf(() => decideSignOff(db, supervisor, tankRow(), 'approve', 'Cycle proven.', made))).toMatchObject(OUTDATED)
+    expectUnchanged(before)
+  })
+
+  for (const [label, change] of profileChanges) {
+    it(`refuses a decision on an evaluation made before the tank's ${label} changed (409) and stores nothing`, () => {
+      const made = evaluation()
+      changeTank(change)
+      const before = stateNow()
+      expect(tankDataRevisionInDb(db, nano)).toBe(made.revision)
+      expect(refusalOf(() => decideSignOff(db, supervisor, tankRow(), 'approve', 'Cycle proven.', made))).toMatchObject(OUTDATED)
+      expectUnchanged(before)
+      // Made again, the evaluation reads the tank as it is now.
+      expect(evaluation().input.tank).not.toEqual(made.input.tank)
+    })
+  }
+
+  it('stores a decision on an evaluation made before a change the engine does not read (the tank\'s name, the company\'s time zone)', () => {
+    const made = evaluation()
+    changeTank(tank => ({ name: `${tank.name} (renamed)` }))
+    saveSettings(settings => ({ ...settings, timeZone: settings.timeZone === 'Europe/London' ? 'UTC' : 'Europe/London' }))
+    const { signOff } = decideSignOff(db, supervisor, tankRow(), 'return', 'The sump photos are missing.', made)
+    expect(signOff.status).toBe('returned')
+    const snapshot = db.select().from(signOffs).where(eq(signOffs.id, signOff.id)).get()!.snapshot as SignOffSnapshot
+    expect(snapshot.input).toEqual(JSON.parse(JSON.stringify(made.input)))
   })
 })
