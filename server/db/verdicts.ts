@@ -12,7 +12,9 @@ import type { CycleInput, CycleTank, Thresholds, Verdict } from '../../shared/cy
 import type { CycleForecast } from '../../shared/cycle/forecast'
 import type { Db } from './connection'
 import { preparedPerDb } from './prepared'
-import { keptHistory, readEngineInput } from '../domain/readings/engine-input-cache'
+import { keptHistory, readEngineInput, readStreamedInput } from '../domain/readings/engine-input-cache'
+import { HISTORY_WINDOW_DAYS, streamsHistory } from '../domain/tanks/long-history'
+import { BeyondWindow } from '../../shared/cycle/window'
 import { tankVerdicts, tanks } from './schema'
 import { readOrganisationSettings } from './settings'
 
@@ -87,8 +89,28 @@ export function verdictWithInput(db: Db, tankId: string, now: Date): { input: Ta
  * the tank's kept history, so neither parses and orders the tests again.
  */
 export function evaluateTankNow(db: Db, tankId: string, now: Date): TankEvaluation | undefined {
+  const streamed = streamsHistory(db, tankId) ? evaluateStreamed(db, tankId, now) : undefined
+  if (streamed) return streamed
   const input = preparedInputFor(db, tankId, now)
   return input && evaluateTank(input)
+}
+
+/**
+ * The verdict and forecast from the tank's history streamed past once and held for its last
+ * HISTORY_WINDOW_DAYS only, or undefined when there is no such tank or the window cannot settle
+ * them (the engine says so: it never guesses); the caller then evaluates the whole history.
+ */
+function evaluateStreamed(db: Db, tankId: string, now: Date): TankEvaluation | undefined {
+  const found = engineSettingsFor(db, tankId)
+  const input = found && readStreamedInput(db, tankId, { ...found, now: now.toISOString() }, HISTORY_WINDOW_DAYS)
+  if (!input) return undefined
+  try {
+    return evaluateTank(input)
+  }
+  catch (error) {
+    if (error instanceof BeyondWindow) return undefined
+    throw error
+  }
 }
 
 /** What is stored for a tank: the engine's verdict and the completion forecast made from the same input. */

@@ -14,7 +14,8 @@
  * Framework-free: takes a `Db`; each handle (the server's connection, a worker's, a test's)
  * keeps its own copies.
  */
-import { prepareHistory, withReadingAdded, type PreparedHistory } from '../../../shared/cycle/history'
+import { prepareHistory, withReadingAdded, type PreparedHistory, type PreparedInput } from '../../../shared/cycle/history'
+import { prepareStreamed, type StreamedInputHead } from '../../../shared/cycle/history-stream'
 import type { CycleEvent, CycleReading } from '../../../shared/cycle/types'
 import { CYCLE_EVENT_KINDS, type CycleEventKind, type EventKind } from '../../../shared/vocabulary'
 import type { Db } from '../../db/connection'
@@ -89,6 +90,20 @@ export function readKeptHistory(db: Db, tankId: string, revision: number): KeptH
     for (const values of tankEngineReadings(db, tankId)) yield toCycleReading(values)
   }
   return keptAt(revision, prepareHistory(readings(), cycleEventsOf(db, tankId)))
+}
+
+/**
+ * The tank's engine input for `head` (its profile, thresholds and `now`) with its history streamed
+ * from the database in time order and held only for the `windowDays` before `now`
+ * (shared/cycle/history-stream.ts): nothing of the rows is kept, and no copy. Undefined when the
+ * rows do not come in the history's time order; the engine throws BeyondWindow when the window
+ * cannot settle the verdict. Either way the caller evaluates the whole history instead.
+ */
+export function readStreamedInput(db: Db, tankId: string, head: StreamedInputHead, windowDays: number): PreparedInput | undefined {
+  function* readings(): Generator<CycleReading> {
+    for (const values of tankEngineReadings(db, tankId)) yield toCycleReading(values)
+  }
+  return prepareStreamed(head, readings(), cycleEventsOf(db, tankId), windowDays)
 }
 
 /** A kept copy of `history`: every test it was made from is either in its order or left out for its time. */

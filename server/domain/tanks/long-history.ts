@@ -17,6 +17,30 @@ import { keptTestCount } from '../readings/engine-input-cache'
 export const LONG_HISTORY_TESTS = 5_000
 
 /**
+ * Above this many tests a tank's history is not kept in memory between its evaluations: each one
+ * streams the tests from the database and holds only the last HISTORY_WINDOW_DAYS of them (about
+ * 4,000 tests at the day cap), so a tank's memory stops growing with its history. Up to it a
+ * year of tests at the day cap is kept (about 5 MB) and a new test costs its own place.
+ */
+export const STREAMED_HISTORY_TESTS = 20_000
+
+/**
+ * Days of tests a streamed history holds: longer than any stretch a rule looks back over at the
+ * longest a company may set it (stall and salinity days, at most 60). A verdict that needs older
+ * tests is made from the whole history instead, so this bounds memory, never the verdict.
+ */
+export const HISTORY_WINDOW_DAYS = 90
+
+/**
+ * Whether the tank's history is streamed for each evaluation: more than STREAMED_HISTORY_TESTS
+ * stored tests and no copy kept at its current revision (one kept after a window could not
+ * settle a verdict is used while it is current).
+ */
+export function streamsHistory(db: Db, tankId: string): boolean {
+  return keptTestCount(db, tankId) === undefined && storedReadingCount(db, tankId) > STREAMED_HISTORY_TESTS
+}
+
+/**
  * Whether the tank holds more than LONG_HISTORY_TESTS tests: from the copy of its history the
  * connection keeps when it is current (a save has just placed its test in it), else counted.
  */
