@@ -77,7 +77,7 @@ try {
   collect()
   writeFileSync('/proc/self/clear_refs', '5')
   const beforeVerdict = { ...process.memoryUsage(), ...residentBytes() }
-  const verdict = timed('verdict', () => worker.tankVerdict({ dbPath, tankId, nowMs: Date.now() }))
+  const verdict = timed('verdict', () => worker.tankVerdict({ dbPath, tankId, nowMs: Date.now(), appended: [] }))
   collect()
   console.log(`verdict step added: peak rss ${mib(residentBytes().peak - beforeVerdict.rss)}, heap kept after a collection ${((process.memoryUsage().heapUsed - beforeVerdict.heapUsed) / 1048576).toFixed(1)} MiB (the tank's kept history)`)
   console.log(`inserted ${imported.value.preview?.inserted}, write lock held ${imported.value.lockHeldMs?.toFixed(0)} ms, errors ${imported.value.preview?.errorRows}, phase ${verdict.value?.verdict?.phase}; CPU ratio import / floor ${(imported.cpuMs / (floor.cpuSeconds * 1000)).toFixed(2)}, with verdict ${((imported.cpuMs + verdict.cpuMs) / (floor.cpuSeconds * 1000)).toFixed(2)}; peak rss ${mib(process.resourceUsage().maxRSS * 1024)} MiB`)
