@@ -12,7 +12,7 @@ import type { CycleInput, CycleTank, Thresholds, Verdict } from '../../shared/cy
 import type { CycleForecast } from '../../shared/cycle/forecast'
 import type { Db } from './connection'
 import { preparedPerDb } from './prepared'
-import { keptHistory, readEngineInput, readStreamedInput } from '../domain/readings/engine-input-cache'
+import { keptHistory, readEngineInput, streamedInput } from '../domain/readings/engine-input-cache'
 import { HISTORY_WINDOW_DAYS, streamsHistory } from '../domain/tanks/long-history'
 import { BeyondWindow } from '../../shared/cycle/window'
 import { tankVerdicts, tanks } from './schema'
@@ -102,7 +102,7 @@ export function evaluateTankNow(db: Db, tankId: string, now: Date): TankEvaluati
  */
 function evaluateStreamed(db: Db, tankId: string, now: Date): TankEvaluation | undefined {
   const found = engineSettingsFor(db, tankId)
-  const input = found && readStreamedInput(db, tankId, { ...found, now: now.toISOString() }, HISTORY_WINDOW_DAYS)
+  const input = found && streamedInput(db, tankId, { ...found, now: now.toISOString() }, HISTORY_WINDOW_DAYS)
   if (!input) return undefined
   try {
     return evaluateTank(input)

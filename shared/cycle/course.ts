@@ -203,6 +203,16 @@ function count(counted: MutableCount | null, r: TimedReading): MutableCount {
   return counted === null ? { first: r, zeroTests: 1 } : { first: counted.first, zeroTests: counted.zeroTests + 1 }
 }
 
+/** A course scan's fields as plain data (see `CourseScan.state`). */
+type CourseScanState = Record<string, unknown>
+
+/** What a course feed has taken in, as plain data: its events, how many it has fed, and the scan's fields. */
+export interface CourseFeedState {
+  readonly events: readonly TimedEvent[]
+  readonly next: number
+  readonly scan: CourseScanState
+}
+
 class CourseScan {
   run: MutableRun | null = null
   lost: Completion[] = []
@@ -225,6 +235,16 @@ class CourseScan {
   lastNitriteUpT = Number.NEGATIVE_INFINITY
 
   constructor(private readonly s: ScanSettings) {}
+
+  /** Every field but the settings, as plain data shared with the scan: copy it before either goes on. */
+  state(): CourseScanState {
+    return Object.fromEntries(Object.entries(this).filter(([key]) => key !== 's'))
+  }
+
+  /** A scan with these settings going on from `state` (a copy of another scan's). */
+  static restored(s: ScanSettings, state: CourseScanState): CourseScan {
+    return Object.assign(new CourseScan(s), state)
+  }
 
   private get completed(): boolean {
     return this.run?.completion != null
@@ -549,14 +569,15 @@ class CourseScan {
  * come from an array (traceCourse) or stream past once and are not kept (history-stream.ts).
  */
 export class CourseFeed {
-  private readonly scan: CourseScan
+  private scan: CourseScan
   private next = 0
+  private settings: ScanSettings
 
   /** `events` are the history's events as of `now`, in order. */
-  constructor(private readonly events: readonly TimedEvent[], thresholds: Thresholds, method: CycleMethod, startedMs: number, options: RuleOptions) {
+  constructor(private events: readonly TimedEvent[], thresholds: Thresholds, method: CycleMethod, startedMs: number, options: RuleOptions) {
     const livestock = events.find(e => e.event.kind === 'livestock-added')
     const fishIn = method === 'fish-in' ? startedMs : Number.POSITIVE_INFINITY
-    this.scan = new CourseScan({
+    this.settings = {
       thresholds,
       method,
       animalsT: Math.min(fishIn, livestock ? livestock.t : Number.POSITIVE_INFINITY),
@@ -564,7 +585,26 @@ export class CourseFeed {
       spanMs: thresholds.stableSpanHours * HOUR_MS,
       gapMs: thresholds.zeroRunMaxGapHours * HOUR_MS,
       options,
-    })
+    }
+    this.scan = new CourseScan(this.settings)
+  }
+
+  /**
+   * What the feed has taken in so far, as plain data shared with it: copy it (structuredClone,
+   * with whatever else refers to the same tests) before either goes on.
+   */
+  state(): CourseFeedState {
+    return { events: this.events, next: this.next, scan: this.scan.state() }
+  }
+
+  /** A feed with this one's settings going on from `state` (a copy of a feed's state). */
+  withState(state: CourseFeedState): CourseFeed {
+    const feed: CourseFeed = Object.create(CourseFeed.prototype)
+    feed.settings = this.settings
+    feed.events = state.events
+    feed.next = state.next
+    feed.scan = CourseScan.restored(this.settings, state.scan)
+    return feed
   }
 
   /** The next test in history order (none after `now`). */

@@ -48,7 +48,8 @@ export function windowStart(history: { readonly window?: HistoryWindow }): numbe
   return history.window?.startMs ?? Number.NEGATIVE_INFINITY
 }
 
-function sameThresholds(a: Thresholds, b: Thresholds): boolean {
+/** Whether two sets of resolved limits are the same, limit for limit. */
+export function sameThresholds(a: Thresholds, b: Thresholds): boolean {
   const keys = Object.keys(a) as (keyof Thresholds)[]
   return keys.length === Object.keys(b).length && keys.every(key => a[key] === b[key])
 }

@@ -15,7 +15,7 @@
  * keeps its own copies.
  */
 import { prepareHistory, withReadingAdded, type PreparedHistory, type PreparedInput } from '../../../shared/cycle/history'
-import { prepareStreamed, type StreamedInputHead } from '../../../shared/cycle/history-stream'
+import { HistoryStream, type StreamedInputHead } from '../../../shared/cycle/history-stream'
 import type { CycleEvent, CycleReading } from '../../../shared/cycle/types'
 import { CYCLE_EVENT_KINDS, type CycleEventKind, type EventKind } from '../../../shared/vocabulary'
 import type { Db } from '../../db/connection'
@@ -30,8 +30,23 @@ export interface KeptHistory {
   revision: number
   /** How many current tests it was made from (one whose time does not parse included). */
   tests: number
+  /** How many it holds in memory: all of them. */
+  held: number
   history: PreparedHistory
 }
+
+/** A tank's history folded as it streamed past and held for its window (HistoryStream), and the count of changes it was read at. */
+export interface KeptStream {
+  revision: number
+  tests: number
+  /** How many it holds in memory: its window's. */
+  held: number
+  stream: HistoryStream
+}
+
+type KeptCopy = KeptHistory | KeptStream
+
+const isStream = (kept: KeptCopy): kept is KeptStream => 'stream' in kept
 
 /**
  * Kept per handle: at most 64 tanks (a year of a client's tests is some hundreds of kB) and
@@ -40,7 +55,7 @@ export interface KeptHistory {
  */
 const KEPT = { maxTanks: 64, maxReadings: 250_000 }
 
-const copies = preparedPerDb(() => new KeptTanks<KeptHistory>(KEPT))
+const copies = preparedPerDb(() => new KeptTanks<KeptCopy>(KEPT))
 
 const defined = <T>(value: T | null): T | undefined => value ?? undefined
 
@@ -93,22 +108,40 @@ export function readKeptHistory(db: Db, tankId: string, revision: number): KeptH
 }
 
 /**
- * The tank's engine input for `head` (its profile, thresholds and `now`) with its history streamed
- * from the database in time order and held only for the `windowDays` before `now`
- * (shared/cycle/history-stream.ts): nothing of the rows is kept, and no copy. Undefined when the
- * rows do not come in the history's time order; the engine throws BeyondWindow when the window
- * cannot settle the verdict. Either way the caller evaluates the whole history instead.
+ * The tank's engine input for `head` (its profile, thresholds and `now`) from its history folded
+ * as it streams past (shared/cycle/history-stream.ts) and held only for the `windowDays` before
+ * `now`: from the fold kept for the tank while its count has not moved (a saved test goes on
+ * from it), else from the rows streamed again in time order, that fold kept in place of any copy.
+ * Undefined when the rows do not come in the history's time order; the engine throws
+ * BeyondWindow when the window cannot settle the verdict. Either way the caller evaluates the
+ * whole history instead (`keptHistory`).
  */
-export function readStreamedInput(db: Db, tankId: string, head: StreamedInputHead, windowDays: number): PreparedInput | undefined {
+export function streamedInput(db: Db, tankId: string, head: StreamedInputHead, windowDays: number): PreparedInput | undefined {
+  // The count is read before the rows, as keptHistory does.
+  const revision = tankDataRevisionInDb(db, tankId)
+  const kept = copies(db).get(tankId)
+  const input = kept?.revision === revision && isStream(kept) ? kept.stream.inputAt(head) : undefined
+  if (input) return input
   function* readings(): Generator<CycleReading> {
     for (const values of tankEngineReadings(db, tankId)) yield toCycleReading(values)
   }
-  return prepareStreamed(head, readings(), cycleEventsOf(db, tankId), windowDays)
+  const stream = HistoryStream.read(head, readings(), cycleEventsOf(db, tankId), windowDays)
+  if (!stream) return undefined
+  copies(db).keep(tankId, { revision, tests: stream.tests, held: stream.held, stream })
+  return stream.inputAt(head)
+}
+
+/** What the tank's copy kept at its current count is: the whole history, a fold held for its window, or none. */
+export function keptCopyKind(db: Db, tankId: string): 'whole' | 'stream' | undefined {
+  const kept = copies(db).get(tankId)
+  if (!kept || kept.revision !== tankDataRevisionInDb(db, tankId)) return undefined
+  return isStream(kept) ? 'stream' : 'whole'
 }
 
 /** A kept copy of `history`: every test it was made from is either in its order or left out for its time. */
 function keptAt(revision: number, history: PreparedHistory): KeptHistory {
-  return { revision, tests: history.readings.length + history.ignoredReadingIds.length, history }
+  const tests = history.readings.length + history.ignoredReadingIds.length
+  return { revision, tests, held: tests, history }
 }
 
 /**
@@ -120,7 +153,7 @@ export function keptHistory(db: Db, tankId: string): KeptHistory {
   // labelled newer than its content (a write in between moves the count and the next call reads again).
   const revision = tankDataRevisionInDb(db, tankId)
   const kept = copies(db).get(tankId)
-  if (kept?.revision === revision) return kept
+  if (kept?.revision === revision && !isStream(kept)) return kept
   const read = readKeptHistory(db, tankId, revision)
   copies(db).keep(tankId, read)
   return read
@@ -161,7 +194,14 @@ export function noteTestAppended(db: Db, tankId: string, row: ReadingRow, revisi
     byTank.drop(tankId)
     return
   }
-  const history = withReadingAdded(kept.history, toCycleReading(engineValuesOf(row)))
+  const reading = toCycleReading(engineValuesOf(row))
+  if (isStream(kept)) {
+    const stream = kept.stream.withTestAppended(reading)
+    if (stream) byTank.keep(tankId, { revision: revisionAfter, tests: stream.tests, held: stream.held, stream })
+    else byTank.drop(tankId)
+    return
+  }
+  const history = withReadingAdded(kept.history, reading)
   if (history) byTank.keep(tankId, keptAt(revisionAfter, history))
   else byTank.drop(tankId)
 }

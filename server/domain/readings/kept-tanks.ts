@@ -1,7 +1,7 @@
 /**
  * The tanks' engine inputs a database handle keeps between verdict refreshes
- * (engine-input-cache.ts), least recently used first out. Bounded by the tests they hold as
- * well as by how many tanks: a year of a client's daily tests is some hundreds of kB, but an
+ * (engine-input-cache.ts), least recently used first out. Bounded by the tests they hold in
+ * memory (`held`) as well as by how many tanks: a year of a client's daily tests is some hundreds of kB, but an
  * imported history of 100,000 tests is tens of MB, and a worker thread that refreshed a few
  * such tanks must not keep them all. A tank larger than the bound is kept alone.
  */
@@ -11,7 +11,7 @@ export interface KeptTanksBounds {
   maxReadings: number
 }
 
-export class KeptTanks<Rows extends { readonly tests: number }> {
+export class KeptTanks<Rows extends { readonly held: number }> {
   private readonly byTank = new Map<string, Rows>()
   private held = 0
 
@@ -33,7 +33,7 @@ export class KeptTanks<Rows extends { readonly tests: number }> {
   keep(tankId: string, rows: Rows): void {
     this.drop(tankId)
     this.byTank.set(tankId, rows)
-    this.held += rows.tests
+    this.held += rows.held
     while (this.byTank.size > 1 && (this.byTank.size > this.bounds.maxTanks || this.held > this.bounds.maxReadings)) {
       this.drop(this.byTank.keys().next().value!)
     }
@@ -43,6 +43,6 @@ export class KeptTanks<Rows extends { readonly tests: number }> {
     const rows = this.byTank.get(tankId)
     if (!rows) return
     this.byTank.delete(tankId)
-    this.held -= rows.tests
+    this.held -= rows.held
   }
 }

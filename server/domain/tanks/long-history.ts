@@ -7,7 +7,7 @@
  */
 import type { Db } from '../../db/connection'
 import { storedReadingCount } from '../readings/current'
-import { keptTestCount } from '../readings/engine-input-cache'
+import { keptCopyKind, keptTestCount } from '../readings/engine-input-cache'
 
 /**
  * Above this many tests (the stored ones, corrections included, or the current ones of a kept
@@ -17,10 +17,11 @@ import { keptTestCount } from '../readings/engine-input-cache'
 export const LONG_HISTORY_TESTS = 5_000
 
 /**
- * Above this many tests a tank's history is not kept in memory between its evaluations: each one
- * streams the tests from the database and holds only the last HISTORY_WINDOW_DAYS of them (about
- * 4,000 tests at the day cap), so a tank's memory stops growing with its history. Up to it a
- * year of tests at the day cap is kept (about 5 MB) and a new test costs its own place.
+ * Above this many tests a tank's history is not kept whole in memory between its evaluations: it
+ * is folded as its tests stream from the database and only the last HISTORY_WINDOW_DAYS of them
+ * are held (about 4,000 tests at the day cap; the fold is kept and a saved test goes on from it),
+ * so a tank's memory stops growing with its history. Up to it a year of tests at the day cap is
+ * kept whole (about 5 MB) and a new test costs its own place.
  */
 export const STREAMED_HISTORY_TESTS = 20_000
 
@@ -32,12 +33,13 @@ export const STREAMED_HISTORY_TESTS = 20_000
 export const HISTORY_WINDOW_DAYS = 90
 
 /**
- * Whether the tank's history is streamed for each evaluation: more than STREAMED_HISTORY_TESTS
- * stored tests and no copy kept at its current revision (one kept after a window could not
- * settle a verdict is used while it is current).
+ * Whether the tank's history is folded as it streams past rather than kept whole: a fold is kept
+ * for it at its current count, or no copy is and it stores more than STREAMED_HISTORY_TESTS tests
+ * (a whole copy, kept after a window could not settle a verdict, is used while it is current).
  */
 export function streamsHistory(db: Db, tankId: string): boolean {
-  return keptTestCount(db, tankId) === undefined && storedReadingCount(db, tankId) > STREAMED_HISTORY_TESTS
+  const kind = keptCopyKind(db, tankId)
+  return kind === undefined ? storedReadingCount(db, tankId) > STREAMED_HISTORY_TESTS : kind === 'stream'
 }
 
 /**

@@ -27,6 +27,15 @@ export function readsZero(test: TimedTest, th: Thresholds): boolean {
   return test.ammoniaN !== undefined && test.nitriteN !== undefined && test.ammoniaN <= th.ammoniaZeroN && test.nitriteN <= th.nitriteZeroN
 }
 
+/** A curve fold's progress as plain data (see `CurveTestFold.state`). */
+export interface CurveFoldState {
+  readonly last: TimedTest | undefined
+  readonly count: number
+  readonly d: number
+  readonly lastDose: number
+  readonly lastDoseProof: boolean
+}
+
 /** The curve tests of a history's tests taken one at a time, in the forecast's order. */
 export class CurveTestFold {
   /** The latest curve test so far. */
@@ -38,6 +47,16 @@ export class CurveTestFold {
   private lastDoseProof = false
 
   constructor(private readonly doses: readonly ProofDose[], private readonly th: Thresholds) {}
+
+  /** Its progress as plain data (the doses and limits stay shared): copy it before either goes on. */
+  state(): CurveFoldState {
+    return { last: this.last, count: this.count, d: this.d, lastDose: this.lastDose, lastDoseProof: this.lastDoseProof }
+  }
+
+  /** A fold over the same doses and limits going on from `state` (a copy of a fold's state). */
+  withState(state: CurveFoldState): CurveTestFold {
+    return Object.assign(new CurveTestFold(this.doses, this.th), state)
+  }
 
   /** Takes the next test; true when it traces the curve. */
   push(test: TimedTest): boolean {

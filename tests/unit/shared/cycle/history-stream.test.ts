@@ -4,7 +4,8 @@
  * from a few hours to longer than the history, and every rule set version, the verdict and the
  * forecast made from the window must equal those made from the whole input, or the engine must say
  * it cannot (BeyondWindow) so the caller evaluates the whole history: a window never answers
- * differently. A realistic long history (a fish-in cycle, then two years of upkeep) must be
+ * differently; a stream that later tests were appended to, evaluated at later moments, likewise.
+ * A realistic long history (a fish-in cycle, then two years of upkeep) must be
  * judged from its window without falling back.
  */
 
@@ -13,7 +14,7 @@ import { describe, expect, it } from 'vitest'
 import { evaluateCycle, evaluatePrepared } from '../../../../shared/cycle/engine'
 import { forecastCycle, forecastPrepared } from '../../../../shared/cycle/forecast'
 import { buildHistory } from '../../../../shared/cycle/history'
-import { prepareStreamed } from '../../../../shared/cycle/history-stream'
+import { HistoryStream, prepareStreamed } from '../../../../shared/cycle/history-stream'
 import { CURRENT_RULE_OPTIONS, RULE_OPTIONS_2_0_0 } from '../../../../shared/cycle/options'
 import { BeyondWindow } from '../../../../shared/cycle/window'
 import type { CycleInput, CycleReading, Thresholds } from '../../../../shared/cycle/types'
@@ -77,6 +78,39 @@ describe('a streamed history held in its window gives the full evaluation, or sa
     expect(judged).toBeGreaterThan(cases / 3)
     expect(judgedFromPart).toBeGreaterThan(cases / 10)
     expect(forecast).toBeGreaterThan(cases / 10)
+  })
+
+  it('goes on with later tests as a stream read again would, at later moments', () => {
+    let judged = 0
+    fc.assert(fc.property(caseArb, fc.constantFrom(1, 3, 20, 10_000), fc.nat(), (c, windowDays, pick) => {
+      const base = c.log.input
+      const thresholds: Partial<Thresholds> = { ...base.thresholds, ...c.limits }
+      const readings = inTimeOrder(base.readings)
+      if (readings.length < 2) return
+      const first = 1 + (pick % (readings.length - 1))
+      const readAt = Date.parse(readings[first - 1]!.takenAt)
+      // Events after the moment first read at would make it read again: they are left out of this case.
+      const events = (base.events ?? []).filter(e => Date.parse(e.at) <= readAt)
+      const head = (nowMs: number) => ({ tank: base.tank, thresholds, now: new Date(nowMs).toISOString() })
+      let stream = HistoryStream.read(head(readAt), readings.slice(0, first), events, windowDays, c.options)!
+      for (let i = first; i < readings.length; i += 1) {
+        const appended = stream.withTestAppended(readings[i]!)
+        // A test at the very time of the latest one is folded only by reading again.
+        stream = appended ?? HistoryStream.read(head(readAt), readings.slice(0, i + 1), events, windowDays, c.options)!
+        const nowMs = Date.parse(readings[i]!.takenAt) + (i % 3) * 3_600_000
+        const input = stream.inputAt(head(nowMs), c.options)
+        if (input === undefined) {
+          // Its window grew to twice its days: read again from here.
+          stream = HistoryStream.read(head(nowMs), readings.slice(0, i + 1), events, windowDays, c.options)!
+          continue
+        }
+        const verdict = unlessBeyond(() => evaluatePrepared(input, c.options))
+        if (verdict === undefined) continue
+        judged += 1
+        expect(verdict).toEqual(evaluateCycle({ ...head(nowMs), readings: readings.slice(0, i + 1), events }, c.options))
+      }
+    }), { ...RUNS, numRuns: 60, interruptAfterTimeLimit: LIMIT_MS })
+    expect(judged).toBeGreaterThan(100)
   })
 
   it('judges two years of upkeep after a fish-in cycle from its last 60 days', () => {

@@ -6,8 +6,8 @@
 import { describe, expect, it } from 'vitest'
 import { KeptTanks } from '../../../../../server/domain/readings/kept-tanks'
 
-/** A kept copy holding `n` tests (only their count matters here). */
-const copyOf = (n: number) => ({ revision: 1, tests: n })
+/** A kept copy holding `n` tests in memory (only their count matters here). */
+const copyOf = (n: number) => ({ revision: 1, held: n })
 
 describe('the kept copies', () => {
   it('let the least recently used tanks go when the tests they hold pass the bound', () => {
@@ -17,8 +17,8 @@ describe('the kept copies', () => {
     expect(kept.get('a')).toBeDefined() // a is now the most recently used
     kept.keep('c', copyOf(40))
     expect(kept.get('b')).toBeUndefined()
-    expect(kept.get('a')?.tests).toBe(40)
-    expect(kept.get('c')?.tests).toBe(40)
+    expect(kept.get('a')?.held).toBe(40)
+    expect(kept.get('c')?.held).toBe(40)
     expect(kept.readingCount).toBe(80)
   })
 
@@ -36,7 +36,7 @@ describe('the kept copies', () => {
     kept.keep('a', copyOf(30))
     kept.keep('big', copyOf(150))
     expect(kept.get('a')).toBeUndefined()
-    expect(kept.get('big')?.tests).toBe(150)
+    expect(kept.get('big')?.held).toBe(150)
     kept.keep('big', copyOf(20))
     kept.keep('a', copyOf(30))
     expect(kept.readingCount).toBe(50)

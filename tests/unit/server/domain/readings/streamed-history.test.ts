@@ -2,8 +2,8 @@
  * A tank with more tests than STREAMED_HISTORY_TESTS is evaluated from its history streamed from
  * the database and held for its last HISTORY_WINDOW_DAYS only (evaluateTankNow, on a real migrated
  * SQLite file). The verdict and forecast must equal the ones made from the whole input read anew,
- * whether the window settles them (two years of upkeep after a fish-in cycle: nothing is kept in
- * memory afterwards) or cannot (a tank still in its nitrite stage after years of tests: the
+ * whether the window settles them (two years of upkeep after a fish-in cycle: the fold is kept,
+ * and tests saved later go on from it) or cannot (a tank still in its nitrite stage after years of tests: the
  * forecast's curves go back to their peak, so the whole history is read and kept, as before).
  */
 import { mkdtempSync, rmSync } from 'node:fs'
@@ -14,7 +14,8 @@ import { migrateDatabase, openDatabase, type TidewrightDB } from '../../../../..
 import { events, readings, tanks } from '../../../../../server/db/schema'
 import { seedDemo, type DemoIds } from '../../../../../server/db/seed/demo'
 import { cycleInputFor, evaluateTankNow } from '../../../../../server/db/verdicts'
-import { keptTestCount } from '../../../../../server/domain/readings/engine-input-cache'
+import { tankDataRevisionInDb } from '../../../../../server/domain/readings/data-revision'
+import { keptCopyKind, keptTestCount, noteTestAppended } from '../../../../../server/domain/readings/engine-input-cache'
 import { HISTORY_WINDOW_DAYS, STREAMED_HISTORY_TESTS } from '../../../../../server/domain/tanks/long-history'
 import { evaluateCycle } from '../../../../../shared/cycle/engine'
 import { forecastCycle } from '../../../../../shared/cycle/forecast'
@@ -66,14 +67,14 @@ function tankWith(name: string, values: (day: number) => Values, changeEvery: nu
 }
 
 /** The verdict and forecast the engine makes from the tank's whole input, read anew. */
-function fullEvaluation(tankId: string) {
-  const input = cycleInputFor(db, tankId, now)!
+function fullEvaluation(tankId: string, at = now) {
+  const input = cycleInputFor(db, tankId, at)!
   const verdict = evaluateCycle(input)
   return { verdict, forecast: forecastCycle(input, verdict) }
 }
 
 describe('a long history streamed and held for its window', { timeout: 60_000 }, () => {
-  it('is judged from its window after a cycle and years of upkeep, and nothing is kept', () => {
+  it('is judged from its window after a cycle and years of upkeep, and later tests go on from the fold kept', () => {
     expect(DAYS * TESTS_A_DAY).toBeGreaterThan(STREAMED_HISTORY_TESTS)
     expect(HISTORY_WINDOW_DAYS).toBeLessThan(DAYS)
     const cycle = (day: number): Values => day < 12
@@ -84,8 +85,28 @@ describe('a long history streamed and held for its window', { timeout: 60_000 },
     const full = fullEvaluation(tankId)
     expect(full.verdict.phase).toBe('complete')
     expect(streamed).toEqual(full)
-    // The window settled it: no copy of the history is kept in memory.
-    expect(keptTestCount(db, tankId)).toBeUndefined()
+    // The window settled it: the fold is kept, holding the window's tests, not the years'.
+    expect(keptCopyKind(db, tankId)).toBe('stream')
+    expect(keptTestCount(db, tankId)).toBe(DAYS * TESTS_A_DAY)
+    // Tests saved as the reading route saves them go on from the fold, which stays the one kept.
+    const save = (hours: number, values: Partial<Values>) => {
+      const takenAt = new Date(now.getTime() + hours * HOUR).toISOString()
+      const { row, revisionAfter } = db.transaction((tx) => {
+        const inserted = tx.insert(readings).values({ tankId, enteredBy: demo.users.client, takenAt, createdAt: takenAt, updatedAt: takenAt, ...values }).returning().get()
+        return { row: inserted, revisionAfter: tankDataRevisionInDb(tx, tankId) }
+      })
+      noteTestAppended(db, tankId, row, revisionAfter)
+      const later = new Date(now.getTime() + (hours + 1) * HOUR)
+      expect(evaluateTankNow(db, tankId, later)).toEqual(fullEvaluation(tankId, later))
+    }
+    save(1, { ammoniaN: 0, nitriteN: 0, nitrateN: 9 })
+    save(3, { ammoniaN: 0, nitriteN: 0 })
+    expect(keptCopyKind(db, tankId)).toBe('stream')
+    expect(keptTestCount(db, tankId)).toBe(DAYS * TESTS_A_DAY + 2)
+    // A small ammonia spike holds the completion: the forecast then fits its curves, which reach
+    // back past the window, so the whole history is read (and kept, as for any long tank before).
+    save(5, { ammoniaN: 0.3, nitriteN: 0 })
+    expect(keptCopyKind(db, tankId)).toBe('whole')
   })
 
   it('is judged from the whole history when the window cannot settle it, and that copy is kept', () => {
@@ -96,6 +117,7 @@ describe('a long history streamed and held for its window', { timeout: 60_000 },
     const full = fullEvaluation(tankId)
     expect(full.forecast.status).not.toBe('complete')
     expect(evaluated).toEqual(full)
+    expect(keptCopyKind(db, tankId)).toBe('whole')
     expect(keptTestCount(db, tankId)).toBe(DAYS * TESTS_A_DAY)
   })
 })
