@@ -20,7 +20,7 @@ import { CURRENT_RULE_OPTIONS, type RuleOptions } from './options'
 import { showsNitrogen } from './reads'
 import type { Latest } from './snapshot'
 import { resolveThresholds } from './thresholds'
-import { DAY_MS, parseTime, requireTime, timeReaderFor, type TimeReader } from './time'
+import { DAY_MS, parseTime, requireTime, timeReaderFor, toIso, type TimeReader } from './time'
 import { sameThresholds } from './window'
 import type { CycleEvent, CycleReading, CycleTank, Thresholds } from './types'
 
@@ -37,6 +37,12 @@ type Measured = keyof Latest
 const MEASURED: readonly Measured[] = [
   'ammoniaN', 'nitriteN', 'nitrateN', 'pH', 'temperatureC', 'salinity', 'alkalinityDkh', 'calciumMgL', 'magnesiumMgL', 'phosphateMgL',
 ]
+
+/** Tests and events after a fold's latest, as the forecast assumes them. */
+interface LaterTests {
+  readonly readings: readonly CycleReading[]
+  readonly events: readonly CycleEvent[]
+}
 
 /** A test as read, and as the history holds it. */
 interface Passing {
@@ -67,6 +73,8 @@ interface StreamSettings {
 interface StreamData {
   feed: CourseFeedState
   curve: CurveFoldState
+  /** The curve fold as it stood before the first test held: the forecast replays the held tests from it. */
+  curveAtStart: CurveFoldState | null
   held: TimedReading[]
   heldTests: NitrogenTest[]
   latest: { -readonly [K in Measured]?: TimedReading }
@@ -107,6 +115,7 @@ export class HistoryStream {
     const stream = new HistoryStream(settings, {
       feed: feed.state(),
       curve: curve.state(),
+      curveAtStart: null,
       held: [],
       heldTests: [],
       latest: {},
@@ -170,6 +179,8 @@ export class HistoryStream {
     const data = structuredClone(this.data)
     const course = settings.feed.withState(data.feed).result(nowMs)
     const curve = settings.curve.withState(data.curve)
+    // The forecast's projections go on from this fold, read at the moment each is judged at.
+    const continuedTo = (atMs: number, later: LaterTests) => this.withLater(later, atMs)?.inputAt({ ...head, now: toIso(atMs) }, options)?.history
     return {
       tank: head.tank,
       thresholds: head.thresholds,
@@ -192,10 +203,33 @@ export class HistoryStream {
           course,
           firstShown: data.firstShown,
           repairedBeforeStart: data.repairedBeforeStart,
-          curve: { last: curve.last ?? null, count: curve.count },
+          curve: { last: curve.last ?? null, count: curve.count, atStart: data.curveAtStart ?? curve.state() },
+          continuedTo,
         },
       },
     }
+  }
+
+  /**
+   * This fold continued by `later` tests and events, all after every test and event in it and at
+   * or before `atMs` (the forecast's assumed future): undefined when one is not, or the fold
+   * passed over a later test or event.
+   */
+  private withLater(later: LaterTests, atMs: number): HistoryStream | undefined {
+    const events = timedEventsOf(later.events)
+    const readings = later.readings.map(raw => ({ raw, t: parseTime(raw.takenAt) })).sort((a, b) => a.t - b.t)
+    const fedEvents = this.data.feed.events
+    const lastEventT = fedEvents[fedEvents.length - 1]?.t ?? Number.NEGATIVE_INFINITY
+    // An event at or before a test already folded would have come before it.
+    const inOrder = events.length === later.events.length && events.every(e => e.t > Math.max(lastEventT, this.data.lastT) && e.t <= atMs)
+      && readings.every(({ t }) => Number.isFinite(t) && t > this.data.lastT && t <= atMs)
+    if (this.data.passedOver || !inOrder) return undefined
+    const data = structuredClone(this.data)
+    data.feed = { ...data.feed, events: [...data.feed.events, ...events] }
+    const next = new HistoryStream(this.settings, data)
+    const feed = this.settings.feed.withState(data.feed)
+    const curve = this.settings.curve.withState(data.curve)
+    return next.fold(readings.map(({ raw }) => raw), feed, curve, parseTime, Number.POSITIVE_INFINITY) ? next : undefined
   }
 
   /**
@@ -225,8 +259,11 @@ export class HistoryStream {
       }
       // A stable sort, as the whole history's: of two tests with one time and id, the order given.
       for (const test of tests.sort(compareNitrogenTests)) {
+        if (test.t >= startMs) {
+          data.curveAtStart ??= curve.state()
+          data.heldTests.push(test)
+        }
         curve.push(test)
-        if (test.t >= startMs) data.heldTests.push(test)
       }
       instant = []
     }

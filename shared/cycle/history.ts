@@ -347,6 +347,25 @@ export function withLaterAppended(
   }
 }
 
+/**
+ * `prepared` as of `nowMs` continued by `later` (see withLaterAppended), to be judged at `atMs`,
+ * at or after every later test and event: a history held for its window goes on from its fold.
+ * Undefined when a later test or event is not after `nowMs`; a window that cannot go on with them
+ * throws BeyondWindow.
+ */
+export function continuedHistory(
+  prepared: PreparedHistory,
+  nowMs: number,
+  later: { readonly readings: readonly CycleReading[], readonly events: readonly CycleEvent[] },
+  atMs: number,
+): PreparedHistory | undefined {
+  const { window } = prepared
+  if (window === undefined || windowStart(prepared) === Number.NEGATIVE_INFINITY) return withLaterAppended(prepared, nowMs, later)
+  const continued = window.continuedTo(atMs, later)
+  if (continued === undefined) throw new BeyondWindow('the assumed future does not go on from the held part')
+  return continued
+}
+
 /** Builds the ordered history from raw input, dropping what happened after `nowMs`. */
 export function buildHistory(readings: readonly CycleReading[], events: readonly CycleEvent[], nowMs: number): History {
   return historyAsOf(prepareHistory(readings, events), nowMs)

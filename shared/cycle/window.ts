@@ -9,10 +9,11 @@
  * history as before. So a windowed verdict is the whole history's verdict, or it is not made.
  */
 import type { Course } from './course'
+import type { CurveFoldState } from './forecast/curve-tests'
 import type { TimedTest } from './forecast/series'
-import type { TimedReading } from './history'
+import type { PreparedHistory, TimedReading } from './history'
 import type { RuleOptions } from './options'
-import type { CycleMethod, Thresholds } from './types'
+import type { CycleEvent, CycleMethod, CycleReading, Thresholds } from './types'
 
 /** What a windowed history holds of the tests before its start, folded as they streamed past. */
 export interface HistoryWindow {
@@ -31,8 +32,18 @@ export interface HistoryWindow {
   readonly firstShown: TimedReading | null
   /** Whether a test before `startMs` lost a value (the input rule names each such test). */
   readonly repairedBeforeStart: boolean
-  /** The forecast's curve tests of the whole history as of `nowMs`: the latest, and how many. */
-  readonly curve: { readonly last: TimedTest | null, readonly count: number }
+  /**
+   * The forecast's curve tests of the whole history as of `nowMs`: the latest, how many, and the
+   * fold as it stood before the first test held (the held tests replayed from it are the whole
+   * history's curve tests from the start on).
+   */
+  readonly curve: { readonly last: TimedTest | null, readonly count: number, readonly atStart: CurveFoldState }
+  /**
+   * The history continued by `later` tests and events (all after its latest and at or before
+   * `atMs`), held for the same window and read at `atMs`: the forecast's assumed futures.
+   * Undefined when the fold cannot go on with them.
+   */
+  readonly continuedTo: (atMs: number, later: { readonly readings: readonly CycleReading[], readonly events: readonly CycleEvent[] }) => PreparedHistory | undefined
 }
 
 /** Thrown when a verdict or forecast needs tests from before a windowed history's start. */

@@ -73,6 +73,15 @@ export class CurveTestFold {
   }
 }
 
+/**
+ * The curve tests among `tests`, the history's tests from some point on, the fold going on from
+ * `state`: the fold as it stood before the first of them (a window's `curve.atStart`).
+ */
+export function curveTestsFrom(state: CurveFoldState, tests: readonly TimedTest[], doses: readonly ProofDose[], th: Thresholds): TimedTest[] {
+  const fold = new CurveTestFold(doses, th).withState(state)
+  return tests.filter(test => fold.push(test))
+}
+
 /** The tests that trace the curves, in order. */
 export function curveTests(tests: readonly TimedTest[], doses: readonly ProofDose[], th: Thresholds): TimedTest[] {
   const fold = new CurveTestFold(doses, th)

@@ -19,7 +19,7 @@ import { DOSE_CHECK_HOURS, HORIZON_DAYS, INTERVAL_PROBABILITY, MAX_RANGE_DAYS, M
 import { firstProvingRoutine, futureTestTimes, projectCompletion, type ProjectionBase } from './project'
 import type { CycleForecast, DeclineFit, ForecastBasis, ForecastGap, ForecastRange } from './types'
 import { FORECAST_VERSION } from './version'
-import { curveTests, dosesOf, readsZero, type ProofDose } from './curve-tests'
+import { curveTests, curveTestsFrom, dosesOf, readsZero, type ProofDose } from './curve-tests'
 import { CURRENT_RULE_OPTIONS } from '../options'
 import { assertWindowFits, BeyondWindow, windowStart } from '../window'
 
@@ -127,8 +127,11 @@ export function forecastPrepared(input: PreparedInput, verdict?: Verdict): Cycle
   // history folded its curve tests as they streamed past (the latest, and how many).
   const held = windowStart(input.history) > Number.NEGATIVE_INFINITY ? input.history.window : undefined
   if (held) assertWindowFits(held, thresholds, input.tank.cycleMethod, requireTime('tank.startedAt', input.tank.startedAt), nowMs, CURRENT_RULE_OPTIONS)
-  const allTests = held ? [] : nitrogenTestsAsOf(input.history, nowMs)
-  const tests = held ? [] : curveTests(allTests, doses, thresholds)
+  // A window holds the tests from its start on: its curve tests are the whole history's from
+  // there, replayed from the curve fold as it stood then. What the curves need of older tests
+  // throws BeyondWindow below.
+  const allTests = held ? input.history.nitrogenTests : nitrogenTestsAsOf(input.history, nowMs)
+  const tests = held ? curveTestsFrom(held.curve.atStart, allTests, doses, thresholds) : curveTests(allTests, doses, thresholds)
   const lastTest = held ? held.curve.last ?? undefined : tests[tests.length - 1]
   const curveCount = held ? held.curve.count : tests.length
   const testEveryHours = thresholds.retestHours
@@ -139,10 +142,11 @@ export function forecastPrepared(input: PreparedInput, verdict?: Verdict): Cycle
   if (verdict.phase === 'ammonia') return shell('not-enough-data', 'before-nitrite', basis)
   // The engine expects a test at least every testIntervalHours; twice that missed leaves the curve unknown.
   if (nowMs - lastTest.t > 2 * thresholds.testIntervalHours * HOUR_MS) return shell('not-enough-data', 'stale', basis)
-  // The curves are fitted to every test since their peak, which may be years back.
-  if (held) throw new BeyondWindow('the forecast\'s curves')
-
   const fromMs = lastWaterChange(events)
+  // The curves are fitted from the last water change on, and read from the latest test back: a
+  // window must hold both (nothing before the change counts).
+  if (held && (fromMs < held.startMs || lastTest.t < held.startMs)) throw new BeyondWindow('the forecast\'s curves since the last water change')
+
   const limits = { ammoniaN: thresholds.ammoniaZeroN, nitriteN: thresholds.nitriteZeroN } as const
   const above = (key: 'ammoniaN' | 'nitriteN') => (latestOfSeries(tests, key, fromMs) ?? 0) > limits[key]
   const ammoniaAbove = above('ammoniaN')
@@ -153,7 +157,9 @@ export function forecastPrepared(input: PreparedInput, verdict?: Verdict): Cycle
   basis.fits = results.flatMap(r => (r.ok ? [r.fit] : [] as DeclineFit[]))
   basis.readingZero = !ammoniaAbove && !nitriteAbove
 
-  const lastNitrate = tests.findLast(x => x.nitrateN !== undefined)?.nitrateN ?? 0
+  const nitrateTest = tests.findLast(x => x.nitrateN !== undefined)
+  if (held && nitrateTest === undefined) throw new BeyondWindow('the latest nitrate of the curves')
+  const lastNitrate = nitrateTest?.nitrateN ?? 0
   const livestockIn = events.some(e => e.event.kind === 'livestock-added')
   const doseAfterZeroTests = input.tank.cycleMethod === 'fishless' && !livestockIn
   const base: ProjectionBase = {
@@ -170,6 +176,8 @@ export function forecastPrepared(input: PreparedInput, verdict?: Verdict): Cycle
     uncheckedDoseMs: uncheckedDose(doses, allTests, lastTest.t),
     testEveryHours,
   }
+  // A fishless proof's relapse allowance weighs every dose the tank was ever given.
+  if (held && base.doseAfterZeroTests) throw new BeyondWindow('the doses of a fishless proof')
   const nextTestMs = futureTestTimes(base)[0] ?? nowMs
   const window = zeroWindow(results, nextTestMs)
   if ('gap' in window) return shell('not-enough-data', window.gap, basis)

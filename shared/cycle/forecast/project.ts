@@ -20,7 +20,7 @@
  */
 
 import { evaluatePrepared } from '../engine'
-import { withLaterAppended, type PreparedInput } from '../history'
+import { continuedHistory, type PreparedInput } from '../history'
 import { DAY_MS, HOUR_MS, toIso } from '../time'
 import { LIVESTOCK_GROUPS, type CycleEvent, type CycleReading, type LivestockGroup, type Thresholds } from '../types'
 import { HORIZON_DAYS } from './parameters'
@@ -136,7 +136,7 @@ function projectUntil(base: ProjectionBase, zeroFromMs: number, untilMs: number,
   })
   // The tank's history as of now continued by the assumed future. Every assumed test and dose is
   // after now by construction (futureTestTimes); one that were not would be no routine to follow.
-  const history = withLaterAppended(base.input.history, base.nowMs, { readings, events })
+  const history = continuedHistory(base.input.history, base.nowMs, { readings, events }, last)
   if (!history) return null
   const verdict = evaluatePrepared({ ...base.input, history, now: toIso(last) })
   if (verdict.completedOn === null) return null

@@ -21,7 +21,7 @@ import type { CycleInput, CycleReading, Thresholds } from '../../../../shared/cy
 import { caseArb, withOdd } from './history-cases'
 import { at, TankLog } from './tank-log'
 
-const RUNS = { seed: 20261203, numRuns: 150 }
+const RUNS = { seed: 20261203, numRuns: 400 }
 const LIMIT_MS = 60_000
 const HOUR_MS = 3_600_000
 const DAY_MS = 24 * HOUR_MS
@@ -49,6 +49,7 @@ describe('a streamed history held in its window gives the full evaluation, or sa
     let judged = 0
     let judgedFromPart = 0
     let forecast = 0
+    let fittedFromPart = 0
     let cases = 0
     fc.assert(fc.property(caseArb, fc.constantFrom(0.25, 1, 3, 10, 20, 40, 10_000), (c, windowDays) => {
       cases += 1
@@ -71,6 +72,7 @@ describe('a streamed history held in its window gives the full evaluation, or sa
       const predicted = unlessBeyond(() => forecastPrepared(streamed!, verdict))
       if (predicted === undefined) return
       forecast += 1
+      if (predicted.status === 'forecast' && streamed!.history.window!.startMs > Number.NEGATIVE_INFINITY) fittedFromPart += 1
       expect(predicted).toEqual(forecastCycle(input, full))
     }), { ...RUNS, interruptAfterTimeLimit: LIMIT_MS })
     // The comparison is not empty: many windows settle the verdict, some holding only part of
@@ -78,6 +80,8 @@ describe('a streamed history held in its window gives the full evaluation, or sa
     expect(judged).toBeGreaterThan(cases / 3)
     expect(judgedFromPart).toBeGreaterThan(cases / 10)
     expect(forecast).toBeGreaterThan(cases / 10)
+    // Some forecasts fitted their curves and projected the engine from a window holding part of the history.
+    expect(fittedFromPart).toBeGreaterThan(0)
   })
 
   it('goes on with later tests as a stream read again would, at later moments', () => {
@@ -137,6 +141,36 @@ describe('a streamed history held in its window gives the full evaluation, or sa
     const verdict = evaluatePrepared(streamed)
     expect(verdict).toEqual(full)
     expect(forecastPrepared(streamed, verdict)).toEqual(forecastCycle(input, full))
+  })
+
+  it('forecasts a cycle lost after a year from its window: the curves since the last water change, the engine projected from the fold', () => {
+    const log = new TankLog('fish-in')
+    log.days(0, {
+      ammonia: [0.2, 0.5, 1, 1, 0.6, 0.3, 0.1, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0],
+      nitrite: [0, 0, 0.2, 0.8, 1.5, 1.5, 1, 0.6, 0.3, 0.1, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0],
+      nitrate: [1, 1, 2, 3, 4, 6, 8, 10, 11, 12, 13, 14, 14, 15, 15, 16, 16, 17, 17, 18],
+    })
+    for (let day = 20; day < 400; day += 1) {
+      log.test(day, { ammoniaN: 0, nitriteN: 0, nitrateN: 8 + (day % 7) }, 8)
+      if (day % 7 === 6) log.waterChange(day, 30)
+    }
+    // A year on, the filter was cleaned too hard: ammonia back, then nitrite, now falling.
+    const ammonia = [0.5, 0.8, 0.6, 0.3, 0.1, 0, 0, 0, 0, 0, 0, 0]
+    const nitrite = [0, 0.3, 1, 1.6, 1.8, 1.5, 1.2, 1, 0.8, 0.6, 0.45, 0.35]
+    ammonia.forEach((a, i) => {
+      log.test(400 + i, { ammoniaN: a, nitriteN: nitrite[i], nitrateN: 10 + i }, 8)
+      log.test(400 + i, { ammoniaN: a, nitriteN: nitrite[i] }, 20)
+    })
+    const input = log.input(411, 21)
+    input.readings = inTimeOrder(input.readings)
+    const full = evaluateCycle(input)
+    const expected = forecastCycle(input, full)
+    expect(expected.status).toBe('forecast')
+    const streamed = prepareStreamed(input, input.readings, input.events, 30)!
+    expect(streamed.history.window!.startMs).toBeGreaterThan(Number.NEGATIVE_INFINITY)
+    const verdict = evaluatePrepared(streamed)
+    expect(verdict).toEqual(full)
+    expect(forecastPrepared(streamed, verdict)).toEqual(expected)
   })
 
   it('is not made from readings out of time order', () => {
