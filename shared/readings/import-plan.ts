@@ -122,11 +122,15 @@ export class DayRoom {
 /**
  * Rows read and checked before they are handed on together. Enough that the sink stores them
  * in a tight loop (each insert between two rows' parsing made the inserts slower); few enough
- * that a chunk dies young: at 1,024 rows each chunk outlived a young-generation collection, was
- * copied to the old one and left there as garbage, and the worker's memory grew with the file
- * (+85 MiB for 100,000 rows, +27 MiB at 256).
+ * that a chunk dies young. A row makes some 6 KB of short-lived objects; what is alive when V8
+ * collects its young generation (every few hundred rows) is copied, and V8 enlarges the young
+ * generation each time the copies add up to its size, so the longer the file, the larger it
+ * grew (the pool's threads cap it: server/utils/heavy-work.ts). At 1,024 rows chunks were also
+ * promoted to the old generation and left there as garbage (+85 MiB for 100,000 rows); at 256,
+ * 250-600 KB was alive at each collection; at 64, with the file read 16 KiB at a time
+ * (server/workers/file-text.ts), 90-150 KB is, and the CPU time is the same.
  */
-export const IMPORT_CHUNK_ROWS = 256
+export const IMPORT_CHUNK_ROWS = 64
 
 /**
  * Reads the file's text (`text`: its pieces in order, the whole text as one piece or a file

@@ -5,7 +5,8 @@
  * refused rows), a test saved on another connection between staging and writing must still
  * take its day's room first, a row imported meanwhile is a duplicate, a file past the row cap
  * must leave nothing behind, and the audit row commits with the rows; repeats and rows imported
- * meanwhile count the same in a tank that holds no imported tests yet. Real migrated SQLite file with the demo company; the worker's function is
+ * meanwhile count the same in a tank that holds no imported tests yet, and a file longer than
+ * the slices the write copies it in is written whole, in file order. Real migrated SQLite file with the demo company; the worker's function is
  * called directly.
  */
 import { mkdtempSync, rmSync, writeFileSync } from 'node:fs'
@@ -19,7 +20,7 @@ import { seedDemo, type DemoIds } from '../../../../server/db/seed/demo'
 import { IMPORT_CHUNK_ROWS } from '../../../../shared/readings/import-plan'
 import { MAX_IMPORT_ROWS, TESTS_PER_TANK_PER_DAY } from '../../../../shared/readings/limits'
 import { workerConnection } from '../../../../server/workers/connection'
-import { commitStaged, dropStage, readingImport, stageImport, type ReadingImportTask } from '../../../../server/workers/reading-import'
+import { commitStaged, dropStage, PUBLISH_SLICE_LINES, readingImport, stageImport, type ReadingImportTask } from '../../../../server/workers/reading-import'
 
 const dir = mkdtempSync(join(tmpdir(), 'tidewright-import-'))
 const dbPath = join(dir, 'import.sqlite')
@@ -207,6 +208,31 @@ describe('the CSV import in the worker', () => {
     if (fromText.kind !== 'done') throw new Error(fromText.kind)
     expect(fromText.preview).toMatchObject({ rows: 3001, valid: 3000, errorRows: 1 })
     expect(fromFile).toEqual(fromText)
+  })
+
+  it('writes every row of a file longer than one slice of the write, in file order, with refused rows and repeats across the slices', () => {
+    const tankId = demo.tanks.lounge
+    const start = now.getTime() - 1500 * 86_400_000
+    // Hourly (24 a day); every 1,000th row is refused and every 700th repeats the row before it,
+    // so the staged lines have gaps, some at a slice's edge.
+    const lines: string[] = []
+    const written: string[] = []
+    for (let i = 0; lines.length < 2 * PUBLISH_SLICE_LINES + 100; i++) {
+      const takenAt = new Date(start + i * 3_600_000).toISOString()
+      if (i % 1000 === 999) lines.push('not a date,0.1,0,5')
+      else if (i % 700 === 699) lines.push(lines.at(-1)!)
+      else {
+        lines.push(`${takenAt},${(i % 400) / 100},0,5`)
+        written.push(takenAt)
+      }
+    }
+    const before = importedIn(tankId)
+    const result = run(tankId, ['takenAt,ammonia,nitrite,nitrate', ...lines].join('\n'), false)
+    if (result.kind !== 'done') throw new Error(result.kind)
+    expect(result.preview).toMatchObject({ rows: lines.length, valid: written.length, inserted: written.length })
+    expect(importedIn(tankId) - before).toBe(written.length)
+    const stored = db.$client.prepare('SELECT taken_at FROM readings WHERE tank_id = ? AND import_key IS NOT NULL ORDER BY rowid').pluck().all(tankId) as string[]
+    expect(stored.slice(before)).toEqual(written)
   })
 
   it('writes the audit row with the rows', () => {
