@@ -86,7 +86,9 @@ export function verdictWithInput(db: Db, tankId: string, now: Date): { input: Ta
 /**
  * The tank's verdict and forecast as of `now` from its data as the database holds it (here, or
  * in a worker thread), undefined if there is no such tank. The engine and the forecast share
- * the tank's kept history, so neither parses and orders the tests again.
+ * the tank's kept history, so neither parses and orders the tests again; for a tank past
+ * STREAMED_HISTORY_TESTS that is its fold held for HISTORY_WINDOW_DAYS (long-history.ts), and
+ * the whole history only when the window cannot settle them.
  */
 export function evaluateTankNow(db: Db, tankId: string, now: Date): TankEvaluation | undefined {
   const streamed = streamsHistory(db, tankId) ? evaluateStreamed(db, tankId, now) : undefined
