@@ -18,7 +18,7 @@ import { CurveTestFold, dosesOf, type CurveFoldState } from './forecast/curve-te
 import { byId, compareNitrogenTests, compareReadings, compareStrings, nitrogenTest, sanitize, timedEventsOf, type NitrogenTest, type PreparedInput, type TimedEvent, type TimedReading } from './history'
 import { CURRENT_RULE_OPTIONS, type RuleOptions } from './options'
 import { showsNitrogen } from './reads'
-import type { Latest } from './snapshot'
+import { noteLatest, type LatestSoFar } from './snapshot'
 import { resolveThresholds } from './thresholds'
 import { DAY_MS, parseTime, requireTime, timeReaderFor, toIso, type TimeReader } from './time'
 import { sameThresholds } from './window'
@@ -31,12 +31,6 @@ export interface StreamedInputHead {
   /** ISO 8601 time the verdict is for. */
   readonly now: string
 }
-
-type Measured = keyof Latest
-
-const MEASURED: readonly Measured[] = [
-  'ammoniaN', 'nitriteN', 'nitrateN', 'pH', 'temperatureC', 'salinity', 'alkalinityDkh', 'calciumMgL', 'magnesiumMgL', 'phosphateMgL',
-]
 
 /** Tests and events after a fold's latest, as the forecast assumes them. */
 interface LaterTests {
@@ -77,7 +71,7 @@ interface StreamData {
   curveAtStart: CurveFoldState | null
   held: TimedReading[]
   heldTests: NitrogenTest[]
-  latest: { -readonly [K in Measured]?: TimedReading }
+  latest: LatestSoFar
   firstShown: TimedReading | null
   ignored: string[]
   repaired: { id: string, t: number }[]
@@ -247,7 +241,7 @@ export class HistoryStream {
       const inOrder = instant.length === 1 ? instant : instant.slice().sort((a, b) => compareReadings(a.reading, b.reading))
       for (const { reading } of inOrder) {
         feed.reading(reading)
-        for (const key of MEASURED) if (reading[key] !== undefined) data.latest[key] = reading
+        noteLatest(data.latest, reading)
         if (data.firstShown === null && showsNitrogen(reading, thresholds)) data.firstShown = reading
         if (reading.t >= startMs) data.held.push(reading)
         else data.leftOut = true

@@ -16,12 +16,18 @@ const MEASURED: readonly Measured[] = [
   'ammoniaN', 'nitriteN', 'nitrateN', 'pH', 'temperatureC', 'salinity', 'alkalinityDkh', 'calciumMgL', 'magnesiumMgL', 'phosphateMgL',
 ]
 
+/** A latest-values record being built (see `noteLatest`). */
+export type LatestSoFar = Partial<Record<Measured, TimedReading>>
+
+/** Takes `reading`, the next in time order, as the latest of each value it carries. */
+export function noteLatest(latest: LatestSoFar, reading: TimedReading): void {
+  for (const key of MEASURED) if (reading[key] !== undefined) latest[key] = reading
+}
+
 /** Latest reading for each measured value. */
 export function latestValues(readings: readonly TimedReading[]): Latest {
-  const latest: Partial<Record<Measured, TimedReading>> = {}
-  for (const reading of readings) {
-    for (const key of MEASURED) if (reading[key] !== undefined) latest[key] = reading
-  }
+  const latest: LatestSoFar = {}
+  for (const reading of readings) noteLatest(latest, reading)
   return latest
 }
 
