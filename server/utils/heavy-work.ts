@@ -14,6 +14,7 @@ import { existsSync } from 'node:fs'
 import { availableParallelism } from 'node:os'
 import { dirname, join, resolve } from 'node:path'
 import { fileURLToPath } from 'node:url'
+import { setFlagsFromString } from 'node:v8'
 import { Piscina } from 'piscina'
 import type { TankEvaluation } from '#server/db/verdicts'
 import type { AppendedTest } from '#server/domain/readings/engine-input-cache'
@@ -41,7 +42,19 @@ function workerFile(name: string): string {
   throw new Error(`The worker ${name}.mjs was not built beside the server (run nuxt build).`)
 }
 
+/**
+ * V8 flag set once, before the pool's first thread starts: no allocation-site pretenuring. With
+ * it, a tank's history read and kept whole in a pool thread (every test outlives its collections)
+ * taught V8 to allocate the tests that code makes straight into the old generation; a long
+ * history streamed through the same code afterwards (history-stream.ts: each test is let go at
+ * once) then left every test there as garbage until a full collection, some 17 MB for 100,000
+ * tests, so the server's memory grew with the length of the history. V8 flags are the
+ * process's, not a thread's: this is set at server start (30.heavy-pool.ts), before any request.
+ */
+const HEAP_FLAGS = '--no-allocation-site-pretenuring'
+
 function heavyPool(): Piscina {
+  if (!pool) setFlagsFromString(HEAP_FLAGS)
   pool ??= new Piscina({
     filename: workerFile('heavy.worker'),
     maxThreads: Math.max(1, availableParallelism() - 1),
