@@ -14,8 +14,8 @@ import { describe, expect, it } from 'vitest'
 import { evaluateCycle, evaluatePrepared } from '../../../../shared/cycle/engine'
 import { forecastCycle, forecastPrepared } from '../../../../shared/cycle/forecast'
 import { buildHistory } from '../../../../shared/cycle/history'
-import { HistoryStream, prepareStreamed } from '../../../../shared/cycle/history-stream'
-import { CURRENT_RULE_OPTIONS, RULE_OPTIONS_2_0_0 } from '../../../../shared/cycle/options'
+import { HistoryStream, prepareStreamed, type StreamedInputHead } from '../../../../shared/cycle/history-stream'
+import { CURRENT_RULE_OPTIONS, RULE_OPTIONS_2_0_0, type RuleOptions } from '../../../../shared/cycle/options'
 import { BeyondWindow } from '../../../../shared/cycle/window'
 import type { CycleInput, CycleReading, Thresholds } from '../../../../shared/cycle/types'
 import { caseArb, withOdd } from './history-cases'
@@ -182,14 +182,32 @@ describe('a streamed history held in its window gives the full evaluation, or sa
     expect(prepareStreamed(input, withUnreadable, [], 30)).toBeDefined()
   })
 
-  it('answers only the moment, limits and rule set it was read for', () => {
+  it('answers only the moment, limits, tank and rule set it was read for', () => {
     const log = new TankLog('fishless').days(0, { ammonia: [0, 1, 2, 1, 0], nitrite: [0, 0, 1, 2, 0] })
     const input = log.input(5)
     const streamed = prepareStreamed(input, input.readings, input.events, 30)!
     expect(evaluatePrepared(streamed)).toEqual(evaluateCycle(input))
     expect(() => evaluatePrepared({ ...streamed, now: at(6) })).toThrow(BeyondWindow)
-    expect(() => evaluatePrepared({ ...streamed, thresholds: { ammoniaZeroN: 0.1 } })).toThrow(BeyondWindow)
-    expect(() => evaluatePrepared({ ...streamed, tank: { ...streamed.tank, cycleMethod: 'fish-in' } })).toThrow(BeyondWindow)
-    expect(() => evaluatePrepared(streamed, RULE_OPTIONS_2_0_0)).toThrow(BeyondWindow)
+  })
+
+  it('is refused by the stream and by the engine for the same other limits, tank or rule set', () => {
+    const log = new TankLog('fishless').days(0, { ammonia: [0, 1, 2, 1, 0], nitrite: [0, 0, 1, 2, 0] })
+    const input = log.input(5)
+    const stream = HistoryStream.read(input, input.readings, input.events, 30)!
+    const streamed = stream.inputAt(input)!
+    // Limits equal one for one, given as another object, are the same limits.
+    expect(stream.inputAt({ ...input, thresholds: { ...input.thresholds } })).toBeDefined()
+    const asks: [what: string, head: StreamedInputHead, options: RuleOptions][] = [
+      ['other limits', { ...input, thresholds: { ...input.thresholds, ammoniaZeroN: 0.1 } }, CURRENT_RULE_OPTIONS],
+      ['another cycle method', { ...input, tank: { ...input.tank, cycleMethod: 'fish-in' } }, CURRENT_RULE_OPTIONS],
+      ['another start', { ...input, tank: { ...input.tank, startedAt: at(-1) } }, CURRENT_RULE_OPTIONS],
+      ['another rule set', input, RULE_OPTIONS_2_0_0],
+    ]
+    for (const [what, head, options] of asks) {
+      // The stream gives no input for it (the caller reads the rows again), and the window's facts
+      // made for the first ask do not answer it.
+      expect(stream.inputAt(head, options), what).toBeUndefined()
+      expect(() => evaluatePrepared({ ...streamed, tank: head.tank, thresholds: head.thresholds }, options), what).toThrow(BeyondWindow)
+    }
   })
 })
