@@ -285,12 +285,3 @@ export class HistoryStream {
     return true
   }
 }
-
-/**
- * The engine input for `head` from `readings` streamed past once in time order, holding the tests
- * of the `windowDays` before its `now` (HistoryStream.read, then inputAt). Undefined when the
- * readings are not in time order.
- */
-export function prepareStreamed(head: StreamedInputHead, readings: Iterable<CycleReading>, events: readonly CycleEvent[] | undefined, windowDays: number, options: RuleOptions = CURRENT_RULE_OPTIONS): PreparedInput | undefined {
-  return HistoryStream.read(head, readings, events, windowDays, options)?.inputAt(head, options)
-}
