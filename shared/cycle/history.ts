@@ -9,6 +9,7 @@ import { partitionPoint } from '../sorted'
 import { latestValues, readingsBetween, updatedLatest, type Latest } from './snapshot'
 import { parseTime, timeReaderFor, type TimeReader } from './time'
 import type { CycleEvent, CycleInput, CycleReading, CycleTank, Thresholds } from './types'
+import { MEASURED_FIELDS, type MeasuredField } from '../vocabulary'
 import { BeyondWindow, windowStart, type HistoryWindow } from './window'
 
 /** A reading with its parsed time; only values the engine can trust are kept. */
@@ -48,14 +49,8 @@ export interface History {
   readonly window?: HistoryWindow
 }
 
-type NumericKey = Exclude<keyof TimedReading, 'id' | 't' | 'entered'>
-
-const VALUE_KEYS: readonly NumericKey[] = [
-  'ammoniaN', 'nitriteN', 'nitrateN', 'pH', 'temperatureC', 'salinity', 'alkalinityDkh', 'calciumMgL', 'magnesiumMgL', 'phosphateMgL',
-]
-
 // Temperature may legitimately be below zero on a broken heater's log; every other value may not.
-function acceptable(key: NumericKey, value: number): boolean {
+function acceptable(key: MeasuredField, value: number): boolean {
   return Number.isFinite(value) && (key === 'temperatureC' || value >= 0)
 }
 
@@ -64,7 +59,7 @@ export function compareStrings(a: string, b: string): number {
 }
 
 function valueKey(reading: TimedReading): string {
-  return VALUE_KEYS.map(key => String(reading[key] ?? '')).join('|')
+  return MEASURED_FIELDS.map(key => String(reading[key] ?? '')).join('|')
 }
 
 // Equal infinities subtract to NaN, which a sort would read as "unordered": compare explicitly.
@@ -108,7 +103,7 @@ export function sanitize(raw: CycleReading, t: number, readTime: TimeReader = pa
   // would give): a long history made a second object per test for the collector.
   const reading: { -readonly [K in keyof TimedReading]: TimedReading[K] } = { id: raw.id, t, entered: enteredTime(raw.enteredAt, readTime) }
   let repaired = false
-  for (const key of VALUE_KEYS) {
+  for (const key of MEASURED_FIELDS) {
     const value = raw[key]
     if (value === undefined || value === null) continue
     if (acceptable(key, value)) reading[key] = atLimitPrecision(value)
