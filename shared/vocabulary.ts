@@ -103,7 +103,11 @@ export type MailStatus = (typeof MAIL_STATUSES)[number]
 export const AUTH_TOKEN_PURPOSES = ['invite', 'reset'] as const
 export type AuthTokenPurpose = (typeof AUTH_TOKEN_PURPOSES)[number]
 
-/** The measured values of one test session, canonical units (mg/L as N, practical salinity, C). */
+/**
+ * The measured values of one test session, canonical units (mg/L as N, practical salinity, C).
+ * The rule engine reads a test's values through it too (shared/cycle/history.ts, snapshot.ts),
+ * and orders two tests of one time, entry and id by their values in this order.
+ */
 export const MEASURED_FIELDS = ['ammoniaN', 'nitriteN', 'nitrateN', 'pH', 'temperatureC', 'salinity', 'alkalinityDkh', 'calciumMgL', 'magnesiumMgL', 'phosphateMgL'] as const
 export type MeasuredField = (typeof MEASURED_FIELDS)[number]
 

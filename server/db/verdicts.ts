@@ -15,6 +15,8 @@ import { preparedPerDb } from './prepared'
 import { keptHistory, readEngineInput, streamedInput } from '../domain/readings/engine-input-cache'
 import { HISTORY_WINDOW_DAYS, streamsHistory } from '../domain/tanks/long-history'
 import { BeyondWindow } from '../../shared/cycle/window'
+import type { StreamedInputHead } from '../../shared/cycle/history-stream'
+import { tankDataRevisionInDb } from '../domain/readings/data-revision'
 import { tankVerdicts, tanks } from './schema'
 import { readOrganisationSettings } from './settings'
 
@@ -53,15 +55,6 @@ export function cycleInputFor(db: Db, tankId: string, now: Date): TankCycleInput
 }
 
 /**
- * The same input with its history prepared, from the copy kept in memory while the tank's data
- * has not changed (engine-input-cache.ts): what a verdict refresh evaluates.
- */
-function preparedInputFor(db: Db, tankId: string, now: Date): PreparedInput | undefined {
-  const found = engineSettingsFor(db, tankId)
-  return found && { ...found, history: keptHistory(db, tankId).history, now: now.toISOString() }
-}
-
-/**
  * Evaluates the tank's cycle now and stores the verdict with the completion forecast made from
  * the same input at the same time (lists read it instead of the tank's history); undefined if
  * the tank does not exist. The engine starts from the tank's kept history (parsed and ordered
@@ -91,20 +84,34 @@ export function verdictWithInput(db: Db, tankId: string, now: Date): { input: Ta
  * the whole history only when the window cannot settle them.
  */
 export function evaluateTankNow(db: Db, tankId: string, now: Date): TankEvaluation | undefined {
-  const streamed = streamsHistory(db, tankId) ? evaluateStreamed(db, tankId, now) : undefined
-  if (streamed) return streamed
-  const input = preparedInputFor(db, tankId, now)
-  return input && evaluateTank(input)
+  // The tank's profile and thresholds, read once: the fold and, when it cannot settle the
+  // verdict, the whole history are judged under the same ones.
+  const settings = engineSettingsFor(db, tankId)
+  if (!settings) return undefined
+  const head = { ...settings, now: now.toISOString() }
+  // The tank's count of changes, read once, before any of its rows: it labels whichever copy is
+  // kept (the fold, or the whole history read when the fold cannot settle the verdict). Inside a
+  // transaction (the demo seed's) every read sees one snapshot: the count is exactly that of the
+  // rows. Outside one (the loop's and the pool's connections: each statement sees the latest
+  // commit) a write on another connection may land between the count and the rows, or between the
+  // fold and the whole read; the copy then holds rows newer than its label, never older. That is
+  // safe: the next evaluation finds the count moved and reads again, and a test the copy is told
+  // of that it already holds is refused (withTestAppended, withReadingAdded), which drops it.
+  // Reading the count again before the whole read would only label that copy more tightly;
+  // reading it after any rows would label a copy newer than its content, which nothing could catch.
+  const revision = tankDataRevisionInDb(db, tankId)
+  const streamed = streamsHistory(db, tankId, revision) ? evaluateStreamed(db, tankId, head, revision) : undefined
+  return streamed ?? evaluateTank({ ...head, history: keptHistory(db, tankId, revision).history })
 }
 
 /**
  * The verdict and forecast from the tank's history streamed past once and held for its last
- * HISTORY_WINDOW_DAYS only, or undefined when there is no such tank or the window cannot settle
- * them (the engine says so: it never guesses); the caller then evaluates the whole history.
+ * HISTORY_WINDOW_DAYS only (its count of changes read at `revision`, before its rows), or
+ * undefined when the window cannot settle them (the engine says so: it never guesses); the caller
+ * then evaluates the whole history.
  */
-function evaluateStreamed(db: Db, tankId: string, now: Date): TankEvaluation | undefined {
-  const found = engineSettingsFor(db, tankId)
-  const input = found && streamedInput(db, tankId, { ...found, now: now.toISOString() }, HISTORY_WINDOW_DAYS)
+function evaluateStreamed(db: Db, tankId: string, head: StreamedInputHead, revision: number): TankEvaluation | undefined {
+  const input = streamedInput(db, tankId, head, HISTORY_WINDOW_DAYS, revision)
   if (!input) return undefined
   try {
     return evaluateTank(input)

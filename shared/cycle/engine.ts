@@ -34,7 +34,7 @@ function compareFindings(a: Finding, b: Finding): number {
 /** The course as of `nowMs`: traced over the history, or the one a window folded for this very evaluation. */
 function courseOf(history: History, thresholds: Thresholds, method: CycleMethod, startedMs: number, nowMs: number, options: RuleOptions): Course {
   if (!history.window) return traceCourse(history, thresholds, method, startedMs, nowMs, options)
-  assertWindowFits(history.window, thresholds, method, startedMs, nowMs, options)
+  assertWindowFits(history.window, { thresholds, method, startedMs, options }, nowMs)
   return history.window.course
 }
 

@@ -21,7 +21,7 @@ import { showsNitrogen } from './reads'
 import { noteLatest, type LatestSoFar } from './snapshot'
 import { resolveThresholds } from './thresholds'
 import { DAY_MS, parseTime, requireTime, timeReaderFor, toIso, type TimeReader } from './time'
-import { sameThresholds } from './window'
+import { foldServes, type FoldedFor } from './window'
 import type { CycleEvent, CycleReading, CycleTank, Thresholds } from './types'
 
 /** What a streamed history is read for: everything of the engine's input but the readings and events. */
@@ -45,11 +45,7 @@ interface Passing {
 }
 
 /** What the fold is for: fixed once read, shared by every stream that goes on from it. */
-interface StreamSettings {
-  readonly thresholds: Thresholds
-  readonly method: CycleTank['cycleMethod']
-  readonly startedMs: number
-  readonly options: RuleOptions
+interface StreamSettings extends FoldedFor {
   readonly windowDays: number
   /** The tests held are those from here on. */
   readonly startMs: number
@@ -160,10 +156,8 @@ export class HistoryStream {
   inputAt(head: StreamedInputHead, options: RuleOptions = CURRENT_RULE_OPTIONS): PreparedInput | undefined {
     const { settings } = this
     const nowMs = requireTime('now', head.now)
-    const fits = options === settings.options
-      && head.tank.cycleMethod === settings.method
-      && requireTime('tank.startedAt', head.tank.startedAt) === settings.startedMs
-      && sameThresholds(resolveThresholds(head.thresholds), settings.thresholds)
+    const asked: FoldedFor = { options, method: head.tank.cycleMethod, startedMs: requireTime('tank.startedAt', head.tank.startedAt), thresholds: resolveThresholds(head.thresholds) }
+    const fits = foldServes(settings, asked)
       && nowMs >= settings.readAtMs && nowMs >= this.data.lastT
       && (nowMs === settings.readAtMs || !this.data.passedOver)
       && nowMs - settings.startMs <= 2 * settings.windowDays * DAY_MS
@@ -290,13 +284,4 @@ export class HistoryStream {
     data.curve = curve.state()
     return true
   }
-}
-
-/**
- * The engine input for `head` from `readings` streamed past once in time order, holding the tests
- * of the `windowDays` before its `now` (HistoryStream.read, then inputAt). Undefined when the
- * readings are not in time order.
- */
-export function prepareStreamed(head: StreamedInputHead, readings: Iterable<CycleReading>, events: readonly CycleEvent[] | undefined, windowDays: number, options: RuleOptions = CURRENT_RULE_OPTIONS): PreparedInput | undefined {
-  return HistoryStream.read(head, readings, events, windowDays, options)?.inputAt(head, options)
 }

@@ -6,9 +6,10 @@
  */
 
 import { partitionPoint } from '../sorted'
-import { latestValues, updatedLatest, type Latest } from './snapshot'
+import { latestValues, readingsBetween, updatedLatest, type Latest } from './snapshot'
 import { parseTime, timeReaderFor, type TimeReader } from './time'
 import type { CycleEvent, CycleInput, CycleReading, CycleTank, Thresholds } from './types'
+import { MEASURED_FIELDS, type MeasuredField } from '../vocabulary'
 import { BeyondWindow, windowStart, type HistoryWindow } from './window'
 
 /** A reading with its parsed time; only values the engine can trust are kept. */
@@ -48,14 +49,8 @@ export interface History {
   readonly window?: HistoryWindow
 }
 
-type NumericKey = Exclude<keyof TimedReading, 'id' | 't' | 'entered'>
-
-const VALUE_KEYS: readonly NumericKey[] = [
-  'ammoniaN', 'nitriteN', 'nitrateN', 'pH', 'temperatureC', 'salinity', 'alkalinityDkh', 'calciumMgL', 'magnesiumMgL', 'phosphateMgL',
-]
-
 // Temperature may legitimately be below zero on a broken heater's log; every other value may not.
-function acceptable(key: NumericKey, value: number): boolean {
+function acceptable(key: MeasuredField, value: number): boolean {
   return Number.isFinite(value) && (key === 'temperatureC' || value >= 0)
 }
 
@@ -64,7 +59,7 @@ export function compareStrings(a: string, b: string): number {
 }
 
 function valueKey(reading: TimedReading): string {
-  return VALUE_KEYS.map(key => String(reading[key] ?? '')).join('|')
+  return MEASURED_FIELDS.map(key => String(reading[key] ?? '')).join('|')
 }
 
 // Equal infinities subtract to NaN, which a sort would read as "unordered": compare explicitly.
@@ -108,7 +103,7 @@ export function sanitize(raw: CycleReading, t: number, readTime: TimeReader = pa
   // would give): a long history made a second object per test for the collector.
   const reading: { -readonly [K in keyof TimedReading]: TimedReading[K] } = { id: raw.id, t, entered: enteredTime(raw.enteredAt, readTime) }
   let repaired = false
-  for (const key of VALUE_KEYS) {
+  for (const key of MEASURED_FIELDS) {
     const value = raw[key]
     if (value === undefined || value === null) continue
     if (acceptable(key, value)) reading[key] = atLimitPrecision(value)
@@ -288,28 +283,22 @@ function inserted<T>(list: readonly T[], item: T, compare: (a: T, b: T) => numbe
 /**
  * `prepared` with one more reading, `raw`: the history `prepareHistory` makes of its readings and
  * `raw`, in any order (the order of the raw input never matters: the history's order is total).
- * Undefined when the test has the time and id of one already there (the input's order would
- * decide between them): the caller then prepares the whole history again.
+ * Undefined when the test has the time and id of one already there, whatever it measured (the
+ * input's order would decide between them, and a copy read after the count it is labelled with
+ * may hold the very test it is then told of): the caller then prepares the whole history again.
  */
 export function withReadingAdded(prepared: PreparedHistory, raw: CycleReading): PreparedHistory | undefined {
   // A window is read for one moment: a later test means reading the tank again.
   if (prepared.window) return undefined
   const t = parseTime(raw.takenAt)
   if (!Number.isFinite(t)) return { ...prepared, ignoredReadingIds: inserted(prepared.ignoredReadingIds, raw.id, compareStrings) }
+  if (readingsBetween(prepared.readings, t, t).some(r => r.id === raw.id)) return undefined
   const result = sanitize(raw, t)
   const test = nitrogenTest(raw, result.reading)
-  let nitrogenTests = prepared.nitrogenTests
-  if (test) {
-    const place = insertionPoint(nitrogenTests, test, compareNitrogenTests)
-    const before = nitrogenTests[place - 1]
-    if (before && compareNitrogenTests(before, test) === 0) return undefined
-    const next = nitrogenTests.slice()
-    next.splice(place, 0, test)
-    nitrogenTests = next
-  }
   return {
     ...prepared,
-    nitrogenTests,
+    // Every test of the forecast is a reading held: one of this time and id is not there either.
+    nitrogenTests: test ? inserted(prepared.nitrogenTests, test, compareNitrogenTests) : prepared.nitrogenTests,
     readings: inserted(prepared.readings, result.reading, compareReadings),
     // It goes after every reading not after it in the order, so it is the latest of each value it carries unless a later one does.
     latest: updatedLatest(prepared.latest, result.reading, (a, b) => compareReadings(a, b) > 0),

@@ -5,23 +5,18 @@
  */
 
 import { partitionPoint } from '../sorted'
+import { MEASURED_FIELDS, type MeasuredField } from '../vocabulary'
 import type { TimedReading } from './history'
 
-type Measured = Exclude<keyof TimedReading, 'id' | 't' | 'entered'>
-
 /** Latest reading carrying each value; readings are in time order. */
-export type Latest = Readonly<Partial<Record<Measured, TimedReading>>>
-
-const MEASURED: readonly Measured[] = [
-  'ammoniaN', 'nitriteN', 'nitrateN', 'pH', 'temperatureC', 'salinity', 'alkalinityDkh', 'calciumMgL', 'magnesiumMgL', 'phosphateMgL',
-]
+export type Latest = Readonly<Partial<Record<MeasuredField, TimedReading>>>
 
 /** A latest-values record being built (see `noteLatest`). */
-export type LatestSoFar = Partial<Record<Measured, TimedReading>>
+export type LatestSoFar = Partial<Record<MeasuredField, TimedReading>>
 
 /** Takes `reading`, the next in time order, as the latest of each value it carries. */
 export function noteLatest(latest: LatestSoFar, reading: TimedReading): void {
-  for (const key of MEASURED) if (reading[key] !== undefined) latest[key] = reading
+  for (const key of MEASURED_FIELDS) if (reading[key] !== undefined) latest[key] = reading
 }
 
 /** Latest reading for each measured value. */
@@ -33,8 +28,8 @@ export function latestValues(readings: readonly TimedReading[]): Latest {
 
 /** `latest` after `added` joined the readings: it takes each value it carries unless a reading `after` it already does. */
 export function updatedLatest(latest: Latest, added: TimedReading, after: (a: TimedReading, b: TimedReading) => boolean): Latest {
-  const next: Partial<Record<Measured, TimedReading>> = { ...latest }
-  for (const key of MEASURED) {
+  const next: Partial<Record<MeasuredField, TimedReading>> = { ...latest }
+  for (const key of MEASURED_FIELDS) {
     const current = next[key]
     if (added[key] !== undefined && (current === undefined || !after(current, added))) next[key] = added
   }

@@ -15,17 +15,23 @@ import type { PreparedHistory, TimedReading } from './history'
 import type { RuleOptions } from './options'
 import type { CycleEvent, CycleMethod, CycleReading, Thresholds } from './types'
 
-/** What a windowed history holds of the tests before its start, folded as they streamed past. */
-export interface HistoryWindow {
-  /** `readings` holds every test taken from this time up to `nowMs` (its time parsed), and none before it; minus infinity when it holds them all. */
-  readonly startMs: number
-  /** The one moment the history was read for: the course and the facts below are as of it. */
-  readonly nowMs: number
-  /** What the course and the facts were folded with: a verdict asked with anything else cannot use them. */
+/**
+ * What a fold of the tests was made with: the rule set, the tank's cycle method and start, and the
+ * limits. The course and facts folded with one set say nothing about an evaluation asked with another.
+ */
+export interface FoldedFor {
   readonly thresholds: Thresholds
   readonly method: CycleMethod
   readonly startedMs: number
   readonly options: RuleOptions
+}
+
+/** What a windowed history holds of the tests before its start, folded as they streamed past. */
+export interface HistoryWindow extends FoldedFor {
+  /** `readings` holds every test taken from this time up to `nowMs` (its time parsed), and none before it; minus infinity when it holds them all. */
+  readonly startMs: number
+  /** The one moment the history was read for: the course and the facts below are as of it. */
+  readonly nowMs: number
   /** The course over the whole history as of `nowMs`. */
   readonly course: Course
   /** The first test of the whole history showing ammonia or nitrite above zero (`showsNitrogen`), or null. */
@@ -60,17 +66,26 @@ export function windowStart(history: { readonly window?: HistoryWindow }): numbe
 }
 
 /** Whether two sets of resolved limits are the same, limit for limit. */
-export function sameThresholds(a: Thresholds, b: Thresholds): boolean {
+function sameThresholds(a: Thresholds, b: Thresholds): boolean {
   const keys = Object.keys(a) as (keyof Thresholds)[]
   return keys.length === Object.keys(b).length && keys.every(key => a[key] === b[key])
+}
+
+/**
+ * Whether a fold made for `folded` serves an evaluation asked for `asked`: the same rule set
+ * version, cycle method, start and limits. The one test of it, for the stream that decides whether
+ * its fold gives an input (`HistoryStream.inputAt`) and for the engine and forecast that decide
+ * whether a window's facts answer (`assertWindowFits`), so the two cannot come to disagree.
+ */
+export function foldServes(folded: FoldedFor, asked: FoldedFor): boolean {
+  return folded.options === asked.options && folded.method === asked.method && folded.startedMs === asked.startedMs
+    && sameThresholds(folded.thresholds, asked.thresholds)
 }
 
 /**
  * Throws BeyondWindow unless the window was folded for this very evaluation: the same moment,
  * limits, tank and rule set version. A window read for one `now` says nothing about another.
  */
-export function assertWindowFits(window: HistoryWindow, thresholds: Thresholds, method: CycleMethod, startedMs: number, nowMs: number, options: RuleOptions): void {
-  const fits = window.nowMs === nowMs && window.method === method && window.startedMs === startedMs
-    && window.options === options && sameThresholds(window.thresholds, thresholds)
-  if (!fits) throw new BeyondWindow('it was read for another moment, limits, tank or rule set')
+export function assertWindowFits(window: HistoryWindow, asked: FoldedFor, nowMs: number): void {
+  if (window.nowMs !== nowMs || !foldServes(window, asked)) throw new BeyondWindow('it was read for another moment, limits, tank or rule set')
 }

@@ -114,11 +114,10 @@ export function readKeptHistory(db: Db, tankId: string, revision: number): KeptH
  * from it), else from the rows streamed again in time order, that fold kept in place of any copy.
  * Undefined when the rows do not come in the history's time order; the engine throws
  * BeyondWindow when the window cannot settle the verdict. Either way the caller evaluates the
- * whole history instead (`keptHistory`).
+ * whole history instead (`keptHistory`). `revision`: the tank's count, read before the rows are,
+ * as keptHistory reads it.
  */
-export function streamedInput(db: Db, tankId: string, head: StreamedInputHead, windowDays: number): PreparedInput | undefined {
-  // The count is read before the rows, as keptHistory does.
-  const revision = tankDataRevisionInDb(db, tankId)
+export function streamedInput(db: Db, tankId: string, head: StreamedInputHead, windowDays: number, revision: number): PreparedInput | undefined {
   const kept = copies(db).get(tankId)
   const input = kept?.revision === revision && isStream(kept) ? kept.stream.inputAt(head) : undefined
   if (input) return input
@@ -131,10 +130,10 @@ export function streamedInput(db: Db, tankId: string, head: StreamedInputHead, w
   return stream.inputAt(head)
 }
 
-/** What the tank's copy kept at its current count is: the whole history, a fold held for its window, or none. */
-export function keptCopyKind(db: Db, tankId: string): 'whole' | 'stream' | undefined {
+/** What the tank's copy kept at its current count (`revision`, read now unless given) is: the whole history, a fold held for its window, or none. */
+export function keptCopyKind(db: Db, tankId: string, revision = tankDataRevisionInDb(db, tankId)): 'whole' | 'stream' | undefined {
   const kept = copies(db).get(tankId)
-  if (!kept || kept.revision !== tankDataRevisionInDb(db, tankId)) return undefined
+  if (!kept || kept.revision !== revision) return undefined
   return isStream(kept) ? 'stream' : 'whole'
 }
 
@@ -147,11 +146,11 @@ function keptAt(revision: number, history: PreparedHistory): KeptHistory {
 /**
  * The tank's current history as the engine reads it: the kept copy when the tank's count has not
  * moved since, otherwise read again (and kept). It is shared: callers read it and never change it.
+ * `revision`: the tank's count, read now unless the caller read it before any rows of its own.
  */
-export function keptHistory(db: Db, tankId: string): KeptHistory {
+export function keptHistory(db: Db, tankId: string, revision = tankDataRevisionInDb(db, tankId)): KeptHistory {
   // The count is read before the rows: rows read after it are at least as new, so a copy is never
   // labelled newer than its content (a write in between moves the count and the next call reads again).
-  const revision = tankDataRevisionInDb(db, tankId)
   const kept = copies(db).get(tankId)
   if (kept?.revision === revision && !isStream(kept)) return kept
   const read = readKeptHistory(db, tankId, revision)

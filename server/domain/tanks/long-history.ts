@@ -34,11 +34,12 @@ export const HISTORY_WINDOW_DAYS = 90
 
 /**
  * Whether the tank's history is folded as it streams past rather than kept whole: a fold is kept
- * for it at its current count, or no copy is and it stores more than STREAMED_HISTORY_TESTS tests
- * (a whole copy, kept after a window could not settle a verdict, is used while it is current).
+ * for it at its current count (`revision`, as the caller read it), or no copy is and it stores more
+ * than STREAMED_HISTORY_TESTS tests (a whole copy, kept after a window could not settle a verdict,
+ * is used while it is current).
  */
-export function streamsHistory(db: Db, tankId: string): boolean {
-  const kind = keptCopyKind(db, tankId)
+export function streamsHistory(db: Db, tankId: string, revision: number): boolean {
+  const kind = keptCopyKind(db, tankId, revision)
   return kind === undefined ? storedReadingCount(db, tankId) > STREAMED_HISTORY_TESTS : kind === 'stream'
 }
 

@@ -126,7 +126,7 @@ export function forecastPrepared(input: PreparedInput, verdict?: Verdict): Cycle
   // The tests in the forecast's order (time, then id), with their values as given; a windowed
   // history folded its curve tests as they streamed past (the latest, and how many).
   const held = windowStart(input.history) > Number.NEGATIVE_INFINITY ? input.history.window : undefined
-  if (held) assertWindowFits(held, thresholds, input.tank.cycleMethod, requireTime('tank.startedAt', input.tank.startedAt), nowMs, CURRENT_RULE_OPTIONS)
+  if (held) assertWindowFits(held, { thresholds, method: input.tank.cycleMethod, startedMs: requireTime('tank.startedAt', input.tank.startedAt), options: CURRENT_RULE_OPTIONS }, nowMs)
   // A window holds the tests from its start on: its curve tests are the whole history's from
   // there, replayed from the curve fold as it stood then. What the curves need of older tests
   // throws BeyondWindow below.

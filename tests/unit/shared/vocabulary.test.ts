@@ -61,11 +61,10 @@ function sourceFiles(dir: string): string[] {
 }
 
 /**
- * A list is "written again" when three of its values (all of them, for shorter lists)
- * appear next to each other as quoted literals joined by `,` or `|`, in the list's order.
+ * A list is "written again" when three of its values (all of them, for shorter lists; or
+ * `width`) appear next to each other as quoted literals joined by `,` or `|`, in the list's order.
  */
-function copyPattern(list: readonly string[]): RegExp {
-  const width = Math.min(3, list.length)
+function copyPattern(list: readonly string[], width = Math.min(3, list.length)): RegExp {
   const quoted = (s: string) => `['"]${s.replace(/[.*+?^${}()|[\]\\]/g, '\\$&')}['"]`
   const windows = list.slice(0, list.length - width + 1).map((_, i) => list.slice(i, i + width).map(quoted).join('\\s*[,|]\\s*'))
   return new RegExp(windows.join('|'))
@@ -97,6 +96,16 @@ describe('the source', () => {
     const allowed = ELSEWHERE[name] ?? (() => false)
     const copies = files.map(path => relative(ROOT, path)).filter(path => !allowed(path) && pattern.test(readFileSync(join(ROOT, path), 'utf8')))
     expect(copies).toEqual([])
+  })
+
+  // Measured field names stand everywhere as column and property names, and a few of them in a
+  // row in lists of their own (a sign-off's final readings, the kit-free entry fields); the whole
+  // list in its order is the list itself.
+  it('spells out MEASURED_FIELDS whole only in shared/vocabulary.ts', () => {
+    const pattern = copyPattern(vocabulary.MEASURED_FIELDS, vocabulary.MEASURED_FIELDS.length)
+    const copies = files.map(path => relative(ROOT, path)).filter(path => pattern.test(readFileSync(join(ROOT, path), 'utf8')))
+    expect(copies).toEqual([])
+    expect(pattern.test(`const KEYS = ['ammoniaN', 'nitriteN', 'nitrateN', 'pH', 'temperatureC', 'salinity',\n  'alkalinityDkh', 'calciumMgL', 'magnesiumMgL', 'phosphateMgL']`)).toBe(true)
   })
 
   it('would find a copy if one were written', () => {

@@ -6,7 +6,8 @@
  * it cannot (BeyondWindow) so the caller evaluates the whole history: a window never answers
  * differently; a stream that later tests were appended to, evaluated at later moments, likewise.
  * A realistic long history (a fish-in cycle, then two years of upkeep) must be
- * judged from its window without falling back.
+ * judged from its window without falling back. Each input is made the way the server makes it
+ * (`streamedInput`, engine-input-cache.ts): `HistoryStream.read`, then `inputAt`.
  */
 
 import fc from 'fast-check'
@@ -14,8 +15,8 @@ import { describe, expect, it } from 'vitest'
 import { evaluateCycle, evaluatePrepared } from '../../../../shared/cycle/engine'
 import { forecastCycle, forecastPrepared } from '../../../../shared/cycle/forecast'
 import { buildHistory } from '../../../../shared/cycle/history'
-import { HistoryStream, prepareStreamed } from '../../../../shared/cycle/history-stream'
-import { CURRENT_RULE_OPTIONS, RULE_OPTIONS_2_0_0 } from '../../../../shared/cycle/options'
+import { HistoryStream, type StreamedInputHead } from '../../../../shared/cycle/history-stream'
+import { CURRENT_RULE_OPTIONS, RULE_OPTIONS_2_0_0, type RuleOptions } from '../../../../shared/cycle/options'
 import { BeyondWindow } from '../../../../shared/cycle/window'
 import type { CycleInput, CycleReading, Thresholds } from '../../../../shared/cycle/types'
 import { caseArb, withOdd } from './history-cases'
@@ -57,7 +58,7 @@ describe('a streamed history held in its window gives the full evaluation, or sa
       const now = new Date(Date.parse(base.now) + c.nowShiftHours * HOUR_MS).toISOString()
       const thresholds: Partial<Thresholds> = { ...base.thresholds, ...c.limits }
       const input: CycleInput = { ...base, readings: inTimeOrder(withOdd(base.readings, c.odd, now)), thresholds, now }
-      const streamed = prepareStreamed(input, input.readings, input.events, windowDays, c.options)
+      const streamed = HistoryStream.read(input, input.readings, input.events, windowDays, c.options)?.inputAt(input, c.options)
       expect(streamed).toBeDefined()
       // What it holds: the whole history's tests from the window's start on, no others.
       const startMs = Date.parse(now) - windowDays * DAY_MS
@@ -134,7 +135,7 @@ describe('a streamed history held in its window gives the full evaluation, or sa
     }
     const input = log.input(760, 9)
     input.readings = inTimeOrder(input.readings)
-    const streamed = prepareStreamed(input, input.readings, input.events, 60)!
+    const streamed = HistoryStream.read(input, input.readings, input.events, 60)!.inputAt(input)!
     expect(streamed.history.readings.length).toBeLessThanOrEqual(2 * 60)
     const full = evaluateCycle(input)
     expect(full.phase).toBe('complete')
@@ -166,7 +167,7 @@ describe('a streamed history held in its window gives the full evaluation, or sa
     const full = evaluateCycle(input)
     const expected = forecastCycle(input, full)
     expect(expected.status).toBe('forecast')
-    const streamed = prepareStreamed(input, input.readings, input.events, 30)!
+    const streamed = HistoryStream.read(input, input.readings, input.events, 30)!.inputAt(input)!
     expect(streamed.history.window!.startMs).toBeGreaterThan(Number.NEGATIVE_INFINITY)
     const verdict = evaluatePrepared(streamed)
     expect(verdict).toEqual(full)
@@ -176,20 +177,38 @@ describe('a streamed history held in its window gives the full evaluation, or sa
   it('is not made from readings out of time order', () => {
     const readings: CycleReading[] = [{ id: 'b', takenAt: at(2), ammoniaN: 0 }, { id: 'a', takenAt: at(1), ammoniaN: 1 }]
     const input: CycleInput = { tank: { volumeLitres: 100, cycleMethod: 'fishless', startedAt: at(0) }, readings, events: [], now: at(3) }
-    expect(prepareStreamed(input, readings, [], 30)).toBeUndefined()
+    expect(HistoryStream.read(input, readings, [], 30)).toBeUndefined()
     // One whose time does not parse may come anywhere.
     const withUnreadable = [readings[1]!, { id: 'x', takenAt: 'soon', ammoniaN: 3 }, readings[0]!]
-    expect(prepareStreamed(input, withUnreadable, [], 30)).toBeDefined()
+    expect(HistoryStream.read(input, withUnreadable, [], 30)?.inputAt(input)).toBeDefined()
   })
 
-  it('answers only the moment, limits and rule set it was read for', () => {
+  it('answers only the moment, limits, tank and rule set it was read for', () => {
     const log = new TankLog('fishless').days(0, { ammonia: [0, 1, 2, 1, 0], nitrite: [0, 0, 1, 2, 0] })
     const input = log.input(5)
-    const streamed = prepareStreamed(input, input.readings, input.events, 30)!
+    const streamed = HistoryStream.read(input, input.readings, input.events, 30)!.inputAt(input)!
     expect(evaluatePrepared(streamed)).toEqual(evaluateCycle(input))
     expect(() => evaluatePrepared({ ...streamed, now: at(6) })).toThrow(BeyondWindow)
-    expect(() => evaluatePrepared({ ...streamed, thresholds: { ammoniaZeroN: 0.1 } })).toThrow(BeyondWindow)
-    expect(() => evaluatePrepared({ ...streamed, tank: { ...streamed.tank, cycleMethod: 'fish-in' } })).toThrow(BeyondWindow)
-    expect(() => evaluatePrepared(streamed, RULE_OPTIONS_2_0_0)).toThrow(BeyondWindow)
+  })
+
+  it('is refused by the stream and by the engine for the same other limits, tank or rule set', () => {
+    const log = new TankLog('fishless').days(0, { ammonia: [0, 1, 2, 1, 0], nitrite: [0, 0, 1, 2, 0] })
+    const input = log.input(5)
+    const stream = HistoryStream.read(input, input.readings, input.events, 30)!
+    const streamed = stream.inputAt(input)!
+    // Limits equal one for one, given as another object, are the same limits.
+    expect(stream.inputAt({ ...input, thresholds: { ...input.thresholds } })).toBeDefined()
+    const asks: [what: string, head: StreamedInputHead, options: RuleOptions][] = [
+      ['other limits', { ...input, thresholds: { ...input.thresholds, ammoniaZeroN: 0.1 } }, CURRENT_RULE_OPTIONS],
+      ['another cycle method', { ...input, tank: { ...input.tank, cycleMethod: 'fish-in' } }, CURRENT_RULE_OPTIONS],
+      ['another start', { ...input, tank: { ...input.tank, startedAt: at(-1) } }, CURRENT_RULE_OPTIONS],
+      ['another rule set', input, RULE_OPTIONS_2_0_0],
+    ]
+    for (const [what, head, options] of asks) {
+      // The stream gives no input for it (the caller reads the rows again), and the window's facts
+      // made for the first ask do not answer it.
+      expect(stream.inputAt(head, options), what).toBeUndefined()
+      expect(() => evaluatePrepared({ ...streamed, tank: head.tank, thresholds: head.thresholds }, options), what).toThrow(BeyondWindow)
+    }
   })
 })

@@ -85,6 +85,16 @@ describe('the kept history gives the full evaluation', { timeout: 2 * LIMIT_MS }
     const twin: CycleReading = { id: 'a', takenAt: at(1, 8), ammoniaN: 0 }
     expect(withReadingAdded(prepared, twin)).toBeUndefined()
   })
+
+  it('refuses a test it already holds, whatever it measured', () => {
+    // A copy read after the count it is labelled with may already hold a test it is then told of
+    // (engine-input-cache.ts): placed again, a test of pH alone would count twice.
+    const waterOnly: CycleReading = { id: 'w', takenAt: at(1, 8), pH: 8.1, salinity: 34 }
+    const prepared = prepareHistory([{ id: 'a', takenAt: at(1, 7), ammoniaN: 1 }, waterOnly], [])
+    expect(withReadingAdded(prepared, waterOnly)).toBeUndefined()
+    // Another test of the same time is placed.
+    expect(withReadingAdded(prepared, { ...waterOnly, id: 'x' })?.readings.map(r => r.id)).toEqual(['a', 'w', 'x'])
+  })
 })
 
 /** Tests and doses after `now`, as the forecast assumes them: some at one instant, some with a value missing. */

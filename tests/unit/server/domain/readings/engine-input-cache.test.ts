@@ -187,6 +187,20 @@ describe('the engine input kept between refreshes', () => {
     expect(read.history).toEqual(readKeptHistory(other, tankId, 0).history)
   })
 
+  it('drops a copy labelled with the count read before a test it holds, when told of that test', () => {
+    // The pool read the tank's count, a save committed on the loop, then the pool read the rows
+    // (evaluateTankNow reads the count once, before all its rows): its copy holds the test under
+    // the count before it. A test with no ammonia or nitrite is the one only the readings can tell.
+    const tankId = demo.tanks.study
+    const countBefore = tankDataRevisionInDb(other, tankId)
+    const saved = insertLikeTheRoute(tankId, { takenAt: new Date(now.getTime() - DAY / 3).toISOString(), createdAt: now.toISOString(), ammoniaN: null, nitriteN: null, nitrateN: 7 })
+    const read = keptHistory(other, tankId, countBefore)
+    expect(read.revision).toBe(countBefore)
+    expect(read.history.readings.filter(r => r.id === saved.row.id)).toHaveLength(1)
+    noteTestAppended(other, tankId, structuredClone(saved.row), saved.revisionAfterInsert)
+    expect(keptHistory(other, tankId).history).toEqual(readKeptHistory(other, tankId, 0).history)
+  })
+
   it('reads again after a write on another connection', () => {
     const tankId = demo.tanks.nano
     const before = keptHistory(db, tankId)
