@@ -1,6 +1,7 @@
 import * as v from 'valibot'
-import { getCurrentInstance, nextTick, provide, reactive, ref, toRaw, watch, type InjectionKey, type Ref, type UnwrapNestedRefs } from 'vue'
+import { getCurrentInstance, nextTick, provide, reactive, ref, toRaw, watch, type UnwrapNestedRefs } from 'vue'
 import { apiErrorMessage, schemaFieldErrors, serverFieldErrors, type FieldErrors } from '~/utils/api-error'
+import { SCHEMA_FORM } from '~/utils/schema-form-context'
 import { useToastStore } from '~/stores/toasts'
 
 export interface SchemaFormOptions<TValues, TBody> {
@@ -23,19 +24,6 @@ export interface SchemaFormOptions<TValues, TBody> {
 
 /** What to say beside the button (forms end with it) when some fields are marked. */
 export const CHECK_FIELDS = 'Check the fields marked above.'
-
-/**
- * What a form hands the `<FormField name="…">` inside it (its messages, and who shows which)
- * and the `<FormSubmit>` that ends it (whether it is sending, and the message beside the button).
- */
-export interface SchemaFormContext {
-  errors: Ref<FieldErrors>
-  /** Notes that a field is on screen, so its message is shown beside it; returns the undo. */
-  show: (field: string) => () => void
-  submitting: Ref<boolean>
-  formError: Ref<string>
-}
-export const SCHEMA_FORM: InjectionKey<SchemaFormContext> = Symbol('schema-form')
 
 /**
  * A form driven by the shared valibot schema its API route uses (or, where one form sends to

@@ -1,4 +1,4 @@
-import { CategoryScale, Chart as ChartJS, Filler, Legend, LinearScale, LineController, LineElement, PointElement, Tooltip } from 'chart.js'
+import { CategoryScale, Chart as ChartJS, Decimation, Filler, Legend, LinearScale, LineController, LineElement, PointElement, Tooltip } from 'chart.js'
 import annotationPlugin from 'chartjs-plugin-annotation'
 
 /**
@@ -7,4 +7,4 @@ import annotationPlugin from 'chartjs-plugin-annotation'
  * was registered (the lighting ramp, say, drawn before the tank charts load) would break on its
  * next update, so no chart component registers its own pieces.
  */
-ChartJS.register(LineController, LineElement, PointElement, LinearScale, CategoryScale, Tooltip, Legend, Filler, annotationPlugin)
+ChartJS.register(LineController, LineElement, PointElement, LinearScale, CategoryScale, Tooltip, Legend, Filler, Decimation, annotationPlugin)

@@ -9,7 +9,7 @@
  * - alarm ranges: a value that is possible but worrying is stored and flagged, so the
  *   client sees at once that it matters.
  */
-import { toNitrogen, fromNitrogen, type NitrogenSpecies } from '../chemistry/nitrogen'
+import { toNitrogen } from '../chemistry/nitrogen'
 import {
   PSS78_SALINITY_RANGE, PSS78_TEMPERATURE_RANGE_C, SG_BASES, SPECIFIC_GRAVITY_RANGE,
   conductivityRangeMsCm, salinityFromConductivity, salinityFromSpecificGravity,
@@ -17,6 +17,7 @@ import {
 import { DEFAULT_THRESHOLDS } from '../cycle/thresholds'
 import { celsiusToFahrenheit, fahrenheitToCelsius } from '../units'
 import { calendarDateExists, ENTRY_NOTES_MAX, parseIsoTime, STORED_TIME, toIsoInstant } from './fields'
+import { nitrogenFromKit, nitrogenToKit } from './kit-basis'
 import { numberText } from './number-text'
 import {
   AMMONIA_BASES, MEASURED_FIELDS, NITRATE_BASES, NITRITE_BASES, PHYSICAL_BOUNDS, TEMPERATURE_UNITS,
@@ -154,15 +155,8 @@ const INPUT_FIELD: Record<MeasuredField, string> = {
 
 const present = (value: number | null | undefined): value is number => value !== null && value !== undefined
 
-/** Kit value in its basis -> mg/L as N. */
-export function nitrogenFromKit(value: number, basis: AmmoniaBasis | NitriteBasis | NitrateBasis): number {
-  return basis === 'N' ? value : toNitrogen(value, basis as NitrogenSpecies)
-}
-
-/** mg/L as N -> the kit's basis (for display and for editing a stored reading). */
-export function nitrogenToKit(valueN: number, basis: AmmoniaBasis | NitriteBasis | NitrateBasis): number {
-  return basis === 'N' ? valueN : fromNitrogen(valueN, basis as NitrogenSpecies)
-}
+// The kit basis <-> N conversion lives in kit-basis.ts; entry's importers keep reaching it here.
+export { nitrogenFromKit, nitrogenToKit }
 
 /** Temperature as typed -> degrees C. */
 export function temperatureToC(value: number, unit: TemperatureUnit): number {

@@ -5,7 +5,8 @@
  * nearest ammonia, nitrite or nitrate named before it; free (un-ionized) ammonia is NH3 by definition.
  */
 import { formatNumber } from '../cycle/words'
-import { nitrogenToKit, type KitBasisChoice } from './entry'
+import type { KitBasisChoice } from './entry'
+import { nitrogenToKit } from './kit-basis'
 
 const CONCENTRATION = /(\d+(?:\.\d+)?) mg\/L as N(?: \(about ([\d.]+) ppm as (NH3|NH4|NO2|NO3)\))?/g
 // The ion the engine wrote beside a figure names its species for sure (a dose of ammonia in a sentence about nitrite).

@@ -46,25 +46,47 @@ export function forReader(message: string, reader: Reader): string {
     .replace(DAY, (_, y: string, mo: string, d: string) => formatShortDay(Date.UTC(Number(y), Number(mo) - 1, Number(d)), 'UTC'))
 }
 
+type ClockStyle = 'moment' | 'short-day' | 'day' | 'stamp'
+const CLOCK_STYLES: Record<ClockStyle, Intl.DateTimeFormatOptions> = {
+  'moment': { day: 'numeric', month: 'short', hour: 'numeric', minute: '2-digit' },
+  'short-day': { day: 'numeric', month: 'short' },
+  'day': { day: 'numeric', month: 'short', year: 'numeric' },
+  'stamp': { day: 'numeric', month: 'short', year: 'numeric', hour: 'numeric', minute: '2-digit' },
+}
+// One formatter per style and time zone, made on first use: `toLocaleString` with options builds
+// a new one on every call (about 0.1 ms each), and a page prints many dates (a board's forecasts,
+// a chart's axis ticks and tooltips), the server's render and the browser's hydration alike.
+const formatters = new Map<string, Intl.DateTimeFormat>()
+function onClock(style: ClockStyle, ms: number, timeZone: string | undefined): string {
+  const key = `${style} ${timeZone ?? ''}`
+  let formatter = formatters.get(key)
+  if (!formatter) {
+    formatter = new Intl.DateTimeFormat('en-US', { ...CLOCK_STYLES[style], timeZone })
+    formatters.set(key, formatter)
+  }
+  // A formatter throws on a time that is not one, where toLocaleString said "Invalid Date".
+  return Number.isNaN(ms) ? String(new Date(ms)) : formatter.format(ms)
+}
+
 /**
  * A moment, short ("Dec 2, 3:01 PM"), in a time zone: the company's for mail and notices, the
  * browser's own when none is given. One format for every moment a person reads.
  */
 export function formatMoment(ms: number, timeZone?: string): string {
-  return new Date(ms).toLocaleString('en-US', { timeZone, day: 'numeric', month: 'short', hour: 'numeric', minute: '2-digit' })
+  return onClock('moment', ms, timeZone)
 }
 
 /** A day without its year ("Dec 2"), where the year is plain from around it: chart axes, a range's first end. */
 export function formatShortDay(ms: number, timeZone?: string): string {
-  return new Date(ms).toLocaleDateString('en-US', { timeZone, day: 'numeric', month: 'short' })
+  return onClock('short-day', ms, timeZone)
 }
 
 /** A calendar day ("Dec 2, 2026") on a clock: earliest dates, sign-off days, forecasts. */
 export function formatDay(ms: number, timeZone?: string): string {
-  return new Date(ms).toLocaleDateString('en-US', { timeZone, day: 'numeric', month: 'short', year: 'numeric' })
+  return onClock('day', ms, timeZone)
 }
 
 /** A moment with its year ("Dec 2, 2026, 3:01 PM"), for records that outlive the season: sign-offs, audit rows, sign-ins. */
 export function formatStamp(ms: number, timeZone?: string): string {
-  return new Date(ms).toLocaleString('en-US', { timeZone, day: 'numeric', month: 'short', year: 'numeric', hour: 'numeric', minute: '2-digit' })
+  return onClock('stamp', ms, timeZone)
 }

@@ -63,6 +63,21 @@ describe('one clock for dates and times', () => {
     expect(space(formatStamp(lateDec2, 'Pacific/Auckland'))).toBe('Dec 3, 2026, 12:30 PM')
   })
 
+  it('prints each day and moment as toLocaleString does on that clock, asked again and again, and "Invalid Date" for no time', () => {
+    const times = [lateDec2, Date.UTC(2027, 2, 28, 1, 30), Date.UTC(2026, 0, 1, 0, 0)]
+    for (const zone of ['UTC', 'Pacific/Auckland', 'America/Chicago', 'Europe/London']) {
+      for (const ms of [...times, ...times]) {
+        const at = new Date(ms)
+        expect(formatDay(ms, zone)).toBe(at.toLocaleDateString('en-US', { timeZone: zone, day: 'numeric', month: 'short', year: 'numeric' }))
+        expect(formatShortDay(ms, zone)).toBe(at.toLocaleDateString('en-US', { timeZone: zone, day: 'numeric', month: 'short' }))
+        expect(formatMoment(ms, zone)).toBe(at.toLocaleString('en-US', { timeZone: zone, day: 'numeric', month: 'short', hour: 'numeric', minute: '2-digit' }))
+        expect(formatStamp(ms, zone)).toBe(at.toLocaleString('en-US', { timeZone: zone, day: 'numeric', month: 'short', year: 'numeric', hour: 'numeric', minute: '2-digit' }))
+      }
+    }
+    expect(formatDay(Number.NaN, 'UTC')).toBe('Invalid Date')
+    expect(formatMoment(Date.parse('not a time'), 'UTC')).toBe('Invalid Date')
+  })
+
   it('does not depend on the machine\'s own time zone once a clock is given', () => {
     const machine = process.env.TZ
     try {
