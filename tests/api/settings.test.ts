@@ -142,6 +142,25 @@ describe('GET and PUT /api/settings', () => {
     expect(audit).toEqual([expect.objectContaining({ after: { thresholds: { ammoniaZeroN: 0.1 } } })])
   })
 
+  it('judges the very next test under thresholds just saved, and under the defaults again once they are reset', async () => {
+    const co = await seedScratchCompany('settings-next-save')
+    const admin = await signedIn(co.emails.admin)
+    // 0.08 mg/L as N: above the default zero (0.05), at or below 0.1, so a first test reads as the
+    // ammonia stage under the default and as not started under 0.1.
+    const phaseOfNewTank = async (name: string) => {
+      const tankId = await tankWithAmmonia(admin, co.clientId, name, 0.08)
+      return storedVerdicts([tankId])[0]?.phase
+    }
+    expect(await phaseOfNewTank('Next save reef A')).toBe('ammonia')
+    const { body } = await admin.get('/api/settings')
+    const saved = await admin.request('PUT', '/api/settings', { name: body.name, settings: { ...body.settings, thresholds: { ammoniaZeroN: 0.1 } }, version: body.version })
+    expect(saved.status).toBe(200)
+    expect(await phaseOfNewTank('Next save reef B')).toBe('not-started')
+    const reset = await admin.request('PUT', '/api/settings', { name: body.name, settings: { ...body.settings, thresholds: {} }, version: saved.body.version })
+    expect(reset.status).toBe(200)
+    expect(await phaseOfNewTank('Next save reef C')).toBe('ammonia')
+  })
+
   it('is for admins: other roles 403, signed out 401, and one company\'s save never touches another', async () => {
     const co = await seedScratchCompany('settings-access')
     const other = await seedScratchCompany('settings-access-other')
