@@ -111,6 +111,24 @@ export type AuthTokenPurpose = (typeof AUTH_TOKEN_PURPOSES)[number]
 export const MEASURED_FIELDS = ['ammoniaN', 'nitriteN', 'nitrateN', 'pH', 'temperatureC', 'salinity', 'alkalinityDkh', 'calciumMgL', 'magnesiumMgL', 'phosphateMgL'] as const
 export type MeasuredField = (typeof MEASURED_FIELDS)[number]
 
+/** The nitrogen tests, entered as the kit reads them (as the ion, or as N). */
+export const NITROGEN_INPUT_FIELDS = ['ammonia', 'nitrite', 'nitrate'] as const
+export type NitrogenInputField = (typeof NITROGEN_INPUT_FIELDS)[number]
+
+/** The tests of a daily session: the nitrogen tests and the water's pH, temperature and salinity (a correction edits these in place). */
+export const DAILY_INPUT_FIELDS = [...NITROGEN_INPUT_FIELDS, 'pH', 'temperature', 'salinity'] as const
+
+/** Reef chemistry, entered as it is stored: no kit basis or unit to convert from. */
+export const REEF_INPUT_FIELDS = ['alkalinityDkh', 'calciumMgL', 'magnesiumMgL', 'phosphateMgL'] as const satisfies readonly MeasuredField[]
+
+/**
+ * Every measured quantity a daily test form or a CSV row can carry, named as the body field it
+ * arrives in (in the kit's basis or the person's unit; MEASURED_FIELDS are the canonical values it
+ * becomes). The form's fields, the importer's columns and targets and the entry check read it.
+ */
+export const INPUT_FIELDS = [...DAILY_INPUT_FIELDS, ...REEF_INPUT_FIELDS] as const
+export type InputField = (typeof INPUT_FIELDS)[number]
+
 /**
  * Physical bounds, canonical units: outside them a value cannot be a real test of a
  * tank's water and is refused, however it arrives (form, CSV import, edit, correction).

@@ -7,6 +7,7 @@ import { IMPORT_TARGETS } from '../schemas/reading'
 import type { EntryIssue, KitBasisChoice, ReadingEntry } from './entry'
 import { calendarDateExists, parseDecimal, parseIsoTime, STORED_TIME } from './fields'
 import { numberText } from './number-text'
+import { INPUT_FIELDS, type NitrogenInputField } from '../vocabulary'
 
 /** Header words each target is recognised by (lower case, punctuation removed). */
 const HEADER_HINTS: Record<ImportTarget, string[]> = {
@@ -88,7 +89,7 @@ export function parseCsvTime(cell: string): string | null {
 /** How each row is read; the basis is settled before the rows are (see importBasis). */
 type Options = Pick<ReadingImportOptions, 'temperatureUnit' | 'salinityMode' | 'sgBasis'> & { basis: KitBasisChoice }
 
-const NUMERIC = ['ammonia', 'nitrite', 'nitrate', 'pH', 'temperature', 'salinity', 'alkalinityDkh', 'calciumMgL', 'magnesiumMgL', 'phosphateMgL'] as const satisfies readonly ImportTarget[]
+const NUMERIC = INPUT_FIELDS satisfies readonly ImportTarget[]
 
 /**
  * A row read as the entry the form sends, and the instant its time names (the entry's
@@ -232,7 +233,7 @@ export const EXPORT_MAPPING: Partial<Record<ImportTarget, string>> = {
  */
 export function importBasis(chosen: KitBasisChoice | undefined, mapping: Partial<Record<ImportTarget, string>>, kit: KitBasisChoice): KitBasisChoice {
   if (chosen) return { ...chosen }
-  const fromFile = (target: 'ammonia' | 'nitrite' | 'nitrate') => mapping[target] !== undefined && mapping[target] === EXPORT_MAPPING[target]
+  const fromFile = (target: NitrogenInputField) => mapping[target] !== undefined && mapping[target] === EXPORT_MAPPING[target]
   return {
     ammonia: fromFile('ammonia') ? 'N' : kit.ammonia,
     nitrite: fromFile('nitrite') ? 'N' : kit.nitrite,

@@ -6,11 +6,11 @@
  */
 import * as v from 'valibot'
 import { ReadingInputSchema } from '../schemas/reading'
+import { INPUT_FIELDS } from '../vocabulary'
 import { toCanonicalReading, type EntryIssue } from './entry'
 
 /** Body fields a bad value can be dropped from, so the rest of the entry can still be checked. */
-const DROPPABLE = ['ammonia', 'nitrite', 'nitrate', 'pH', 'temperature', 'salinity', 'conductivityTemperatureC',
-  'alkalinityDkh', 'calciumMgL', 'magnesiumMgL', 'phosphateMgL', 'notes'] as const
+const DROPPABLE: readonly string[] = [...INPUT_FIELDS, 'conductivityTemperatureC', 'notes']
 
 /** The field messages of a reading body (as `POST /api/tanks/:id/readings` takes it), one per field. */
 export function readingEntryIssues(body: unknown, now: Date = new Date()): EntryIssue[] {
@@ -27,7 +27,7 @@ export function readingEntryIssues(body: unknown, now: Date = new Date()): Entry
   // is replaced by `now` only so the values can be checked (its own message stays).
   const rest: Record<string, unknown> = { ...(body as Record<string, unknown>) }
   for (const { field } of typed) {
-    if ((DROPPABLE as readonly string[]).includes(field)) rest[field] = null
+    if (DROPPABLE.includes(field)) rest[field] = null
     else if (field === 'takenAt') rest.takenAt = now.toISOString()
   }
   const again = v.safeParse(ReadingInputSchema, rest)

@@ -20,8 +20,8 @@ import { calendarDateExists, ENTRY_NOTES_MAX, parseIsoTime, STORED_TIME, toIsoIn
 import { nitrogenFromKit, nitrogenToKit } from './kit-basis'
 import { numberText } from './number-text'
 import {
-  AMMONIA_BASES, MEASURED_FIELDS, NITRATE_BASES, NITRITE_BASES, PHYSICAL_BOUNDS, TEMPERATURE_UNITS,
-  type AmmoniaBasis, type FlagSeverity, type MeasuredField, type NitrateBasis, type NitriteBasis, type SalinityMode, type TemperatureUnit,
+  AMMONIA_BASES, MEASURED_FIELDS, NITRATE_BASES, NITRITE_BASES, NITROGEN_INPUT_FIELDS, PHYSICAL_BOUNDS, REEF_INPUT_FIELDS, TEMPERATURE_UNITS,
+  type AmmoniaBasis, type FlagSeverity, type MeasuredField, type NitrateBasis, type NitriteBasis, type NitrogenInputField, type SalinityMode, type TemperatureUnit,
 } from '../vocabulary'
 
 export type SgBasisKey = keyof typeof SG_BASES
@@ -286,7 +286,7 @@ export function convertEntry(entry: ReadingEntry, now: Date = new Date(), takenM
     magnesiumMgL: present(entry.magnesiumMgL) ? entry.magnesiumMgL : null,
     phosphateMgL: present(entry.phosphateMgL) ? entry.phosphateMgL : null,
   }
-  for (const field of ['ammonia', 'nitrite', 'nitrate'] as const) {
+  for (const field of NITROGEN_INPUT_FIELDS) {
     const typed = entry[field]
     if (present(typed) && typed < 0) issues.push({ field, message: `${FIELD_LABELS[`${field}N`]} cannot be below zero.` })
   }
@@ -349,7 +349,7 @@ export function enteredRecord(entry: ReadingEntry): Record<string, unknown> {
         ? { value: entry.salinity, as: 'conductivity', temperatureC: entry.conductivityTemperatureC ?? 25 }
         : { value: entry.salinity, as: 'practical' }
   }
-  for (const key of ['alkalinityDkh', 'calciumMgL', 'magnesiumMgL', 'phosphateMgL'] as const) {
+  for (const key of REEF_INPUT_FIELDS) {
     if (present(entry[key])) out[key] = entry[key]
   }
   return out
@@ -431,7 +431,7 @@ const num = (x: unknown): number | undefined => (typeof x === 'number' && Number
  */
 export function entryFromStored(row: StoredReading, kit: KitBasisChoice, temperatureUnit: TemperatureUnit): ReadingEntry {
   const e = row.entered ?? {}
-  const nitrogen = <B extends AmmoniaBasis | NitriteBasis | NitrateBasis>(key: 'ammonia' | 'nitrite' | 'nitrate', canonical: number | null, fallback: B): [number | null, B] => {
+  const nitrogen = <B extends AmmoniaBasis | NitriteBasis | NitrateBasis>(key: NitrogenInputField, canonical: number | null, fallback: B): [number | null, B] => {
     const typed = obj(e[key])
     const value = num(typed?.value)
     if (value !== undefined && typeof typed?.basis === 'string') return [value, typed.basis as B]

@@ -9,7 +9,7 @@ import { ENTRY_NOTES_MAX } from '../readings/fields'
 import { UPLOAD_EMPTY_MESSAGE } from '../uploads/files'
 import { isoTimeText as isoTime } from './common'
 import {
-  AMMONIA_BASES, EVENT_KINDS, LIVESTOCK_GROUPS, NITRATE_BASES, NITRITE_BASES, SALINITY_MODES, TEMPERATURE_UNITS, VOLUME_UNITS,
+  AMMONIA_BASES, EVENT_KINDS, INPUT_FIELDS, LIVESTOCK_GROUPS, NITRATE_BASES, NITRITE_BASES, SALINITY_MODES, TEMPERATURE_UNITS, VOLUME_UNITS,
 } from '../vocabulary'
 
 const SG_KEYS = Object.keys(SG_BASES) as [keyof typeof SG_BASES, ...(keyof typeof SG_BASES)[]]
@@ -112,7 +112,7 @@ export const EventPatchSchema = v.partial(v.object(eventEntries))
 export type EventPatch = v.InferOutput<typeof EventPatchSchema>
 
 /** Column names the importer maps onto. */
-export const IMPORT_TARGETS = ['takenAt', 'ammonia', 'nitrite', 'nitrate', 'pH', 'temperature', 'salinity', 'alkalinityDkh', 'calciumMgL', 'magnesiumMgL', 'phosphateMgL', 'notes'] as const
+export const IMPORT_TARGETS = ['takenAt', ...INPUT_FIELDS, 'notes'] as const
 export type ImportTarget = (typeof IMPORT_TARGETS)[number]
 
 /** How the import reads a file: the same options whether the file comes as JSON text or as the request's body. */
