@@ -24,10 +24,10 @@ export interface SignOffDecisionTask {
   note: string
 }
 
-export type SignOffDecisionOutcome =
-  | { kind: 'decided', result: DecisionResult }
-  | { kind: 'refused', refusal: CarriedRefusal }
-  | { kind: 'missing' }
+export type SignOffDecisionOutcome
+  = | { kind: 'decided', result: DecisionResult }
+    | { kind: 'refused', refusal: CarriedRefusal }
+    | { kind: 'missing' }
 
 /** Thrown inside the task when the tank is gone: answered as 'missing'. */
 class TankGone extends Error {}

@@ -8,10 +8,10 @@ import { TankStatusRefused } from '#server/domain/tanks/status'
 import { EvaluationOutdated } from './evaluation'
 import { SignOffRefused } from './refusal'
 
-export type CarriedRefusal =
-  | { kind: 'evaluation-outdated' }
-  | { kind: 'sign-off', status: SignOffRefused['status'], message: string, details: SignOffRefused['details'] }
-  | { kind: 'tank-status', refusal: TankStatusRefused['refusal'], message: string }
+export type CarriedRefusal
+  = | { kind: 'evaluation-outdated' }
+    | { kind: 'sign-off', status: SignOffRefused['status'], message: string, details: SignOffRefused['details'] }
+    | { kind: 'tank-status', refusal: TankStatusRefused['refusal'], message: string }
 
 /** What a refusal says, to hand to another thread; undefined for any other error (thrown as it is). */
 export function carriedRefusal(error: unknown): CarriedRefusal | undefined {
