@@ -15,45 +15,15 @@ import { openDatabase } from '../server/db/connection'
 import { tanks } from '../server/db/schema'
 import { OTHER_AQUARIST_EMAIL } from '../tests/support/fixtures'
 import { copyTank } from '../tests/support/sign-off-tanks'
-import { signInCookie, type BenchServer, type Row } from './support'
+import { describe, percentile, readLoop, signInCookie, type BenchServer, type Row } from './support'
 
 /** The long history's length: a 100,000-row import, the largest one file may hold. */
 export const SIGN_OFF_TESTS = 100_000
-const READERS = 4
 const HALF_HOUR = 1_800_000
 /** What a browser on the signed tank's pages asks for, in turn (under /api/tanks/:id). */
 const SIGNED_RECORD_PARTS = ['/evidence', '/sign-off', '/certificate.pdf']
 
-interface Latencies { ms: number[], failed: number }
-
-function percentile(sorted: number[], p: number): number {
-  if (!sorted.length) return Number.NaN
-  return sorted[Math.min(sorted.length - 1, Math.floor(p * sorted.length))]!
-}
-
 const sorted = (values: number[]) => [...values].sort((a, b) => a - b)
-const describe = (l: Latencies) => `p50 ${percentile(l.ms, 0.5).toFixed(1)} ms, p99 ${percentile(l.ms, 0.99).toFixed(1)} ms, max ${(l.ms.at(-1) ?? Number.NaN).toFixed(0)} ms, ${l.ms.length} requests, ${l.failed} failed`
-
-/** Loops of GETs until `until()` says stop; every answer other than 200 counts as failed. */
-async function readLoop(url: string, cookie: string, until: () => boolean): Promise<Latencies> {
-  const result: Latencies = { ms: [], failed: 0 }
-  await Promise.all(Array.from({ length: READERS }, async () => {
-    while (!until()) {
-      const start = performance.now()
-      try {
-        const response = await fetch(url, { headers: { cookie } })
-        await response.arrayBuffer()
-        if (response.status !== 200) result.failed++
-      }
-      catch {
-        result.failed++
-      }
-      result.ms.push(performance.now() - start)
-    }
-  }))
-  result.ms.sort((a, b) => a - b)
-  return result
-}
 
 /**
  * A copy of the demo nano (its cycle complete) with SIGN_OFF_TESTS clean tests before its cycle
