@@ -10,8 +10,9 @@
  */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { evaluateCycle } from '../../shared/cycle/engine'
+import { eq } from 'drizzle-orm'
 import { openDatabase } from '../../server/db/connection'
-import { signedInput } from '../../server/domain/sign-off/signed-record'
+import { signOffInputs } from '../../server/db/schema'
 import { LONG_HISTORY_TESTS } from '../../server/domain/tanks/long-history'
 import { CHART_MAX_TESTS } from '../../shared/readings/limits'
 import type { ChartData, ReadingList } from '../../shared/types/readings'
@@ -166,7 +167,7 @@ describe('a sign-off on a tank with a long history', { timeout: 180_000 }, () =>
   function storedInput(signOffId: string): CycleInput {
     const db = openDatabase(own.dbPath)
     try {
-      return signedInput(db, signOffId)!
+      return db.select().from(signOffInputs).where(eq(signOffInputs.signOffId, signOffId)).get()!.input
     }
     finally {
       db.$client.close()

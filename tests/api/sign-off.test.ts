@@ -6,8 +6,7 @@ import { RULE_SET_VERSION } from '../../shared/cycle/registry'
 import type { Evidence, ReviewItem, SignOffRecordWithSnapshot, SignOffState, VerifyResult } from '../../shared/types/sign-off'
 import type { ListOf } from '../../shared/types/list'
 import { openDatabase, type TidewrightDB } from '../../server/db/connection'
-import { alerts, auditLog, events, planStages, readings, signOffs, tanks } from '../../server/db/schema'
-import { signedInput } from '../../server/domain/sign-off/signed-record'
+import { alerts, auditLog, events, planStages, readings, signOffInputs, signOffs, tanks } from '../../server/db/schema'
 import { OTHER_AQUARIST_EMAIL } from '../support/fixtures'
 import { ApiClient, signedIn } from '../support/http'
 import { SIGN_OFF_COMPANY, SIGN_OFF_USERS, seedSignOffCompany, type SignOffCompany } from '../support/sign-off-tanks'
@@ -172,7 +171,7 @@ describe('the decision', () => {
     const snapshot = stored.snapshot as unknown as NonNullable<SignOffRecordWithSnapshot['snapshot']>
     expect(snapshot.verdict.phase).toBe('complete')
     // The input is kept beside the snapshot; the answer carries the verdict, not the input.
-    const input = signedInput(db, body.id)!
+    const input = db.select().from(signOffInputs).where(eq(signOffInputs.signOffId, body.id)).get()!.input
     expect(input.now).toBe(stored.decidedAt)
     expect(input.readings.length).toBeGreaterThan(30)
     expect(evaluateCycle(input)).toEqual(snapshot.verdict)
