@@ -55,10 +55,7 @@ export function requestSignOff(db: Db, actor: SignOffActor, tank: TankRow, note:
   }, { behavior: 'immediate' })
 }
 
-/**
- * A sign-off's columns but its snapshot: a decision has its snapshot in hand and does not read it
- * back (for an imported history that is megabytes of JSON parsed again on the request loop).
- */
+/** A sign-off's columns but its snapshot: a decision has its snapshot in hand and does not read it back. */
 const { snapshot: _snapshot, ...decidedColumns } = getTableColumns(signOffs)
 
 export interface DecisionResult {
