@@ -9,42 +9,10 @@
 import { performance } from 'node:perf_hooks'
 import { OTHER_AQUARIST_EMAIL } from '../tests/support/fixtures'
 import { bulkCsv, BULK_ROWS } from './bulk.bench'
-import { signInCookie, type BenchServer, type Row } from './support'
-
-const READERS = 4
+import { describe, percentile, readLoop, signInCookie, type BenchServer, type Row } from './support'
 
 /** What a browser on the imported tank's pages asks for, in turn (under /api/tanks/:id). */
 const TANK_PAGE_PARTS = ['/evidence', '/chart', '/sign-off', '/forecast', '/verdict', '']
-
-interface Latencies { ms: number[], failed: number }
-
-function percentile(sorted: number[], p: number): number {
-  if (!sorted.length) return Number.NaN
-  return sorted[Math.min(sorted.length - 1, Math.floor(p * sorted.length))]!
-}
-
-/** Loops of GETs until `until()` says stop; every answer other than 200 counts as failed. */
-async function readLoop(url: string, cookie: string, until: () => boolean): Promise<Latencies> {
-  const result: Latencies = { ms: [], failed: 0 }
-  await Promise.all(Array.from({ length: READERS }, async () => {
-    while (!until()) {
-      const start = performance.now()
-      try {
-        const response = await fetch(url, { headers: { cookie } })
-        await response.arrayBuffer()
-        if (response.status !== 200) result.failed++
-      }
-      catch {
-        result.failed++
-      }
-      result.ms.push(performance.now() - start)
-    }
-  }))
-  result.ms.sort((a, b) => a - b)
-  return result
-}
-
-const describe = (l: Latencies) => `p50 ${percentile(l.ms, 0.5).toFixed(1)} ms, p99 ${percentile(l.ms, 0.99).toFixed(1)} ms, max ${(l.ms.at(-1) ?? Number.NaN).toFixed(0)} ms, ${l.ms.length} requests, ${l.failed} failed`
 
 export async function runIsolationBench(bench: BenchServer, seconds: number): Promise<Row[]> {
   const { baseURL } = bench.server

@@ -5,7 +5,9 @@
  * Loopback only. BENCH_SECONDS (default 4) sets the length of each API case;
  * BENCH_ONLY=api,bulk,isolation,engine,frontend,backtest runs a subset (frontend includes Lighthouse's
  * mobile performance figures for three pages; backtest: the completion
- * forecast's hit rate and median error, the same figures as npm run backtest).
+ * forecast's hit rate and median error, the same figures as npm run backtest). Opt-in only, never in
+ * the default run: signoff (another company's reads while a 100,000-test tank is signed off again
+ * and again, sign-off.bench.ts; BENCH_SIGNOFF_CYCLES, default 3).
  */
 import { existsSync } from 'node:fs'
 import { cpus } from 'node:os'
@@ -17,6 +19,7 @@ import { runEngineBench } from './engine.bench'
 import { runFrontendBench } from './frontend.bench'
 import { runIsolationBench } from './isolation.bench'
 import { runLighthouseBench } from './lighthouse.bench'
+import { runSignOffBench } from './sign-off.bench'
 import { startBenchServer, type Row } from './support'
 import { buildIsStale } from '../scripts/build-state.mjs'
 
@@ -78,6 +81,15 @@ async function main() {
     const bench = await startBenchServer()
     try {
       rows.push(...await runIsolationBench(bench, SECONDS))
+    }
+    finally {
+      await bench.stop()
+    }
+  }
+  if (ONLY.has('signoff')) {
+    const bench = await startBenchServer()
+    try {
+      rows.push(...await runSignOffBench(bench, SECONDS))
     }
     finally {
       await bench.stop()

@@ -7,6 +7,7 @@ import { randomUUID } from 'node:crypto'
 import { mkdtempSync, rmSync } from 'node:fs'
 import { tmpdir } from 'node:os'
 import { join } from 'node:path'
+import { performance } from 'node:perf_hooks'
 import Database from 'better-sqlite3'
 import { seededDatabase } from '../tests/support/own-server'
 import type { Fixtures } from '../tests/support/fixtures'
@@ -75,3 +76,39 @@ export async function signInCookie(baseURL: string, email: string): Promise<stri
   if (response.status !== 200) throw new Error(`sign-in as ${email}: ${response.status}`)
   return response.headers.getSetCookie().map(c => c.split(';')[0]).join('; ')
 }
+
+/** How many clients read in a loop at once in the isolation benchmarks. */
+const READERS = 4
+
+/** Each request's time (sorted, ms) and how many answered other than 200. */
+export interface Latencies { ms: number[], failed: number }
+
+/** The p-quantile of sorted values. */
+export function percentile(sorted: number[], p: number): number {
+  if (!sorted.length) return Number.NaN
+  return sorted[Math.min(sorted.length - 1, Math.floor(p * sorted.length))]!
+}
+
+/** Loops of GETs by READERS clients until `until()` says stop; every answer other than 200 counts as failed. */
+export async function readLoop(url: string, cookie: string, until: () => boolean): Promise<Latencies> {
+  const result: Latencies = { ms: [], failed: 0 }
+  await Promise.all(Array.from({ length: READERS }, async () => {
+    while (!until()) {
+      const start = performance.now()
+      try {
+        const response = await fetch(url, { headers: { cookie } })
+        await response.arrayBuffer()
+        if (response.status !== 200) result.failed++
+      }
+      catch {
+        result.failed++
+      }
+      result.ms.push(performance.now() - start)
+    }
+  }))
+  result.ms.sort((a, b) => a - b)
+  return result
+}
+
+/** A loop's latencies in words, for the table. */
+export const describe = (l: Latencies) => `p50 ${percentile(l.ms, 0.5).toFixed(1)} ms, p99 ${percentile(l.ms, 0.99).toFixed(1)} ms, max ${(l.ms.at(-1) ?? Number.NaN).toFixed(0)} ms, ${l.ms.length} requests, ${l.failed} failed`

@@ -5,7 +5,7 @@
  */
 import { sql } from 'drizzle-orm'
 import { index, integer, primaryKey, real, sqliteTable, text, uniqueIndex } from 'drizzle-orm/sqlite-core'
-import type { Verdict } from '../../shared/cycle/types'
+import type { CycleInput, Verdict } from '../../shared/cycle/types'
 import type { CycleForecast } from '../../shared/cycle/forecast/types'
 import type { StoredOrganisationSettings } from '../../shared/schemas/settings'
 import type { SignOffSnapshot } from '../../shared/types/sign-off'
@@ -404,7 +404,7 @@ export const signOffs = sqliteTable('sign_offs', {
   decisionNote: text('decision_note'),
   /** True when approved against the engine's verdict; a written reason is then required. */
   override: integer('override', { mode: 'boolean' }).notNull().default(false),
-  /** The engine input and output at decision time, so the verdict can be reproduced. */
+  /** The engine's verdict at decision time and the tank as signed; its input is in sign_off_inputs. */
   snapshot: text('snapshot', { mode: 'json' }).$type<SignOffSnapshot>(),
   ruleSetVersion: text('rule_set_version'),
   verificationCode: text('verification_code'),
@@ -413,6 +413,19 @@ export const signOffs = sqliteTable('sign_offs', {
   reopenReason: text('reopen_reason'),
   ...timestamps,
 }, t => [index('sign_offs_tank_idx').on(t.tankId), uniqueIndex('sign_offs_verification').on(t.verificationCode)])
+
+/**
+ * The engine input a decision was made from (every test and event of the tank as of the decision),
+ * kept apart from `sign_offs.snapshot`: for an imported history it is tens of MB of JSON, which
+ * the sign-off reads (the review queue, the tank page, the evidence, the lock of every save on a
+ * signed tank) must not parse. Read only for what needs it: the certificate's final tests (in the
+ * heavy-work pool) and the lock's question whether an entry is in the signed record (in SQL,
+ * `signedInputHolds`). Written with the decision, in its transaction; never rewritten.
+ */
+export const signOffInputs = sqliteTable('sign_off_inputs', {
+  signOffId: text('sign_off_id').primaryKey().references(() => signOffs.id, { onDelete: 'cascade' }),
+  input: text('input', { mode: 'json' }).$type<CycleInput>().notNull(),
+})
 
 /**
  * A change to a signed-off tank's facts (name, volume, method, dimensions, client, site)

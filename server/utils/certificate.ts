@@ -7,7 +7,7 @@ import fontkit from '@pdf-lib/fontkit'
 import { PDFDocument, rgb, type PDFFont, type PDFPage } from 'pdf-lib'
 import { formatDay } from '#shared/readings/reader-words'
 import { celsiusToFahrenheit, litresToUsGallons } from '#shared/units'
-import { datedAcclimation, finalReadings, stockingSteps, type FinalReadingKey } from '#shared/sign-off/plan'
+import { datedAcclimation, stockingSteps, type FinalReadingKey, type FinalValue } from '#shared/sign-off/plan'
 import type { SignedStage, SignOffAmendmentView, SignOffSnapshot } from '#shared/types/sign-off'
 import type { CycleMethod, UnitSystem } from '#shared/vocabulary'
 import { SIGNED_FIELD_LABELS } from '#server/domain/sign-off/signed-record'
@@ -27,6 +27,8 @@ export interface CertificateFacts {
   override: boolean
   decisionNote: string | null
   snapshot: SignOffSnapshot
+  /** The latest value of each test in the input the decision was made from (finalReadings over sign_off_inputs). */
+  finals: FinalValue[]
   /** The build plan as it stood at the decision. */
   stages: SignedStage[]
   /** Changes to the signed facts since, each with its reason. */
@@ -197,7 +199,7 @@ export async function renderCertificate(facts: CertificateFacts, fonts: Certific
   }
 
   w.heading('Final tests')
-  const finals = finalReadings(facts.snapshot.input)
+  const finals = facts.finals
   if (!finals.length) w.text('No tests recorded.', { size: 10 })
   const rowTop = w.y
   finals.forEach((f, i) => {

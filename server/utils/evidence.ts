@@ -12,7 +12,7 @@ import { eventHistoryPage, readingHistoryPage } from '#server/domain/readings/cu
 import type { Actor } from './access'
 import { maySignOff, pendingRequest, signOffHistory, toSignOffRecordWithSnapshot, unresolvedAlertCount, userNames } from './sign-offs'
 import { overrideGrounds } from '#shared/sign-off/plan'
-import { currentApprovedSignOff } from './sign-off-lock'
+import { lockedUntil } from './sign-off-lock'
 import { getTankView } from './tank-views'
 
 /** The whole cycle of one tank (a page of its readings and events), or undefined when the actor may not see it. */
@@ -34,6 +34,8 @@ export async function tankEvidence(actor: Actor, tankId: string, now = new Date(
   const uploadRows = db.select().from(uploads).where(eq(uploads.tankId, tankId)).orderBy(asc(uploads.createdAt)).all()
   const alertRows = db.select().from(alerts).where(eq(alerts.tankId, tankId)).orderBy(asc(alerts.openedAt)).all()
   const tankRow = { organisationId: actor.organisationId, supervisorId: tank.supervisorId }
+  // The approval's decision time only, asked once: the lock and the reopen button need no more of it.
+  const signedUntil = lockedUntil(tankId)
   return {
     tank,
     verdict,
@@ -110,8 +112,8 @@ export async function tankEvidence(actor: Actor, tankId: string, now = new Date(
       resolveNote: a.resolveNote,
     })),
     signOffs: signOffHistory(tankId).map(r => toSignOffRecordWithSnapshot(r, names)),
-    lockedUntil: currentApprovedSignOff(tankId)?.decidedAt ?? null,
+    lockedUntil: signedUntil,
     canDecide: maySignOff(actor, tankRow) && !!pendingRequest(tankId),
-    canReopen: maySignOff(actor, tankRow) && !!currentApprovedSignOff(tankId),
+    canReopen: maySignOff(actor, tankRow) && signedUntil !== null,
   }
 }

@@ -3,8 +3,8 @@
  * one request loop every company is served from (a 100,000-row CSV import takes seconds).
  * One thread fewer than the machine has cores, at least one, so requests keep a core. Its
  * tasks: the CSV import, the engine run for the evidence page, for the verdict refresh and for
- * a sign-off request or decision on a tank with a long history, that tank's CSV export, and the
- * certificate's PDF.
+ * a sign-off request on a tank with a long history, such a tank's sign-off decision (evaluated
+ * and stored there) and CSV export, and the certificate's PDF.
  *
  * Each worker entry is built beside the server (scripts/build-workers.mjs): found by
  * looking up from this chunk's own file, so a moved .output keeps working. There is no
@@ -18,11 +18,13 @@ import { setFlagsFromString } from 'node:v8'
 import { Piscina } from 'piscina'
 import type { TankEvaluation } from '#server/db/verdicts'
 import type { AppendedTest } from '#server/domain/readings/engine-input-cache'
-import type { SignOffEvaluation, SignOffVerdict } from '#server/domain/sign-off/evaluation'
-import type { CertificateFacts } from './certificate'
+import type { DecisionResult } from '#server/domain/sign-off/commands'
+import type { SignOffVerdict } from '#server/domain/sign-off/evaluation'
+import { refusalAgain } from '#server/domain/sign-off/refusal-transfer'
 import type { CertificateTask } from '#server/workers/certificate'
 import type { ReadingImportResult, ReadingImportTask } from '#server/workers/reading-import'
 import type { ReadingsExportTask } from '#server/workers/readings-export'
+import type { SignOffDecisionOutcome, SignOffDecisionTask } from '#server/workers/sign-off-decision'
 import type { SignOffEvaluationTask } from '#server/workers/sign-off-evaluation'
 import type { TankVerdictTask } from '#server/workers/tank-verdict'
 
@@ -96,20 +98,23 @@ export function evaluateOffLoop(tankId: string, now: Date, appended: readonly Ap
 }
 
 /**
- * What a sign-off decision rests on, made in the pool: the tank's data revision, then its engine
- * input as of `now` read anew and the verdict made from it (server/domain/sign-off/evaluation.ts);
- * null when there is no such tank.
+ * What a sign-off request rests on, made in the pool: the tank's data revision, then its verdict as
+ * of `now` made from its history read anew, without the input, which a request does not record;
+ * the tank's profile and thresholds the verdict was made under come back with it.
  */
-export function signOffEvaluationOffLoop(tankId: string, now: Date): Promise<SignOffEvaluation | null> {
-  return heavyPool().run({ tankId, nowMs: now.getTime(), dbPath: dbPath(), withInput: true } satisfies SignOffEvaluationTask, { name: 'signOffEvaluation' })
+export function signOffVerdictOffLoop(tankId: string, now: Date): Promise<SignOffVerdict | null> {
+  return heavyPool().run({ tankId, nowMs: now.getTime(), dbPath: dbPath() } satisfies SignOffEvaluationTask, { name: 'signOffEvaluation' })
 }
 
 /**
- * What a sign-off request rests on, made in the pool: the same without the input, which a request
- * does not record; the tank's profile and thresholds the verdict was made under come back with it.
+ * A sign-off decision made wholly in the pool (server/workers/sign-off-decision.ts): evaluated and
+ * stored with its input there; back comes the decided row only. A refusal is thrown here as its
+ * own class (SignOffRefused, EvaluationOutdated, TankStatusRefused); null when there is no such tank.
  */
-export function signOffVerdictOffLoop(tankId: string, now: Date): Promise<SignOffVerdict | null> {
-  return heavyPool().run({ tankId, nowMs: now.getTime(), dbPath: dbPath(), withInput: false } satisfies SignOffEvaluationTask, { name: 'signOffEvaluation' })
+export async function decideSignOffOffLoop(task: Omit<SignOffDecisionTask, 'dbPath'>): Promise<DecisionResult | null> {
+  const outcome: SignOffDecisionOutcome = await heavyPool().run({ ...task, dbPath: dbPath() } satisfies SignOffDecisionTask, { name: 'signOffDecision' })
+  if (outcome.kind === 'refused') throw refusalAgain(outcome.refusal)
+  return outcome.kind === 'decided' ? outcome.result : null
 }
 
 /** A tank's readings as CSV text (server/domain/readings/export.ts), written in the pool. */
@@ -117,8 +122,8 @@ export function exportReadingsOffLoop(tankId: string): Promise<string> {
   return heavyPool().run({ tankId, dbPath: dbPath() } satisfies ReadingsExportTask, { name: 'readingsExport' })
 }
 
-/** The sign-off certificate's PDF bytes, rendered in the pool. */
-export async function renderCertificateOffLoop(facts: CertificateFacts): Promise<Uint8Array> {
-  const task: CertificateTask = { facts, fonts: await certificateFonts() }
+/** The sign-off certificate's PDF bytes, rendered in the pool; its final tests read there from the input `signOffId` was decided on. */
+export async function renderCertificateOffLoop(facts: CertificateTask['facts'], signOffId: string): Promise<Uint8Array> {
+  const task: CertificateTask = { facts, fonts: await certificateFonts(), dbPath: dbPath(), signOffId }
   return heavyPool().run(task, { name: 'certificatePdf' })
 }

@@ -4,14 +4,14 @@
  * access.ts, and turns their refusals into HTTP answers. Routes stay thin and call these.
  */
 import { requestSignOff as requestInDb, decideSignOff as decideInDb, reopenSignOff as reopenInDb, advanceToStockingIfLivestock as advanceInDb, checkSignOffDecision, checkSignOffRequest, type DecisionResult } from '#server/domain/sign-off/commands'
-import { evaluateForSignOff as evaluateInDb, onCurrentEvaluation, type SignOffEvaluation, type SignOffVerdict } from '#server/domain/sign-off/evaluation'
+import { evaluateForSignOff as evaluateInDb, onCurrentEvaluation, type SignOffVerdict } from '#server/domain/sign-off/evaluation'
 import { organisationUserNames, pendingRequest as pendingInDb, signOffHistory as historyInDb, unresolvedAlertCount as alertCountInDb, type SignOffRow, type TankRow } from '#server/domain/sign-off/records'
 import { SignOffRefused } from '#server/domain/sign-off/refusal'
 import { reviewQueue as reviewQueueInDb, signOffState as stateInDb } from '#server/domain/sign-off/state'
 import { hasLongHistory } from '#server/domain/tanks/long-history'
 import { TankStatusRefused } from '#server/domain/tanks/status'
 import { canManageTank, requireVisibleTank, visibleTankCondition, type Actor } from './access'
-import { signOffEvaluationOffLoop, signOffVerdictOffLoop } from './heavy-work'
+import { decideSignOffOffLoop, signOffVerdictOffLoop } from './heavy-work'
 
 export { maySignOff, toSignOffRecord, toSignOffRecordWithSnapshot } from '#server/domain/sign-off/records'
 
@@ -66,19 +66,11 @@ export function unresolvedAlertCount(tankId: string): number {
 }
 
 /**
- * What a sign-off decision rests on: the tank's data revision, its engine input as of `now` read
- * anew and the verdict made from it. In the heavy-work pool for a long history
- * (LONG_HISTORY_TESTS), so the request loop never runs the engine over an imported log; on the
- * loop, at once, for every other tank. 404 for no such tank.
- */
-async function evaluateForSignOff(tankId: string, now: Date): Promise<SignOffEvaluation> {
-  const db = useDB()
-  return found(hasLongHistory(db, tankId) ? await signOffEvaluationOffLoop(tankId, now) : evaluateInDb(db, tankId, now))
-}
-
-/**
- * What a sign-off request rests on: the same, but from the pool without the input (a request
- * records none); the tank profile and thresholds the verdict was made under still come back.
+ * What a sign-off request rests on: the tank's data revision and the verdict made from its history
+ * read anew as of `now`. In the heavy-work pool for a long history (LONG_HISTORY_TESTS), without the
+ * input (a request records none; the tank profile and thresholds the verdict was made under still
+ * come back), so the request loop never runs the engine over an imported log; on the loop, at once,
+ * for every other tank. 404 for no such tank.
  */
 async function verdictForSignOff(tankId: string, now: Date): Promise<SignOffVerdict> {
   const db = useDB()
@@ -116,9 +108,18 @@ export function reviewQueue(actor: Actor, now = new Date()) {
   return reviewQueueInDb(useDB(), actor, visibleTankCondition(actor), now)
 }
 
-/** Approves or returns the waiting request, with the verdict snapshot. */
+/**
+ * Approves or returns the waiting request, with the verdict snapshot and the engine input. For a
+ * long history (LONG_HISTORY_TESTS) the whole decision is made in the heavy-work pool, which writes
+ * the input there and hands back the decided row only: the request loop never holds, copies or
+ * writes the input of an imported log. Every other tank is decided on the loop, by the same command.
+ */
 export function decideSignOff(actor: Actor, tank: TankRow, decision: 'approve' | 'return', note: string): Promise<DecisionResult> {
-  return onEvaluatedTank(actor, tank.id, evaluateForSignOff,
+  if (hasLongHistory(useDB(), tank.id)) {
+    const decider = { id: actor.id, organisationId: actor.organisationId, role: actor.role }
+    return signOffAnswerLater(async () => found(await decideSignOffOffLoop({ tankId: tank.id, actor: decider, decision, note })))
+  }
+  return onEvaluatedTank(actor, tank.id, async (tankId, now) => found(evaluateInDb(useDB(), tankId, now)),
     current => checkSignOffDecision(useDB(), actor, current, decision, note),
     (current, evaluation) => decideInDb(useDB(), actor, current, decision, note, evaluation))
 }

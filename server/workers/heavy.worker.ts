@@ -8,6 +8,7 @@ import type { CertificateTask } from './certificate'
 
 export { readingImport } from './reading-import'
 export { readingsExport } from './readings-export'
+export { signOffDecision } from './sign-off-decision'
 export { signOffEvaluation } from './sign-off-evaluation'
 export { tankVerdict } from './tank-verdict'
 

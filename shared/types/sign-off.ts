@@ -1,5 +1,5 @@
 /** API response shapes for sign-off, evidence, certificate verification and the stocking plan. */
-import type { CycleInput, Verdict } from '../cycle/types'
+import type { Verdict } from '../cycle/types'
 import type { CanonicalValues } from '../readings/entry'
 import type { AcclimationSettings, DatedAcclimationStep, FinalValue, StockingStep } from '../sign-off/plan'
 import type { CyclePhase, TankStatus, TankView } from './tanks'
@@ -42,11 +42,14 @@ export interface SignOffAmendmentView {
   changes: { field: string, before: unknown, after: unknown }[]
 }
 
-/** What the engine was given and what it answered when the supervisor decided. */
+/**
+ * What the engine answered when the supervisor decided, and the tank as it stood. What the
+ * engine was given (every test and event, megabytes for an imported history) is kept beside it
+ * in `sign_off_inputs`, read only where it is needed (the certificate's final tests, the lock).
+ */
 export interface SignOffSnapshot {
   /** Absent only on sign-offs decided before the facts were kept with the decision. */
   facts?: SignedTankFacts
-  input: CycleInput
   verdict: Verdict
   /** Why approving was against the verdict; empty when the engine agreed. */
   overrideGrounds: string[]

@@ -10,11 +10,14 @@
  */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { evaluateCycle } from '../../shared/cycle/engine'
+import { eq } from 'drizzle-orm'
 import { openDatabase } from '../../server/db/connection'
+import { signOffInputs } from '../../server/db/schema'
 import { LONG_HISTORY_TESTS } from '../../server/domain/tanks/long-history'
 import { CHART_MAX_TESTS } from '../../shared/readings/limits'
 import type { ChartData, ReadingList } from '../../shared/types/readings'
-import type { SignOffRecordWithSnapshot } from '../../shared/types/sign-off'
+import type { CycleInput } from '../../shared/cycle/types'
+import type { Evidence, SignOffRecordWithSnapshot } from '../../shared/types/sign-off'
 import { ApiClient } from '../support/http'
 import { copyTank } from '../support/sign-off-tanks'
 import { startOwnServer, type OwnServer } from '../support/own-server'
@@ -160,9 +163,19 @@ describe('a sign-off on a tank with a long history', { timeout: 180_000 }, () =>
       db.$client.close()
     }
   }
+  /** The engine input a decision was made from, as stored beside it. */
+  function storedInput(signOffId: string): CycleInput {
+    const db = openDatabase(own.dbPath)
+    try {
+      return db.select().from(signOffInputs).where(eq(signOffInputs.signOffId, signOffId)).get()!.input
+    }
+    finally {
+      db.$client.close()
+    }
+  }
   const asked = (tank: string) => api.post(`/api/tanks/${tank}/sign-off-requests`, { note: 'Imported log and the cycle since.' })
 
-  it('asks and approves end to end; the snapshot holds every test and re-runs to its verdict', async () => {
+  it('asks and approves end to end; the signed input holds every test and re-runs to its verdict; the answer is small', async () => {
     const tank = await longCompleteTank('Long signed reef')
     const request = await asked(tank)
     expect(request.status, JSON.stringify(request.body).slice(0, 300)).toBe(201)
@@ -171,11 +184,39 @@ describe('a sign-off on a tank with a long history', { timeout: 180_000 }, () =>
     const { status, body } = await supervisor.post<SignOffRecordWithSnapshot>(`/api/tanks/${tank}/sign-off/decision`, { decision: 'approve' })
     expect(status, JSON.stringify(body).slice(0, 300)).toBe(200)
     expect(body).toMatchObject({ status: 'approved', override: false })
+    // The answer holds the verdict and the tank as signed, not the input of every test (megabytes).
+    expect(body.snapshot).not.toHaveProperty('input')
+    expect(JSON.stringify(body).length).toBeLessThan(64 * 1024)
     const snapshot = body.snapshot!
     expect(snapshot.verdict.phase).toBe('complete')
-    expect(snapshot.input.now).toBe(body.decidedAt)
-    expect(snapshot.input.readings.length).toBeGreaterThan(LONG_HISTORY_TESTS)
-    expect(evaluateCycle(snapshot.input)).toEqual(snapshot.verdict)
+    const input = storedInput(body.id)
+    expect(input.now).toBe(body.decidedAt)
+    expect(input.readings.length).toBeGreaterThan(LONG_HISTORY_TESTS)
+    expect(evaluateCycle(input)).toEqual(snapshot.verdict)
+    // The evidence shows the decision without it too.
+    const evidence = await supervisor.get<Evidence>(`/api/tanks/${tank}/evidence`)
+    expect(evidence.status).toBe(200)
+    expect(evidence.body.signOffs[0]).toMatchObject({ id: body.id, status: 'approved', snapshot: { verdict: snapshot.verdict } })
+    expect(evidence.body.signOffs[0]!.snapshot).not.toHaveProperty('input')
+    expect(evidence.body.lockedUntil).toBe(body.decidedAt)
+  })
+
+  it('answers a decision refused in the pool as the loop answers it: status, message, field and data', async () => {
+    const tank = await longCompleteTank('Long refused reef')
+    const supervisor = await new ApiClient(own.server.baseURL).signIn('supervisor@tidewright.test')
+    const none = await supervisor.post(`/api/tanks/${tank}/sign-off/decision`, { decision: 'approve' })
+    expect(none.status).toBe(409)
+    expect(none.body.statusMessage).toBe('No sign-off request is waiting for this tank')
+    expect((await asked(tank)).status).toBe(201)
+    // Ammonia back at 2 mg/L after the request: approving now goes against the engine and needs a written reason.
+    const save = await api.post(`/api/tanks/${tank}/readings`, { takenAt: new Date(Date.now() - 5 * 60_000).toISOString(), ammonia: 2, nitrite: 0, nitrate: 5, basis: { ammonia: 'N', nitrite: 'N', nitrate: 'N' }, pH: 8.1, temperature: 25, temperatureUnit: 'C', salinity: 35, salinityMode: 'practical' })
+    expect(save.status).toBe(201)
+    const noReason = await supervisor.post(`/api/tanks/${tank}/sign-off/decision`, { decision: 'approve', note: '' })
+    expect(noReason.status).toBe(400)
+    expect(noReason.body.data.issues).toEqual([{ field: 'note', message: expect.stringContaining('write why') }])
+    expect(noReason.body.data.overrideGrounds.join(' ')).toMatch(/not complete/)
+    const asker = await api.post(`/api/tanks/${tank}/sign-off/decision`, { decision: 'approve', note: 'Looks fine.' })
+    expect(asker.status).toBe(403)
   })
 
   it('answers a decision with a test saved meanwhile either with a verdict that holds the test, or a 409; never an approval without it', async () => {
@@ -192,10 +233,11 @@ describe('a sign-off on a tank with a long history', { timeout: 180_000 }, () =>
     if (decision.status === 200 && save.status === 201) {
       // The save came first: the approval holds it, and so is against the engine.
       const snapshot = (decision.body as SignOffRecordWithSnapshot).snapshot!
-      expect(snapshot.input.readings.map(r => r.id)).toContain(save.body.reading.id)
+      const input = storedInput(decision.body.id)
+      expect(input.readings.map(r => r.id)).toContain(save.body.reading.id)
       expect(snapshot.verdict.phase).not.toBe('complete')
       expect(decision.body.override).toBe(true)
-      expect(evaluateCycle(snapshot.input)).toEqual(snapshot.verdict)
+      expect(evaluateCycle(input)).toEqual(snapshot.verdict)
     }
     else if (decision.status === 200) {
       // The approval came first: the test, dated inside the signed period, is refused.

@@ -6,7 +6,7 @@ import { RULE_SET_VERSION } from '../../shared/cycle/registry'
 import type { Evidence, ReviewItem, SignOffRecordWithSnapshot, SignOffState, VerifyResult } from '../../shared/types/sign-off'
 import type { ListOf } from '../../shared/types/list'
 import { openDatabase, type TidewrightDB } from '../../server/db/connection'
-import { alerts, auditLog, events, planStages, readings, signOffs, tanks } from '../../server/db/schema'
+import { alerts, auditLog, events, planStages, readings, signOffInputs, signOffs, tanks } from '../../server/db/schema'
 import { OTHER_AQUARIST_EMAIL } from '../support/fixtures'
 import { ApiClient, signedIn } from '../support/http'
 import { SIGN_OFF_COMPANY, SIGN_OFF_USERS, seedSignOffCompany, type SignOffCompany } from '../support/sign-off-tanks'
@@ -170,10 +170,13 @@ describe('the decision', () => {
     const stored = db.select().from(signOffs).where(eq(signOffs.id, body.id)).get()!
     const snapshot = stored.snapshot as unknown as NonNullable<SignOffRecordWithSnapshot['snapshot']>
     expect(snapshot.verdict.phase).toBe('complete')
-    expect(snapshot.input.now).toBe(stored.decidedAt)
-    expect(snapshot.input.readings.length).toBeGreaterThan(30)
-    expect(evaluateCycle(snapshot.input)).toEqual(snapshot.verdict)
-    expect(evaluateCycle(body.snapshot!.input)).toEqual(body.snapshot!.verdict)
+    // The input is kept beside the snapshot; the answer carries the verdict, not the input.
+    const input = db.select().from(signOffInputs).where(eq(signOffInputs.signOffId, body.id)).get()!.input
+    expect(input.now).toBe(stored.decidedAt)
+    expect(input.readings.length).toBeGreaterThan(30)
+    expect(evaluateCycle(input)).toEqual(snapshot.verdict)
+    expect(body.snapshot).not.toHaveProperty('input')
+    expect(body.snapshot!.verdict).toEqual(snapshot.verdict)
     expect((await supervisor.post(`/api/tanks/${complete}/sign-off/decision`, { decision: 'approve' })).status).toBe(409)
   })
 

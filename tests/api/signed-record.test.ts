@@ -5,7 +5,7 @@
  * in the signed record and entries held in its snapshot stay locked whatever their date.
  */
 import { execFileSync } from 'node:child_process'
-import { eq } from 'drizzle-orm'
+import { desc, eq } from 'drizzle-orm'
 import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest'
 import { openDatabase, type TidewrightDB } from '../../server/db/connection'
 import { clients, planStages, readings, signOffs, tanks } from '../../server/db/schema'
@@ -60,6 +60,21 @@ describe('the certificate after sign-off', () => {
     db.update(tanks).set({ aquaristId: company.ids.admin }).where(eq(tanks.id, tankId)).run()
     const after = await certificateText(aquarist, tankId)
     expect(after).toBe(before)
+  })
+
+  it('prints the final tests of the input the decision was made from, whatever the live tank holds since', async () => {
+    const before = await certificateText(aquarist, tankId)
+    expect(before).toContain('Final tests')
+    expect(before).not.toContain('No tests recorded.')
+    // A test saved after the decision, and the signed one before it changed behind the lock's back.
+    const saved = await aquarist.post(`/api/tanks/${tankId}/readings`, { takenAt: new Date().toISOString(), ammonia: 0.75, nitrite: 0.65, nitrate: 43.7, basis: { ammonia: 'N', nitrite: 'N', nitrate: 'N' }, pH: 7.6, temperature: 27.3, temperatureUnit: 'C', salinity: 33.1, salinityMode: 'practical' })
+    expect(saved.status, JSON.stringify(saved.body).slice(0, 300)).toBe(201)
+    const signedLatest = db.select().from(readings).where(eq(readings.tankId, tankId)).orderBy(desc(readings.takenAt)).all()[1]!
+    db.update(readings).set({ nitrateN: 41.9, pH: 7.4 }).where(eq(readings.id, signedLatest.id)).run()
+    const after = await certificateText(aquarist, tankId)
+    expect(after).toBe(before)
+    db.update(readings).set({ nitrateN: signedLatest.nitrateN, pH: signedLatest.pH }).where(eq(readings.id, signedLatest.id)).run()
+    db.delete(readings).where(eq(readings.id, saved.body.reading.id)).run()
   })
 
   it('prints the verification link from the configured base URL, never from request headers', async () => {

@@ -10,12 +10,13 @@ import { OVERRIDE_REASON_MESSAGE } from '#shared/schemas/sign-off'
 import type { SignOffSnapshot } from '#shared/types/sign-off'
 import type { Db } from '#server/db/connection'
 import { preparedPerDb } from '#server/db/prepared'
-import { events, planStages, signOffs, tanks, users } from '#server/db/schema'
+import { events, planStages, signOffInputs, signOffs, tanks, users } from '#server/db/schema'
 import { recordAudit } from '#server/domain/audit/record'
 import { changeTankStatus } from '#server/domain/tanks/status'
 import { currentApprovedSignOff, maySignOff, newVerificationCode, pendingRequest, selfApprovalAllowed, unresolvedAlertCount, type SignOffActor, type SignOffRow, type TankRow } from './records'
 import { assertEvaluationCurrent, type SignOffEvaluation, type SignOffVerdict } from './evaluation'
 import { conflict, SignOffRefused } from './refusal'
+import { lockedUntil } from './lock'
 import { captureSignedFacts } from './signed-record'
 
 /** The shortest note that counts as a written reason. */
@@ -54,10 +55,7 @@ export function requestSignOff(db: Db, actor: SignOffActor, tank: TankRow, note:
   }, { behavior: 'immediate' })
 }
 
-/**
- * A sign-off's columns but its snapshot: a decision has its snapshot in hand and does not read it
- * back (for an imported history that is megabytes of JSON parsed again on the request loop).
- */
+/** A sign-off's columns but its snapshot: a decision has its snapshot in hand and does not read it back. */
 const { snapshot: _snapshot, ...decidedColumns } = getTableColumns(signOffs)
 
 export interface DecisionResult {
@@ -86,7 +84,8 @@ export function checkSignOffDecision(db: Db, actor: SignOffActor, tank: TankRow,
 
 /**
  * Approves or returns the waiting request. The engine input and verdict of `evaluation` (the tank
- * evaluated as of the decision, evaluation.ts) are stored with it; approving against the verdict
+ * evaluated as of the decision, evaluation.ts) are stored with it, the input in sign_off_inputs and
+ * the verdict in the snapshot; the answer holds no input. Approving against the verdict
  * needs a written reason (400). Refused (EvaluationOutdated) when the tank's data, profile or
  * thresholds changed after the evaluation was made: a decision never rests on a verdict that
  * leaves out a test or was made under settings no longer in force.
@@ -102,7 +101,8 @@ export function decideSignOff(db: Db, actor: SignOffActor, tank: TankRow, decisi
   const facts = captureSignedFacts(db, tank.id, actor.id)
   // The tank's own lighting acclimation, kept with the decision so the plan stays as signed.
   const acclimation = acclimationSettingsOf(db.select({ key: planStages.key, data: planStages.data }).from(planStages).where(eq(planStages.tankId, tank.id)).all())
-  const snapshot: SignOffSnapshot = { facts, input, verdict, overrideGrounds: decision === 'approve' ? grounds : [], unresolvedAlerts, acclimation }
+  // The input is kept beside the snapshot (sign_off_inputs): reads of the decision never parse it.
+  const snapshot: SignOffSnapshot = { facts, verdict, overrideGrounds: decision === 'approve' ? grounds : [], unresolvedAlerts, acclimation }
   const at = input.now
   const code = decision === 'approve' ? newVerificationCode() : null
   // Immediate: it reads the tank's data revision, then writes; no other connection writes in between.
@@ -119,6 +119,7 @@ export function decideSignOff(db: Db, actor: SignOffActor, tank: TankRow, decisi
       verificationCode: code,
     }).where(and(eq(signOffs.id, request.id), eq(signOffs.status, 'requested'))).returning(decidedColumns).get()
     if (!updated) conflict('This request was decided a moment ago')
+    tx.insert(signOffInputs).values({ signOffId: request.id, input }).run()
     const moved = changeTankStatus(tx, { tankId: tank.id, trigger: decision === 'approve' ? 'sign-off-approved' : 'sign-off-returned', actor })
     recordAudit(tx, actor, {
       action: decision === 'approve' ? (override ? 'sign-off.approve-override' : 'sign-off.approve') : 'sign-off.return',
@@ -159,10 +160,10 @@ const tankStatus = preparedPerDb(db => db.select({ status: tanks.status }).from(
 export function advanceToStockingIfLivestock(db: Db, tankId: string): void {
   const tank = tankStatus(db).get({ tankId })
   if (tank?.status !== 'signed-off') return
-  const approved = currentApprovedSignOff(db, tankId)
-  if (!approved?.decidedAt) return
+  const decidedAt = lockedUntil(db, tankId)
+  if (!decidedAt) return
   const livestock = db.select({ id: events.id }).from(events)
     .innerJoin(users, eq(users.id, events.enteredBy))
-    .where(and(eq(events.tankId, tankId), eq(events.kind, 'livestock-added'), ne(users.role, 'client'), sql`${events.at} > ${approved.decidedAt}`)).get()
+    .where(and(eq(events.tankId, tankId), eq(events.kind, 'livestock-added'), ne(users.role, 'client'), sql`${events.at} > ${decidedAt}`)).get()
   if (livestock) changeTankStatus(db, { tankId, trigger: 'livestock-logged', actor: null })
 }

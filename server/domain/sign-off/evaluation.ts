@@ -3,8 +3,9 @@
  * write transaction, that it still speaks for the tank (its tests and events, its profile and its
  * company's thresholds: all the engine read), and the loop that evaluates again when it does not
  * (onCurrentEvaluation). Made on the request loop for an ordinary tank and in the heavy-work pool
- * for a long history (server/workers/sign-off-evaluation.ts), by the same function; either way the
- * evaluation is made before the transaction, so the check holds on both. Framework-free: takes a `Db`.
+ * for a long history (a request's: server/workers/sign-off-evaluation.ts; a decision is made there
+ * whole, server/workers/sign-off-decision.ts), by the same function; either way the evaluation is
+ * made before the transaction, so the check holds on both. Framework-free: takes a `Db`.
  */
 import { isDeepStrictEqual } from 'node:util'
 import type { CycleInput, Verdict } from '#shared/cycle/types'

@@ -84,7 +84,7 @@ export function pendingRequest(db: Db, tankId: string): SignOffRow | undefined {
   return db.select().from(signOffs).where(and(eq(signOffs.tankId, tankId), eq(signOffs.status, 'requested'))).get()
 }
 
-/** Every save asks it (the locked record, the move to stocking): prepared once. */
+/** The stage lock, the certificate and reopening ask it (a save asks only the decision time, lock.ts): prepared once. */
 const approvedSignOff = preparedPerDb(db => db.select().from(signOffs)
   .where(and(eq(signOffs.tankId, sql.placeholder('tankId')), eq(signOffs.status, 'approved')))
   .orderBy(desc(signOffs.decidedAt)).prepare())

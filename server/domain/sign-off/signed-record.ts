@@ -1,12 +1,14 @@
 /**
  * What was signed stays signed, framework-free: the tank's facts and stages captured at
- * the decision, which of them a later edit would touch, which entries the snapshot holds,
+ * the decision, which of them a later edit would touch, which entries the signed input holds,
  * and amendments (a change to signed facts with a reason, printed on the certificate).
  */
-import { asc, eq } from 'drizzle-orm'
+import { asc, eq, sql } from 'drizzle-orm'
+import type { CycleInput } from '#shared/cycle/types'
 import type { SignedTankFacts, SignOffAmendmentView, SignOffSnapshot } from '#shared/types/sign-off'
 import type { Db } from '#server/db/connection'
-import { clients, organisations, planStages, signOffAmendments, sites, tanks, users } from '#server/db/schema'
+import { preparedPerDb } from '#server/db/prepared'
+import { clients, organisations, planStages, signOffAmendments, signOffInputs, sites, tanks, users } from '#server/db/schema'
 
 type TankRow = typeof tanks.$inferSelect
 
@@ -69,10 +71,23 @@ export function isSignedStage(snapshot: SignOffSnapshot | null | undefined, stag
   return stage?.status === 'done' || stage?.status === 'skipped'
 }
 
-/** Ids of every reading and event the snapshot holds, whatever their dates. */
-export function signedEntryIds(snapshot: SignOffSnapshot | null | undefined): Set<string> {
-  if (!snapshot) return new Set()
-  return new Set([...snapshot.input.readings.map(r => r.id), ...(snapshot.input.events ?? []).map(e => e.id)])
+/**
+ * Whether a reading or event is in the engine input a decision was made from. Asked in SQL over
+ * the stored text (json_each), prepared once: the input of an imported history is megabytes of
+ * JSON that the request loop must not parse for one id.
+ */
+const entryIn = (path: string) => sql`exists (select 1 from json_each(${signOffInputs.input}, ${path}) where json_extract(value, '$.id') = ${sql.placeholder('entryId')})`
+const inputHolds = preparedPerDb(db => db.select({ held: sql<number>`${entryIn('$.readings')} or ${entryIn('$.events')}` })
+  .from(signOffInputs).where(eq(signOffInputs.signOffId, sql.placeholder('signOffId'))).prepare())
+
+/** Whether the input the sign-off was decided on holds this reading or event, whatever its date. */
+export function signedInputHolds(db: Db, signOffId: string, entryId: string): boolean {
+  return Boolean(inputHolds(db).get({ signOffId, entryId })?.held)
+}
+
+/** The engine input the sign-off was decided on, or undefined (not decided). Megabytes for a long history: read it in the heavy-work pool. */
+export function signedInput(db: Db, signOffId: string): CycleInput | undefined {
+  return db.select({ input: signOffInputs.input }).from(signOffInputs).where(eq(signOffInputs.signOffId, signOffId)).get()?.input
 }
 
 /** Records an amendment of a signed tank's facts (call inside the transaction that changes the tank). */

@@ -20,7 +20,8 @@ function legacyFacts(actor: Actor, tank: TankView, decidedBy: string | null): Si
 /**
  * GET /api/tanks/:id/certificate.pdf — the sign-off certificate (one-page PDF) for the
  * tank's current sign-off; the client and staff who may see the tank may download it.
- * Everything it prints comes from the decision's snapshot, plus any amendments since.
+ * Everything it prints comes from the decision's snapshot and the input it was made from (its
+ * final tests, read in the heavy-work pool), plus any amendments since.
  * 404 when the tank is not visible or has no current sign-off.
  */
 export default defineEventHandler(async (event) => {
@@ -45,7 +46,7 @@ export default defineEventHandler(async (event) => {
     verificationCode: signOff.verificationCode,
     verifyUrl: publicLink(`/verify/${signOff.verificationCode}`),
     units: actor.units,
-  })
+  }, signOff.id)
   const fileName = `tidewright-certificate-${facts.tankName.toLowerCase().replace(/[^a-z0-9]+/g, '-').replace(/^-|-$/g, '')}.pdf`
   setResponseHeaders(event, {
     'content-type': 'application/pdf',

@@ -20,29 +20,21 @@ import { refusalOf } from '../../../support/sign-off-refusal'
 const { db, dbPath, demo } = await seededDatabase('sign-off-evaluation-worker')
 
 describe('the sign-off evaluation task', () => {
-  it('gives what the loop gives, as of the same moment; null for no such tank', () => {
+  it('gives what the loop gives, as of the same moment, without the input (a request records none); null for no such tank', () => {
     const now = new Date()
     const onLoop = evaluateForSignOff(db, demo.tanks.nano, now)!
-    const inPool = signOffEvaluation({ dbPath, tankId: demo.tanks.nano, nowMs: now.getTime(), withInput: true })
-    expect(inPool).toEqual(onLoop)
-    expect(onLoop.input.now).toBe(now.toISOString())
-    expect(onLoop.now).toBe(now.toISOString())
-    expect(signOffEvaluation({ dbPath, tankId: 'no-such-tank', nowMs: now.getTime(), withInput: true })).toBeNull()
-  })
-
-  it('hands back no input when none is wanted (a request records none)', () => {
-    const now = new Date()
-    const onLoop = evaluateForSignOff(db, demo.tanks.nano, now)!
-    const inPool = signOffEvaluation({ dbPath, tankId: demo.tanks.nano, nowMs: now.getTime(), withInput: false })
+    const inPool = signOffEvaluation({ dbPath, tankId: demo.tanks.nano, nowMs: now.getTime() })
     expect(inPool).toEqual({ now: onLoop.now, verdict: onLoop.verdict, revision: onLoop.revision, settings: { tank: onLoop.input.tank, thresholds: onLoop.input.thresholds } })
     expect(inPool).not.toHaveProperty('input')
+    expect(onLoop.now).toBe(now.toISOString())
+    expect(signOffEvaluation({ dbPath, tankId: 'no-such-tank', nowMs: now.getTime() })).toBeNull()
   })
 
   it('reads the revision the request loop\'s connection wrote', () => {
-    const before = signOffEvaluation({ dbPath, tankId: demo.tanks.nano, nowMs: Date.now(), withInput: false })!
+    const before = signOffEvaluation({ dbPath, tankId: demo.tanks.nano, nowMs: Date.now() })!
     const test = db.select({ id: readings.id }).from(readings).where(eq(readings.tankId, demo.tanks.nano)).get()!
     db.update(readings).set({ notes: 'read again' }).where(eq(readings.id, test.id)).run()
-    const after = signOffEvaluation({ dbPath, tankId: demo.tanks.nano, nowMs: Date.now(), withInput: false })!.revision
+    const after = signOffEvaluation({ dbPath, tankId: demo.tanks.nano, nowMs: Date.now() })!.revision
     expect(after).toBeGreaterThan(before.revision)
     expect(after).toBe(tankDataRevisionInDb(db, demo.tanks.nano))
   })
@@ -53,7 +45,7 @@ describe('the sign-off evaluation task', () => {
     const tankRow = () => db.select().from(tanks).where(eq(tanks.id, demo.tanks.nano)).get()!
     // The demo nano's waiting request is returned first, so it may be asked for again.
     decideSignOff(db, supervisor, tankRow(), 'return', 'Ask again once the photos are in.', evaluateForSignOff(db, demo.tanks.nano, new Date())!)
-    const inPool = signOffEvaluation({ dbPath, tankId: demo.tanks.nano, nowMs: Date.now(), withInput: false }) as SignOffVerdict
+    const inPool = signOffEvaluation({ dbPath, tankId: demo.tanks.nano, nowMs: Date.now() }) as SignOffVerdict
     expect(inPool.verdict.phase).toBe('complete')
     const current = readCompanySettings(db, demo.organisationId)!
     const thresholds = { ...current.settings.thresholds, stableMinTests: resolveThresholds(current.settings.thresholds).stableMinTests + 1 }

@@ -5,8 +5,10 @@ import { SignOffDecisionSchema } from '#shared/schemas/sign-off'
  * POST /api/tanks/:id/sign-off/decision — the tank's supervisor (or an admin) approves the
  * waiting request or returns it with a note. Approving against the engine's verdict needs
  * a written reason (400 otherwise) and is stored as an override. The engine input and
- * verdict are stored with the decision (the engine runs in the heavy-work pool for a long history;
- * 409 when the tank's tests kept changing while it was checked). Returns SignOffRecordWithSnapshot.
+ * verdict are stored with the decision (for a long history the whole decision is made in the
+ * heavy-work pool; 409 when the tank's tests kept changing while it was checked). Returns
+ * SignOffRecordWithSnapshot: the verdict and the tank as signed, not the input (megabytes for an
+ * imported history).
  */
 export default defineEventHandler(async (event) => {
   const actor = await requireActor(event, ['admin', 'supervisor'])

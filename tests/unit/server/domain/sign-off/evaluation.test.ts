@@ -17,6 +17,7 @@ import { decideSignOff, requestSignOff } from '../../../../../server/domain/sign
 import { EvaluationOutdated, evaluateForSignOff, onCurrentEvaluation, SIGN_OFF_ATTEMPTS, type SignOffEvaluation } from '../../../../../server/domain/sign-off/evaluation'
 import { tankDataRevisionInDb } from '../../../../../server/domain/readings/data-revision'
 import { SignOffRefused } from '../../../../../server/domain/sign-off/refusal'
+import { signedInput } from '../../../../../server/domain/sign-off/signed-record'
 import { seededDatabase } from '../../../../support/seeded-database'
 import { refusalOf } from '../../../../support/sign-off-refusal'
 
@@ -111,10 +112,12 @@ describe('a sign-off command given an evaluation made before the tank\'s data ch
     expect(signOff).toMatchObject({ status: 'returned', decidedBy: supervisor.id, decidedAt: made.input.now, ruleSetVersion: made.verdict.ruleSetVersion })
     const stored = db.select().from(signOffs).where(eq(signOffs.id, signOff.id)).get()!
     const snapshot = stored.snapshot as SignOffSnapshot
-    expect(snapshot.input).toEqual(JSON.parse(JSON.stringify(made.input)))
+    const input = signedInput(db, signOff.id)!
+    expect(input).toEqual(JSON.parse(JSON.stringify(made.input)))
+    expect(snapshot).not.toHaveProperty('input')
     expect(snapshot.verdict).toEqual(JSON.parse(JSON.stringify(made.verdict)))
-    expect(snapshot.input.now).toBe(stored.decidedAt)
-    expect(evaluateCycle(snapshot.input)).toEqual(snapshot.verdict)
+    expect(input.now).toBe(stored.decidedAt)
+    expect(evaluateCycle(input)).toEqual(snapshot.verdict)
     // The answer carries the snapshot as stored (the command does not read it back).
     expect(JSON.parse(JSON.stringify(signOff))).toEqual(JSON.parse(JSON.stringify(stored)))
     expect(tankRow().status).toBe('cycling')
@@ -178,8 +181,8 @@ describe('a sign-off command whose tank changes while it is evaluated', () => {
     const { signOff } = await run
     expect(evaluations()).toBe(3)
     expect(signOff.status).toBe('returned')
-    const snapshot = db.select().from(signOffs).where(eq(signOffs.id, signOff.id)).get()!.snapshot as SignOffSnapshot
-    expect(snapshot.input).toEqual(JSON.parse(JSON.stringify(evaluation(new Date(snapshot.input.now)).input)))
+    const input = signedInput(db, signOff.id)!
+    expect(input).toEqual(JSON.parse(JSON.stringify(evaluation(new Date(input.now)).input)))
   })
 
   it('answers a refusal that needs no engine before any evaluation', async () => {
@@ -256,7 +259,6 @@ describe('a sign-off command given an evaluation made before what else the engin
     saveSettings(settings => ({ ...settings, timeZone: settings.timeZone === 'Europe/London' ? 'UTC' : 'Europe/London' }))
     const { signOff } = decideSignOff(db, supervisor, tankRow(), 'return', 'The sump photos are missing.', made)
     expect(signOff.status).toBe('returned')
-    const snapshot = db.select().from(signOffs).where(eq(signOffs.id, signOff.id)).get()!.snapshot as SignOffSnapshot
-    expect(snapshot.input).toEqual(JSON.parse(JSON.stringify(made.input)))
+    expect(signedInput(db, signOff.id)).toEqual(JSON.parse(JSON.stringify(made.input)))
   })
 })
