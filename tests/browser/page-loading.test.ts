@@ -1,11 +1,13 @@
 /**
  * Each page loads what it shows: the tank page's first load fetches no Chart.js (recognised by
  * the `_chartjs` property it sets on every chart's data) until the reader comes near the charts,
- * and then draws them.
+ * and then draws them; and no rule engine code (recognised by the rules' descriptions, which
+ * the verdict answer carries for the rules it cites).
  */
 import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest'
 import type { Browser, Page } from 'playwright-core'
 import { launchBrowser, openPage, scrollToCharts, signInThroughForm } from '../support/browser'
+import { RULES } from '../../shared/cycle/registry'
 
 const { demo } = inject('fixtures')
 let browser: Browser
@@ -45,6 +47,24 @@ describe('what the tank page loads', () => {
     const late = await Promise.all(afterScroll.map(definesChartJs))
     expect(beforeScroll.filter((_, i) => early[i])).toEqual([])
     expect(late.some(Boolean)).toBe(true)
+    expect(problems).toEqual([])
+    await context.close()
+  })
+
+  it('loads no rule registry: the verdict brings the words of the rules it cites (375 px)', async () => {
+    const { page, context, problems } = await openPage(browser, 375)
+    await signInThroughForm(page, 'client@tidewright.test')
+    const scripts: string[] = []
+    page.on('request', (request) => {
+      if (request.resourceType() === 'script') scripts.push(request.url())
+    })
+    await page.goto(`/tanks/${demo.tanks.lounge}`)
+    await expect.poll(() => page.getByTestId('verdict-phase').isVisible()).toBe(true)
+    await settle(page)
+    expect(scripts.length).toBeGreaterThan(0)
+    const texts = await Promise.all(scripts.map(async url => (await context.request.get(url)).text()))
+    const withRules = scripts.filter((_, i) => RULES.some(rule => texts[i]!.includes(rule.description)))
+    expect(withRules).toEqual([])
     expect(problems).toEqual([])
     await context.close()
   })
