@@ -24,17 +24,24 @@ async function settle(page: Page): Promise<void> {
   }))
 }
 
+/** A client's first load of the lounge tank on a phone, settled; `scripts` lists every script requested so far, and goes on growing. */
+async function clientTankFirstLoad() {
+  const watched = await openPage(browser, 375)
+  const { page } = watched
+  await signInThroughForm(page, 'client@tidewright.test')
+  const scripts: string[] = []
+  page.on('request', (request) => {
+    if (request.resourceType() === 'script') scripts.push(request.url())
+  })
+  await page.goto(`/tanks/${demo.tanks.lounge}`)
+  await expect.poll(() => page.getByTestId('verdict-phase').isVisible()).toBe(true)
+  await settle(page)
+  return { ...watched, scripts }
+}
+
 describe('what the tank page loads', () => {
   it('fetches Chart.js only once the charts near the screen, then draws them (375 px)', async () => {
-    const { page, context, problems } = await openPage(browser, 375)
-    await signInThroughForm(page, 'client@tidewright.test')
-    const scripts: string[] = []
-    page.on('request', (request) => {
-      if (request.resourceType() === 'script') scripts.push(request.url())
-    })
-    await page.goto(`/tanks/${demo.tanks.lounge}`)
-    await expect.poll(() => page.getByTestId('verdict-phase').isVisible()).toBe(true)
-    await settle(page)
+    const { page, context, problems, scripts } = await clientTankFirstLoad()
     expect(await page.locator('canvas').count()).toBe(0)
     const beforeScroll = [...scripts]
 
@@ -52,15 +59,7 @@ describe('what the tank page loads', () => {
   })
 
   it('loads no rule registry: the verdict brings the words of the rules it cites (375 px)', async () => {
-    const { page, context, problems } = await openPage(browser, 375)
-    await signInThroughForm(page, 'client@tidewright.test')
-    const scripts: string[] = []
-    page.on('request', (request) => {
-      if (request.resourceType() === 'script') scripts.push(request.url())
-    })
-    await page.goto(`/tanks/${demo.tanks.lounge}`)
-    await expect.poll(() => page.getByTestId('verdict-phase').isVisible()).toBe(true)
-    await settle(page)
+    const { context, problems, scripts } = await clientTankFirstLoad()
     expect(scripts.length).toBeGreaterThan(0)
     const texts = await Promise.all(scripts.map(async url => (await context.request.get(url)).text()))
     const withRules = scripts.filter((_, i) => RULES.some(rule => texts[i]!.includes(rule.description)))
