@@ -52,6 +52,8 @@ export interface ReadingSaved {
   findings: Finding[]
   /** What to do next, as the verdict says it. */
   actions: CycleAction[]
+  /** The rules `findings` name, for staff. */
+  rules: CitedRules
 }
 
 export interface EventView extends CorrectionTrail {
@@ -98,11 +100,20 @@ export interface VerdictReading {
   salinity: number | null
 }
 
+/** What staff read of a rule beside a finding or blocker: its id, what it checks and on what source. */
+export type CitedRule = Pick<RuleInfo, 'id' | 'description' | 'source'>
+
+/**
+ * The rules an answer's findings and blockers name, by id, shaped by the server
+ * (`server/utils/cited-rules.ts`): the page shows them without loading the rule registry.
+ */
+export type CitedRules = Record<string, CitedRule>
+
 export interface VerdictView {
   verdict: Verdict
   evaluatedAt: string
-  /** Description and source of each rule the verdict cites. */
-  rules: Record<string, Pick<RuleInfo, 'id' | 'description' | 'source'>>
+  /** The rules the verdict's findings and livestock blockers name, for staff. */
+  rules: CitedRules
   /** The readings the findings rest on. */
   readings: Record<string, VerdictReading>
 }

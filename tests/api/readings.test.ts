@@ -3,6 +3,7 @@ import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest'
 import { ApiClient, signedIn } from '../support/http'
 import { OTHER_AQUARIST_EMAIL } from '../support/fixtures'
 import { nitrogenFraction } from '../../shared/chemistry/nitrogen'
+import { blockerRule } from '../../shared/readings/readiness-words'
 import type { ChartData, EventList, EventView, ImportPreview, ReadingList, ReadingSaved, VerdictView } from '../../shared/types/readings'
 import type { TankView } from '../../shared/types/tanks'
 
@@ -84,6 +85,10 @@ describe('POST /api/tanks/:id/readings', () => {
     const { status, body } = await api.post<ReadingSaved>(`/api/tanks/${lounge}/readings`, reading({ ammonia: 6, pH: 7.3 }))
     expect(status).toBe(201)
     expect(body.flags.map(f => f.field).sort()).toEqual(['ammonia', 'pH'])
+    // The act-now block shows staff each finding's rule: the answer names exactly those rules.
+    expect(body.findings.length).toBeGreaterThan(0)
+    expect(Object.keys(body.rules).sort()).toEqual([...new Set(body.findings.map(f => f.ruleId))].sort())
+    for (const [id, rule] of Object.entries(body.rules)) expect(rule.id === id && rule.description && rule.source, id).toBeTruthy()
     await api.delete(`/api/tanks/${lounge}/readings/${body.reading.id}`)
   })
 
@@ -253,6 +258,15 @@ describe('GET /api/tanks/:id/verdict and /chart', () => {
     }
     const stored = db.prepare('SELECT phase FROM tank_verdicts WHERE tank_id = ?').get(demo.tanks.study) as { phase: string }
     expect(stored.phase).toBe(body.verdict.phase)
+  })
+
+  it('names exactly the rules its findings and livestock blockers cite, each with description and source', async () => {
+    const { body } = await (await signedIn('client3@tidewright.test')).get<VerdictView>(`/api/tanks/${demo.tanks.study}/verdict`)
+    const blockerRules = Object.values(body.verdict.readiness).flatMap(g => g.blockers.map(blockerRule)).filter(id => id !== null)
+    expect(blockerRules.length).toBeGreaterThan(0)
+    const cited = new Set([...body.verdict.findings.map(f => f.ruleId), ...blockerRules])
+    expect(Object.keys(body.rules).sort()).toEqual([...cited].sort())
+    for (const [id, rule] of Object.entries(body.rules)) expect(rule.id === id && rule.description && rule.source, id).toBeTruthy()
   })
 
   it('evaluates a tank that has no stored verdict yet', async () => {

@@ -1,11 +1,13 @@
 /**
  * Each page loads what it shows: the tank page's first load fetches no Chart.js (recognised by
  * the `_chartjs` property it sets on every chart's data) until the reader comes near the charts,
- * and then draws them.
+ * and then draws them; and no rule engine code (recognised by the rules' descriptions, which
+ * the verdict answer carries for the rules it cites).
  */
 import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest'
 import type { Browser, Page } from 'playwright-core'
 import { launchBrowser, openPage, scrollToCharts, signInThroughForm } from '../support/browser'
+import { RULES } from '../../shared/cycle/registry'
 
 const { demo } = inject('fixtures')
 let browser: Browser
@@ -22,17 +24,24 @@ async function settle(page: Page): Promise<void> {
   }))
 }
 
+/** A client's first load of the lounge tank on a phone, settled; `scripts` lists every script requested so far, and goes on growing. */
+async function clientTankFirstLoad() {
+  const watched = await openPage(browser, 375)
+  const { page } = watched
+  await signInThroughForm(page, 'client@tidewright.test')
+  const scripts: string[] = []
+  page.on('request', (request) => {
+    if (request.resourceType() === 'script') scripts.push(request.url())
+  })
+  await page.goto(`/tanks/${demo.tanks.lounge}`)
+  await expect.poll(() => page.getByTestId('verdict-phase').isVisible()).toBe(true)
+  await settle(page)
+  return { ...watched, scripts }
+}
+
 describe('what the tank page loads', () => {
   it('fetches Chart.js only once the charts near the screen, then draws them (375 px)', async () => {
-    const { page, context, problems } = await openPage(browser, 375)
-    await signInThroughForm(page, 'client@tidewright.test')
-    const scripts: string[] = []
-    page.on('request', (request) => {
-      if (request.resourceType() === 'script') scripts.push(request.url())
-    })
-    await page.goto(`/tanks/${demo.tanks.lounge}`)
-    await expect.poll(() => page.getByTestId('verdict-phase').isVisible()).toBe(true)
-    await settle(page)
+    const { page, context, problems, scripts } = await clientTankFirstLoad()
     expect(await page.locator('canvas').count()).toBe(0)
     const beforeScroll = [...scripts]
 
@@ -45,6 +54,16 @@ describe('what the tank page loads', () => {
     const late = await Promise.all(afterScroll.map(definesChartJs))
     expect(beforeScroll.filter((_, i) => early[i])).toEqual([])
     expect(late.some(Boolean)).toBe(true)
+    expect(problems).toEqual([])
+    await context.close()
+  })
+
+  it('loads no rule registry: the verdict brings the words of the rules it cites (375 px)', async () => {
+    const { context, problems, scripts } = await clientTankFirstLoad()
+    expect(scripts.length).toBeGreaterThan(0)
+    const texts = await Promise.all(scripts.map(async url => (await context.request.get(url)).text()))
+    const withRules = scripts.filter((_, i) => RULES.some(rule => texts[i]!.includes(rule.description)))
+    expect(withRules).toEqual([])
     expect(problems).toEqual([])
     await context.close()
   })

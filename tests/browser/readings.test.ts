@@ -78,6 +78,10 @@ describe('daily tests', () => {
     await page.getByRole('link', { name: /Marlowe lounge reef/ }).click()
     await page.waitForURL(/\/tanks\/[^/]+$/)
     await expect.poll(() => page.getByText('Rule cycle.phase').isVisible()).toBe(true)
+    // A livestock blocker's rule, with its source, comes with the verdict like a finding's.
+    const whyNot = page.getByRole('list', { name: 'Why not yet' })
+    await whyNot.locator('summary', { hasText: /Rule readiness\./ }).first().click()
+    await expect.poll(() => whyNot.locator('details[open]').first().innerText()).toContain('Source: ')
     await scrollToCharts(page)
     await expect.poll(() => page.locator('canvas').count(), { timeout: 15_000 }).toBe(3)
     await screenshot(page, 'tank-staff-1280')

@@ -1,6 +1,5 @@
 import { inArray, sql } from 'drizzle-orm'
 import { IdParams } from '#shared/schemas/common'
-import { ruleInfo } from '#shared/cycle/registry'
 import type { VerdictView } from '#shared/types/readings'
 import { readings } from '#server/db/schema'
 import { preparedPerDb } from '#server/db/prepared'
@@ -12,8 +11,9 @@ const citedReadings = preparedPerDb(db => db.select({ id: readings.id, takenAt: 
 
 /**
  * GET /api/tanks/:id/verdict — the rule engine's verdict as of now (the stored one, made
- * again first when missing or older than the verdict interval), with each cited rule's
- * description and source and the readings the findings rest on. Returns VerdictView.
+ * again first when missing or older than the verdict interval), with the description and source
+ * of each rule its findings and livestock blockers name and the readings the findings rest on.
+ * Returns VerdictView.
  */
 export default defineEventHandler(async (event): Promise<VerdictView> => {
   const actor = await requireActor(event)
@@ -24,13 +24,7 @@ export default defineEventHandler(async (event): Promise<VerdictView> => {
   const stored = await currentVerdictRow(tank.id, requestNow(event))
   if (!stored) throw createError({ statusCode: 404, statusMessage: 'Tank not found' })
   const verdict = stored.verdict
-  const ruleIds = new Set(verdict.findings.map(f => f.ruleId))
-  const rules: VerdictView['rules'] = {}
-  for (const ruleId of ruleIds) {
-    const info = ruleInfo(ruleId)
-    if (info) rules[ruleId] = { id: info.id, description: info.description, source: info.source }
-  }
   const readingIds = [...new Set(verdict.findings.flatMap(f => f.readingIds))]
   const rows = readingIds.length ? citedReadings(db).all({ ids: JSON.stringify(readingIds.slice(0, 500)) }) : []
-  return { verdict, evaluatedAt: stored.evaluatedAt, rules, readings: Object.fromEntries(rows.map(r => [r.id, r])) }
+  return { verdict, evaluatedAt: stored.evaluatedAt, rules: rulesCitedBy(verdict), readings: Object.fromEntries(rows.map(r => [r.id, r])) }
 })
