@@ -194,17 +194,31 @@ export function verdictIsCurrent(evaluatedAt: string, now: Date, maxAgeMs: numbe
   return Number.isFinite(age) && age >= 0 && age <= maxAgeMs
 }
 
+/** The version of the forecast stored with a verdict, read by SQLite so a freshness check parses no forecast here. */
+const storedForecastVersion = sql<string | null>`json_extract(${tankVerdicts.forecast}, '$.forecastVersion')`
+
+/** What says whether a stored verdict stands: null fields when the tank has none. */
+export interface VerdictAge {
+  evaluatedAt: string | null
+  stale: boolean | null
+  forecastVersion: string | null
+}
+
+/**
+ * A stored verdict is made again when it is missing, marked stale by a threshold change, no
+ * longer current at `now`, or stored without a forecast of the current forecast version (made
+ * before forecasts were kept, or by older maths).
+ */
+export function verdictNeedsRemaking(age: VerdictAge, now: Date, maxAgeMs: number): boolean {
+  return age.evaluatedAt === null || age.stale === true || age.forecastVersion !== FORECAST_VERSION || !verdictIsCurrent(age.evaluatedAt, now, maxAgeMs)
+}
+
 /**
  * The stored verdicts' freshness, prepared once: among the tanks of a page (ids as one JSON
  * array, however many) or over every tank not archived (the worker's round).
  */
 const verdictAges = preparedPerDb((db) => {
-  const fields = {
-    id: tanks.id,
-    evaluatedAt: tankVerdicts.evaluatedAt,
-    stale: tankVerdicts.stale,
-    forecastVersion: sql<string | null>`json_extract(${tankVerdicts.forecast}, '$.forecastVersion')`,
-  }
+  const fields = { id: tanks.id, evaluatedAt: tankVerdicts.evaluatedAt, stale: tankVerdicts.stale, forecastVersion: storedForecastVersion }
   const ages = () => db.select(fields).from(tanks).leftJoin(tankVerdicts, eq(tankVerdicts.tankId, tanks.id))
   return {
     among: ages().where(inArray(tanks.id, sql`(select value from json_each(${sql.placeholder('ids')}))`)).prepare(),
@@ -213,13 +227,27 @@ const verdictAges = preparedPerDb((db) => {
 })
 
 /**
- * Tanks whose stored verdict is missing, marked stale by a threshold change, no longer current at `now`,
- * or stored without a forecast of the current forecast version (made before forecasts were kept, or by
- * older maths): among `tankIds` when given (a page being read), otherwise every tank not archived (the worker's round).
+ * Tanks whose stored verdict is to be made again (`verdictNeedsRemaking`): among `tankIds` when
+ * given (a page being read), otherwise every tank not archived (the worker's round).
  */
 export function tanksWithStaleVerdicts(db: Db, now: Date, maxAgeMs: number, tankIds?: readonly string[]): string[] {
   if (tankIds !== undefined && tankIds.length === 0) return []
   const statements = verdictAges(db)
   const rows = tankIds === undefined ? statements.unarchived.all() : statements.among.all({ ids: JSON.stringify(tankIds) })
-  return rows.filter(r => r.evaluatedAt === null || r.stale === true || r.forecastVersion !== FORECAST_VERSION || !verdictIsCurrent(r.evaluatedAt, now, maxAgeMs)).map(r => r.id)
+  return rows.filter(r => verdictNeedsRemaking(r, now, maxAgeMs)).map(r => r.id)
+}
+
+/**
+ * One tank's stored verdict, prepared once, with its age in the same statement: the verdict as
+ * its stored text (a reader keeps what a text was read into, `server/utils/verdict.ts`).
+ * Undefined when the tank has none.
+ */
+const storedVerdictWithAge = preparedPerDb(db => db.select({
+  phase: tankVerdicts.phase, verdictText: sql<string>`${tankVerdicts.verdict}`, ruleSetVersion: tankVerdicts.ruleSetVersion,
+  evaluatedAt: tankVerdicts.evaluatedAt, stale: tankVerdicts.stale, forecastVersion: storedForecastVersion,
+}).from(tankVerdicts).where(eq(tankVerdicts.tankId, sql.placeholder('tankId'))).prepare())
+
+/** One tank's stored verdict row, its verdict as stored text, and whether it stands (`verdictNeedsRemaking`). */
+export function storedVerdictRow(db: Db, tankId: string) {
+  return storedVerdictWithAge(db).get({ tankId })
 }

@@ -1,7 +1,7 @@
-import { eq, sql } from 'drizzle-orm'
-import { tankVerdicts } from '#server/db/schema'
-import { preparedPerDb } from '#server/db/prepared'
-import { tanksWithStaleVerdicts } from '#server/db/verdicts'
+import type { Verdict } from '#shared/cycle/types'
+import type { CitedRules } from '#shared/types/readings'
+import { parsedOncePerText } from '#server/db/parsed-text'
+import { storedVerdictRow, tanksWithStaleVerdicts, verdictNeedsRemaking } from '#server/db/verdicts'
 import { refreshVerdictOnLoop, type VerdictRefresh } from '#server/domain/tanks/newest-verdict'
 
 const MINUTE_MS = 60_000
@@ -36,13 +36,32 @@ export async function refreshStaleVerdicts(now: Date, tankIds?: readonly string[
   return stale.length
 }
 
-/** One tank's stored verdict, prepared once; the forecast beside it is left to the routes that show it. */
-const storedVerdict = preparedPerDb(db => db.select({ tankId: tankVerdicts.tankId, phase: tankVerdicts.phase, verdict: tankVerdicts.verdict,
-  ruleSetVersion: tankVerdicts.ruleSetVersion, evaluatedAt: tankVerdicts.evaluatedAt, stale: tankVerdicts.stale })
-  .from(tankVerdicts).where(eq(tankVerdicts.tankId, sql.placeholder('tankId'))).prepare())
+/** Most stored verdict texts kept read at once (one per tank read lately; this bounds memory, not a tank count). */
+export const READ_VERDICTS_KEPT = 512
 
-/** The tank's stored verdict row as of `now`: made again first when it is missing or stale. */
+/**
+ * A stored verdict's text read once per distinct text, with the rules it cites: a read of the
+ * verdict paid for the JSON and the rules' words on every request, though a verdict's text only
+ * changes when it is made again (a new text, read at once). Frozen, shared by every reader.
+ */
+const verdictOfText = parsedOncePerText((text): { verdict: Verdict, rules: CitedRules } => {
+  const verdict = JSON.parse(text) as Verdict
+  return { verdict, rules: rulesCitedBy(verdict) }
+}, READ_VERDICTS_KEPT)
+
+/**
+ * The tank's stored verdict as of `now`, with the rules its findings and livestock blockers cite:
+ * made again first when it is missing or stale (`verdictNeedsRemaking`, as the worker's round
+ * decides). The verdict and rules are frozen: readers share them.
+ */
 export async function currentVerdictRow(tankId: string, now = new Date()) {
-  await refreshStaleVerdicts(now, [tankId])
-  return storedVerdict(useDB()).get({ tankId })
+  const db = useDB()
+  let row = storedVerdictRow(db, tankId)
+  if (!row || verdictNeedsRemaking(row, now, verdictIntervalMs())) {
+    await refreshStaleVerdicts(now, [tankId])
+    row = storedVerdictRow(db, tankId)
+  }
+  if (!row) return undefined
+  const { verdict, rules } = verdictOfText(row.verdictText)
+  return { tankId, phase: row.phase, verdict, rules, ruleSetVersion: row.ruleSetVersion, evaluatedAt: row.evaluatedAt, stale: row.stale }
 }

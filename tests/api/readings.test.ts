@@ -269,6 +269,26 @@ describe('GET /api/tanks/:id/verdict and /chart', () => {
     for (const [id, rule] of Object.entries(body.rules)) expect(rule.id === id && rule.description && rule.source, id).toBeTruthy()
   })
 
+  it('names the rules of the verdict made after a new test, not those of the verdict read before it', async () => {
+    const api = await signedIn('client@tidewright.test')
+    const citedBy = (body: VerdictView) => [...new Set([...body.verdict.findings.map(f => f.ruleId),
+      ...Object.values(body.verdict.readiness).flatMap(g => g.blockers.map(blockerRule)).filter(id => id !== null)])].sort()
+    const ruleSets: string[][] = []
+    // Nitrite at the top of common kits brings the advice to lower the doses; a usual test takes it away again.
+    for (const nitrite of [6, 0.5]) {
+      const before = (await api.get<VerdictView>(`/api/tanks/${lounge}/verdict`)).body
+      expect(Object.keys(before.rules).sort()).toEqual(citedBy(before))
+      expect((await api.post(`/api/tanks/${lounge}/readings`, reading({ takenAt: new Date().toISOString(), nitrite }))).status).toBe(201)
+      const after = (await api.get<VerdictView>(`/api/tanks/${lounge}/verdict`)).body
+      expect(after.evaluatedAt > before.evaluatedAt).toBe(true)
+      expect(Object.keys(after.rules).sort()).toEqual(citedBy(after))
+      ruleSets.push(Object.keys(after.rules).sort())
+    }
+    // The two verdicts cite different rules, so an answer holding on to the rules read before would show.
+    expect(ruleSets[0]).toContain('dosing.lower')
+    expect(ruleSets[1]).not.toContain('dosing.lower')
+  })
+
   it('evaluates a tank that has no stored verdict yet', async () => {
     db.prepare('DELETE FROM tank_verdicts WHERE tank_id = ?').run(demo.tanks.nano)
     const { status, body } = await (await signedIn('client2@tidewright.test')).get<VerdictView>(`/api/tanks/${demo.tanks.nano}/verdict`)

@@ -3,26 +3,16 @@
  * thresholds for its verdict; parsing the JSON and checking each field again (valibot, time zone
  * lookup) was paid on each of them, though the text rarely changes.
  *
- * Why this cannot serve old settings: the key is the stored text itself, and the caller reads the
- * row every time, so a saved change is a new text and is parsed at once. Entries are frozen all
- * the way down, since every reader of the same text gets the same object. Framework-free; one
- * instance per process (the server and each worker thread).
+ * Why this cannot serve old settings: the key is the stored text itself (`parsedOncePerText`), and
+ * the caller reads the row every time, so a saved change is a new text and is parsed at once.
+ * Entries are frozen all the way down, since every reader of the same text gets the same object.
+ * Framework-free; one instance per process (the server and each worker thread).
  */
 import { parseStoredSettings, type OrganisationSettings } from '../../../shared/schemas/settings'
+import { parsedOncePerText } from '../../db/parsed-text'
 
 /** Most distinct texts kept at once (a company's settings are one text; this bounds memory, not a company count). */
 export const PARSED_SETTINGS_KEPT = 256
-
-const parsed = new Map<string, OrganisationSettings>()
-
-/** Freezes an object and every object under it. */
-function deepFreeze<T>(value: T): T {
-  if (typeof value === 'object' && value !== null && !Object.isFrozen(value)) {
-    Object.freeze(value)
-    for (const inner of Object.values(value)) deepFreeze(inner)
-  }
-  return value
-}
 
 function parseText(text: string): OrganisationSettings {
   let raw: unknown
@@ -33,17 +23,12 @@ function parseText(text: string): OrganisationSettings {
     raw = undefined // a broken text reads as the defaults, as parseStoredSettings reads any broken value
   }
   // Cloned before freezing: the parse shares the defaults' inner objects, which are not ours to freeze.
-  return deepFreeze(structuredClone(parseStoredSettings(raw)))
+  return structuredClone(parseStoredSettings(raw))
 }
+
+const settingsOfText = parsedOncePerText(parseText, PARSED_SETTINGS_KEPT)
 
 /** The settings a stored text holds, defaults filled in (parseStoredSettings), frozen; the same object for the same text. */
 export function settingsFromText(text: string | null | undefined): OrganisationSettings {
-  const key = text ?? ''
-  const known = parsed.get(key)
-  if (known) return known
-  const settings = parseText(key)
-  // Maps keep insertion order, so the first key is the oldest entry.
-  if (parsed.size >= PARSED_SETTINGS_KEPT) parsed.delete(parsed.keys().next().value!)
-  parsed.set(key, settings)
-  return settings
+  return settingsOfText(text ?? '')
 }

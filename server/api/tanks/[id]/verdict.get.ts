@@ -26,5 +26,5 @@ export default defineEventHandler(async (event): Promise<VerdictView> => {
   const verdict = stored.verdict
   const readingIds = [...new Set(verdict.findings.flatMap(f => f.readingIds))]
   const rows = readingIds.length ? citedReadings(db).all({ ids: JSON.stringify(readingIds.slice(0, 500)) }) : []
-  return { verdict, evaluatedAt: stored.evaluatedAt, rules: rulesCitedBy(verdict), readings: Object.fromEntries(rows.map(r => [r.id, r])) }
+  return { verdict, evaluatedAt: stored.evaluatedAt, rules: stored.rules, readings: Object.fromEntries(rows.map(r => [r.id, r])) }
 })
