@@ -428,6 +428,20 @@ export const signOffInputs = sqliteTable('sign_off_inputs', {
 })
 
 /**
+ * The tests and events a decision's engine input holds, one row each: the lock asks whether an
+ * entry is in the signed record (`signedInputHolds`) by this key, not by reading the input, which
+ * for an imported history is tens of MB of JSON on the request loop. Written with the input, in
+ * the decision's transaction (`recordSignedInput`); for decisions stored before it, filled once
+ * from their stored input by migration 0013. Never rewritten. WITHOUT ROWID in that migration:
+ * the key is the whole row, so the table is its own index.
+ */
+export const signOffInputEntries = sqliteTable('sign_off_input_entries', {
+  signOffId: text('sign_off_id').notNull().references(() => signOffs.id, { onDelete: 'cascade' }),
+  /** A reading's or an event's id, as the input holds it. */
+  entryId: text('entry_id').notNull(),
+}, t => [primaryKey({ columns: [t.signOffId, t.entryId] })])
+
+/**
  * A change to a signed-off tank's facts (name, volume, method, dimensions, client, site)
  * made without reopening the sign-off: a written reason, who and when, before and after.
  * The certificate lists every amendment under the facts it was signed with. Never rewritten.
