@@ -6,20 +6,23 @@
  */
 import { eq } from 'drizzle-orm'
 import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest'
+import { FUTURE_SKEW_MS } from '../../shared/readings/entry'
 import { openDatabase, type TidewrightDB } from '../../server/db/connection'
 import { readings } from '../../server/db/schema'
-import { computeAndStoreVerdict } from '../../server/db/verdicts'
 import { seedScratchCompany, type ScratchCompany } from '../support/company'
 import { signedIn } from '../support/http'
 import { copyTank } from '../support/sign-off-tanks'
 
 const { demo } = inject('fixtures')
-const DAY = 86_400_000
 let db: TidewrightDB
 let company: ScratchCompany
 let tank: string
-/** A clean test saved before the decision but dated a day after it: the signed input holds it. */
-let heldId: string
+
+/** A clean test dated a minute short of the furthest ahead a save accepts: after a decision made meanwhile. */
+const cleanTestAhead = () => ({
+  takenAt: new Date(Date.now() + FUTURE_SKEW_MS - 60_000).toISOString(), ammonia: 0, nitrite: 0, nitrate: 10, basis: { ammonia: 'N', nitrite: 'N', nitrate: 'N' },
+  pH: 8.1, temperature: 25, temperatureUnit: 'C', salinity: 35, salinityMode: 'practical',
+})
 
 beforeAll(async () => {
   company = await seedScratchCompany('signed-input-lock')
@@ -28,8 +31,6 @@ beforeAll(async () => {
     organisationId: company.organisationId, clientId: company.clientId, siteId: null,
     aquaristId: company.ids.aquarist, supervisorId: company.ids.supervisor, status: 'cycling',
   })
-  heldId = db.insert(readings).values({ tankId: tank, takenAt: new Date(Date.now() + DAY).toISOString(), ammoniaN: 0, nitriteN: 0, nitrateN: 10, pH: 8.1, temperatureC: 25.5, salinity: 35 }).returning().get().id
-  computeAndStoreVerdict(db, tank, new Date())
 })
 afterAll(() => db?.$client.close())
 
@@ -37,10 +38,14 @@ describe('the lock of an entry dated after the decision', () => {
   it('refuses to change a test the signed input holds, and lets one saved after the decision change', async () => {
     const aquarist = await signedIn(company.emails.aquarist)
     const supervisor = await signedIn(company.emails.supervisor)
+    // Saved before the decision, dated after it: the signed input holds it.
+    const before = await aquarist.post<{ reading: { id: string, takenAt: string } }>(`/api/tanks/${tank}/readings`, cleanTestAhead())
+    expect(before.status, JSON.stringify(before.body).slice(0, 300)).toBe(201)
+    const heldId = before.body.reading.id
     expect((await aquarist.post(`/api/tanks/${tank}/sign-off-requests`, { note: 'Zero for a week' })).status).toBe(201)
     const decision = await supervisor.post<{ decidedAt: string }>(`/api/tanks/${tank}/sign-off/decision`, { decision: 'approve' })
     expect(decision.status, JSON.stringify(decision.body).slice(0, 300)).toBe(200)
-    expect(Date.parse(decision.body.decidedAt)).toBeLessThan(Date.now() + DAY / 2)
+    expect(Date.parse(before.body.reading.takenAt)).toBeGreaterThan(Date.parse(decision.body.decidedAt))
 
     const held = await aquarist.patch(`/api/tanks/${tank}/readings/${heldId}`, { nitrate: 12 })
     expect(held.status).toBe(409)
@@ -48,10 +53,8 @@ describe('the lock of an entry dated after the decision', () => {
     expect((await aquarist.request('DELETE', `/api/tanks/${tank}/readings/${heldId}`)).status).toBe(409)
     expect(db.select({ nitrateN: readings.nitrateN }).from(readings).where(eq(readings.id, heldId)).get()).toEqual({ nitrateN: 10 })
 
-    const later = await aquarist.post<{ reading: { id: string } }>(`/api/tanks/${tank}/readings`, {
-      takenAt: new Date(Date.now() + 2 * DAY).toISOString(), ammonia: 0, nitrite: 0, nitrate: 10, basis: { ammonia: 'N', nitrite: 'N', nitrate: 'N' },
-      pH: 8.1, temperature: 25, temperatureUnit: 'C', salinity: 35, salinityMode: 'practical',
-    })
+    // Saved after the decision: not in what was signed.
+    const later = await aquarist.post<{ reading: { id: string } }>(`/api/tanks/${tank}/readings`, cleanTestAhead())
     expect(later.status, JSON.stringify(later.body).slice(0, 300)).toBe(201)
     const edited = await aquarist.patch(`/api/tanks/${tank}/readings/${later.body.reading.id}`, { nitrate: 12 })
     expect(edited.status, JSON.stringify(edited.body).slice(0, 300)).toBe(200)
