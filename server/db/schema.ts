@@ -419,8 +419,8 @@ export const signOffs = sqliteTable('sign_offs', {
  * kept apart from `sign_offs.snapshot`: for an imported history it is tens of MB of JSON, which
  * the sign-off reads (the review queue, the tank page, the evidence, the lock of every save on a
  * signed tank) must not parse. Read only for what needs it: the certificate's final tests (in the
- * heavy-work pool) and the lock's question whether an entry is in the signed record (in SQL,
- * `signedInputHolds`). Written with the decision, in its transaction; never rewritten.
+ * heavy-work pool); the lock asks the ids it holds, recorded beside it (`sign_off_input_entries`).
+ * Written with the decision, in its transaction; never rewritten.
  */
 export const signOffInputs = sqliteTable('sign_off_inputs', {
   signOffId: text('sign_off_id').primaryKey().references(() => signOffs.id, { onDelete: 'cascade' }),
