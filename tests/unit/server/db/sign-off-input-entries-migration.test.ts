@@ -4,27 +4,16 @@
  * it (migrations up to 0012, a decided sign-off and a waiting request) is migrated, and the lock's
  * question is then answered by those rows, while the stored input reads back byte for byte.
  */
-import { cpSync, mkdirSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs'
+import { mkdtempSync, rmSync } from 'node:fs'
 import { tmpdir } from 'node:os'
-import { join, resolve } from 'node:path'
+import { join } from 'node:path'
 import { afterAll, describe, expect, it } from 'vitest'
 import { migrateDatabase, openDatabase } from '../../../../server/db/connection'
 import { signedInputHolds } from '../../../../server/domain/sign-off/signed-record'
+import { migrationsBefore } from '../../../support/migrations-before'
 
 const dir = mkdtempSync(join(tmpdir(), 'tidewright-sign-off-input-entries-migration-'))
 afterAll(() => rmSync(dir, { recursive: true, force: true }))
-
-/** The migrations folder as it stood before 0013: the files and a journal of the first thirteen. */
-function migrationsBefore0013(): string {
-  const folder = join(dir, 'drizzle-before')
-  mkdirSync(join(folder, 'meta'), { recursive: true })
-  const journal = JSON.parse(readFileSync(resolve('drizzle/meta/_journal.json'), 'utf8')) as { entries: { idx: number, tag: string }[] }
-  const earlier = journal.entries.filter(e => e.idx < 13)
-  expect(earlier.map(e => e.idx)).toEqual([...Array(13).keys()])
-  for (const entry of earlier) cpSync(resolve('drizzle', `${entry.tag}.sql`), join(folder, `${entry.tag}.sql`))
-  writeFileSync(join(folder, 'meta/_journal.json'), JSON.stringify({ ...journal, entries: earlier }))
-  return folder
-}
 
 /** Engine inputs as decisions stored them: tests and events, and one decided on an empty history. */
 const input = {
@@ -42,7 +31,7 @@ const empty = { ...input, readings: [], events: [] }
 describe('migration 0013 (sign_off_input_entries)', () => {
   it('records the tests and events each stored input holds, and leaves the input unchanged', () => {
     const db = openDatabase(join(dir, 'older.sqlite'))
-    migrateDatabase(db, migrationsBefore0013())
+    migrateDatabase(db, migrationsBefore(dir, 13))
     const sqlite = db.$client
     // The rows a decision rests on are beside the point here.
     sqlite.pragma('foreign_keys = OFF')
