@@ -44,7 +44,7 @@ try {
   const signed = 'signed'
   const stored = timedOnce(() => db.transaction(tx => tx.insert(signOffInputs).values({ signOffId: inputOnly, input }).run()))
   const recorded = timedOnce(() => db.transaction(tx => recordSignedInput(tx, signed, input)))
-  const bytes = (db.$client.prepare('select length(input) from sign_off_inputs where sign_off_id = ?').pluck().get(signed) as number)
+  const bytes = db.$client.prepare('select length(input) from sign_off_inputs where sign_off_id = ?').pluck().get(signed) as number
 
   // The question as it was asked before sign_off_input_entries: json_each over the stored input.
   const overJson = db.$client.prepare(`select (exists (select 1 from json_each(input, '$.readings') where json_extract(value, '$.id') = @entryId)
