@@ -419,13 +419,27 @@ export const signOffs = sqliteTable('sign_offs', {
  * kept apart from `sign_offs.snapshot`: for an imported history it is tens of MB of JSON, which
  * the sign-off reads (the review queue, the tank page, the evidence, the lock of every save on a
  * signed tank) must not parse. Read only for what needs it: the certificate's final tests (in the
- * heavy-work pool) and the lock's question whether an entry is in the signed record (in SQL,
- * `signedInputHolds`). Written with the decision, in its transaction; never rewritten.
+ * heavy-work pool); the lock asks the ids it holds, recorded beside it (`sign_off_input_entries`).
+ * Written with the decision, in its transaction; never rewritten.
  */
 export const signOffInputs = sqliteTable('sign_off_inputs', {
   signOffId: text('sign_off_id').primaryKey().references(() => signOffs.id, { onDelete: 'cascade' }),
   input: text('input', { mode: 'json' }).$type<CycleInput>().notNull(),
 })
+
+/**
+ * The tests and events a decision's engine input holds, one row each: the lock asks whether an
+ * entry is in the signed record (`signedInputHolds`) by this key, not by reading the input, which
+ * for an imported history is tens of MB of JSON on the request loop. Written with the input, in
+ * the decision's transaction (`recordSignedInput`); for decisions stored before it, filled once
+ * from their stored input by migration 0013. Never rewritten. WITHOUT ROWID in that migration:
+ * the key is the whole row, so the table is its own index.
+ */
+export const signOffInputEntries = sqliteTable('sign_off_input_entries', {
+  signOffId: text('sign_off_id').notNull().references(() => signOffs.id, { onDelete: 'cascade' }),
+  /** A reading's or an event's id, as the input holds it. */
+  entryId: text('entry_id').notNull(),
+}, t => [primaryKey({ columns: [t.signOffId, t.entryId] })])
 
 /**
  * A change to a signed-off tank's facts (name, volume, method, dimensions, client, site)

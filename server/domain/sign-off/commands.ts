@@ -10,14 +10,14 @@ import { OVERRIDE_REASON_MESSAGE } from '#shared/schemas/sign-off'
 import type { SignOffSnapshot } from '#shared/types/sign-off'
 import type { Db } from '#server/db/connection'
 import { preparedPerDb } from '#server/db/prepared'
-import { events, planStages, signOffInputs, signOffs, tanks, users } from '#server/db/schema'
+import { events, planStages, signOffs, tanks, users } from '#server/db/schema'
 import { recordAudit } from '#server/domain/audit/record'
 import { changeTankStatus } from '#server/domain/tanks/status'
 import { currentApprovedSignOff, maySignOff, newVerificationCode, pendingRequest, selfApprovalAllowed, unresolvedAlertCount, type SignOffActor, type SignOffRow, type TankRow } from './records'
 import { assertEvaluationCurrent, type SignOffEvaluation, type SignOffVerdict } from './evaluation'
 import { conflict, SignOffRefused } from './refusal'
 import { lockedUntil } from './lock'
-import { captureSignedFacts } from './signed-record'
+import { captureSignedFacts, recordSignedInput } from './signed-record'
 
 /** The shortest note that counts as a written reason. */
 const REASON_MIN_LENGTH = 3
@@ -101,7 +101,7 @@ export function decideSignOff(db: Db, actor: SignOffActor, tank: TankRow, decisi
   const facts = captureSignedFacts(db, tank.id, actor.id)
   // The tank's own lighting acclimation, kept with the decision so the plan stays as signed.
   const acclimation = acclimationSettingsOf(db.select({ key: planStages.key, data: planStages.data }).from(planStages).where(eq(planStages.tankId, tank.id)).all())
-  // The input is kept beside the snapshot (sign_off_inputs): reads of the decision never parse it.
+  // The input is kept beside the snapshot (sign_off_inputs, with the ids it holds for the lock): reads of the decision never parse it.
   const snapshot: SignOffSnapshot = { facts, verdict, overrideGrounds: decision === 'approve' ? grounds : [], unresolvedAlerts, acclimation }
   const at = input.now
   const code = decision === 'approve' ? newVerificationCode() : null
@@ -119,7 +119,7 @@ export function decideSignOff(db: Db, actor: SignOffActor, tank: TankRow, decisi
       verificationCode: code,
     }).where(and(eq(signOffs.id, request.id), eq(signOffs.status, 'requested'))).returning(decidedColumns).get()
     if (!updated) conflict('This request was decided a moment ago')
-    tx.insert(signOffInputs).values({ signOffId: request.id, input }).run()
+    recordSignedInput(tx, request.id, input)
     const moved = changeTankStatus(tx, { tankId: tank.id, trigger: decision === 'approve' ? 'sign-off-approved' : 'sign-off-returned', actor })
     recordAudit(tx, actor, {
       action: decision === 'approve' ? (override ? 'sign-off.approve-override' : 'sign-off.approve') : 'sign-off.return',

@@ -3,12 +3,12 @@
  * the decision, which of them a later edit would touch, which entries the signed input holds,
  * and amendments (a change to signed facts with a reason, printed on the certificate).
  */
-import { asc, eq, sql } from 'drizzle-orm'
+import { and, asc, eq, sql } from 'drizzle-orm'
 import type { CycleInput } from '#shared/cycle/types'
 import type { SignedTankFacts, SignOffAmendmentView, SignOffSnapshot } from '#shared/types/sign-off'
 import type { Db } from '#server/db/connection'
 import { preparedPerDb } from '#server/db/prepared'
-import { clients, organisations, planStages, signOffAmendments, signOffInputs, sites, tanks, users } from '#server/db/schema'
+import { clients, organisations, planStages, signOffAmendments, signOffInputEntries, signOffInputs, sites, tanks, users } from '#server/db/schema'
 
 type TankRow = typeof tanks.$inferSelect
 
@@ -72,17 +72,28 @@ export function isSignedStage(snapshot: SignOffSnapshot | null | undefined, stag
 }
 
 /**
- * Whether a reading or event is in the engine input a decision was made from. Asked in SQL over
- * the stored text (json_each), prepared once: the input of an imported history is megabytes of
- * JSON that the request loop must not parse for one id.
+ * Stores the engine input a decision was made from, and the id of every test and event it holds
+ * (sign_off_input_entries, for the lock). Call inside the decision's transaction: both are the
+ * signed record, written once and never rewritten. One prepared insert run per id: for a
+ * 100,000-test history a quarter of the time multi-row inserts took (bench/README.md).
  */
-const entryIn = (path: string) => sql`exists (select 1 from json_each(${signOffInputs.input}, ${path}) where json_extract(value, '$.id') = ${sql.placeholder('entryId')})`
-const inputHolds = preparedPerDb(db => db.select({ held: sql<number>`${entryIn('$.readings')} or ${entryIn('$.events')}` })
-  .from(signOffInputs).where(eq(signOffInputs.signOffId, sql.placeholder('signOffId'))).prepare())
+export function recordSignedInput(db: Db, signOffId: string, input: CycleInput): void {
+  db.insert(signOffInputs).values({ signOffId, input }).run()
+  const entry = db.insert(signOffInputEntries).values({ signOffId, entryId: sql.placeholder('entryId') }).prepare()
+  for (const entryId of new Set([...input.readings.map(r => r.id), ...(input.events ?? []).map(e => e.id)])) entry.run({ entryId })
+}
+
+/**
+ * Whether a reading or event is in the engine input a decision was made from: a lookup by key in
+ * the entries recorded with it, prepared once. The input itself (megabytes of JSON for an
+ * imported history) is not read on the request loop for one id.
+ */
+const inputHolds = preparedPerDb(db => db.select({ held: sql<number>`1` }).from(signOffInputEntries)
+  .where(and(eq(signOffInputEntries.signOffId, sql.placeholder('signOffId')), eq(signOffInputEntries.entryId, sql.placeholder('entryId')))).prepare())
 
 /** Whether the input the sign-off was decided on holds this reading or event, whatever its date. */
 export function signedInputHolds(db: Db, signOffId: string, entryId: string): boolean {
-  return Boolean(inputHolds(db).get({ signOffId, entryId })?.held)
+  return inputHolds(db).get({ signOffId, entryId }) !== undefined
 }
 
 /** The engine input the sign-off was decided on, or undefined (not decided). Megabytes for a long history: read it in the heavy-work pool. */

@@ -4,26 +4,15 @@
  * sign-off written as the server wrote it then) is migrated, and the input reads back byte for
  * byte as it was stored while the snapshot keeps everything else.
  */
-import { cpSync, mkdirSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs'
+import { mkdtempSync, rmSync } from 'node:fs'
 import { tmpdir } from 'node:os'
-import { join, resolve } from 'node:path'
+import { join } from 'node:path'
 import { afterAll, describe, expect, it } from 'vitest'
 import { migrateDatabase, openDatabase } from '../../../../server/db/connection'
+import { migrationsBefore } from '../../../support/migrations-before'
 
 const dir = mkdtempSync(join(tmpdir(), 'tidewright-sign-off-inputs-migration-'))
 afterAll(() => rmSync(dir, { recursive: true, force: true }))
-
-/** The migrations folder as it stood before 0012: the files and a journal of the first twelve. */
-function migrationsBefore0012(): string {
-  const folder = join(dir, 'drizzle-before')
-  mkdirSync(join(folder, 'meta'), { recursive: true })
-  const journal = JSON.parse(readFileSync(resolve('drizzle/meta/_journal.json'), 'utf8')) as { entries: { idx: number, tag: string }[] }
-  const earlier = journal.entries.filter(e => e.idx < 12)
-  expect(earlier.map(e => e.idx)).toEqual([...Array(12).keys()])
-  for (const entry of earlier) cpSync(resolve('drizzle', `${entry.tag}.sql`), join(folder, `${entry.tag}.sql`))
-  writeFileSync(join(folder, 'meta/_journal.json'), JSON.stringify({ ...journal, entries: earlier }))
-  return folder
-}
 
 /** An engine input as a decision stored it: numbers of every shape, words beyond ASCII, quotes. */
 const input = {
@@ -42,7 +31,7 @@ describe('migration 0012 (sign_off_inputs)', () => {
   it('moves a decided sign-off\'s input out of its snapshot unchanged, and leaves the rest', () => {
     const dbPath = join(dir, 'older.sqlite')
     const db = openDatabase(dbPath)
-    migrateDatabase(db, migrationsBefore0012())
+    migrateDatabase(db, migrationsBefore(dir, 12))
     const sqlite = db.$client
     // The rows a decision and a waiting request rest on are beside the point here.
     sqlite.pragma('foreign_keys = OFF')

@@ -83,5 +83,8 @@ describe('the sign-off decision task', () => {
     expect(signedInputHolds(db, 'no-such-sign-off', held)).toBe(false)
     const event = input.events?.[0]
     if (event) expect(signedInputHolds(db, signOff.id, event.id)).toBe(true)
+    // Recorded with the decision, in its transaction: exactly the tests and events the input holds.
+    const recorded = db.$client.prepare('select entry_id from sign_off_input_entries where sign_off_id = ? order by 1').pluck().all(signOff.id)
+    expect(recorded).toEqual([...input.readings.map(r => r.id), ...(input.events ?? []).map(e => e.id)].sort())
   })
 })
