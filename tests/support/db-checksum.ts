@@ -1,6 +1,6 @@
 /**
  * Fingerprints of a SQLite file, read the way an outsider would: a separate read-only
- * better-sqlite3 connection, every table hashed row by row in rowid order. Two files
+ * better-sqlite3 connection, every table hashed row by row in rowid (or primary key) order. Two files
  * (or one file at two moments) with equal fingerprints hold the same data.
  */
 import { createHash } from 'node:crypto'
@@ -20,6 +20,17 @@ export type DatabaseFingerprint = Record<string, TableFingerprint>
  */
 const SIGN_IN_BOOKKEEPING = ['sessions']
 
+/**
+ * The order a table's rows are hashed in: the rowid, or for a WITHOUT ROWID table (which has
+ * none, sign_off_input_entries) its primary key, which orders its rows just as well.
+ */
+function rowOrder(db: Database.Database, table: string): string {
+  const sql = db.prepare(`select sql from sqlite_master where type = 'table' and name = ?`).pluck().get(table) as string | undefined
+  if (!sql || !/without\s+rowid/i.test(sql)) return 'rowid'
+  const key = (db.prepare(`select name, pk from pragma_table_info(?) where pk > 0 order by pk`).all(table) as { name: string }[])
+  return key.map(c => `"${c.name.replaceAll('"', '""')}"`).join(', ')
+}
+
 /** Hashes one open connection's tables (excluding SQLite's own bookkeeping and who is signed in). */
 export function fingerprintConnection(db: Database.Database): DatabaseFingerprint {
   const tables = (db.prepare(`select name from sqlite_master where type = 'table' and name not like 'sqlite_%' order by name`).pluck().all() as string[])
@@ -29,7 +40,7 @@ export function fingerprintConnection(db: Database.Database): DatabaseFingerprin
     const hash = createHash('sha256')
     let rows = 0
     const quoted = `"${table.replaceAll('"', '""')}"`
-    for (const row of db.prepare(`select * from ${quoted} order by rowid`).raw().iterate() as Iterable<unknown[]>) {
+    for (const row of db.prepare(`select * from ${quoted} order by ${rowOrder(db, table)}`).raw().iterate() as Iterable<unknown[]>) {
       hash.update(JSON.stringify(row, (_key, value) => (typeof value === 'bigint' ? value.toString() : Buffer.isBuffer(value) ? value.toString('base64') : value)))
       hash.update('\n')
       rows++
