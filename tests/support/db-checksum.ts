@@ -27,7 +27,7 @@ const SIGN_IN_BOOKKEEPING = ['sessions']
 function rowOrder(db: Database.Database, table: string): string {
   const sql = db.prepare(`select sql from sqlite_master where type = 'table' and name = ?`).pluck().get(table) as string | undefined
   if (!sql || !/without\s+rowid/i.test(sql)) return 'rowid'
-  const key = db.prepare(`select name, pk from pragma_table_info(?) where pk > 0 order by pk`).all(table) as { name: string }[]
+  const key = db.prepare(`select name from pragma_table_info(?) where pk > 0 order by pk`).all(table) as { name: string }[]
   return key.map(c => `"${c.name.replaceAll('"', '""')}"`).join(', ')
 }
 
