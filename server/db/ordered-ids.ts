@@ -1,9 +1,10 @@
 /**
  * Ids for many rows written together (the CSV import's), in the order they are written. A
  * table's primary key is an index of its ids: random ids (version 4) go anywhere in it, so
- * 100,000 of them rewrote an index page for nearly every row, more the longer the table (the
- * import held the write lock 0.8 s on a new database, 1.3 s once it held 200,000 tests). These
- * sort after one another, so the index takes a batch at one place, as an append.
+ * 100,000 of them touched an index page for nearly every row, and the longer the table the
+ * more of those pages had left the cache (the import's write lock grew with the table: see
+ * bench/README.md). These sort after one another, so the index takes a batch at one place, as
+ * an append.
  *
  * The layout is a version 7 UUID's (RFC 9562): the batch's time in ms (48 bits), the version,
  * 42 random bits drawn once per batch (two batches in the same ms differ), the variant, then

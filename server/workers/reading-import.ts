@@ -13,6 +13,8 @@
  *    locks). No array of the file's rows is built: memory stays flat however long the file.
  *    A row the tank already holds is a duplicate (the unique index's look-up, skipped when
  *    the tank holds no imported test at all); a repeat within the file, the temp table's unique key.
+ *    Each staged row gets its id here, in the file's order (server/db/ordered-ids.ts), so the
+ *    write adds to readings' primary key index at one place instead of all over it.
  * 2. Write, in one short IMMEDIATE transaction: check again what may have changed since
  *    staging (a sign-off decided, tests saved meanwhile that now fill a day: they take its
  *    room first and the file's last staged rows of that day are refused, per row; a test of
