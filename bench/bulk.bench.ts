@@ -261,7 +261,8 @@ export async function runBulkBench(bench: BenchServer): Promise<Row[]> {
     reference: { name: `raw insert loop (the whole loop holds it) ${(floorSeconds * 1000).toFixed(0)} ms`, value: floorSeconds * 1000 },
     ratio: run.lockHeldMs / (floorSeconds * 1000), aim: 'as short as the insert alone (~1x)',
   }, {
-    area: 'Bulk', name: `another company's saves during the same import (in a third tank): p50 ${quantile(saves, 0.5).toFixed(0)} ms, max ${quantile(saves, 1).toFixed(0)} ms (${saves.length} saves); idle p50 ${quantile(idleSaves, 0.5).toFixed(0)} ms`, value: quantile(saves, 0.99), unit: 'ms p99',
+    // That import's lock, not the first's: the table then holds 110,000 more tests, and the longest save waits for it.
+    area: 'Bulk', name: `another company's saves during the same import (in a third tank; it held the write lock ${again.lockHeldMs.toFixed(0)} ms): p50 ${quantile(saves, 0.5).toFixed(0)} ms, max ${quantile(saves, 1).toFixed(0)} ms (${saves.length} saves); idle p50 ${quantile(idleSaves, 0.5).toFixed(0)} ms`, value: quantile(saves, 0.99), unit: 'ms p99',
     reference: { name: `idle p99 (${idleSaves.length} saves)`, value: quantile(idleSaves, 0.99) },
     ratio: quantile(saves, 0.99) / quantile(idleSaves, 0.99), aim: 'no company slows another (~1x)',
   }, {

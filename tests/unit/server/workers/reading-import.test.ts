@@ -13,10 +13,12 @@ import { mkdtempSync, rmSync, writeFileSync } from 'node:fs'
 import { tmpdir } from 'node:os'
 import { join } from 'node:path'
 import { and, eq, isNotNull } from 'drizzle-orm'
+import * as v from 'valibot'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { migrateDatabase, openDatabase, type TidewrightDB } from '../../../../server/db/connection'
 import { auditLog, readings } from '../../../../server/db/schema'
 import { seedDemo, type DemoIds } from '../../../../server/db/seed/demo'
+import { IdParams } from '../../../../shared/schemas/common'
 import { IMPORT_CHUNK_ROWS } from '../../../../shared/readings/import-plan'
 import { MAX_IMPORT_ROWS, TESTS_PER_TANK_PER_DAY } from '../../../../shared/readings/limits'
 import { workerConnection } from '../../../../server/workers/connection'
@@ -233,6 +235,20 @@ describe('the CSV import in the worker', () => {
     expect(importedIn(tankId) - before).toBe(written.length)
     const stored = db.$client.prepare('SELECT taken_at FROM readings WHERE tank_id = ? AND import_key IS NOT NULL ORDER BY rowid').pluck().all(tankId) as string[]
     expect(stored.slice(before)).toEqual(written)
+  })
+
+  it('gives the rows it writes ids that follow the file order, each a UUID, so the primary key index takes them at one place', () => {
+    const tankId = demo.tanks.lobby
+    const start = now.getTime() - 2000 * 86_400_000
+    const lines = Array.from({ length: PUBLISH_SLICE_LINES + 10 }, (_, i) => `${new Date(start + i * 3_600_000).toISOString()},${(i % 400) / 100},0,5`)
+    const before = importedIn(tankId)
+    const result = run(tankId, ['takenAt,ammonia,nitrite,nitrate', ...lines].join('\n'), false)
+    if (result.kind !== 'done') throw new Error(result.kind)
+    const ids = (db.$client.prepare('SELECT id FROM readings WHERE tank_id = ? AND import_key IS NOT NULL ORDER BY rowid').pluck().all(tankId) as string[]).slice(before)
+    expect(ids.length).toBe(lines.length)
+    expect(ids.every(id => v.is(IdParams.entries.id, id))).toBe(true)
+    expect(ids).toEqual([...ids].sort())
+    expect(new Set(ids).size).toBe(ids.length)
   })
 
   it('writes the audit row with the rows', () => {
