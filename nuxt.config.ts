@@ -97,14 +97,6 @@ export default defineNuxtConfig({
   },
   typescript: { strict: true, typeCheck: false },
   hooks: {
-    // No <link rel="prefetch"> for every lazy chunk of the app (about forty on each page, most of
-    // them the tank page's): fetched while the page was still loading, they sat in Lighthouse's
-    // largest-paint path on a phone's connection. A lazy chunk is fetched when its component is
-    // shown, a page's chunks when a link to it is touched (experimental.defaults) or the page is
-    // opened (see bench/README.md, "Dates without a formatter in hydration").
-    'build:manifest': (manifest) => {
-      for (const chunk of Object.values(manifest)) chunk.prefetch = false
-    },
     // Worker-thread entries (server/workers/) are bundled beside the server once Nitro has
     // built it: see scripts/build-workers.mjs and server/utils/heavy-work.ts.
     'nitro:build:before': (nitro) => {
