@@ -4,7 +4,7 @@
  * ratio. Nothing here asserts a time; the table is for people (and README's figures).
  * Loopback only. BENCH_SECONDS (default 4) sets the length of each API case;
  * BENCH_ONLY=api,bulk,isolation,engine,frontend,backtest runs a subset (frontend includes Lighthouse's
- * mobile performance figures for three pages; backtest: the completion
+ * mobile performance figures for three pages, lighthouse runs those alone, LIGHTHOUSE_RUNS each; backtest: the completion
  * forecast's hit rate and median error, the same figures as npm run backtest). Opt-in only, never in
  * the default run: signoff (another company's reads while a 100,000-test tank is signed off again
  * and again, sign-off.bench.ts; BENCH_SIGNOFF_CYCLES, default 3).
@@ -58,10 +58,11 @@ async function main() {
       for (const r of results) rows.push({ area: 'Tank page', name: r.name, value: r.value, unit: r.unit === 'ratio' ? 'x' : r.unit })
     }
   }
-  if (ONLY.has('api') || ONLY.has('frontend')) {
+  if (ONLY.has('api') || ONLY.has('frontend') || ONLY.has('lighthouse')) {
     const bench = await startBenchServer({ yearOnLounge: true })
     try {
       if (ONLY.has('frontend')) rows.push(...await runFrontendBench(bench), ...await runLighthouseBench(bench))
+      else if (ONLY.has('lighthouse')) rows.push(...await runLighthouseBench(bench))
       if (ONLY.has('api')) rows.push(...await runApiBench(bench, SECONDS))
     }
     finally {

@@ -47,6 +47,8 @@ export function forReader(message: string, reader: Reader): string {
 }
 
 type ClockStyle = 'moment' | 'short-day' | 'day' | 'stamp'
+/** The language every date and time is written in, on both sides. */
+export const CLOCK_LOCALE = 'en-US'
 const CLOCK_STYLES: Record<ClockStyle, Intl.DateTimeFormatOptions> = {
   'moment': { day: 'numeric', month: 'short', hour: 'numeric', minute: '2-digit' },
   'short-day': { day: 'numeric', month: 'short' },
@@ -61,7 +63,7 @@ function onClock(style: ClockStyle, ms: number, timeZone: string | undefined): s
   const key = `${style} ${timeZone ?? ''}`
   let formatter = formatters.get(key)
   if (!formatter) {
-    formatter = new Intl.DateTimeFormat('en-US', { ...CLOCK_STYLES[style], timeZone })
+    formatter = new Intl.DateTimeFormat(CLOCK_LOCALE, { ...CLOCK_STYLES[style], timeZone })
     formatters.set(key, formatter)
   }
   // A formatter throws on a time that is not one, where toLocaleString said "Invalid Date".
