@@ -234,9 +234,10 @@ export function prepareHistory(readings: Iterable<CycleReading>, events: readonl
 /** The events whose time parses, with it, in history order. */
 export function timedEventsOf(events: readonly CycleEvent[] | undefined): TimedEvent[] {
   const timed: TimedEvent[] = []
+  const readTime = timeReaderFor(events?.length ?? 0)
   for (const event of events ?? []) {
-    const t = parseTime(event.at)
-    if (Number.isFinite(t)) timed.push({ event, t, entered: enteredTime(event.enteredAt, parseTime) })
+    const t = readTime(event.at)
+    if (Number.isFinite(t)) timed.push({ event, t, entered: enteredTime(event.enteredAt, readTime) })
   }
   return timed.sort(compareEvents)
 }
