@@ -1,8 +1,7 @@
 /**
  * Each page loads what it shows: the tank page's first load on a phone fetches no Chart.js
  * (recognised by the `_chartjs` property it sets on every chart's data) and no chart data until
- * the reader comes near the charts, and then draws them; a wide screen asks for the chart data
- * once, with the page; and no rule engine code (recognised by the rules' descriptions, which
+ * the reader comes near the charts, and then draws them; and no rule engine code (recognised by the rules' descriptions, which
  * the verdict answer carries for the rules it cites).
  */
 import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest'
@@ -58,26 +57,6 @@ describe('what the tank page loads', () => {
     const late = await Promise.all(afterScroll.map(definesChartJs))
     expect(beforeScroll.filter((_, i) => early[i])).toEqual([])
     expect(late.some(Boolean)).toBe(true)
-    expect(problems).toEqual([])
-    await context.close()
-  })
-
-  it('on a wide screen asks for the chart data once, as the page arrives, and draws it (1280 px)', async () => {
-    const { page, context, problems } = await openPage(browser, 1280)
-    await signInThroughForm(page, 'client@tidewright.test')
-    const chartData: string[] = []
-    page.on('request', (request) => {
-      if (request.url().endsWith('/chart')) chartData.push(request.url())
-    })
-    await page.goto(`/tanks/${demo.tanks.lounge}`)
-    // The page as sent names the data, for wide screens only, so the browser fetches it while the scripts load.
-    const hint = page.locator('head link[rel="preload"][as="fetch"]')
-    expect(await hint.getAttribute('href')).toBe(`/api/tanks/${demo.tanks.lounge}/chart`)
-    expect(await hint.getAttribute('media')).toBe('(min-width: 640px)')
-    await scrollToCharts(page)
-    await expect.poll(() => page.locator('canvas').count(), { timeout: 15_000 }).toBe(3)
-    // The page's own request took the hinted answer: one request, not two.
-    expect(chartData).toEqual([`${new URL(page.url()).origin}/api/tanks/${demo.tanks.lounge}/chart`])
     expect(problems).toEqual([])
     await context.close()
   })
