@@ -36,7 +36,8 @@ describe('the charts: one palette, annotation bands and lines, shaped event mark
     const chart = page.getByTestId('nitrogen-chart')
     await expect.poll(() => chart.getAttribute('data-points'), { timeout: 15_000 }).toMatch(/^\d+$/)
     if (width < 640) await page.getByText('More charts: free ammonia, salinity and temperature').click()
-    expect(await page.locator('canvas').count()).toBe(3)
+    // The leading chart is drawn first; the other two follow once it has been painted.
+    await expect.poll(() => page.locator('canvas').count()).toBe(3)
 
     // The lounge's cycle began with bottled bacteria and an ammonia dose: two kinds, two shapes, each named.
     const shapes = await legendShapes(chart.getByTestId('marker-legend'))

@@ -1,7 +1,7 @@
 /**
- * Each page loads what it shows: the tank page's first load fetches no Chart.js (recognised by
- * the `_chartjs` property it sets on every chart's data) until the reader comes near the charts,
- * and then draws them; and no rule engine code (recognised by the rules' descriptions, which
+ * Each page loads what it shows: the tank page's first load on a phone fetches no Chart.js
+ * (recognised by the `_chartjs` property it sets on every chart's data) and no chart data until
+ * the reader comes near the charts, and then draws them; and no rule engine code (recognised by the rules' descriptions, which
  * the verdict answer carries for the rules it cites).
  */
 import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest'
@@ -30,19 +30,22 @@ async function clientTankFirstLoad() {
   const { page } = watched
   await signInThroughForm(page, 'client@tidewright.test')
   const scripts: string[] = []
+  const chartData: string[] = []
   page.on('request', (request) => {
     if (request.resourceType() === 'script') scripts.push(request.url())
+    if (request.url().endsWith('/chart')) chartData.push(request.url())
   })
   await page.goto(`/tanks/${demo.tanks.lounge}`)
   await expect.poll(() => page.getByTestId('verdict-phase').isVisible()).toBe(true)
   await settle(page)
-  return { ...watched, scripts }
+  return { ...watched, scripts, chartData }
 }
 
 describe('what the tank page loads', () => {
   it('fetches Chart.js only once the charts near the screen, then draws them (375 px)', async () => {
-    const { page, context, problems, scripts } = await clientTankFirstLoad()
+    const { page, context, problems, scripts, chartData } = await clientTankFirstLoad()
     expect(await page.locator('canvas').count()).toBe(0)
+    expect(chartData).toEqual([])
     const beforeScroll = [...scripts]
 
     await scrollToCharts(page)
