@@ -15,7 +15,7 @@ import { pathToFileURL } from 'node:url'
 import Database from 'better-sqlite3'
 import { evaluateCycle } from '../shared/cycle/engine'
 import type { CycleInput, CycleReading } from '../shared/cycle/types'
-import { percentile } from './support'
+import { percentile, sorted } from './support'
 
 const DAY_MS = 86_400_000
 const START_MS = Date.UTC(2026, 0, 5)
@@ -211,7 +211,6 @@ function benchHistoryLengths(): BenchRow[] {
     }
     ratios.push(cases[2]!.perTestUs[round]! / cases[0]!.perTestUs[round]!)
   }
-  const sorted = (values: number[]) => values.slice().sort((a, b) => a - b)
   const rows: BenchRow[] = []
   for (const c of cases) {
     const perTest = sorted(c.perTestUs)

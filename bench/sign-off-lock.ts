@@ -17,7 +17,7 @@ import type { CycleInput, CycleReading } from '../shared/cycle/types'
 import { migrateDatabase, openDatabase } from '../server/db/connection'
 import { signOffInputs } from '../server/db/schema'
 import { recordSignedInput, signedInputHolds } from '../server/domain/sign-off/signed-record'
-import { percentile } from './support'
+import { percentile, sorted } from './support'
 
 const TESTS = 100_000
 const ROUNDS = Number(process.env.BENCH_LOCK_ROUNDS ?? 40)
@@ -63,7 +63,7 @@ try {
       after.push(performance.now() - t)
       agree &&= old === now
     }
-    const [b, a] = [before.sort((x, y) => x - y), after.sort((x, y) => x - y)]
+    const [b, a] = [sorted(before), sorted(after)]
     console.log(`lock check, ${TESTS.toLocaleString('en')}-test signed input (${(bytes / 1e6).toFixed(1)} MB), entry ${label}, ${ROUNDS} rounds, answers ${agree ? 'agree' : 'DIFFER'}:`
       + ` json_each p50 ${percentile(b, 0.5).toFixed(3)} ms, p99 ${percentile(b, 0.99).toFixed(3)} ms; keyed p50 ${percentile(a, 0.5).toFixed(4)} ms, p99 ${percentile(a, 0.99).toFixed(4)} ms;`
       + ` ratio ${(percentile(b, 0.5) / percentile(a, 0.5)).toFixed(0)}x`)

@@ -15,15 +15,13 @@ import { openDatabase } from '../server/db/connection'
 import { tanks } from '../server/db/schema'
 import { OTHER_AQUARIST_EMAIL } from '../tests/support/fixtures'
 import { copyTank } from '../tests/support/sign-off-tanks'
-import { describe, percentile, readLoop, signInCookie, type BenchServer, type Row } from './support'
+import { describe, percentile, readLoop, signInCookie, sorted, type BenchServer, type Row } from './support'
 
 /** The long history's length: a 100,000-row import, the largest one file may hold. */
 export const SIGN_OFF_TESTS = 100_000
 const HALF_HOUR = 1_800_000
 /** What a browser on the signed tank's pages asks for, in turn (under /api/tanks/:id). */
 const SIGNED_RECORD_PARTS = ['/evidence', '/sign-off', '/certificate.pdf']
-
-const sorted = (values: number[]) => [...values].sort((a, b) => a - b)
 
 /**
  * A copy of the demo nano (its cycle complete) with SIGN_OFF_TESTS clean tests before its cycle

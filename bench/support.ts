@@ -83,6 +83,11 @@ const READERS = 4
 /** Each request's time (sorted, ms) and how many answered other than 200. */
 export interface Latencies { ms: number[], failed: number }
 
+/** A copy of the values in ascending order, for percentile. */
+export function sorted(values: readonly number[]): number[] {
+  return [...values].sort((a, b) => a - b)
+}
+
 /** The p-quantile of sorted values. */
 export function percentile(sorted: number[], p: number): number {
   if (!sorted.length) return Number.NaN
