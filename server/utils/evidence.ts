@@ -6,77 +6,47 @@
  */
 import { asc, eq } from 'drizzle-orm'
 import { EVIDENCE_PAGE_SIZE } from '#shared/readings/limits'
-import type { Evidence } from '#shared/types/sign-off'
-import { alerts, events, planStages, readings, uploads } from '#server/db/schema'
-import { eventHistoryPage, readingHistoryPage } from '#server/domain/readings/current'
+import { alerts, planStages, uploads } from '#server/db/schema'
+import { evidenceText, type EvidenceHead, type EvidenceTail } from '#server/domain/sign-off/evidence-page'
 import type { Actor } from './access'
 import { maySignOff, pendingRequest, signOffHistory, toSignOffRecordWithSnapshot, unresolvedAlertCount, userNames } from './sign-offs'
 import { overrideGrounds } from '#shared/sign-off/plan'
 import { lockedUntil } from './sign-off-lock'
 import { getTankView } from './tank-views'
 
-/** The whole cycle of one tank (a page of its readings and events), or undefined when the actor may not see it. */
-export async function tankEvidence(actor: Actor, tankId: string, now = new Date(), page = 1): Promise<Evidence | undefined> {
+/**
+ * The whole cycle of one tank (a page of its readings and events) as the JSON text of its
+ * Evidence, or undefined when the actor may not see it. The page's tests and events come from
+ * the heavy-work pool already as text (evidence-page.ts); the rest is read here.
+ */
+export async function tankEvidence(actor: Actor, tankId: string, now = new Date(), page = 1): Promise<string | undefined> {
   const tank = await getTankView(actor, tankId)
   if (!tank) return undefined
   const db = useDB()
+  // Over years of imported tests the engine takes a while, and a page of a thousand tests is the
+  // longest piece of the answer: both are made in the heavy-work pool.
+  const [evaluation, pageText] = await Promise.all([evaluateOffLoop(tankId, now), evidencePageOffLoop(tankId, page)])
+  const verdict = evaluation?.verdict
+  if (!verdict) return undefined
   const names = userNames(actor.organisationId)
   const name = (id: string | null) => (id ? names.get(id) ?? null : null)
-  // Over years of imported tests the engine takes a while: it runs in the heavy-work pool.
-  const verdict = (await evaluateOffLoop(tankId, now))?.verdict
-  if (!verdict) return undefined
-  // Every row with its trail: the supervisor sees what was corrected, by whom and why.
-  const readingPage = readingHistoryPage(db, tankId, {}, { sort: readings.takenAt, dir: 'desc', page, pageSize: EVIDENCE_PAGE_SIZE })
-  const eventPage = eventHistoryPage(db, tankId, {}, { sort: events.at, dir: 'desc', page, pageSize: EVIDENCE_PAGE_SIZE })
-  const readingRows = readingPage.rows.reverse()
-  const eventRows = eventPage.rows.reverse()
   const stageRows = db.select().from(planStages).where(eq(planStages.tankId, tankId)).orderBy(asc(planStages.position)).all()
   const uploadRows = db.select().from(uploads).where(eq(uploads.tankId, tankId)).orderBy(asc(uploads.createdAt)).all()
   const alertRows = db.select().from(alerts).where(eq(alerts.tankId, tankId)).orderBy(asc(alerts.openedAt)).all()
   const tankRow = { organisationId: actor.organisationId, supervisorId: tank.supervisorId }
   // The approval's decision time only, asked once: the lock and the reopen button need no more of it.
   const signedUntil = lockedUntil(tankId)
-  return {
+  const head: EvidenceHead = {
     tank,
     verdict,
     evaluatedAt: now.toISOString(),
     overrideGrounds: overrideGrounds(verdict, unresolvedAlertCount(tankId)),
     page,
     pageSize: EVIDENCE_PAGE_SIZE,
-    readingsTotal: readingPage.total,
-    eventsTotal: eventPage.total,
-    readings: readingRows.map(r => ({
-      id: r.id,
-      takenAt: r.takenAt,
-      enteredByName: r.enteredByName,
-      ammoniaN: r.ammoniaN,
-      nitriteN: r.nitriteN,
-      nitrateN: r.nitrateN,
-      pH: r.pH,
-      temperatureC: r.temperatureC,
-      salinity: r.salinity,
-      alkalinityDkh: r.alkalinityDkh,
-      calciumMgL: r.calciumMgL,
-      magnesiumMgL: r.magnesiumMgL,
-      phosphateMgL: r.phosphateMgL,
-      notes: r.notes,
-      correctsId: r.correctsId,
-      correctionReason: r.correctionReason,
-      correctedById: r.replacedBy?.id ?? null,
-      createdAt: r.createdAt,
-    })),
-    events: eventRows.map(e => ({
-      id: e.id,
-      at: e.at,
-      kind: e.kind,
-      amount: e.amount,
-      group: e.group,
-      notes: e.notes,
-      enteredByName: e.enteredByName,
-      correctsId: e.correctsId,
-      correctionReason: e.correctionReason,
-      correctedById: e.replacedBy?.id ?? null,
-    })),
+    readingsTotal: pageText.readingsTotal,
+    eventsTotal: pageText.eventsTotal,
+  }
+  const tail: EvidenceTail = {
     stages: stageRows.map(s => ({
       id: s.id,
       position: s.position,
@@ -116,4 +86,5 @@ export async function tankEvidence(actor: Actor, tankId: string, now = new Date(
     canDecide: maySignOff(actor, tankRow) && !!pendingRequest(tankId),
     canReopen: maySignOff(actor, tankRow) && signedUntil !== null,
   }
+  return evidenceText(head, pageText, tail)
 }

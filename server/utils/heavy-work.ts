@@ -4,7 +4,8 @@
  * One thread fewer than the machine has cores, at least one, so requests keep a core. Its
  * tasks: the CSV import, the engine run for the evidence page, for the verdict refresh and for
  * a sign-off request on a tank with a long history, such a tank's sign-off decision (evaluated
- * and stored there) and CSV export, and the certificate's PDF.
+ * and stored there) and CSV export, the evidence's page of tests and events as text, and the
+ * certificate's PDF.
  *
  * Each worker entry is built beside the server (scripts/build-workers.mjs): found by
  * looking up from this chunk's own file, so a moved .output keeps working. There is no
@@ -21,7 +22,9 @@ import type { AppendedTest } from '#server/domain/readings/engine-input-cache'
 import type { DecisionResult } from '#server/domain/sign-off/commands'
 import type { SignOffVerdict } from '#server/domain/sign-off/evaluation'
 import { refusalAgain } from '#server/domain/sign-off/refusal-transfer'
+import type { EvidencePageText } from '#server/domain/sign-off/evidence-page'
 import type { CertificateTask } from '#server/workers/certificate'
+import type { EvidencePageTask } from '#server/workers/evidence-page'
 import type { ReadingImportResult, ReadingImportTask } from '#server/workers/reading-import'
 import type { ReadingsExportTask } from '#server/workers/readings-export'
 import type { SignOffDecisionOutcome, SignOffDecisionTask } from '#server/workers/sign-off-decision'
@@ -115,6 +118,11 @@ export async function decideSignOffOffLoop(task: Omit<SignOffDecisionTask, 'dbPa
   const outcome: SignOffDecisionOutcome = await heavyPool().run({ ...task, dbPath: dbPath() } satisfies SignOffDecisionTask, { name: 'signOffDecision' })
   if (outcome.kind === 'refused') throw refusalAgain(outcome.refusal)
   return outcome.kind === 'decided' ? outcome.result : null
+}
+
+/** The evidence's page of a tank's tests and events as JSON text (server/domain/sign-off/evidence-page.ts), read and written in the pool. */
+export function evidencePageOffLoop(tankId: string, page: number): Promise<EvidencePageText> {
+  return heavyPool().run({ tankId, page, dbPath: dbPath() } satisfies EvidencePageTask, { name: 'evidencePage' })
 }
 
 /** A tank's readings as CSV text (server/domain/readings/export.ts), written in the pool. */

@@ -10,6 +10,9 @@ import { editRefusal, tankLockedUntil } from './entry-rules'
 
 type ReadingRow = typeof readings.$inferSelect
 type EventRow = typeof events.$inferSelect
+/** What a reading's view is made from: a stored row (a page's row leaves out the tank and the import key). */
+type ReadingViewRow = Omit<ReadingRow, 'tankId' | 'importKey'>
+type EventViewRow = Omit<EventRow, 'tankId'>
 /** A freshly written row has no replacement yet; a listed row says whether it has one. */
 type Trail = { replacedBy?: Replacement | null }
 type Tank = { id: string, organisationId: string }
@@ -21,7 +24,7 @@ function trailOf(row: { correctsId: string | null, correctionReason: string | nu
 }
 
 /** A stored reading as the API shows it. */
-export function toReadingView(row: ReadingRow & Trail, enteredByName: string | null, actor: Actor, tank: Tank, now = new Date(), locked: string | null = tankLockedUntil(tank.id)): ReadingView {
+export function toReadingView(row: ReadingViewRow & Trail, enteredByName: string | null, actor: Actor, tank: Tank, now = new Date(), locked: string | null = tankLockedUntil(tank.id)): ReadingView {
   const values = {
     ammoniaN: row.ammoniaN, nitriteN: row.nitriteN, nitrateN: row.nitrateN, pH: row.pH, temperatureC: row.temperatureC,
     salinity: row.salinity, alkalinityDkh: row.alkalinityDkh, calciumMgL: row.calciumMgL, magnesiumMgL: row.magnesiumMgL, phosphateMgL: row.phosphateMgL,
@@ -43,7 +46,7 @@ export function toReadingView(row: ReadingRow & Trail, enteredByName: string | n
 }
 
 /** A stored event as the API shows it. */
-export function toEventView(row: EventRow & Trail, enteredByName: string | null, actor: Actor, tank: Tank, now = new Date(), locked: string | null = tankLockedUntil(tank.id)): EventView {
+export function toEventView(row: EventViewRow & Trail, enteredByName: string | null, actor: Actor, tank: Tank, now = new Date(), locked: string | null = tankLockedUntil(tank.id)): EventView {
   return {
     id: row.id,
     at: row.at,
@@ -75,7 +78,9 @@ export function listReadings(actor: Actor, tank: Tank, query: ReadingListQuery):
   const { rows, total } = readingHistoryPage(useDB(), tank.id, query, { ...query, sort: READING_SORT[query.sort] })
   const now = new Date()
   const locked = tankLockedUntil(tank.id)
-  return { items: rows.map(r => toReadingView(r, r.enteredByName, actor, tank, now, locked)), total, page: query.page, pageSize: query.pageSize }
+  // The page keeps what was typed as its stored text: parsed here, the one place that shows it.
+  const items = rows.map(r => toReadingView({ ...r, entered: JSON.parse(r.entered) as ReadingRow['entered'] }, r.enteredByName, actor, tank, now, locked))
+  return { items, total, page: query.page, pageSize: query.pageSize }
 }
 
 const EVENT_SORT = { at: events.at, kind: events.kind, createdAt: events.createdAt } as const

@@ -6,6 +6,7 @@
  */
 import type { CertificateTask } from './certificate'
 
+export { evidencePage } from './evidence-page'
 export { readingImport } from './reading-import'
 export { readingsExport } from './readings-export'
 export { signOffDecision } from './sign-off-decision'

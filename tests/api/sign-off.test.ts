@@ -246,6 +246,31 @@ describe('the locked record', () => {
     expect(body).toMatchObject({ correctsId: dose.id, amount: 1.5, kind: 'ammonia-dose', at: dose.at })
   })
 
+  it('shows every stored test and event with its trail, oldest first, field for field as stored', async () => {
+    const evidence = (await (await signedIn(U.supervisor.email)).get<Evidence>(`/api/tanks/${complete}/evidence`)).body
+    // Read here with SQL of the test's own, in the answer's field order, so the order of the fields is checked too.
+    const storedReadings = db.$client.prepare(`select r.id, r.taken_at as takenAt, a.name as enteredByName,
+        r.ammonia_n as ammoniaN, r.nitrite_n as nitriteN, r.nitrate_n as nitrateN, r.ph as pH, r.temperature_c as temperatureC,
+        r.salinity, r.alkalinity_dkh as alkalinityDkh, r.calcium_mg_l as calciumMgL, r.magnesium_mg_l as magnesiumMgL,
+        r.phosphate_mg_l as phosphateMgL, r.notes, r.corrects_id as correctsId, r.correction_reason as correctionReason,
+        later.id as correctedById, r.created_at as createdAt
+      from readings r left join users a on a.id = r.entered_by left join readings later on later.corrects_id = r.id
+      where r.tank_id = ? order by r.taken_at, r.created_at, r.rowid`).all(complete) as Record<string, unknown>[]
+    const storedEvents = db.$client.prepare(`select e.id, e.at, e.kind, e.amount, e."group", e.notes, a.name as enteredByName,
+        e.corrects_id as correctsId, e.correction_reason as correctionReason, later.id as correctedById
+      from events e left join users a on a.id = e.entered_by left join events later on later.corrects_id = e.id
+      where e.tank_id = ? order by e.at, e.created_at, e.rowid`).all(complete) as Record<string, unknown>[]
+    // The corrections above: a reading corrected twice in a chain, an event once.
+    expect(storedReadings.filter(r => r.correctedById).length).toBe(2)
+    expect(storedReadings.filter(r => r.correctsId && r.correctionReason && r.enteredByName).length).toBe(2)
+    expect(storedEvents.filter(e => e.correctedById).length).toBe(1)
+    expect(evidence.readings).toEqual(storedReadings)
+    expect(evidence.readings.map(r => Object.keys(r))).toEqual(storedReadings.map(r => Object.keys(r)))
+    expect(evidence.events).toEqual(storedEvents)
+    expect(evidence.events.map(e => Object.keys(e))).toEqual(storedEvents.map(e => Object.keys(e)))
+    expect({ readingsTotal: evidence.readingsTotal, eventsTotal: evidence.eventsTotal }).toEqual({ readingsTotal: storedReadings.length, eventsTotal: storedEvents.length })
+  })
+
   it('keeps the audit log append-only in the database itself', () => {
     const count = db.select().from(auditLog).all().length
     expect(count).toBeGreaterThan(3)

@@ -8,12 +8,12 @@
  *
  * Framework-free: takes a `Db` (the connection or a transaction).
  */
-import { and, asc, count, desc, eq, gte, isNull, lte, sql, type SQL } from 'drizzle-orm'
+import { and, asc, count, eq, gte, isNull, lte, sql, type SQL } from 'drizzle-orm'
 import { alias, type AnySQLiteColumn } from 'drizzle-orm/sqlite-core'
 import { toIsoInstant } from '../../../shared/readings/fields'
 import type { Replacement } from '../../../shared/types/readings'
 import type { Db } from '../../db/connection'
-import { iterateValues } from '../../db/iterate'
+import { iterateValues, preparedValues } from '../../db/iterate'
 import { preparedPerDb } from '../../db/prepared'
 import { events, readings, users } from '../../db/schema'
 import { tankDataRevisionInDb } from './data-revision'
@@ -42,10 +42,6 @@ const corrector = alias(users, 'corrector')
 
 // The routes' schemas have read the range with the same rule; a text it refuses bounds nothing.
 const iso = (time: string) => toIsoInstant(time) ?? time
-
-function countOf(db: Db, table: typeof readings | typeof events, where: SQL | undefined): number {
-  return db.select({ n: count() }).from(table).where(where).get()?.n ?? 0
-}
 
 function withTrail<Row>(row: Row, enteredByName: string | null, later: Omit<Replacement, 'byName'> | null, byName: string | null): WithTrail<Row> {
   return { ...row, enteredByName, replacedBy: later ? { ...later, byName } : null }
@@ -193,24 +189,109 @@ export interface HistoryPage {
 }
 
 /**
- * The statements behind readingHistoryPage, one per shape of request (sort column, direction,
- * which ends of the range are given), each prepared the first time it is asked for: the
- * history list is read far more often than it changes shape.
+ * A reading on a page of its tank's history, as the history list and the evidence read it: its
+ * columns but the tank and the import key, `entered` as its stored JSON text (parsed by the one
+ * reader that shows it, for its own page only), who entered it and what replaced it.
  */
-const readingPageStatements = preparedPerDb(() => new Map<AnySQLiteColumn, Map<string, ReturnType<typeof prepareReadingPage>>>())
+export type ReadingPageRow = Omit<ReadingRow, 'tankId' | 'importKey' | 'entered'> & { entered: string, enteredByName: string | null, replacedBy: Replacement | null }
 
-function prepareReadingPage(db: Db, sort: AnySQLiteColumn, dir: 'asc' | 'desc', hasFrom: boolean, hasTo: boolean) {
-  const conditions: SQL[] = [eq(readings.tankId, sql.placeholder('tankId'))]
-  if (hasFrom) conditions.push(gte(readings.takenAt, sql.placeholder('from')))
-  if (hasTo) conditions.push(lte(readings.takenAt, sql.placeholder('to')))
-  const where = and(...conditions)
-  const by = dir === 'asc' ? asc : desc
+/** An event on a page of its tank's history: its columns but the tank, who entered it and what replaced it. */
+export type EventPageRow = Omit<EventRow, 'tankId'> & { enteredByName: string | null, replacedBy: Replacement | null }
+
+/** The correction that replaced a row, read as four columns of the page's row (all null when none did). */
+type LaterValues = [laterId: string | null, laterReason: string | null, laterAt: string | null, laterByName: string | null]
+
+type ReadingPageValues = [
+  id: string, takenAt: string, enteredBy: string | null, enteredByName: string | null,
+  ammoniaN: number | null, nitriteN: number | null, nitrateN: number | null, pH: number | null, temperatureC: number | null,
+  salinity: number | null, alkalinityDkh: number | null, calciumMgL: number | null, magnesiumMgL: number | null, phosphateMgL: number | null,
+  notes: string | null, entered: string, correctsId: string | null, correctionReason: string | null, createdAt: string, updatedAt: string,
+  ...LaterValues,
+]
+
+type EventPageValues = [
+  id: string, at: string, kind: EventRow['kind'], amount: number | null, group: EventRow['group'], notes: string | null,
+  enteredBy: string | null, enteredByName: string | null, correctsId: string | null, correctionReason: string | null,
+  createdAt: string, updatedAt: string, ...LaterValues,
+]
+
+function replacementOf(id: string | null, reason: string | null, at: string | null, byName: string | null): Replacement | null {
+  // Key order as the trail has always been sent: id, reason, at, byName.
+  return id === null ? null : { id, reason, at: at!, byName }
+}
+
+// The trail's joins, and the columns they add to each row in LaterValues' order.
+const readingTrail = sql`left join ${users} as ${sql.identifier('author')} on ${author.id} = ${readings.enteredBy}
+  left join ${readings} as ${sql.identifier('later_reading')} on ${laterReading.correctsId} = ${readings.id}
+  left join ${users} as ${sql.identifier('corrector')} on ${corrector.id} = ${laterReading.enteredBy}`
+const eventTrail = sql`left join ${users} as ${sql.identifier('author')} on ${author.id} = ${events.enteredBy}
+  left join ${events} as ${sql.identifier('later_event')} on ${laterEvent.correctsId} = ${events.id}
+  left join ${users} as ${sql.identifier('corrector')} on ${corrector.id} = ${laterEvent.enteredBy}`
+
+/** The range's conditions on a time column, as placeholders `from` and `to`. */
+function rangeConditions(tankColumn: AnySQLiteColumn, timeColumn: AnySQLiteColumn, hasFrom: boolean, hasTo: boolean): SQL | undefined {
+  const conditions: SQL[] = [eq(tankColumn, sql.placeholder('tankId'))]
+  if (hasFrom) conditions.push(gte(timeColumn, sql.placeholder('from')))
+  if (hasTo) conditions.push(lte(timeColumn, sql.placeholder('to')))
+  return and(...conditions)
+}
+
+/**
+ * A history list's statements, one set per shape of request (sort column, direction, which ends
+ * of the range are given), each prepared the first time that shape is asked for: the history
+ * list and the evidence are read far more often than they change shape.
+ */
+function perShape<S>(prepare: (db: Db, sort: AnySQLiteColumn, dir: 'asc' | 'desc', hasFrom: boolean, hasTo: boolean) => S) {
+  const statements = preparedPerDb(() => new Map<AnySQLiteColumn, Map<string, S>>())
+  return (db: Db, range: TimeRange, page: HistoryPage): S => {
+    const bySort = statements(db)
+    let shapes = bySort.get(page.sort)
+    if (!shapes) bySort.set(page.sort, shapes = new Map())
+    const shape = `${page.dir}|${Boolean(range.from)}|${Boolean(range.to)}`
+    let prepared = shapes.get(shape)
+    if (!prepared) shapes.set(shape, prepared = prepare(db, page.sort, page.dir, Boolean(range.from), Boolean(range.to)))
+    return prepared
+  }
+}
+
+const pageOrder = (sort: AnySQLiteColumn, dir: 'asc' | 'desc', table: typeof readings | typeof events, createdAt: AnySQLiteColumn) => {
+  const by = sql.raw(dir)
+  // Ties in the sort column fall in entry order, as in tankReadings/tankEvents (so a page reversed reads as the full list does).
+  return sql`order by ${sort} ${by}, ${createdAt} ${by}, ${table}.rowid ${by} limit ${sql.placeholder('limit')} offset ${sql.placeholder('offset')}`
+}
+
+/**
+ * Pages are read as arrays of column values and mapped here (no ORM mapping, no parse of a row's
+ * `entered` that the evidence never sends): Drizzle's mapping of a thousand rows with their trail
+ * held the request loop longer than SQLite's read of them.
+ */
+const readingPageStatements = perShape((db, sort, dir, hasFrom, hasTo) => {
+  const where = rangeConditions(readings.tankId, readings.takenAt, hasFrom, hasTo)
   return {
-    // Ties in the sort column fall in entry order, as in tankReadings (so a page reversed reads as the full list does).
-    page: readingQuery(db).where(where).orderBy(by(sort), by(readings.createdAt), by(sql`${readings}.rowid`))
-      .limit(sql.placeholder('limit')).offset(sql.placeholder('offset')).prepare(),
+    page: preparedValues<ReadingPageValues>(db, sql`select ${readings.id}, ${readings.takenAt}, ${readings.enteredBy}, ${author.name},
+      ${readings.ammoniaN}, ${readings.nitriteN}, ${readings.nitrateN}, ${readings.pH}, ${readings.temperatureC},
+      ${readings.salinity}, ${readings.alkalinityDkh}, ${readings.calciumMgL}, ${readings.magnesiumMgL}, ${readings.phosphateMgL},
+      ${readings.notes}, ${readings.entered}, ${readings.correctsId}, ${readings.correctionReason}, ${readings.createdAt}, ${readings.updatedAt},
+      ${laterReading.id}, ${laterReading.correctionReason}, ${laterReading.createdAt}, ${corrector.name}
+      from ${readings} ${readingTrail} where ${where} ${pageOrder(sort, dir, readings, readings.createdAt)}`),
     count: db.select({ n: count() }).from(readings).where(where).prepare(),
   }
+})
+
+const eventPageStatements = perShape((db, sort, dir, hasFrom, hasTo) => {
+  const where = rangeConditions(events.tankId, events.at, hasFrom, hasTo)
+  return {
+    page: preparedValues<EventPageValues>(db, sql`select ${events.id}, ${events.at}, ${events.kind}, ${events.amount}, ${events.group}, ${events.notes},
+      ${events.enteredBy}, ${author.name}, ${events.correctsId}, ${events.correctionReason}, ${events.createdAt}, ${events.updatedAt},
+      ${laterEvent.id}, ${laterEvent.correctionReason}, ${laterEvent.createdAt}, ${corrector.name}
+      from ${events} ${eventTrail} where ${where} ${pageOrder(sort, dir, events, events.createdAt)}`),
+    count: db.select({ n: count() }).from(events).where(where).prepare(),
+  }
+})
+
+/** The values a page's statements bind. */
+function pageValues(tankId: string, range: TimeRange, page: HistoryPage) {
+  return { tankId, from: range.from ? iso(range.from) : undefined, to: range.to ? iso(range.to) : undefined, limit: page.pageSize, offset: (page.page - 1) * page.pageSize }
 }
 
 /** Tanks whose reading count is kept per handle (the least recently counted goes first). */
@@ -241,28 +322,29 @@ export function storedReadingCount(db: Db, tankId: string): number {
 }
 
 /** One page of a tank's readings, every row with its trail, so the history shows what was replaced. */
-export function readingHistoryPage(db: Db, tankId: string, range: TimeRange, page: HistoryPage): { rows: ReadingWithTrail[], total: number } {
-  const bySort = readingPageStatements(db)
-  let shapes = bySort.get(page.sort)
-  if (!shapes) bySort.set(page.sort, shapes = new Map())
-  const shape = `${page.dir}|${Boolean(range.from)}|${Boolean(range.to)}`
-  let statements = shapes.get(shape)
-  if (!statements) {
-    statements = prepareReadingPage(db, page.sort, page.dir, Boolean(range.from), Boolean(range.to))
-    shapes.set(shape, statements)
-  }
-  const values = { tankId, from: range.from ? iso(range.from) : undefined, to: range.to ? iso(range.to) : undefined }
-  const rows = statements.page.all({ ...values, limit: page.pageSize, offset: (page.page - 1) * page.pageSize })
+export function readingHistoryPage(db: Db, tankId: string, range: TimeRange, page: HistoryPage): { rows: ReadingPageRow[], total: number } {
+  const statements = readingPageStatements(db, range, page)
+  const values = pageValues(tankId, range, page)
+  const rows = statements.page(values).map(([
+    id, takenAt, enteredBy, enteredByName, ammoniaN, nitriteN, nitrateN, pH, temperatureC, salinity, alkalinityDkh, calciumMgL, magnesiumMgL, phosphateMgL,
+    notes, entered, correctsId, correctionReason, createdAt, updatedAt, laterId, laterReason, laterAt, laterByName,
+  ]): ReadingPageRow => ({
+    id, takenAt, enteredBy, ammoniaN, nitriteN, nitrateN, pH, temperatureC, salinity, alkalinityDkh, calciumMgL, magnesiumMgL, phosphateMgL,
+    notes, entered, correctsId, correctionReason, createdAt, updatedAt, enteredByName, replacedBy: replacementOf(laterId, laterReason, laterAt, laterByName),
+  }))
   const total = range.from || range.to ? statements.count.get(values)?.n ?? 0 : storedReadingCount(db, tankId)
-  return { rows: rows.map(r => withTrail(r.row, r.enteredByName, r.later, r.byName)), total }
+  return { rows, total }
 }
 
 /** One page of a tank's events, every row with its trail. */
-export function eventHistoryPage(db: Db, tankId: string, range: TimeRange, page: HistoryPage): { rows: EventWithTrail[], total: number } {
-  const where = eventFilter(tankId, range, 'all')
-  const by = page.dir === 'asc' ? asc : desc
-  // Ties in the sort column fall in entry order, as in tankEvents.
-  const rows = eventQuery(db).where(where).orderBy(by(page.sort), by(events.createdAt), by(sql`${events}.rowid`))
-    .limit(page.pageSize).offset((page.page - 1) * page.pageSize).all()
-  return { rows: rows.map(r => withTrail(r.row, r.enteredByName, r.later, r.byName)), total: countOf(db, events, where) }
+export function eventHistoryPage(db: Db, tankId: string, range: TimeRange, page: HistoryPage): { rows: EventPageRow[], total: number } {
+  const statements = eventPageStatements(db, range, page)
+  const values = pageValues(tankId, range, page)
+  const rows = statements.page(values).map(([
+    id, at, kind, amount, group, notes, enteredBy, enteredByName, correctsId, correctionReason, createdAt, updatedAt, laterId, laterReason, laterAt, laterByName,
+  ]): EventPageRow => ({
+    id, at, kind, amount, group, notes, enteredBy, correctsId, correctionReason, createdAt, updatedAt, enteredByName,
+    replacedBy: replacementOf(laterId, laterReason, laterAt, laterByName),
+  }))
+  return { rows, total: statements.count.get(values)?.n ?? 0 }
 }
