@@ -10,7 +10,7 @@ import { latestValues, readingsBetween, updatedLatest, type Latest } from './sna
 import { parseTime, timeReaderFor, type TimeReader } from './time'
 import type { CycleEvent, CycleInput, CycleReading, CycleTank, Thresholds } from './types'
 import { MEASURED_FIELDS, type MeasuredField } from '../vocabulary'
-import { ReadingRows } from './reading-rows'
+import { EventRows, ReadingRows } from './reading-rows'
 import { BeyondWindow, windowStart, type HistoryWindow } from './window'
 
 /** A reading with its parsed time; only values the engine can trust are kept. */
@@ -241,7 +241,7 @@ export function prepareHistory(readings: Iterable<CycleReading>, events: readonl
   kept.sort(compareReadings)
   return {
     readings: kept,
-    events: timedEventsOf(events),
+    events: timedEventsOf(events, true),
     ignoredReadingIds: ignored.sort(compareStrings),
     repaired: repaired.sort(byId),
     latest: latestValues(kept),
@@ -249,13 +249,19 @@ export function prepareHistory(readings: Iterable<CycleReading>, events: readonl
   }
 }
 
-/** The events whose time parses, with it, in history order. */
-export function timedEventsOf(events: readonly CycleEvent[] | undefined): TimedEvent[] {
+/**
+ * The events whose time parses, with it, in history order: as plain objects (a history copied
+ * whole, history-stream.ts), or `held` in rows of numbers (a prepared history, see reading-rows.ts).
+ */
+export function timedEventsOf(events: readonly CycleEvent[] | undefined, held = false): TimedEvent[] {
   const timed: TimedEvent[] = []
   const readTime = timeReaderFor(events?.length ?? 0)
+  const rows = held ? new EventRows(events?.length ?? 0) : undefined
   for (const event of events ?? []) {
     const t = readTime(event.at)
-    if (Number.isFinite(t)) timed.push({ event, t, entered: enteredTime(event.enteredAt, readTime) })
+    if (!Number.isFinite(t)) continue
+    const entered = enteredTime(event.enteredAt, readTime)
+    timed.push(rows ? rows.write(event, t, entered) : { event, t, entered })
   }
   return timed.sort(compareEvents)
 }

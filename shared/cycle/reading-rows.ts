@@ -1,17 +1,18 @@
 /**
- * A prepared history's tests held as numbers in Float64Arrays, a row per test (its time, its entry
- * time, then each of MEASURED_FIELDS, NaN for a value it does not carry), each read through a small
- * object that holds only its id, its array and where its row starts (`HeldReading`).
+ * A prepared history's tests and events with their numbers held in Float64Arrays, a row each (a
+ * test's row: its time, its entry time, then each of MEASURED_FIELDS, NaN for a value it does not
+ * carry; an event's: its two times), each read through one small object that holds only its id
+ * (or event), its array and where its row starts (`HeldReading`, `HeldEvent`).
  *
  * Why: a test as a plain object held each of its numbers boxed, one heap object apiece (Node 20
- * has no pointer compression and boxes every double field), about ten objects and 290 bytes a
- * test. Every minor collection during an evaluation copied all of them, so its cost grew with the
- * length of the history, and ten years of them outgrew a core's cache. The arrays live outside
- * the collected heap; what is left to copy is one small object a test.
+ * has no pointer compression and boxes every double field), about ten objects and 260 bytes a
+ * test, and an event three. Every minor collection during an evaluation copied all of them, so its
+ * cost grew with the length of the history, and ten years of them outgrew a core's cache. The
+ * arrays live outside the collected heap; what is left to copy is one small object a test.
  */
 import { MEASURED_FIELDS } from '../vocabulary'
-import type { CycleReading } from './types'
-import type { TimedReading } from './history'
+import type { CycleEvent, CycleReading } from './types'
+import type { TimedEvent, TimedReading } from './history'
 
 const TIME = 0
 const ENTERED = 1
@@ -135,5 +136,44 @@ class HeldReading implements TimedReading {
   get phosphateMgL(): number | undefined {
     const value = this.numbers[this.start + 11]!
     return value === value ? value : undefined
+  }
+}
+
+/** Numbers in an event's row: its time and its entry time. */
+const EVENT_ROW = 2
+
+/**
+ * A prepared history's events, their times held as rows of one Float64Array (their number is
+ * known), each read through one object (`HeldEvent`): three objects an event (the event, its
+ * time and its entry time boxed) become one.
+ */
+export class EventRows {
+  private readonly numbers: Float64Array
+  private next = 0
+
+  constructor(count: number) {
+    this.numbers = new Float64Array(Math.max(1, count) * EVENT_ROW)
+  }
+
+  /** The event held with its times `t` and `entered`. */
+  write(event: CycleEvent, t: number, entered: number): TimedEvent {
+    const start = this.next
+    this.numbers[start + TIME] = t
+    this.numbers[start + ENTERED] = entered
+    this.next = start + EVENT_ROW
+    return new HeldEvent(this.numbers, start, event)
+  }
+}
+
+/** An event held in a row (see `EventRows`), read as a plain `TimedEvent` is. */
+class HeldEvent implements TimedEvent {
+  constructor(private readonly numbers: Float64Array, private readonly start: number, readonly event: CycleEvent) {}
+
+  get t(): number {
+    return this.numbers[this.start + TIME]!
+  }
+
+  get entered(): number {
+    return this.numbers[this.start + ENTERED]!
   }
 }
