@@ -10,6 +10,7 @@ import { latestValues, readingsBetween, updatedLatest, type Latest } from './sna
 import { parseTime, timeReaderFor, type TimeReader } from './time'
 import type { CycleEvent, CycleInput, CycleReading, CycleTank, Thresholds } from './types'
 import { MEASURED_FIELDS, type MeasuredField } from '../vocabulary'
+import { EventRows, ReadingRows } from './reading-rows'
 import { BeyondWindow, windowStart, type HistoryWindow } from './window'
 
 /** A reading with its parsed time; only values the engine can trust are kept. */
@@ -97,7 +98,11 @@ function enteredTime(iso: string | undefined, readTime: TimeReader): number {
   return Number.isFinite(ms) ? ms : Number.NEGATIVE_INFINITY
 }
 
-/** A raw reading as the history holds it: its time read, each value checked (see `repaired`) and set at limit precision. */
+/**
+ * A raw reading as the history holds it: its time read, each value checked (see `repaired`) and set
+ * at limit precision. A plain object, for a history that is copied whole (history-stream.ts);
+ * `heldReading` is the same test held in a row of a prepared history's numbers.
+ */
 export function sanitize(raw: CycleReading, t: number, readTime: TimeReader = parseTime): { reading: TimedReading, repaired: boolean } {
   // The values go straight into the reading (the same keys in the same order as a spread of them
   // would give): a long history made a second object per test for the collector.
@@ -106,10 +111,22 @@ export function sanitize(raw: CycleReading, t: number, readTime: TimeReader = pa
   for (const key of MEASURED_FIELDS) {
     const value = raw[key]
     if (value === undefined || value === null) continue
-    if (acceptable(key, value)) reading[key] = atLimitPrecision(value)
-    else repaired = true
+    const held = keptValue(key, value)
+    if (Number.isNaN(held)) repaired = true
+    else reading[key] = held
   }
   return { reading, repaired }
+}
+
+/** A value as the history keeps it (at limit precision), or NaN when it is not one the engine can trust. */
+function keptValue(key: MeasuredField, value: number): number {
+  return acceptable(key, value) ? atLimitPrecision(value) : Number.NaN
+}
+
+/** `sanitize`, the test held in a row of `rows` (see reading-rows.ts). */
+export function heldReading(rows: ReadingRows, raw: CycleReading, t: number, readTime: TimeReader = parseTime): { reading: TimedReading, repaired: boolean } {
+  const reading = rows.write(raw, t, enteredTime(raw.enteredAt, readTime), keptValue)
+  return { reading, repaired: rows.lostValue }
 }
 
 /**
@@ -208,13 +225,14 @@ export function prepareHistory(readings: Iterable<CycleReading>, events: readonl
   const repaired: { id: string, t: number }[] = []
   const nitrogen: NitrogenTest[] = []
   const readTime = timeReaderFor(count)
+  const rows = new ReadingRows(count)
   for (const raw of readings) {
     const t = readTime(raw.takenAt)
     if (!Number.isFinite(t)) {
       ignored.push(raw.id)
       continue
     }
-    const result = sanitize(raw, t, readTime)
+    const result = heldReading(rows, raw, t, readTime)
     kept.push(result.reading)
     if (result.repaired) repaired.push({ id: raw.id, t })
     const test = nitrogenTest(raw, result.reading)
@@ -223,7 +241,7 @@ export function prepareHistory(readings: Iterable<CycleReading>, events: readonl
   kept.sort(compareReadings)
   return {
     readings: kept,
-    events: timedEventsOf(events),
+    events: timedEventsOf(events, true),
     ignoredReadingIds: ignored.sort(compareStrings),
     repaired: repaired.sort(byId),
     latest: latestValues(kept),
@@ -231,13 +249,19 @@ export function prepareHistory(readings: Iterable<CycleReading>, events: readonl
   }
 }
 
-/** The events whose time parses, with it, in history order. */
-export function timedEventsOf(events: readonly CycleEvent[] | undefined): TimedEvent[] {
+/**
+ * The events whose time parses, with it, in history order: as plain objects (a history copied
+ * whole, history-stream.ts), or `held` in rows of numbers (a prepared history, see reading-rows.ts).
+ */
+export function timedEventsOf(events: readonly CycleEvent[] | undefined, held = false): TimedEvent[] {
   const timed: TimedEvent[] = []
   const readTime = timeReaderFor(events?.length ?? 0)
+  const rows = held ? new EventRows(events?.length ?? 0) : undefined
   for (const event of events ?? []) {
     const t = readTime(event.at)
-    if (Number.isFinite(t)) timed.push({ event, t, entered: enteredTime(event.enteredAt, readTime) })
+    if (!Number.isFinite(t)) continue
+    const entered = enteredTime(event.enteredAt, readTime)
+    timed.push(rows ? rows.write(event, t, entered) : { event, t, entered })
   }
   return timed.sort(compareEvents)
 }
@@ -294,7 +318,8 @@ export function withReadingAdded(prepared: PreparedHistory, raw: CycleReading): 
   const t = parseTime(raw.takenAt)
   if (!Number.isFinite(t)) return { ...prepared, ignoredReadingIds: inserted(prepared.ignoredReadingIds, raw.id, compareStrings) }
   if (readingsBetween(prepared.readings, t, t).some(r => r.id === raw.id)) return undefined
-  const result = sanitize(raw, t)
+  // A row of its own, so the kept history's tests stay one kind of object.
+  const result = heldReading(new ReadingRows(1), raw, t)
   const test = nitrogenTest(raw, result.reading)
   return {
     ...prepared,

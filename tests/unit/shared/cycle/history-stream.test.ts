@@ -20,6 +20,7 @@ import { CURRENT_RULE_OPTIONS, RULE_OPTIONS_2_0_0, type RuleOptions } from '../.
 import { BeyondWindow } from '../../../../shared/cycle/window'
 import type { CycleInput, CycleReading, Thresholds } from '../../../../shared/cycle/types'
 import { caseArb, withOdd } from './history-cases'
+import { plainReading } from './plain-history'
 import { at, TankLog } from './tank-log'
 
 const RUNS = { seed: 20261203, numRuns: 400 }
@@ -62,7 +63,7 @@ describe('a streamed history held in its window gives the full evaluation, or sa
       expect(streamed).toBeDefined()
       // What it holds: the whole history's tests from the window's start on, no others.
       const startMs = Date.parse(now) - windowDays * DAY_MS
-      expect(streamed!.history.readings).toEqual(buildHistory(input.readings, input.events ?? [], Date.parse(now)).readings.filter(r => r.t >= startMs))
+      expect(streamed!.history.readings.map(plainReading)).toEqual(buildHistory(input.readings, input.events ?? [], Date.parse(now)).readings.filter(r => r.t >= startMs).map(plainReading))
       const full = evaluateCycle(input, c.options)
       const verdict = unlessBeyond(() => evaluatePrepared(streamed!, c.options))
       if (verdict === undefined) return

@@ -23,6 +23,7 @@ import { forecastCycle } from '../../../../../shared/cycle/forecast'
 import { cycleInputFor, evaluateTankNow } from '../../../../../server/db/verdicts'
 import { tankDataRevisionInDb } from '../../../../../server/domain/readings/data-revision'
 import { keptHistory, noteTestAppended, readKeptHistory } from '../../../../../server/domain/readings/engine-input-cache'
+import { plainPrepared } from '../../../shared/cycle/plain-history'
 
 const dir = mkdtempSync(join(tmpdir(), 'tidewright-engine-input-cache-'))
 const dbPath = join(dir, 'engine-input-cache.sqlite')
@@ -145,14 +146,14 @@ describe('the engine input kept between refreshes', () => {
         const full = readKeptHistory(db, tankId, 0)
         // The same objects as before the save: the copy was extended in place, not read again.
         if (s.kind === 'save' && !s.rollBack && before.length > 0 && kept.history.readings.includes(before[0]!)) appendedInPlace++
-        expect(kept.history).toEqual(full.history)
+        expect(plainPrepared(kept.history)).toEqual(plainPrepared(full.history))
         expect(kept.tests).toBe(full.tests)
         const input = cycleInputFor(db, tankId, now)!
         const verdict = evaluateCycle(input)
         expect(evaluateTankNow(db, tankId, now)).toEqual({ verdict, forecast: forecastCycle(input, verdict) })
         const pool = keptHistory(other, tankId)
         if (s.kind === 'save' && !s.rollBack && poolBefore.length > 0 && pool.history.readings.includes(poolBefore[0]!)) appendedInPool++
-        expect(pool.history).toEqual(full.history)
+        expect(plainPrepared(pool.history)).toEqual(plainPrepared(full.history))
         expect(evaluateTankNow(other, tankId, now)).toEqual({ verdict, forecast: forecastCycle(input, verdict) })
       }
     }), { numRuns: 60, seed: 20261203 })
@@ -171,7 +172,7 @@ describe('the engine input kept between refreshes', () => {
     expect(after.history.readings.length).toBe(before.history.readings.length + 1)
     // The same objects for every older test: the copy was extended, not read again.
     expect(after.history.readings.filter(r => before.history.readings.includes(r)).length).toBe(before.history.readings.length)
-    expect(after.history).toEqual(readKeptHistory(db, tankId, 0).history)
+    expect(plainPrepared(after.history)).toEqual(plainPrepared(readKeptHistory(db, tankId, 0).history))
   })
 
   it('keeps a copy read after a test when told of that test late, as saves that overtook each other reach the pool', () => {
@@ -184,7 +185,7 @@ describe('the engine input kept between refreshes', () => {
     noteTestAppended(other, tankId, structuredClone(first.row), first.revisionAfterInsert)
     noteTestAppended(other, tankId, structuredClone(second.row), second.revisionAfterInsert)
     expect(keptHistory(other, tankId)).toBe(read)
-    expect(read.history).toEqual(readKeptHistory(other, tankId, 0).history)
+    expect(plainPrepared(read.history)).toEqual(plainPrepared(readKeptHistory(other, tankId, 0).history))
   })
 
   it('drops a copy labelled with the count read before a test it holds, when told of that test', () => {
@@ -198,7 +199,7 @@ describe('the engine input kept between refreshes', () => {
     expect(read.revision).toBe(countBefore)
     expect(read.history.readings.filter(r => r.id === saved.row.id)).toHaveLength(1)
     noteTestAppended(other, tankId, structuredClone(saved.row), saved.revisionAfterInsert)
-    expect(keptHistory(other, tankId).history).toEqual(readKeptHistory(other, tankId, 0).history)
+    expect(plainPrepared(keptHistory(other, tankId).history)).toEqual(plainPrepared(readKeptHistory(other, tankId, 0).history))
   })
 
   it('reads again after a write on another connection', () => {
@@ -208,6 +209,6 @@ describe('the engine input kept between refreshes', () => {
     const after = keptHistory(db, tankId)
     expect(after.revision).toBe(before.revision + 1)
     expect(after.tests).toBe(before.tests + 1)
-    expect(after.history).toEqual(readKeptHistory(db, tankId, 0).history)
+    expect(plainPrepared(after.history)).toEqual(plainPrepared(readKeptHistory(db, tankId, 0).history))
   })
 })
