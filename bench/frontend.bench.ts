@@ -121,7 +121,10 @@ export async function runFrontendBench(bench: BenchServer): Promise<Row[]> {
     // Once more on a desktop for the code shipped with the charts shown; then the first chart
     // timed over CHART_LOADS loads of their own (nothing else asked of the page while it loads).
     const bytesPage = await freshPage(browser, bench, session)
-    const withCharts = await shipped(bytesPage, () => goStraightToCharts(bytesPage, tankPath))
+    const withCharts = await shipped(bytesPage, async () => {
+      await goStraightToCharts(bytesPage, tankPath)
+      await bytesPage.locator('canvas').first().waitFor({ timeout: 15_000 })
+    })
     rows.push({ area: 'Front end', name: `tank page: JS shipped with the charts shown (${withCharts.files} files)`, value: withCharts.js / 1024, unit: 'kB gzip' })
     await bytesPage.context().close()
 
