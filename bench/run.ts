@@ -3,8 +3,8 @@
  * the reference it is compared with, measured in the same run on this machine, and the
  * ratio. Nothing here asserts a time; the table is for people (and README's figures).
  * Loopback only. BENCH_SECONDS (default 4) sets the length of each API case;
- * BENCH_ONLY=api,bulk,isolation,engine,frontend,backtest runs a subset (frontend includes Lighthouse's
- * mobile performance figures for three pages, lighthouse runs those alone, LIGHTHOUSE_RUNS each; backtest: the completion
+ * BENCH_ONLY=api,bulk,isolation,engine,frontend,backtest runs a subset (frontend: the first chart over FIRST_CHART_LOADS
+ * desktop loads, and Lighthouse's mobile performance figures for three pages, lighthouse runs those alone, LIGHTHOUSE_RUNS each; backtest: the completion
  * forecast's hit rate and median error, the same figures as npm run backtest). Opt-in only, never in
  * the default run: signoff (another company's reads while a 100,000-test tank is signed off again
  * and again, sign-off.bench.ts; BENCH_SIGNOFF_CYCLES, default 3).
