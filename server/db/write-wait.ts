@@ -35,8 +35,8 @@ export class WriteWaitExceeded extends Error {
 }
 
 interface LockStatements {
-  noWait: Database.Statement
-  wait: Database.Statement
+  /** The connection's own busy timeout in ms, put back after each try. */
+  timeoutMs: number
   begin: Database.Statement
   commit: Database.Statement
   rollback: Database.Statement
@@ -47,11 +47,8 @@ const statementsPerConnection = new WeakMap<Database.Database, LockStatements>()
 function lockStatements(sqlite: Database.Database): LockStatements {
   let statements = statementsPerConnection.get(sqlite)
   if (!statements) {
-    // The connection's own busy timeout, put back after each try.
-    const timeout = Number(sqlite.pragma('busy_timeout', { simple: true }))
     statements = {
-      noWait: sqlite.prepare('PRAGMA busy_timeout = 0'),
-      wait: sqlite.prepare(`PRAGMA busy_timeout = ${timeout}`),
+      timeoutMs: Number(sqlite.pragma('busy_timeout', { simple: true })),
       begin: sqlite.prepare('BEGIN IMMEDIATE'),
       commit: sqlite.prepare('COMMIT'),
       rollback: sqlite.prepare('ROLLBACK'),
@@ -68,7 +65,8 @@ function isBusy(error: unknown): boolean {
 
 /** BEGIN IMMEDIATE if no other connection holds the write lock right now; false (and no transaction) if one does. */
 function tryBegin(sqlite: Database.Database, statements: LockStatements): boolean {
-  statements.noWait.get()
+  // Through pragma(), not a statement prepared once: SQLite sets the busy timeout while preparing the PRAGMA.
+  sqlite.pragma('busy_timeout = 0')
   try {
     statements.begin.run()
     return true
@@ -78,7 +76,7 @@ function tryBegin(sqlite: Database.Database, statements: LockStatements): boolea
     throw error
   }
   finally {
-    statements.wait.get()
+    sqlite.pragma(`busy_timeout = ${statements.timeoutMs}`)
   }
 }
 
