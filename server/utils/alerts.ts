@@ -42,6 +42,6 @@ export async function runClockedJobs(now: Date) {
   const reminders = await writeTransaction(db => runTestReminders(db, now, publicBaseUrl()))
   const digests = await writeTransaction(db => runWeeklyDigest(db, now, publicBaseUrl()))
   announceNotices([...escalation.notifiedUserIds, ...reminders.notifiedUserIds])
-  runHousekeeping(useDB(), now)
+  await runHousekeeping(useDB(), now, writeTransaction)
   return { verdicts, escalated: escalation.escalated.length, reminded: reminders.reminded.length, aquaristsTold: reminders.aquaristsTold.length, digests: digests.sent.length }
 }
