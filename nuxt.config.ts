@@ -59,6 +59,9 @@ export default defineNuxtConfig({
     workerIntervalMs: 5000,
     // Stored verdicts older than this are made again, on read and by the worker (at most an hour).
     verdictIntervalMs: 900000,
+    // How long a write of the request loop waits for another connection's write lock (the pool's
+    // import) before answering 503 with Retry-After (NUXT_WRITE_WAIT_MS; the waiting never holds the loop).
+    writeWaitMs: 5000,
     public: {
       // Absolute links in e-mails and on certificates (NUXT_PUBLIC_BASE_URL); never taken from a request.
       baseUrl: 'http://localhost:3000',

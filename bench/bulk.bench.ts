@@ -193,6 +193,23 @@ async function savesMeanwhile(bench: BenchServer, cookie: string, stop: () => bo
 }
 
 /**
+ * Another company's reads of its own tank, one after another (each answer awaited), until `stop`
+ * says so, in ms each: while its saves wait for the import's write lock, a read waits only if the
+ * request loop itself is held (a save waiting on the loop's connection holds every company).
+ */
+async function readsMeanwhile(bench: BenchServer, cookie: string, stop: () => boolean, atMost = Number.POSITIVE_INFINITY): Promise<number[]> {
+  const times: number[] = []
+  for (let i = 0; !stop() && i < atMost; i++) {
+    const start = performance.now()
+    const response = await fetch(`${bench.server.baseURL}/api/tanks/${bench.fixtures.other.tankId}`, { headers: { cookie } })
+    await response.arrayBuffer()
+    if (response.status !== 200) throw new Error(`the other company's read answered ${response.status}`)
+    times.push(performance.now() - start)
+  }
+  return times.sort((a, b) => a - b)
+}
+
+/**
  * Tests saved one after another on the tank the import filled (100,000 tests), as a client goes
  * on testing after the history is in, in ms each: the first save after the import finds no kept
  * copy of the history on the request loop's connection. Taken a minute apart just before now
@@ -234,15 +251,24 @@ export async function runBulkBench(bench: BenchServer): Promise<Row[]> {
   // saves' load does not weigh on the timings above.
   const otherCookie = await signInCookie(bench.server.baseURL, OTHER_AQUARIST_EMAIL)
   const idleSaves = await savesMeanwhile(bench, otherCookie, () => false, 50)
+  // Reads beside saves, idle: the same pair as during the import below.
+  let idleSaving = true
+  const savesBesideIdleReads = savesMeanwhile(bench, otherCookie, () => !idleSaving)
+  const idleReads = await readsMeanwhile(bench, otherCookie, () => false, 100).finally(() => {
+    idleSaving = false
+  })
+  await savesBesideIdleReads
   const probedTankId = await bulkTank(bench, cookie, 'Probed import reef')
   let importing = true
   const loadedSaves = savesMeanwhile(bench, otherCookie, () => !importing)
+  const loadedReads = readsMeanwhile(bench, otherCookie, () => !importing)
   // Also a second import of the whole file beside the first: once the import's memory has grown to
   // its bounds (page caches, V8's young generation), another file of the same length adds nothing.
   const again = await timedImport(bench, cookie, probedTankId, csv, BULK_ROWS).finally(() => {
     importing = false
   })
   const saves = await loadedSaves
+  const reads = await loadedReads
   const rps = BULK_ROWS / run.seconds
   const floorRps = BULK_ROWS / floorSeconds
   const grew = (r: ImportRun) => `${(r.rssMost - r.rssBefore).toFixed(0)} MiB (${r.rssBefore.toFixed(0)} -> ${r.rssMost.toFixed(0)})`
@@ -265,6 +291,11 @@ export async function runBulkBench(bench: BenchServer): Promise<Row[]> {
     area: 'Bulk', name: `another company's saves during the same import (in a third tank; it held the write lock ${again.lockHeldMs.toFixed(0)} ms): p50 ${quantile(saves, 0.5).toFixed(0)} ms, max ${quantile(saves, 1).toFixed(0)} ms (${saves.length} saves); idle p50 ${quantile(idleSaves, 0.5).toFixed(0)} ms`, value: quantile(saves, 0.99), unit: 'ms p99',
     reference: { name: `idle p99 (${idleSaves.length} saves)`, value: quantile(idleSaves, 0.99) },
     ratio: quantile(saves, 0.99) / quantile(idleSaves, 0.99), aim: 'no company slows another (~1x)',
+  }, {
+    // A read takes no write lock: it waits during the import only if a save waiting for the lock holds the request loop.
+    area: 'Bulk', name: `another company's reads of its tank during the same import, beside its saves: p50 ${quantile(reads, 0.5).toFixed(0)} ms, max ${quantile(reads, 1).toFixed(0)} ms (${reads.length} reads); idle, beside saves, p50 ${quantile(idleReads, 0.5).toFixed(0)} ms`, value: quantile(reads, 0.99), unit: 'ms p99',
+    reference: { name: `idle p99 (${idleReads.length} reads)`, value: quantile(idleReads, 0.99) },
+    ratio: quantile(reads, 0.99) / quantile(idleReads, 0.99), aim: 'no company slows another (~1x)',
   }, {
     // Until the first save the request loop's connection keeps no copy of the imported history.
     area: 'Bulk', name: `tests saved on the imported tank (${BULK_ROWS.toLocaleString('en')} tests) one after another: ${longTankSaves.map(ms => `${ms.toFixed(0)} ms`).join(', ')}; the first`, value: longTankSaves[0]!, unit: 'ms',

@@ -7,8 +7,8 @@ import { planTemplateStages } from '#server/db/schema'
 export default defineEventHandler(async (event): Promise<PlanTemplateView> => {
   const actor = await requireActor(event, ['admin'])
   const input = await readValidatedBody(event, valid(PlanTemplateSchema))
-  const before = companyTemplate(actor.organisationId)
-  useDB().transaction((tx) => {
+  await writeTransaction((tx) => {
+    const before = companyTemplate(actor.organisationId)
     tx.delete(planTemplateStages).where(eq(planTemplateStages.organisationId, actor.organisationId)).run()
     tx.insert(planTemplateStages).values(input.stages.map((stage, index) => ({
       organisationId: actor.organisationId, position: index + 1, key: stage.key, title: stage.title, checklist: stage.checklist,

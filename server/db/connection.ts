@@ -41,11 +41,22 @@ export function openDatabase(path: string): TidewrightDB {
 
 /**
  * Copies the write-ahead log into the database file and empties it (TRUNCATE), if no reader
- * is in the way. Returns how many pages were in the log and whether the checkpoint was blocked.
+ * or writer is in the way. Returns how many pages were in the log and whether the checkpoint was blocked.
+ * It does not wait: a TRUNCATE checkpoint waits (in SQLite's busy handler, holding the caller's
+ * thread, the request loop's in the clocked jobs) for every reader to finish, and a pool thread's
+ * import reads for seconds; a blocked checkpoint is tried again by the next round.
  */
 export function checkpointWal(db: TidewrightDB): { walPages: number, busy: boolean } {
-  const [row] = db.$client.pragma('wal_checkpoint(TRUNCATE)') as { busy: number, log: number, checkpointed: number }[]
-  return { walPages: row?.log ?? 0, busy: Boolean(row?.busy) }
+  const sqlite = db.$client
+  const timeout = sqlite.pragma('busy_timeout', { simple: true }) as number
+  sqlite.pragma('busy_timeout = 0')
+  try {
+    const [row] = sqlite.pragma('wal_checkpoint(TRUNCATE)') as { busy: number, log: number, checkpointed: number }[]
+    return { walPages: row?.log ?? 0, busy: Boolean(row?.busy) }
+  }
+  finally {
+    sqlite.pragma(`busy_timeout = ${timeout}`)
+  }
 }
 
 /** Applies every migration in drizzle/ that the file has not seen yet. */

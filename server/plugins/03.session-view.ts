@@ -19,9 +19,9 @@ export default defineNitroPlugin(() => {
     const { timeZone } = readOrganisationSettings(useDB(), user.organisationId)
     session.user = { id: user.id, name: user.name, role: user.role, organisationId: user.organisationId, units: user.units, timeZone }
   })
-  sessionHooks.hook('clear', (session, event) => {
+  sessionHooks.hook('clear', async (session, event) => {
     const token = session.secure?.sessionToken
     forgetSessionCookie(event, token)
-    if (token) endSessionByToken(useDB(), token, 'signed-out', requestNow(event))
+    if (token) await writeTransaction(db => endSessionByToken(db, token, 'signed-out', requestNow(event)))
   })
 })

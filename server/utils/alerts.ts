@@ -22,25 +22,26 @@ export function syncAlerts(tankId: string, verdict: Verdict, options: { readingI
 }
 
 /** Acknowledges an alert for the actor; null if it was not open. */
-export function acknowledgeAlert(actor: Actor, alertId: string, note: string | null, now = new Date()) {
-  const done = acknowledgeAlertInDb(useDB(), alertId, actor, note, now)
+export async function acknowledgeAlert(actor: Actor, alertId: string, note: string | null, now = new Date()) {
+  const done = await writeTransaction(db => acknowledgeAlertInDb(db, alertId, actor, note, now))
   return done?.alert ?? null
 }
 
 /** Resolves an alert by hand; null if it was already resolved. */
-export function resolveAlert(actor: Actor, alertId: string, note: string, now = new Date()) {
-  const done = resolveAlertInDb(useDB(), alertId, actor, note, now)
+export async function resolveAlert(actor: Actor, alertId: string, note: string, now = new Date()) {
+  const done = await writeTransaction(db => resolveAlertInDb(db, alertId, actor, note, now))
   return done?.alert ?? null
 }
 
 /** The clocked jobs at `now`: verdicts made again where time alone may have changed them, then escalations, test reminders and weekly digests, then database housekeeping. */
 export async function runClockedJobs(now: Date) {
   const verdicts = await refreshStaleVerdicts(now)
-  const db = useDB()
-  const escalation = escalateDueAlerts(db, now, publicBaseUrl())
-  const reminders = runTestReminders(db, now, publicBaseUrl())
-  const digests = runWeeklyDigest(db, now, publicBaseUrl())
+  // Each job in one write transaction, its lock waited for off the loop (its own per-row
+  // transactions become savepoints): an import in the pool holds up no request while they wait.
+  const escalation = await writeTransaction(db => escalateDueAlerts(db, now, publicBaseUrl()))
+  const reminders = await writeTransaction(db => runTestReminders(db, now, publicBaseUrl()))
+  const digests = await writeTransaction(db => runWeeklyDigest(db, now, publicBaseUrl()))
   announceNotices([...escalation.notifiedUserIds, ...reminders.notifiedUserIds])
-  runHousekeeping(db, now)
+  await runHousekeeping(useDB(), now, writeTransaction)
   return { verdicts, escalated: escalation.escalated.length, reminded: reminders.reminded.length, aquaristsTold: reminders.aquaristsTold.length, digests: digests.sent.length }
 }

@@ -16,12 +16,13 @@ export function writeAudit(actor: Pick<Actor, 'id' | 'organisationId'>, entry: A
 /**
  * Runs a change and writes the audit row that describes it in one transaction: both commit
  * or neither does. `describe` sees the change's result; null writes no row (nothing changed).
+ * The write lock is waited for off the request loop (`writeTransaction`).
  */
-export function auditedChange<T>(who: AuditWho, change: (db: Db) => T, describe: (result: T) => AuditEntry | null): T {
-  return useDB().transaction((tx) => {
-    const result = change(tx)
+export function auditedChange<T>(who: AuditWho, change: (db: Db) => T, describe: (result: T) => AuditEntry | null): Promise<T> {
+  return writeTransaction((db) => {
+    const result = change(db)
     const entry = describe(result)
-    if (entry) recordAudit(tx, who, entry)
+    if (entry) recordAudit(db, who, entry)
     return result
   })
 }

@@ -32,7 +32,8 @@ export async function correctReading(actor: Actor, tankId: string, readingId: st
   const db = useDB()
   const original = db.select().from(readings).where(and(eq(readings.id, readingId), eq(readings.tankId, tankId))).get()
   if (!original) throw createError({ statusCode: 404, statusMessage: 'Test not found' })
-  const later = db.select({ id: readings.id }).from(readings).where(eq(readings.correctsId, readingId)).get()
+  const correctedBy = () => db.select({ id: readings.id }).from(readings).where(eq(readings.correctsId, readingId)).get()
+  const later = correctedBy()
   if (later) alreadyCorrected('reading', later.id)
   const values: Partial<typeof readings.$inferInsert> = {}
   for (const key of READING_VALUE_KEYS) {
@@ -41,7 +42,10 @@ export async function correctReading(actor: Actor, tankId: string, readingId: st
   }
   const issues = checkCanonicalReading(original.takenAt, values as CanonicalValues, values.notes ?? null, now)
   if (issues.length) fieldError(issues)
-  const row = db.transaction(() => {
+  const row = await writeTransaction(() => {
+    // Asked again under the write lock: a correction saved while this one waited for it goes first.
+    const first = correctedBy()
+    if (first) alreadyCorrected('reading', first.id)
     const inserted = db.insert(readings).values({
       tankId,
       takenAt: original.takenAt,
@@ -64,7 +68,8 @@ export async function correctEvent(actor: Actor, tankId: string, eventId: string
   const db = useDB()
   const original = db.select().from(events).where(and(eq(events.id, eventId), eq(events.tankId, tankId))).get()
   if (!original) throw createError({ statusCode: 404, statusMessage: 'Event not found' })
-  const later = db.select({ id: events.id }).from(events).where(eq(events.correctsId, eventId)).get()
+  const correctedBy = () => db.select({ id: events.id }).from(events).where(eq(events.correctsId, eventId)).get()
+  const later = correctedBy()
   if (later) alreadyCorrected('event', later.id)
   // Amounts are canonical (mg/L as N, litres, a count), so the form's rules read them on that basis.
   const checked = toCanonicalEvent({
@@ -77,7 +82,10 @@ export async function correctEvent(actor: Actor, tankId: string, eventId: string
     notes: input.notes === undefined ? original.notes : input.notes,
   }, now)
   if (!checked.ok) fieldError(checked.issues)
-  const row = db.transaction(() => {
+  const row = await writeTransaction(() => {
+    // Asked again under the write lock: a correction saved while this one waited for it goes first.
+    const first = correctedBy()
+    if (first) alreadyCorrected('event', first.id)
     const inserted = db.insert(events).values({
       tankId,
       at: original.at,
@@ -109,8 +117,8 @@ export async function startStocking(actor: Actor, tank: typeof tanks.$inferSelec
   if (tank.status !== 'signed-off') throw createError({ statusCode: 409, statusMessage: tank.status === 'stocking' ? 'Stocking has already started' : 'Stocking starts after the sign-off' })
   const db = useDB()
   const first = input.livestock ? firstLivestock(input.livestock, now) : undefined
-  if (first) assertEntryUnlocked(tank.id, first.at)
-  const eventId = db.transaction(() => {
+  const eventId = await writeTransaction(() => {
+    if (first) assertEntryUnlocked(tank.id, first.at)
     const livestock = first
       ? db.insert(events).values({ tankId: tank.id, ...eventColumns(first), enteredBy: actor.id }).returning().get()
       : undefined

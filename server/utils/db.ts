@@ -1,4 +1,5 @@
 import { migrateDatabase, openDatabase, type TidewrightDB } from '#server/db/connection'
+import { whenWritable, WRITE_WAIT_MS, WriteWaitExceeded } from '#server/db/write-wait'
 
 export * as tables from '#server/db/schema'
 
@@ -13,4 +14,29 @@ export function useDB(): TidewrightDB {
 /** Applies pending migrations; called once by the migrate plugin at start. */
 export function migrateDB(): void {
   migrateDatabase(useDB(), useRuntimeConfig().migrationsDir)
+}
+
+/** How long a write waits for the lock (runtime config `writeWaitMs`, NUXT_WRITE_WAIT_MS). */
+function writeWaitMs(): number {
+  const configured = Number(useRuntimeConfig().writeWaitMs)
+  return Number.isFinite(configured) && configured >= 0 ? configured : WRITE_WAIT_MS
+}
+
+/**
+ * The one way the request loop writes: `work` (synchronous; its writes, reads and nested
+ * `db.transaction`s) runs in one write transaction once no other connection holds SQLite's
+ * write lock, waited for without holding the loop (server/db/write-wait.ts), so every other
+ * request goes on being served meanwhile. Past the bound: 503, nothing written (Retry-After is
+ * added by server/plugins/04.write-wait-retry.ts).
+ */
+export async function writeTransaction<T>(work: (db: TidewrightDB) => T): Promise<T> {
+  const db = useDB()
+  try {
+    return await whenWritable(db, () => work(db), writeWaitMs())
+  }
+  catch (error) {
+    if (!(error instanceof WriteWaitExceeded)) throw error
+    const message = 'Tidewright is busy saving other work; nothing was saved. Try again in a moment.'
+    throw createError({ statusCode: 503, statusMessage: message, message, cause: error })
+  }
 }

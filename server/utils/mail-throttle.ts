@@ -22,19 +22,19 @@ function limits() {
 }
 
 /** Whether a reset mail to this address may be sent now (per address and per requesting network). */
-export function mayMailReset(event: H3Event, email: string): boolean {
+export async function mayMailReset(event: H3Event, email: string): Promise<boolean> {
   const l = limits()
-  return reserveAttempt(useDB(), [
+  return (await writeTransaction(db => reserveAttempt(db, [
     { key: `reset-mail:address:${email}`, max: l.resetPerAddressPerHour, windowMs: HOUR },
     { key: `reset-mail:network:${addressGroup(clientAddress(event))}`, max: l.resetPerNetworkPerHour, windowMs: HOUR },
-  ], requestNow(event)).granted
+  ], requestNow(event)))).granted
 }
 
 /** Whether this inviting account may send another invitation now; 429 when it has sent too many. */
-export function requireInvitationAllowance(event: H3Event, inviterId: string): void {
-  const reservation = reserveAttempt(useDB(), [
+export async function requireInvitationAllowance(event: H3Event, inviterId: string): Promise<void> {
+  const reservation = await writeTransaction(db => reserveAttempt(db, [
     { key: `invite-mail:account:${inviterId}`, max: limits().invitePerAccountPerHour, windowMs: HOUR },
-  ], requestNow(event))
+  ], requestNow(event)))
   if (!reservation.granted) {
     setResponseHeader(event, 'Retry-After', reservation.retryAfterSeconds)
     throw createError({ statusCode: 429, statusMessage: 'You have sent many invitations in the last hour. Try again later.' })
@@ -42,8 +42,8 @@ export function requireInvitationAllowance(event: H3Event, inviterId: string): v
 }
 
 /** Whether another invitation-related mail may go to this address today. */
-export function mayMailInvitee(event: H3Event, email: string): boolean {
-  return reserveAttempt(useDB(), [
+export async function mayMailInvitee(event: H3Event, email: string): Promise<boolean> {
+  return (await writeTransaction(db => reserveAttempt(db, [
     { key: `invite-mail:address:${email}`, max: limits().invitePerAddressPerDay, windowMs: DAY },
-  ], requestNow(event)).granted
+  ], requestNow(event)))).granted
 }

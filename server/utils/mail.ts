@@ -49,9 +49,8 @@ async function deliverLoop(now: Date, limit: number): Promise<DeliveryResult> {
   const mailer = transport()
   if (!mailer) return result
   const from = smtpSettings().from
-  const db = useDB()
   for (let i = 0; i < limit; i++) {
-    const row = claimNextMail(db, now)
+    const row = await writeTransaction(tx => claimNextMail(tx, now))
     if (!row) break
     try {
       await mailer.sendMail({
@@ -63,11 +62,11 @@ async function deliverLoop(now: Date, limit: number): Promise<DeliveryResult> {
         messageId: row.messageId,
         headers: { 'X-Tidewright-Kind': row.kind },
       })
-      markMailSent(db, row.id)
+      await writeTransaction(tx => markMailSent(tx, row.id))
       result.sent++
     }
     catch (error) {
-      markMailFailed(db, row, error instanceof Error ? error.message : String(error), new Date(Math.max(now.getTime(), Date.now())))
+      await writeTransaction(tx => markMailFailed(tx, row, error instanceof Error ? error.message : String(error), new Date(Math.max(now.getTime(), Date.now()))))
       result.failed++
       // The server is likely down: stop this round and let the back-off space the retries.
       break

@@ -5,7 +5,7 @@
  */
 import type { H3Event } from 'h3'
 import { accountUsable, personWithClientArchive } from '#server/domain/people/people'
-import { checkSession, startSession, type SessionLifetimes } from '#server/domain/sessions/sessions'
+import { checkSession, sessionCheckWrites, startSession, type SessionLifetimes } from '#server/domain/sessions/sessions'
 import { UnsealedCookies } from '#server/domain/sessions/unsealed-cookies'
 import type { users } from '#server/db/schema'
 
@@ -24,13 +24,13 @@ export function clientAddress(event: H3Event): string | null {
 
 /** Opens a server-side session for the user and seals its token into the cookie (replacing any older one). */
 export async function signInAs(event: H3Event, user: Pick<UserRow, 'id'>): Promise<void> {
-  const { token } = startSession(useDB(), {
+  const { token } = await writeTransaction(db => startSession(db, {
     userId: user.id,
     now: requestNow(event),
     lifetimes: sessionLifetimes(),
     userAgent: getHeader(event, 'user-agent'),
     address: clientAddress(event),
-  })
+  }))
   await replaceUserSession(event, { secure: { sessionToken: token } })
 }
 
@@ -100,7 +100,12 @@ export async function resolveSignedIn(event: H3Event): Promise<SignedIn | null> 
   const token = await sessionTokenOf(event)
   if (!token) return null
   const db = useDB()
-  const check = checkSession(db, token, requestNow(event), sessionLifetimes())
+  const now = requestNow(event)
+  const lifetimes = sessionLifetimes()
+  // Most checks only read; one that ends or touches the session waits for the write lock off the loop.
+  const check = sessionCheckWrites(db, token, now, lifetimes)
+    ? await writeTransaction(tx => checkSession(tx, token, now, lifetimes))
+    : checkSession(db, token, now, lifetimes)
   if (!check.live) {
     forgetSessionCookie(event, token)
     return null

@@ -20,7 +20,7 @@ export async function setPasswordWithToken(event: H3Event, purpose: TokenPurpose
   if (problem) fieldError([{ field: 'password', message: problem }])
   const passwordHash = await hashPassword(password)
   const db = useDB()
-  const userId = db.transaction((t) => {
+  const userId = await writeTransaction((t) => {
     const id = consumeToken(t, token, purpose, now)
     if (id) {
       t.update(users).set({ passwordHash }).where(eq(users.id, id)).run()
@@ -33,7 +33,7 @@ export async function setPasswordWithToken(event: H3Event, purpose: TokenPurpose
   })
   if (!userId) throw createError({ statusCode: 410, statusMessage: GONE })
   const user = db.select().from(users).where(eq(users.id, userId)).get()!
-  clearSignInFailures(user.email)
+  await clearSignInFailures(user.email)
   await signInAs(event, user)
   return { user: { id: user.id, name: user.name, role: user.role } }
 }

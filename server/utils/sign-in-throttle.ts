@@ -30,8 +30,8 @@ function accountKey(email: string): string {
 }
 
 /** Reserves this attempt, or refuses it when the account or the network has used up its attempts. */
-export function reserveSignIn(event: H3Event, email: string): SignInAttempt {
-  const reservation = reserveAttempt(useDB(), limitsFor(email, clientAddress(event)), requestNow(event))
+export async function reserveSignIn(event: H3Event, email: string): Promise<SignInAttempt> {
+  const reservation = await writeTransaction(db => reserveAttempt(db, limitsFor(email, clientAddress(event)), requestNow(event)))
   if (!reservation.granted) return { refused: true, retryAfterSeconds: reservation.retryAfterSeconds }
   const [accountAttempts = 0, networkAttempts = 0] = reservation.counts
   // A network trying many accounts is slowed more gently than one account guessed at.
@@ -41,13 +41,14 @@ export function reserveSignIn(event: H3Event, email: string): SignInAttempt {
 }
 
 /** A successful sign-in: its own attempt does not count, and the account's earlier failures are forgotten. */
-export function signInSucceeded(email: string, attempt: { markIds: number[] }): void {
-  const db = useDB()
-  releaseAttempt(db, attempt.markIds)
-  clearAttempts(db, accountKey(email))
+export async function signInSucceeded(email: string, attempt: { markIds: number[] }): Promise<void> {
+  await writeTransaction((db) => {
+    releaseAttempt(db, attempt.markIds)
+    clearAttempts(db, accountKey(email))
+  })
 }
 
 /** A password was set with an e-mailed link: the account's failed sign-ins no longer count. */
-export function clearSignInFailures(email: string): void {
-  clearAttempts(useDB(), accountKey(email))
+export async function clearSignInFailures(email: string): Promise<void> {
+  await writeTransaction(db => clearAttempts(db, accountKey(email)))
 }

@@ -92,7 +92,8 @@ function onEvaluatedTank<T, E extends SignOffVerdict>(actor: Actor, tankId: stri
   return signOffAnswerLater(() => onCurrentEvaluation({
     check: () => check(requireVisibleTank(actor, tankId)),
     evaluate: () => evaluate(tankId, new Date()),
-    command: evaluation => command(requireVisibleTank(actor, tankId), evaluation),
+    // Under the write lock, waited for off the loop: the tank is read again and the command runs in one step.
+    command: evaluation => writeTransaction(() => command(requireVisibleTank(actor, tankId), evaluation)),
   }))
 }
 
@@ -125,8 +126,8 @@ export function decideSignOff(actor: Actor, tank: TankRow, decision: 'approve' |
 }
 
 /** Reopens the current approved sign-off with a reason. */
-export function reopenSignOff(actor: Actor, tank: TankRow, reason: string, now = new Date()): SignOffRow {
-  return signOffAnswer(() => reopenInDb(useDB(), actor, tank, reason, now))
+export function reopenSignOff(actor: Actor, tank: TankRow, reason: string, now = new Date()): Promise<SignOffRow> {
+  return signOffAnswerLater(() => writeTransaction(db => reopenInDb(db, actor, tank, reason, now)))
 }
 
 /** Everything the tank page needs to show and offer about sign-off. */

@@ -32,8 +32,10 @@ export async function onTankDataChanged(tankId: string, change: TankChange = {})
   const db = useDB()
   const refreshed = hasLongHistory(db, tankId)
     ? await refreshVerdictOffLoop(db, tankId, evaluateOffLoop, () => change.now ?? new Date(), change.appended)
-    : refreshVerdict(tankId, change.now)
-  followVerdict(tankId, refreshed, change)
+    // Evaluated and stored in one step under the write lock (waited for off the loop): nothing else of
+    // this loop runs between the read and the store, as before.
+    : await writeTransaction(() => refreshVerdict(tankId, change.now))
+  await writeTransaction(() => followVerdict(tankId, refreshed, change))
   return refreshed?.verdict
 }
 

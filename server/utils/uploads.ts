@@ -94,7 +94,7 @@ export async function storeUpload(actor: Actor, target: UploadTarget, file: Rece
   if (thumbnail && thumbnailKey) await storage.setItemRaw(thumbnailKey, thumbnail)
   // The row and its audit line commit together.
   try {
-    return insertUploadRow(actor, target, file, { id, storageKey, thumbnailKey }, admit)
+    return await insertUploadRow(actor, target, file, { id, storageKey, thumbnailKey }, admit)
   }
   catch (error) {
     await storage.removeItem(storageKey)
@@ -105,7 +105,7 @@ export async function storeUpload(actor: Actor, target: UploadTarget, file: Rece
 
 function insertUploadRow(actor: Actor, target: UploadTarget, file: ReceivedFile, keys: { id: string, storageKey: string, thumbnailKey: string | null }, admit?: (db: Db) => void) {
   const { id, storageKey, thumbnailKey } = keys
-  return useDB().transaction((tx) => {
+  return writeTransaction((tx) => {
     admit?.(tx)
     const row = tx.insert(uploads).values({
       id,
@@ -122,7 +122,7 @@ function insertUploadRow(actor: Actor, target: UploadTarget, file: ReceivedFile,
     }).returning().get()
     writeAudit(actor, { action: 'upload.create', entity: 'upload', entityId: row.id, after: { tankId: row.tankId, stageId: row.stageId, readingId: row.readingId, mimeType: row.mimeType, sizeBytes: row.sizeBytes, originalName: row.originalName } })
     return row
-  }, { behavior: 'immediate' })
+  })
 }
 
 /** Sends stored bytes with headers that keep the browser from guessing or caching them publicly. */

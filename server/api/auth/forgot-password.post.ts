@@ -9,12 +9,12 @@ const ANSWER = 'If that address has a Tidewright account, we have sent it a link
 export default defineEventHandler(async (event) => {
   const { email } = await readValidatedBody(event, valid(ForgotPasswordSchema))
   // Counted before the address is looked up: a refused request answers like any other.
-  if (!mayMailReset(event, email)) return { message: ANSWER }
+  if (!await mayMailReset(event, email)) return { message: ANSWER }
   const now = requestNow(event)
   const db = useDB()
   const user = db.select().from(users).where(eq(users.email, email)).get()
   if (user?.active) {
-    db.transaction((t) => {
+    await writeTransaction((t) => {
       queuePasswordReset(t, user, now)
       recordAudit(t, { id: user.id, organisationId: user.organisationId }, { action: 'user.reset-requested', entity: 'user', entityId: user.id })
     })

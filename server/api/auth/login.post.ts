@@ -12,7 +12,7 @@ export default defineEventHandler(async (event) => {
   const { email, password } = await readValidatedBody(event, valid(LoginSchema))
 
   // Reserved before the (slow) password check: guesses sent together are counted first.
-  const attempt = reserveSignIn(event, email)
+  const attempt = await reserveSignIn(event, email)
   if (attempt.refused) {
     setResponseHeader(event, 'Retry-After', attempt.retryAfterSeconds)
     throw createError({ statusCode: 429, statusMessage: 'Too many failed sign-ins. Try again later or reset your password.' })
@@ -26,7 +26,7 @@ export default defineEventHandler(async (event) => {
     : (await verifyPassword(await decoyHash, password), false)
   if (!user || !ok) throw createError({ statusCode: 401, statusMessage: WRONG })
 
-  signInSucceeded(email, attempt)
+  await signInSucceeded(email, attempt)
   await signInAs(event, user)
   return { user: { id: user.id, name: user.name, role: user.role } }
 })

@@ -17,7 +17,7 @@ export default defineEventHandler(async (event) => {
   if (input.phone !== undefined) changes.phone = input.phone || null
   if (input.notes !== undefined) changes.notes = input.notes || null
   if (Object.keys(changes).length) {
-    auditedChange(actor,
+    await auditedChange(actor,
       db => db.update(clients).set(changes).where(eq(clients.id, id)).returning().get(),
       after => ({ action: 'client.update', entity: 'client', entityId: id, before, after }))
   }

@@ -5,8 +5,8 @@ import { clients } from '#server/db/schema'
 export default defineEventHandler(async (event) => {
   const actor = await requireActor(event, ['admin', 'aquarist'])
   const input = await readValidatedBody(event, valid(ClientCreateSchema))
-  const row = useDB().transaction(() => {
-    const created = useDB().insert(clients).values({
+  const row = await writeTransaction((db) => {
+    const created = db.insert(clients).values({
       organisationId: actor.organisationId,
       name: input.name,
       email: input.email || null,

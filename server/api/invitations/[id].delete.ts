@@ -5,7 +5,7 @@ import { withdrawInvitation } from '#server/domain/people/invitations'
 export default defineEventHandler(async (event) => {
   const actor = await requireActor(event, ['admin', 'aquarist'])
   const { id } = await getValidatedRouterParams(event, valid(IdParams))
-  const result = withdrawInvitation(useDB(), actor, id)
+  const result = await writeTransaction(db => withdrawInvitation(db, actor, id))
   if (!result.ok) throw createError({ statusCode: result.status, statusMessage: result.message })
   return { withdrawn: result.person.id }
 })

@@ -21,7 +21,7 @@ export default defineEventHandler(async (event) => {
     const client = db.select({ id: clients.id }).from(clients).where(and(eq(clients.id, input.clientId!), eq(clients.organisationId, actor.organisationId))).get()
     if (!client) throw createError({ statusCode: 404, statusMessage: 'Client not found' })
   }
-  requireInvitationAllowance(event, actor.id)
+  await requireInvitationAllowance(event, actor.id)
   const now = requestNow(event)
   const company = db.select({ name: organisations.name }).from(organisations).where(eq(organisations.id, actor.organisationId)).get()?.name ?? 'your company'
   const answer = { user: { email: input.email, name: input.name, role: input.role } }
@@ -30,8 +30,8 @@ export default defineEventHandler(async (event) => {
   // owner is told by mail instead, so the answer reveals nothing about who uses Tidewright.
   const existing = db.select({ id: users.id, name: users.name, organisationId: users.organisationId }).from(users).where(eq(users.email, input.email)).get()
   if (existing) {
-    if (mayMailInvitee(event, input.email)) {
-      db.transaction((tx) => {
+    if (await mayMailInvitee(event, input.email)) {
+      await writeTransaction((tx) => {
         const words = alreadyHasAccountMail(existing.name, actor.name, company, publicLink('/login'), publicLink('/forgot-password'))
         enqueueMail(tx, { organisationId: actor.organisationId, to: input.email, kind: 'invite', ...words }, now)
         writeAudit(actor, { action: 'user.invite-existing', entity: 'user', entityId: null, after: { role: input.role } })
@@ -40,8 +40,8 @@ export default defineEventHandler(async (event) => {
     }
     return answer
   }
-  if (!mayMailInvitee(event, input.email)) return answer
-  db.transaction((t) => {
+  if (!await mayMailInvitee(event, input.email)) return answer
+  await writeTransaction((t) => {
     const created = t.insert(users).values({
       organisationId: actor.organisationId, email: input.email, name: input.name, role: input.role,
       clientId: input.role === 'client' ? input.clientId! : null, passwordHash: null,

@@ -9,7 +9,7 @@ export default defineEventHandler(async (event) => {
   const db = useDB()
   const before = emailChoices(db, actor.id)
   const next = { ...before, ...emailKinds }
-  auditedChange(actor,
+  await auditedChange(actor,
     tx => tx.insert(notificationPreferences).values({ userId: actor.id, emailKinds: next })
       .onConflictDoUpdate({ target: notificationPreferences.userId, set: { emailKinds: next, updatedAt: new Date().toISOString() } }).run(),
     () => ({ action: 'preferences.update', entity: 'notification_preferences', entityId: actor.id, before, after: next }))

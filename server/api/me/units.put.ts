@@ -11,7 +11,7 @@ export default defineEventHandler(async (event) => {
   const actor = await requireActor(event)
   const { units } = await readValidatedBody(event, valid(UnitsPreferenceSchema))
   if (units !== actor.units) {
-    auditedChange(actor,
+    await auditedChange(actor,
       db => db.update(users).set({ units }).where(eq(users.id, actor.id)).run(),
       () => ({ action: 'preferences.units', entity: 'user', entityId: actor.id, before: { units: actor.units }, after: { units } }))
   }

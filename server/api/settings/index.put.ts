@@ -13,7 +13,7 @@ export default defineEventHandler(async (event): Promise<CompanySettingsSaved> =
   const actor = await requireActor(event, ['admin'])
   const input = await readValidatedBody(event, valid(CompanySettingsUpdateSchema))
   const db = useDB()
-  const result = saveCompanySettings(db, actor, input, requestNow(event))
+  const result = await writeTransaction(tx => saveCompanySettings(tx, actor, input, requestNow(event)))
   if (!result.ok) throw createError({ statusCode: result.status, statusMessage: result.message })
   if (!result.thresholdsChanged.length) return { ...result.view, reevaluation: null }
   reevaluateCompanyInBatches(actor.organisationId)

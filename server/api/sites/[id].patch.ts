@@ -17,7 +17,7 @@ export default defineEventHandler(async (event) => {
   if (input.roomNotes !== undefined) changes.roomNotes = input.roomNotes || null
   if (input.accessNotes !== undefined) changes.accessNotes = input.accessNotes || null
   if (!Object.keys(changes).length) return toSiteView(before)
-  const after = auditedChange(actor,
+  const after = await auditedChange(actor,
     db => db.update(sites).set(changes).where(eq(sites.id, id)).returning().get(),
     after => ({ action: 'site.update', entity: 'site', entityId: id, before, after }))
   return toSiteView(after)

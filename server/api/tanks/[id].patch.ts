@@ -30,15 +30,16 @@ export default defineEventHandler(async (event) => {
     changes.volumeLitres = computed.volumeLitres
   }
   if (!Object.keys(changes).length) return await getTankView(actor, id)
-  // What a signed-off tank's certificate prints changes only by reopening or an amendment with a reason.
-  const signed = currentApprovedSignOff(id)
-  const signedChanges = signed ? signedFieldChanges(before, changes) : []
-  if (signed && signedChanges.length && !input.amendmentReason) {
-    const message = `This tank was signed off on ${signed.decidedAt?.slice(0, 10)}: ${signedFieldsInWords(signedChanges.map(c => c.field))} part of the signed record. Write a reason to amend it (the certificate will show the amendment), or reopen the sign-off.`
-    throw createError({ statusCode: 409, statusMessage: message, message, data: { issues: [{ field: 'amendmentReason', message }], signedFields: signedChanges.map(c => c.field) } })
-  }
   const now = requestNow(event)
-  useDB().transaction(() => {
+  // Under the write lock: a sign-off decided while this change waited for it counts.
+  await writeTransaction(() => {
+    // What a signed-off tank's certificate prints changes only by reopening or an amendment with a reason.
+    const signed = currentApprovedSignOff(id)
+    const signedChanges = signed ? signedFieldChanges(before, changes) : []
+    if (signed && signedChanges.length && !input.amendmentReason) {
+      const message = `This tank was signed off on ${signed.decidedAt?.slice(0, 10)}: ${signedFieldsInWords(signedChanges.map(c => c.field))} part of the signed record. Write a reason to amend it (the certificate will show the amendment), or reopen the sign-off.`
+      throw createError({ statusCode: 409, statusMessage: message, message, data: { issues: [{ field: 'amendmentReason', message }], signedFields: signedChanges.map(c => c.field) } })
+    }
     const updated = useDB().update(tanks).set(changes).where(eq(tanks.id, id)).returning().get()
     if (signed && signedChanges.length) {
       recordAmendment(useDB(), { signOffId: signed.id, tankId: id, by: actor.id, at: now, reason: input.amendmentReason!, changes: signedChanges })

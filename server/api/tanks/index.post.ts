@@ -7,8 +7,7 @@ export default defineEventHandler(async (event) => {
   const input = await readValidatedBody(event, valid(TankCreateSchema))
   checkTankReferences(actor, input)
   const { dimensions, volumeLitres } = volumeFromDimensions(input.shape, input.dimensions)
-  const db = useDB()
-  const tank = db.transaction((tx) => {
+  const tank = await writeTransaction((tx) => {
     const row = tx.insert(tanks).values({
       organisationId: actor.organisationId,
       clientId: input.clientId,

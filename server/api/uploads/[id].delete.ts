@@ -12,15 +12,18 @@ export default defineEventHandler(async (event) => {
   const { id } = await getValidatedRouterParams(event, valid(IdParams))
   const row = requireVisibleUpload(actor, id)
   if (!mayRemoveUpload(row, actor.id)) throw createError({ statusCode: 403, statusMessage: 'Only the person who added this file can remove it.' })
-  if (row.stageId) {
-    const stage = findStage(row.tankId, row.stageId)
-    if (stage) assertStageUnsigned(row.tankId, stage.key)
-  }
-  if (row.readingId) {
-    const reading = useDB().select({ id: readings.id, takenAt: readings.takenAt }).from(readings).where(eq(readings.id, row.readingId)).get()
-    if (reading) assertEntryUnlocked(row.tankId, reading.takenAt, reading.id)
-  }
-  removeUploadRow(useDB(), actor, row)
+  // Checked under the write lock: a sign-off decided while this removal waited for it counts.
+  await writeTransaction((db) => {
+    if (row.stageId) {
+      const stage = findStage(row.tankId, row.stageId)
+      if (stage) assertStageUnsigned(row.tankId, stage.key)
+    }
+    if (row.readingId) {
+      const reading = db.select({ id: readings.id, takenAt: readings.takenAt }).from(readings).where(eq(readings.id, row.readingId)).get()
+      if (reading) assertEntryUnlocked(row.tankId, reading.takenAt, reading.id)
+    }
+    removeUploadRow(db, actor, row)
+  })
   // The bytes go after the row's commit, so a failed delete never leaves a row without its file.
   const storage = useStorage('uploads')
   await storage.removeItem(row.storageKey)

@@ -17,10 +17,15 @@ export interface HousekeepingResult {
   walPages: number
 }
 
-export function runHousekeeping(db: TidewrightDB, now: Date): HousekeepingResult {
-  return {
-    sessionsPruned: pruneSessions(db, now),
-    throttleMarksPruned: pruneAttempts(db, new Date(now.getTime() - LONGEST_THROTTLE_WINDOW_MS)),
-    walPages: checkpointWal(db).walPages,
-  }
+/**
+ * Prunes, then checkpoints. `write` runs the prunes in a write transaction (the request loop's
+ * `writeTransaction`, which waits for the lock off the loop); the checkpoint runs outside any
+ * transaction, as it must, and does not wait (checkpointWal).
+ */
+export async function runHousekeeping(db: TidewrightDB, now: Date, write: <T>(work: (db: TidewrightDB) => T) => Promise<T>): Promise<HousekeepingResult> {
+  const pruned = await write(tx => ({
+    sessionsPruned: pruneSessions(tx, now),
+    throttleMarksPruned: pruneAttempts(tx, new Date(now.getTime() - LONGEST_THROTTLE_WINDOW_MS)),
+  }))
+  return { ...pruned, walPages: checkpointWal(db).walPages }
 }

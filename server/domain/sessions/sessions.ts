@@ -68,18 +68,28 @@ export function checkSession(db: Db, token: string, now: Date, lifetimes: Sessio
   const row = sessionByTokenHash(db).get({ tokenHash: hashSessionToken(token) })
   if (!row) return { live: false, reason: 'unknown' }
   if (row.endedAt) return { live: false, reason: 'ended' }
-  const at = now.getTime()
-  const lapsed: SessionEndReason | null = at >= Date.parse(row.expiresAt)
-    ? 'expired'
-    : at - Date.parse(row.lastSeenAt) >= lifetimes.idleMs ? 'idle' : null
-  if (lapsed) {
-    endSession(db, row.id, lapsed, now)
-    return { live: false, reason: lapsed }
+  const write = writeDue(row, now, lifetimes)
+  if (write && write !== 'touch') {
+    endSession(db, row.id, write, now)
+    return { live: false, reason: write }
   }
-  if (at - Date.parse(row.lastSeenAt) >= TOUCH_EVERY_MS) {
-    db.update(sessions).set({ lastSeenAt: now.toISOString() }).where(eq(sessions.id, row.id)).run()
-  }
+  if (write === 'touch') db.update(sessions).set({ lastSeenAt: now.toISOString() }).where(eq(sessions.id, row.id)).run()
   return { live: true, session: row }
+}
+
+/** What checking this live session at `now` writes: its end (a lifetime ran out), its last-seen time, or nothing. */
+function writeDue(row: SessionRow, now: Date, lifetimes: SessionLifetimes): 'expired' | 'idle' | 'touch' | null {
+  const at = now.getTime()
+  if (at >= Date.parse(row.expiresAt)) return 'expired'
+  const unused = at - Date.parse(row.lastSeenAt)
+  if (unused >= lifetimes.idleMs) return 'idle'
+  return unused >= TOUCH_EVERY_MS ? 'touch' : null
+}
+
+/** Whether checkSession would write for this token at `now` (most checks only read): the request loop then takes the write lock first. */
+export function sessionCheckWrites(db: Db, token: string, now: Date, lifetimes: SessionLifetimes): boolean {
+  const row = sessionByTokenHash(db).get({ tokenHash: hashSessionToken(token) })
+  return Boolean(row && !row.endedAt && writeDue(row, now, lifetimes))
 }
 
 /** Ends one session; true if it was live. */

@@ -88,7 +88,7 @@ export interface EvaluatedCommand<T, E extends SignOffVerdict = SignOffEvaluatio
   /** Makes the evaluation (the caller decides where: the pool for a long history). */
   evaluate: () => Promise<E>
   /** The command itself, which refuses (EvaluationOutdated) when the tank's data or settings moved past the evaluation. */
-  command: (evaluation: E) => T
+  command: (evaluation: E) => T | Promise<T>
 }
 
 /**
@@ -102,7 +102,7 @@ export async function onCurrentEvaluation<T, E extends SignOffVerdict = SignOffE
     check()
     const evaluation = await evaluate()
     try {
-      return command(evaluation)
+      return await command(evaluation)
     }
     catch (error) {
       if (!(error instanceof EvaluationOutdated) || attempt >= SIGN_OFF_ATTEMPTS) throw error

@@ -10,6 +10,6 @@ export default defineEventHandler(async (event) => {
   const current = getAlert(actor, id, now)
   if (!current) throw createError({ statusCode: 404, statusMessage: 'Alert not found' })
   const { note } = await readValidatedBody(event, valid(AlertAcknowledgeSchema))
-  if (!acknowledgeAlert(actor, id, note || null, now)) throw createError({ statusCode: 409, statusMessage: `The alert is already ${current.status}` })
+  if (!await acknowledgeAlert(actor, id, note || null, now)) throw createError({ statusCode: 409, statusMessage: `The alert is already ${current.status}` })
   return getAlert(actor, id, now)
 })

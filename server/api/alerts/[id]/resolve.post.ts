@@ -10,6 +10,6 @@ export default defineEventHandler(async (event) => {
   const current = getAlert(actor, id, now)
   if (!current) throw createError({ statusCode: 404, statusMessage: 'Alert not found' })
   const { note } = await readValidatedBody(event, valid(AlertResolveSchema))
-  if (!resolveAlert(actor, id, note, now)) throw createError({ statusCode: 409, statusMessage: 'The alert is already resolved' })
+  if (!await resolveAlert(actor, id, note, now)) throw createError({ statusCode: 409, statusMessage: 'The alert is already resolved' })
   return getAlert(actor, id, now)
 })

@@ -11,7 +11,7 @@ export default defineEventHandler(async (event) => {
   const { archived } = await readValidatedBody(event, valid(ArchiveSchema))
   const before = requireClient(actor, id)
   if (!!before.archivedAt !== archived) {
-    auditedChange(actor,
+    await auditedChange(actor,
       db => db.update(clients).set({ archivedAt: archived ? new Date().toISOString() : null }).where(eq(clients.id, id)).returning().get(),
       after => ({ action: archived ? 'client.archive' : 'client.restore', entity: 'client', entityId: id, before, after }))
   }

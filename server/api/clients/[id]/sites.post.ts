@@ -8,7 +8,7 @@ export default defineEventHandler(async (event) => {
   const { id } = await getValidatedRouterParams(event, valid(IdParams))
   requireClient(actor, id)
   const input = await readValidatedBody(event, valid(SiteCreateSchema))
-  const row = auditedChange(actor, db => db.insert(sites).values({
+  const row = await auditedChange(actor, db => db.insert(sites).values({
     organisationId: actor.organisationId,
     clientId: id,
     label: input.label,

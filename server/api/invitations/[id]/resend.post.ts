@@ -19,10 +19,10 @@ export default defineEventHandler(async (event) => {
   if (!person || !mayHandleAccountOf(actor, person)) throw createError({ statusCode: 404, statusMessage: 'Invitation not found' })
   if (person.passwordHash !== null) throw createError({ statusCode: 409, statusMessage: `${person.name} has already accepted the invitation.` })
   if (!person.active) throw createError({ statusCode: 409, statusMessage: `${person.name}'s account is deactivated: reactivate it first.` })
-  requireInvitationAllowance(event, actor.id)
+  await requireInvitationAllowance(event, actor.id)
   const answer = { sentTo: person.email, expiresAt: new Date(now.getTime() + TOKEN_TTL_MS.invite).toISOString() }
-  if (!mayMailInvitee(event, person.email)) return answer
-  db.transaction((t) => {
+  if (!await mayMailInvitee(event, person.email)) return answer
+  await writeTransaction((t) => {
     queueInvitation(t, person, actor.name, now)
     recordAudit(t, actor, { action: 'user.invite-resend', entity: 'user', entityId: person.id, after: { email: person.email } })
   })

@@ -9,10 +9,11 @@ const NoticeParams = v.object({ id: v.pipe(v.string(), v.regex(/^[\w:-]{1,200}$/
 export default defineEventHandler(async (event) => {
   const actor = await requireActor(event)
   const { id } = await getValidatedRouterParams(event, valid(NoticeParams))
-  const db = useDB()
-  const mine = db.select({ id: notifications.id }).from(notifications).where(and(eq(notifications.id, id), eq(notifications.userId, actor.id))).get()
-  if (!mine) throw createError({ statusCode: 404, statusMessage: 'Notice not found' })
-  db.update(notifications).set({ readAt: new Date().toISOString() }).where(and(eq(notifications.id, id), isNull(notifications.readAt))).run()
+  await writeTransaction((db) => {
+    const mine = db.select({ id: notifications.id }).from(notifications).where(and(eq(notifications.id, id), eq(notifications.userId, actor.id))).get()
+    if (!mine) throw createError({ statusCode: 404, statusMessage: 'Notice not found' })
+    db.update(notifications).set({ readAt: new Date().toISOString() }).where(and(eq(notifications.id, id), isNull(notifications.readAt))).run()
+  })
   announceNotices([actor.id])
   return { unread: unreadCount(actor.id) }
 })

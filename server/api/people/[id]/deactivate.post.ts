@@ -5,5 +5,5 @@ import { deactivatePerson } from '#server/domain/people/people'
 export default defineEventHandler(async (event) => {
   const actor = await requireActor(event, ['admin'])
   const { id } = await getValidatedRouterParams(event, valid(IdParams))
-  return { person: personChange(() => deactivatePerson(useDB(), actor, id, requestNow(event))) }
+  return { person: await writeTransaction(db => personChange(() => deactivatePerson(db, actor, id, requestNow(event)))) }
 })

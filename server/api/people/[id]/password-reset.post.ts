@@ -12,7 +12,7 @@ export default defineEventHandler(async (event) => {
   if (!person) throw createError({ statusCode: 404, statusMessage: 'Person not found' })
   if (!person.active) throw createError({ statusCode: 409, statusMessage: `${person.name}'s account is deactivated: reactivate it first.` })
   if (person.passwordHash === null) throw createError({ statusCode: 409, statusMessage: `${person.name} has not accepted the invitation yet: resend the invitation instead.` })
-  db.transaction((t) => {
+  await writeTransaction((t) => {
     queuePasswordReset(t, person, now)
     recordAudit(t, actor, { action: 'user.reset-sent', entity: 'user', entityId: person.id, after: { email: person.email } })
   })

@@ -5,5 +5,5 @@ import { reactivatePerson } from '#server/domain/people/people'
 export default defineEventHandler(async (event) => {
   const actor = await requireActor(event, ['admin'])
   const { id } = await getValidatedRouterParams(event, valid(IdParams))
-  return { person: personChange(() => reactivatePerson(useDB(), actor, id)) }
+  return { person: await writeTransaction(db => personChange(() => reactivatePerson(db, actor, id))) }
 })

@@ -9,5 +9,5 @@ export default defineEventHandler(async (event) => {
   const { id } = await getValidatedRouterParams(event, valid(IdParams))
   if (!findPerson(useDB(), actor.organisationId, id)) throw createError({ statusCode: 404, statusMessage: 'Person not found' })
   const { role } = await readValidatedBody(event, valid(PersonRoleSchema))
-  return { person: personChange(() => changePersonRole(useDB(), actor, id, role, requestNow(event))) }
+  return { person: await writeTransaction(db => personChange(() => changePersonRole(db, actor, id, role, requestNow(event)))) }
 })

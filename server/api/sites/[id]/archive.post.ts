@@ -11,7 +11,7 @@ export default defineEventHandler(async (event) => {
   const { archived } = await readValidatedBody(event, valid(ArchiveSchema))
   const before = requireSite(actor, id)
   if (!!before.archivedAt === archived) return toSiteView(before)
-  const after = auditedChange(actor,
+  const after = await auditedChange(actor,
     db => db.update(sites).set({ archivedAt: archived ? new Date().toISOString() : null }).where(eq(sites.id, id)).returning().get(),
     after => ({ action: archived ? 'site.archive' : 'site.restore', entity: 'site', entityId: id, before, after }))
   return toSiteView(after)

@@ -14,7 +14,7 @@ export default defineEventHandler(async (event) => {
   const instrument = await readValidatedBody(event, valid(SalinityInstrumentSchema))
   const before = salinityInstrumentOf(useDB(), actor.id, tank.id)
   if (before?.mode !== instrument.mode || before.sgBasis !== instrument.sgBasis) {
-    auditedChange(actor,
+    await auditedChange(actor,
       tx => rememberSalinityInstrument(tx, actor.id, tank.id, instrument),
       () => ({ action: 'preferences.salinity-instrument', entity: 'tank', entityId: tank.id, before, after: instrument }))
   }

@@ -7,9 +7,11 @@ import { endSession } from '#server/domain/sessions/sessions'
 export default defineEventHandler(async (event) => {
   const actor = await requireActor(event)
   const { id } = await getValidatedRouterParams(event, valid(SessionIdParams))
-  const db = useDB()
-  const own = db.select({ id: sessions.id }).from(sessions).where(and(eq(sessions.id, id), eq(sessions.userId, actor.id))).get()
-  if (!own || !endSession(db, id, 'ended-by-person', requestNow(event))) throw createError({ statusCode: 404, statusMessage: 'Session not found' })
+  const ended = await writeTransaction((db) => {
+    const own = db.select({ id: sessions.id }).from(sessions).where(and(eq(sessions.id, id), eq(sessions.userId, actor.id))).get()
+    return Boolean(own) && endSession(db, id, 'ended-by-person', requestNow(event))
+  })
+  if (!ended) throw createError({ statusCode: 404, statusMessage: 'Session not found' })
   if (id === actor.sessionId) await clearUserSession(event)
   return { ok: true }
 })

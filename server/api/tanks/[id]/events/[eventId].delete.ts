@@ -7,10 +7,11 @@ export default defineEventHandler(async (event) => {
   const actor = await requireActor(event, ENTRY_ROLES)
   const { id, eventId } = await getValidatedRouterParams(event, valid(EventParams))
   const tank = requireVisibleTank(actor, id)
-  const existing = requireEvent(tank.id, eventId)
-  assertEditable(actor, tank, { id: existing.id, enteredBy: existing.enteredBy, createdAt: existing.createdAt, at: existing.at })
   const db = useDB()
-  db.transaction(() => {
+  // Found and checked under the write lock: a delete or sign-off that went first while this one waited counts.
+  await writeTransaction(() => {
+    const existing = requireEvent(tank.id, eventId)
+    assertEditable(actor, tank, { id: existing.id, enteredBy: existing.enteredBy, createdAt: existing.createdAt, at: existing.at })
     db.delete(events).where(eq(events.id, existing.id)).run()
     writeAudit(actor, { action: 'event.delete', entity: 'event', entityId: existing.id, before: existing })
   })

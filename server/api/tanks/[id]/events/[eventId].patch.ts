@@ -20,9 +20,11 @@ export default defineEventHandler(async (event): Promise<EventView> => {
   const merged = { ...start, ...Object.fromEntries(Object.entries(patch).filter(([, value]) => value !== undefined)) } as EventInput
   const result = toCanonicalEvent(merged)
   if (!result.ok) fieldError(result.issues)
-  assertWritableAt(tank.id, result.event.at)
   const db = useDB()
-  const row = db.transaction(() => {
+  const row = await writeTransaction(() => {
+    // Checked again under the write lock: a sign-off decided while this edit waited for it counts.
+    assertEditable(actor, tank, { id: existing.id, enteredBy: existing.enteredBy, createdAt: existing.createdAt, at: existing.at })
+    assertWritableAt(tank.id, result.event.at)
     const updated = db.update(events).set(eventColumns(result.event)).where(eq(events.id, existing.id)).returning().get()
     writeAudit(actor, { action: 'event.update', entity: 'event', entityId: existing.id, before: existing, after: updated })
     return updated

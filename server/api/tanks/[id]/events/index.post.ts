@@ -17,9 +17,10 @@ export default defineEventHandler(async (event): Promise<EventView> => {
   const input = await readValidatedBody(event, valid(EventInputSchema))
   const result = toCanonicalEvent(input)
   if (!result.ok) fieldError(result.issues)
-  assertWritableAt(tank.id, result.event.at)
   const db = useDB()
-  const row = db.transaction(() => {
+  const row = await writeTransaction(() => {
+    // Checked under the write lock: a sign-off decided while this save waited for it counts.
+    assertWritableAt(tank.id, result.event.at)
     const inserted = db.insert(events).values({ tankId: tank.id, enteredBy: actor.id, ...eventColumns(result.event) }).returning().get()
     writeAudit(actor, { action: 'event.create', entity: 'event', entityId: inserted.id, after: inserted })
     return inserted

@@ -23,9 +23,11 @@ export default defineEventHandler(async (event): Promise<ReadingSaved> => {
   const merged = { ...start, ...Object.fromEntries(Object.entries(patch).filter(([, value]) => value !== undefined)) }
   const result = toCanonicalReading(merged)
   if (!result.ok) fieldError(result.issues)
-  assertWritableAt(tank.id, result.reading.takenAt)
   const db = useDB()
-  const row = db.transaction(() => {
+  const row = await writeTransaction(() => {
+    // Checked again under the write lock: a sign-off decided while this edit waited for it counts.
+    assertEditable(actor, tank, { id: existing.id, enteredBy: existing.enteredBy, createdAt: existing.createdAt, at: existing.takenAt })
+    assertWritableAt(tank.id, result.reading.takenAt)
     const updated = db.update(readings).set(readingColumns(result.reading)).where(eq(readings.id, existing.id)).returning().get()
     // Moved to another day: that day must have room. Staying on its day never raises the count.
     if (dayOf(updated.takenAt) !== dayOf(existing.takenAt)) assertDayNotOverfull(event, db, tank.id, updated.takenAt)

@@ -21,9 +21,10 @@ export default defineEventHandler(async (event): Promise<ReadingSaved> => {
   const input = await readValidatedBody(event, valid(ReadingInputSchema))
   const result = toCanonicalReading(input)
   if (!result.ok) fieldError(result.issues)
-  assertWritableAt(tank.id, result.reading.takenAt)
   const db = useDB()
-  const { row, revisionAfterInsert } = db.transaction(() => {
+  const { row, revisionAfterInsert } = await writeTransaction(() => {
+    // Checked under the write lock: a sign-off decided while this save waited for it counts.
+    assertWritableAt(tank.id, result.reading.takenAt)
     const inserted = insertTest(db, tank.id, actor.id, result.reading)
     // Read right after the insert, in its transaction: the kept engine input may take this test in place of a re-read.
     const revisionAfterInsert = tankDataRevisionInDb(db, tank.id)

@@ -13,6 +13,6 @@ export default defineEventHandler(async (event) => {
   requireVisibleTank(actor, id)
   const input = await readValidatedBody(event, valid(SignOffReopenSchema))
   const tank = requireVisibleTank(actor, id)
-  const row = reopenSignOff(actor, tank, input.reason)
+  const row = await reopenSignOff(actor, tank, input.reason)
   return toSignOffRecord(row, userNames(actor.organisationId))
 })

@@ -16,16 +16,16 @@ export default defineEventHandler(async (event) => {
   // Params before body: 404 for a row the actor may not see, whatever the body. Read again after the await.
   if (!findStage(requireVisibleTank(actor, id).id, stageId)) throw createError({ statusCode: 404, statusMessage: 'Stage not found' })
   const patch = await readValidatedBody(event, valid(StagePatchSchema))
-  const tank = requireVisibleTank(actor, id)
-  const stage = findStage(tank.id, stageId)
-  if (!stage) throw createError({ statusCode: 404, statusMessage: 'Stage not found' })
-  assertStageUnsigned(tank.id, stage.key)
   const now = new Date()
-  const changes = applyStagePatch(actor, tank, stage, patch, now)
-  const trigger = tankTriggerAfterStage(tank, stage.key, changes.status)
-  const db = useDB()
-  // The stage, the tank status it causes and their audit rows commit together.
-  const { tankAfter } = db.transaction((tx) => {
+  // The stage, the tank status it causes and their audit rows commit together, checked under the
+  // write lock (a sign-off or another change that went first while this one waited counts).
+  const { tank, tankAfter } = await writeTransaction((tx) => {
+    const tank = requireVisibleTank(actor, id)
+    const stage = findStage(tank.id, stageId)
+    if (!stage) throw createError({ statusCode: 404, statusMessage: 'Stage not found' })
+    assertStageUnsigned(tank.id, stage.key)
+    const changes = applyStagePatch(actor, tank, stage, patch, now)
+    const trigger = tankTriggerAfterStage(tank, stage.key, changes.status)
     if (Object.keys(changes).length) {
       const after = tx.update(planStages).set(changes).where(eq(planStages.id, stage.id)).returning().get()
       recordAudit(tx, actor, { action: 'plan-stage.update', entity: 'plan_stage', entityId: stage.id, before: stage, after })
@@ -33,7 +33,7 @@ export default defineEventHandler(async (event) => {
     const tankAfter = trigger
       ? moveTank({ tankId: tank.id, trigger, actor, cycleStartedAt: trigger === 'water-filled' ? tank.cycleStartedAt ?? now.toISOString() : undefined }, tx)
       : undefined
-    return { tankAfter }
+    return { tank, tankAfter }
   })
   if (tankAfter) await onTankDataChanged(tank.id, { actor, now })
   return planView(actor, tankAfter ?? tank)
