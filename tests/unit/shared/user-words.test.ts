@@ -41,12 +41,12 @@ function shownWords(text: string, vue: boolean): string[] {
   const template = vue ? [...(code.match(/<template>[\s\S]*<\/template>/)?.[0] ?? '').matchAll(/>([^<>]+)</g)].map(m => m[1] ?? '') : []
   return [...literals, ...template]
     .filter(w => /[a-z]/i.test(w) && /\s/.test(w.trim()))
-    // SQL is code too.
-    .filter(w => !/\b(INSERT INTO|SELECT|UPDATE \w+ SET|DELETE FROM)\b/.test(w) && !/\bselect\b[\s\S]*\bfrom\b/i.test(w))
+    // SQL is code too (a statement, or a piece of one such as its joins).
+    .filter(w => !/\b(INSERT INTO|SELECT|UPDATE \w+ SET|DELETE FROM)\b/.test(w) && !/\bselect\b[\s\S]*\bfrom\b/i.test(w) && !/\bjoin\b[\s\S]*\bon\b/i.test(w))
 }
 
-/** "reading" or "readings" used as a word, not as part of an identifier, property or path. */
-const READING_WORD = /(?<![\w./$-])[Rr]eadings?(?![\w/[(.-]|\.\w)/
+/** "reading" or "readings" used as a word, not as part of an identifier, property, JSON key or path. */
+const READING_WORD = /(?<![\w./$-])[Rr]eadings?(?![\w/[(.-]|\.\w|"\s*:)/
 
 describe('one word per concept', () => {
   it('calls a water-test session a "test" wherever a person reads it, never a "reading"', () => {
@@ -68,5 +68,8 @@ describe('one word per concept', () => {
     expect(shownWords(page, true).filter(w => READING_WORD.test(w)).sort()).toEqual(['No readings yet.', 'Readings (${n})'])
     expect(shownWords('const body = `A later reading cleared the alert.`', false).some(w => READING_WORD.test(w))).toBe(true)
     expect(shownWords('const rows = db.select().from(readings) // each reading\nfetch(`/api/tanks/${id}/readings`)', false).some(w => READING_WORD.test(w))).toBe(false)
+    // A JSON key and a statement's joins are code; the word in quotes within prose is still found.
+    expect(shownWords('const text = `{"readings": ${list}, "x": 1}`\nconst on = sql`left join ${readings} as later on ${a} = ${b}`', false).some(w => READING_WORD.test(w))).toBe(false)
+    expect(shownWords('const hint = \'Open the "readings" list to see it.\'', false).some(w => READING_WORD.test(w))).toBe(true)
   })
 })
