@@ -17,26 +17,37 @@ export function migrateDB(): void {
 }
 
 /** How long a write waits for the lock (runtime config `writeWaitMs`, NUXT_WRITE_WAIT_MS). */
-function writeWaitMs(): number {
+export function writeWaitMs(): number {
   const configured = Number(useRuntimeConfig().writeWaitMs)
   return Number.isFinite(configured) && configured >= 0 ? configured : WRITE_WAIT_MS
+}
+
+/** What a refused write says when nothing of the request was written. */
+const NOTHING_SAVED = 'Tidewright is busy saving other work; nothing was saved. Try again in a moment.'
+
+/**
+ * A write that waited past the bound for the lock (WriteWaitExceeded), answered as the 503 every
+ * loop path gives (Retry-After is added by server/plugins/04.write-wait-retry.ts); `message`
+ * says what of the request was and was not saved.
+ */
+export async function answeredBusy<T>(write: Promise<T>, message = NOTHING_SAVED): Promise<T> {
+  try {
+    return await write
+  }
+  catch (error) {
+    if (!(error instanceof WriteWaitExceeded)) throw error
+    throw createError({ statusCode: 503, statusMessage: message, message, cause: error })
+  }
 }
 
 /**
  * The one way the request loop writes: `work` (synchronous; its writes, reads and nested
  * `db.transaction`s) runs in one write transaction once no other connection holds SQLite's
  * write lock, waited for without holding the loop (server/db/write-wait.ts), so every other
- * request goes on being served meanwhile. Past the bound: 503, nothing written (Retry-After is
- * added by server/plugins/04.write-wait-retry.ts).
+ * request goes on being served meanwhile. Past the bound: 503 (answeredBusy), nothing of
+ * `work` written.
  */
-export async function writeTransaction<T>(work: (db: TidewrightDB) => T): Promise<T> {
+export function writeTransaction<T>(work: (db: TidewrightDB) => T, message?: string): Promise<T> {
   const db = useDB()
-  try {
-    return await whenWritable(db, () => work(db), writeWaitMs())
-  }
-  catch (error) {
-    if (!(error instanceof WriteWaitExceeded)) throw error
-    const message = 'Tidewright is busy saving other work; nothing was saved. Try again in a moment.'
-    throw createError({ statusCode: 503, statusMessage: message, message, cause: error })
-  }
+  return answeredBusy(whenWritable(db, () => work(db), writeWaitMs()), message)
 }

@@ -143,7 +143,7 @@ export async function sendStoredFile(event: H3Event, key: string, mimeType: stri
 
 /** Removes test photos that waited a day without a reading: rows (with audit) first, then their bytes. Returns how many. */
 export async function removeExpiredPendingPhotos(now: Date): Promise<number> {
-  const removed = removeExpiredPendingPhotoRows(useDB(), now)
+  const removed = await writeTransaction(db => removeExpiredPendingPhotoRows(db, now))
   const storage = useStorage('uploads')
   for (const upload of removed) {
     await storage.removeItem(upload.storageKey)

@@ -14,7 +14,8 @@
  * back under LONG_HISTORY_TESTS). Framework-free: takes a `Db` and the evaluation to run, so
  * the server and the tests share it.
  */
-import type { Db } from '#server/db/connection'
+import type { TidewrightDB } from '#server/db/connection'
+import { whenWritable, WRITE_WAIT_MS } from '#server/db/write-wait'
 import type { TankEvaluation } from '#server/db/verdicts'
 import type { AppendedTest } from '#server/domain/readings/engine-input-cache'
 import { storeVerdictIfNewer, tankDataRevision, type VerdictRefresh } from './newest-verdict'
@@ -28,8 +29,10 @@ export type EvaluateElsewhere = (tankId: string, now: Date, appended: readonly A
 
 /** One evaluation and the changes that joined it before it started. */
 interface Evaluation {
-  db: Db
+  db: TidewrightDB
   evaluate: EvaluateElsewhere
+  /** How long its store waits for another connection's write lock (whenWritable). */
+  writeWaitMs: number
   /** Each joiner's time: the evaluation is made as of the latest of them. */
   clocks: (() => Date)[]
   /**
@@ -45,14 +48,14 @@ interface Evaluation {
 /** Per tank with an evaluation running: the one waiting to start after it, if any. */
 const running = new Map<string, { waiting?: Evaluation }>()
 
-function newEvaluation(db: Db, evaluate: EvaluateElsewhere): Evaluation {
+function newEvaluation(db: TidewrightDB, evaluate: EvaluateElsewhere, writeWaitMs: number): Evaluation {
   let resolve!: Evaluation['resolve']
   let reject!: Evaluation['reject']
   const answer = new Promise<VerdictRefresh | undefined>((res, rej) => {
     resolve = res
     reject = rej
   })
-  return { db, evaluate, clocks: [], appended: [], answer, resolve, reject }
+  return { db, evaluate, writeWaitMs, clocks: [], appended: [], answer, resolve, reject }
 }
 
 /**
@@ -60,11 +63,12 @@ function newEvaluation(db: Db, evaluate: EvaluateElsewhere): Evaluation {
  * noted (noteTankDataChanged). `clock`: the change's time (a test injects one; otherwise the
  * clock when the evaluation starts). `appended`: the test just saved, if any. Resolves with the
  * verdict of the first evaluation started after the change was noted and whether it was stored,
- * or undefined when there is no such tank; rejects when that evaluation fails.
+ * or undefined when there is no such tank; rejects when that evaluation fails, or when its store
+ * waited past `writeWaitMs` for another connection's write lock (WriteWaitExceeded).
  */
-export function refreshVerdictOffLoop(db: Db, tankId: string, evaluate: EvaluateElsewhere, clock: () => Date = () => new Date(), appended?: AppendedTest): Promise<VerdictRefresh | undefined> {
+export function refreshVerdictOffLoop(db: TidewrightDB, tankId: string, evaluate: EvaluateElsewhere, clock: () => Date = () => new Date(), appended?: AppendedTest, writeWaitMs = WRITE_WAIT_MS): Promise<VerdictRefresh | undefined> {
   const tank = running.get(tankId)
-  const evaluation = tank ? (tank.waiting ??= newEvaluation(db, evaluate)) : newEvaluation(db, evaluate)
+  const evaluation = tank ? (tank.waiting ??= newEvaluation(db, evaluate, writeWaitMs)) : newEvaluation(db, evaluate, writeWaitMs)
   evaluation.clocks.push(clock)
   if (appended) evaluation.appended.push(appended)
   if (!tank) start(tankId, evaluation)
@@ -83,12 +87,14 @@ function start(tankId: string, evaluation: Evaluation): void {
     })
 }
 
-async function evaluateAndStore(tankId: string, { db, evaluate, clocks, appended }: Evaluation): Promise<VerdictRefresh | undefined> {
+async function evaluateAndStore(tankId: string, { db, evaluate, writeWaitMs, clocks, appended }: Evaluation): Promise<VerdictRefresh | undefined> {
   // Read before the evaluation reads anything: what it reads is at least this new.
   const revision = tankDataRevision(tankId)
   // The latest of its joiners' times: a joiner's test taken by its own time is taken by then too.
   const now = new Date(Math.max(...clocks.map(clock => clock().getTime())))
   const evaluation = await evaluate(tankId, now, appended)
   if (!evaluation) return undefined
-  return { verdict: evaluation.verdict, stored: storeVerdictIfNewer(db, tankId, evaluation, now, revision) }
+  // The tank is one with a long history, the kind an import writes: its lock is waited for off the loop.
+  const stored = await whenWritable(db, () => storeVerdictIfNewer(db, tankId, evaluation, now, revision), writeWaitMs)
+  return { verdict: evaluation.verdict, stored }
 }

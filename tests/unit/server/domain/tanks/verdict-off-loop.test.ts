@@ -10,6 +10,7 @@
  * does with the tests saved meanwhile matters.
  */
 import { randomUUID } from 'node:crypto'
+import Database from 'better-sqlite3'
 import { eq } from 'drizzle-orm'
 import { describe, expect, it } from 'vitest'
 import { evaluateCycle } from '../../../../../shared/cycle/engine'
@@ -266,5 +267,27 @@ describe('the verdict refreshed off the request loop', () => {
     expect(started).toHaveLength(4)
     started[3]!.finish()
     expect((await after.answer)?.stored).toBe(true)
+  })
+
+  it('waits for another connection\'s write lock to store the verdict without holding the loop, then stores it', async () => {
+    const tankId = demo.tanks.lobby
+    const { started, evaluate } = heldEvaluations()
+    const { answer } = saveAndRefresh(tankId, evaluate)
+    // Another connection holds the write lock, as the pool's import does for most of a second.
+    const other = new Database(dbPath)
+    other.exec('BEGIN IMMEDIATE')
+    let answered = false
+    const settled = answer.then((refreshed) => {
+      answered = true
+      return refreshed
+    })
+    started[0]!.finish()
+    // The loop turns (other companies' requests would be served) while the store waits.
+    for (let turn = 0; turn < 50; turn++) await settle()
+    expect(answered).toBe(false)
+    other.exec('COMMIT')
+    other.close()
+    expect(await settled).toEqual({ verdict: started[0]!.evaluation.verdict, stored: true })
+    expect(storedVerdict(tankId)).toEqual(started[0]!.evaluation.verdict)
   })
 })
