@@ -6,7 +6,7 @@
  */
 import fc from 'fast-check'
 import { describe, expect, it } from 'vitest'
-import { parseTime, timeReaderFor } from '../../../../shared/cycle/time'
+import { parseTime, storedInstantMs, timeReaderFor } from '../../../../shared/cycle/time'
 
 /** The rule parseTime implements, written out here without any memory. */
 function expected(text: string): number {
@@ -64,5 +64,31 @@ describe('parseTime', () => {
     for (const text of texts.slice(0, 100)) expect(parseTime(text)).toBe(Date.parse(text))
     expect(parseTime('2026-03-14T08:00')).toBe(Date.parse('2026-03-14T08:00Z'))
     expect(parseTime('14/03/2026')).toBeNaN()
+  })
+})
+
+describe('storedInstantMs', () => {
+  // A long history's times are read from their digits (timeReaderFor): every time in the stored
+  // form must be read there, days 29 to 31 too, and give exactly the instant Date.parse gives.
+  it('reads every day that exists, in every month of leap, common and century years, as Date.parse does', () => {
+    for (const year of [1000, 1600, 1900, 1970, 1999, 2000, 2024, 2026, 2100, 2400, 9999]) {
+      for (let month = 1; month <= 12; month += 1) {
+        for (let day = 1; day <= 31; day += 1) {
+          const text = `${pad(year, 4)}-${pad(month, 2)}-${pad(day, 2)}T23:59:59.999Z`
+          const exists = new Date(Date.UTC(year, month - 1, day)).getUTCDate() === day
+          if (exists) expect(storedInstantMs(text)).toBe(Date.parse(text))
+          else expect(storedInstantMs(text)).toBeUndefined()
+        }
+      }
+    }
+  })
+
+  it('gives Date.parse\'s instant for any time toISOString writes from year 1000 to 9999, and nothing earlier', () => {
+    const first = Date.UTC(1000, 0, 1)
+    const last = Date.UTC(9999, 11, 31, 23, 59, 59, 999)
+    fc.assert(fc.property(fc.integer({ min: first - 86_400_000, max: last }), (ms) => {
+      const text = new Date(ms).toISOString()
+      expect(storedInstantMs(text)).toBe(ms >= first ? Date.parse(text) : undefined)
+    }), { numRuns: 20_000, seed: 20261205 })
   })
 })
