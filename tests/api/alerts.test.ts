@@ -218,8 +218,13 @@ describe('alerts from readings', () => {
 
 describe('test reminders', () => {
   it('reminds the client once a day after the usual test hour, then tells the aquarist after two missed days', async () => {
-    const today = new Date()
-    const at = (days: number, hour: number) => new Date(Date.UTC(today.getUTCFullYear(), today.getUTCMonth(), today.getUTCDate() + days, hour))
+    // Days count from the day of the study reef's newest test, not from the clock: the demo's last
+    // test is at its usual hour (08:00 UTC) on the day it was seeded, or the day before when seeded
+    // earlier than that.
+    const aquarist2 = await signedIn('aquarist2@tidewright.test')
+    const newest = (await aquarist2.get<{ items: { takenAt: string }[] }>(`/api/tanks/${study}/readings?pageSize=1`)).body.items[0]!
+    const lastDay = new Date(newest.takenAt)
+    const at = (days: number, hour: number) => new Date(Date.UTC(lastDay.getUTCFullYear(), lastDay.getUTCMonth(), lastDay.getUTCDate() + days, hour))
     const reminders = (all: CaughtMail[]) => all.filter(m => m.envelopeTo.includes('client3@tidewright.test') && m.subject === 'Reminder: today\'s test for Fernhill study reef')
     const missed = (all: CaughtMail[]) => all.filter(m => m.envelopeTo.includes('aquarist2@tidewright.test') && /Fernhill study reef: \d+ days without a test/.test(m.subject))
     const before = reminders(await caughtMail()).length
