@@ -25,6 +25,9 @@ export function writeWaitMs(): number {
 /** What a refused write says when nothing of the request was written. */
 const NOTHING_SAVED = 'Tidewright is busy saving other work; nothing was saved. Try again in a moment.'
 
+/** What it says when the change was committed but its verdict could not be stored in time: entering it again would add it twice. */
+export const SAVED_BUT_BUSY = 'Your change was saved, but Tidewright is busy and has not refreshed the tank\'s verdict yet. Reload the tank in a moment; do not enter it again.'
+
 /**
  * A write that waited past the bound for the lock (WriteWaitExceeded), answered as the 503 every
  * loop path gives (Retry-After is added by server/plugins/04.write-wait-retry.ts); `message`
@@ -50,4 +53,20 @@ export async function answeredBusy<T>(write: Promise<T>, message = NOTHING_SAVED
 export function writeTransaction<T>(work: (db: TidewrightDB) => T, message?: string): Promise<T> {
   const db = useDB()
   return answeredBusy(whenWritable(db, () => work(db), writeWaitMs()), message)
+}
+
+/**
+ * `work` in one write transaction if no other connection holds the write lock right now;
+ * undefined, with nothing written and no wait, if one does. Only for a write that may be put
+ * off to a later request, such as a session's last-seen time.
+ */
+export async function writeIfFree<T>(work: (db: TidewrightDB) => T): Promise<T | undefined> {
+  const db = useDB()
+  try {
+    return await whenWritable(db, () => work(db), 0)
+  }
+  catch (error) {
+    if (error instanceof WriteWaitExceeded) return undefined
+    throw error
+  }
 }

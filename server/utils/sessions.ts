@@ -5,7 +5,7 @@
  */
 import type { H3Event } from 'h3'
 import { accountUsable, personWithClientArchive } from '#server/domain/people/people'
-import { checkSession, sessionCheckWrites, startSession, type SessionLifetimes } from '#server/domain/sessions/sessions'
+import { checkSession, sessionWriteDue, startSession, type SessionCheck, type SessionLifetimes } from '#server/domain/sessions/sessions'
 import { UnsealedCookies } from '#server/domain/sessions/unsealed-cookies'
 import type { users } from '#server/db/schema'
 
@@ -87,6 +87,20 @@ function sealExpiresAt(event: H3Event, name: string): number | null {
   return typeof createdAt === 'number' ? createdAt + maxAgeSeconds * 1000 : Date.now()
 }
 
+/**
+ * checkSession, with the write lock as its write needs it. Most checks only read. One that ends
+ * the session waits for the lock off the loop: an ended session must not be let in. The
+ * once-a-minute touch is written only if the lock is free at once; otherwise the read goes on
+ * untouched (a CSV import holds the lock for up to a second) and a later request touches it.
+ */
+async function checkedSession(token: string, now: Date, lifetimes: SessionLifetimes): Promise<SessionCheck> {
+  const db = useDB()
+  const write = sessionWriteDue(db, token, now, lifetimes)
+  if (write === null) return checkSession(db, token, now, lifetimes)
+  if (write !== 'touch') return writeTransaction(tx => checkSession(tx, token, now, lifetimes))
+  return await writeIfFree(tx => checkSession(tx, token, now, lifetimes)) ?? checkSession(db, token, now, lifetimes, { touch: false })
+}
+
 export interface SignedIn {
   sessionId: string
   user: UserRow
@@ -102,10 +116,7 @@ export async function resolveSignedIn(event: H3Event): Promise<SignedIn | null> 
   const db = useDB()
   const now = requestNow(event)
   const lifetimes = sessionLifetimes()
-  // Most checks only read; one that ends or touches the session waits for the write lock off the loop.
-  const check = sessionCheckWrites(db, token, now, lifetimes)
-    ? await writeTransaction(tx => checkSession(tx, token, now, lifetimes))
-    : checkSession(db, token, now, lifetimes)
+  const check = await checkedSession(token, now, lifetimes)
   if (!check.live) {
     forgetSessionCookie(event, token)
     return null

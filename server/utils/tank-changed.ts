@@ -27,21 +27,23 @@ export interface TankChange {
  * evaluated here, at once. Either way the verdict is stored only if none made from newer
  * data was stored first (server/domain/tanks/newest-verdict.ts).
  */
-/** Said when the change was committed but its verdict could not be stored in time: entering it again would add it twice. */
-const SAVED_BUT_BUSY = 'Your change was saved, but Tidewright is busy and has not refreshed the tank\'s verdict yet. Reload the tank in a moment; do not enter it again.'
-
 export async function onTankDataChanged(tankId: string, change: TankChange = {}): Promise<Verdict | undefined> {
   noteTankDataChanged(tankId)
   const db = useDB()
-  const refreshed = hasLongHistory(db, tankId)
+  // Past the bound (SAVED_BUT_BUSY) the stored verdict stays behind the data until the next change or the worker's verdict round.
+  if (hasLongHistory(db, tankId)) {
     // Its store waits for the write lock off the loop too (an import's lock is likeliest on such a tank).
-    ? await answeredBusy(refreshVerdictOffLoop(db, tankId, evaluateOffLoop, () => change.now ?? new Date(), change.appended, writeWaitMs()), SAVED_BUT_BUSY)
-    // Evaluated and stored in one step under the write lock (waited for off the loop): nothing else of
-    // this loop runs between the read and the store, as before.
-    : await writeTransaction(() => refreshVerdict(tankId, change.now), SAVED_BUT_BUSY)
-  // Past the bound the stored verdict stays behind the data until the next change or the worker's verdict round.
-  await writeTransaction(() => followVerdict(tankId, refreshed, change), SAVED_BUT_BUSY)
-  return refreshed?.verdict
+    const refreshed = await answeredBusy(refreshVerdictOffLoop(db, tankId, evaluateOffLoop, () => change.now ?? new Date(), change.appended, writeWaitMs()), SAVED_BUT_BUSY)
+    await writeTransaction(() => followVerdict(tankId, refreshed, change), SAVED_BUT_BUSY)
+    return refreshed?.verdict
+  }
+  // Evaluated, stored and followed in one write transaction, its lock waited for off the loop once:
+  // nothing else of this loop runs between the read, the store and the alerts.
+  return writeTransaction(() => {
+    const refreshed = refreshVerdict(tankId, change.now)
+    followVerdict(tankId, refreshed, change)
+    return refreshed?.verdict
+  }, SAVED_BUT_BUSY)
 }
 
 /** What follows from a verdict: the move to stocking once livestock is logged, and the alerts. */

@@ -92,3 +92,46 @@ describe('a save while another connection holds the write lock', () => {
     expect(saved.status).toBe(201)
   })
 })
+
+describe('a signed-in read while another connection holds the write lock', () => {
+  it('is answered at once when its session is only due its once-a-minute touch; the touch waits for a read that finds the lock free', async () => {
+    const own = await startOwnServer({ NUXT_TEST_HOOKS: '1' })
+    servers.push(own)
+    const client = await new ApiClient(own.server.baseURL).signIn('client@tidewright.test')
+    const minutesOn = (minutes: number) => ({ 'x-tidewright-test-now': new Date(Date.now() + minutes * 60_000).toISOString() })
+    const lastSeen = (): string => {
+      const reader = new Database(own.dbPath, { readonly: true })
+      try {
+        return (reader.prepare('SELECT last_seen_at AS at FROM sessions ORDER BY created_at DESC, rowid DESC LIMIT 1').get() as { at: string }).at
+      }
+      finally {
+        reader.close()
+      }
+    }
+    expect((await client.get('/api/me')).status).toBe(200)
+    const signedInAt = lastSeen()
+
+    // Two minutes on, the session is due a touch; held until the bound (5 s), it would be answered 503.
+    const lock = holdWriteLock(own.dbPath)
+    const read = await client.request('GET', '/api/me', undefined, minutesOn(2))
+    expect(read.status).toBe(200)
+    expect(lastSeen()).toBe(signedInAt)
+    lock.exec('COMMIT')
+
+    const touched = await client.request('GET', '/api/me', undefined, minutesOn(3))
+    expect(touched.status).toBe(200)
+    expect(Date.parse(lastSeen())).toBeGreaterThan(Date.parse(signedInAt) + 2 * 60_000)
+  })
+
+  it('still ends a session past its idle lifetime, waiting for the lock to do it', async () => {
+    const own = await startOwnServer({ NUXT_TEST_HOOKS: '1', NUXT_WRITE_WAIT_MS: '50' })
+    servers.push(own)
+    const client = await new ApiClient(own.server.baseURL).signIn('client@tidewright.test')
+    const daysOn = { 'x-tidewright-test-now': new Date(Date.now() + 4 * 86_400_000).toISOString() }
+    const lock = holdWriteLock(own.dbPath)
+    // Ending is a write the refusal must not skip: past the bound the read is refused, not let in.
+    expect((await client.request('GET', '/api/me', undefined, daysOn)).status).toBe(503)
+    lock.exec('ROLLBACK')
+    expect((await client.request('GET', '/api/me', undefined, daysOn)).status).toBe(401)
+  })
+})

@@ -64,7 +64,7 @@ export type SessionCheck
  * The session behind a cookie token at `now`. A session past its idle or absolute lifetime
  * is ended here, so it stays ended even if the clock is later read differently.
  */
-export function checkSession(db: Db, token: string, now: Date, lifetimes: SessionLifetimes): SessionCheck {
+export function checkSession(db: Db, token: string, now: Date, lifetimes: SessionLifetimes, options: { touch: boolean } = { touch: true }): SessionCheck {
   const row = sessionByTokenHash(db).get({ tokenHash: hashSessionToken(token) })
   if (!row) return { live: false, reason: 'unknown' }
   if (row.endedAt) return { live: false, reason: 'ended' }
@@ -73,12 +73,15 @@ export function checkSession(db: Db, token: string, now: Date, lifetimes: Sessio
     endSession(db, row.id, write, now)
     return { live: false, reason: write }
   }
-  if (write === 'touch') db.update(sessions).set({ lastSeenAt: now.toISOString() }).where(eq(sessions.id, row.id)).run()
+  if (write === 'touch' && options.touch) db.update(sessions).set({ lastSeenAt: now.toISOString() }).where(eq(sessions.id, row.id)).run()
   return { live: true, session: row }
 }
 
+/** What checking a live session may write: its end (a lifetime ran out) or its last-seen time. */
+export type SessionWrite = 'expired' | 'idle' | 'touch'
+
 /** What checking this live session at `now` writes: its end (a lifetime ran out), its last-seen time, or nothing. */
-function writeDue(row: SessionRow, now: Date, lifetimes: SessionLifetimes): 'expired' | 'idle' | 'touch' | null {
+function writeDue(row: SessionRow, now: Date, lifetimes: SessionLifetimes): SessionWrite | null {
   const at = now.getTime()
   if (at >= Date.parse(row.expiresAt)) return 'expired'
   const unused = at - Date.parse(row.lastSeenAt)
@@ -86,10 +89,13 @@ function writeDue(row: SessionRow, now: Date, lifetimes: SessionLifetimes): 'exp
   return unused >= TOUCH_EVERY_MS ? 'touch' : null
 }
 
-/** Whether checkSession would write for this token at `now` (most checks only read): the request loop then takes the write lock first. */
-export function sessionCheckWrites(db: Db, token: string, now: Date, lifetimes: SessionLifetimes): boolean {
+/**
+ * What checkSession would write for this token at `now`: null for most checks, which only read;
+ * otherwise the request loop takes the write lock first ('touch' only if it is free at once).
+ */
+export function sessionWriteDue(db: Db, token: string, now: Date, lifetimes: SessionLifetimes): SessionWrite | null {
   const row = sessionByTokenHash(db).get({ tokenHash: hashSessionToken(token) })
-  return Boolean(row && !row.endedAt && writeDue(row, now, lifetimes))
+  return row && !row.endedAt ? writeDue(row, now, lifetimes) : null
 }
 
 /** Ends one session; true if it was live. */
