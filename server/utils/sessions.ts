@@ -5,7 +5,7 @@
  */
 import type { H3Event } from 'h3'
 import { accountUsable, personWithClientArchive } from '#server/domain/people/people'
-import { checkSession, sessionWriteDue, startSession, type SessionCheck, type SessionLifetimes } from '#server/domain/sessions/sessions'
+import { checkSession, readSession, startSession, type SessionCheck, type SessionLifetimes } from '#server/domain/sessions/sessions'
 import { UnsealedCookies } from '#server/domain/sessions/unsealed-cookies'
 import type { users } from '#server/db/schema'
 
@@ -95,9 +95,10 @@ function sealExpiresAt(event: H3Event, name: string): number | null {
  */
 async function checkedSession(token: string, now: Date, lifetimes: SessionLifetimes): Promise<SessionCheck> {
   const db = useDB()
-  const write = sessionWriteDue(db, token, now, lifetimes)
-  if (write === null) return checkSession(db, token, now, lifetimes)
-  if (write !== 'touch') return writeTransaction(tx => checkSession(tx, token, now, lifetimes))
+  const read = readSession(db, token, now, lifetimes)
+  if (read.write === null) return read.check
+  // Read again under the lock: the session may have changed while the lock was waited for.
+  if (read.write !== 'touch') return writeTransaction(tx => checkSession(tx, token, now, lifetimes))
   return await writeIfFree(tx => checkSession(tx, token, now, lifetimes)) ?? checkSession(db, token, now, lifetimes, { touch: false })
 }
 

@@ -61,24 +61,43 @@ export type SessionCheck
     | { live: false, reason: 'unknown' | 'ended' | SessionEndReason }
 
 /**
- * The session behind a cookie token at `now`. A session past its idle or absolute lifetime
- * is ended here, so it stays ended even if the clock is later read differently.
+ * A token's session as read at `now`: either the check itself, when checking it writes nothing
+ * (most checks: they only read), or the write the check is due (its end, or its last-seen time).
  */
-export function checkSession(db: Db, token: string, now: Date, lifetimes: SessionLifetimes, options: { touch: boolean } = { touch: true }): SessionCheck {
-  const row = sessionByTokenHash(db).get({ tokenHash: hashSessionToken(token) })
-  if (!row) return { live: false, reason: 'unknown' }
-  if (row.endedAt) return { live: false, reason: 'ended' }
-  const write = writeDue(row, now, lifetimes)
-  if (write && write !== 'touch') {
-    endSession(db, row.id, write, now)
-    return { live: false, reason: write }
-  }
-  if (write === 'touch' && options.touch) db.update(sessions).set({ lastSeenAt: now.toISOString() }).where(eq(sessions.id, row.id)).run()
-  return { live: true, session: row }
-}
+export type SessionAsRead
+  = | { write: null, check: SessionCheck }
+    | { write: SessionWrite, session: SessionRow }
 
 /** What checking a live session may write: its end (a lifetime ran out) or its last-seen time. */
 export type SessionWrite = 'expired' | 'idle' | 'touch'
+
+/**
+ * The token's session as read now, and what checking it at `now` would write. A check that
+ * writes nothing ends here; one that writes reads again under the write lock (checkSession).
+ */
+export function readSession(db: Db, token: string, now: Date, lifetimes: SessionLifetimes): SessionAsRead {
+  const row = sessionByTokenHash(db).get({ tokenHash: hashSessionToken(token) })
+  if (!row) return { write: null, check: { live: false, reason: 'unknown' } }
+  if (row.endedAt) return { write: null, check: { live: false, reason: 'ended' } }
+  const write = writeDue(row, now, lifetimes)
+  return write ? { write, session: row } : { write: null, check: { live: true, session: row } }
+}
+
+/**
+ * The session behind a cookie token at `now`, with what the check writes. A session past its
+ * idle or absolute lifetime is ended here, so it stays ended even if the clock is later read
+ * differently. `touch: false` leaves the last-seen time as it is (the lock was not free).
+ */
+export function checkSession(db: Db, token: string, now: Date, lifetimes: SessionLifetimes, options: { touch: boolean } = { touch: true }): SessionCheck {
+  const read = readSession(db, token, now, lifetimes)
+  if (read.write === null) return read.check
+  if (read.write !== 'touch') {
+    endSession(db, read.session.id, read.write, now)
+    return { live: false, reason: read.write }
+  }
+  if (options.touch) db.update(sessions).set({ lastSeenAt: now.toISOString() }).where(eq(sessions.id, read.session.id)).run()
+  return { live: true, session: read.session }
+}
 
 /** What checking this live session at `now` writes: its end (a lifetime ran out), its last-seen time, or nothing. */
 function writeDue(row: SessionRow, now: Date, lifetimes: SessionLifetimes): SessionWrite | null {
@@ -87,15 +106,6 @@ function writeDue(row: SessionRow, now: Date, lifetimes: SessionLifetimes): Sess
   const unused = at - Date.parse(row.lastSeenAt)
   if (unused >= lifetimes.idleMs) return 'idle'
   return unused >= TOUCH_EVERY_MS ? 'touch' : null
-}
-
-/**
- * What checkSession would write for this token at `now`: null for most checks, which only read;
- * otherwise the request loop takes the write lock first ('touch' only if it is free at once).
- */
-export function sessionWriteDue(db: Db, token: string, now: Date, lifetimes: SessionLifetimes): SessionWrite | null {
-  const row = sessionByTokenHash(db).get({ tokenHash: hashSessionToken(token) })
-  return row && !row.endedAt ? writeDue(row, now, lifetimes) : null
 }
 
 /** Ends one session; true if it was live. */
