@@ -2,7 +2,7 @@
 import { existsSync, readdirSync, statSync } from 'node:fs'
 import { join } from 'node:path'
 
-const SOURCES = ['app', 'server', 'shared', 'public', 'drizzle', 'nuxt.config.ts', 'tailwind.config.ts', 'package-lock.json']
+const SOURCES = ['app', 'server', 'shared', 'public', 'drizzle', 'modules', 'nuxt.config.ts', 'tailwind.config.ts', 'package-lock.json', 'scripts/client-chunks.mjs', 'scripts/build-workers.mjs']
 const BUILT = '.output/server/index.mjs'
 
 function newestMtime(path) {

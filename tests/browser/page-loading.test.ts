@@ -1,5 +1,6 @@
 /**
- * Each page loads what it shows: the tank page's first load on a phone fetches no Chart.js
+ * Each page loads what it shows, and says so at once: the tank page's HTML names as modulepreload
+ * links every script the page runs before the reader scrolls. The tank page's first load on a phone fetches no Chart.js
  * (recognised by the `_chartjs` property it sets on every chart's data) and no chart data until
  * the reader comes near the charts, and then draws them; and no rule engine code (recognised by the rules' descriptions, which
  * the verdict answer carries for the rules it cites).
@@ -29,16 +30,27 @@ async function clientTankFirstLoad() {
   const watched = await openPage(browser, 375)
   const { page } = watched
   await signInThroughForm(page, 'client@tidewright.test')
+  // From a blank page: what the home page shown after sign-in still loads is not the tank page's.
+  await page.goto('about:blank')
   const scripts: string[] = []
   const chartData: string[] = []
   page.on('request', (request) => {
-    if (request.resourceType() === 'script') scripts.push(request.url())
+    // A prefetch link's download is for a later page; it runs nothing here.
+    if (request.resourceType() === 'script' && request.headers()['sec-purpose'] !== 'prefetch') scripts.push(request.url())
     if (request.url().endsWith('/chart')) chartData.push(request.url())
   })
-  await page.goto(`/tanks/${demo.tanks.lounge}`)
+  const response = await page.goto(`/tanks/${demo.tanks.lounge}`)
+  const html = await response!.text()
   await expect.poll(() => page.getByTestId('verdict-phase').isVisible()).toBe(true)
   await settle(page)
-  return { ...watched, scripts, chartData }
+  return { ...watched, scripts, chartData, html }
+}
+
+/** The script paths a page's HTML names at once: its entry script and its modulepreload links. */
+function scriptsNamedIn(html: string): Set<string> {
+  const tags = html.match(/<(?:script|link)\b[^>]*>/g) ?? []
+  const named = tags.filter(tag => /\btype="module"/.test(tag) || /\brel="modulepreload"/.test(tag))
+  return new Set(named.map(tag => /\b(?:src|href)="([^"]+)"/.exec(tag)?.[1]).filter(path => path !== undefined))
 }
 
 describe('what the tank page loads', () => {
@@ -57,6 +69,16 @@ describe('what the tank page loads', () => {
     const late = await Promise.all(afterScroll.map(definesChartJs))
     expect(beforeScroll.filter((_, i) => early[i])).toEqual([])
     expect(late.some(Boolean)).toBe(true)
+    expect(problems).toEqual([])
+    await context.close()
+  })
+
+  it('names in its HTML every script it runs before the reader scrolls: none waits for the entry to ask for it (375 px)', async () => {
+    const { context, problems, scripts, html } = await clientTankFirstLoad()
+    const named = scriptsNamedIn(html)
+    expect(named.size).toBeGreaterThan(1)
+    expect(scripts.length).toBeGreaterThan(1)
+    expect(scripts.map(url => new URL(url).pathname).filter(path => !named.has(path))).toEqual([])
     expect(problems).toEqual([])
     await context.close()
   })
