@@ -1,5 +1,5 @@
-// Lists every page under its own source path in the client manifest, so the server names a
-// page's scripts as modulepreload links in the HTML it sends.
+// Lists every lazily imported module (a page, a lazy component) under its own source path in the
+// client manifest, so the server names its scripts as modulepreload links in the HTML it sends.
 //
 // Why: Rollup places modules that a page's lazy parts share (the tank page's plan forms and its
 // chart set) in the page's own chunk, which is loaded before them anyway. Such a chunk is then no
