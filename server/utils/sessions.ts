@@ -99,7 +99,8 @@ async function checkedSession(token: string, now: Date, lifetimes: SessionLifeti
   if (read.write === null) return read.check
   // Read again under the lock: the session may have changed while the lock was waited for.
   if (read.write !== 'touch') return writeTransaction(tx => checkSession(tx, token, now, lifetimes))
-  return await writeIfFree(tx => checkSession(tx, token, now, lifetimes)) ?? checkSession(db, token, now, lifetimes, { touch: false })
+  // Lock busy: the session is live as just read, and a later request writes its last-seen time.
+  return await writeIfFree(tx => checkSession(tx, token, now, lifetimes)) ?? { live: true, session: read.session }
 }
 
 export interface SignedIn {

@@ -86,16 +86,16 @@ export function readSession(db: Db, token: string, now: Date, lifetimes: Session
 /**
  * The session behind a cookie token at `now`, with what the check writes. A session past its
  * idle or absolute lifetime is ended here, so it stays ended even if the clock is later read
- * differently. `touch: false` leaves the last-seen time as it is (the lock was not free).
+ * differently.
  */
-export function checkSession(db: Db, token: string, now: Date, lifetimes: SessionLifetimes, options: { touch: boolean } = { touch: true }): SessionCheck {
+export function checkSession(db: Db, token: string, now: Date, lifetimes: SessionLifetimes): SessionCheck {
   const read = readSession(db, token, now, lifetimes)
   if (read.write === null) return read.check
   if (read.write !== 'touch') {
     endSession(db, read.session.id, read.write, now)
     return { live: false, reason: read.write }
   }
-  if (options.touch) db.update(sessions).set({ lastSeenAt: now.toISOString() }).where(eq(sessions.id, read.session.id)).run()
+  db.update(sessions).set({ lastSeenAt: now.toISOString() }).where(eq(sessions.id, read.session.id)).run()
   return { live: true, session: read.session }
 }
 
